@@ -1,0 +1,381 @@
+//! The resolved design: every default applied, every value validated.
+//!
+//! Part of the `design` stage. Later stages take a `Design` and never see TOML. Units are in
+//! the field names or docs; design-file keys are named in each doc comment.
+
+/// Lap or wave (`[winding] type`).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
+pub enum WindingType {
+    /// Coil ends go to neighbouring segments; a = m·P.
+    Lap,
+    /// Coil ends go about two pole pitches apart; a = 2m.
+    Wave,
+}
+
+impl WindingType {
+    /// The design-file word.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            WindingType::Lap => "lap",
+            WindingType::Wave => "wave",
+        }
+    }
+}
+
+/// Progressive or retrogressive (`[winding] direction`, default progressive).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
+pub enum Direction {
+    /// Lap: y_c = +m. Wave: y_c = (C + m)/p, the trace lands m segments ahead after one round.
+    Progressive,
+    /// Lap: y_c = −m. Wave: y_c = (C − m)/p, the trace lands m segments behind after one round.
+    Retrogressive,
+}
+
+impl Direction {
+    /// The design-file word.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Direction::Progressive => "progressive",
+            Direction::Retrogressive => "retrogressive",
+        }
+    }
+
+    /// +1 progressive, −1 retrogressive.
+    pub fn sign(self) -> i64 {
+        match self {
+            Direction::Progressive => 1,
+            Direction::Retrogressive => -1,
+        }
+    }
+}
+
+/// Sense of rotation seen from the commutator end (`[armature] rotation`, default `"cw"`).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Rotation {
+    /// Clockwise from the commutator end: slot numbers pass a fixed pole in rising order.
+    Clockwise,
+    /// Counter-clockwise from the commutator end.
+    CounterClockwise,
+}
+
+impl Rotation {
+    /// The design-file word.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Rotation::Clockwise => "cw",
+            Rotation::CounterClockwise => "ccw",
+        }
+    }
+}
+
+/// Motor or generator (`[rating] mode`, default motor). Sets the current's sense against the EMF.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Mode {
+    /// Current flows against the induced EMF.
+    Motor,
+    /// Current flows with the induced EMF.
+    Generator,
+}
+
+impl Mode {
+    /// The design-file word.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Mode::Motor => "motor",
+            Mode::Generator => "generator",
+        }
+    }
+}
+
+/// Which type-A equalizers to fit (`[winding] equalizers`, lap only, default none).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum EqualizerChoice {
+    /// `"none"`.
+    None,
+    /// `"full"`: every possible connection (2C/P of them).
+    Full,
+    /// An integer n: every n-th possible connection, starting at segment 1.
+    EveryNth(u32),
+}
+
+/// Where the span came from.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum SpanSource {
+    /// Given in the design file.
+    Given,
+    /// Defaulted to floor(slots / poles).
+    Default,
+}
+
+/// Optional text that identifies the job (`[job]`).
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct Job {
+    /// `id`: the shop's job number.
+    pub id: Option<String>,
+    /// `title`.
+    pub title: Option<String>,
+    /// `customer`.
+    pub customer: Option<String>,
+    /// `date`: any text; the only date that ever appears on output.
+    pub date: Option<String>,
+    /// `notes`.
+    pub notes: Option<String>,
+}
+
+/// Thermal class of the insulation system (`[rating] thermal_class`).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum ThermalClass {
+    /// 105 (A).
+    A,
+    /// 120 (E).
+    E,
+    /// 130 (B).
+    B,
+    /// 155 (F).
+    F,
+    /// 180 (H).
+    H,
+}
+
+impl ThermalClass {
+    /// The class temperature in °C and the letter.
+    pub fn label(self) -> &'static str {
+        match self {
+            ThermalClass::A => "105 (A)",
+            ThermalClass::E => "120 (E)",
+            ThermalClass::B => "130 (B)",
+            ThermalClass::F => "155 (F)",
+            ThermalClass::H => "180 (H)",
+        }
+    }
+}
+
+/// Brush material (`[commutator] brush_grade`).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum BrushGrade {
+    /// Carbon or electrographite.
+    Carbon,
+    /// Metal-graphite.
+    MetalGraphite,
+}
+
+impl BrushGrade {
+    /// The design-file word.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            BrushGrade::Carbon => "carbon",
+            BrushGrade::MetalGraphite => "metal-graphite",
+        }
+    }
+}
+
+/// Nameplate rating (`[rating]`); every field optional.
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct Rating {
+    /// `voltage`, V at the terminals.
+    pub voltage: Option<f64>,
+    /// `current`, A in the armature.
+    pub current: Option<f64>,
+    /// `thermal_class`.
+    pub thermal_class: Option<ThermalClass>,
+}
+
+/// Cross-section of the conductor.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum ConductorShape {
+    /// Round wire, `diameter_mm` (bare), with `strands` in hand.
+    Round {
+        /// Bare diameter, mm.
+        diameter_mm: f64,
+        /// The AWG gauge when the diameter came from `awg`.
+        awg: Option<i32>,
+        /// Strands in hand (default 1).
+        strands: u32,
+    },
+    /// Rectangular strip `width_mm` × `height_mm` with `corner_radius_mm` (default 0).
+    Rectangular {
+        /// Width, mm.
+        width_mm: f64,
+        /// Height, mm.
+        height_mm: f64,
+        /// Corner radius, mm.
+        corner_radius_mm: f64,
+        /// Strips in hand (default 1).
+        strands: u32,
+    },
+}
+
+/// The conductor of one turn (`[conductor]`).
+#[derive(Clone, Debug, PartialEq)]
+pub struct Conductor {
+    /// The cross-section.
+    pub shape: ConductorShape,
+    /// `mean_turn_mm`: mean length of one turn, mm; estimated from `[core]` when absent.
+    pub mean_turn_mm: Option<f64>,
+}
+
+/// The armature core (`[core]`).
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct Core {
+    /// `diameter_mm`, armature outside diameter.
+    pub diameter_mm: Option<f64>,
+    /// `length_mm`, core (stack) length.
+    pub length_mm: Option<f64>,
+}
+
+/// Brush width as given.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum BrushWidth {
+    /// `brush_width_mm`.
+    Millimetres(f64),
+    /// `brush_width_segments`.
+    Segments(f64),
+}
+
+/// The commutator and brushes (`[commutator]`).
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct Commutator {
+    /// `diameter_mm`.
+    pub diameter_mm: Option<f64>,
+    /// `brush_width_mm` or `brush_width_segments`.
+    pub brush_width: Option<BrushWidth>,
+    /// `brush_grade` (default carbon).
+    pub brush_grade: Option<BrushGrade>,
+}
+
+/// Shop limits for the rating checks (`[limits]`); each has a default with its source.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Limits {
+    /// `segment_volts_avg_max`, V (default 15) [common practice].
+    pub segment_volts_avg_max: f64,
+    /// `segment_volts_peak_max`, V (default 30) [common practice].
+    pub segment_volts_peak_max: f64,
+    /// `path_current_max`, A per parallel path (default 250) [common practice].
+    pub path_current_max: f64,
+    /// `brush_arm_current_max`, A per brush arm (default 400) [common practice].
+    pub brush_arm_current_max: f64,
+    /// `segment_pitch_min_mm` (default 4.0) [common practice].
+    pub segment_pitch_min_mm: f64,
+    /// `commutator_speed_preferred_m_s` (default 15) [common practice].
+    pub commutator_speed_preferred_m_s: f64,
+    /// `commutator_speed_max_m_s` (default 30) [common practice].
+    pub commutator_speed_max_m_s: f64,
+    /// `current_density_min_a_mm2` (default 4.5) [common practice, from memory].
+    pub current_density_min_a_mm2: f64,
+    /// `current_density_max_a_mm2` (default 7.0) [common practice, from memory].
+    pub current_density_max_a_mm2: f64,
+    /// `brush_width_min_segments` (default 1) [common practice].
+    pub brush_width_min_segments: f64,
+    /// `brush_width_max_segments` (default 3) [common practice].
+    pub brush_width_max_segments: f64,
+    /// `electric_loading_max_a_m`, A/m (default 40 000) [common practice, from memory].
+    pub electric_loading_max_a_m: f64,
+}
+
+impl Default for Limits {
+    fn default() -> Self {
+        Limits {
+            segment_volts_avg_max: 15.0,
+            segment_volts_peak_max: 30.0,
+            path_current_max: 250.0,
+            brush_arm_current_max: 400.0,
+            segment_pitch_min_mm: 4.0,
+            commutator_speed_preferred_m_s: 15.0,
+            commutator_speed_max_m_s: 30.0,
+            current_density_min_a_mm2: 4.5,
+            current_density_max_a_mm2: 7.0,
+            brush_width_min_segments: 1.0,
+            brush_width_max_segments: 3.0,
+            electric_loading_max_a_m: 40_000.0,
+        }
+    }
+}
+
+/// Hard limits on the size of a design, so no input can exhaust memory.
+pub mod bounds {
+    /// Largest pole count accepted.
+    pub const MAX_POLES: i64 = 96;
+    /// Largest slot count accepted.
+    pub const MAX_SLOTS: i64 = 4_000;
+    /// Largest coils per slot accepted.
+    pub const MAX_COILS_PER_SLOT: i64 = 16;
+    /// Largest number of coil positions u·S (and so of segments) accepted.
+    pub const MAX_COILS: i64 = 20_000;
+    /// Largest multiplicity accepted.
+    pub const MAX_MULTIPLICITY: i64 = 6;
+    /// Largest turns per coil accepted.
+    pub const MAX_TURNS: i64 = 10_000;
+}
+
+/// A fully resolved, validated armature design.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Design {
+    /// The file name as given (shown on reports and sheets).
+    pub file_name: String,
+    /// `[job]`.
+    pub job: Job,
+    /// `[armature] poles`: even, 2…96.
+    pub poles: u32,
+    /// `[armature] slots`.
+    pub slots: u32,
+    /// `[armature] coils_per_slot` (u).
+    pub coils_per_slot: u32,
+    /// `[armature] segments` as given; the engine works out C when absent.
+    pub segments: Option<u32>,
+    /// `[armature] rotation`.
+    pub rotation: Rotation,
+    /// `[armature] pole_arc`: pole arc / pole pitch (default 0.7).
+    pub pole_arc: f64,
+    /// `[winding] type`.
+    pub winding_type: WindingType,
+    /// `[winding] multiplicity` (m, default 1).
+    pub multiplicity: u32,
+    /// `[winding] direction`.
+    pub direction: Direction,
+    /// `[winding] span`, slots (y_s); `"1-8"` is 7.
+    pub span: u32,
+    /// Whether the span was given or defaulted.
+    pub span_source: SpanSource,
+    /// `[winding] turns` per coil.
+    pub turns: u32,
+    /// `[winding] lead_offset`, segments (default 0). See `winding` for the convention.
+    pub lead_offset: i32,
+    /// `[winding] equalizers`.
+    pub equalizers: EqualizerChoice,
+    /// Flux per pole, mWb (`[winding]` or `[rating] flux_per_pole_mwb`).
+    pub flux_per_pole_mwb: Option<f64>,
+    /// Speed, rpm (`[winding]` or `[rating] speed_rpm`).
+    pub speed_rpm: Option<f64>,
+    /// `[rating] mode`.
+    pub mode: Mode,
+    /// `[rating]`, when present.
+    pub rating: Option<Rating>,
+    /// `[conductor]`, when present.
+    pub conductor: Option<Conductor>,
+    /// `[core]`, when present.
+    pub core: Option<Core>,
+    /// `[commutator]`, when present.
+    pub commutator: Option<Commutator>,
+    /// `[limits]` with defaults filled in.
+    pub limits: Limits,
+}
+
+impl Design {
+    /// Pole pairs p = P/2.
+    pub fn pole_pairs(&self) -> u32 {
+        self.poles / 2
+    }
+
+    /// Coil positions N = u·S.
+    pub fn coil_positions(&self) -> u32 {
+        self.coils_per_slot * self.slots
+    }
+}
+
+/// Bare diameter in mm of AWG gauge `n` (0000 is −3, 000 is −2, 00 is −1).
+///
+/// d = 0.127 mm × 92^((36 − n)/39) [src: ASTM B258, Standard Specification for Standard
+/// Nominal Diameters and Cross-Sectional Areas of AWG Sizes of Solid Round Wires].
+pub fn awg_diameter_mm(n: i32) -> f64 {
+    0.127 * 92f64.powf(f64::from(36 - n) / 39.0)
+}

@@ -1,0 +1,257 @@
+//! `TableReader`: typed, located access to one table of the parsed TOML document.
+//!
+//! Part of the `design` stage. Every getter returns the value with its byte span, or a
+//! [`Diagnostic`] that names the key, what was expected and a hint. Unknown keys are errors,
+//! with the nearest known key suggested.
+
+use std::ops::{Range, RangeInclusive};
+
+use toml::Spanned;
+use toml::de::{DeTable, DeValue};
+
+use super::Diagnostic;
+
+/// The source text and file name, shared by every reader of one document.
+#[derive(Clone, Copy)]
+pub(crate) struct Source<'s> {
+    pub file: &'s str,
+    pub text: &'s str,
+}
+
+impl<'s> Source<'s> {
+    pub fn error(
+        &self,
+        span: Range<usize>,
+        key: impl Into<String>,
+        message: impl Into<String>,
+    ) -> Diagnostic {
+        Diagnostic::new(self.file, self.text, span, key, message)
+    }
+}
+
+/// A value with the span it came from.
+#[derive(Clone, Debug)]
+pub(crate) struct At<T> {
+    pub value: T,
+    pub span: Range<usize>,
+}
+
+/// One table (`[armature]`) and the keys it may hold.
+pub(crate) struct TableReader<'a, 'i> {
+    pub src: Source<'a>,
+    pub name: &'static str,
+    pub table: &'a DeTable<'i>,
+    /// Span of the table (its header where the parser gives one).
+    pub span: Range<usize>,
+}
+
+/// Suggests the nearest of `known` to `word`, when one is close enough to be a typo.
+pub(crate) fn nearest<'k>(word: &str, known: &[&'k str]) -> Option<&'k str> {
+    known
+        .iter()
+        .map(|k| (strsim::damerau_levenshtein(word, k), *k))
+        .filter(|(d, k)| *d <= 2.max(k.len() / 3))
+        .min()
+        .map(|(_, k)| k)
+}
+
+impl<'a, 'i> TableReader<'a, 'i> {
+    fn key(&self, key: &str) -> String {
+        format!("{}.{}", self.name, key)
+    }
+
+    fn get(&self, key: &str) -> Option<&'a Spanned<DeValue<'i>>> {
+        self.table.get(key)
+    }
+
+    /// Fails on the first key not in `known`, suggesting the nearest.
+    pub fn deny_unknown(&self, known: &[&str]) -> Result<(), Diagnostic> {
+        for (k, _) in self.table.iter() {
+            let word: &str = k.get_ref();
+            if !known.contains(&word) {
+                let mut d = self.src.error(
+                    k.span(),
+                    self.key(word),
+                    format!("unknown key `{word}` in [{}]", self.name),
+                );
+                d = match nearest(word, known) {
+                    Some(n) => d.with_hint(format!("did you mean `{n}`?")),
+                    None => d.with_hint(format!("known keys in [{}]: {}", self.name, known.join(", "))),
+                };
+                return Err(d);
+            }
+        }
+        Ok(())
+    }
+
+    fn wrong_type(&self, key: &str, v: &Spanned<DeValue<'i>>, expected: &str) -> Diagnostic {
+        self.src.error(
+            v.span(),
+            self.key(key),
+            format!("expected {expected}, found {}", v.get_ref().type_str()),
+        )
+    }
+
+    /// A required key: points at the table header when it is missing.
+    pub fn missing(&self, key: &str, expected: &str, example: &str) -> Diagnostic {
+        self.src
+            .error(
+                self.span.clone(),
+                self.key(key),
+                format!("missing key `{key}`: expected {expected}"),
+            )
+            .with_hint(format!("add a line such as `{example}` to [{}]", self.name))
+    }
+
+    /// An integer within `range`.
+    pub fn int(
+        &self,
+        key: &str,
+        range: RangeInclusive<i64>,
+        what: &str,
+        hint: &str,
+    ) -> Result<Option<At<i64>>, Diagnostic> {
+        let Some(v) = self.get(key) else {
+            return Ok(None);
+        };
+        let expected = format!("{what}, a whole number from {} to {}", range.start(), range.end());
+        let n = match v.get_ref() {
+            DeValue::Integer(i) => i128::from_str_radix(i.as_str(), i.radix()).ok(),
+            DeValue::Float(f) => {
+                return Err(self
+                    .src
+                    .error(v.span(), self.key(key), format!("expected {expected}, found the decimal {f}"))
+                    .with_hint(hint.to_string()));
+            }
+            _ => return Err(self.wrong_type(key, v, &expected).with_hint(hint.to_string())),
+        };
+        match n {
+            Some(n) if n >= i128::from(*range.start()) && n <= i128::from(*range.end()) => {
+                Ok(Some(At { value: n as i64, span: v.span() }))
+            }
+            _ => {
+                let shown = match v.get_ref() {
+                    DeValue::Integer(i) => i.to_string(),
+                    _ => String::new(),
+                };
+                let msg = if n.is_some_and(|n| n > i128::from(*range.end())) && *range.end() >= 1000 {
+                    format!("{shown} is beyond any real machine: expected {expected}")
+                } else {
+                    format!("expected {expected}, found {shown}")
+                };
+                Err(self.src.error(v.span(), self.key(key), msg).with_hint(hint.to_string()))
+            }
+        }
+    }
+
+    /// A finite number (integer or decimal) within `min..=max`; `min_exclusive` excludes `min`.
+    pub fn number(
+        &self,
+        key: &str,
+        min: f64,
+        min_exclusive: bool,
+        max: f64,
+        what: &str,
+    ) -> Result<Option<At<f64>>, Diagnostic> {
+        let Some(v) = self.get(key) else {
+            return Ok(None);
+        };
+        let bound = if min_exclusive {
+            format!("greater than {}", fmt_num(min))
+        } else {
+            format!("at least {}", fmt_num(min))
+        };
+        let expected = format!("{what}, a number {bound} and at most {}", fmt_num(max));
+        let x = match v.get_ref() {
+            DeValue::Integer(i) => i128::from_str_radix(i.as_str(), i.radix()).ok().map(|n| n as f64),
+            DeValue::Float(f) => f.as_str().replace('_', "").parse::<f64>().ok(),
+            _ => {
+                return Err(self
+                    .wrong_type(key, v, &expected)
+                    .with_hint(format!("write a bare number, e.g. `{key} = {}`", fmt_num(min.max(1.0)))));
+            }
+        };
+        match x {
+            Some(x) if x.is_finite() && (x > min || (!min_exclusive && x == min)) && x <= max => {
+                Ok(Some(At { value: x, span: v.span() }))
+            }
+            _ => Err(self
+                .src
+                .error(
+                    v.span(),
+                    self.key(key),
+                    format!("expected {expected}, found {}", raw_number(v.get_ref())),
+                )
+                .with_hint(format!("{key} is {what}"))),
+        }
+    }
+
+    /// A string.
+    pub fn string(&self, key: &str) -> Result<Option<At<String>>, Diagnostic> {
+        let Some(v) = self.get(key) else {
+            return Ok(None);
+        };
+        match v.get_ref() {
+            DeValue::String(s) => Ok(Some(At { value: s.to_string(), span: v.span() })),
+            DeValue::Datetime(d) if key == "date" => Ok(Some(At { value: d.to_string(), span: v.span() })),
+            _ => Err(self
+                .wrong_type(key, v, "text in quotes")
+                .with_hint(format!("write `{key} = \"…\"`"))),
+        }
+    }
+
+    /// One of a fixed set of words.
+    pub fn choice(&self, key: &str, options: &[&'static str]) -> Result<Option<At<&'static str>>, Diagnostic> {
+        let Some(v) = self.get(key) else {
+            return Ok(None);
+        };
+        let quoted = options.iter().map(|o| format!("\"{o}\"")).collect::<Vec<_>>().join(" or ");
+        match v.get_ref() {
+            DeValue::String(s) => {
+                let lower = s.to_ascii_lowercase();
+                if let Some(o) = options.iter().find(|o| **o == lower) {
+                    return Ok(Some(At { value: o, span: v.span() }));
+                }
+                let d = self.src.error(
+                    v.span(),
+                    self.key(key),
+                    format!("expected {quoted}, found \"{s}\""),
+                );
+                Err(match nearest(&lower, options) {
+                    Some(n) => d.with_hint(format!("did you mean \"{n}\"?")),
+                    None => d.with_hint(format!("{key} takes one of {quoted}")),
+                })
+            }
+            _ => Err(self
+                .wrong_type(key, v, &quoted)
+                .with_hint(format!("write the word in quotes, e.g. `{key} = \"{}\"`", options[0]))),
+        }
+    }
+
+    /// The raw value, for keys that take more than one type.
+    pub fn raw(&self, key: &str) -> Option<&'a Spanned<DeValue<'i>>> {
+        self.get(key)
+    }
+
+    /// The dotted name of `key` in this table.
+    pub fn dotted(&self, key: &str) -> String {
+        self.key(key)
+    }
+}
+
+fn raw_number(v: &DeValue<'_>) -> String {
+    match v {
+        DeValue::Integer(i) => i.to_string(),
+        DeValue::Float(f) => f.to_string(),
+        other => other.type_str().to_string(),
+    }
+}
+
+/// Writes a bound for a message: whole numbers without a decimal point.
+pub(crate) fn fmt_num(x: f64) -> String {
+    if x.fract() == 0.0 && x.abs() < 1e15 {
+        format!("{}", x as i64)
+    } else {
+        format!("{x}")
+    }
+}

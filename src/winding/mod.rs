@@ -1,0 +1,307 @@
+//! `winding`: the pure engine. A resolved [`Design`] in, a traced [`Winding`] out.
+//!
+//! Second stage of the pipeline. No I/O, no clock. The engine lays out the coils, connects
+//! them to segments with the commutator pitch, traces the graph (segments are nodes, coils are
+//! edges), places the brushes and cuts the trace into parallel paths. Textbook formulas
+//! (a = m·P or 2m, reentrancy gcd(C, |y_c|)) are kept beside the traced values as a check.
+//!
+//! ## Conventions
+//! - Coil n has its top side in slot ⌈n/u⌉ at position ((n−1) mod u)+1; its bottom side is
+//!   y_s slots on, same position. Top coil sides are odd (2n−1), bottom sides even.
+//! - The active coils, in position order, start at segments 1, 2, … C; coil i's end lead is on
+//!   segment i + y_c (mod C). Dummy coils are spread evenly and left unconnected.
+//! - Reference position: the centre line of coil 1 lies on the axis of pole 1 (a north pole).
+//! - `lead_offset` = 0 is the symmetric position: the midpoint of the commutator arc from a
+//!   coil's start segment to its end segment (the way y_c runs) lies on the coil's centre line.
+//!   A positive offset swings every lead that many segments towards rising segment numbers.
+//!   The brushes then sit on the pole axes shifted by lead_offset·360/C degrees.
+
+mod geometry;
+mod model;
+mod paths;
+pub mod pitch;
+mod trace;
+
+use std::f64::consts::PI;
+
+pub use model::*;
+
+use crate::design::{Design, EqualizerChoice, Mode, WindingType};
+use geometry::{Geometry, SAMPLES_PER_SEGMENT};
+use paths::BrushSpot;
+
+/// Mean spread between path EMFs, in coil EMFs, above which the paths count as unbalanced.
+pub const BALANCE_TOLERANCE: f64 = 0.5;
+
+/// A design the engine cannot wind (never returned for a design that passed validation).
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct WindingError(pub String);
+
+impl std::fmt::Display for WindingError {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(&self.0)
+    }
+}
+
+/// Winds and traces `design`.
+pub fn trace_winding(design: &Design) -> Result<Winding, WindingError> {
+    let d = design;
+    let n = d.coil_positions();
+    let m = d.multiplicity;
+    let p = d.pole_pairs();
+    let (c, derived) = match (d.segments, d.winding_type) {
+        (Some(c), _) => (c, false),
+        (None, WindingType::Lap) => (n, true),
+        (None, WindingType::Wave) => (
+            pitch::wave_active_coils(n, m, p, d.direction)
+                .ok_or_else(|| WindingError("no workable segment count".into()))?,
+            true,
+        ),
+    };
+    if c > n || c < 2 * m * d.poles {
+        return Err(WindingError(format!("{c} segments cannot be wound on {n} coils with {} poles", d.poles)));
+    }
+    let yc = pitch::commutator_pitch(d.winding_type, d.direction, c, m, p);
+    if d.winding_type == WindingType::Wave && (i64::from(c) + d.direction.sign() * i64::from(m)) % i64::from(p) != 0 {
+        return Err(WindingError("the commutator pitch is not whole".into()));
+    }
+    let pitches = pitch::pitches(d.winding_type, d.span, d.coils_per_slot, yc);
+    let dummy_coils = place_dummies(n, n - c);
+    let connections = connect(d, c, yc, &dummy_coils);
+    let closed_windings = trace::trace_closed_windings(&connections, c);
+    let geo = Geometry::new(d, c);
+
+    // Brushes, one per pole, at the reference position.
+    let units = geo.per_segment_units;
+    let spots: Vec<BrushSpot> = (0..d.poles as usize)
+        .map(|k| BrushSpot { pole: k, centre: yc * units / 2 + k as i64 * 16 * i64::from(c) })
+        .collect();
+    let emf0: Vec<i64> = (1..=n).map(|coil| geo.coil_emf(coil, 0)).collect();
+    let mark = paths::contacts(&spots, c, m, units, 0);
+    let runs = paths::runs(&closed_windings, &mark, &emf0);
+    let sign0 = paths::first_brush_sign(&runs, &spots);
+    let brushes = spots
+        .iter()
+        .map(|s| make_brush(d, s, sign0, c, units, &mark))
+        .collect::<Vec<_>>();
+
+    let current_sign = match d.mode {
+        Mode::Generator => 1,
+        Mode::Motor => -1,
+    };
+    let mut path_list = Vec::new();
+    let mut shorted = Vec::new();
+    let mut coil_current = vec![0i8; n as usize];
+    let mut coil_path = vec![0u32; n as usize];
+    for r in &runs {
+        if paths::is_path(r, &spots) {
+            let to_positive = (if spots[r.to].pole % 2 == 0 { sign0 } else { -sign0 }) > 0;
+            let current = if to_positive { current_sign } else { -current_sign } as i8;
+            let index = path_list.len() as u32 + 1;
+            for &coil in &r.coils {
+                coil_current[(coil - 1) as usize] = current;
+                coil_path[(coil - 1) as usize] = index;
+            }
+            path_list.push(ParallelPath {
+                index,
+                from_brush: r.from as u32 + 1,
+                to_brush: r.to as u32 + 1,
+                coils: r.coils.clone(),
+                current,
+                emf_units: if to_positive { r.emf } else { -r.emf },
+            });
+        } else {
+            shorted.extend_from_slice(&r.coils);
+        }
+    }
+    shorted.sort_unstable();
+
+    let balance = simulate_balance(d, &geo, &closed_windings, &spots, c, n);
+    let paths_formula = match d.winding_type {
+        WindingType::Lap => m * d.poles,
+        WindingType::Wave => 2 * m,
+    };
+    let reentrancy_formula = pitch::gcd(u64::from(c), yc.unsigned_abs()) as u32;
+    let conductors = 2 * u64::from(c) * u64::from(d.turns);
+    let a = path_list.len() as u32;
+    let constants = machine_constants(d, conductors, a);
+    let delta = 360.0 / f64::from(c);
+    let segment1_deg = (geo.degrees(geo.pole1) - yc as f64 / 2.0 * delta + f64::from(d.lead_offset) * delta).rem_euclid(360.0);
+
+    Ok(Winding {
+        coils: n,
+        active_coils: c,
+        dummy_coils,
+        segments_derived: derived,
+        conductors,
+        pitches,
+        connections,
+        closed_windings,
+        brushes,
+        brush_sets_minimum: match d.winding_type {
+            WindingType::Lap => d.poles,
+            WindingType::Wave => 2,
+        },
+        paths: path_list,
+        shorted_coils: shorted,
+        coil_current,
+        coil_path,
+        paths_formula,
+        reentrancy_formula,
+        equalizers: plan_equalizers(d, c, reentrancy_formula),
+        balance,
+        pole_axes_deg: (0..d.poles).map(|k| geo.degrees(geo.pole1 + i64::from(k) * geo.pole_pitch)).collect(),
+        segment1_deg,
+        constants,
+    })
+}
+
+/// Spreads `count` dummy coils evenly: positions ⌊k·N/d⌋ for k = 1…d (the last is coil N).
+fn place_dummies(n: u32, count: u32) -> Vec<u32> {
+    (1..=count).map(|k| (u64::from(k) * u64::from(n) / u64::from(count)) as u32).collect()
+}
+
+fn connect(d: &Design, c: u32, yc: i64, dummies: &[u32]) -> Vec<Connection> {
+    let u = d.coils_per_slot;
+    let n = d.coil_positions();
+    let mut next_active = 0i64;
+    (1..=n)
+        .map(|coil| {
+            let slot = (coil - 1) / u + 1;
+            let position = (coil - 1) % u + 1;
+            let bottom_slot = (slot - 1 + d.span) % d.slots + 1;
+            let bottom_side = 2 * ((coil - 1 + u * d.span) % n + 1);
+            let dummy = dummies.binary_search(&coil).is_ok();
+            let (start, end) = if dummy {
+                (None, None)
+            } else {
+                let i = next_active;
+                next_active += 1;
+                (Some(i as u32 + 1), Some((i + yc).rem_euclid(i64::from(c)) as u32 + 1))
+            };
+            Connection {
+                coil,
+                top: SlotPlace { slot, position, side: 2 * coil - 1 },
+                bottom: SlotPlace { slot: bottom_slot, position, side: bottom_side },
+                start_segment: start,
+                end_segment: end,
+                dummy,
+            }
+        })
+        .collect()
+}
+
+fn make_brush(d: &Design, s: &BrushSpot, sign0: i64, c: u32, units: i64, mark: &[i32]) -> Brush {
+    let ci = i64::from(c);
+    let centre = s.centre.rem_euclid(units * ci);
+    let under = if centre % units == 0 {
+        vec![(centre / units) as u32 + 1]
+    } else {
+        let lo = centre / units;
+        vec![lo as u32 + 1, ((lo + 1) % ci) as u32 + 1]
+    };
+    let sign = if s.pole % 2 == 0 { sign0 } else { -sign0 };
+    Brush {
+        index: s.pole as u32 + 1,
+        polarity: if sign > 0 { Polarity::Positive } else { Polarity::Negative },
+        angle_deg: (s.pole as f64 * 360.0 / f64::from(d.poles) + f64::from(d.lead_offset) * 360.0 / f64::from(c))
+            .rem_euclid(360.0),
+        centre_segment: centre as f64 / units as f64 + 1.0,
+        under,
+        contacts: mark
+            .iter()
+            .enumerate()
+            .filter(|(_, b)| **b == s.pole as i32)
+            .map(|(x, _)| x as u32 + 1)
+            .collect(),
+    }
+}
+
+/// Turns the rotor through m segment pitches in 8·m steps and measures, at each step, how far
+/// apart the path EMFs are (max − min, in coil EMFs: one coil fully under the poles is 2
+/// conductor units). All P brush sets are fitted, as a shop would.
+fn simulate_balance(d: &Design, geo: &Geometry, cycles: &[ClosedWinding], spots: &[BrushSpot], c: u32, n: u32) -> PathBalance {
+    let steps = SAMPLES_PER_SEGMENT * i64::from(d.multiplicity);
+    let step_units = geo.per_segment_units / SAMPLES_PER_SEGMENT;
+    let mut emf = vec![0i64; n as usize];
+    let (mut total, mut peak) = (0i64, 0i64);
+    for k in 0..steps {
+        for coil in 1..=n {
+            emf[(coil - 1) as usize] = geo.coil_emf(coil, k * geo.sample_step);
+        }
+        let mark = paths::contacts(spots, c, d.multiplicity, geo.per_segment_units, k * step_units);
+        let runs = paths::runs(cycles, &mark, &emf);
+        let sizes = runs.iter().filter(|r| paths::is_path(r, spots)).map(|r| r.emf.abs());
+        let (lo, hi) = sizes.fold((i64::MAX, 0), |(lo, hi), e| (lo.min(e), hi.max(e)));
+        let spread = if lo == i64::MAX { 0 } else { hi - lo };
+        total += spread;
+        peak = peak.max(spread);
+    }
+    let mean = total as f64 / steps as f64 / 2.0;
+    PathBalance {
+        samples: steps as u32,
+        mean_spread_coils: mean,
+        peak_spread_coils: peak as f64 / 2.0,
+        balanced: mean <= BALANCE_TOLERANCE,
+    }
+}
+
+/// Type-A equalizers: points two pole pitches (2C/P segments) apart, p points each.
+fn plan_equalizers(d: &Design, c: u32, reentrancy: u32) -> EqualizerPlan {
+    if d.winding_type == WindingType::Wave {
+        return EqualizerPlan::NotNeeded;
+    }
+    let p = d.pole_pairs();
+    if p < 2 {
+        return EqualizerPlan::Impossible(
+            "a 2-pole lap winding has a single pole pair: there are no points two pole pitches apart to join".into(),
+        );
+    }
+    if c % p != 0 {
+        return EqualizerPlan::Impossible(format!(
+            "the equalizer pitch 2C/P = {}/{} is not a whole number of segments",
+            2 * c,
+            d.poles
+        ));
+    }
+    if d.slots % p != 0 {
+        return EqualizerPlan::Impossible(format!(
+            "slots per pole pair S/p = {}/{p} is not whole, so points two pole pitches apart are not at one potential",
+            d.slots
+        ));
+    }
+    let pitch = c / p;
+    if pitch % reentrancy != 0 {
+        return EqualizerPlan::Impossible(format!(
+            "the equalizer pitch {pitch} would join segments of different closed windings ({reentrancy} of them)"
+        ));
+    }
+    let step = match d.equalizers {
+        EqualizerChoice::None => 0,
+        EqualizerChoice::Full => 1,
+        EqualizerChoice::EveryNth(k) => k,
+    };
+    let groups = if step == 0 {
+        Vec::new()
+    } else {
+        (1..=pitch)
+            .step_by(step as usize)
+            .map(|s| (0..p).map(|j| s + j * pitch).collect())
+            .collect()
+    };
+    EqualizerPlan::Possible(Equalizers { pitch, possible: pitch, groups })
+}
+
+/// K = P·Z/(2π·a); with Φ, K·Φ (V per rad/s = N·m per A); with a speed, E = K·Φ·ω.
+/// [src: Chapman, *Electric Machinery Fundamentals*, DC machine chapters; E = PZΦN/(60a).]
+fn machine_constants(d: &Design, z: u64, a: u32) -> Constants {
+    let k = if a == 0 { 0.0 } else { f64::from(d.poles) * z as f64 / (2.0 * PI * f64::from(a)) };
+    let kphi = d.flux_per_pole_mwb.map(|f| k * f / 1000.0);
+    Constants {
+        machine_constant: k,
+        emf_constant_v_per_rad_s: kphi,
+        emf_v_per_1000_rpm: kphi.map(|x| x * 1000.0 * 2.0 * PI / 60.0),
+        torque_constant_nm_per_a: kphi,
+        emf_v: kphi.zip(d.speed_rpm).map(|(x, n)| x * n * 2.0 * PI / 60.0),
+    }
+}

@@ -1,0 +1,243 @@
+//! The engine's result: a plain, fully resolved [`Winding`] that checks, layout and render read.
+//!
+//! Part of the `winding` stage. Numbering is 1-based throughout, as on the shop floor.
+//! Angles are mechanical degrees in the rotor frame at the reference position, measured from
+//! the centre of slot 1 towards rising slot numbers (clockwise seen from the commutator end).
+
+/// Where a coil side lies.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct SlotPlace {
+    /// Slot, 1…S.
+    pub slot: u32,
+    /// Position within the layer, 1…u (1 is the first coil wound into the slot).
+    pub position: u32,
+    /// Coil-side number in the textbook numbering (top sides odd, bottom sides even).
+    pub side: u32,
+}
+
+/// One row of the connection table.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct Connection {
+    /// Coil position number, 1…N (coil n has its top side in slot ⌈n/u⌉).
+    pub coil: u32,
+    /// The top-layer coil side.
+    pub top: SlotPlace,
+    /// The bottom-layer coil side.
+    pub bottom: SlotPlace,
+    /// Segment the start lead (from the top side) goes to; `None` for a dummy coil.
+    pub start_segment: Option<u32>,
+    /// Segment the end lead (from the bottom side) goes to; `None` for a dummy coil.
+    pub end_segment: Option<u32>,
+    /// A dummy coil: wound for balance, ends cut back and taped, not connected.
+    pub dummy: bool,
+}
+
+/// The pitches, in coil-side units of the textbook numbering unless said otherwise.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct Pitches {
+    /// Coil span in slots (y_s); shop form "1–(1+y_s)".
+    pub span: u32,
+    /// Back pitch y_b = 2u·y_s + 1.
+    pub back: i64,
+    /// Front pitch y_f: lap y_b ∓ 2m, wave 2y_c − y_b.
+    pub front: i64,
+    /// Resultant pitch: top side to the next top side in the trace, 2·y_c.
+    pub resultant: i64,
+    /// Commutator pitch y_c in segments, signed: + towards rising segment numbers.
+    /// Lap ±m; wave (C ± m)/p, which is positive for both directions.
+    pub commutator: i64,
+}
+
+/// One step of the trace: a coil and the segments it joins.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct TraceStep {
+    /// Coil position number.
+    pub coil: u32,
+    /// Segment the coil starts from.
+    pub from_segment: u32,
+    /// Segment the coil ends at.
+    pub to_segment: u32,
+}
+
+/// One closed winding: the order in which the trace visits coils and segments.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct ClosedWinding {
+    /// Steps in trace order; the last step ends where the first starts.
+    pub steps: Vec<TraceStep>,
+}
+
+/// Brush polarity.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Polarity {
+    /// Positive terminal.
+    Positive,
+    /// Negative terminal.
+    Negative,
+}
+
+impl Polarity {
+    /// "+" or "−" as ASCII.
+    pub fn sign(self) -> &'static str {
+        match self {
+            Polarity::Positive => "+",
+            Polarity::Negative => "-",
+        }
+    }
+}
+
+/// A brush set, one per pole.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Brush {
+    /// 1…P; brush k sits by the axis of pole k.
+    pub index: u32,
+    /// Polarity, from the EMF of the paths it collects.
+    pub polarity: Polarity,
+    /// Mechanical angle of the brush centre from the axis of pole 1, degrees, towards rising
+    /// slot numbers: (k−1)·360/P + lead_offset·360/C.
+    pub angle_deg: f64,
+    /// Brush centre in segment numbers at the reference position (e.g. 1.5 = on the mica
+    /// between segments 1 and 2).
+    pub centre_segment: f64,
+    /// The segment (or the two segments) under the brush centre at the reference position.
+    pub under: Vec<u32>,
+    /// Segments touched in the engine's contact model (brush m segments wide).
+    pub contacts: Vec<u32>,
+}
+
+/// A parallel path: a run of coils between brushes of opposite polarity.
+#[derive(Clone, Debug, PartialEq)]
+pub struct ParallelPath {
+    /// 1…a, in the order found (by closed winding, then along the trace).
+    pub index: u32,
+    /// Brush the run leaves (at its first coil's start segment).
+    pub from_brush: u32,
+    /// Brush the run reaches (at its last coil's end segment).
+    pub to_brush: u32,
+    /// Coils in trace order.
+    pub coils: Vec<u32>,
+    /// Current sense in these coils at the drawn instant: +1 start→end, −1 end→start.
+    pub current: i8,
+    /// Net EMF of the path at the reference position, in conductor-EMF units.
+    pub emf_units: i64,
+}
+
+/// Type-A equalizers.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct Equalizers {
+    /// Equalizer pitch 2C/P in segments.
+    pub pitch: u32,
+    /// How many distinct equalizers are possible (100 %): 2C/P.
+    pub possible: u32,
+    /// Each chosen equalizer's segments (p of them, pitch apart).
+    pub groups: Vec<Vec<u32>>,
+}
+
+/// Whether equalizers can be fitted, and why not.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub enum EqualizerPlan {
+    /// Wave windings need none.
+    NotNeeded,
+    /// Lap: possible; `chosen` lists the ones the design asked for (may be empty).
+    Possible(Equalizers),
+    /// Lap: impossible, with the reason in plain words.
+    Impossible(String),
+}
+
+/// Simulated path balance: the rotor is turned through m segment pitches in 8·m steps and the
+/// path EMFs compared at each step (flat-topped field under the pole arcs).
+#[derive(Clone, Debug, PartialEq)]
+pub struct PathBalance {
+    /// Rotor positions sampled.
+    pub samples: u32,
+    /// Mean over the samples of (largest − smallest path EMF), in coil EMFs.
+    pub mean_spread_coils: f64,
+    /// Largest such spread at any sample, in coil EMFs.
+    pub peak_spread_coils: f64,
+    /// True when the mean spread is within [`crate::winding::BALANCE_TOLERANCE`].
+    pub balanced: bool,
+}
+
+/// Machine constants.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Constants {
+    /// K = P·Z/(2π·a), per rad/s per Wb.
+    pub machine_constant: f64,
+    /// K·Φ, V per rad/s (needs a flux).
+    pub emf_constant_v_per_rad_s: Option<f64>,
+    /// K·Φ·2π·1000/60, V per 1000 rpm (needs a flux).
+    pub emf_v_per_1000_rpm: Option<f64>,
+    /// K·Φ, N·m per A (needs a flux).
+    pub torque_constant_nm_per_a: Option<f64>,
+    /// E = K·Φ·ω at the given speed, V (needs a flux and a speed).
+    pub emf_v: Option<f64>,
+}
+
+/// The traced winding.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Winding {
+    /// Coil positions N = u·S.
+    pub coils: u32,
+    /// Active coils C = segments.
+    pub active_coils: u32,
+    /// Dummy coil positions, ascending.
+    pub dummy_coils: Vec<u32>,
+    /// Whether the segment count was worked out (not given).
+    pub segments_derived: bool,
+    /// Active conductors Z = 2·C·turns.
+    pub conductors: u64,
+    /// The pitches.
+    pub pitches: Pitches,
+    /// One row per coil position, 1…N.
+    pub connections: Vec<Connection>,
+    /// Closed windings found by the trace.
+    pub closed_windings: Vec<ClosedWinding>,
+    /// Brush sets (P of them).
+    pub brushes: Vec<Brush>,
+    /// Fewest brush sets that work: lap P, wave 2.
+    pub brush_sets_minimum: u32,
+    /// Parallel paths found by the trace at the reference position.
+    pub paths: Vec<ParallelPath>,
+    /// Coils shorted by a brush at the reference position (under commutation).
+    pub shorted_coils: Vec<u32>,
+    /// Current sense per coil position at the drawn instant: +1 start→end, −1, 0 (shorted or dummy).
+    pub coil_current: Vec<i8>,
+    /// Path index (1-based) per coil position, 0 when in no path.
+    pub coil_path: Vec<u32>,
+    /// Formula value of the parallel paths: lap m·P, wave 2m.
+    pub paths_formula: u32,
+    /// Formula value of the reentrancy: gcd(C, |y_c|).
+    pub reentrancy_formula: u32,
+    /// Equalizers.
+    pub equalizers: EqualizerPlan,
+    /// Simulated path balance.
+    pub balance: PathBalance,
+    /// Angle of each pole axis, degrees (pole 1 is north).
+    pub pole_axes_deg: Vec<f64>,
+    /// Angle of segment 1's centre, degrees; segment s is at this + (s−1)·360/C.
+    pub segment1_deg: f64,
+    /// Machine constants.
+    pub constants: Constants,
+}
+
+impl Winding {
+    /// Parallel paths a, as traced.
+    pub fn parallel_paths(&self) -> u32 {
+        self.paths.len() as u32
+    }
+
+    /// Reentrancy: the number of closed windings, as traced.
+    pub fn reentrancy(&self) -> u32 {
+        self.closed_windings.len() as u32
+    }
+
+    /// Brush sets fitted (P).
+    pub fn brush_sets(&self) -> u32 {
+        self.brushes.len() as u32
+    }
+
+    /// Centre angle of segment `s` (1-based), degrees in [0, 360).
+    pub fn segment_deg(&self, s: u32) -> f64 {
+        let a = self.segment1_deg + f64::from(s - 1) * 360.0 / f64::from(self.active_coils);
+        a.rem_euclid(360.0)
+    }
+}
