@@ -8,5 +8,8 @@
 //! 5. [`render`] writes text, JSON, CSV, SVG and PDF bytes; [`cli`] alone touches files.
 #![deny(missing_docs)]
 
+pub mod checks;
+pub mod cli;
 pub mod design;
+pub mod render;
 pub mod winding;

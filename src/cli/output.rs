@@ -9,8 +9,14 @@ use std::path::{Path, PathBuf};
 /// Writes `bytes` to `path` through a temporary file in the same folder, then renames it into
 /// place, so a reader never sees a half-written file and an error leaves the old file intact.
 pub fn write_atomic(path: &Path, bytes: &[u8]) -> io::Result<()> {
-    let dir = path.parent().filter(|p| !p.as_os_str().is_empty()).unwrap_or(Path::new("."));
-    let name = path.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_else(|| "out".into());
+    let dir = path
+        .parent()
+        .filter(|p| !p.as_os_str().is_empty())
+        .unwrap_or(Path::new("."));
+    let name = path
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_else(|| "out".into());
     let tmp: PathBuf = dir.join(format!(".{name}.{}.tmp", std::process::id()));
     let result = (|| {
         let mut f = fs::File::create(&tmp)?;
@@ -28,7 +34,10 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> io::Result<()> {
 /// through the same temporary-then-rename path; fails with `AlreadyExists` otherwise.
 pub fn write_new(path: &Path, bytes: &[u8]) -> io::Result<()> {
     if path.exists() {
-        return Err(io::Error::new(io::ErrorKind::AlreadyExists, format!("{} already exists", path.display())));
+        return Err(io::Error::new(
+            io::ErrorKind::AlreadyExists,
+            format!("{} already exists", path.display()),
+        ));
     }
     write_atomic(path, bytes)
 }

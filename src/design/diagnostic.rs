@@ -51,7 +51,9 @@ impl Diagnostic {
             key: key.into(),
             message: message.into(),
             hint: None,
-            source_line: source[line_start..line_end].trim_end_matches('\r').to_string(),
+            source_line: source[line_start..line_end]
+                .trim_end_matches('\r')
+                .to_string(),
         }
     }
 

@@ -4,14 +4,30 @@
 
 use toml::de::{DeTable, DeValue};
 
+use super::Diagnostic;
 use super::model::*;
 use super::reader::{At, Source, TableReader, nearest};
-use super::Diagnostic;
 use crate::winding::pitch;
 
-const TABLES: &[&str] = &["job", "armature", "winding", "rating", "conductor", "core", "commutator", "limits"];
+const TABLES: &[&str] = &[
+    "job",
+    "armature",
+    "winding",
+    "rating",
+    "conductor",
+    "core",
+    "commutator",
+    "limits",
+];
 const JOB_KEYS: &[&str] = &["id", "title", "customer", "date", "notes"];
-const ARMATURE_KEYS: &[&str] = &["poles", "slots", "coils_per_slot", "segments", "rotation", "pole_arc"];
+const ARMATURE_KEYS: &[&str] = &[
+    "poles",
+    "slots",
+    "coils_per_slot",
+    "segments",
+    "rotation",
+    "pole_arc",
+];
 const WINDING_KEYS: &[&str] = &[
     "type",
     "multiplicity",
@@ -23,7 +39,14 @@ const WINDING_KEYS: &[&str] = &[
     "flux_per_pole_mwb",
     "speed_rpm",
 ];
-const RATING_KEYS: &[&str] = &["voltage", "current", "speed_rpm", "mode", "thermal_class", "flux_per_pole_mwb"];
+const RATING_KEYS: &[&str] = &[
+    "voltage",
+    "current",
+    "speed_rpm",
+    "mode",
+    "thermal_class",
+    "flux_per_pole_mwb",
+];
 const CONDUCTOR_KEYS: &[&str] = &[
     "diameter_mm",
     "awg",
@@ -34,7 +57,12 @@ const CONDUCTOR_KEYS: &[&str] = &[
     "mean_turn_mm",
 ];
 const CORE_KEYS: &[&str] = &["diameter_mm", "length_mm"];
-const COMMUTATOR_KEYS: &[&str] = &["diameter_mm", "brush_width_mm", "brush_width_segments", "brush_grade"];
+const COMMUTATOR_KEYS: &[&str] = &[
+    "diameter_mm",
+    "brush_width_mm",
+    "brush_width_segments",
+    "brush_grade",
+];
 /// `[limits]` keys, in the order of [`Limits`]' fields.
 pub const LIMIT_KEYS: &[&str] = &[
     "segment_volts_avg_max",
@@ -83,7 +111,11 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
     let src = Source { file, text };
     if text.trim().is_empty() {
         return Err(src
-            .error(0..0, "file", "the design file is empty: expected [armature] and [winding] tables")
+            .error(
+                0..0,
+                "file",
+                "the design file is empty: expected [armature] and [winding] tables",
+            )
             .with_hint("run `armsheet new design.toml` to write a commented starter design"));
     }
     let root = DeTable::parse(text).map_err(|e| toml_error(&src, &e))?;
@@ -91,7 +123,11 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
     for (k, v) in root_table.iter() {
         let word: &str = k.get_ref();
         if !TABLES.contains(&word) {
-            let d = src.error(k.span(), word, format!("unknown table or key `{word}` at the top level"));
+            let d = src.error(
+                k.span(),
+                word,
+                format!("unknown table or key `{word}` at the top level"),
+            );
             return Err(match nearest(word, TABLES) {
                 Some(n) => d.with_hint(format!("did you mean [{n}]?")),
                 None => d.with_hint(format!("a design holds the tables {}", tables_list())),
@@ -99,8 +135,17 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
         }
         if !v.get_ref().is_table() {
             return Err(src
-                .error(v.span(), word, format!("expected a table [{word}], found {}", v.get_ref().type_str()))
-                .with_hint(format!("write `[{word}]` on a line of its own and the keys under it")));
+                .error(
+                    v.span(),
+                    word,
+                    format!(
+                        "expected a table [{word}], found {}",
+                        v.get_ref().type_str()
+                    ),
+                )
+                .with_hint(format!(
+                    "write `[{word}]` on a line of its own and the keys under it"
+                )));
         }
     }
     let empty = DeTable::default();
@@ -114,26 +159,43 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
     };
     let missing_table = |name: &str, example: &str| {
         let end = text.len();
-        src.error(end..end, format!("[{name}]"), format!("missing table [{name}]"))
-            .with_hint(format!("add the table, for example:\n    [{name}]\n    {example}"))
+        src.error(
+            end..end,
+            format!("[{name}]"),
+            format!("missing table [{name}]"),
+        )
+        .with_hint(format!(
+            "add the table, for example:\n    [{name}]\n    {example}"
+        ))
     };
 
     let job = match table("job") {
         Some(t) => read_job(&t)?,
         None => Job::default(),
     };
-    let arm = table("armature").ok_or_else(|| missing_table("armature", "poles = 4\n    slots = 24"))?;
-    let win = table("winding").ok_or_else(|| missing_table("winding", "type = \"lap\"\n    turns = 2"))?;
+    let arm =
+        table("armature").ok_or_else(|| missing_table("armature", "poles = 4\n    slots = 24"))?;
+    let win = table("winding")
+        .ok_or_else(|| missing_table("winding", "type = \"lap\"\n    turns = 2"))?;
     arm.deny_unknown(ARMATURE_KEYS)?;
     win.deny_unknown(WINDING_KEYS)?;
 
     // [armature]
     let poles = arm
-        .int("poles", 2..=bounds::MAX_POLES, "the number of poles", "a DC machine has 2, 4, 6, 8 … poles")?
+        .int(
+            "poles",
+            2..=bounds::MAX_POLES,
+            "the number of poles",
+            "a DC machine has 2, 4, 6, 8 … poles",
+        )?
         .ok_or_else(|| arm.missing("poles", "the number of poles", "poles = 4"))?;
     if poles.value % 2 != 0 {
         return Err(src
-            .error(poles.span.clone(), "armature.poles", format!("poles must be even, found {}", poles.value))
+            .error(
+                poles.span.clone(),
+                "armature.poles",
+                format!("poles must be even, found {}", poles.value),
+            )
             .with_hint(format!(
                 "poles come in north-south pairs: try {} or {}",
                 poles.value - 1,
@@ -141,7 +203,12 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
             )));
     }
     let slots = arm
-        .int("slots", 2..=bounds::MAX_SLOTS, "the number of armature slots", "count the slots on the stripped core")?
+        .int(
+            "slots",
+            2..=bounds::MAX_SLOTS,
+            "the number of armature slots",
+            "count the slots on the stripped core",
+        )?
         .ok_or_else(|| arm.missing("slots", "the number of armature slots", "slots = 24"))?;
     let u = arm
         .int(
@@ -153,7 +220,9 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
         .map_or(1, |a| a.value);
     let positions = slots.value * u;
     if positions > bounds::MAX_COILS {
-        let at = arm.raw("coils_per_slot").map_or(slots.span.clone(), |v| v.span());
+        let at = arm
+            .raw("coils_per_slot")
+            .map_or(slots.span.clone(), |v| v.span());
         return Err(src
             .error(
                 at,
@@ -177,7 +246,13 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
         _ => Rotation::Clockwise,
     };
     let pole_arc = arm
-        .number("pole_arc", 0.3, false, 1.0, "the pole arc as a fraction of the pole pitch")?
+        .number(
+            "pole_arc",
+            0.3,
+            false,
+            1.0,
+            "the pole arc as a fraction of the pole pitch",
+        )?
         .map_or(0.7, |a| a.value);
 
     // [winding]
@@ -195,25 +270,49 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
         )?
         .map_or(1, |a| a.value);
     let direction = match win.choice("direction", &["progressive", "retrogressive"])? {
-        Some(At { value: "retrogressive", .. }) => Direction::Retrogressive,
+        Some(At {
+            value: "retrogressive",
+            ..
+        }) => Direction::Retrogressive,
         _ => Direction::Progressive,
     };
     let p = poles.value / 2;
     if wtype == WindingType::Wave && p < 2 {
         let at = win.raw("type").map_or(win.span.clone(), |v| v.span());
         return Err(src
-            .error(at, "winding.type", "a wave winding needs at least 4 poles; with 2 poles it is a lap winding")
+            .error(
+                at,
+                "winding.type",
+                "a wave winding needs at least 4 poles; with 2 poles it is a lap winding",
+            )
             .with_hint("use type = \"lap\" for a 2-pole armature"));
     }
     let turns = win
-        .int("turns", 1..=bounds::MAX_TURNS, "turns per coil", "count the turns of one coil")?
+        .int(
+            "turns",
+            1..=bounds::MAX_TURNS,
+            "turns per coil",
+            "count the turns of one coil",
+        )?
         .ok_or_else(|| win.missing("turns", "turns per coil", "turns = 3"))?;
     let (span, span_source) = read_span(&win, slots.value, poles.value)?;
 
     // Active coils: lap uses every position; wave may need dummies.
-    let active = resolve_segments(&src, &win, &arm, wtype, direction, positions, m, p, segments.as_ref())?;
+    let active = resolve_segments(
+        &src,
+        &win,
+        &arm,
+        wtype,
+        direction,
+        positions,
+        m,
+        p,
+        segments.as_ref(),
+    )?;
     if active < 2 * m * poles.value {
-        let at = segments.as_ref().map_or(slots.span.clone(), |s| s.span.clone());
+        let at = segments
+            .as_ref()
+            .map_or(slots.span.clone(), |s| s.span.clone());
         return Err(src
             .error(
                 at,
@@ -227,8 +326,12 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
             .with_hint("brushes of neighbouring poles would touch; check the poles and segments"));
     }
 
-    let lead_offset = win
-        .int("lead_offset", -1000..=1000, "the lead offset in segments", "0 puts each coil's two segments either side of its centre line")?;
+    let lead_offset = win.int(
+        "lead_offset",
+        -1000..=1000,
+        "the lead offset in segments",
+        "0 puts each coil's two segments either side of its centre line",
+    )?;
     if let Some(lo) = &lead_offset {
         if 2 * poles.value * lo.value.abs() >= active {
             return Err(src
@@ -254,10 +357,24 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
     }
     let flux = merge_optional(
         &src,
-        win.number("flux_per_pole_mwb", 0.0, true, 100_000.0, "the flux per pole in mWb")?,
+        win.number(
+            "flux_per_pole_mwb",
+            0.0,
+            true,
+            100_000.0,
+            "the flux per pole in mWb",
+        )?,
         rating_t
             .as_ref()
-            .map(|t| t.number("flux_per_pole_mwb", 0.0, true, 100_000.0, "the flux per pole in mWb"))
+            .map(|t| {
+                t.number(
+                    "flux_per_pole_mwb",
+                    0.0,
+                    true,
+                    100_000.0,
+                    "the flux per pole in mWb",
+                )
+            })
             .transpose()?
             .flatten(),
         "flux_per_pole_mwb",
@@ -278,7 +395,9 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
     };
     let conductor = table("conductor").map(|t| read_conductor(&t)).transpose()?;
     let core = table("core").map(|t| read_core(&t)).transpose()?;
-    let commutator = table("commutator").map(|t| read_commutator(&t, active)).transpose()?;
+    let commutator = table("commutator")
+        .map(|t| read_commutator(&t, active))
+        .transpose()?;
     let limits = match table("limits") {
         Some(t) => read_limits(&t)?,
         None => Limits::default(),
@@ -313,7 +432,11 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
 }
 
 fn tables_list() -> String {
-    TABLES.iter().map(|t| format!("[{t}]")).collect::<Vec<_>>().join(", ")
+    TABLES
+        .iter()
+        .map(|t| format!("[{t}]"))
+        .collect::<Vec<_>>()
+        .join(", ")
 }
 
 fn fmt_half_pitch(c: i64, poles: i64) -> String {
@@ -330,7 +453,9 @@ fn header_span(text: &str, name: &str) -> Option<std::ops::Range<usize>> {
             let inner = rest.split(']').next().unwrap_or("").trim();
             if inner == name {
                 let start = offset + (line.len() - trimmed.len());
-                let len = trimmed.find(']').map_or(trimmed.trim_end().len(), |i| i + 1);
+                let len = trimmed
+                    .find(']')
+                    .map_or(trimmed.trim_end().len(), |i| i + 1);
                 return Some(start..start + len);
             }
         }
@@ -349,10 +474,20 @@ fn toml_error(src: &Source<'_>, e: &toml::de::Error) -> Diagnostic {
 fn read_job(t: &TableReader<'_, '_>) -> Result<Job, Diagnostic> {
     t.deny_unknown(JOB_KEYS)?;
     let s = |k| t.string(k).map(|o| o.map(|a| a.value));
-    Ok(Job { id: s("id")?, title: s("title")?, customer: s("customer")?, date: s("date")?, notes: s("notes")? })
+    Ok(Job {
+        id: s("id")?,
+        title: s("title")?,
+        customer: s("customer")?,
+        date: s("date")?,
+        notes: s("notes")?,
+    })
 }
 
-fn read_span(t: &TableReader<'_, '_>, slots: i64, poles: i64) -> Result<(u32, SpanSource), Diagnostic> {
+fn read_span(
+    t: &TableReader<'_, '_>,
+    slots: i64,
+    poles: i64,
+) -> Result<(u32, SpanSource), Diagnostic> {
     let Some(v) = t.raw("span") else {
         return Ok(((slots / poles).max(1) as u32, SpanSource::Default));
     };
@@ -360,7 +495,9 @@ fn read_span(t: &TableReader<'_, '_>, slots: i64, poles: i64) -> Result<(u32, Sp
     let max = slots - 1;
     let hint = format!("the span is in slots: 1 to {max}; near {slots}/{poles} = one pole pitch");
     let value = match v.get_ref() {
-        DeValue::Integer(_) => t.int("span", i64::MIN..=i64::MAX, "the coil span in slots", &hint)?.map(|a| a.value),
+        DeValue::Integer(_) => t
+            .int("span", i64::MIN..=i64::MAX, "the coil span in slots", &hint)?
+            .map(|a| a.value),
         DeValue::String(s) => {
             let norm = s.replace(['–', '—'], "-");
             let parts: Vec<&str> = norm.split('-').map(str::trim).collect();
@@ -372,14 +509,27 @@ fn read_span(t: &TableReader<'_, '_>, slots: i64, poles: i64) -> Result<(u32, Sp
                 _ => None,
             }
             .ok_or_else(|| {
-                src.error(v.span(), "winding.span", format!("expected a span such as 7 or \"1-8\", found \"{s}\""))
-                    .with_hint("the shop form \"1-8\" means the coil lies in slots 1 and 8, a span of 7 slots")
+                src.error(
+                    v.span(),
+                    "winding.span",
+                    format!("expected a span such as 7 or \"1-8\", found \"{s}\""),
+                )
+                .with_hint(
+                    "the shop form \"1-8\" means the coil lies in slots 1 and 8, a span of 7 slots",
+                )
             })
             .map(Some)?
         }
         other => {
             return Err(src
-                .error(v.span(), "winding.span", format!("expected a span such as 7 or \"1-8\", found {}", other.type_str()))
+                .error(
+                    v.span(),
+                    "winding.span",
+                    format!(
+                        "expected a span such as 7 or \"1-8\", found {}",
+                        other.type_str()
+                    ),
+                )
                 .with_hint(hint));
         }
     };
@@ -389,7 +539,9 @@ fn read_span(t: &TableReader<'_, '_>, slots: i64, poles: i64) -> Result<(u32, Sp
             .error(
                 v.span(),
                 "winding.span",
-                format!("span {value} is out of range: expected 1 to {max} slots for {slots} slots"),
+                format!(
+                    "span {value} is out of range: expected 1 to {max} slots for {slots} slots"
+                ),
             )
             .with_hint(hint));
     }
@@ -486,7 +638,10 @@ fn resolve_segments(
     }
 }
 
-fn read_equalizers(t: &TableReader<'_, '_>, wtype: WindingType) -> Result<EqualizerChoice, Diagnostic> {
+fn read_equalizers(
+    t: &TableReader<'_, '_>,
+    wtype: WindingType,
+) -> Result<EqualizerChoice, Diagnostic> {
     let Some(v) = t.raw("equalizers") else {
         return Ok(EqualizerChoice::None);
     };
@@ -497,21 +652,41 @@ fn read_equalizers(t: &TableReader<'_, '_>, wtype: WindingType) -> Result<Equali
         },
         DeValue::Integer(_) => {
             let n = t
-                .int("equalizers", 1..=10_000, "\"none\", \"full\" or every n-th possible connection", "2 fits every second connection")?
+                .int(
+                    "equalizers",
+                    1..=10_000,
+                    "\"none\", \"full\" or every n-th possible connection",
+                    "2 fits every second connection",
+                )?
                 .map_or(1, |a| a.value);
-            if n == 1 { EqualizerChoice::Full } else { EqualizerChoice::EveryNth(n as u32) }
+            if n == 1 {
+                EqualizerChoice::Full
+            } else {
+                EqualizerChoice::EveryNth(n as u32)
+            }
         }
         other => {
             return Err(t
                 .src
-                .error(v.span(), "winding.equalizers", format!("expected \"none\", \"full\" or a whole number n, found {}", other.type_str()))
+                .error(
+                    v.span(),
+                    "winding.equalizers",
+                    format!(
+                        "expected \"none\", \"full\" or a whole number n, found {}",
+                        other.type_str()
+                    ),
+                )
                 .with_hint("equalizers = 3 fits every third possible connection"));
         }
     };
     if wtype == WindingType::Wave && choice != EqualizerChoice::None {
         return Err(t
             .src
-            .error(v.span(), "winding.equalizers", "equalizers belong to lap windings: a wave winding needs none")
+            .error(
+                v.span(),
+                "winding.equalizers",
+                "equalizers belong to lap windings: a wave winding needs none",
+            )
             .with_hint("remove the key or set equalizers = \"none\""));
     }
     Ok(choice)
@@ -528,7 +703,10 @@ fn merge_optional(
             .error(
                 b.span,
                 format!("rating.{key}"),
-                format!("{key} is given twice with different values ({} in [winding], {} in [rating])", a.value, b.value),
+                format!(
+                    "{key} is given twice with different values ({} in [winding], {} in [rating])",
+                    a.value, b.value
+                ),
             )
             .with_hint("give it once, in [rating]")),
         (Some(a), _) => Ok(Some(a.value)),
@@ -538,11 +716,29 @@ fn merge_optional(
 
 fn read_rating(t: &TableReader<'_, '_>) -> Result<(Mode, Option<Rating>), Diagnostic> {
     let mode = match t.choice("mode", &["motor", "generator"])? {
-        Some(At { value: "generator", .. }) => Mode::Generator,
+        Some(At {
+            value: "generator", ..
+        }) => Mode::Generator,
         _ => Mode::Motor,
     };
-    let voltage = t.number("voltage", 0.0, true, 100_000.0, "the rated terminal voltage in V")?.map(|a| a.value);
-    let current = t.number("current", 0.0, true, 100_000.0, "the rated armature current in A")?.map(|a| a.value);
+    let voltage = t
+        .number(
+            "voltage",
+            0.0,
+            true,
+            100_000.0,
+            "the rated terminal voltage in V",
+        )?
+        .map(|a| a.value);
+    let current = t
+        .number(
+            "current",
+            0.0,
+            true,
+            100_000.0,
+            "the rated armature current in A",
+        )?
+        .map(|a| a.value);
     let thermal_class = match t.raw("thermal_class") {
         None => None,
         Some(v) => {
@@ -566,29 +762,65 @@ fn read_rating(t: &TableReader<'_, '_>) -> Result<(Mode, Option<Rating>), Diagno
             })
         }
     };
-    Ok((mode, Some(Rating { voltage, current, thermal_class })))
+    Ok((
+        mode,
+        Some(Rating {
+            voltage,
+            current,
+            thermal_class,
+        }),
+    ))
 }
 
 fn read_conductor(t: &TableReader<'_, '_>) -> Result<Conductor, Diagnostic> {
     t.deny_unknown(CONDUCTOR_KEYS)?;
     let num = |k: &str, what: &str, max: f64| t.number(k, 0.0, true, max, what);
     let d = num("diameter_mm", "the bare wire diameter in mm", 20.0)?;
-    let awg = t.int("awg", -3..=40, "the AWG gauge (0000 is -3)", "ASTM B258 gauges run from 0000 (-3) to 40")?;
+    let awg = t.int(
+        "awg",
+        -3..=40,
+        "the AWG gauge (0000 is -3)",
+        "ASTM B258 gauges run from 0000 (-3) to 40",
+    )?;
     let strands = t
-        .int("strands", 1..=200, "wires or strips in hand", "1 for a single conductor")?
+        .int(
+            "strands",
+            1..=200,
+            "wires or strips in hand",
+            "1 for a single conductor",
+        )?
         .map_or(1, |a| a.value as u32);
     let w = num("width_mm", "the strip width in mm", 100.0)?;
     let h = num("height_mm", "the strip height in mm", 100.0)?;
-    let r = t.number("corner_radius_mm", 0.0, false, 10.0, "the strip corner radius in mm")?;
-    let mean_turn_mm = num("mean_turn_mm", "the mean length of one turn in mm", 100_000.0)?.map(|a| a.value);
+    let r = t.number(
+        "corner_radius_mm",
+        0.0,
+        false,
+        10.0,
+        "the strip corner radius in mm",
+    )?;
+    let mean_turn_mm = num(
+        "mean_turn_mm",
+        "the mean length of one turn in mm",
+        100_000.0,
+    )?
+    .map(|a| a.value);
     let shape = match (d, awg, w, h) {
         (Some(_), Some(a), _, _) => {
             return Err(t
                 .src
-                .error(a.span, "conductor.awg", "give the wire either as diameter_mm or as awg, not both")
+                .error(
+                    a.span,
+                    "conductor.awg",
+                    "give the wire either as diameter_mm or as awg, not both",
+                )
                 .with_hint("remove one of the two keys"));
         }
-        (Some(d), None, None, None) => ConductorShape::Round { diameter_mm: d.value, awg: None, strands },
+        (Some(d), None, None, None) => ConductorShape::Round {
+            diameter_mm: d.value,
+            awg: None,
+            strands,
+        },
         (None, Some(a), None, None) => ConductorShape::Round {
             diameter_mm: super::model::awg_diameter_mm(a.value as i32),
             awg: Some(a.value as i32),
@@ -599,10 +831,22 @@ fn read_conductor(t: &TableReader<'_, '_>) -> Result<Conductor, Diagnostic> {
             if 2.0 * rad > w.value.min(h.value) {
                 return Err(t
                     .src
-                    .error(r.map_or(w.span, |r| r.span), "conductor.corner_radius_mm", format!("a corner radius of {rad} mm does not fit a {} × {} mm strip", w.value, h.value))
+                    .error(
+                        r.map_or(w.span, |r| r.span),
+                        "conductor.corner_radius_mm",
+                        format!(
+                            "a corner radius of {rad} mm does not fit a {} × {} mm strip",
+                            w.value, h.value
+                        ),
+                    )
                     .with_hint("the radius is at most half the smaller side"));
             }
-            ConductorShape::Rectangular { width_mm: w.value, height_mm: h.value, corner_radius_mm: rad, strands }
+            ConductorShape::Rectangular {
+                width_mm: w.value,
+                height_mm: h.value,
+                corner_radius_mm: rad,
+                strands,
+            }
         }
         (Some(d), None, Some(_), _) | (Some(d), None, _, Some(_)) => {
             return Err(t
@@ -616,33 +860,76 @@ fn read_conductor(t: &TableReader<'_, '_>) -> Result<Conductor, Diagnostic> {
                 .error(a.span, "conductor.awg", "a conductor is either round (diameter_mm or awg) or rectangular (width_mm, height_mm), not both")
                 .with_hint("remove the keys of the shape you do not use"));
         }
-        (None, None, Some(_), None) => return Err(t.missing("height_mm", "the strip height in mm", "height_mm = 2.5")),
-        (None, None, None, Some(_)) => return Err(t.missing("width_mm", "the strip width in mm", "width_mm = 6.3")),
+        (None, None, Some(_), None) => {
+            return Err(t.missing("height_mm", "the strip height in mm", "height_mm = 2.5"));
+        }
+        (None, None, None, Some(_)) => {
+            return Err(t.missing("width_mm", "the strip width in mm", "width_mm = 6.3"));
+        }
         (None, None, None, None) => {
-            return Err(t.missing("diameter_mm", "the wire size: diameter_mm, awg, or width_mm and height_mm", "diameter_mm = 1.25"));
+            return Err(t.missing(
+                "diameter_mm",
+                "the wire size: diameter_mm, awg, or width_mm and height_mm",
+                "diameter_mm = 1.25",
+            ));
         }
     };
-    Ok(Conductor { shape, mean_turn_mm })
+    Ok(Conductor {
+        shape,
+        mean_turn_mm,
+    })
 }
 
 fn read_core(t: &TableReader<'_, '_>) -> Result<Core, Diagnostic> {
     t.deny_unknown(CORE_KEYS)?;
     Ok(Core {
-        diameter_mm: t.number("diameter_mm", 0.0, true, 10_000.0, "the armature diameter in mm")?.map(|a| a.value),
-        length_mm: t.number("length_mm", 0.0, true, 10_000.0, "the core length in mm")?.map(|a| a.value),
+        diameter_mm: t
+            .number(
+                "diameter_mm",
+                0.0,
+                true,
+                10_000.0,
+                "the armature diameter in mm",
+            )?
+            .map(|a| a.value),
+        length_mm: t
+            .number("length_mm", 0.0, true, 10_000.0, "the core length in mm")?
+            .map(|a| a.value),
     })
 }
 
 fn read_commutator(t: &TableReader<'_, '_>, segments: i64) -> Result<Commutator, Diagnostic> {
     t.deny_unknown(COMMUTATOR_KEYS)?;
-    let diameter = t.number("diameter_mm", 0.0, true, 10_000.0, "the commutator diameter in mm")?;
-    let wmm = t.number("brush_width_mm", 0.0, true, 1_000.0, "the brush width (circumferential) in mm")?;
-    let wseg = t.number("brush_width_segments", 0.0, true, 1_000.0, "the brush width in segment pitches")?;
+    let diameter = t.number(
+        "diameter_mm",
+        0.0,
+        true,
+        10_000.0,
+        "the commutator diameter in mm",
+    )?;
+    let wmm = t.number(
+        "brush_width_mm",
+        0.0,
+        true,
+        1_000.0,
+        "the brush width (circumferential) in mm",
+    )?;
+    let wseg = t.number(
+        "brush_width_segments",
+        0.0,
+        true,
+        1_000.0,
+        "the brush width in segment pitches",
+    )?;
     let brush_width = match (wmm, wseg) {
         (Some(_), Some(s)) => {
             return Err(t
                 .src
-                .error(s.span, "commutator.brush_width_segments", "give the brush width either in mm or in segments, not both")
+                .error(
+                    s.span,
+                    "commutator.brush_width_segments",
+                    "give the brush width either in mm or in segments, not both",
+                )
                 .with_hint("remove one of brush_width_mm and brush_width_segments"));
         }
         (Some(w), None) => {
@@ -669,11 +956,18 @@ fn read_commutator(t: &TableReader<'_, '_>, segments: i64) -> Result<Commutator,
         (None, None) => None,
     };
     let brush_grade = match t.choice("brush_grade", &["carbon", "metal-graphite"])? {
-        Some(At { value: "metal-graphite", .. }) => Some(BrushGrade::MetalGraphite),
+        Some(At {
+            value: "metal-graphite",
+            ..
+        }) => Some(BrushGrade::MetalGraphite),
         Some(_) => Some(BrushGrade::Carbon),
         None => None,
     };
-    Ok(Commutator { diameter_mm: diameter.map(|d| d.value), brush_width, brush_grade })
+    Ok(Commutator {
+        diameter_mm: diameter.map(|d| d.value),
+        brush_width,
+        brush_grade,
+    })
 }
 
 fn read_limits(t: &TableReader<'_, '_>) -> Result<Limits, Diagnostic> {

@@ -76,7 +76,11 @@ impl<'a, 'i> TableReader<'a, 'i> {
                 );
                 d = match nearest(word, known) {
                     Some(n) => d.with_hint(format!("did you mean `{n}`?")),
-                    None => d.with_hint(format!("known keys in [{}]: {}", self.name, known.join(", "))),
+                    None => d.with_hint(format!(
+                        "known keys in [{}]: {}",
+                        self.name,
+                        known.join(", ")
+                    )),
                 };
                 return Err(d);
             }
@@ -114,32 +118,51 @@ impl<'a, 'i> TableReader<'a, 'i> {
         let Some(v) = self.get(key) else {
             return Ok(None);
         };
-        let expected = format!("{what}, a whole number from {} to {}", range.start(), range.end());
+        let expected = format!(
+            "{what}, a whole number from {} to {}",
+            range.start(),
+            range.end()
+        );
         let n = match v.get_ref() {
             DeValue::Integer(i) => i128::from_str_radix(i.as_str(), i.radix()).ok(),
             DeValue::Float(f) => {
                 return Err(self
                     .src
-                    .error(v.span(), self.key(key), format!("expected {expected}, found the decimal {f}"))
+                    .error(
+                        v.span(),
+                        self.key(key),
+                        format!("expected {expected}, found the decimal {f}"),
+                    )
                     .with_hint(hint.to_string()));
             }
-            _ => return Err(self.wrong_type(key, v, &expected).with_hint(hint.to_string())),
+            _ => {
+                return Err(self
+                    .wrong_type(key, v, &expected)
+                    .with_hint(hint.to_string()));
+            }
         };
         match n {
             Some(n) if n >= i128::from(*range.start()) && n <= i128::from(*range.end()) => {
-                Ok(Some(At { value: n as i64, span: v.span() }))
+                Ok(Some(At {
+                    value: n as i64,
+                    span: v.span(),
+                }))
             }
             _ => {
                 let shown = match v.get_ref() {
                     DeValue::Integer(i) => i.to_string(),
                     _ => String::new(),
                 };
-                let msg = if n.is_some_and(|n| n > i128::from(*range.end())) && *range.end() >= 1000 {
+                let msg = if n.is_some_and(|n| n > i128::from(*range.end())) && *range.end() >= 1000
+                {
                     format!("{shown} is beyond any real machine: expected {expected}")
                 } else {
                     format!("expected {expected}, found {shown}")
                 };
-                Err(self.src.error(v.span(), self.key(key), msg).with_hint(hint.to_string()))
+                Err(self
+                    .src
+                    .error(v.span(), self.key(key), msg)
+                    .with_hint(hint.to_string()))
             }
         }
     }
@@ -163,17 +186,23 @@ impl<'a, 'i> TableReader<'a, 'i> {
         };
         let expected = format!("{what}, a number {bound} and at most {}", fmt_num(max));
         let x = match v.get_ref() {
-            DeValue::Integer(i) => i128::from_str_radix(i.as_str(), i.radix()).ok().map(|n| n as f64),
+            DeValue::Integer(i) => i128::from_str_radix(i.as_str(), i.radix())
+                .ok()
+                .map(|n| n as f64),
             DeValue::Float(f) => f.as_str().replace('_', "").parse::<f64>().ok(),
             _ => {
-                return Err(self
-                    .wrong_type(key, v, &expected)
-                    .with_hint(format!("write a bare number, e.g. `{key} = {}`", fmt_num(min.max(1.0)))));
+                return Err(self.wrong_type(key, v, &expected).with_hint(format!(
+                    "write a bare number, e.g. `{key} = {}`",
+                    fmt_num(min.max(1.0))
+                )));
             }
         };
         match x {
             Some(x) if x.is_finite() && (x > min || (!min_exclusive && x == min)) && x <= max => {
-                Ok(Some(At { value: x, span: v.span() }))
+                Ok(Some(At {
+                    value: x,
+                    span: v.span(),
+                }))
             }
             _ => Err(self
                 .src
@@ -192,8 +221,14 @@ impl<'a, 'i> TableReader<'a, 'i> {
             return Ok(None);
         };
         match v.get_ref() {
-            DeValue::String(s) => Ok(Some(At { value: s.to_string(), span: v.span() })),
-            DeValue::Datetime(d) if key == "date" => Ok(Some(At { value: d.to_string(), span: v.span() })),
+            DeValue::String(s) => Ok(Some(At {
+                value: s.to_string(),
+                span: v.span(),
+            })),
+            DeValue::Datetime(d) if key == "date" => Ok(Some(At {
+                value: d.to_string(),
+                span: v.span(),
+            })),
             _ => Err(self
                 .wrong_type(key, v, "text in quotes")
                 .with_hint(format!("write `{key} = \"…\"`"))),
@@ -201,16 +236,27 @@ impl<'a, 'i> TableReader<'a, 'i> {
     }
 
     /// One of a fixed set of words.
-    pub fn choice(&self, key: &str, options: &[&'static str]) -> Result<Option<At<&'static str>>, Diagnostic> {
+    pub fn choice(
+        &self,
+        key: &str,
+        options: &[&'static str],
+    ) -> Result<Option<At<&'static str>>, Diagnostic> {
         let Some(v) = self.get(key) else {
             return Ok(None);
         };
-        let quoted = options.iter().map(|o| format!("\"{o}\"")).collect::<Vec<_>>().join(" or ");
+        let quoted = options
+            .iter()
+            .map(|o| format!("\"{o}\""))
+            .collect::<Vec<_>>()
+            .join(" or ");
         match v.get_ref() {
             DeValue::String(s) => {
                 let lower = s.to_ascii_lowercase();
                 if let Some(o) = options.iter().find(|o| **o == lower) {
-                    return Ok(Some(At { value: o, span: v.span() }));
+                    return Ok(Some(At {
+                        value: o,
+                        span: v.span(),
+                    }));
                 }
                 let d = self.src.error(
                     v.span(),
@@ -222,9 +268,10 @@ impl<'a, 'i> TableReader<'a, 'i> {
                     None => d.with_hint(format!("{key} takes one of {quoted}")),
                 })
             }
-            _ => Err(self
-                .wrong_type(key, v, &quoted)
-                .with_hint(format!("write the word in quotes, e.g. `{key} = \"{}\"`", options[0]))),
+            _ => Err(self.wrong_type(key, v, &quoted).with_hint(format!(
+                "write the word in quotes, e.g. `{key} = \"{}\"`",
+                options[0]
+            ))),
         }
     }
 

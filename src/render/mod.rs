@@ -5,4 +5,7 @@
 
 pub mod json;
 pub mod number;
+pub mod report;
 pub mod text;
+
+pub use report::Report;

@@ -59,10 +59,15 @@ pub fn trace_winding(design: &Design) -> Result<Winding, WindingError> {
         ),
     };
     if c > n || c < 2 * m * d.poles {
-        return Err(WindingError(format!("{c} segments cannot be wound on {n} coils with {} poles", d.poles)));
+        return Err(WindingError(format!(
+            "{c} segments cannot be wound on {n} coils with {} poles",
+            d.poles
+        )));
     }
     let yc = pitch::commutator_pitch(d.winding_type, d.direction, c, m, p);
-    if d.winding_type == WindingType::Wave && (i64::from(c) + d.direction.sign() * i64::from(m)) % i64::from(p) != 0 {
+    if d.winding_type == WindingType::Wave
+        && (i64::from(c) + d.direction.sign() * i64::from(m)) % i64::from(p) != 0
+    {
         return Err(WindingError("the commutator pitch is not whole".into()));
     }
     let pitches = pitch::pitches(d.winding_type, d.span, d.coils_per_slot, yc);
@@ -74,7 +79,10 @@ pub fn trace_winding(design: &Design) -> Result<Winding, WindingError> {
     // Brushes, one per pole, at the reference position.
     let units = geo.per_segment_units;
     let spots: Vec<BrushSpot> = (0..d.poles as usize)
-        .map(|k| BrushSpot { pole: k, centre: yc * units / 2 + k as i64 * 16 * i64::from(c) })
+        .map(|k| BrushSpot {
+            pole: k,
+            centre: yc * units / 2 + k as i64 * 16 * i64::from(c),
+        })
         .collect();
     let emf0: Vec<i64> = (1..=n).map(|coil| geo.coil_emf(coil, 0)).collect();
     let mark = paths::contacts(&spots, c, m, units, 0);
@@ -95,8 +103,16 @@ pub fn trace_winding(design: &Design) -> Result<Winding, WindingError> {
     let mut coil_path = vec![0u32; n as usize];
     for r in &runs {
         if paths::is_path(r, &spots) {
-            let to_positive = (if spots[r.to].pole % 2 == 0 { sign0 } else { -sign0 }) > 0;
-            let current = if to_positive { current_sign } else { -current_sign } as i8;
+            let to_positive = (if spots[r.to].pole % 2 == 0 {
+                sign0
+            } else {
+                -sign0
+            }) > 0;
+            let current = if to_positive {
+                current_sign
+            } else {
+                -current_sign
+            } as i8;
             let index = path_list.len() as u32 + 1;
             for &coil in &r.coils {
                 coil_current[(coil - 1) as usize] = current;
@@ -126,7 +142,9 @@ pub fn trace_winding(design: &Design) -> Result<Winding, WindingError> {
     let a = path_list.len() as u32;
     let constants = machine_constants(d, conductors, a);
     let delta = 360.0 / f64::from(c);
-    let segment1_deg = (geo.degrees(geo.pole1) - yc as f64 / 2.0 * delta + f64::from(d.lead_offset) * delta).rem_euclid(360.0);
+    let segment1_deg = (geo.degrees(geo.pole1) - yc as f64 / 2.0 * delta
+        + f64::from(d.lead_offset) * delta)
+        .rem_euclid(360.0);
 
     Ok(Winding {
         coils: n,
@@ -150,7 +168,9 @@ pub fn trace_winding(design: &Design) -> Result<Winding, WindingError> {
         reentrancy_formula,
         equalizers: plan_equalizers(d, c, reentrancy_formula),
         balance,
-        pole_axes_deg: (0..d.poles).map(|k| geo.degrees(geo.pole1 + i64::from(k) * geo.pole_pitch)).collect(),
+        pole_axes_deg: (0..d.poles)
+            .map(|k| geo.degrees(geo.pole1 + i64::from(k) * geo.pole_pitch))
+            .collect(),
         segment1_deg,
         constants,
     })
@@ -158,7 +178,9 @@ pub fn trace_winding(design: &Design) -> Result<Winding, WindingError> {
 
 /// Spreads `count` dummy coils evenly: positions ⌊k·N/d⌋ for k = 1…d (the last is coil N).
 fn place_dummies(n: u32, count: u32) -> Vec<u32> {
-    (1..=count).map(|k| (u64::from(k) * u64::from(n) / u64::from(count)) as u32).collect()
+    (1..=count)
+        .map(|k| (u64::from(k) * u64::from(n) / u64::from(count)) as u32)
+        .collect()
 }
 
 fn connect(d: &Design, c: u32, yc: i64, dummies: &[u32]) -> Vec<Connection> {
@@ -177,12 +199,23 @@ fn connect(d: &Design, c: u32, yc: i64, dummies: &[u32]) -> Vec<Connection> {
             } else {
                 let i = next_active;
                 next_active += 1;
-                (Some(i as u32 + 1), Some((i + yc).rem_euclid(i64::from(c)) as u32 + 1))
+                (
+                    Some(i as u32 + 1),
+                    Some((i + yc).rem_euclid(i64::from(c)) as u32 + 1),
+                )
             };
             Connection {
                 coil,
-                top: SlotPlace { slot, position, side: 2 * coil - 1 },
-                bottom: SlotPlace { slot: bottom_slot, position, side: bottom_side },
+                top: SlotPlace {
+                    slot,
+                    position,
+                    side: 2 * coil - 1,
+                },
+                bottom: SlotPlace {
+                    slot: bottom_slot,
+                    position,
+                    side: bottom_side,
+                },
                 start_segment: start,
                 end_segment: end,
                 dummy,
@@ -203,9 +236,14 @@ fn make_brush(d: &Design, s: &BrushSpot, sign0: i64, c: u32, units: i64, mark: &
     let sign = if s.pole % 2 == 0 { sign0 } else { -sign0 };
     Brush {
         index: s.pole as u32 + 1,
-        polarity: if sign > 0 { Polarity::Positive } else { Polarity::Negative },
-        angle_deg: (s.pole as f64 * 360.0 / f64::from(d.poles) + f64::from(d.lead_offset) * 360.0 / f64::from(c))
-            .rem_euclid(360.0),
+        polarity: if sign > 0 {
+            Polarity::Positive
+        } else {
+            Polarity::Negative
+        },
+        angle_deg: (s.pole as f64 * 360.0 / f64::from(d.poles)
+            + f64::from(d.lead_offset) * 360.0 / f64::from(c))
+        .rem_euclid(360.0),
         centre_segment: centre as f64 / units as f64 + 1.0,
         under,
         contacts: mark
@@ -220,7 +258,14 @@ fn make_brush(d: &Design, s: &BrushSpot, sign0: i64, c: u32, units: i64, mark: &
 /// Turns the rotor through m segment pitches in 8·m steps and measures, at each step, how far
 /// apart the path EMFs are (max − min, in coil EMFs: one coil fully under the poles is 2
 /// conductor units). All P brush sets are fitted, as a shop would.
-fn simulate_balance(d: &Design, geo: &Geometry, cycles: &[ClosedWinding], spots: &[BrushSpot], c: u32, n: u32) -> PathBalance {
+fn simulate_balance(
+    d: &Design,
+    geo: &Geometry,
+    cycles: &[ClosedWinding],
+    spots: &[BrushSpot],
+    c: u32,
+    n: u32,
+) -> PathBalance {
     let steps = SAMPLES_PER_SEGMENT * i64::from(d.multiplicity);
     let step_units = geo.per_segment_units / SAMPLES_PER_SEGMENT;
     let mut emf = vec![0i64; n as usize];
@@ -229,9 +274,18 @@ fn simulate_balance(d: &Design, geo: &Geometry, cycles: &[ClosedWinding], spots:
         for coil in 1..=n {
             emf[(coil - 1) as usize] = geo.coil_emf(coil, k * geo.sample_step);
         }
-        let mark = paths::contacts(spots, c, d.multiplicity, geo.per_segment_units, k * step_units);
+        let mark = paths::contacts(
+            spots,
+            c,
+            d.multiplicity,
+            geo.per_segment_units,
+            k * step_units,
+        );
         let runs = paths::runs(cycles, &mark, &emf);
-        let sizes = runs.iter().filter(|r| paths::is_path(r, spots)).map(|r| r.emf.abs());
+        let sizes = runs
+            .iter()
+            .filter(|r| paths::is_path(r, spots))
+            .map(|r| r.emf.abs());
         let (lo, hi) = sizes.fold((i64::MAX, 0), |(lo, hi), e| (lo.min(e), hi.max(e)));
         let spread = if lo == i64::MAX { 0 } else { hi - lo };
         total += spread;
@@ -289,13 +343,21 @@ fn plan_equalizers(d: &Design, c: u32, reentrancy: u32) -> EqualizerPlan {
             .map(|s| (0..p).map(|j| s + j * pitch).collect())
             .collect()
     };
-    EqualizerPlan::Possible(Equalizers { pitch, possible: pitch, groups })
+    EqualizerPlan::Possible(Equalizers {
+        pitch,
+        possible: pitch,
+        groups,
+    })
 }
 
 /// K = P·Z/(2π·a); with Φ, K·Φ (V per rad/s = N·m per A); with a speed, E = K·Φ·ω.
 /// [src: Chapman, *Electric Machinery Fundamentals*, DC machine chapters; E = PZΦN/(60a).]
 fn machine_constants(d: &Design, z: u64, a: u32) -> Constants {
-    let k = if a == 0 { 0.0 } else { f64::from(d.poles) * z as f64 / (2.0 * PI * f64::from(a)) };
+    let k = if a == 0 {
+        0.0
+    } else {
+        f64::from(d.poles) * z as f64 / (2.0 * PI * f64::from(a))
+    };
     let kphi = d.flux_per_pole_mwb.map(|f| k * f / 1000.0);
     Constants {
         machine_constant: k,

@@ -20,7 +20,13 @@ pub(crate) struct BrushSpot {
 ///
 /// The contact model: a brush `width` segment pitches wide (no mica) touches segment x when
 /// their extents overlap, |x − centre| < (width + 1)/2.
-pub(crate) fn contacts(spots: &[BrushSpot], segments: u32, width: u32, units: i64, shift: i64) -> Vec<i32> {
+pub(crate) fn contacts(
+    spots: &[BrushSpot],
+    segments: u32,
+    width: u32,
+    units: i64,
+    shift: i64,
+) -> Vec<i32> {
     let c = i64::from(segments);
     let w = i64::from(width);
     let mut mark = vec![-1i32; segments as usize];
@@ -40,8 +46,6 @@ pub(crate) fn contacts(spots: &[BrushSpot], segments: u32, width: u32, units: i6
 /// A run of coils between two touched segments.
 #[derive(Clone, Debug)]
 pub(crate) struct Run {
-    /// Closed winding index.
-    pub cycle: usize,
     /// Index into the brush list at the run's first start segment.
     pub from: usize,
     /// Index into the brush list at the run's last end segment.
@@ -55,9 +59,12 @@ pub(crate) struct Run {
 /// Cuts every closed winding at the touched segments.
 pub(crate) fn runs(cycles: &[ClosedWinding], mark: &[i32], emf: &[i64]) -> Vec<Run> {
     let mut out = Vec::new();
-    for (ci, cycle) in cycles.iter().enumerate() {
+    for cycle in cycles {
         let steps = &cycle.steps;
-        let Some(first) = steps.iter().position(|s| mark[(s.from_segment - 1) as usize] >= 0) else {
+        let Some(first) = steps
+            .iter()
+            .position(|s| mark[(s.from_segment - 1) as usize] >= 0)
+        else {
             continue;
         };
         let mut from = mark[(steps[first].from_segment - 1) as usize] as usize;
@@ -69,7 +76,12 @@ pub(crate) fn runs(cycles: &[ClosedWinding], mark: &[i32], emf: &[i64]) -> Vec<R
             sum += emf[(step.coil - 1) as usize];
             let at = mark[(step.to_segment - 1) as usize];
             if at >= 0 {
-                out.push(Run { cycle: ci, from, to: at as usize, coils: std::mem::take(&mut coils), emf: sum });
+                out.push(Run {
+                    from,
+                    to: at as usize,
+                    coils: std::mem::take(&mut coils),
+                    emf: sum,
+                });
                 sum = 0;
                 from = at as usize;
             }

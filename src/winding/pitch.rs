@@ -18,7 +18,10 @@ pub fn gcd(a: u64, b: u64) -> u64 {
 pub fn wave_active_coils(positions: u32, m: u32, p: u32, direction: Direction) -> Option<u32> {
     let (n, m, p) = (i64::from(positions), i64::from(m), i64::from(p));
     let s = direction.sign();
-    (2..=n).rev().find(|c| (c + s * m).rem_euclid(p) == 0).map(|c| c as u32)
+    (2..=n)
+        .rev()
+        .find(|c| (c + s * m).rem_euclid(p) == 0)
+        .map(|c| c as u32)
 }
 
 /// Signed commutator pitch y_c in segments.
@@ -43,7 +46,13 @@ pub fn pitches(kind: WindingType, span: u32, u: u32, yc: i64) -> Pitches {
         WindingType::Lap => back - 2 * yc,
         WindingType::Wave => 2 * yc - back,
     };
-    Pitches { span, back, front, resultant: 2 * yc, commutator: yc }
+    Pitches {
+        span,
+        back,
+        front,
+        resultant: 2 * yc,
+        commutator: yc,
+    }
 }
 
 #[cfg(test)]

@@ -17,7 +17,10 @@ pub(crate) fn out_coils(connections: &[Connection], segments: u32) -> Vec<u32> {
 }
 
 /// Follows start → end leads from the lowest unvisited segment until the trace closes.
-pub(crate) fn trace_closed_windings(connections: &[Connection], segments: u32) -> Vec<ClosedWinding> {
+pub(crate) fn trace_closed_windings(
+    connections: &[Connection],
+    segments: u32,
+) -> Vec<ClosedWinding> {
     let out = out_coils(connections, segments);
     let mut visited = vec![false; segments as usize];
     let mut windings = Vec::new();
@@ -31,7 +34,11 @@ pub(crate) fn trace_closed_windings(connections: &[Connection], segments: u32) -
             visited[seg] = true;
             let conn = &connections[(out[seg] - 1) as usize];
             let to = conn.end_segment.unwrap_or(0);
-            steps.push(TraceStep { coil: conn.coil, from_segment: seg as u32 + 1, to_segment: to });
+            steps.push(TraceStep {
+                coil: conn.coil,
+                from_segment: seg as u32 + 1,
+                to_segment: to,
+            });
             seg = (to - 1) as usize;
         }
         windings.push(ClosedWinding { steps });

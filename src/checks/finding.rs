@@ -1,0 +1,69 @@
+//! `Finding`: the outcome of one rule check, with its severity and the rule's source.
+//!
+//! Part of the `checks` stage. Findings are returned, never printed.
+
+/// How much a failed check matters.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
+pub enum Severity {
+    /// The winding must not be wound as designed; `check` exits 1.
+    Error,
+    /// Wound as designed it will work, but a rule of the trade is bent.
+    Warning,
+    /// A fact worth knowing.
+    Info,
+}
+
+impl Severity {
+    /// Lower-case word used in reports and JSON.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Severity::Error => "error",
+            Severity::Warning => "warning",
+            Severity::Info => "info",
+        }
+    }
+}
+
+/// One rule applied to the design.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct Finding {
+    /// Stable id, `family.rule` (e.g. `symmetry.slots-per-path-pair`).
+    pub id: String,
+    /// Severity when the rule fails (an info finding is informational whether or not it passed).
+    pub severity: Severity,
+    /// Whether the rule is met.
+    pub passed: bool,
+    /// What was found, with the numbers.
+    pub message: String,
+    /// Where the rule comes from: a standard, a text, `common practice` or `from memory`.
+    pub source: String,
+}
+
+impl Finding {
+    /// A finding.
+    pub fn new(
+        id: &str,
+        severity: Severity,
+        passed: bool,
+        message: impl Into<String>,
+        source: &str,
+    ) -> Finding {
+        Finding {
+            id: id.to_string(),
+            severity,
+            passed,
+            message: message.into(),
+            source: source.to_string(),
+        }
+    }
+
+    /// True for a failed error-severity rule.
+    pub fn is_failure(&self) -> bool {
+        self.severity == Severity::Error && !self.passed
+    }
+}
+
+/// True when any error-severity rule failed.
+pub fn has_errors(findings: &[Finding]) -> bool {
+    findings.iter().any(Finding::is_failure)
+}

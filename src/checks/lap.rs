@@ -1,0 +1,87 @@
+//! Lap rules: reentrancy of multiplex windings, equalizer feasibility, brush width.
+
+use super::sources::{EQUALIZERS, MULTIPLEX_BRUSH, PITCH_TEXTS};
+use super::{Finding, Severity};
+use crate::design::{Design, EqualizerChoice};
+use crate::render::number::fmt_fixed;
+use crate::winding::{EqualizerPlan, Winding};
+
+pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
+    let m = d.multiplicity;
+    if m > 1 {
+        let r = w.reentrancy();
+        out.push(Finding::new(
+            "lap.reentrancy",
+            Severity::Info,
+            true,
+            format!(
+                "{} closed winding(s): gcd(C, m) = gcd({}, {m}) = {}; {}",
+                r,
+                w.active_coils,
+                w.reentrancy_formula,
+                if r == 1 {
+                    "singly re-entrant"
+                } else {
+                    "multiply re-entrant: each closed winding is wound and tested on its own"
+                }
+            ),
+            PITCH_TEXTS,
+        ));
+        out.push(multiplex_brush(m));
+    }
+    let asked = d.equalizers != EqualizerChoice::None;
+    match &w.equalizers {
+        EqualizerPlan::Possible(e) => {
+            let fitted = e.groups.len();
+            let pct = 100.0 * fitted as f64 / f64::from(e.possible.max(1));
+            let msg = if fitted == 0 {
+                format!(
+                    "equalizers possible at a pitch of {} segments ({} possible, {} points each); none fitted: large lap machines usually carry 1/3 to 1/2 of them",
+                    e.pitch,
+                    e.possible,
+                    d.pole_pairs()
+                )
+            } else {
+                format!(
+                    "{fitted} of {} possible equalizers fitted ({} %), pitch {} segments, {} points each",
+                    e.possible,
+                    fmt_fixed(pct, 1),
+                    e.pitch,
+                    d.pole_pairs()
+                )
+            };
+            out.push(Finding::new(
+                "lap.equalizers",
+                Severity::Info,
+                true,
+                msg,
+                EQUALIZERS,
+            ));
+        }
+        EqualizerPlan::Impossible(why) => out.push(Finding::new(
+            "lap.equalizers",
+            if asked {
+                Severity::Error
+            } else {
+                Severity::Info
+            },
+            !asked,
+            format!("equalizing is impossible: {why}"),
+            EQUALIZERS,
+        )),
+        EqualizerPlan::NotNeeded => {}
+    }
+}
+
+/// The brush-width note for multiplex windings.
+pub(super) fn multiplex_brush(m: u32) -> Finding {
+    Finding::new(
+        "multiplex.brush-width",
+        Severity::Info,
+        true,
+        format!(
+            "multiplicity {m}: each brush must cover at least {m} segments to collect from every winding"
+        ),
+        MULTIPLEX_BRUSH,
+    )
+}

@@ -1,0 +1,43 @@
+//! Shop rules of thumb.
+
+use super::sources::BAR_RULE;
+use super::{Finding, Severity};
+use crate::design::{Design, WindingType};
+use crate::winding::Winding;
+
+pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
+    let c = w.active_coils;
+    let suggests = match d.poles {
+        4 | 8 => Some(if c % 2 == 0 {
+            WindingType::Lap
+        } else {
+            WindingType::Wave
+        }),
+        6 => Some(if c % 3 == 0 {
+            WindingType::Lap
+        } else {
+            WindingType::Wave
+        }),
+        _ => None,
+    };
+    if let Some(kind) = suggests {
+        let matches = kind == d.winding_type;
+        out.push(Finding::new(
+            "shop.bar-count",
+            Severity::Info,
+            matches,
+            format!(
+                "{c} bars on {} poles suggests {}; the design is {}{}",
+                d.poles,
+                kind.as_str(),
+                d.winding_type.as_str(),
+                if matches {
+                    ""
+                } else {
+                    ": look twice at the old winding before choosing"
+                }
+            ),
+            BAR_RULE,
+        ));
+    }
+}

@@ -1,0 +1,66 @@
+//! Poles and span: poles even, span within the slots and near one pole pitch.
+
+use super::sources::{PITCH_TEXTS, SPAN};
+use super::{Finding, Severity};
+use crate::design::{Design, SpanSource};
+use crate::render::number::fmt_fixed;
+use crate::winding::Winding;
+
+pub(super) fn check(d: &Design, _w: &Winding, out: &mut Vec<Finding>) {
+    out.push(Finding::new(
+        "poles.even",
+        Severity::Error,
+        d.poles % 2 == 0 && d.poles >= 2,
+        format!("{} poles: poles come in north-south pairs", d.poles),
+        PITCH_TEXTS,
+    ));
+    let ok = d.span >= 1 && d.span < d.slots;
+    out.push(Finding::new(
+        "span.range",
+        Severity::Error,
+        ok,
+        format!(
+            "span {} slots; it must lie from 1 to {} for {} slots",
+            d.span,
+            d.slots - 1,
+            d.slots
+        ),
+        PITCH_TEXTS,
+    ));
+    let pole_pitch = f64::from(d.slots) / f64::from(d.poles);
+    let off = f64::from(d.span) - pole_pitch;
+    let within = off.abs() <= 1.0 + 1e-9;
+    let how = if off.abs() < 1e-9 {
+        "full pitch".to_string()
+    } else if off < 0.0 {
+        format!("short by {} slots", fmt_fixed(-off, 2))
+    } else {
+        format!("long by {} slots", fmt_fixed(off, 2))
+    };
+    out.push(Finding::new(
+        "span.pole-pitch",
+        Severity::Warning,
+        within,
+        format!(
+            "span {} slots against a pole pitch S/P = {} slots ({how}); keep within 1 slot of the pole pitch",
+            d.span,
+            fmt_fixed(pole_pitch, 2)
+        ),
+        SPAN,
+    ));
+    if d.span_source == SpanSource::Default {
+        out.push(Finding::new(
+            "span.default",
+            Severity::Info,
+            true,
+            format!(
+                "no span given: used floor(S/P) = floor({}/{}) = {} slots (\"1-{}\"); give `span` to match the old coils",
+                d.slots,
+                d.poles,
+                d.span,
+                d.span + 1
+            ),
+            SPAN,
+        ));
+    }
+}

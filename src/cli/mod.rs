@@ -1,0 +1,162 @@
+//! `cli`: the command line. The only stage that reads or writes files, looks at the terminal or
+//! the environment. Everything else is pure and is called from here.
+//!
+//! Exit codes: 0 all checks pass (warnings allowed), 1 an error-level check fails,
+//! 2 unreadable or invalid input (or output that could not be written).
+
+mod load;
+pub mod output;
+
+use std::io::{IsTerminal, Write};
+use std::path::PathBuf;
+
+use clap::{Args, Parser, Subcommand};
+
+use crate::checks::has_errors;
+use crate::render::text::{TextOptions, render_text};
+use crate::render::{Report, json};
+
+pub use load::{Checked, load_design};
+
+/// The starter design written by `armsheet new`.
+pub const STARTER: &str = include_str!("starter.toml");
+
+const ABOUT: &str =
+    "Designs, checks and prints DC armature windings (lap and wave, simplex and multiplex).";
+
+const CONVENTIONS: &str = "\
+Conventions: slots, coils and segments count from 1. Coil n lies in slot ceil(n/u), its bottom
+side `span` slots on; top coil sides are odd, bottom sides even, so y_b = 2u*span + 1.
+Segment 1 takes coil 1's start lead; y_c is signed, + towards rising segment numbers.
+Exit codes: 0 passes, 1 an error-level check fails, 2 bad input.";
+
+/// armsheet's command line.
+#[derive(Debug, Parser)]
+#[command(name = "armsheet", version, about = ABOUT, after_help = CONVENTIONS)]
+pub struct Cli {
+    /// What to do.
+    #[command(subcommand)]
+    pub command: Command,
+}
+
+/// The commands.
+#[derive(Debug, Subcommand)]
+pub enum Command {
+    /// Check a design: pitches, paths, brushes, constants, rule checks, connection table.
+    #[command(after_help = CHECK_HELP)]
+    Check(CheckArgs),
+    /// Write a commented starter design file (never overwrites).
+    #[command(after_help = NEW_HELP)]
+    New(NewArgs),
+}
+
+const CHECK_HELP: &str = "\
+The design file is TOML with the tables [job], [armature] (poles, slots, coils_per_slot,
+segments, rotation, pole_arc), [winding] (type, multiplicity, direction, span, turns,
+lead_offset, equalizers, flux_per_pole_mwb, speed_rpm) and, for rating checks, [rating],
+[conductor], [core], [commutator], [limits]. Unknown keys are errors.
+Span: 7 or the shop form \"1-8\". lead_offset 0 puts a coil's two segments either side of its
+centre line; + swings the leads towards rising segment numbers.
+Exit codes: 0 passes, 1 an error-level check fails, 2 bad input.";
+
+const NEW_HELP: &str = "\
+Writes a starter design with every key commented. Edit it, then run
+`armsheet check FILE`. The file is not overwritten if it exists.";
+
+/// Arguments of `check`.
+#[derive(Debug, Args)]
+pub struct CheckArgs {
+    /// The design file (TOML).
+    pub design: PathBuf,
+    /// Print one JSON object instead of the text report.
+    #[arg(long)]
+    pub json: bool,
+}
+
+/// Arguments of `new`.
+#[derive(Debug, Args)]
+pub struct NewArgs {
+    /// Where to write the starter design.
+    #[arg(default_value = "design.toml")]
+    pub path: PathBuf,
+}
+
+/// Parses the process arguments and runs; returns the exit code.
+pub fn run_from_env() -> u8 {
+    match Cli::try_parse() {
+        Ok(cli) => run(cli),
+        Err(e) => {
+            let code = if e.use_stderr() { 2 } else { 0 };
+            let _ = e.print();
+            code
+        }
+    }
+}
+
+/// Runs one parsed command; returns the exit code.
+pub fn run(cli: Cli) -> u8 {
+    match cli.command {
+        Command::Check(a) => check(&a),
+        Command::New(a) => new(&a),
+    }
+}
+
+fn check(a: &CheckArgs) -> u8 {
+    let checked = match load_design(&a.design) {
+        Ok(c) => c,
+        Err(code) => return code,
+    };
+    let report = checked.report();
+    let out = if a.json {
+        json::report_json(&report)
+    } else {
+        render_text(
+            &report,
+            TextOptions {
+                unicode: std::io::stdout().is_terminal(),
+            },
+        )
+    };
+    if print_stdout(&out).is_err() {
+        return 2;
+    }
+    u8::from(has_errors(&checked.findings))
+}
+
+fn new(a: &NewArgs) -> u8 {
+    match output::write_new(&a.path, STARTER.as_bytes()) {
+        Ok(()) => {
+            println!("wrote {}", a.path.display());
+            0
+        }
+        Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => {
+            eprintln!(
+                "error: {} already exists; armsheet new never overwrites a file\n  = hint: give another path, e.g. `armsheet new job-42.toml`",
+                a.path.display()
+            );
+            2
+        }
+        Err(e) => {
+            eprintln!("error: cannot write {}: {e}", a.path.display());
+            2
+        }
+    }
+}
+
+/// Writes to stdout; a closed pipe is not an error worth a panic.
+pub fn print_stdout(s: &str) -> std::io::Result<()> {
+    let mut out = std::io::stdout().lock();
+    out.write_all(s.as_bytes())?;
+    out.flush()
+}
+
+impl Checked {
+    /// The report view of this checked design.
+    pub fn report(&self) -> Report<'_> {
+        Report {
+            design: &self.design,
+            winding: &self.winding,
+            findings: &self.findings,
+        }
+    }
+}
