@@ -309,7 +309,7 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
         p,
         segments.as_ref(),
     )?;
-    if active < 2 * m * poles.value {
+    if active < (m + 1) * poles.value {
         let at = segments
             .as_ref()
             .map_or(slots.span.clone(), |s| s.span.clone());
@@ -318,12 +318,12 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
                 at,
                 "armature.segments",
                 format!(
-                    "{active} segments is too few for {} poles and multiplicity {m}: expected at least {} (2·m segments per pole)",
+                    "{active} segments is too few for {} poles and multiplicity {m}: expected at least {} ((m + 1) segments per pole)",
                     poles.value,
-                    2 * m * poles.value
+                    (m + 1) * poles.value
                 ),
             )
-            .with_hint("brushes of neighbouring poles would touch; check the poles and segments"));
+            .with_hint("the brushes of neighbouring poles would touch; check the poles, slots and coils per slot"));
     }
 
     let lead_offset = win.int(

@@ -58,7 +58,7 @@ pub fn trace_winding(design: &Design) -> Result<Winding, WindingError> {
             true,
         ),
     };
-    if c > n || c < 2 * m * d.poles {
+    if c > n || c < (m + 1) * d.poles {
         return Err(WindingError(format!(
             "{c} segments cannot be wound on {n} coils with {} poles",
             d.poles

@@ -1,0 +1,166 @@
+//! Property tests of the winding engine over random valid designs.
+//!
+//! Each case writes a TOML design, parses it with armsheet's own parser and traces it. The
+//! assertions are the trade's invariants: one start and one end lead per segment, a constant
+//! commutator pitch, every active coil traced once, and traced paths and reentrancy equal to
+//! the textbook formulas (lap a = m·P, wave a = 2m; reentrancy gcd(C, |y_c|)).
+
+use armsheet::design::parse_design;
+use armsheet::winding::{Winding, pitch, trace_winding};
+use proptest::prelude::*;
+
+#[derive(Debug, Clone)]
+struct Case {
+    poles: u32,
+    slots: u32,
+    u: u32,
+    wave: bool,
+    m: u32,
+    retro: bool,
+    span_delta: i32,
+    lead_offset: i32,
+    ccw: bool,
+    generator: bool,
+}
+
+impl Case {
+    fn toml(&self) -> String {
+        let pole_pitch = (self.slots / self.poles) as i32;
+        let span = (pole_pitch + self.span_delta).clamp(1, self.slots as i32 - 1);
+        format!(
+            "[armature]\npoles = {}\nslots = {}\ncoils_per_slot = {}\nrotation = \"{}\"\n\n[winding]\ntype = \"{}\"\nmultiplicity = {}\ndirection = \"{}\"\nspan = {span}\nturns = 3\nlead_offset = {}\n\n[rating]\nmode = \"{}\"\n",
+            self.poles,
+            self.slots,
+            self.u,
+            if self.ccw { "ccw" } else { "cw" },
+            if self.wave { "wave" } else { "lap" },
+            self.m,
+            if self.retro {
+                "retrogressive"
+            } else {
+                "progressive"
+            },
+            if 2 * self.poles * self.lead_offset.unsigned_abs() < self.u * self.slots - self.poles {
+                self.lead_offset
+            } else {
+                0
+            },
+            if self.generator { "generator" } else { "motor" },
+        )
+    }
+}
+
+fn case() -> impl Strategy<Value = Case> {
+    (
+        1u32..=8,
+        1u32..=4,
+        any::<bool>(),
+        1u32..=3,
+        any::<bool>(),
+        -1i32..=1,
+        -1i32..=1,
+        any::<bool>(),
+        any::<bool>(),
+    )
+        .prop_flat_map(|(pp, u, wave, m, retro, span_delta, lo, ccw, generator)| {
+            let pp = if wave { pp.max(2) } else { pp };
+            let poles = 2 * pp;
+            // Enough segments per pole for the brushes of neighbouring poles not to touch.
+            // Wave windings may lose up to p − 1 coils as dummies.
+            let min_coils = (m + 1) * poles + if wave { pp } else { 0 };
+            let min_slots = min_coils.div_ceil(u).max(poles + 1);
+            (min_slots..=min_slots + 160).prop_map(move |slots| Case {
+                poles,
+                slots,
+                u,
+                wave,
+                m,
+                retro,
+                span_delta,
+                lead_offset: lo,
+                ccw,
+                generator,
+            })
+        })
+}
+
+fn traced(c: &Case) -> Winding {
+    let text = c.toml();
+    let d = parse_design(&text, "prop.toml")
+        .unwrap_or_else(|e| panic!("valid design rejected:\n{text}\n{e}"));
+    trace_winding(&d).expect("a validated design traces")
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(1000))]
+
+    #[test]
+    fn every_segment_carries_one_start_and_one_end(c in case()) {
+        let w = traced(&c);
+        let n = w.active_coils as usize;
+        let (mut starts, mut ends) = (vec![0; n], vec![0; n]);
+        for conn in w.connections.iter().filter(|k| !k.dummy) {
+            starts[(conn.start_segment.unwrap() - 1) as usize] += 1;
+            ends[(conn.end_segment.unwrap() - 1) as usize] += 1;
+        }
+        prop_assert!(starts.iter().all(|&k| k == 1), "starts {:?}", starts);
+        prop_assert!(ends.iter().all(|&k| k == 1), "ends {:?}", ends);
+        prop_assert_eq!(w.connections.iter().filter(|k| k.dummy).count(), w.dummy_coils.len());
+        prop_assert_eq!(w.coils - w.active_coils, w.dummy_coils.len() as u32);
+    }
+
+    #[test]
+    fn end_minus_start_is_the_commutator_pitch(c in case()) {
+        let w = traced(&c);
+        let cc = i64::from(w.active_coils);
+        for conn in w.connections.iter().filter(|k| !k.dummy) {
+            let diff = i64::from(conn.end_segment.unwrap()) - i64::from(conn.start_segment.unwrap());
+            prop_assert_eq!(diff.rem_euclid(cc), w.pitches.commutator.rem_euclid(cc));
+        }
+    }
+
+    #[test]
+    fn trace_visits_every_active_coil_once(c in case()) {
+        let w = traced(&c);
+        let mut seen = vec![0u32; w.coils as usize];
+        for cw in &w.closed_windings {
+            for (k, st) in cw.steps.iter().enumerate() {
+                seen[(st.coil - 1) as usize] += 1;
+                let next = &cw.steps[(k + 1) % cw.steps.len()];
+                prop_assert_eq!(st.to_segment, next.from_segment);
+            }
+        }
+        for conn in &w.connections {
+            prop_assert_eq!(seen[(conn.coil - 1) as usize], u32::from(!conn.dummy));
+        }
+    }
+
+    #[test]
+    fn traced_paths_equal_the_formula(c in case()) {
+        let w = traced(&c);
+        let formula = if c.wave { 2 * c.m } else { c.m * c.poles };
+        prop_assert_eq!(w.parallel_paths(), formula, "{}", c.toml());
+        prop_assert_eq!(w.paths_formula, formula);
+        // Every path has coils, and paths plus shorted coils account for every active coil.
+        let in_paths: usize = w.paths.iter().map(|p| p.coils.len()).sum();
+        prop_assert!(w.paths.iter().all(|p| !p.coils.is_empty()));
+        prop_assert_eq!(in_paths + w.shorted_coils.len(), w.active_coils as usize);
+    }
+
+    #[test]
+    fn traced_reentrancy_is_gcd(c in case()) {
+        let w = traced(&c);
+        let g = pitch::gcd(u64::from(w.active_coils), w.pitches.commutator.unsigned_abs()) as u32;
+        prop_assert_eq!(w.reentrancy(), g);
+        prop_assert_eq!(w.reentrancy_formula, g);
+    }
+
+    #[test]
+    fn brushes_alternate_in_polarity(c in case()) {
+        let w = traced(&c);
+        prop_assert_eq!(w.brushes.len() as u32, c.poles);
+        for pair in w.brushes.windows(2) {
+            prop_assert_ne!(pair[0].polarity, pair[1].polarity);
+        }
+    }
+}
