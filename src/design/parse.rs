@@ -606,12 +606,16 @@ fn resolve_segments(
             if !workable(c.value) {
                 let below = (2..c.value).rev().find(|&n| workable(n));
                 let above = (c.value + 1..=positions).find(|&n| workable(n));
-                let near: Vec<String> = below.into_iter().chain(above).map(|n| n.to_string()).collect();
+                let near: Vec<String> = below
+                    .into_iter()
+                    .chain(above)
+                    .map(|n| format!("{n} ({} dummy coil(s))", positions - n))
+                    .collect();
                 let other = (c.value - sign * m) % p == 0;
                 let mut hint = if near.is_empty() {
                     "no count up to the coil count works".to_string()
                 } else {
-                    format!("the nearest workable counts are {}", near.join(" and "))
+                    format!("the nearest workable count(s): {}", near.join(" or "))
                 };
                 if other {
                     let other_dir = match direction {
