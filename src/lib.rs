@@ -11,5 +11,6 @@
 pub mod checks;
 pub mod cli;
 pub mod design;
+pub mod layout;
 pub mod render;
 pub mod winding;

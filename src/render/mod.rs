@@ -3,9 +3,15 @@
 //! Fifth stage of the pipeline. Renderers hold no winding logic: they format what the engine,
 //! the checks and the layout resolved. Every number goes through [`number`].
 
+pub mod csv;
 pub mod json;
 pub mod number;
+pub mod pdf;
 pub mod report;
+pub mod sheet;
+pub mod sheet_data;
+pub mod svg;
+pub mod svg_writer;
 pub mod text;
 
 pub use report::Report;

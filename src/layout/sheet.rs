@@ -1,0 +1,180 @@
+//! Page geometry for printed sheets: frame, title block, blocks and table pagination.
+//!
+//! Part of the `layout` stage. Pure arithmetic in millimetres on the landscape page; the
+//! text that fills the blocks is chosen by `render::sheet`.
+
+use std::ops::Range;
+
+use super::paper::Paper;
+
+/// Page margin on every side, mm (inside most printers' unprintable edge).
+pub const MARGIN: f64 = 10.0;
+/// Height of the "not for winding" band, mm.
+pub const BAND_HEIGHT: f64 = 9.0;
+/// Title block size, mm.
+pub const TITLE_BLOCK: (f64, f64) = (118.0, 27.0);
+/// Connection-table font size, mm: 3.5 mm gives a cap height of about 2.55 mm in DejaVu Sans
+/// (cap height 0.729 em, from the font's OS/2 table), above the 2.5 mm asked for on A4.
+pub const TABLE_FONT: f64 = 3.5;
+/// Table row pitch, mm.
+pub const TABLE_ROW: f64 = 5.0;
+/// Table header height, mm (two lines).
+pub const TABLE_HEADER: f64 = 9.0;
+/// Gap between side-by-side column groups, mm.
+pub const TABLE_GAP: f64 = 8.0;
+
+/// An axis-aligned rectangle, mm.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Rect {
+    /// Left.
+    pub x: f64,
+    /// Top.
+    pub y: f64,
+    /// Width.
+    pub w: f64,
+    /// Height.
+    pub h: f64,
+}
+
+impl Rect {
+    /// Right edge.
+    pub fn right(&self) -> f64 {
+        self.x + self.w
+    }
+
+    /// Bottom edge.
+    pub fn bottom(&self) -> f64 {
+        self.y + self.h
+    }
+}
+
+/// The fixed parts of every page.
+#[derive(Clone, Debug, PartialEq)]
+pub struct PageFrame {
+    /// The paper.
+    pub paper: Paper,
+    /// Page width, mm.
+    pub width: f64,
+    /// Page height, mm.
+    pub height: f64,
+    /// The drawing frame inside the margins.
+    pub frame: Rect,
+    /// The "not for winding" band across the top of the frame, when the design fails checks.
+    pub band: Option<Rect>,
+    /// The title block, bottom right.
+    pub title_block: Rect,
+    /// The free area above the title-block row (below the band).
+    pub content: Rect,
+}
+
+/// Lays out the frame for `paper`; `failing` reserves the warning band.
+pub fn page_frame(paper: Paper, failing: bool) -> PageFrame {
+    let (width, height) = paper.size_mm();
+    let frame = Rect { x: MARGIN, y: MARGIN, w: width - 2.0 * MARGIN, h: height - 2.0 * MARGIN };
+    let band = failing.then_some(Rect { x: frame.x, y: frame.y, w: frame.w, h: BAND_HEIGHT });
+    let top = frame.y + if failing { BAND_HEIGHT } else { 0.0 };
+    let title_block = Rect {
+        x: frame.right() - TITLE_BLOCK.0,
+        y: frame.bottom() - TITLE_BLOCK.1,
+        w: TITLE_BLOCK.0,
+        h: TITLE_BLOCK.1,
+    };
+    let content = Rect { x: frame.x, y: top, w: frame.w, h: title_block.y - top };
+    PageFrame { paper, width, height, frame, band, title_block, content }
+}
+
+/// The blocks of sheet 1: the diagram above, data, legend and notes in a row below.
+#[derive(Clone, Debug, PartialEq)]
+pub struct DiagramSheet {
+    /// The developed diagram.
+    pub diagram: Rect,
+    /// The winding-data block.
+    pub data: Rect,
+    /// The legend.
+    pub legend: Rect,
+    /// Numbering convention and caution box (above the title block).
+    pub notes: Rect,
+}
+
+/// Height of the row of blocks under the diagram, mm.
+pub const BLOCK_ROW: f64 = 64.0;
+
+/// Lays out sheet 1 on `frame`.
+pub fn diagram_sheet(frame: &PageFrame) -> DiagramSheet {
+    let f = &frame.frame;
+    let row_top = f.bottom() - BLOCK_ROW;
+    let diagram = Rect { x: frame.content.x, y: frame.content.y + 1.0, w: frame.content.w, h: row_top - frame.content.y - 2.0 };
+    let notes_w = TITLE_BLOCK.0;
+    let rest = f.w - notes_w;
+    let data_w = (rest * 0.56).floor();
+    let data = Rect { x: f.x, y: row_top, w: data_w, h: BLOCK_ROW };
+    let legend = Rect { x: f.x + data_w, y: row_top, w: rest - data_w, h: BLOCK_ROW };
+    let notes = Rect { x: frame.title_block.x, y: row_top, w: notes_w, h: BLOCK_ROW - TITLE_BLOCK.1 };
+    DiagramSheet { diagram, data, legend, notes }
+}
+
+/// One page of a table: the rows each column group holds and where it stands.
+#[derive(Clone, Debug, PartialEq)]
+pub struct TablePage {
+    /// The rows on this page.
+    pub rows: Range<usize>,
+    /// Column groups: left x and the rows in it.
+    pub groups: Vec<(f64, Range<usize>)>,
+    /// Top of the header.
+    pub top: f64,
+}
+
+/// Splits `total` rows of a table whose columns take `width` mm into pages that fit `area`.
+/// Always returns at least one page.
+pub fn paginate(total: usize, width: f64, area: &Rect) -> Vec<TablePage> {
+    let per_group = (((area.h - TABLE_HEADER) / TABLE_ROW).floor() as usize).max(1);
+    let groups = (((area.w + TABLE_GAP) / (width + TABLE_GAP)).floor() as usize).max(1);
+    let per_page = per_group * groups;
+    let mut pages = Vec::new();
+    let mut first = 0;
+    loop {
+        let end = (first + per_page).min(total);
+        let mut gs = Vec::new();
+        let mut r = first;
+        for g in 0..groups {
+            if r >= end && g > 0 {
+                break;
+            }
+            let e = (r + per_group).min(end);
+            gs.push((area.x + g as f64 * (width + TABLE_GAP), r..e));
+            r = e;
+        }
+        pages.push(TablePage { rows: first..end, groups: gs, top: area.y });
+        first = end;
+        if first >= total {
+            break;
+        }
+    }
+    pages
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn pagination_keeps_every_row_once() {
+        let area = Rect { x: 10.0, y: 20.0, w: 277.0, h: 150.0 };
+        for total in [0usize, 1, 57, 58, 59, 1056] {
+            let pages = paginate(total, 130.0, &area);
+            let rows: Vec<usize> = pages.iter().flat_map(|p| p.groups.iter().flat_map(|g| g.1.clone())).collect();
+            assert_eq!(rows, (0..total).collect::<Vec<_>>(), "total {total}");
+        }
+        // 150 mm: (150 − 9)/5 = 28 rows a group, two 130 mm groups across 277 mm.
+        assert_eq!(paginate(1056, 130.0, &area).len(), 1056usize.div_ceil(56));
+    }
+
+    #[test]
+    fn frame_fits_the_paper() {
+        let f = page_frame(Paper::A4, true);
+        assert_eq!((f.width, f.height), (297.0, 210.0));
+        assert_eq!(f.title_block.right(), 287.0);
+        assert_eq!(f.title_block.bottom(), 200.0);
+        assert_eq!(f.content.y, MARGIN + BAND_HEIGHT);
+    }
+}
