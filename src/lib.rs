@@ -12,5 +12,6 @@ pub mod checks;
 pub mod cli;
 pub mod design;
 pub mod layout;
+pub mod rating;
 pub mod render;
 pub mod winding;

@@ -1,0 +1,159 @@
+//! Segment voltage, segment pitch, peripheral speed, brush width and coils under commutation.
+//!
+//! Part of the `rating` stage: pure arithmetic.
+
+use std::f64::consts::PI;
+
+use crate::design::{BrushWidth, WindingType};
+
+/// Voltage between adjacent segments.
+#[derive(Clone, Debug, PartialEq)]
+pub struct SegmentVoltage {
+    /// Average E·P/C, V.
+    pub average_v: f64,
+    /// Estimated peak: average ÷ pole-arc ratio, V [common practice].
+    pub peak_v: f64,
+    /// The pole-arc ratio used.
+    pub pole_arc: f64,
+    /// Fewest segments that keep the average within its limit: ⌈E·P/limit⌉.
+    pub c_min_average: u32,
+    /// Fewest segments that keep the estimated peak within its limit: ⌈E·P/(arc·limit)⌉.
+    pub c_min_peak: u32,
+}
+
+/// Average and peak segment voltage for EMF `e`, `poles`, `segments`, and the limits.
+pub fn segment_voltage(
+    e: f64,
+    poles: u32,
+    segments: u32,
+    pole_arc: f64,
+    avg_max: f64,
+    peak_max: f64,
+) -> SegmentVoltage {
+    let ep = e.abs() * f64::from(poles);
+    let average_v = ep / f64::from(segments);
+    SegmentVoltage {
+        average_v,
+        peak_v: average_v / pole_arc,
+        pole_arc,
+        c_min_average: ceil_u32(ep / avg_max),
+        c_min_peak: ceil_u32(ep / (pole_arc * peak_max)),
+    }
+}
+
+/// ⌈x⌉ as a count, with a tiny tolerance so 30.000000001 stays 30.
+pub(crate) fn ceil_u32(x: f64) -> u32 {
+    let r = x.round();
+    let c = if (x - r).abs() < 1e-9 { r } else { x.ceil() };
+    c.clamp(0.0, f64::from(u32::MAX)) as u32
+}
+
+/// The commutator and brushes.
+#[derive(Clone, Debug, PartialEq)]
+pub struct CommutatorData {
+    /// Commutator diameter, mm.
+    pub diameter_mm: Option<f64>,
+    /// Segment pitch π·D_c/C, mm.
+    pub segment_pitch_mm: Option<f64>,
+    /// Peripheral speed π·D_c·N/60, m/s.
+    pub peripheral_speed_m_s: Option<f64>,
+    /// The speed used for it, rpm.
+    pub speed_rpm: Option<f64>,
+    /// Brush width in segment pitches.
+    pub brush_width_segments: Option<f64>,
+    /// Brush width, mm.
+    pub brush_width_mm: Option<f64>,
+    /// Most coils one brush shorts at once.
+    pub coils_shorted_max: Option<u32>,
+    /// Fewest coils one brush shorts at once.
+    pub coils_shorted_min: Option<u32>,
+    /// How the count was made.
+    pub coils_shorted_note: Option<String>,
+}
+
+/// Commutator figures from the design data; `speed_rpm` is the speed to rate at.
+pub fn commutator_data(
+    diameter_mm: Option<f64>,
+    brush: Option<BrushWidth>,
+    segments: u32,
+    speed_rpm: Option<f64>,
+    kind: WindingType,
+    multiplicity: u32,
+    pole_pairs: u32,
+) -> CommutatorData {
+    let c = f64::from(segments);
+    let pitch = diameter_mm.map(|d| PI * d / c);
+    let speed = diameter_mm
+        .zip(speed_rpm)
+        .map(|(d, n)| PI * d / 1000.0 * n / 60.0);
+    let (w_seg, w_mm) = match brush {
+        Some(BrushWidth::Segments(s)) => (Some(s), pitch.map(|p| s * p)),
+        Some(BrushWidth::Millimetres(mm)) => (pitch.map(|p| mm / p), Some(mm)),
+        None => (None, None),
+    };
+    let shorted = w_seg.map(|b| coils_shorted(b, kind, multiplicity, pole_pairs));
+    CommutatorData {
+        diameter_mm,
+        segment_pitch_mm: pitch,
+        peripheral_speed_m_s: speed,
+        speed_rpm: speed.and(speed_rpm),
+        brush_width_segments: w_seg,
+        brush_width_mm: w_mm,
+        coils_shorted_max: shorted.as_ref().map(|s| s.1),
+        coils_shorted_min: shorted.as_ref().map(|s| s.0),
+        coils_shorted_note: shorted.map(|s| s.2),
+    }
+}
+
+/// Coils one brush shorts at once, (fewest, most, how).
+///
+/// A brush β segment pitches wide (mica neglected) touches ⌊β⌋+1 or ⌈β⌉+1 segments as the
+/// commutator turns. In a lap winding a coil joins segments m apart, so k touched segments
+/// short k − m coils. In a wave winding each gap between neighbouring segments closes a chain
+/// of p coils in series through the brushes of one polarity, so the count is p times that
+/// [common practice, textbook commutation treatment, from memory].
+pub fn coils_shorted(beta: f64, kind: WindingType, m: u32, p: u32) -> (u32, u32, String) {
+    let near = beta.round();
+    let (lo, hi) = if (beta - near).abs() < 1e-9 {
+        (near, near)
+    } else {
+        (beta.floor(), beta.ceil())
+    };
+    let touch_lo = lo as i64 + 1;
+    let touch_hi = hi as i64 + 1;
+    let per = |k: i64| (k - i64::from(m)).max(0) as u32;
+    let (fewest, most) = (per(touch_lo), per(touch_hi));
+    match kind {
+        WindingType::Lap => (
+            fewest,
+            most,
+            format!("lap: a brush touching k segments shorts k - m coils (m = {m})"),
+        ),
+        WindingType::Wave => (
+            fewest * p,
+            most * p,
+            format!("wave: each bridged gap shorts p = {p} coils in series (k - m gaps, m = {m})"),
+        ),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn segment_voltage_and_minimum_bars() {
+        let s = segment_voltage(450.0, 6, 150, 0.7, 15.0, 30.0);
+        assert!((s.average_v - 18.0).abs() < 1e-12);
+        assert_eq!(s.c_min_average, 180);
+        assert_eq!(s.c_min_peak, 129); // 2700 / 21 = 128.57
+    }
+
+    #[test]
+    fn shorted_coils() {
+        assert_eq!(coils_shorted(1.5, WindingType::Lap, 1, 2).0, 1);
+        assert_eq!(coils_shorted(1.5, WindingType::Lap, 1, 2).1, 2);
+        assert_eq!(coils_shorted(2.0, WindingType::Lap, 2, 2).1, 1);
+        assert_eq!(coils_shorted(1.0, WindingType::Wave, 1, 3).1, 3);
+    }
+}

@@ -1,0 +1,298 @@
+//! Conductor cross-sections, standard wire sizes and the mean length of a turn.
+//!
+//! Part of the `rating` stage: pure arithmetic on the resolved [`Design`].
+
+use std::f64::consts::PI;
+
+use crate::design::{Conductor, ConductorShape, Design, awg_diameter_mm};
+
+/// Copper cross-section of one turn's conductor, all strands in hand, mm².
+///
+/// Round: π/4·d²·strands. Rectangular: (w·h − (4 − π)·r²)·strands, the corners being quarter
+/// circles of radius r (plain geometry).
+pub fn conductor_area_mm2(shape: &ConductorShape) -> f64 {
+    match *shape {
+        ConductorShape::Round {
+            diameter_mm,
+            strands,
+            ..
+        } => round_area_mm2(diameter_mm) * f64::from(strands),
+        ConductorShape::Rectangular {
+            width_mm,
+            height_mm,
+            corner_radius_mm,
+            strands,
+        } => strip_area_mm2(width_mm, height_mm, corner_radius_mm) * f64::from(strands),
+    }
+}
+
+/// Area of one round wire of bare diameter `d` mm, mm².
+pub fn round_area_mm2(d: f64) -> f64 {
+    PI / 4.0 * d * d
+}
+
+/// Area of one rectangular strip w × h with corner radius r, mm².
+pub fn strip_area_mm2(w: f64, h: f64, r: f64) -> f64 {
+    w * h - (4.0 - PI) * r * r
+}
+
+/// Strands (wires or strips) in hand.
+pub fn strands(shape: &ConductorShape) -> u32 {
+    match *shape {
+        ConductorShape::Round { strands, .. } | ConductorShape::Rectangular { strands, .. } => {
+            strands
+        }
+    }
+}
+
+/// A conductor described in words: "2 × AWG 17 (1.150 mm)", "1.250 mm", "6.30 × 2.50 mm r 0.50".
+pub fn describe(shape: &ConductorShape) -> String {
+    use crate::render::number::fmt_fixed;
+    let n = strands(shape);
+    let body = match *shape {
+        ConductorShape::Round {
+            diameter_mm,
+            awg: Some(g),
+            ..
+        } => {
+            format!("AWG {} ({} mm)", awg_name(g), fmt_fixed(diameter_mm, 3))
+        }
+        ConductorShape::Round {
+            diameter_mm,
+            awg: None,
+            ..
+        } => format!("{} mm round", fmt_fixed(diameter_mm, 3)),
+        ConductorShape::Rectangular {
+            width_mm,
+            height_mm,
+            corner_radius_mm,
+            ..
+        } => format!(
+            "{} x {} mm strip, corner radius {} mm",
+            fmt_fixed(width_mm, 2),
+            fmt_fixed(height_mm, 2),
+            fmt_fixed(corner_radius_mm, 2)
+        ),
+    };
+    if n > 1 { format!("{n} x {body}") } else { body }
+}
+
+/// The gauge as written on a reel: 0000 for −3, 000 for −2, 00 for −1.
+pub fn awg_name(g: i32) -> String {
+    match g {
+        -3 => "0000".into(),
+        -2 => "000".into(),
+        -1 => "00".into(),
+        n => n.to_string(),
+    }
+}
+
+/// Smallest and largest AWG gauge considered for suggestions (0000 … 40).
+pub const AWG_RANGE: std::ops::RangeInclusive<i32> = -3..=40;
+
+/// Nominal diameters of metric enamelled round wire, mm: the R20 preferred numbers from
+/// 0.100 mm to 5.00 mm.
+///
+/// [src: ISO 3 preferred numbers, series R20 (1.00 1.12 1.25 1.40 1.60 1.80 2.00 2.24 2.50
+/// 2.80 3.15 3.55 4.00 4.50 5.00 5.60 6.30 7.10 8.00 9.00); their use for enamelled wire
+/// nominal diameters per IEC 60317-0-1, from memory as to the full list.]
+pub fn r20_diameters_mm() -> Vec<f64> {
+    const R20: [f64; 20] = [
+        1.00, 1.12, 1.25, 1.40, 1.60, 1.80, 2.00, 2.24, 2.50, 2.80, 3.15, 3.55, 4.00, 4.50, 5.00,
+        5.60, 6.30, 7.10, 8.00, 9.00,
+    ];
+    let mut out = Vec::new();
+    for decade in [0.1, 1.0] {
+        for r in R20 {
+            out.push((r * decade * 1000.0).round() / 1000.0);
+        }
+    }
+    out.push(10.0);
+    out.retain(|d| (0.1..=5.0).contains(d));
+    out
+}
+
+/// Which family a suggested size belongs to.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
+pub enum WireFamily {
+    /// American Wire Gauge (ASTM B258).
+    Awg,
+    /// Metric R20 nominal diameter.
+    Metric,
+}
+
+/// One standard round-wire option: `strands` wires of one size in hand.
+#[derive(Clone, Debug, PartialEq)]
+pub struct WireOption {
+    /// AWG or metric.
+    pub family: WireFamily,
+    /// The gauge when AWG.
+    pub awg: Option<i32>,
+    /// Bare diameter, mm.
+    pub diameter_mm: f64,
+    /// Wires in hand, 1…4.
+    pub strands: u32,
+    /// Total copper area, mm².
+    pub area_mm2: f64,
+    /// (area − wanted)/wanted, as a fraction.
+    pub error: f64,
+}
+
+impl WireOption {
+    /// "2 x AWG 17 (1.150 mm)" or "3 x 1.120 mm".
+    pub fn label(&self) -> String {
+        describe(&self.shape())
+    }
+
+    /// The option as a conductor shape.
+    pub fn shape(&self) -> ConductorShape {
+        ConductorShape::Round {
+            diameter_mm: self.diameter_mm,
+            awg: self.awg,
+            strands: self.strands,
+        }
+    }
+}
+
+/// For each strand count 1…`max_strands` and each family, the standard size whose total area
+/// is nearest to `wanted_mm2` (ties go to the larger wire). Sorted by family, then strands.
+pub fn nearest_sizes(wanted_mm2: f64, max_strands: u32) -> Vec<WireOption> {
+    let metric = r20_diameters_mm();
+    let mut out = Vec::new();
+    for family in [WireFamily::Awg, WireFamily::Metric] {
+        for n in 1..=max_strands {
+            let per = wanted_mm2 / f64::from(n);
+            let candidates: Vec<(Option<i32>, f64)> = match family {
+                WireFamily::Awg => AWG_RANGE.map(|g| (Some(g), awg_diameter_mm(g))).collect(),
+                WireFamily::Metric => metric.iter().map(|&d| (None, d)).collect(),
+            };
+            let best = candidates
+                .into_iter()
+                .map(|(g, d)| (g, d, (round_area_mm2(d) - per).abs()))
+                .fold(None::<(Option<i32>, f64, f64)>, |acc, c| match acc {
+                    Some(a) if a.2 < c.2 || (a.2 == c.2 && a.1 > c.1) => Some(a),
+                    _ => Some(c),
+                });
+            if let Some((g, d, _)) = best {
+                let area = round_area_mm2(d) * f64::from(n);
+                out.push(WireOption {
+                    family,
+                    awg: g,
+                    diameter_mm: d,
+                    strands: n,
+                    area_mm2: area,
+                    error: area / wanted_mm2 - 1.0,
+                });
+            }
+        }
+    }
+    out
+}
+
+/// Picks the option to wind: within `family`, the fewest strands whose area is within 3 % of
+/// the wanted area; if none is, the option with the smallest error (fewest strands on a tie).
+pub fn choose_size(options: &[WireOption], family: WireFamily) -> Option<&WireOption> {
+    let fam: Vec<&WireOption> = options.iter().filter(|o| o.family == family).collect();
+    fam.iter()
+        .copied()
+        .find(|o| o.error.abs() <= 0.03)
+        .or_else(|| {
+            fam.iter()
+                .copied()
+                .fold(None, |acc: Option<&WireOption>, o| match acc {
+                    Some(a) if a.error.abs() <= o.error.abs() => Some(a),
+                    _ => Some(o),
+                })
+        })
+}
+
+/// Where the mean length of one turn came from.
+#[derive(Clone, Debug, PartialEq)]
+pub enum MeanTurnSource {
+    /// `[conductor] mean_turn_mm`.
+    Given,
+    /// Estimated; the string is the formula with its numbers.
+    Estimated(String),
+}
+
+/// The mean length of one turn.
+#[derive(Clone, Debug, PartialEq)]
+pub struct MeanTurn {
+    /// mm.
+    pub mm: f64,
+    /// Given or estimated.
+    pub source: MeanTurnSource,
+}
+
+/// The mean turn: given, or estimated from `[core]` as L_mt ≈ 2·L + 2.5·π·D·y_s/S, each end
+/// connection taken as 1.25 coil pitches at the core surface [common practice, from memory].
+/// `None` when neither the length nor the core diameter and length are known.
+pub fn mean_turn(d: &Design, c: &Conductor) -> Option<MeanTurn> {
+    use crate::render::number::fmt_fixed;
+    if let Some(mm) = c.mean_turn_mm {
+        return Some(MeanTurn {
+            mm,
+            source: MeanTurnSource::Given,
+        });
+    }
+    let core = d.core.as_ref()?;
+    let (dia, len) = (core.diameter_mm?, core.length_mm?);
+    let pitch = PI * dia * f64::from(d.span) / f64::from(d.slots);
+    let mm = 2.0 * len + 2.5 * pitch;
+    Some(MeanTurn {
+        mm,
+        source: MeanTurnSource::Estimated(format!(
+            "estimated: L_mt = 2*L + 2.5*pi*D*y_s/S = 2*{} + 2.5*pi*{}*{}/{} = {} mm (ends taken as 1.25 coil pitches) [common practice, from memory]",
+            fmt_fixed(len, 1),
+            fmt_fixed(dia, 1),
+            d.span,
+            d.slots,
+            fmt_fixed(mm, 1)
+        )),
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn areas() {
+        let round = ConductorShape::Round {
+            diameter_mm: 1.0,
+            awg: None,
+            strands: 2,
+        };
+        assert!((conductor_area_mm2(&round) - PI / 2.0).abs() < 1e-12);
+        let strip = ConductorShape::Rectangular {
+            width_mm: 6.0,
+            height_mm: 2.0,
+            corner_radius_mm: 0.5,
+            strands: 1,
+        };
+        assert!((conductor_area_mm2(&strip) - (12.0 - (4.0 - PI) * 0.25)).abs() < 1e-12);
+    }
+
+    #[test]
+    fn r20_list_has_the_familiar_sizes() {
+        let l = r20_diameters_mm();
+        for d in [0.8, 0.9, 1.0, 1.12, 1.25, 1.4, 1.6, 1.8, 2.0] {
+            assert!(l.contains(&d), "{d}");
+        }
+        assert_eq!(l.first(), Some(&0.1));
+        assert_eq!(l.last(), Some(&5.0));
+    }
+
+    #[test]
+    fn nearest_single_wire_is_exact_when_available() {
+        let o = nearest_sizes(round_area_mm2(1.25), 4);
+        let m1 = o
+            .iter()
+            .find(|o| o.family == WireFamily::Metric && o.strands == 1)
+            .unwrap();
+        assert_eq!(m1.diameter_mm, 1.25);
+        let a = nearest_sizes(round_area_mm2(awg_diameter_mm(18)), 1);
+        assert_eq!(a[0].awg, Some(18));
+        assert_eq!(choose_size(&o, WireFamily::Metric).unwrap().strands, 1);
+    }
+}

@@ -1,0 +1,222 @@
+//! Writes a resolved [`Design`] back as a design file, with a comment header.
+//!
+//! Part of the `rating` stage (used by the rewind): pure text, deterministic. Every key is
+//! written explicitly, in the order of the design-file reference, and only `[limits]` keys
+//! that differ from the defaults. The output parses back with [`crate::design::parse_design`].
+
+use std::fmt::Write;
+
+use crate::design::{
+    BrushWidth, ConductorShape, Design, EqualizerChoice, LIMIT_KEYS, Limits, ThermalClass,
+};
+
+/// The design as TOML, `header` lines first as `# ` comments.
+pub fn write_design(d: &Design, header: &[String]) -> String {
+    let mut s = String::new();
+    for line in header {
+        let _ = writeln!(s, "# {line}");
+    }
+    if !header.is_empty() {
+        s.push('\n');
+    }
+    let j = &d.job;
+    if [&j.id, &j.title, &j.customer, &j.date, &j.notes]
+        .iter()
+        .any(|v| v.is_some())
+    {
+        s.push_str("[job]\n");
+        for (k, v) in [
+            ("id", &j.id),
+            ("title", &j.title),
+            ("customer", &j.customer),
+            ("date", &j.date),
+            ("notes", &j.notes),
+        ] {
+            if let Some(v) = v {
+                let _ = writeln!(s, "{k} = {}", quote(v));
+            }
+        }
+        s.push('\n');
+    }
+    s.push_str("[armature]\n");
+    let _ = writeln!(s, "poles = {}", d.poles);
+    let _ = writeln!(s, "slots = {}", d.slots);
+    let _ = writeln!(s, "coils_per_slot = {}", d.coils_per_slot);
+    if let Some(c) = d.segments {
+        let _ = writeln!(s, "segments = {c}");
+    }
+    let _ = writeln!(s, "rotation = \"{}\"", d.rotation.as_str());
+    let _ = writeln!(s, "pole_arc = {}", num(d.pole_arc, 4));
+    s.push_str("\n[winding]\n");
+    let _ = writeln!(s, "type = \"{}\"", d.winding_type.as_str());
+    let _ = writeln!(s, "multiplicity = {}", d.multiplicity);
+    let _ = writeln!(s, "direction = \"{}\"", d.direction.as_str());
+    let _ = writeln!(s, "span = \"1-{}\"", d.span + 1);
+    let _ = writeln!(s, "turns = {}", d.turns);
+    let _ = writeln!(s, "lead_offset = {}", d.lead_offset);
+    match d.equalizers {
+        EqualizerChoice::None => s.push_str("equalizers = \"none\"\n"),
+        EqualizerChoice::Full => s.push_str("equalizers = \"full\"\n"),
+        EqualizerChoice::EveryNth(n) => {
+            let _ = writeln!(s, "equalizers = {n}");
+        }
+    }
+    let has_rating = d.rating.is_some() || d.flux_per_pole_mwb.is_some() || d.speed_rpm.is_some();
+    if has_rating {
+        s.push_str("\n[rating]\n");
+        let r = d.rating.clone().unwrap_or_default();
+        if let Some(v) = r.voltage {
+            let _ = writeln!(s, "voltage = {}", num(v, 3));
+        }
+        if let Some(i) = r.current {
+            let _ = writeln!(s, "current = {}", num(i, 4));
+        }
+        if let Some(n) = d.speed_rpm {
+            let _ = writeln!(s, "speed_rpm = {}", num(n, 3));
+        }
+        let _ = writeln!(s, "mode = \"{}\"", d.mode.as_str());
+        if let Some(c) = r.thermal_class {
+            let _ = writeln!(s, "thermal_class = {}", class_number(c));
+        }
+        if let Some(f) = d.flux_per_pole_mwb {
+            let _ = writeln!(s, "flux_per_pole_mwb = {}", num(f, 4));
+        }
+    }
+    if let Some(k) = &d.conductor {
+        s.push_str("\n[conductor]\n");
+        match k.shape {
+            ConductorShape::Round {
+                diameter_mm,
+                awg,
+                strands,
+            } => {
+                match awg {
+                    Some(g) => {
+                        let _ = writeln!(s, "awg = {g}");
+                    }
+                    None => {
+                        let _ = writeln!(s, "diameter_mm = {}", num(diameter_mm, 4));
+                    }
+                }
+                let _ = writeln!(s, "strands = {strands}");
+            }
+            ConductorShape::Rectangular {
+                width_mm,
+                height_mm,
+                corner_radius_mm,
+                strands,
+            } => {
+                let _ = writeln!(s, "width_mm = {}", num(width_mm, 3));
+                let _ = writeln!(s, "height_mm = {}", num(height_mm, 3));
+                let _ = writeln!(s, "corner_radius_mm = {}", num(corner_radius_mm, 3));
+                let _ = writeln!(s, "strands = {strands}");
+            }
+        }
+        if let Some(l) = k.mean_turn_mm {
+            let _ = writeln!(s, "mean_turn_mm = {}", num(l, 2));
+        }
+    }
+    if let Some(c) = &d.core {
+        s.push_str("\n[core]\n");
+        if let Some(x) = c.diameter_mm {
+            let _ = writeln!(s, "diameter_mm = {}", num(x, 3));
+        }
+        if let Some(x) = c.length_mm {
+            let _ = writeln!(s, "length_mm = {}", num(x, 3));
+        }
+    }
+    if let Some(c) = &d.commutator {
+        s.push_str("\n[commutator]\n");
+        if let Some(x) = c.diameter_mm {
+            let _ = writeln!(s, "diameter_mm = {}", num(x, 3));
+        }
+        match c.brush_width {
+            Some(BrushWidth::Millimetres(x)) => {
+                let _ = writeln!(s, "brush_width_mm = {}", num(x, 3));
+            }
+            Some(BrushWidth::Segments(x)) => {
+                let _ = writeln!(s, "brush_width_segments = {}", num(x, 3));
+            }
+            None => {}
+        }
+        if let Some(g) = c.brush_grade {
+            let _ = writeln!(s, "brush_grade = \"{}\"", g.as_str());
+        }
+    }
+    let overrides = limit_overrides(&d.limits);
+    if !overrides.is_empty() {
+        s.push_str("\n[limits]\n");
+        for (k, v) in overrides {
+            let _ = writeln!(s, "{k} = {}", num(v, 6));
+        }
+    }
+    s
+}
+
+/// `[limits]` keys whose values differ from the defaults, in key order.
+fn limit_overrides(l: &Limits) -> Vec<(&'static str, f64)> {
+    let d = Limits::default();
+    let values = |l: &Limits| {
+        [
+            l.segment_volts_avg_max,
+            l.segment_volts_peak_max,
+            l.path_current_max,
+            l.brush_arm_current_max,
+            l.segment_pitch_min_mm,
+            l.commutator_speed_preferred_m_s,
+            l.commutator_speed_max_m_s,
+            l.current_density_min_a_mm2,
+            l.current_density_max_a_mm2,
+            l.brush_width_min_segments,
+            l.brush_width_max_segments,
+            l.electric_loading_max_a_m,
+        ]
+    };
+    LIMIT_KEYS
+        .iter()
+        .zip(values(l).into_iter().zip(values(&d)))
+        .filter(|(_, (v, def))| v != def)
+        .map(|(k, (v, _))| (*k, v))
+        .collect()
+}
+
+fn class_number(c: ThermalClass) -> u32 {
+    match c {
+        ThermalClass::A => 105,
+        ThermalClass::E => 120,
+        ThermalClass::B => 130,
+        ThermalClass::F => 155,
+        ThermalClass::H => 180,
+    }
+}
+
+/// A number rounded to `decimals` places, trailing zeros dropped ("230", "1.25").
+pub fn num(x: f64, decimals: usize) -> String {
+    let s = format!("{x:.decimals$}");
+    let s = if s.contains('.') {
+        s.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        s
+    };
+    if s == "-0" { "0".to_string() } else { s }
+}
+
+/// A TOML basic string.
+fn quote(v: &str) -> String {
+    let mut out = String::from("\"");
+    for c in v.chars() {
+        match c {
+            '"' => out.push_str("\\\""),
+            '\\' => out.push_str("\\\\"),
+            '\n' => out.push_str("\\n"),
+            '\t' => out.push_str("\\t"),
+            '\r' => out.push_str("\\r"),
+            c if c.is_control() => {
+                let _ = write!(out, "\\u{:04X}", c as u32);
+            }
+            c => out.push(c),
+        }
+    }
+    out.push('"');
+    out
+}

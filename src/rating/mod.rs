@@ -1,0 +1,424 @@
+//! `rating`: the winding against its nameplate: resistance, EMF, segment voltage, currents,
+//! commutator, losses, test voltage, and the rewind to a new voltage or speed.
+//!
+//! Pure stage after `winding` and before `checks`: a resolved [`Design`] and its traced
+//! [`Winding`] in, a [`RatingReport`] out (or `None` when the design has no rating inputs:
+//! no `[rating]`, `[conductor]`, `[core]` or `[commutator]`). Each quantity is computed only
+//! when its inputs are present; what is missing is said in [`RatingReport::notes`]. Every
+//! threshold comes from `[limits]`. [`rewind()`] works out a new winding for a new voltage,
+//! speed or connection. Nothing here touches files.
+
+pub mod advice;
+pub mod commutator;
+pub mod conductor;
+pub mod connection;
+pub mod design_toml;
+pub mod emf;
+pub mod limits;
+pub mod losses;
+pub mod resistance;
+pub mod rewind;
+mod sheet;
+pub mod test_voltage;
+
+pub use commutator::{CommutatorData, SegmentVoltage};
+pub use conductor::{MeanTurn, MeanTurnSource};
+pub use emf::{Emf, EmfBasis};
+pub use limits::{Bound, Level, RatingCheck, Rule, rules};
+pub use losses::Losses;
+pub use resistance::Resistance;
+pub use rewind::{FluxSource, RewindError, RewindPlan, RewindRequest, rewind};
+pub use sheet::sheet_rows;
+pub use test_voltage::TestVoltage;
+
+use std::f64::consts::PI;
+
+use crate::design::{BrushGrade, ConductorShape, Design};
+use crate::winding::Winding;
+use advice::Machine;
+
+/// The conductor as rated.
+#[derive(Clone, Debug, PartialEq)]
+pub struct ConductorData {
+    /// The cross-section as given.
+    pub shape: ConductorShape,
+    /// In words.
+    pub description: String,
+    /// Copper area, all strands, mm².
+    pub area_mm2: f64,
+    /// The mean turn, when given or estimable.
+    pub mean_turn: Option<MeanTurn>,
+}
+
+/// Currents at the rating.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Currents {
+    /// Armature current I, A.
+    pub armature_a: f64,
+    /// I/a, A.
+    pub per_path_a: f64,
+    /// 2I/P (P brush arms), A.
+    pub per_brush_arm_a: f64,
+    /// Brush arms carrying it (brush sets fitted).
+    pub brush_arms: u32,
+    /// (I/a)/A_c, A/mm², when the conductor is known.
+    pub density_a_mm2: Option<f64>,
+}
+
+/// Everything the rating stage works out for one design.
+#[derive(Clone, Debug, PartialEq)]
+pub struct RatingReport {
+    /// Parallel paths a used (lap m·P, wave 2m).
+    pub paths: u32,
+    /// Active conductors Z.
+    pub conductors: u64,
+    /// Segments C.
+    pub segments: u32,
+    /// The conductor.
+    pub conductor: Option<ConductorData>,
+    /// The armature resistance.
+    pub resistance: Option<Resistance>,
+    /// The EMF and constants.
+    pub emf: Option<Emf>,
+    /// Segment voltage.
+    pub segment_voltage: Option<SegmentVoltage>,
+    /// Currents.
+    pub currents: Option<Currents>,
+    /// Electric loading Z·I/(a·π·D), A/m.
+    pub electric_loading_a_m: Option<f64>,
+    /// The commutator.
+    pub commutator: Option<CommutatorData>,
+    /// Losses.
+    pub losses: Option<Losses>,
+    /// Withstand test voltages.
+    pub test_voltage: Option<TestVoltage>,
+    /// The checks, in [`rules::ALL`] order, only those whose inputs are present.
+    pub checks: Vec<RatingCheck>,
+    /// What could not be worked out and why, and assumptions made.
+    pub notes: Vec<String>,
+}
+
+impl RatingReport {
+    /// The check with `id`, if it ran.
+    pub fn check(&self, id: &str) -> Option<&RatingCheck> {
+        self.checks.iter().find(|c| c.rule.id == id)
+    }
+}
+
+/// Whether the design holds any rating input.
+pub fn has_rating_inputs(d: &Design) -> bool {
+    d.rating.is_some() || d.conductor.is_some() || d.core.is_some() || d.commutator.is_some()
+}
+
+/// Rates `design` as traced in `winding`; `None` when it has no rating inputs.
+pub fn rate(design: &Design, winding: &Winding) -> Option<RatingReport> {
+    has_rating_inputs(design).then(|| rate_with(design, winding, None))
+}
+
+/// Rates with an optional measured 20 °C armature resistance in place of the calculated one.
+pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingReport {
+    let a = w.paths_formula.max(1);
+    let z = w.conductors;
+    let c = w.active_coils;
+    let mut notes = Vec::new();
+    let rating = d.rating.clone().unwrap_or_default();
+    let (voltage, current, class) = (rating.voltage, rating.current, rating.thermal_class);
+
+    // Conductor and resistance.
+    let conductor = d.conductor.as_ref().map(|k| ConductorData {
+        shape: k.shape,
+        description: conductor::describe(&k.shape),
+        area_mm2: conductor::conductor_area_mm2(&k.shape),
+        mean_turn: conductor::mean_turn(d, k),
+    });
+    if let Some(k) = &conductor {
+        if let Some(MeanTurn {
+            source: MeanTurnSource::Estimated(f),
+            ..
+        }) = &k.mean_turn
+        {
+            notes.push(format!(
+                "mean turn {f}; give [conductor] mean_turn_mm for a measured value"
+            ));
+        }
+    }
+    let calc_r20 = conductor.as_ref().and_then(|k| {
+        k.mean_turn
+            .as_ref()
+            .map(|t| resistance::armature_resistance_20(z, a, t.mm, k.area_mm2))
+    });
+    let resistance = match (measured_r20, calc_r20) {
+        (Some(r), _) => Some(Resistance::new(r, class, true)),
+        (None, Some(r)) => Some(Resistance::new(r, class, false)),
+        (None, None) => None,
+    };
+    if resistance.is_none() {
+        notes.push(match &conductor {
+            None => "no armature resistance: give [conductor] (diameter_mm or awg, or width_mm and height_mm)".to_string(),
+            Some(_) => "no armature resistance: give [conductor] mean_turn_mm, or [core] diameter_mm and length_mm to estimate it".to_string(),
+        });
+    } else if class.is_none() {
+        notes
+            .push("no [rating] thermal_class: resistance and losses are taken at 20 C".to_string());
+    }
+
+    let grade = d
+        .commutator
+        .as_ref()
+        .and_then(|k| k.brush_grade)
+        .unwrap_or(BrushGrade::Carbon);
+    let emf = emf_block(
+        d,
+        z,
+        a,
+        voltage,
+        current,
+        resistance.as_ref(),
+        grade,
+        &mut notes,
+    );
+    let speed = emf.as_ref().and_then(|e| e.speed_rpm).or(d.speed_rpm);
+
+    let segment_voltage = emf.as_ref().filter(|e| e.emf_v > 0.0).map(|e| {
+        commutator::segment_voltage(
+            e.emf_v,
+            d.poles,
+            c,
+            d.pole_arc,
+            d.limits.segment_volts_avg_max,
+            d.limits.segment_volts_peak_max,
+        )
+    });
+
+    let currents = current.map(|i| {
+        let arms = w.brush_sets().max(2);
+        Currents {
+            armature_a: i,
+            per_path_a: i / f64::from(a),
+            per_brush_arm_a: 2.0 * i / f64::from(arms),
+            brush_arms: arms,
+            density_a_mm2: conductor.as_ref().map(|k| i / f64::from(a) / k.area_mm2),
+        }
+    });
+    if current.is_none() && d.rating.is_some() {
+        notes.push(
+            "no [rating] current: currents, density, loading, losses and torque need it"
+                .to_string(),
+        );
+    }
+
+    let core_d = d.core.as_ref().and_then(|k| k.diameter_mm);
+    let electric_loading_a_m = current
+        .zip(core_d)
+        .map(|(i, dia)| z as f64 * i / (f64::from(a) * PI * dia / 1000.0));
+
+    let commutator = d.commutator.as_ref().map(|k| {
+        commutator::commutator_data(
+            k.diameter_mm,
+            k.brush_width,
+            c,
+            speed,
+            d.winding_type,
+            d.multiplicity,
+            d.pole_pairs(),
+        )
+    });
+
+    let losses = current.map(|i| {
+        let drop = emf::brush_drop_v(grade);
+        losses::losses(
+            i,
+            resistance.as_ref().map(|r| r.hot_ohm),
+            resistance.as_ref().map_or(20.0, |r| r.reference_c),
+            drop,
+        )
+    });
+
+    let test_voltage = voltage.map(|u| test_voltage::test_voltages(u, current.map(|i| u * i)));
+    if voltage.is_some_and(|u| u < 100.0) && current.is_none() {
+        notes.push("test voltage: no current, so the machine is not taken as under 1 kW (the general row applies)".to_string());
+    }
+
+    let mut report = RatingReport {
+        paths: a,
+        conductors: z,
+        segments: c,
+        conductor,
+        resistance,
+        emf,
+        segment_voltage,
+        currents,
+        electric_loading_a_m,
+        commutator,
+        losses,
+        test_voltage,
+        checks: Vec::new(),
+        notes,
+    };
+    report.checks = run_checks(d, &report);
+    report
+}
+
+#[allow(clippy::too_many_arguments)]
+fn emf_block(
+    d: &Design,
+    z: u64,
+    a: u32,
+    voltage: Option<f64>,
+    current: Option<f64>,
+    r: Option<&Resistance>,
+    grade: BrushGrade,
+    notes: &mut Vec<String>,
+) -> Option<Emf> {
+    let flux_wb = d.flux_per_pole_mwb.map(|f| f / 1000.0);
+    let (basis, e, ir, ir_known, drop) = match (voltage, flux_wb, d.speed_rpm) {
+        (Some(v), _, _) => {
+            let ir = current.zip(r).map(|(i, r)| i * r.hot_ohm);
+            if current.is_some() && ir.is_none() {
+                notes.push("EMF: I*R_a left out (no armature resistance)".to_string());
+            }
+            let drop = if current.is_some() {
+                emf::brush_drop_v(grade)
+            } else {
+                0.0
+            };
+            let ir_v = ir.unwrap_or(0.0);
+            (
+                EmfBasis::Terminal,
+                emf::induced_emf(d.mode, v, ir_v, drop),
+                ir_v,
+                ir.is_some(),
+                drop,
+            )
+        }
+        (None, Some(f), Some(n)) => (
+            EmfBasis::FluxAndSpeed,
+            emf::emf_v(d.poles, z, a, f, n),
+            0.0,
+            false,
+            0.0,
+        ),
+        _ => {
+            notes.push("no EMF: give [rating] voltage, or a flux and a speed".to_string());
+            return None;
+        }
+    };
+    let usable = e > 0.0;
+    if !usable {
+        notes.push(
+            "the drops exceed the terminal voltage: no positive EMF, so no flux or speed follows"
+                .to_string(),
+        );
+    }
+    let flux_needed = d
+        .speed_rpm
+        .filter(|_| usable && basis == EmfBasis::Terminal)
+        .map(|n| emf::flux_for(d.poles, z, a, e, n));
+    let speed_at_flux = flux_wb
+        .filter(|_| usable && basis == EmfBasis::Terminal)
+        .map(|f| emf::speed_for(d.poles, z, a, e, f));
+    let k = emf::machine_constant(d.poles, z, a);
+    let k_phi = flux_wb.or(flux_needed).map(|f| k * f);
+    Some(Emf {
+        mode: d.mode,
+        basis,
+        terminal_v: voltage,
+        ir_drop_v: ir,
+        ir_known,
+        brush_drop_v: drop,
+        brush_grade: grade,
+        emf_v: e,
+        flux_needed_mwb: flux_needed.map(|f| f * 1000.0),
+        speed_at_flux_rpm: speed_at_flux,
+        k_phi,
+        v_per_1000_rpm: k_phi.map(|x| x * 1000.0 * 2.0 * PI / 60.0),
+        torque_nm: k_phi.zip(current).map(|(x, i)| x * i),
+        speed_rpm: d.speed_rpm.or(speed_at_flux),
+    })
+}
+
+fn run_checks(d: &Design, r: &RatingReport) -> Vec<RatingCheck> {
+    let l = &d.limits;
+    let m = Machine {
+        design: d,
+        segments: r.segments,
+        paths: r.paths,
+        conductors: r.conductors,
+        area_mm2: r.conductor.as_ref().map(|k| k.area_mm2),
+    };
+    let mut out = Vec::new();
+    let mut push =
+        |rule: Rule, value: Option<f64>, advise: &dyn Fn(&RatingCheck) -> Vec<String>| {
+            if let Some(v) = value.filter(|v| v.is_finite()) {
+                let mut chk = RatingCheck::new(rule, v, l);
+                if !chk.passed {
+                    chk.advice = advise(&chk);
+                }
+                out.push(chk);
+            }
+        };
+    let sv = r.segment_voltage.as_ref();
+    let cur = r.currents.as_ref();
+    let com = r.commutator.as_ref();
+    let i = cur.map_or(0.0, |c| c.armature_a);
+    push(rules::SEGMENT_VOLTS_AVG, sv.map(|s| s.average_v), &|_| {
+        advice::more_segments(&m, sv.map_or(0, |s| s.c_min_average))
+    });
+    push(rules::SEGMENT_VOLTS_PEAK, sv.map(|s| s.peak_v), &|_| {
+        advice::more_segments(&m, sv.map_or(0, |s| s.c_min_peak))
+    });
+    push(rules::PATH_CURRENT, cur.map(|c| c.per_path_a), &|c| {
+        advice::more_paths(&m, i, c.limit)
+    });
+    push(
+        rules::BRUSH_ARM_CURRENT,
+        cur.map(|c| c.per_brush_arm_a),
+        &|c| advice::brush_arm(i, d.poles, c.limit),
+    );
+    let dc = com.and_then(|k| k.diameter_mm);
+    push(
+        rules::SEGMENT_PITCH,
+        com.and_then(|k| k.segment_pitch_mm),
+        &|c| advice::segment_pitch(&m, dc.unwrap_or(0.0), c.limit),
+    );
+    let spd = com.and_then(|k| k.speed_rpm).unwrap_or(0.0);
+    push(
+        rules::SPEED_PREFERRED,
+        com.and_then(|k| k.peripheral_speed_m_s),
+        &|c| advice::commutator_speed(dc.unwrap_or(0.0), spd, c.limit),
+    );
+    push(
+        rules::SPEED_MAX,
+        com.and_then(|k| k.peripheral_speed_m_s),
+        &|c| advice::commutator_speed(dc.unwrap_or(0.0), spd, c.limit),
+    );
+    let density = cur.and_then(|c| c.density_a_mm2);
+    let per_path = cur.map_or(0.0, |c| c.per_path_a);
+    push(rules::DENSITY_MIN, density, &|c| {
+        advice::smaller_conductor(per_path / c.limit)
+    });
+    push(rules::DENSITY_MAX, density, &|c| {
+        advice::larger_conductor(&m, per_path / c.limit)
+    });
+    let pitch = com.and_then(|k| k.segment_pitch_mm);
+    let bw = com.and_then(|k| k.brush_width_segments);
+    push(rules::BRUSH_WIDTH_MIN, bw, &|_| {
+        advice::brush_width(
+            pitch,
+            l.brush_width_min_segments,
+            l.brush_width_max_segments,
+        )
+    });
+    push(rules::BRUSH_WIDTH_MAX, bw, &|_| {
+        advice::brush_width(
+            pitch,
+            l.brush_width_min_segments,
+            l.brush_width_max_segments,
+        )
+    });
+    let core_d = d.core.as_ref().and_then(|k| k.diameter_mm).unwrap_or(0.0);
+    push(rules::ELECTRIC_LOADING, r.electric_loading_a_m, &|c| {
+        advice::electric_loading(&m, i, core_d, c.limit)
+    });
+    out
+}

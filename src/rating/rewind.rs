@@ -1,0 +1,549 @@
+//! The rewind: a new winding on the same core for a new voltage, speed or connection.
+//!
+//! Part of the `rating` stage: pure. The flux per pole and the slot space are kept. The new
+//! conductors per path follow from the ratio of the EMFs; the turns per coil from the new
+//! connection's paths and segments, rounded to whole turns; the conductor from the same current
+//! density (so the same copper in the slot and the same power). The CLI writes the result.
+
+use super::conductor::{self, WireFamily, WireOption};
+use super::connection::{Connection, connect};
+use super::{RatingReport, design_toml, emf, rate_with};
+use crate::design::{ConductorShape, Design, EqualizerChoice, Mode, Rating, WindingType, bounds};
+use crate::render::number::fmt_fixed;
+use crate::winding::Winding;
+
+/// What the rewinder asks for.
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct RewindRequest {
+    /// New terminal voltage, V (`--voltage`).
+    pub voltage: f64,
+    /// New speed, rpm (`--speed`; default the design's speed).
+    pub speed_rpm: Option<f64>,
+    /// New connection (`--type`; default the design's).
+    pub kind: Option<WindingType>,
+    /// New multiplicity (`--multiplicity`; default the design's).
+    pub multiplicity: Option<u32>,
+    /// A no-load test of the old machine, (volts, rpm) (`--from-test V0 N0`).
+    pub from_test: Option<(f64, f64)>,
+    /// Measured armature resistance, Ω, taken as at 20 °C (`--ra`).
+    pub measured_r20: Option<f64>,
+}
+
+/// Where the kept flux came from.
+#[derive(Clone, Debug, PartialEq)]
+pub enum FluxSource {
+    /// `flux_per_pole_mwb` in the design.
+    Design,
+    /// Worked out from `[rating]` voltage and speed (with the drops).
+    Rating,
+    /// Back-solved from a no-load test: volts, rpm.
+    Test(f64, f64),
+}
+
+impl FluxSource {
+    /// In words.
+    pub fn describe(&self) -> String {
+        match self {
+            FluxSource::Design => "as given in the design".to_string(),
+            FluxSource::Rating => "worked out from the rated voltage and speed".to_string(),
+            FluxSource::Test(v, n) => {
+                format!(
+                    "back-solved from the no-load test, {} V at {} rpm",
+                    fmt_fixed(*v, 1),
+                    fmt_fixed(*n, 0)
+                )
+            }
+        }
+    }
+}
+
+/// A request that cannot be met, in plain words (the CLI exits 2).
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct RewindError(pub String);
+
+impl std::fmt::Display for RewindError {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(&self.0)
+    }
+}
+
+/// One winding, old or new, as the rewind sees it.
+#[derive(Clone, Debug, PartialEq)]
+pub struct WindingSide {
+    /// The connection.
+    pub connection: Connection,
+    /// Turns per coil.
+    pub turns: u32,
+    /// Conductors Z = 2·C·T.
+    pub conductors: u64,
+    /// Terminal voltage, V.
+    pub voltage: Option<f64>,
+    /// Speed, rpm.
+    pub speed_rpm: f64,
+    /// Armature current, A.
+    pub current: Option<f64>,
+    /// Induced EMF, V.
+    pub emf_v: f64,
+    /// Conductor area, mm².
+    pub area_mm2: Option<f64>,
+    /// The conductor.
+    pub conductor: Option<ConductorShape>,
+}
+
+/// The worked-out rewind.
+#[derive(Clone, Debug, PartialEq)]
+pub struct RewindPlan {
+    /// The flux per pole kept, mWb.
+    pub flux_mwb: f64,
+    /// Where it came from.
+    pub flux_source: FluxSource,
+    /// The winding as it is.
+    pub old: WindingSide,
+    /// The new winding.
+    pub new: WindingSide,
+    /// Turns per coil before rounding.
+    pub exact_turns: f64,
+    /// The speed the whole turns give at the new voltage, rpm.
+    pub speed_at_whole_turns: f64,
+    /// (speed at whole turns − asked speed)/asked speed.
+    pub speed_error: f64,
+    /// Conductor area for the same current density, mm².
+    pub area_needed_mm2: Option<f64>,
+    /// Standard round sizes near it, up to 4 in hand.
+    pub options: Vec<WireOption>,
+    /// Copper per slot against the original with the exact area (1.0 = the same).
+    pub fill_exact: Option<f64>,
+    /// Copper per slot against the original with the chosen conductor.
+    pub fill_chosen: Option<f64>,
+    /// Current density with the chosen conductor, A/mm².
+    pub density_a_mm2: Option<f64>,
+    /// Average segment voltage of the new winding, V.
+    pub segment_volts_avg: f64,
+    /// Segment counts, dummy coils, equalizers, lead offset: what the rewinder must know.
+    pub notes: Vec<String>,
+    /// The new design.
+    pub design: Design,
+}
+
+/// The flux per pole from a no-load test: Φ = 60·a·V0/(P·Z·N0), Wb, open circuit so E = V0.
+pub fn flux_from_test(d: &Design, w: &Winding, volts: f64, rpm: f64) -> Result<f64, RewindError> {
+    if !(volts > 0.0 && volts.is_finite() && rpm > 0.0 && rpm.is_finite()) {
+        return Err(RewindError(format!(
+            "--from-test needs a positive no-load voltage and speed, found {} V at {} rpm",
+            fmt_fixed(volts, 3),
+            fmt_fixed(rpm, 3)
+        )));
+    }
+    Ok(emf::flux_for(
+        d.poles,
+        w.conductors,
+        w.paths_formula.max(1),
+        volts,
+        rpm,
+    ))
+}
+
+/// The design with its flux per pole set to `flux_mwb` (for `--from-test` without `--voltage`).
+pub fn with_flux(d: &Design, flux_mwb: f64) -> Design {
+    let mut n = d.clone();
+    n.flux_per_pole_mwb = Some(flux_mwb);
+    n
+}
+
+/// Works out the rewind of `d` (traced as `w`) for `req`.
+pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan, RewindError> {
+    let err = |s: String| Err(RewindError(s));
+    if !(req.voltage > 0.0 && req.voltage.is_finite() && req.voltage <= 100_000.0) {
+        return err(format!(
+            "--voltage must be a positive number of volts up to 100000, found {}",
+            req.voltage
+        ));
+    }
+    if let Some(n) = req.speed_rpm {
+        if !(n > 0.0 && n.is_finite() && n <= 200_000.0) {
+            return err(format!(
+                "--speed must be a positive number of rpm up to 200000, found {n}"
+            ));
+        }
+    }
+    if let Some(r) = req.measured_r20 {
+        if !(r > 0.0 && r.is_finite()) {
+            return err(format!(
+                "--ra must be a positive resistance in ohms, found {r}"
+            ));
+        }
+    }
+    let rated: RatingReport = rate_with(d, w, req.measured_r20);
+    let a0 = w.paths_formula.max(1);
+    let z0 = w.conductors;
+    let x0 = z0 as f64 / f64::from(a0);
+    let c0 = w.active_coils;
+    let rating = d.rating.clone().unwrap_or_default();
+    let i0 = rating.current;
+    let r_hot = rated.resistance.as_ref().map(|r| r.hot_ohm);
+    let ir0 = i0.zip(r_hot).map_or(0.0, |(i, r)| i * r);
+    let vb = rated.emf.as_ref().map_or(0.0, |e| e.brush_drop_v);
+    let old_emf = rated.emf.as_ref();
+
+    // The flux to keep.
+    let (flux_wb, flux_source) = match (
+        req.from_test,
+        d.flux_per_pole_mwb,
+        old_emf.and_then(|e| e.flux_needed_mwb),
+    ) {
+        (Some((v, n)), _, _) => (flux_from_test(d, w, v, n)?, FluxSource::Test(v, n)),
+        (None, Some(f), _) => (f / 1000.0, FluxSource::Design),
+        (None, None, Some(f)) => (f / 1000.0, FluxSource::Rating),
+        (None, None, None) => {
+            return err("the flux per pole is unknown: give [rating] flux_per_pole_mwb, or [rating] voltage with speed_rpm, or measure the old machine with --from-test V0 N0".to_string());
+        }
+    };
+
+    // The old machine's EMF and speed at that flux.
+    let old_emf_v = match old_emf {
+        Some(e) if e.basis == super::EmfBasis::Terminal => e.emf_v,
+        _ => d
+            .speed_rpm
+            .map_or(0.0, |n| emf::emf_v(d.poles, z0, a0, flux_wb, n)),
+    };
+    let old_speed = d
+        .speed_rpm
+        .or_else(|| (old_emf_v > 0.0).then(|| emf::speed_for(d.poles, z0, a0, old_emf_v, flux_wb)));
+    let speed = match req.speed_rpm.or(old_speed) {
+        Some(n) => n,
+        None => return err("no speed to rewind for: give --speed N, or [rating] speed_rpm or voltage in the design".to_string()),
+    };
+
+    // The new connection.
+    let kind = req.kind.unwrap_or(d.winding_type);
+    let m = req.multiplicity.unwrap_or(d.multiplicity);
+    let conn = connect(d, c0, kind, m)
+        .map_err(|e| RewindError(format!("cannot connect the coils as asked: {e}")))?;
+
+    // Conductors per path x: V = x·(P·Φ·N/60) ± IR0·x/x0 ± Vb, the I·R drop scaling with x at
+    // the same current density.
+    let ke = f64::from(d.poles) * flux_wb * speed / 60.0;
+    let x = match d.mode {
+        Mode::Motor => (req.voltage - vb) / (ke + ir0 / x0),
+        Mode::Generator => {
+            let den = ke - ir0 / x0;
+            if den <= 0.0 {
+                return err("the resistive drop at this speed is larger than the EMF per conductor: no winding gives this voltage".to_string());
+            }
+            (req.voltage + vb) / den
+        }
+    };
+    if !(x > 0.0 && x.is_finite()) {
+        return err(format!(
+            "{} V is not enough to cover the brush drop of {} V: no winding gives it",
+            fmt_fixed(req.voltage, 1),
+            fmt_fixed(vb, 1)
+        ));
+    }
+    let a1 = conn.paths;
+    let c1 = conn.segments;
+    let exact_turns = x * f64::from(a1) / (2.0 * f64::from(c1));
+    let turns = exact_turns.round();
+    if turns < 1.0 {
+        return err(format!(
+            "the turns per coil round to zero ({} exact on {} with {} segments): use a connection with fewer paths (wave instead of lap), a lower speed or a higher voltage",
+            fmt_fixed(exact_turns, 3),
+            conn.label(),
+            c1
+        ));
+    }
+    if turns > bounds::MAX_TURNS as f64 {
+        return err(format!(
+            "{} turns per coil is beyond any real coil (at most {})",
+            fmt_fixed(turns, 0),
+            bounds::MAX_TURNS
+        ));
+    }
+    let turns = turns as u32;
+    let z1 = 2 * u64::from(c1) * u64::from(turns);
+    let x1 = z1 as f64 / f64::from(a1);
+    let ir1 = ir0 * x1 / x0;
+    let speed_whole = match d.mode {
+        Mode::Motor => 60.0 * (req.voltage - vb - ir1) / (f64::from(d.poles) * flux_wb * x1),
+        Mode::Generator => 60.0 * (req.voltage + vb + ir1) / (f64::from(d.poles) * flux_wb * x1),
+    };
+    if speed_whole <= 0.0 {
+        return err(
+            "with whole turns the drops take the whole voltage: no speed results".to_string(),
+        );
+    }
+    let speed_error = speed_whole / speed - 1.0;
+    let i1 = i0.map(|i| i * x0 / x1);
+    let emf1 = emf::emf_v(d.poles, z1, a1, flux_wb, speed_whole);
+
+    // Conductor: same current density, so A1·Z1 = A0·Z0.
+    let a_old = rated.conductor.as_ref().map(|k| k.area_mm2);
+    let area_needed = a_old.map(|a| a * z0 as f64 / z1 as f64);
+    let options = area_needed.map_or_else(Vec::new, |a| conductor::nearest_sizes(a, 4));
+    let mut notes = Vec::new();
+    let new_shape = match (d.conductor.as_ref().map(|k| k.shape), area_needed) {
+        (
+            Some(ConductorShape::Rectangular {
+                width_mm,
+                corner_radius_mm,
+                strands,
+                ..
+            }),
+            Some(a),
+        ) => {
+            let per = a / f64::from(strands);
+            let h = ((per + (4.0 - std::f64::consts::PI) * corner_radius_mm * corner_radius_mm)
+                / width_mm
+                * 100.0)
+                .round()
+                / 100.0;
+            if h < 2.0 * corner_radius_mm || h <= 0.0 {
+                return err(format!(
+                    "a {} mm wide strip would need a height of {} mm, less than twice its corner radius: use round wire or a narrower strip",
+                    fmt_fixed(width_mm, 2),
+                    fmt_fixed(h, 2)
+                ));
+            }
+            notes.push(format!(
+                "strip: width {} mm kept, height {} mm for the same current density; round-wire equivalents are listed too",
+                fmt_fixed(width_mm, 2),
+                fmt_fixed(h, 2)
+            ));
+            Some(ConductorShape::Rectangular {
+                width_mm,
+                height_mm: h,
+                corner_radius_mm,
+                strands,
+            })
+        }
+        (Some(ConductorShape::Round { awg, .. }), Some(_)) => {
+            let family = if awg.is_some() {
+                WireFamily::Awg
+            } else {
+                WireFamily::Metric
+            };
+            conductor::choose_size(&options, family).map(WireOption::shape)
+        }
+        _ => None,
+    };
+    let a_new = new_shape.as_ref().map(conductor::conductor_area_mm2);
+    let t0 = f64::from(d.turns);
+    let fill_exact = area_needed
+        .zip(a_old)
+        .map(|(an, ao)| f64::from(turns) * an / (t0 * ao));
+    let fill_chosen = a_new
+        .zip(a_old)
+        .map(|(an, ao)| f64::from(turns) * an / (t0 * ao));
+    let density = i1.zip(a_new).map(|(i, a)| i / f64::from(a1) / a);
+    if let Some(f) = fill_chosen {
+        if f > 1.02 {
+            notes.push(format!(
+                "the chosen conductor puts {} % more copper in each slot than the original: check that it fits, or take the next size down",
+                fmt_fixed((f - 1.0) * 100.0, 0)
+            ));
+        }
+    }
+    if d.conductor.is_none() {
+        notes.push("no [conductor] in the design: the conductor size cannot be worked out; scale the old area by the old/new conductor ratio Z0/Z1".to_string());
+    }
+
+    // Segments and dummy coils.
+    if !conn.keeps_commutator {
+        let why = match kind {
+            WindingType::Lap => format!("a lap winding uses all {} coils", d.coil_positions()),
+            WindingType::Wave => format!(
+                "a {} wave needs (C {} {m})/{} whole, which {c0} does not give",
+                d.direction.as_str(),
+                if d.direction.sign() > 0 { "+" } else { "-" },
+                d.pole_pairs()
+            ),
+        };
+        notes.push(format!("segments: the commutator has {c0} segments, the new winding needs {c1} ({why}): fit a new commutator"));
+    }
+    if conn.dummies > 0 {
+        notes.push(format!(
+            "{} dummy coil(s): wound for balance, ends cut back and taped, not connected",
+            conn.dummies
+        ));
+    }
+    let mut nd = d.clone();
+    if kind == WindingType::Wave && d.equalizers != EqualizerChoice::None {
+        notes.push("equalizers removed: a wave winding needs none".to_string());
+        nd.equalizers = EqualizerChoice::None;
+    }
+    if 2 * i64::from(d.poles) * i64::from(d.lead_offset).abs() >= i64::from(c1) {
+        notes.push(format!(
+            "lead offset {} reset to 0: it is half a pole pitch or more on {c1} segments",
+            d.lead_offset
+        ));
+        nd.lead_offset = 0;
+    }
+    let seg_avg = emf1 * f64::from(d.poles) / f64::from(c1);
+    if seg_avg > d.limits.segment_volts_avg_max {
+        notes.push(format!(
+            "the new average segment voltage {} V is above the {} V limit: run `armsheet check` on the new file for the options",
+            fmt_fixed(seg_avg, 2),
+            super::limits::fmt_limit(d.limits.segment_volts_avg_max)
+        ));
+    }
+
+    nd.winding_type = kind;
+    nd.multiplicity = m;
+    nd.turns = turns;
+    nd.segments = Some(c1);
+    nd.flux_per_pole_mwb = Some(flux_wb * 1000.0);
+    nd.speed_rpm = Some(speed);
+    let mut r = d.rating.clone().unwrap_or(Rating {
+        voltage: None,
+        current: None,
+        thermal_class: None,
+    });
+    r.voltage = Some(req.voltage);
+    r.current = i1.map(|i| round_sig(i, 4));
+    nd.rating = Some(r);
+    if let (Some(k), Some(shape)) = (nd.conductor.as_mut(), new_shape) {
+        k.shape = shape;
+    }
+
+    let old_conn = Connection {
+        kind: d.winding_type,
+        multiplicity: d.multiplicity,
+        paths: a0,
+        segments: c0,
+        dummies: d.coil_positions() - c0,
+        keeps_commutator: true,
+    };
+    Ok(RewindPlan {
+        flux_mwb: flux_wb * 1000.0,
+        flux_source,
+        old: WindingSide {
+            connection: old_conn,
+            turns: d.turns,
+            conductors: z0,
+            voltage: rating.voltage,
+            speed_rpm: old_speed.unwrap_or(speed),
+            current: i0,
+            emf_v: old_emf_v,
+            area_mm2: a_old,
+            conductor: d.conductor.as_ref().map(|k| k.shape),
+        },
+        new: WindingSide {
+            connection: conn,
+            turns,
+            conductors: z1,
+            voltage: Some(req.voltage),
+            speed_rpm: speed,
+            current: i1,
+            emf_v: emf1,
+            area_mm2: a_new,
+            conductor: new_shape,
+        },
+        exact_turns,
+        speed_at_whole_turns: speed_whole,
+        speed_error,
+        area_needed_mm2: area_needed,
+        options,
+        fill_exact,
+        fill_chosen,
+        density_a_mm2: density,
+        segment_volts_avg: seg_avg,
+        notes,
+        design: nd,
+    })
+}
+
+/// Rounds to `n` significant figures (for the current written to the new file).
+fn round_sig(x: f64, n: i32) -> f64 {
+    if x == 0.0 {
+        return 0.0;
+    }
+    let mag = x.abs().log10().floor() as i32;
+    let f = 10f64.powi(n - 1 - mag);
+    (x * f).round() / f
+}
+
+impl RewindPlan {
+    /// The comment header of the new design file: what changed and why.
+    pub fn header(&self, old_file: &str, command: &str) -> Vec<String> {
+        let (o, n) = (&self.old, &self.new);
+        let mut h = vec![
+            format!("armsheet rewind of {old_file}"),
+            format!("asked: {command}"),
+            "kept: the core, the slots and coils per slot, the span, the flux per pole and the slot space".to_string(),
+            format!("flux per pole {} mWb, {}", fmt_fixed(self.flux_mwb, 4), self.flux_source.describe()),
+        ];
+        let v = |x: Option<f64>| {
+            x.map_or("(not given)".to_string(), |v| {
+                format!("{} V", fmt_fixed(v, 1))
+            })
+        };
+        h.push(format!("voltage: {} -> {}", v(o.voltage), v(n.voltage)));
+        h.push(format!(
+            "speed: {} rpm -> {} rpm",
+            fmt_fixed(o.speed_rpm, 0),
+            fmt_fixed(n.speed_rpm, 0)
+        ));
+        h.push(format!(
+            "connection: {} -> {}",
+            o.connection.label(),
+            n.connection.label()
+        ));
+        h.push(format!(
+            "turns per coil: {} -> {} ({} exact, from the EMF ratio and the new paths and segments)",
+            o.turns,
+            n.turns,
+            fmt_fixed(self.exact_turns, 3)
+        ));
+        h.push(format!(
+            "whole turns give {} rpm at {}: {} % against {} rpm",
+            fmt_fixed(self.speed_at_whole_turns, 0),
+            v(n.voltage),
+            signed(self.speed_error * 100.0, 2),
+            fmt_fixed(n.speed_rpm, 0)
+        ));
+        if let (Some(oc), Some(nc), Some(need)) = (&o.conductor, &n.conductor, self.area_needed_mm2)
+        {
+            h.push(format!(
+                "conductor: {} -> {} ({} mm2 needed for the same current density, {} mm2 chosen)",
+                conductor::describe(oc),
+                conductor::describe(nc),
+                fmt_fixed(need, 3),
+                fmt_fixed(conductor::conductor_area_mm2(nc), 3)
+            ));
+        }
+        if let Some(i) = n.current {
+            h.push(format!(
+                "current: {} A -> {} A (same power, same copper)",
+                fmt_fixed(o.current.unwrap_or(0.0), 2),
+                fmt_fixed(i, 2)
+            ));
+        }
+        if let Some(f) = self.fill_chosen {
+            h.push(format!(
+                "slot fill: copper per slot {} % of the original",
+                fmt_fixed(f * 100.0, 1)
+            ));
+        }
+        for note in &self.notes {
+            h.push(note.clone());
+        }
+        h.push("before service: check the new file with `armsheet check`, verify against the old winding, and run the".to_string());
+        h.push("insulation-resistance and withstand tests per the applicable standard; local codes and licensed practice govern".to_string());
+        h
+    }
+
+    /// The new design file: the header as comments, then the design.
+    pub fn design_file(&self, old_file: &str, command: &str) -> String {
+        design_toml::write_design(&self.design, &self.header(old_file, command))
+    }
+}
+
+/// A number with its sign: "+1.25", "-0.80", "0.00".
+pub fn signed(x: f64, decimals: usize) -> String {
+    let s = fmt_fixed(x, decimals);
+    if s.starts_with('-') || s.chars().all(|c| c == '0' || c == '.') {
+        s
+    } else {
+        format!("+{s}")
+    }
+}
