@@ -164,3 +164,32 @@ proptest! {
         }
     }
 }
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(1000))]
+
+    /// No text, however broken, makes the parser panic.
+    #[test]
+    fn arbitrary_text_never_panics(text in "\\PC{0,200}") {
+        let _ = parse_design(&text, "fuzz.toml");
+    }
+
+    /// Near-valid designs with one value mangled: an error or a design, never a panic,
+    /// and a design that parses always traces.
+    #[test]
+    fn mangled_values_never_panic(key in 0usize..6, value in prop_oneof![
+        Just("0".to_string()), Just("-3".to_string()), Just("99999999999999999999".to_string()),
+        Just("\"x\"".to_string()), Just("1.5".to_string()), Just("[]".to_string()), Just("inf".to_string()),
+        Just("nan".to_string()), Just("\"1-1\"".to_string()), (1i64..500).prop_map(|n| n.to_string()),
+    ]) {
+        let mut fields = vec![("poles", "6".to_string()), ("slots", "36".to_string()), ("coils_per_slot", "1".to_string()),
+            ("segments", "35".to_string()), ("span", "6".to_string()), ("turns", "3".to_string())];
+        fields[key].1 = value;
+        let arm: String = fields[..4].iter().map(|(k, v)| format!("{k} = {v}\n")).collect();
+        let win: String = fields[4..].iter().map(|(k, v)| format!("{k} = {v}\n")).collect();
+        let text = format!("[armature]\n{arm}\n[winding]\ntype = \"wave\"\n{win}");
+        if let Ok(d) = parse_design(&text, "mangled.toml") {
+            prop_assert!(trace_winding(&d).is_ok(), "{}", text);
+        }
+    }
+}
