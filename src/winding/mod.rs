@@ -22,6 +22,9 @@ mod paths;
 pub mod pitch;
 mod trace;
 
+#[cfg(test)]
+mod tests;
+
 use std::f64::consts::PI;
 
 pub use model::*;
