@@ -30,5 +30,6 @@ pub fn run_checks(design: &Design, winding: &Winding) -> Vec<Finding> {
     }
     trace::check(design, winding, &mut out);
     shop::check(design, winding, &mut out);
+    out.extend(crate::rating::rating_findings(design, winding));
     out
 }

@@ -125,6 +125,12 @@ pub fn more_segments(m: &Machine<'_>, c_min: u32) -> Vec<String> {
                 fmt_fixed(whole, 0),
                 fmt_fixed(t, 2)
             );
+            if whole >= 1.0 && (whole - t).abs() > 0.1 * t {
+                line.push_str(&format!(
+                    " (whole turns move the EMF by {} %, so try the next count up as well)",
+                    fmt_fixed((whole / t - 1.0) * 100.0, 0)
+                ));
+            }
             if whole < 1.0 {
                 line.push_str(": less than one turn, so not possible with whole turns; more slots or a larger armature is needed");
             } else if let Some(a) = m.area_mm2 {
@@ -214,7 +220,7 @@ pub fn segment_pitch(m: &Machine<'_>, diameter_mm: f64, min_mm: f64) -> Vec<Stri
             m.segments
         ),
         format!(
-            "or at most {c_max} segments on the {} mm commutator (fewer coils per slot)",
+            "at most {c_max} segments on the {} mm commutator (fewer coils per slot)",
             fmt_fixed(diameter_mm, 1)
         ),
     ]
@@ -229,7 +235,7 @@ pub fn commutator_speed(diameter_mm: f64, speed_rpm: f64, max_m_s: f64) -> Vec<S
             fmt_fixed(speed_rpm, 0)
         ),
         format!(
-            "or at most {} rpm on the {} mm commutator",
+            "at most {} rpm on the {} mm commutator",
             fmt_fixed(max_m_s * 60_000.0 / (PI * diameter_mm), 0),
             fmt_fixed(diameter_mm, 1)
         ),

@@ -5,8 +5,8 @@
 /// Losses at the rated current.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Losses {
-    /// I²·R_a at the reference temperature, W.
-    pub copper_w: f64,
+    /// I²·R_a at the reference temperature, W (needs the resistance).
+    pub copper_w: Option<f64>,
     /// The temperature the copper loss is taken at, °C.
     pub copper_at_c: f64,
     /// V_b·I, W (conventional drop, see [`super::emf::brush_drop_v`]).
@@ -21,7 +21,7 @@ pub fn losses(
     brush_drop_v: f64,
 ) -> Losses {
     Losses {
-        copper_w: r_hot_ohm.map_or(f64::NAN, |r| current_a * current_a * r),
+        copper_w: r_hot_ohm.map(|r| current_a * current_a * r),
         copper_at_c: reference_c,
         brush_w: brush_drop_v * current_a,
     }
@@ -34,6 +34,6 @@ mod tests {
     #[test]
     fn loss_values() {
         let l = losses(10.0, Some(0.5), 95.0, 2.0);
-        assert_eq!((l.copper_w, l.brush_w), (50.0, 20.0));
+        assert_eq!((l.copper_w, l.brush_w), (Some(50.0), 20.0));
     }
 }

@@ -41,8 +41,9 @@ pub struct TestVoltage {
 
 /// Test voltages for rated voltage `u` and, when known, the rated power `power_w`.
 ///
-/// Without a power, a machine under 100 V is taken as small only when the power is unknown
-/// and `u` < 100 V is not enough to say; we then use the general row, the stricter one.
+/// The small-machine row needs both U < 100 V and a power under 1 kW; without a power the
+/// general row, the stricter one, applies. U·I is used as the power: for a motor it is the
+/// input, at least the output, so the small row is never chosen wrongly.
 pub fn test_voltages(u: f64, power_w: Option<f64>) -> TestVoltage {
     let small = u < 100.0 && power_w.is_some_and(|p| p < 1000.0);
     let (rule, new_v) = if small {

@@ -120,6 +120,7 @@ pub fn report_value(r: &Report<'_>) -> Value {
         ),
     );
     put("shorted_coils", json!(w.shorted_coils));
+    put("rating", super::rating_json::rating_value(d, w));
     put(
         "checks",
         Value::Array(

@@ -7,6 +7,8 @@ pub mod csv;
 pub mod json;
 pub mod number;
 pub mod pdf;
+pub mod rating_json;
+pub mod rating_text;
 pub mod report;
 pub mod sheet;
 pub mod sheet_data;

@@ -28,6 +28,7 @@ pub fn render_text(r: &Report<'_>, opts: TextOptions) -> String {
     pitches(&mut s, d, w);
     paths(&mut s, d, w);
     constants(&mut s, d, w);
+    super::rating_text::rating_section(&mut s, d, w);
     checks(&mut s, r.findings, opts);
     connections(&mut s, w);
     sequence(&mut s, w);
