@@ -6,6 +6,7 @@
 
 mod load;
 pub mod output;
+pub mod rewind;
 
 use std::io::{IsTerminal, Write};
 use std::path::PathBuf;
@@ -48,6 +49,9 @@ pub enum Command {
     /// Write a commented starter design file (never overwrites).
     #[command(after_help = NEW_HELP)]
     New(NewArgs),
+    /// Work out a rewind for a new voltage, speed or connection, or the flux from a no-load test.
+    #[command(after_help = rewind::REWIND_HELP)]
+    Rewind(rewind::RewindArgs),
 }
 
 const CHECK_HELP: &str = "\
@@ -98,6 +102,7 @@ pub fn run(cli: Cli) -> u8 {
     match cli.command {
         Command::Check(a) => check(&a),
         Command::New(a) => new(&a),
+        Command::Rewind(a) => rewind::rewind(&a),
     }
 }
 

@@ -10,6 +10,7 @@ pub mod pdf;
 pub mod rating_json;
 pub mod rating_text;
 pub mod report;
+pub mod rewind_text;
 pub mod sheet;
 pub mod sheet_data;
 pub mod svg;

@@ -1,0 +1,264 @@
+//! `armsheet rewind`: works out a new winding for a new voltage, speed or connection, and
+//! writes it as a new design file; or back-solves the flux from a no-load test.
+//!
+//! Part of the `cli` stage: reads the design, calls the pure [`crate::rating::rewind()`],
+//! parses the new file back with armsheet's own parser before writing, and writes it with
+//! [`super::output::write_new`] (or [`super::output::write_atomic`] with `--force`).
+
+use std::path::{Path, PathBuf};
+
+use clap::{Args, ValueEnum};
+
+use super::load::load_design;
+use super::output::{write_atomic, write_new};
+use super::print_stdout;
+use crate::design::{WindingType, parse_design};
+use crate::rating::{self, RewindRequest, design_toml, rewind::flux_from_test, rewind::with_flux};
+use crate::render::number::fmt_fixed;
+use crate::render::rewind_text::render_rewind;
+use crate::winding::trace_winding;
+
+/// Help shown after `armsheet rewind --help`.
+pub const REWIND_HELP: &str = "\
+Keeps the flux per pole and the slot space. The new turns per coil come from the ratio of the
+EMFs and the new connection's paths and segments, rounded to whole turns (the speed error is
+reported); the conductor keeps the current density (nearest AWG and metric R20 sizes, up to 4
+in hand). The flux comes from the design (flux_per_pole_mwb, or voltage and speed_rpm in
+[rating]) or from a no-load test: --from-test V0 N0 (open-circuit volts at rpm).
+The new file is parsed back before it is written; an existing file is kept unless --force.
+Without -o the file is written beside the design as NAME-<V>V.toml.
+Exit codes: 0 written, 2 bad input or an impossible request.";
+
+/// `--type`.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
+pub enum TypeArg {
+    /// Lap: a = m·P.
+    Lap,
+    /// Wave: a = 2m.
+    Wave,
+}
+
+/// Arguments of `rewind`.
+#[derive(Debug, Args)]
+#[command(group(clap::ArgGroup::new("what").required(true).multiple(true).args(["voltage", "from_test"])))]
+pub struct RewindArgs {
+    /// The design file (TOML) of the machine as it is.
+    pub design: PathBuf,
+    /// New terminal voltage, V.
+    #[arg(long, value_name = "V")]
+    pub voltage: Option<f64>,
+    /// New speed, rpm (default: the design's speed).
+    #[arg(long, value_name = "N")]
+    pub speed: Option<f64>,
+    /// New connection (default: the design's).
+    #[arg(long = "type", value_enum, value_name = "lap|wave")]
+    pub kind: Option<TypeArg>,
+    /// New multiplicity, 1 to 6 (default: the design's).
+    #[arg(long, value_name = "m")]
+    pub multiplicity: Option<u32>,
+    /// Measured no-load (open-circuit) voltage and speed of the old machine: back-solves the flux.
+    #[arg(long, num_args = 2, value_names = ["V0", "N0"])]
+    pub from_test: Option<Vec<f64>>,
+    /// Measured armature resistance, ohm, taken as at 20 C (replaces the calculated value).
+    #[arg(long, value_name = "OHMS")]
+    pub ra: Option<f64>,
+    /// Where to write the new design.
+    #[arg(short = 'o', long = "output", value_name = "NEW.toml")]
+    pub output: Option<PathBuf>,
+    /// Overwrite the output file if it exists.
+    #[arg(long)]
+    pub force: bool,
+}
+
+/// Runs `rewind`; returns the exit code.
+pub fn rewind(a: &RewindArgs) -> u8 {
+    let checked = match load_design(&a.design) {
+        Ok(c) => c,
+        Err(code) => return code,
+    };
+    let (d, w) = (&checked.design, &checked.winding);
+    let name = a.design.display().to_string();
+    let asked = asked_line(a);
+    let refuse = |msg: &str| {
+        eprintln!("error: {name}: cannot rewind: {msg}");
+        2u8
+    };
+    let from_test = a.from_test.as_ref().map(|v| (v[0], v[1]));
+
+    let Some(voltage) = a.voltage else {
+        // --from-test alone: report the flux, and record it if asked to.
+        let (v0, n0) = from_test.unwrap_or((0.0, 0.0));
+        let flux = match flux_from_test(d, w, v0, n0) {
+            Ok(f) => f * 1000.0,
+            Err(e) => return refuse(&e.0),
+        };
+        let mut s = format!(
+            "armsheet {} - no-load test of {name}\n",
+            env!("CARGO_PKG_VERSION")
+        );
+        s.push_str(&format!(
+            "  flux per pole         {} mWb = 60*a*V0/(P*Z*N0) = 60*{}*{}/({}*{}*{}) (open circuit, E = V0)\n",
+            fmt_fixed(flux, 4),
+            w.paths_formula,
+            fmt_fixed(v0, 2),
+            d.poles,
+            w.conductors,
+            fmt_fixed(n0, 1)
+        ));
+        if let Some(f) = d.flux_per_pole_mwb {
+            s.push_str(&format!(
+                "  design flux           {} mWb ({} % against the test)\n",
+                fmt_fixed(f, 4),
+                rating::rewind::signed((f / flux - 1.0) * 100.0, 2)
+            ));
+        }
+        let nd = with_flux(d, flux);
+        let rated = rating::rate_with(&nd, w, a.ra);
+        if let Some(n) = rated.emf.as_ref().and_then(|e| e.speed_at_flux_rpm) {
+            s.push_str(&format!(
+                "  speed at the rating   {} rpm with this flux\n",
+                fmt_fixed(n, 1)
+            ));
+        }
+        if let Some(r) = &rated.resistance {
+            let how = if r.measured {
+                "measured (--ra)"
+            } else {
+                "calculated"
+            };
+            s.push_str(&format!(
+                "  armature resistance   {} ohm at 20 C, {how}\n",
+                fmt_fixed(r.r20_ohm, 4)
+            ));
+        }
+        s.push_str("  use it: armsheet rewind DESIGN --from-test V0 N0 --voltage V\n");
+        if print_stdout(&s).is_err() {
+            return 2;
+        }
+        return match &a.output {
+            None => 0,
+            Some(out) => {
+                let header = vec![
+                    format!("armsheet: {name} with the flux per pole from a no-load test"),
+                    format!("asked: {asked}"),
+                    format!(
+                        "flux per pole {} mWb = 60*a*V0/(P*Z*N0), open circuit",
+                        fmt_fixed(flux, 4)
+                    ),
+                ];
+                let text = design_toml::write_design(&nd, &header);
+                write_checked(out, &text, a.force, &name)
+            }
+        };
+    };
+
+    let req = RewindRequest {
+        voltage,
+        speed_rpm: a.speed,
+        kind: a.kind.map(|k| match k {
+            TypeArg::Lap => WindingType::Lap,
+            TypeArg::Wave => WindingType::Wave,
+        }),
+        multiplicity: a.multiplicity,
+        from_test,
+        measured_r20: a.ra,
+    };
+    let plan = match rating::rewind(d, w, &req) {
+        Ok(p) => p,
+        Err(e) => return refuse(&e.0),
+    };
+    let out = a
+        .output
+        .clone()
+        .unwrap_or_else(|| default_output(&a.design, voltage));
+    let text = plan.design_file(&name, &asked);
+    // Parse the new file back with armsheet's own parser before anything is written.
+    let out_name = out.display().to_string();
+    let back = match parse_design(&text, &out_name) {
+        Ok(b) => b,
+        Err(diag) => {
+            return refuse(&format!(
+                "the new design does not parse back, so nothing was written:\n{diag}"
+            ));
+        }
+    };
+    let new_rating = match trace_winding(&back) {
+        Ok(nw) => rating::rate(&back, &nw),
+        Err(e) => {
+            return refuse(&format!(
+                "the new design cannot be traced ({e}), so nothing was written"
+            ));
+        }
+    };
+    let report = render_rewind(&plan, &name, &asked, new_rating.as_ref());
+    if print_stdout(&report).is_err() {
+        return 2;
+    }
+    write_checked(&out, &text, a.force, &name)
+}
+
+fn write_checked(out: &Path, text: &str, force: bool, name: &str) -> u8 {
+    let result = if force {
+        write_atomic(out, text.as_bytes())
+    } else {
+        write_new(out, text.as_bytes())
+    };
+    match result {
+        Ok(()) => {
+            println!("wrote {}", out.display());
+            0
+        }
+        Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => {
+            eprintln!(
+                "error: {} already exists; armsheet rewind does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
+                out.display()
+            );
+            2
+        }
+        Err(e) => {
+            eprintln!("error: {name}: cannot write {}: {e}", out.display());
+            2
+        }
+    }
+}
+
+/// `designs/hoist.toml` at 220 V → `designs/hoist-220V.toml`.
+fn default_output(design: &Path, volts: f64) -> PathBuf {
+    let stem = design.file_stem().map_or_else(
+        || "design".to_string(),
+        |s| s.to_string_lossy().into_owned(),
+    );
+    let v = design_toml::num(volts, 2).replace('.', "_");
+    design.with_file_name(format!("{stem}-{v}V.toml"))
+}
+
+/// The request as a command line, for the header and the report.
+fn asked_line(a: &RewindArgs) -> String {
+    let mut s = format!("armsheet rewind {}", a.design.display());
+    if let Some(v) = a.voltage {
+        s.push_str(&format!(" --voltage {}", design_toml::num(v, 3)));
+    }
+    if let Some(n) = a.speed {
+        s.push_str(&format!(" --speed {}", design_toml::num(n, 3)));
+    }
+    if let Some(k) = a.kind {
+        s.push_str(match k {
+            TypeArg::Lap => " --type lap",
+            TypeArg::Wave => " --type wave",
+        });
+    }
+    if let Some(m) = a.multiplicity {
+        s.push_str(&format!(" --multiplicity {m}"));
+    }
+    if let Some(t) = &a.from_test {
+        s.push_str(&format!(
+            " --from-test {} {}",
+            design_toml::num(t[0], 3),
+            design_toml::num(t[1], 3)
+        ));
+    }
+    if let Some(r) = a.ra {
+        s.push_str(&format!(" --ra {}", design_toml::num(r, 6)));
+    }
+    s.replace(['\n', '\r'], " ")
+}

@@ -1,0 +1,241 @@
+//! The `rewind` text report: flux kept, new turns and speed error, conductor options, slot fill,
+//! segments, and the new design's rating checks.
+//!
+//! Part of the `render` stage: formats a [`RewindPlan`]; no arithmetic beyond display.
+
+use std::fmt::Write;
+
+use super::number::fmt_fixed;
+use super::report::CAUTIONS;
+use crate::rating::conductor::{self, WireFamily};
+use crate::rating::rewind::signed;
+use crate::rating::{RatingReport, RewindPlan};
+
+fn section(s: &mut String, title: &str) {
+    let _ = writeln!(s, "\n{title}\n{}", "-".repeat(title.len()));
+}
+
+fn row(s: &mut String, label: &str, value: impl std::fmt::Display) {
+    let _ = writeln!(s, "  {label:<22}{value}");
+}
+
+/// Renders the rewind report; `new_rating` is the new design rated.
+pub fn render_rewind(
+    p: &RewindPlan,
+    file: &str,
+    asked: &str,
+    new_rating: Option<&RatingReport>,
+) -> String {
+    let mut s = String::new();
+    let _ = writeln!(
+        s,
+        "armsheet {} - rewind of {file}",
+        env!("CARGO_PKG_VERSION")
+    );
+    row(&mut s, "asked", asked);
+    let (o, n) = (&p.old, &p.new);
+    section(&mut s, "FLUX AND SPEED");
+    row(
+        &mut s,
+        "flux per pole kept",
+        format!(
+            "{} mWb ({})",
+            fmt_fixed(p.flux_mwb, 3),
+            p.flux_source.describe()
+        ),
+    );
+    let v = |x: Option<f64>| {
+        x.map_or("(not given)".to_string(), |v| {
+            format!("{} V", fmt_fixed(v, 1))
+        })
+    };
+    row(
+        &mut s,
+        "voltage",
+        format!("{} -> {}", v(o.voltage), v(n.voltage)),
+    );
+    row(
+        &mut s,
+        "EMF",
+        format!("{} V -> {} V", fmt_fixed(o.emf_v, 2), fmt_fixed(n.emf_v, 2)),
+    );
+    row(
+        &mut s,
+        "speed asked",
+        format!(
+            "{} rpm (was {} rpm)",
+            fmt_fixed(n.speed_rpm, 0),
+            fmt_fixed(o.speed_rpm, 0)
+        ),
+    );
+    section(&mut s, "WINDING");
+    row(
+        &mut s,
+        "connection",
+        format!("{} -> {}", o.connection.label(), n.connection.label()),
+    );
+    row(
+        &mut s,
+        "conductors Z",
+        format!(
+            "{} -> {} ({} -> {} per path)",
+            o.conductors,
+            n.conductors,
+            fmt_fixed(o.conductors as f64 / f64::from(o.connection.paths), 1),
+            fmt_fixed(n.conductors as f64 / f64::from(n.connection.paths), 1)
+        ),
+    );
+    row(
+        &mut s,
+        "turns per coil",
+        format!(
+            "{} -> {} ({} exact)",
+            o.turns,
+            n.turns,
+            fmt_fixed(p.exact_turns, 3)
+        ),
+    );
+    row(
+        &mut s,
+        "speed, whole turns",
+        format!(
+            "{} rpm at {}: {} % against the speed asked",
+            fmt_fixed(p.speed_at_whole_turns, 1),
+            v(n.voltage),
+            signed(p.speed_error * 100.0, 2)
+        ),
+    );
+    if let (Some(i0), Some(i1)) = (o.current, n.current) {
+        row(
+            &mut s,
+            "current",
+            format!(
+                "{} A -> {} A (same power, same copper)",
+                fmt_fixed(i0, 2),
+                fmt_fixed(i1, 2)
+            ),
+        );
+    }
+    row(
+        &mut s,
+        "segment voltage",
+        format!("{} V average (E*P/C)", fmt_fixed(p.segment_volts_avg, 2)),
+    );
+    section(&mut s, "CONDUCTOR");
+    match (p.area_needed_mm2, &o.conductor) {
+        (Some(need), Some(oc)) => {
+            row(
+                &mut s,
+                "old",
+                format!(
+                    "{}, {} mm2",
+                    conductor::describe(oc),
+                    fmt_fixed(o.area_mm2.unwrap_or(0.0), 3)
+                ),
+            );
+            row(
+                &mut s,
+                "needed",
+                format!("{} mm2 for the same current density", fmt_fixed(need, 3)),
+            );
+            if let Some(nc) = &n.conductor {
+                row(
+                    &mut s,
+                    "chosen",
+                    format!(
+                        "{}, {} mm2",
+                        conductor::describe(nc),
+                        fmt_fixed(n.area_mm2.unwrap_or(0.0), 3)
+                    ),
+                );
+            }
+            if let Some(j) = p.density_a_mm2 {
+                row(
+                    &mut s,
+                    "current density",
+                    format!("{} A/mm2 with the chosen size", fmt_fixed(j, 2)),
+                );
+            }
+            let _ = writeln!(
+                s,
+                "  standard sizes (up to 4 in hand; area, error against the need):"
+            );
+            for fam in [WireFamily::Awg, WireFamily::Metric] {
+                for opt in p.options.iter().filter(|x| x.family == fam) {
+                    let tag = if fam == WireFamily::Awg {
+                        "AWG   "
+                    } else {
+                        "metric"
+                    };
+                    let _ = writeln!(
+                        s,
+                        "    {tag} {:<28}{:>9} mm2  {:>7} %",
+                        opt.label(),
+                        fmt_fixed(opt.area_mm2, 3),
+                        signed(opt.error * 100.0, 1)
+                    );
+                }
+            }
+            if let Some(f) = p.fill_exact {
+                row(
+                    &mut s,
+                    "slot fill",
+                    format!(
+                        "{} % of the original copper per slot at the exact area",
+                        fmt_fixed(f * 100.0, 1)
+                    ),
+                );
+            }
+            if let Some(f) = p.fill_chosen {
+                row(
+                    &mut s,
+                    "",
+                    format!("{} % with the chosen size", fmt_fixed(f * 100.0, 1)),
+                );
+            }
+        }
+        _ => row(
+            &mut s,
+            "conductor",
+            "not given in the design: no size worked out",
+        ),
+    }
+    if !p.notes.is_empty() {
+        section(&mut s, "SEGMENTS AND NOTES");
+        for note in &p.notes {
+            let _ = writeln!(s, "  - {note}");
+        }
+    }
+    if let Some(r) = new_rating {
+        section(&mut s, "NEW DESIGN: RATING CHECKS");
+        let failed: Vec<_> = r.checks.iter().filter(|c| !c.passed).collect();
+        if failed.is_empty() {
+            let _ = writeln!(s, "  all {} rating checks within limits", r.checks.len());
+        }
+        for c in failed {
+            let _ = writeln!(
+                s,
+                "  [{}] {}: {}",
+                c.rule.level.as_str(),
+                c.rule.id,
+                c.message()
+            );
+        }
+        if let Some(t) = &r.test_voltage {
+            row(
+                &mut s,
+                "withstand test, 1 min",
+                format!(
+                    "new or fully rewound {} V; overhauled {} V (IEC 60034-1)",
+                    fmt_fixed(t.new_v, 0),
+                    fmt_fixed(t.overhauled_v, 0)
+                ),
+            );
+        }
+    }
+    section(&mut s, "CAUTION");
+    for c in CAUTIONS {
+        let _ = writeln!(s, "  - {c}");
+    }
+    s
+}
