@@ -189,20 +189,21 @@ pub fn nearest_sizes(wanted_mm2: f64, max_strands: u32) -> Vec<WireOption> {
     out
 }
 
-/// Picks the option to wind: within `family`, the fewest strands whose area is within 3 % of
-/// the wanted area; if none is, the option with the smallest error (fewest strands on a tie).
-pub fn choose_size(options: &[WireOption], family: WireFamily) -> Option<&WireOption> {
+/// Picks the option to wind within `family`: the option with the `preferred` strand count (the
+/// old winding's) when its area is within 3 % of the wanted area; else the fewest strands within
+/// 3 %; else the option with the smallest error (fewest strands on a tie).
+pub fn choose_size(options: &[WireOption], family: WireFamily, preferred: u32) -> Option<&WireOption> {
     let fam: Vec<&WireOption> = options.iter().filter(|o| o.family == family).collect();
+    let near = |o: &&WireOption| o.error.abs() <= 0.03;
     fam.iter()
         .copied()
-        .find(|o| o.error.abs() <= 0.03)
+        .find(|o| o.strands == preferred && near(o))
+        .or_else(|| fam.iter().copied().find(near))
         .or_else(|| {
-            fam.iter()
-                .copied()
-                .fold(None, |acc: Option<&WireOption>, o| match acc {
-                    Some(a) if a.error.abs() <= o.error.abs() => Some(a),
-                    _ => Some(o),
-                })
+            fam.iter().copied().fold(None, |acc: Option<&WireOption>, o| match acc {
+                Some(a) if a.error.abs() <= o.error.abs() => Some(a),
+                _ => Some(o),
+            })
         })
 }
 
@@ -293,6 +294,6 @@ mod tests {
         assert_eq!(m1.diameter_mm, 1.25);
         let a = nearest_sizes(round_area_mm2(awg_diameter_mm(18)), 1);
         assert_eq!(a[0].awg, Some(18));
-        assert_eq!(choose_size(&o, WireFamily::Metric).unwrap().strands, 1);
+        assert_eq!(choose_size(&o, WireFamily::Metric, 1).unwrap().strands, 1);
     }
 }

@@ -316,13 +316,13 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
                 strands,
             })
         }
-        (Some(ConductorShape::Round { awg, .. }), Some(_)) => {
+        (Some(ConductorShape::Round { awg, strands, .. }), Some(_)) => {
             let family = if awg.is_some() {
                 WireFamily::Awg
             } else {
                 WireFamily::Metric
             };
-            conductor::choose_size(&options, family).map(WireOption::shape)
+            conductor::choose_size(&options, family, strands).map(WireOption::shape)
         }
         _ => None,
     };

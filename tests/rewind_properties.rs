@@ -1,0 +1,172 @@
+//! Properties of the rewind over random designs: the same voltage reproduces the turns and the
+//! area; twice the voltage on the same connection doubles the turns and halves the area; the
+//! written design parses back with armsheet's own parser.
+
+use armsheet::design::{Design, parse_design};
+use armsheet::rating::{RewindRequest, rewind};
+use armsheet::winding::trace_winding;
+use proptest::prelude::*;
+
+#[derive(Debug, Clone)]
+struct Case {
+    poles: u32,
+    slots: u32,
+    u: u32,
+    wave: bool,
+    turns: u32,
+    voltage: f64,
+    current: Option<f64>,
+    speed: f64,
+    flux_given: bool,
+    generator: bool,
+    diameter: f64,
+    strands: u32,
+}
+
+fn toml(c: &Case) -> String {
+    let mut s = format!(
+        "[armature]\npoles = {}\nslots = {}\ncoils_per_slot = {}\n[winding]\ntype = \"{}\"\nturns = {}\n",
+        c.poles,
+        c.slots,
+        c.u,
+        if c.wave { "wave" } else { "lap" },
+        c.turns
+    );
+    s.push_str(&format!("[rating]\nvoltage = {}\n", c.voltage));
+    if let Some(i) = c.current {
+        s.push_str(&format!("current = {i}\n"));
+    }
+    if c.generator {
+        s.push_str("mode = \"generator\"\n");
+    }
+    if c.flux_given {
+        // A flux that fits the voltage at some speed; the speed then follows from it.
+        s.push_str("flux_per_pole_mwb = 15\n");
+    } else {
+        s.push_str(&format!("speed_rpm = {}\n", c.speed));
+    }
+    s.push_str(&format!(
+        "thermal_class = \"F\"\n[conductor]\ndiameter_mm = {}\nstrands = {}\nmean_turn_mm = 500\n",
+        c.diameter, c.strands
+    ));
+    s
+}
+
+fn case() -> impl Strategy<Value = Case> {
+    (
+        prop::sample::select(vec![4u32, 6, 8]),
+        12u32..=60,
+        1u32..=3,
+        any::<bool>(),
+        1u32..=10,
+        200.0f64..600.0,
+        prop::option::of(5.0f64..60.0),
+        600.0f64..3000.0,
+        any::<bool>(),
+        any::<bool>(),
+        prop::sample::select(vec![0.8, 1.0, 1.12, 1.25, 1.6, 2.0]),
+        1u32..=2,
+    )
+        .prop_map(
+            |(
+                poles,
+                slots,
+                u,
+                wave,
+                turns,
+                voltage,
+                current,
+                speed,
+                flux_given,
+                generator,
+                diameter,
+                strands,
+            )| Case {
+                poles,
+                slots,
+                u,
+                wave,
+                turns,
+                voltage: (voltage * 10.0).round() / 10.0,
+                current: current.map(|i| (i * 10.0).round() / 10.0),
+                speed: speed.round(),
+                flux_given,
+                generator,
+                diameter,
+                strands,
+            },
+        )
+}
+
+fn design(c: &Case) -> Option<Design> {
+    parse_design(&toml(c), "p.toml").ok()
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 200, ..ProptestConfig::default() })]
+
+    #[test]
+    fn same_voltage_reproduces_turns_and_area(c in case()) {
+        let d = design(&c);
+        prop_assume!(d.is_some());
+        let d = d.unwrap();
+        let w = trace_winding(&d).unwrap();
+        let req = RewindRequest { voltage: c.voltage, ..RewindRequest::default() };
+        let p = rewind(&d, &w, &req);
+        prop_assume!(p.is_ok());
+        let p = p.unwrap();
+        prop_assert_eq!(p.new.turns, d.turns);
+        prop_assert_eq!(p.new.connection.segments, w.active_coils);
+        let a0 = p.old.area_mm2.unwrap();
+        prop_assert!((p.area_needed_mm2.unwrap() / a0 - 1.0).abs() < 1e-9);
+        prop_assert!(p.speed_error.abs() < 1e-9, "speed error {}", p.speed_error);
+        // The chosen size is the original one (an R20 diameter, same strands).
+        prop_assert_eq!(p.new.conductor, p.old.conductor);
+    }
+
+    #[test]
+    fn double_voltage_doubles_turns_and_halves_area(c in case()) {
+        let d = design(&c);
+        prop_assume!(d.is_some());
+        let d = d.unwrap();
+        let w = trace_winding(&d).unwrap();
+        let req = RewindRequest { voltage: 2.0 * c.voltage, ..RewindRequest::default() };
+        let p = rewind(&d, &w, &req);
+        prop_assume!(p.is_ok());
+        let p = p.unwrap();
+        let t0 = f64::from(d.turns);
+        // The brush drop does not scale, so the exact ratio is (2V ∓ Vb)/(V ∓ Vb): within 1 %
+        // of 2 at these voltages, so at most 10 turns round to exactly twice as many.
+        prop_assert!((p.exact_turns / (2.0 * t0) - 1.0).abs() < 0.011, "exact {}", p.exact_turns);
+        prop_assert_eq!(p.new.turns, 2 * d.turns);
+        let a0 = p.old.area_mm2.unwrap();
+        prop_assert!((p.area_needed_mm2.unwrap() / (a0 / 2.0) - 1.0).abs() < 1e-9);
+        // Without a current there are no drops: the ratio is exact.
+        if c.current.is_none() {
+            prop_assert!((p.exact_turns - 2.0 * t0).abs() < 1e-9);
+        }
+    }
+
+    #[test]
+    fn the_new_file_parses_back_with_the_new_winding(c in case(), lap in any::<bool>(), v in 100.0f64..900.0) {
+        let d = design(&c);
+        prop_assume!(d.is_some());
+        let d = d.unwrap();
+        let w = trace_winding(&d).unwrap();
+        let kind = if lap { armsheet::design::WindingType::Lap } else { armsheet::design::WindingType::Wave };
+        let req = RewindRequest { voltage: v.round(), kind: Some(kind), ..RewindRequest::default() };
+        let p = rewind(&d, &w, &req);
+        prop_assume!(p.is_ok());
+        let p = p.unwrap();
+        let text = p.design_file("p.toml", "armsheet rewind p.toml");
+        let back = parse_design(&text, "new.toml");
+        prop_assert!(back.is_ok(), "{}\n{}", text, back.unwrap_err());
+        let back = back.unwrap();
+        prop_assert_eq!(back.turns, p.new.turns);
+        prop_assert_eq!(back.winding_type, kind);
+        let nw = trace_winding(&back).unwrap();
+        prop_assert_eq!(nw.active_coils, p.new.connection.segments);
+        prop_assert_eq!(nw.paths_formula, p.new.connection.paths);
+        prop_assert!(text.starts_with("# armsheet rewind of p.toml\n"));
+    }
+}
