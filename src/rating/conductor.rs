@@ -192,7 +192,11 @@ pub fn nearest_sizes(wanted_mm2: f64, max_strands: u32) -> Vec<WireOption> {
 /// Picks the option to wind within `family`: the option with the `preferred` strand count (the
 /// old winding's) when its area is within 3 % of the wanted area; else the fewest strands within
 /// 3 %; else the option with the smallest error (fewest strands on a tie).
-pub fn choose_size(options: &[WireOption], family: WireFamily, preferred: u32) -> Option<&WireOption> {
+pub fn choose_size(
+    options: &[WireOption],
+    family: WireFamily,
+    preferred: u32,
+) -> Option<&WireOption> {
     let fam: Vec<&WireOption> = options.iter().filter(|o| o.family == family).collect();
     let near = |o: &&WireOption| o.error.abs() <= 0.03;
     fam.iter()
@@ -200,10 +204,12 @@ pub fn choose_size(options: &[WireOption], family: WireFamily, preferred: u32) -
         .find(|o| o.strands == preferred && near(o))
         .or_else(|| fam.iter().copied().find(near))
         .or_else(|| {
-            fam.iter().copied().fold(None, |acc: Option<&WireOption>, o| match acc {
-                Some(a) if a.error.abs() <= o.error.abs() => Some(a),
-                _ => Some(o),
-            })
+            fam.iter()
+                .copied()
+                .fold(None, |acc: Option<&WireOption>, o| match acc {
+                    Some(a) if a.error.abs() <= o.error.abs() => Some(a),
+                    _ => Some(o),
+                })
         })
 }
 
