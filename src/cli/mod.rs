@@ -7,6 +7,7 @@
 mod load;
 pub mod output;
 pub mod rewind;
+pub mod sheet;
 
 use std::io::{IsTerminal, Write};
 use std::path::PathBuf;
@@ -52,6 +53,11 @@ pub enum Command {
     /// Work out a rewind for a new voltage, speed or connection, or the flux from a no-load test.
     #[command(after_help = rewind::REWIND_HELP)]
     Rewind(rewind::RewindArgs),
+    /// Write the printable winding sheets (SVG, optional PDF), connections.csv and report.json.
+    #[command(after_help = sheet::SHEET_HELP)]
+    Sheet(sheet::SheetArgs),
+    /// Write the developed winding diagram alone, sized for a screen.
+    Draw(sheet::DrawArgs),
 }
 
 const CHECK_HELP: &str = "\
@@ -103,6 +109,8 @@ pub fn run(cli: Cli) -> u8 {
         Command::Check(a) => check(&a),
         Command::New(a) => new(&a),
         Command::Rewind(a) => rewind::rewind(&a),
+        Command::Sheet(a) => sheet::sheet(&a),
+        Command::Draw(a) => sheet::draw(&a),
     }
 }
 

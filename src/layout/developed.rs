@@ -104,8 +104,11 @@ pub struct EdgeCut {
     pub at: Point,
     /// True at the right edge.
     pub right: bool,
-    /// The label: the coil number in the whole view, else what lies beyond ("slot 23", "seg 45").
+    /// The label: the coil number in the whole view, else what lies beyond ("slot 23", "seg 45");
+    /// empty when there was no room for it beside its neighbours (the dot is still drawn).
     pub label: String,
+    /// Baseline of the label, moved off its neighbours where needed.
+    pub label_y: f64,
 }
 
 /// A vertical coil side.
@@ -259,7 +262,14 @@ pub fn resolve_view(design: &Design, winding: &Winding, window: Window) -> View 
     let p = design.pole_pairs();
     let c = winding.active_coils;
     let repeat_slots = (p > 1 && s % p == 0 && c % p == 0).then_some(s / p);
-    let whole = View { whole: true, first_slot: 1, slots: s, total_slots: s, pole_pairs: None, repeat_slots };
+    let whole = View {
+        whole: true,
+        first_slot: 1,
+        slots: s,
+        total_slots: s,
+        pole_pairs: None,
+        repeat_slots,
+    };
     let (pairs, first) = match window {
         Window::Whole => return whole,
         Window::Auto => {
@@ -267,7 +277,10 @@ pub fn resolve_view(design: &Design, winding: &Winding, window: Window) -> View 
                 return whole;
             }
             let per_pair = f64::from(c) / f64::from(p);
-            ((f64::from(LEGIBLE_SEGMENTS) / per_pair).floor().max(1.0) as u32, 1)
+            (
+                (f64::from(LEGIBLE_SEGMENTS) / per_pair).floor().max(1.0) as u32,
+                1,
+            )
         }
         Window::PolePairs { pairs, first_slot } => (pairs.max(1), first_slot.clamp(1, s)),
     };
@@ -275,7 +288,14 @@ pub fn resolve_view(design: &Design, winding: &Winding, window: Window) -> View 
         return whole;
     }
     let slots = ((f64::from(pairs) * f64::from(s) / f64::from(p)).round() as u32).clamp(1, s);
-    View { whole: false, first_slot: first, slots, total_slots: s, pole_pairs: Some(pairs), repeat_slots }
+    View {
+        whole: false,
+        first_slot: first,
+        slots,
+        total_slots: s,
+        pole_pairs: Some(pairs),
+        repeat_slots,
+    }
 }
 
 /// Lays out the developed diagram of `winding` in a box of the given size.
@@ -290,12 +310,22 @@ pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOpt
     let start_deg = f64::from(view.first_slot - 1) * slot_deg - slot_deg / 2.0;
     let scale = strip_w / (f64::from(view.slots) * slot_deg);
     let turn = 360.0 * scale;
-    let geo = Geo { start_deg, scale, turn, strip, whole: view.whole };
+    let geo = Geo {
+        start_deg,
+        scale,
+        turn,
+        strip,
+        whole: view.whole,
+    };
 
     let bands = bands(design, winding, options.height);
     let slot_pitch = slot_deg * scale;
     let segment_pitch = seg_deg * scale;
-    let label_size = if segment_pitch >= 2.4 && slot_pitch >= 2.4 { 2.2 } else { 1.9 };
+    let label_size = if segment_pitch >= 2.4 && slot_pitch >= 2.4 {
+        2.2
+    } else {
+        1.9
+    };
     let turn_segment_labels = segment_pitch < label_size * 0.62 * 2.0 + 0.6;
 
     let slots = (0..view.slots)
@@ -328,17 +358,19 @@ pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOpt
         let frac = 0.7 * ((f64::from(j) + 0.5) / f64::from(2 * u) - 0.5);
         (f64::from(slot - 1) + frac) * slot_deg
     };
-    let coils = winding
+    let mut coils: Vec<CoilDrawing> = winding
         .connections
         .iter()
         .filter_map(|conn| {
             let top_deg = side_deg(conn.top.slot, conn.top.position, false);
             let forward = (conn.bottom.slot + design.slots - conn.top.slot) % design.slots;
-            let bottom_deg = side_deg(conn.top.slot, conn.bottom.position, true) + f64::from(forward) * slot_deg;
+            let bottom_deg =
+                side_deg(conn.top.slot, conn.bottom.position, true) + f64::from(forward) * slot_deg;
             coil_drawing(conn, winding, &geo, &bands, top_deg, bottom_deg)
         })
         .collect();
 
+    space_edge_labels(&mut coils, EDGE_LABEL_GAP);
     let seg_w = segment_pitch * 0.84;
     let segments = (1..=winding.active_coils)
         .filter_map(|seg| {
@@ -347,7 +379,11 @@ pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOpt
                 return None;
             }
             let pieces = geo.interval(x - seg_w / 2.0, x + seg_w / 2.0);
-            Some(SegmentBox { segment: seg, label_x: label_spot(&pieces, x), pieces })
+            Some(SegmentBox {
+                segment: seg,
+                label_x: label_spot(&pieces, x),
+                pieces,
+            })
         })
         .collect();
 
@@ -410,7 +446,11 @@ fn bands(design: &Design, winding: &Winding, height: f64) -> Bands {
     let _ = design;
     let rows = equalizer_rows(winding);
     let eq_pitch = 2.4;
-    let eq_height = if rows == 0 { 0.0 } else { 3.0 + rows as f64 * eq_pitch };
+    let eq_height = if rows == 0 {
+        0.0
+    } else {
+        3.0 + rows as f64 * eq_pitch
+    };
     let header = 4.0;
     let pole = (6.0, 11.5);
     let commutator_h = 7.0;
@@ -476,7 +516,9 @@ impl Geo {
     /// at its start and at its end.
     fn polyline(&self, pts: &[Point]) -> Vec<(Vec<Point>, bool, bool)> {
         let mut out = Vec::new();
-        for k in -1..=1 {
+        // A window draws each coil once, from the copy whose top side is in view.
+        let shifts = if self.whole { -1..=1 } else { 0..=0 };
+        for k in shifts {
             let shift = f64::from(k) * self.turn;
             let moved: Vec<Point> = pts.iter().map(|&(x, y)| (x + shift, y)).collect();
             clip_polyline(&moved, self.strip.0, self.strip.1, &mut out);
@@ -533,6 +575,36 @@ fn clip_polyline(pts: &[Point], x0: f64, x1: f64, out: &mut Vec<(Vec<Point>, boo
     }
 }
 
+/// Least distance between two edge labels' baselines, mm (labels are 1.8 mm type).
+const EDGE_LABEL_GAP: f64 = 2.0;
+
+/// Moves edge labels apart along each edge, by at most one gap; a label that still collides
+/// is left out (its dot stays, and the connection table holds the coil).
+fn space_edge_labels(coils: &mut [CoilDrawing], gap: f64) {
+    for right in [false, true] {
+        let mut refs: Vec<(f64, usize, usize)> = Vec::new();
+        for (i, c) in coils.iter().enumerate() {
+            for (j, cut) in c.cuts.iter().enumerate() {
+                if cut.right == right {
+                    refs.push((cut.label_y, i, j));
+                }
+            }
+        }
+        refs.sort_by(|a, b| a.0.total_cmp(&b.0).then(a.1.cmp(&b.1)).then(a.2.cmp(&b.2)));
+        let mut last = f64::NEG_INFINITY;
+        for (y, i, j) in refs {
+            let cut = &mut coils[i].cuts[j];
+            let want = y.max(last + gap);
+            if want - y <= gap {
+                cut.label_y = want;
+                last = want;
+            } else {
+                cut.label.clear();
+            }
+        }
+    }
+}
+
 /// Where to centre a label on a possibly split box.
 fn label_spot(pieces: &[(f64, f64)], x: f64) -> f64 {
     if pieces.iter().any(|&(a, b)| x >= a && x <= b) {
@@ -578,23 +650,42 @@ fn coil_drawing(
     };
     for x in [xt, xt - geo.turn] {
         if geo.inside(x) {
-            d.top = Some(SideLine { x, slot: conn.top.slot, position: conn.top.position });
+            d.top = Some(SideLine {
+                x,
+                slot: conn.top.slot,
+                position: conn.top.position,
+            });
         }
     }
-    for x in [xb, xb - geo.turn] {
+    let bottoms = if geo.whole {
+        vec![xb, xb - geo.turn]
+    } else {
+        vec![xb]
+    };
+    for x in bottoms {
         if geo.inside(x) {
-            d.bottom = Some(SideLine { x, slot: conn.bottom.slot, position: conn.bottom.position });
+            d.bottom = Some(SideLine {
+                x,
+                slot: conn.bottom.slot,
+                position: conn.bottom.position,
+            });
         }
     }
     let (ct, cb) = bands.core;
     let xm = (xt + xb) / 2.0;
-    d.tag = [xm, xm - geo.turn, xm + geo.turn].into_iter().find(|&x| geo.inside(x)).map(|x| (x, bands.back_apex - 0.6));
+    d.tag = [xm, xm - geo.turn, xm + geo.turn]
+        .into_iter()
+        .find(|&x| geo.inside(x))
+        .map(|x| (x, bands.back_apex - 0.6));
     let coil_label = coil.to_string();
     let top_slot = format!("slot {}", conn.top.slot);
     let bottom_slot = format!("slot {}", conn.bottom.slot);
 
     let back = [(xt, ct), (xm, bands.back_apex), (xb, ct)];
-    let ends = Ends { origin: top_slot.clone(), destination: bottom_slot.clone() };
+    let ends = Ends {
+        origin: top_slot.clone(),
+        destination: bottom_slot.clone(),
+    };
     d.back = add_pieces(geo, &back, &ends, &coil_label, &mut d.cuts);
 
     let lead = |x_side: f64, seg: Option<u32>| -> Vec<Point> {
@@ -602,35 +693,80 @@ fn coil_drawing(
             Some(s) => {
                 let xs = geo.x(winding.segment_deg(s));
                 let dx = (xs - x_side).rem_euclid(geo.turn);
-                let dx = if dx > geo.turn / 2.0 { dx - geo.turn } else { dx };
-                vec![(x_side, cb), (x_side + dx, bands.riser), (x_side + dx, bands.commutator.0)]
+                let dx = if dx > geo.turn / 2.0 {
+                    dx - geo.turn
+                } else {
+                    dx
+                };
+                vec![
+                    (x_side, cb),
+                    (x_side + dx, bands.riser),
+                    (x_side + dx, bands.commutator.0),
+                ]
             }
             None => vec![(x_side, cb), (x_side, cb + 3.0)],
         }
     };
     let seg_name = |s: Option<u32>| s.map_or_else(|| "cut".to_string(), |s| format!("seg {s}"));
     let start = lead(xt, conn.start_segment);
-    let ends = Ends { origin: top_slot, destination: seg_name(conn.start_segment) };
+    let ends = Ends {
+        origin: top_slot,
+        destination: seg_name(conn.start_segment),
+    };
     d.start_lead = add_pieces(geo, &start, &ends, &coil_label, &mut d.cuts);
     let end = lead(xb, conn.end_segment);
-    let ends = Ends { origin: bottom_slot, destination: seg_name(conn.end_segment) };
+    let ends = Ends {
+        origin: bottom_slot,
+        destination: seg_name(conn.end_segment),
+    };
     d.end_lead = add_pieces(geo, &end, &ends, &coil_label, &mut d.cuts);
 
-    let anything = d.top.is_some() || d.bottom.is_some() || !d.back.is_empty() || !d.start_lead.is_empty() || !d.end_lead.is_empty();
+    // A window shows the coils whose top side lies in it, each whole or cut at an edge.
+    let anything = if geo.whole {
+        d.top.is_some()
+            || d.bottom.is_some()
+            || !d.back.is_empty()
+            || !d.start_lead.is_empty()
+            || !d.end_lead.is_empty()
+    } else {
+        d.top.is_some()
+    };
     anything.then_some(d)
 }
 
-fn add_pieces(geo: &Geo, pts: &[Point], ends: &Ends, coil_label: &str, cuts: &mut Vec<EdgeCut>) -> Vec<Vec<Point>> {
+fn add_pieces(
+    geo: &Geo,
+    pts: &[Point],
+    ends: &Ends,
+    coil_label: &str,
+    cuts: &mut Vec<EdgeCut>,
+) -> Vec<Vec<Point>> {
     let mut out = Vec::new();
     for (piece, cut_start, cut_end) in geo.polyline(pts) {
-        let label = |far: &str| if geo.whole { coil_label.to_string() } else { far.to_string() };
+        let label = |far: &str| {
+            if geo.whole {
+                coil_label.to_string()
+            } else {
+                far.to_string()
+            }
+        };
         if cut_start {
             let at = piece[0];
-            cuts.push(EdgeCut { at, right: at.0 > (geo.strip.0 + geo.strip.1) / 2.0, label: label(&ends.origin) });
+            cuts.push(EdgeCut {
+                at,
+                right: at.0 > (geo.strip.0 + geo.strip.1) / 2.0,
+                label: label(&ends.origin),
+                label_y: at.1 + 0.65,
+            });
         }
         if cut_end {
             let at = piece[piece.len() - 1];
-            cuts.push(EdgeCut { at, right: at.0 > (geo.strip.0 + geo.strip.1) / 2.0, label: label(&ends.destination) });
+            cuts.push(EdgeCut {
+                at,
+                right: at.0 > (geo.strip.0 + geo.strip.1) / 2.0,
+                label: label(&ends.destination),
+                label_y: at.1 + 0.65,
+            });
         }
         out.push(piece);
     }
@@ -657,11 +793,24 @@ fn equalizer_band(winding: &Winding, geo: &Geo, bands: &Bands) -> EqualizerBand 
                     geo.inside(x).then_some((s, x))
                 })
                 .collect();
-            let y = if rings { bands.equalizer_rows[i] } else { bands.equalizer_rows[0] };
-            EqualizerDrawing { index: i as u32 + 1, segments: g.clone(), y, taps }
+            let y = if rings {
+                bands.equalizer_rows[i]
+            } else {
+                bands.equalizer_rows[0]
+            };
+            EqualizerDrawing {
+                index: i as u32 + 1,
+                segments: g.clone(),
+                y,
+                taps,
+            }
         })
         .collect();
-    if rings { EqualizerBand::Rings(drawings) } else { EqualizerBand::Taps(drawings) }
+    if rings {
+        EqualizerBand::Rings(drawings)
+    } else {
+        EqualizerBand::Taps(drawings)
+    }
 }
 
 /// How many equalizers the design asked for, in words, for the diagram header.

@@ -12,10 +12,10 @@ pub mod sheet;
 pub use developed::{Diagram, DiagramOptions, Window, layout_developed};
 pub use paper::Paper;
 
-/// Estimated advance width of `text` at `size` mm in DejaVu Sans (about 0.6 em a character on
+/// Estimated advance width of `text` at `size` mm in DejaVu Sans (about 0.57 em a character on
 /// average for digits and lower case; generous so that text never overruns its box).
 pub fn text_width(text: &str, size: f64) -> f64 {
-    text.chars().count() as f64 * size * 0.6
+    text.chars().count() as f64 * size * 0.57
 }
 
 /// Breaks `text` into lines of at most `width` mm at `size` mm, at spaces.
@@ -23,7 +23,11 @@ pub fn wrap_text(text: &str, size: f64, width: f64) -> Vec<String> {
     let mut lines = Vec::new();
     let mut line = String::new();
     for word in text.split_whitespace() {
-        let candidate = if line.is_empty() { word.to_string() } else { format!("{line} {word}") };
+        let candidate = if line.is_empty() {
+            word.to_string()
+        } else {
+            format!("{line} {word}")
+        };
         if text_width(&candidate, size) > width && !line.is_empty() {
             lines.push(std::mem::take(&mut line));
             line = word.to_string();

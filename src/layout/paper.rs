@@ -70,7 +70,9 @@ impl FromStr for Paper {
         Paper::ALL
             .into_iter()
             .find(|p| p.as_str().eq_ignore_ascii_case(s))
-            .ok_or_else(|| format!("unknown paper size \"{s}\": expected a4, a3, letter or tabloid"))
+            .ok_or_else(|| {
+                format!("unknown paper size \"{s}\": expected a4, a3, letter or tabloid")
+            })
     }
 }
 

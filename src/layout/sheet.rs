@@ -12,7 +12,7 @@ pub const MARGIN: f64 = 10.0;
 /// Height of the "not for winding" band, mm.
 pub const BAND_HEIGHT: f64 = 9.0;
 /// Title block size, mm.
-pub const TITLE_BLOCK: (f64, f64) = (118.0, 27.0);
+pub const TITLE_BLOCK: (f64, f64) = (104.0, 27.0);
 /// Connection-table font size, mm: 3.5 mm gives a cap height of about 2.55 mm in DejaVu Sans
 /// (cap height 0.729 em, from the font's OS/2 table), above the 2.5 mm asked for on A4.
 pub const TABLE_FONT: f64 = 3.5;
@@ -70,8 +70,18 @@ pub struct PageFrame {
 /// Lays out the frame for `paper`; `failing` reserves the warning band.
 pub fn page_frame(paper: Paper, failing: bool) -> PageFrame {
     let (width, height) = paper.size_mm();
-    let frame = Rect { x: MARGIN, y: MARGIN, w: width - 2.0 * MARGIN, h: height - 2.0 * MARGIN };
-    let band = failing.then_some(Rect { x: frame.x, y: frame.y, w: frame.w, h: BAND_HEIGHT });
+    let frame = Rect {
+        x: MARGIN,
+        y: MARGIN,
+        w: width - 2.0 * MARGIN,
+        h: height - 2.0 * MARGIN,
+    };
+    let band = failing.then_some(Rect {
+        x: frame.x,
+        y: frame.y,
+        w: frame.w,
+        h: BAND_HEIGHT,
+    });
     let top = frame.y + if failing { BAND_HEIGHT } else { 0.0 };
     let title_block = Rect {
         x: frame.right() - TITLE_BLOCK.0,
@@ -79,11 +89,25 @@ pub fn page_frame(paper: Paper, failing: bool) -> PageFrame {
         w: TITLE_BLOCK.0,
         h: TITLE_BLOCK.1,
     };
-    let content = Rect { x: frame.x, y: top, w: frame.w, h: title_block.y - top };
-    PageFrame { paper, width, height, frame, band, title_block, content }
+    let content = Rect {
+        x: frame.x,
+        y: top,
+        w: frame.w,
+        h: title_block.y - top,
+    };
+    PageFrame {
+        paper,
+        width,
+        height,
+        frame,
+        band,
+        title_block,
+        content,
+    }
 }
 
-/// The blocks of sheet 1: the diagram above, data, legend and notes in a row below.
+/// The blocks of sheet 1: the diagram above; the winding data (with the numbering
+/// convention), the legend and the caution box in a row below, beside the title block.
 #[derive(Clone, Debug, PartialEq)]
 pub struct DiagramSheet {
     /// The developed diagram.
@@ -92,7 +116,7 @@ pub struct DiagramSheet {
     pub data: Rect,
     /// The legend.
     pub legend: Rect,
-    /// Numbering convention and caution box (above the title block).
+    /// The caution box (above the title block).
     pub notes: Rect,
 }
 
@@ -103,14 +127,39 @@ pub const BLOCK_ROW: f64 = 64.0;
 pub fn diagram_sheet(frame: &PageFrame) -> DiagramSheet {
     let f = &frame.frame;
     let row_top = f.bottom() - BLOCK_ROW;
-    let diagram = Rect { x: frame.content.x, y: frame.content.y + 1.0, w: frame.content.w, h: row_top - frame.content.y - 2.0 };
+    let diagram = Rect {
+        x: frame.content.x,
+        y: frame.content.y + 1.0,
+        w: frame.content.w,
+        h: row_top - frame.content.y - 2.0,
+    };
     let notes_w = TITLE_BLOCK.0;
     let rest = f.w - notes_w;
-    let data_w = (rest * 0.56).floor();
-    let data = Rect { x: f.x, y: row_top, w: data_w, h: BLOCK_ROW };
-    let legend = Rect { x: f.x + data_w, y: row_top, w: rest - data_w, h: BLOCK_ROW };
-    let notes = Rect { x: frame.title_block.x, y: row_top, w: notes_w, h: BLOCK_ROW - TITLE_BLOCK.1 };
-    DiagramSheet { diagram, data, legend, notes }
+    let data_w = (rest * 0.54).floor();
+    let data = Rect {
+        x: f.x,
+        y: row_top,
+        w: data_w,
+        h: BLOCK_ROW,
+    };
+    let legend = Rect {
+        x: f.x + data_w,
+        y: row_top,
+        w: rest - data_w,
+        h: BLOCK_ROW,
+    };
+    let notes = Rect {
+        x: frame.title_block.x,
+        y: row_top,
+        w: notes_w,
+        h: BLOCK_ROW - TITLE_BLOCK.1,
+    };
+    DiagramSheet {
+        diagram,
+        data,
+        legend,
+        notes,
+    }
 }
 
 /// One page of a table: the rows each column group holds and where it stands.
@@ -144,7 +193,11 @@ pub fn paginate(total: usize, width: f64, area: &Rect) -> Vec<TablePage> {
             gs.push((area.x + g as f64 * (width + TABLE_GAP), r..e));
             r = e;
         }
-        pages.push(TablePage { rows: first..end, groups: gs, top: area.y });
+        pages.push(TablePage {
+            rows: first..end,
+            groups: gs,
+            top: area.y,
+        });
         first = end;
         if first >= total {
             break;
@@ -159,10 +212,18 @@ mod tests {
 
     #[test]
     fn pagination_keeps_every_row_once() {
-        let area = Rect { x: 10.0, y: 20.0, w: 277.0, h: 150.0 };
+        let area = Rect {
+            x: 10.0,
+            y: 20.0,
+            w: 277.0,
+            h: 150.0,
+        };
         for total in [0usize, 1, 57, 58, 59, 1056] {
             let pages = paginate(total, 130.0, &area);
-            let rows: Vec<usize> = pages.iter().flat_map(|p| p.groups.iter().flat_map(|g| g.1.clone())).collect();
+            let rows: Vec<usize> = pages
+                .iter()
+                .flat_map(|p| p.groups.iter().flat_map(|g| g.1.clone()))
+                .collect();
             assert_eq!(rows, (0..total).collect::<Vec<_>>(), "total {total}");
         }
         // 150 mm: (150 − 9)/5 = 28 rows a group, two 130 mm groups across 277 mm.

@@ -68,7 +68,11 @@ pub const CSV_COLUMNS: [&str; 14] = [
 pub fn connections_csv(design: &Design, winding: &Winding) -> String {
     let mut out = String::with_capacity(64 * (winding.connections.len() + 1));
     record(&mut out, &CSV_COLUMNS.map(|c| Cell::Text(c.to_string())));
-    let job = design.job.id.clone().unwrap_or_else(|| design.file_name.clone());
+    let job = design
+        .job
+        .id
+        .clone()
+        .unwrap_or_else(|| design.file_name.clone());
     let seq = sequence_labels(winding);
     let n = |x: u32| Cell::Num(x.to_string());
     let opt = |x: Option<u32>| x.map_or(Cell::Text(String::new()), |x| Cell::Num(x.to_string()));
@@ -110,7 +114,10 @@ mod tests {
         assert_eq!(csv_text("+cmd"), "'+cmd");
         assert_eq!(csv_text("-2"), "'-2");
         assert_eq!(csv_text("@SUM(A1)"), "'@SUM(A1)");
-        assert_eq!(csv_text("=HYPERLINK(\"x\",\"y\")"), "\"'=HYPERLINK(\"\"x\"\",\"\"y\"\")\"");
+        assert_eq!(
+            csv_text("=HYPERLINK(\"x\",\"y\")"),
+            "\"'=HYPERLINK(\"\"x\"\",\"\"y\"\")\""
+        );
         assert_eq!(csv_text("two\nlines"), "\"two\nlines\"");
     }
 }

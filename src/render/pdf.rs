@@ -2,8 +2,8 @@
 //!
 //! Part of the `render` stage. Each SVG sheet is parsed by usvg, turned into a PDF form
 //! XObject by svg2pdf and placed on its own page with pdf-writer; the page is the SVG's size
-//! (mm → pt at 72/25.4). Text is embedded as text, in DejaVu Sans, which is compiled into the
-//! binary (Bitstream Vera licence, see `tests/fixtures/fonts/LICENSE-DejaVu.txt`) so that a
+//! (mm → pt at 72/25.4). Text is drawn as glyph outlines of DejaVu Sans, which is compiled into
+//! the binary (Bitstream Vera licence, see `tests/fixtures/fonts/LICENSE-DejaVu.txt`) so that a
 //! machine with no fonts still writes a complete PDF. No date or clock goes into the file.
 
 use std::collections::BTreeMap;
@@ -65,13 +65,24 @@ pub fn sheets_pdf(svgs: &[String]) -> Result<Vec<u8>, PdfError> {
     let mut pdf = Pdf::new();
     let mut page_ids = Vec::with_capacity(svgs.len());
     for (i, svg) in svgs.iter().enumerate() {
-        let err = |message: String| PdfError { sheet: i + 1, message };
+        let err = |message: String| PdfError {
+            sheet: i + 1,
+            message,
+        };
         let tree = usvg::Tree::from_str(svg, &opt).map_err(|e| err(e.to_string()))?;
-        let (chunk, svg_ref) =
-            svg2pdf::to_chunk(&tree, svg2pdf::ConversionOptions::default()).map_err(|e| err(e.to_string()))?;
+        // Text goes in as outlines: svg2pdf keeps its fonts and resource names in hash maps,
+        // and with embedded fonts (or any opacity, which the sheets never use) the object
+        // order would change from run to run. Outlines keep the file byte-identical.
+        let options = svg2pdf::ConversionOptions {
+            embed_text: false,
+            ..Default::default()
+        };
+        let (chunk, svg_ref) = svg2pdf::to_chunk(&tree, options).map_err(|e| err(e.to_string()))?;
         let mut map = BTreeMap::new();
         let chunk = chunk.renumber(|old| *map.entry(old).or_insert_with(|| alloc.bump()));
-        let svg_id = *map.get(&svg_ref).ok_or_else(|| err("the converted sheet has no root object".into()))?;
+        let svg_id = *map
+            .get(&svg_ref)
+            .ok_or_else(|| err("the converted sheet has no root object".into()))?;
         let page_id = alloc.bump();
         let content_id = alloc.bump();
         // usvg sizes are CSS px (96 per inch); PDF points are 72 per inch.
@@ -83,13 +94,18 @@ pub fn sheets_pdf(svgs: &[String]) -> Result<Vec<u8>, PdfError> {
         page.resources().x_objects().pair(Name(b"S1"), svg_id);
         page.finish();
         let mut content = Content::new();
-        content.transform([w, 0.0, 0.0, h, 0.0, 0.0]).x_object(Name(b"S1"));
+        content
+            .transform([w, 0.0, 0.0, h, 0.0, 0.0])
+            .x_object(Name(b"S1"));
         pdf.stream(content_id, &content.finish());
         pdf.extend(&chunk);
         page_ids.push(page_id);
     }
     pdf.catalog(catalog_id).pages(tree_id);
-    pdf.pages(tree_id).kids(page_ids.iter().copied()).count(page_ids.len() as i32);
-    pdf.document_info(alloc.bump()).producer(TextStr("armsheet"));
+    pdf.pages(tree_id)
+        .kids(page_ids.iter().copied())
+        .count(page_ids.len() as i32);
+    pdf.document_info(alloc.bump())
+        .producer(TextStr("armsheet"));
     Ok(pdf.finish())
 }

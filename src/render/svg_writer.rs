@@ -11,7 +11,11 @@ use super::number::fmt_fixed;
 /// Writes a coordinate or length: two decimals at most, trailing zeros dropped, never "-0".
 pub fn num(x: f64) -> String {
     let s = fmt_fixed(x, 2);
-    let s = if s.contains('.') { s.trim_end_matches('0').trim_end_matches('.').to_string() } else { s };
+    let s = if s.contains('.') {
+        s.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        s
+    };
     if s == "-0" { "0".to_string() } else { s }
 }
 
@@ -78,7 +82,10 @@ pub struct SvgWriter {
 impl SvgWriter {
     /// An empty writer.
     pub fn new() -> SvgWriter {
-        SvgWriter { out: String::with_capacity(64 * 1024), depth: 0 }
+        SvgWriter {
+            out: String::with_capacity(64 * 1024),
+            depth: 0,
+        }
     }
 
     fn indent(&mut self) {
@@ -136,7 +143,11 @@ impl SvgWriter {
 
     /// Writes `<text x y class>content</text>`.
     pub fn text(&mut self, x: f64, y: f64, class: &str, content: &str) {
-        self.text_elem("text", &[("x", x.into()), ("y", y.into()), ("class", class.into())], content);
+        self.text_elem(
+            "text",
+            &[("x", x.into()), ("y", y.into()), ("class", class.into())],
+            content,
+        );
     }
 
     /// Writes pre-formed markup (for the style sheet and the XML declaration).
@@ -179,10 +190,16 @@ mod tests {
 
     #[test]
     fn hostile_text_is_escaped() {
-        assert_eq!(escape("<script>alert('x')</script> & \"q\""), "&lt;script&gt;alert(&#39;x&#39;)&lt;/script&gt; &amp; &quot;q&quot;");
+        assert_eq!(
+            escape("<script>alert('x')</script> & \"q\""),
+            "&lt;script&gt;alert(&#39;x&#39;)&lt;/script&gt; &amp; &quot;q&quot;"
+        );
         assert_eq!(escape("a\u{0}b\u{7}c\nd"), "abc d");
         let mut w = SvgWriter::new();
         w.text(1.0, 2.0, "t", "<b>&");
-        assert_eq!(w.finish(), "<text x=\"1\" y=\"2\" class=\"t\">&lt;b&gt;&amp;</text>\n");
+        assert_eq!(
+            w.finish(),
+            "<text x=\"1\" y=\"2\" class=\"t\">&lt;b&gt;&amp;</text>\n"
+        );
     }
 }

@@ -1,0 +1,256 @@
+//! `armsheet sheet` (printable winding sheets, CSV, JSON, PDF) and `armsheet draw` (the
+//! developed diagram alone, for a screen).
+//!
+//! Part of the `cli` stage: it reads the design, runs the pure pipeline, renders every file in
+//! memory and only then writes them, each through a temporary name and a rename, so an error
+//! writes nothing and leaves earlier files intact. Exit codes are `check`'s.
+
+use std::path::{Path, PathBuf};
+
+use clap::Args;
+
+use super::load::load_design;
+use super::output::write_atomic;
+use crate::checks::has_errors;
+use crate::layout::{Paper, Window};
+use crate::render::json::report_json;
+use crate::render::sheet::{SheetInput, render_sheets};
+use crate::render::{csv, pdf, svg};
+
+/// How much of a large armature the diagram shows (`--window`).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum WindowArg {
+    /// `auto`: the whole armature up to 120 segments, else whole pole pairs within 120.
+    Auto,
+    /// `all`: the whole armature.
+    All,
+    /// A number of whole pole pairs.
+    Pairs(u32),
+}
+
+fn parse_window(s: &str) -> Result<WindowArg, String> {
+    match s {
+        "auto" => Ok(WindowArg::Auto),
+        "all" => Ok(WindowArg::All),
+        _ => match s.parse::<u32>() {
+            Ok(n) if n >= 1 => Ok(WindowArg::Pairs(n)),
+            _ => Err(format!(
+                "expected `auto`, `all` or a number of pole pairs (1, 2, …), found \"{s}\""
+            )),
+        },
+    }
+}
+
+fn parse_paper(s: &str) -> Result<Paper, String> {
+    s.parse()
+}
+
+/// Options shared by `sheet` and `draw` for the diagram window.
+#[derive(Debug, Args)]
+pub struct WindowArgs {
+    /// Diagram window: `auto`, `all`, or a number of whole pole pairs to show.
+    #[arg(long, default_value = "auto", value_parser = parse_window, value_name = "auto|all|PAIRS")]
+    pub window: WindowArg,
+    /// First slot at the left edge of a window (default 1).
+    #[arg(long, default_value_t = 1, value_name = "SLOT", value_parser = clap::value_parser!(u32).range(1..))]
+    pub window_start: u32,
+}
+
+impl WindowArgs {
+    fn window(&self) -> Window {
+        match self.window {
+            WindowArg::Auto if self.window_start == 1 => Window::Auto,
+            WindowArg::Auto => Window::PolePairs {
+                pairs: 1,
+                first_slot: self.window_start,
+            },
+            WindowArg::All => Window::Whole,
+            WindowArg::Pairs(pairs) => Window::PolePairs {
+                pairs,
+                first_slot: self.window_start,
+            },
+        }
+    }
+}
+
+/// Arguments of `sheet`.
+#[derive(Debug, Args)]
+pub struct SheetArgs {
+    /// The design file (TOML).
+    pub design: PathBuf,
+    /// Output folder; files go to DIR/<design-stem>/.
+    #[arg(short = 'o', long = "out", default_value = "out", value_name = "DIR")]
+    pub out: PathBuf,
+    /// Paper size (landscape).
+    #[arg(long, default_value = "a4", value_parser = parse_paper, value_name = "a4|a3|letter|tabloid")]
+    pub paper: Paper,
+    /// Also write sheets.pdf with every sheet, one page each.
+    #[arg(long)]
+    pub pdf: bool,
+    /// The diagram window.
+    #[command(flatten)]
+    pub window: WindowArgs,
+}
+
+/// Arguments of `draw`.
+#[derive(Debug, Args)]
+pub struct DrawArgs {
+    /// The design file (TOML).
+    pub design: PathBuf,
+    /// The SVG to write (default out/<design-stem>/diagram.svg).
+    #[arg(short = 'o', long = "out", value_name = "FILE.svg")]
+    pub out: Option<PathBuf>,
+    /// The diagram window.
+    #[command(flatten)]
+    pub window: WindowArgs,
+}
+
+pub(crate) const SHEET_HELP: &str = "\
+Writes into DIR/<design-stem>/: sheet-1.svg (developed diagram, title block, winding data,
+legend, caution), sheet-2.svg … (connection table with the winding sequence, then the
+equalizer table), connections.csv, report.json (the `check --json` object) and, with --pdf,
+sheets.pdf. Sheets are sized in mm and print at true scale. A design that fails a check is
+still drawn, under a NOT FOR WINDING band.
+Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or a file that cannot be written.";
+
+fn stem(path: &Path) -> String {
+    path.file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .filter(|s| !s.is_empty())
+        .unwrap_or_else(|| "design".into())
+}
+
+fn write_all(files: &[(PathBuf, Vec<u8>)]) -> u8 {
+    for (path, bytes) in files {
+        if let Err(e) = write_atomic(path, bytes) {
+            eprintln!(
+                "error: cannot write {}: {e}\n  = hint: check that the folder is writable",
+                path.display()
+            );
+            return 2;
+        }
+        println!("wrote {}", path.display());
+    }
+    0
+}
+
+fn make_dir(dir: &Path) -> bool {
+    match std::fs::create_dir_all(dir) {
+        Ok(()) => true,
+        Err(e) => {
+            eprintln!(
+                "error: cannot create the output folder {}: {e}\n  = hint: give another folder with -o DIR",
+                dir.display()
+            );
+            false
+        }
+    }
+}
+
+/// Runs `armsheet sheet`.
+pub fn sheet(a: &SheetArgs) -> u8 {
+    let checked = match load_design(&a.design) {
+        Ok(c) => c,
+        Err(code) => return code,
+    };
+    let failures: Vec<String> = checked
+        .findings
+        .iter()
+        .filter(|f| f.is_failure())
+        .map(|f| format!("{}: {}", f.id, f.message))
+        .collect();
+    let input = SheetInput {
+        design: &checked.design,
+        winding: &checked.winding,
+        paper: a.paper,
+        window: a.window.window(),
+        failures,
+        extra_rows: Vec::new(),
+        version: env!("CARGO_PKG_VERSION").to_string(),
+    };
+    let sheets = render_sheets(&input);
+    let dir = a.out.join(stem(&a.design));
+    let mut files: Vec<(PathBuf, Vec<u8>)> = Vec::new();
+    if a.pdf {
+        match pdf::sheets_pdf(&sheets) {
+            Ok(bytes) => files.push((dir.join("sheets.pdf"), bytes)),
+            Err(e) => {
+                eprintln!("error: {}: the PDF cannot be made: {e}", a.design.display());
+                return 2;
+            }
+        }
+    }
+    let count = sheets.len();
+    let mut all: Vec<(PathBuf, Vec<u8>)> = sheets
+        .into_iter()
+        .enumerate()
+        .map(|(i, s)| (dir.join(format!("sheet-{}.svg", i + 1)), s.into_bytes()))
+        .collect();
+    all.push((
+        dir.join("connections.csv"),
+        csv::connections_csv(&checked.design, &checked.winding).into_bytes(),
+    ));
+    all.push((
+        dir.join("report.json"),
+        report_json(&checked.report()).into_bytes(),
+    ));
+    all.append(&mut files);
+    if !make_dir(&dir) {
+        return 2;
+    }
+    let code = write_all(&all);
+    if code != 0 {
+        return code;
+    }
+    remove_stale_sheets(&dir, count);
+    u8::from(has_errors(&checked.findings))
+}
+
+/// Removes `sheet-K.svg` left by an earlier run with more sheets, so the folder holds one set.
+fn remove_stale_sheets(dir: &Path, count: usize) {
+    let Ok(entries) = std::fs::read_dir(dir) else {
+        return;
+    };
+    let mut stale: Vec<PathBuf> = entries
+        .filter_map(Result::ok)
+        .map(|e| e.path())
+        .filter(|p| {
+            p.file_name()
+                .and_then(|n| n.to_str())
+                .and_then(|n| n.strip_prefix("sheet-"))
+                .and_then(|n| n.strip_suffix(".svg"))
+                .and_then(|n| n.parse::<usize>().ok())
+                .is_some_and(|k| k > count)
+        })
+        .collect();
+    stale.sort();
+    for p in stale {
+        if std::fs::remove_file(&p).is_ok() {
+            println!("removed stale {}", p.display());
+        }
+    }
+}
+
+/// Runs `armsheet draw`.
+pub fn draw(a: &DrawArgs) -> u8 {
+    let checked = match load_design(&a.design) {
+        Ok(c) => c,
+        Err(code) => return code,
+    };
+    let svg = svg::render_draw(&checked.design, &checked.winding, a.window.window());
+    let path = a.out.clone().unwrap_or_else(|| {
+        PathBuf::from("out")
+            .join(stem(&a.design))
+            .join("diagram.svg")
+    });
+    if let Some(dir) = path.parent().filter(|p| !p.as_os_str().is_empty())
+        && !make_dir(dir)
+    {
+        return 2;
+    }
+    let code = write_all(&[(path, svg.into_bytes())]);
+    if code != 0 {
+        return code;
+    }
+    u8::from(has_errors(&checked.findings))
+}

@@ -1,0 +1,101 @@
+//! Every sheet is parsed and rendered by an independent SVG library (usvg/resvg): the page is
+//! the paper's size, the rendering is not blank and its text found a font.
+//! Set SHEET_PNG_DIR to also write the renderings as PNG for a look by eye.
+
+mod sheet_support;
+
+use armsheet::layout::{Paper, Window};
+use sheet_support::*;
+
+fn check_design(name: &str, text: &str, paper: Paper) -> usize {
+    let (d, w) = load(name, text);
+    let sheets = sheets_for(&d, &w, paper, Window::Auto);
+    let (pw, ph) = paper.size_mm();
+    for (i, svg) in sheets.iter().enumerate() {
+        let tree = parse(svg);
+        // usvg gives CSS px at 96 per inch; 1 mm = 96/25.4 px.
+        let px = 96.0 / 25.4;
+        assert!(
+            (f64::from(tree.size().width()) - pw * px).abs() < 0.01,
+            "{name} sheet {} width",
+            i + 1
+        );
+        assert!(
+            (f64::from(tree.size().height()) - ph * px).abs() < 0.01,
+            "{name} sheet {} height",
+            i + 1
+        );
+        assert!(svg.contains(&format!("viewBox=\"0 0 {} {}\"", fmt(pw), fmt(ph))));
+        let pm = render(&tree, 1.0);
+        let ink = ink(&pm);
+        assert!(ink > 0.01 && ink < 0.6, "{name} sheet {}: ink {ink}", i + 1);
+        let texts = text_with_glyphs(&tree);
+        assert!(
+            texts > 20,
+            "{name} sheet {}: only {texts} text nodes found a font",
+            i + 1
+        );
+        if let Ok(dir) = std::env::var("SHEET_PNG_DIR") {
+            std::fs::create_dir_all(&dir).unwrap();
+            let stem = name.trim_end_matches(".toml").rsplit('/').next().unwrap();
+            let hi = render(&tree, 6.0);
+            hi.save_png(format!("{dir}/{stem}-{}-{}.png", paper.as_str(), i + 1))
+                .unwrap();
+        }
+    }
+    sheets.len()
+}
+
+fn fmt(x: f64) -> String {
+    let s = format!("{x:.2}");
+    s.trim_end_matches('0').trim_end_matches('.').to_string()
+}
+
+#[test]
+fn fixture_sheets_render_on_every_paper() {
+    for paper in Paper::ALL {
+        assert_eq!(
+            check_design("sheet_lap.toml", &fixture("sheet_lap.toml"), paper),
+            3,
+            "{paper}"
+        );
+        assert_eq!(
+            check_design(
+                "sheet_wave_dummy.toml",
+                &fixture("sheet_wave_dummy.toml"),
+                paper
+            ),
+            2,
+            "{paper}"
+        );
+    }
+}
+
+#[test]
+fn demo_sheets_render() {
+    let dir = concat!(env!("CARGO_MANIFEST_DIR"), "/designs");
+    let Ok(entries) = std::fs::read_dir(dir) else {
+        return;
+    };
+    let mut names: Vec<_> = entries
+        .filter_map(Result::ok)
+        .map(|e| e.path())
+        .filter(|p| p.extension().is_some_and(|e| e == "toml"))
+        .collect();
+    names.sort();
+    assert!(!names.is_empty());
+    for p in names {
+        let text = std::fs::read_to_string(&p).unwrap();
+        let n = check_design(&p.display().to_string(), &text, Paper::A4);
+        assert!(n >= 2);
+    }
+    // The hostile fixture too (it fails checks and carries the band).
+    assert_eq!(
+        check_design(
+            "sheet_hostile.toml",
+            &fixture("sheet_hostile.toml"),
+            Paper::A4
+        ),
+        2
+    );
+}

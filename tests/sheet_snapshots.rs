@@ -1,0 +1,34 @@
+//! Snapshots of sheet 1 (developed diagram, title and data blocks) for two small fixtures:
+//! a simplex lap with equalizers and a simplex wave with a dummy coil.
+
+mod sheet_support;
+
+use armsheet::layout::{Paper, Window};
+use sheet_support::*;
+
+#[test]
+fn lap_sheet_1() {
+    let (d, w) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
+    insta::assert_snapshot!(
+        "lap_sheet_1",
+        sheets_for(&d, &w, Paper::A4, Window::Auto)[0]
+    );
+}
+
+#[test]
+fn wave_dummy_sheet_1() {
+    let (d, w) = load("sheet_wave_dummy.toml", &fixture("sheet_wave_dummy.toml"));
+    insta::assert_snapshot!(
+        "wave_dummy_sheet_1",
+        sheets_for(&d, &w, Paper::A4, Window::Auto)[0]
+    );
+}
+
+#[test]
+fn wave_dummy_draw() {
+    let (d, w) = load("sheet_wave_dummy.toml", &fixture("sheet_wave_dummy.toml"));
+    let svg = armsheet::render::svg::render_draw(&d, &w, Window::Auto);
+    assert!(!svg.contains("title-block"));
+    assert!(svg.contains("width=\"1120px\""));
+    insta::assert_snapshot!("wave_dummy_draw", svg);
+}

@@ -1,0 +1,117 @@
+//! Helpers shared by the sheet tests: build sheets from a fixture design, and render SVG with
+//! an independent SVG library (usvg/resvg) using the DejaVu fonts shipped as test fixtures, so
+//! the tests do not depend on the fonts of the machine.
+#![allow(dead_code)]
+
+use std::sync::Arc;
+
+use armsheet::checks::run_checks;
+use armsheet::design::{Design, parse_design};
+use armsheet::layout::{Paper, Window};
+use armsheet::render::sheet::{SheetInput, render_sheets};
+use armsheet::winding::{Winding, trace_winding};
+
+pub const FIXTURES: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures");
+
+pub fn fixture(name: &str) -> String {
+    std::fs::read_to_string(format!("{FIXTURES}/{name}")).unwrap()
+}
+
+pub fn load(name: &str, text: &str) -> (Design, Winding) {
+    let d = parse_design(text, name).unwrap();
+    let w = trace_winding(&d).unwrap();
+    (d, w)
+}
+
+pub fn sheets_for(d: &Design, w: &Winding, paper: Paper, window: Window) -> Vec<String> {
+    let failures = run_checks(d, w)
+        .iter()
+        .filter(|f| f.is_failure())
+        .map(|f| f.id.clone())
+        .collect();
+    let input = SheetInput {
+        design: d,
+        winding: w,
+        paper,
+        window,
+        failures,
+        extra_rows: Vec::new(),
+        version: "test".into(),
+    };
+    render_sheets(&input)
+}
+
+/// usvg options with only the fixture fonts, every generic family mapped to DejaVu Sans.
+pub fn usvg_options() -> resvg::usvg::Options<'static> {
+    let mut db = resvg::usvg::fontdb::Database::new();
+    for f in ["DejaVuSans.ttf", "DejaVuSans-Bold.ttf"] {
+        db.load_font_data(std::fs::read(format!("{FIXTURES}/fonts/{f}")).unwrap());
+    }
+    db.set_sans_serif_family("DejaVu Sans");
+    db.set_serif_family("DejaVu Sans");
+    resvg::usvg::Options {
+        fontdb: Arc::new(db),
+        ..Default::default()
+    }
+}
+
+pub fn parse(svg: &str) -> resvg::usvg::Tree {
+    resvg::usvg::Tree::from_str(svg, &usvg_options()).expect("the SVG parses")
+}
+
+/// Renders at `px_per_mm` pixels per millimetre of paper (the trees are in CSS px, 96/in).
+pub fn render(tree: &resvg::usvg::Tree, px_per_mm: f32) -> resvg::tiny_skia::Pixmap {
+    let s = px_per_mm * 25.4 / 96.0;
+    let size = tree.size();
+    let mut pm = resvg::tiny_skia::Pixmap::new(
+        (size.width() * s).ceil() as u32,
+        (size.height() * s).ceil() as u32,
+    )
+    .unwrap();
+    resvg::render(
+        tree,
+        resvg::tiny_skia::Transform::from_scale(s, s),
+        &mut pm.as_mut(),
+    );
+    pm
+}
+
+/// Fraction of pixels that are not (near) white.
+pub fn ink(pm: &resvg::tiny_skia::Pixmap) -> f64 {
+    let data = pm.data();
+    let n = data.len() / 4;
+    let inked = data
+        .chunks_exact(4)
+        .filter(|p| p[3] > 0 && (p[0] < 200 || p[1] < 200 || p[2] < 200))
+        .count();
+    inked as f64 / n as f64
+}
+
+/// Number of text nodes whose glyphs resolved to outlines (a text that found no font has none).
+pub fn text_with_glyphs(tree: &resvg::usvg::Tree) -> usize {
+    fn walk(g: &resvg::usvg::Group, n: &mut usize) {
+        for node in g.children() {
+            match node {
+                resvg::usvg::Node::Group(g) => walk(g, n),
+                resvg::usvg::Node::Text(t) if !t.flattened().children().is_empty() => *n += 1,
+                _ => {}
+            }
+        }
+    }
+    let mut n = 0;
+    walk(tree.root(), &mut n);
+    n
+}
+
+/// All values of attribute `name` on elements whose start tag contains `marker`.
+pub fn attr_values(svg: &str, marker: &str, name: &str) -> Vec<String> {
+    let needle = format!(" {name}=\"");
+    svg.lines()
+        .filter(|l| l.contains(marker))
+        .filter_map(|l| {
+            let i = l.find(&needle)? + needle.len();
+            let j = l[i..].find('"')? + i;
+            Some(l[i..j].to_string())
+        })
+        .collect()
+}
