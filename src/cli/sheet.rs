@@ -165,7 +165,8 @@ pub fn sheet(a: &SheetArgs) -> u8 {
         paper: a.paper,
         window: a.window.window(),
         failures,
-        extra_rows: Vec::new(),
+        extra_rows: crate::rating::rate(&checked.design, &checked.winding)
+            .map_or_else(Vec::new, |r| crate::rating::sheet_rows(&r)),
         version: env!("CARGO_PKG_VERSION").to_string(),
     };
     let sheets = render_sheets(&input);

@@ -1,0 +1,36 @@
+//! The rating rows reach the winding sheet's data block.
+
+use std::process::Command;
+
+#[test]
+fn pump_sheet_carries_the_rating_rows() {
+    let dir = std::env::temp_dir().join(format!("armsheet-rating-sheet-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    let o = Command::new(env!("CARGO_BIN_EXE_armsheet"))
+        .current_dir(env!("CARGO_MANIFEST_DIR"))
+        .args([
+            "sheet",
+            "designs/pump-wave.toml",
+            "-o",
+            &dir.display().to_string(),
+        ])
+        .output()
+        .unwrap();
+    assert_eq!(
+        o.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&o.stderr)
+    );
+    let svg = std::fs::read_to_string(dir.join("pump-wave/sheet-1.svg")).unwrap();
+    for text in [
+        ">R_a at 95 C<",
+        ">0.1643 ohm<",
+        ">test 1 min, new<",
+        ">1500 V (IEC 60034-1)<",
+        ">all within limits<",
+    ] {
+        assert!(svg.contains(text), "missing {text}");
+    }
+    let _ = std::fs::remove_dir_all(&dir);
+}
