@@ -245,11 +245,15 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
     let exact_turns = x * f64::from(a1) / (2.0 * f64::from(c1));
     let turns = exact_turns.round();
     if turns < 1.0 {
+        let fewer_paths = match (kind, m) {
+            (WindingType::Lap, _) => "a connection with fewer paths (wave instead of lap), ",
+            (WindingType::Wave, 2..) => "a lower multiplicity, ",
+            (WindingType::Wave, _) => "",
+        };
         return err(format!(
-            "the turns per coil round to zero ({} exact on {} with {} segments): use a connection with fewer paths (wave instead of lap), a lower speed or a higher voltage",
+            "the turns per coil round to zero ({} exact on {}): the voltage is too low for this many coils; use {fewer_paths}a lower speed, a higher voltage, or an armature with fewer coils",
             fmt_fixed(exact_turns, 3),
             conn.label(),
-            c1
         ));
     }
     if turns > bounds::MAX_TURNS as f64 {
