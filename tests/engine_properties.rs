@@ -182,7 +182,7 @@ proptest! {
         Just("\"x\"".to_string()), Just("1.5".to_string()), Just("[]".to_string()), Just("inf".to_string()),
         Just("nan".to_string()), Just("\"1-1\"".to_string()), (1i64..500).prop_map(|n| n.to_string()),
     ]) {
-        let mut fields = vec![("poles", "6".to_string()), ("slots", "36".to_string()), ("coils_per_slot", "1".to_string()),
+        let mut fields = [("poles", "6".to_string()), ("slots", "36".to_string()), ("coils_per_slot", "1".to_string()),
             ("segments", "35".to_string()), ("span", "6".to_string()), ("turns", "3".to_string())];
         fields[key].1 = value;
         let arm: String = fields[..4].iter().map(|(k, v)| format!("{k} = {v}\n")).collect();
