@@ -41,9 +41,46 @@ fn check_design(name: &str, text: &str, paper: Paper) -> usize {
             let hi = render(&tree, 6.0);
             hi.save_png(format!("{dir}/{stem}-{}-{}.png", paper.as_str(), i + 1))
                 .unwrap();
+            if i == 0 {
+                let crop_px = crop(&tree, 14.0, (0.0, 0.0, 0.33 * pw as f32, 0.5 * ph as f32));
+                crop_px
+                    .save_png(format!("{dir}/{stem}-{}-crop.png", paper.as_str()))
+                    .unwrap();
+                grey(&hi)
+                    .save_png(format!("{dir}/{stem}-{}-grey.png", paper.as_str()))
+                    .unwrap();
+            }
         }
     }
     sheets.len()
+}
+
+/// Renders the region (x, y, w, h) in mm at `px_per_mm`.
+fn crop(
+    tree: &resvg::usvg::Tree,
+    px_per_mm: f32,
+    r: (f32, f32, f32, f32),
+) -> resvg::tiny_skia::Pixmap {
+    let s = px_per_mm * 25.4 / 96.0;
+    let mm = 96.0 / 25.4;
+    let mut pm =
+        resvg::tiny_skia::Pixmap::new((r.2 * px_per_mm) as u32, (r.3 * px_per_mm) as u32).unwrap();
+    let t = resvg::tiny_skia::Transform::from_translate(-r.0 * mm, -r.1 * mm).post_scale(s, s);
+    resvg::render(tree, t, &mut pm.as_mut());
+    pm
+}
+
+/// A greyscale copy (luma, Rec. 601 weights), as a monochrome printer would give.
+fn grey(pm: &resvg::tiny_skia::Pixmap) -> resvg::tiny_skia::Pixmap {
+    let mut out = pm.clone();
+    for px in out.data_mut().chunks_exact_mut(4) {
+        let l =
+            (0.299 * f32::from(px[0]) + 0.587 * f32::from(px[1]) + 0.114 * f32::from(px[2])) as u8;
+        px[0] = l;
+        px[1] = l;
+        px[2] = l;
+    }
+    out
 }
 
 fn fmt(x: f64) -> String {

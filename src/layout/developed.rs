@@ -371,6 +371,7 @@ pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOpt
         .collect();
 
     space_edge_labels(&mut coils, EDGE_LABEL_GAP);
+    thin_tags(&mut coils, label_size * 1.1);
     let seg_w = segment_pitch * 0.84;
     let segments = (1..=winding.active_coils)
         .filter_map(|seg| {
@@ -601,6 +602,25 @@ fn space_edge_labels(coils: &mut [CoilDrawing], gap: f64) {
             } else {
                 cut.label.clear();
             }
+        }
+    }
+}
+
+/// Drops path tags that would overlap a tag already placed to their left (coils of one slot
+/// share an apex); the colour and dash pattern still name the path.
+fn thin_tags(coils: &mut [CoilDrawing], gap: f64) {
+    let mut order: Vec<(f64, usize)> = coils
+        .iter()
+        .enumerate()
+        .filter_map(|(i, c)| c.tag.map(|t| (t.0, i)))
+        .collect();
+    order.sort_by(|a, b| a.0.total_cmp(&b.0).then(a.1.cmp(&b.1)));
+    let mut last = f64::NEG_INFINITY;
+    for (x, i) in order {
+        if x - last < gap {
+            coils[i].tag = None;
+        } else {
+            last = x;
         }
     }
 }

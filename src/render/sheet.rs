@@ -283,8 +283,14 @@ fn fit_size(s: &str, size: f64, width: f64) -> f64 {
 
 /// Writes `s` shrunk (down to 80 %) and then cut to fit `width`.
 fn text_fit(w: &mut SvgWriter, x: f64, y: f64, size: f64, width: f64, class: &str, s: &str) {
-    let sz = fit_size(s, size, width);
-    text(w, x, y, sz, class, &fit(s, sz, width));
+    // Bold runs about a tenth wider than the estimate for regular type.
+    let room = if class.split(' ').any(|c| c == "b") {
+        width / 1.12
+    } else {
+        width
+    };
+    let sz = fit_size(s, size, room);
+    text(w, x, y, sz, class, &fit(s, sz, room));
 }
 
 /// Cuts `s` to fit `width` mm at `size`, with an ellipsis.
@@ -561,11 +567,12 @@ fn legend_block(w: &mut SvgWriter, input: &SheetInput<'_>, r: &Rect, whole: bool
             size,
             "",
             &format!(
-                "path {}: brush {} to brush {}, {} coils",
+                "path {}: brush {} to brush {}, {} coil{}",
                 p.index,
                 p.from_brush,
                 p.to_brush,
-                p.coils.len()
+                p.coils.len(),
+                if p.coils.len() == 1 { "" } else { "s" }
             ),
         );
         y += line_h;
@@ -601,7 +608,7 @@ fn legend_block(w: &mut SvgWriter, input: &SheetInput<'_>, r: &Rect, whole: bool
         y,
         size,
         "",
-        "grey: shorted by a brush now (no current)",
+        "grey, tag sc: shorted by a brush now (no current)",
     );
     y += line_h;
     if !input.winding.dummy_coils.is_empty() {

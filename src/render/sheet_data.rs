@@ -66,9 +66,9 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
     );
     row("turns per coil", d.turns.to_string());
     row("lead offset", format!("{} seg", d.lead_offset));
-    row("comm. pitch y_c", signed(w.pitches.commutator));
+    row("comm. pitch", signed(w.pitches.commutator));
     row(
-        "back / front y_b, y_f",
+        "back / front",
         format!("{} / {}", w.pitches.back, w.pitches.front),
     );
     row("parallel paths", w.parallel_paths().to_string());
@@ -80,7 +80,7 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
         EqualizerPlan::NotNeeded => "not needed".to_string(),
         EqualizerPlan::Impossible(_) => "not possible".to_string(),
         EqualizerPlan::Possible(e) => {
-            format!("pitch {}, {} of {}", e.pitch, e.groups.len(), e.possible)
+            format!("{}/{}, pitch {}", e.groups.len(), e.possible, e.pitch)
         }
     };
     row("equalizers", eq);
@@ -97,7 +97,7 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
                 strands,
             } => {
                 let g = awg.map(|a| format!(" (AWG {a})")).unwrap_or_default();
-                format!("\u{d8}{} mm{g} \u{d7}{strands}", fmt_fixed(diameter_mm, 3))
+                format!("\u{d8}{} \u{d7}{strands}{g}", fmt_fixed(diameter_mm, 3))
             }
             ConductorShape::Rectangular {
                 width_mm,
@@ -106,13 +106,13 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
                 ..
             } => {
                 format!(
-                    "{}\u{d7}{} mm \u{d7}{strands}",
+                    "{}\u{d7}{} \u{d7}{strands}",
                     fmt_fixed(width_mm, 2),
                     fmt_fixed(height_mm, 2)
                 )
             }
         };
-        row("conductor", v);
+        row("conductor, mm", v);
     }
     rows
 }

@@ -42,7 +42,7 @@ pub fn style_sheet() -> String {
 .segbox{fill:#f4efe2;stroke:#3a3a3a;stroke-width:0.2}\
 .brushbox{stroke:#111;stroke-width:0.3}.brush-pos{fill:#111}.brush-neg{fill:#fff}\
 .eqline{fill:none;stroke:#6b4b2a;stroke-width:0.35}.eqtap{fill:none;stroke:#6b4b2a;stroke-width:0.2}.eqdot{fill:#6b4b2a}\
-.cutdot{fill:#111}.arrow-head{stroke:none}.mark{fill:none;stroke:#111;stroke-width:0.3}\
+.cutdot{fill:#111;stroke:none}.arrow-head{stroke:none}.mark{fill:none;stroke:#111;stroke-width:0.3}\
 .frame{fill:none;stroke:#111;stroke-width:0.5}.rule{fill:none;stroke:#111;stroke-width:0.25}\
 .thin{fill:none;stroke:#999;stroke-width:0.15}\
 .band{fill:#111}.band-text{fill:#fff;font-weight:bold}\
@@ -263,7 +263,7 @@ pub fn write_diagram(w: &mut SvgWriter, d: &Diagram, x: f64, y: f64) {
     } else {
         slot_font
     };
-    for &(slot, sx) in &d.slots {
+    for &(_, sx) in &d.slots {
         rect(
             w,
             sx - d.slot_pitch * 0.4,
@@ -271,17 +271,6 @@ pub fn write_diagram(w: &mut SvgWriter, d: &Diagram, x: f64, y: f64) {
             d.slot_pitch * 0.8,
             b.core.1 - b.core.0,
             "slot",
-        );
-        w.text_elem(
-            "text",
-            &[
-                ("x", sx.into()),
-                ("y", b.slot_labels.into()),
-                ("font-size", slot_font.into()),
-                ("class", "mid halo".into()),
-                ("data-slot", slot.into()),
-            ],
-            &slot.to_string(),
         );
     }
     w.close("g");
@@ -400,7 +389,7 @@ pub fn write_diagram(w: &mut SvgWriter, d: &Diagram, x: f64, y: f64) {
             let (text, cls) = if c.dummy {
                 ("dead".to_string(), "mid halo".to_string())
             } else if c.path == 0 {
-                (String::new(), String::new())
+                ("sc".to_string(), "mid halo".to_string())
             } else {
                 (c.path.to_string(), format!("mid halo b f{k}"))
             };
@@ -447,6 +436,23 @@ pub fn write_diagram(w: &mut SvgWriter, d: &Diagram, x: f64, y: f64) {
             );
         }
         w.close("g");
+    }
+    w.close("g");
+
+    // Slot numbers, on top of the coil sides.
+    w.open("g", &[("id", "slot-numbers".into())]);
+    for &(slot, sx) in &d.slots {
+        w.text_elem(
+            "text",
+            &[
+                ("x", sx.into()),
+                ("y", b.slot_labels.into()),
+                ("font-size", slot_font.into()),
+                ("class", "mid halo b".into()),
+                ("data-slot", slot.into()),
+            ],
+            &slot.to_string(),
+        );
     }
     w.close("g");
 
