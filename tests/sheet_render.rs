@@ -109,6 +109,25 @@ fn fixture_sheets_render_on_every_paper() {
 }
 
 #[test]
+fn the_screen_diagram_renders() {
+    for name in ["sheet_lap.toml", "sheet_wave_dummy.toml"] {
+        let (d, w) = load(name, &fixture(name));
+        let svg = armsheet::render::svg::render_draw(&d, &w, Window::Auto);
+        let tree = parse(&svg);
+        let pm = render(&tree, 1.0);
+        let ink = ink(&pm);
+        assert!(ink > 0.01 && ink < 0.6, "{name}: ink {ink}");
+        assert!(text_with_glyphs(&tree) > 20, "{name}");
+        if let Ok(dir) = std::env::var("SHEET_PNG_DIR") {
+            std::fs::create_dir_all(&dir).unwrap();
+            render(&tree, 5.0)
+                .save_png(format!("{dir}/draw-{name}.png"))
+                .unwrap();
+        }
+    }
+}
+
+#[test]
 fn demo_sheets_render() {
     let dir = concat!(env!("CARGO_MANIFEST_DIR"), "/designs");
     let Ok(entries) = std::fs::read_dir(dir) else {

@@ -51,7 +51,7 @@ pub struct WindowArgs {
     /// Diagram window: `auto`, `all`, or a number of whole pole pairs to show.
     #[arg(long, default_value = "auto", value_parser = parse_window, value_name = "auto|all|PAIRS")]
     pub window: WindowArg,
-    /// First slot at the left edge of a window (default 1).
+    /// First slot at the left edge of a window.
     #[arg(long, default_value_t = 1, value_name = "SLOT", value_parser = clap::value_parser!(u32).range(1..))]
     pub window_start: u32,
 }
