@@ -155,3 +155,26 @@ fn demo_sheets_render() {
         2
     );
 }
+
+/// The connection table's type is at least 2.5 mm in cap height (the floor for A4):
+/// measured on the outline of "H" in the shipped DejaVu Sans.
+#[test]
+fn table_type_has_a_cap_height_of_at_least_2_5_mm() {
+    let size = armsheet::layout::sheet::TABLE_FONT;
+    let svg = format!(
+        "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"20mm\" height=\"20mm\" viewBox=\"0 0 20 20\"><text x=\"2\" y=\"10\" font-size=\"{size}\" font-family=\"DejaVu Sans\">H</text></svg>"
+    );
+    let tree = parse(&svg);
+    fn first_text(g: &resvg::usvg::Group) -> Option<&resvg::usvg::Text> {
+        g.children().iter().find_map(|n| match n {
+            resvg::usvg::Node::Text(t) => Some(&**t),
+            resvg::usvg::Node::Group(g) => first_text(g),
+            _ => None,
+        })
+    }
+    let t = first_text(tree.root()).expect("a text node");
+    // The glyph outlines, in user units, which the viewBox makes millimetres.
+    let cap_mm = f64::from(t.flattened().abs_bounding_box().height());
+    assert!(cap_mm >= 2.5, "cap height {cap_mm:.3} mm");
+    assert!(cap_mm < 2.7, "cap height {cap_mm:.3} mm");
+}
