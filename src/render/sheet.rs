@@ -705,24 +705,18 @@ fn notes_block(w: &mut SvgWriter, r: &Rect) {
 fn table_head(w: &mut SvgWriter, cols: &[Column], x: f64, y: f64) -> f64 {
     let total: f64 = cols.iter().map(|c| c.width).sum();
     let mut cx = x;
-    for c in cols {
-        text(
-            w,
-            cx + c.width - 1.5,
-            y + 3.6,
-            TABLE_FONT * 0.86,
-            "b end",
-            c.head[0],
-        );
+    for (i, c) in cols.iter().enumerate() {
+        // Numbers are right-aligned under their heads; the equalizer list (a second column
+        // wider than any number) reads from the left.
+        let left = i > 0 && c.width > 40.0;
+        let (hx, cls) = if left {
+            (cx + 3.0, "b")
+        } else {
+            (cx + c.width - 1.5, "b end")
+        };
+        text(w, hx, y + 3.6, TABLE_FONT * 0.86, cls, c.head[0]);
         if !c.head[1].is_empty() {
-            text(
-                w,
-                cx + c.width - 1.5,
-                y + 7.3,
-                TABLE_FONT * 0.86,
-                "b end",
-                c.head[1],
-            );
+            text(w, hx, y + 7.3, TABLE_FONT * 0.86, cls, c.head[1]);
         }
         cx += c.width;
     }
