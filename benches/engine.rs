@@ -48,6 +48,10 @@ fn check_json_largest_demo(bencher: divan::Bencher) {
         let d = parse_design(divan::black_box(&text), "designs/mill-lap-12p.toml").unwrap();
         let w = trace_winding(&d).unwrap();
         let f = run_checks(&d, &w);
-        report_json(&Report { design: &d, winding: &w, findings: &f })
+        report_json(&Report {
+            design: &d,
+            winding: &w,
+            findings: &f,
+        })
     });
 }

@@ -18,7 +18,10 @@ fn every_broken_file_gets_its_expected_message() {
     assert!(names.len() >= 20, "the corpus has {} files", names.len());
     let mut failures = Vec::new();
     for path in names {
-        let rel = format!("tests/broken/{}", path.file_name().unwrap().to_string_lossy());
+        let rel = format!(
+            "tests/broken/{}",
+            path.file_name().unwrap().to_string_lossy()
+        );
         let out = Command::new(env!("CARGO_BIN_EXE_armsheet"))
             .current_dir(env!("CARGO_MANIFEST_DIR"))
             .args(["check", &rel])
@@ -37,7 +40,9 @@ fn every_broken_file_gets_its_expected_message() {
             failures.push(format!("{rel}: wrote to stdout"));
         }
         if stderr != expected {
-            failures.push(format!("{rel}: stderr differs\n--- expected\n{expected}--- got\n{stderr}"));
+            failures.push(format!(
+                "{rel}: stderr differs\n--- expected\n{expected}--- got\n{stderr}"
+            ));
         }
     }
     assert!(failures.is_empty(), "{}", failures.join("\n"));

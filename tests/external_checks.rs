@@ -9,7 +9,15 @@ fn wind(toml: &str) -> Winding {
     trace_winding(&d).unwrap()
 }
 
-fn design(poles: u32, slots: u32, kind: &str, m: u32, span: u32, turns: u32, extra: &str) -> String {
+fn design(
+    poles: u32,
+    slots: u32,
+    kind: &str,
+    m: u32,
+    span: u32,
+    turns: u32,
+    extra: &str,
+) -> String {
     format!(
         "[armature]\npoles = {poles}\nslots = {slots}\n\n[winding]\ntype = \"{kind}\"\nmultiplicity = {m}\nspan = {span}\nturns = {turns}\n{extra}"
     )
@@ -21,7 +29,10 @@ fn design(poles: u32, slots: u32, kind: &str, m: u32, span: u32, turns: u32, ext
 #[test]
 fn lap_two_poles_six_coils() {
     let w = wind(&design(2, 6, "lap", 1, 3, 1, ""));
-    assert_eq!((w.pitches.back, w.pitches.front, w.pitches.commutator), (7, 5, 1));
+    assert_eq!(
+        (w.pitches.back, w.pitches.front, w.pitches.commutator),
+        (7, 5, 1)
+    );
     assert_eq!(w.parallel_paths(), 2);
 }
 
@@ -31,8 +42,14 @@ fn lap_two_poles_six_coils() {
 #[test]
 fn wave_four_poles_25_coils() {
     let w = wind(&design(4, 25, "wave", 1, 6, 1, ""));
-    assert_eq!((w.pitches.back, w.pitches.front, w.pitches.commutator), (13, 13, 13));
-    assert_eq!((w.active_coils, w.parallel_paths(), w.reentrancy()), (25, 2, 1));
+    assert_eq!(
+        (w.pitches.back, w.pitches.front, w.pitches.commutator),
+        (13, 13, 13)
+    );
+    assert_eq!(
+        (w.active_coils, w.parallel_paths(), w.reentrancy()),
+        (25, 2, 1)
+    );
 }
 
 /// 4 poles, 12 slots, duplex lap: y_b = 7, y_f = 3, two closed windings.
@@ -40,7 +57,10 @@ fn wave_four_poles_25_coils() {
 #[test]
 fn duplex_lap_four_poles_12_slots() {
     let w = wind(&design(4, 12, "lap", 2, 3, 1, ""));
-    assert_eq!((w.pitches.back, w.pitches.front, w.pitches.commutator), (7, 3, 2));
+    assert_eq!(
+        (w.pitches.back, w.pitches.front, w.pitches.commutator),
+        (7, 3, 2)
+    );
     assert_eq!(w.reentrancy(), 2);
     assert_eq!(w.parallel_paths(), 8, "a = m·P");
 }
@@ -53,7 +73,10 @@ fn wave_six_poles_36_slots_needs_one_dummy() {
     let w = wind(&design(6, 36, "wave", 1, 6, 1, ""));
     assert_eq!(w.active_coils, 35);
     assert_eq!(w.dummy_coils, vec![36]);
-    assert_eq!((w.pitches.commutator, w.pitches.back, w.pitches.front), (12, 13, 11));
+    assert_eq!(
+        (w.pitches.commutator, w.pitches.back, w.pitches.front),
+        (12, 13, 11)
+    );
 }
 
 /// 6 poles, Z = 664, wave, Φ = 0.06 Wb, 250 rpm: E = 498 V.
@@ -62,7 +85,15 @@ fn wave_six_poles_36_slots_needs_one_dummy() {
 /// 83 coils of 4 turns give Z = 2·83·4 = 664, and (83 + 1)/3 = 28 is a whole commutator pitch.
 #[test]
 fn emf_six_pole_wave_664_conductors() {
-    let w = wind(&design(6, 83, "wave", 1, 14, 4, "flux_per_pole_mwb = 60\nspeed_rpm = 250\n"));
+    let w = wind(&design(
+        6,
+        83,
+        "wave",
+        1,
+        14,
+        4,
+        "flux_per_pole_mwb = 60\nspeed_rpm = 250\n",
+    ));
     assert_eq!(w.conductors, 664);
     assert_eq!(w.parallel_paths(), 2);
     let e = w.constants.emf_v.unwrap();
@@ -75,11 +106,22 @@ fn emf_six_pole_wave_664_conductors() {
 #[test]
 fn torque_constant_four_pole_wave_500_conductors() {
     // 125 coils of 2 turns: Z = 500; (125 + 1)/2 = 63.
-    let w = wind(&design(4, 125, "wave", 1, 31, 2, "flux_per_pole_mwb = 20\n"));
+    let w = wind(&design(
+        4,
+        125,
+        "wave",
+        1,
+        31,
+        2,
+        "flux_per_pole_mwb = 20\n",
+    ));
     assert_eq!((w.conductors, w.parallel_paths()), (500, 2));
     let kt = w.constants.torque_constant_nm_per_a.unwrap();
     assert!((kt * 10.0 - 31.83).abs() < 0.005, "T = {}", kt * 10.0);
-    assert_eq!(w.constants.emf_constant_v_per_rad_s, w.constants.torque_constant_nm_per_a);
+    assert_eq!(
+        w.constants.emf_constant_v_per_rad_s,
+        w.constants.torque_constant_nm_per_a
+    );
     let per_1000 = w.constants.emf_v_per_1000_rpm.unwrap();
     // E = P·Z·Φ·N/(60·a) at 1000 rpm.
     assert!((per_1000 - 4.0 * 500.0 * 0.02 * 1000.0 / 120.0).abs() < 1e-9);

@@ -8,8 +8,13 @@ use armsheet::render::json::report_json;
 use armsheet::render::text::{TextOptions, render_text};
 use armsheet::winding::trace_winding;
 
-const DEMOS: [&str; 5] =
-    ["hoist-lap", "press-duplex-lap", "pump-wave", "conveyor-wave-dummy", "mill-lap-12p"];
+const DEMOS: [&str; 5] = [
+    "hoist-lap",
+    "press-duplex-lap",
+    "pump-wave",
+    "conveyor-wave-dummy",
+    "mill-lap-12p",
+];
 
 fn outputs(name: &str) -> (String, String) {
     let path = format!("designs/{name}.toml");
@@ -17,8 +22,15 @@ fn outputs(name: &str) -> (String, String) {
     let d = parse_design(&text, &path).unwrap();
     let w = trace_winding(&d).unwrap();
     let f = run_checks(&d, &w);
-    let r = Report { design: &d, winding: &w, findings: &f };
-    (render_text(&r, TextOptions { unicode: false }), report_json(&r))
+    let r = Report {
+        design: &d,
+        winding: &w,
+        findings: &f,
+    };
+    (
+        render_text(&r, TextOptions { unicode: false }),
+        report_json(&r),
+    )
 }
 
 #[test]
