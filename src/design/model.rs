@@ -52,7 +52,8 @@ impl Direction {
 /// Sense of rotation seen from the commutator end (`[armature] rotation`, default `"cw"`).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Rotation {
-    /// Clockwise from the commutator end: slot numbers pass a fixed pole in rising order.
+    /// Clockwise from the commutator end: with slots numbered clockwise from that end, the
+    /// armature surface moves towards rising slot numbers (a fixed pole sees them fall).
     Clockwise,
     /// Counter-clockwise from the commutator end.
     CounterClockwise,

@@ -163,10 +163,12 @@ pub fn write_diagram(w: &mut SvgWriter, d: &Diagram, x: f64, y: f64) {
     let b = &d.bands;
     let ls = d.label_size;
 
-    // Header: rotation and what is shown.
+    // Header: rotation and what is shown. Slots are numbered clockwise seen from the
+    // commutator end and rise to the right here (the surface seen from outside, commutator
+    // at the bottom), so a clockwise rotor carries the surface towards rising slot numbers.
     let (arrow, words) = match d.rotation {
-        Rotation::Clockwise => ("\u{2190}", "clockwise"),
-        Rotation::CounterClockwise => ("\u{2192}", "counter-clockwise"),
+        Rotation::Clockwise => ("\u{2192}", "clockwise"),
+        Rotation::CounterClockwise => ("\u{2190}", "counter-clockwise"),
     };
     let head =
         format!("armature surface moves {arrow}  (rotation {words}, seen from the commutator end)");

@@ -171,3 +171,20 @@ fn balance_simulation_separates_symmetric_from_unsymmetric_lap() {
         wind("[armature]\npoles = 4\nslots = 25\n[winding]\ntype = \"lap\"\nspan = 6\nturns = 1\n");
     assert!(!bad.balance.balanced, "{:?}", bad.balance);
 }
+
+/// Right-hand rule: clockwise from the commutator end, the surface moves towards rising slot
+/// numbers; under a north pole (flux entering the armature) e = v × B points away from the
+/// commutator. Coil 2 of a 4-pole, 36-slot lap has its top side (slot 2, 10°) under pole 1's
+/// arc (40° ± 31.5°) and its bottom side (slot 10, 90°) in the gap, so a generator drives
+/// current start → end in it, and a counter-clockwise rotor reverses that.
+#[test]
+fn current_follows_the_right_hand_rule() {
+    let base = "[armature]\npoles = 4\nslots = 36\nrotation = \"ROT\"\n[winding]\ntype = \"lap\"\nspan = 8\nturns = 1\n[rating]\nmode = \"MODE\"\n";
+    let run = |rot: &str, mode: &str| {
+        wind(&base.replace("ROT", rot).replace("MODE", mode)).coil_current[1]
+    };
+    assert_eq!(run("cw", "generator"), 1);
+    assert_eq!(run("cw", "motor"), -1);
+    assert_eq!(run("ccw", "generator"), -1);
+    assert_eq!(run("ccw", "motor"), 1);
+}
