@@ -82,8 +82,13 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         (true, true) => "balanced; agrees with the symmetry rule".to_string(),
         (false, false) => "unbalanced; agrees with the symmetry rule".to_string(),
         (true, false) => format!(
-            "unbalanced by more than {} coil EMF, although the symmetry rule passes: the two disagree; check the span and the pole arc",
-            crate::winding::BALANCE_TOLERANCE
+            "unbalanced by more than {} coil EMF, although the symmetry rule passes: the two disagree; {}",
+            crate::winding::BALANCE_TOLERANCE,
+            if w.dummy_coils.is_empty() {
+                "the rule counts coils and slots, the simulation also sees where each coil lies under the poles"
+            } else {
+                "the dummy coils leave a gap the rule does not count; spread them or choose a segment count that needs none"
+            }
         ),
         (false, true) => "balanced on average, although the symmetry rule fails: the two disagree; the simulation sees only EMF, not the circulating currents an unsymmetrical winding carries, so follow the rule".to_string(),
     };

@@ -25,6 +25,8 @@ pub(crate) struct Geometry {
     pub half_arc: f64,
     /// Number of poles.
     pub poles: i64,
+    /// Coils per slot.
+    pub coils_per_slot: i64,
     /// +1 clockwise, −1 counter-clockwise.
     pub rotation: i64,
     /// Ticks the rotor turns between two sampled positions (1/8 segment pitch).
@@ -50,6 +52,7 @@ impl Geometry {
             pole_pitch,
             half_arc: d.pole_arc * pole_pitch as f64 / 2.0,
             poles: p,
+            coils_per_slot: i64::from(d.coils_per_slot),
             rotation: match d.rotation {
                 Rotation::Clockwise => 1,
                 Rotation::CounterClockwise => -1,
@@ -78,9 +81,11 @@ impl Geometry {
     /// A conductor moving clockwise (seen from the commutator end) under a north pole has its
     /// EMF directed away from the commutator (right-hand rule, e = v × B with the flux entering
     /// the armature under a north pole). The start→end sense runs up the top side and down the
-    /// bottom side, so the coil EMF is e(top) − e(bottom).
+    /// bottom side, so the coil EMF is e(top) − e(bottom). Both sides sit at their slot's centre:
+    /// the u coils of a slot share its angle, so slot-level asymmetry shows in the simulation.
     pub fn coil_emf(&self, coil: u32, shift: i64) -> i64 {
-        let top = i64::from(coil - 1) * self.per_coil + shift;
+        let u = self.coils_per_slot;
+        let top = (i64::from(coil - 1) / u) * u * self.per_coil + shift;
         self.rotation * (self.field(top) - self.field(top + self.span))
     }
 
