@@ -22,7 +22,11 @@ fn main() {
 fn design_text(segments: u32) -> String {
     let slots = segments / 4;
     let poles = (segments / 25).clamp(4, 40) & !1;
-    let poles = if slots % (poles / 2) == 0 { poles } else { 4 };
+    let poles = if slots.is_multiple_of(poles / 2) {
+        poles
+    } else {
+        4
+    };
     format!(
         "[job]\nid = \"BENCH\"\ndate = \"2026-01-01\"\n[armature]\npoles = {poles}\nslots = {slots}\ncoils_per_slot = 4\n[winding]\ntype = \"lap\"\nturns = 1\nequalizers = 2\n"
     )

@@ -1,16 +1,77 @@
-//! The PDF holds one page per sheet, each the paper's size, and is byte-identical run to run.
+//! The PDF holds one page per sheet, each the paper's size, keeps its text as real text in
+//! embedded DejaVu fonts, and is byte-identical run to run.
 
 mod sheet_support;
+
+use std::io::Read;
 
 use armsheet::layout::{Paper, Window};
 use armsheet::render::pdf::sheets_pdf;
 use sheet_support::*;
 
-fn media_boxes(pdf: &[u8]) -> Vec<String> {
-    let text = String::from_utf8_lossy(pdf);
-    text.match_indices("/MediaBox [")
-        .map(|(i, _)| text[i + 11..].split(']').next().unwrap().trim().to_string())
+/// Every `/Key` followed by optional whitespace: the index just past it.
+fn keys<'a>(text: &'a str, key: &'a str) -> impl Iterator<Item = usize> + 'a {
+    text.match_indices(key)
+        .map(move |(i, _)| i + key.len())
+        .map(move |j| j + text[j..].len() - text[j..].trim_start().len())
+}
+
+/// The four numbers of every `/MediaBox [..]`.
+fn media_boxes(text: &str) -> Vec<Vec<f64>> {
+    keys(text, "/MediaBox")
+        .map(|j| {
+            let inner = text[j..]
+                .strip_prefix('[')
+                .unwrap()
+                .split(']')
+                .next()
+                .unwrap();
+            inner
+                .split_whitespace()
+                .map(|x| x.parse().unwrap())
+                .collect()
+        })
         .collect()
+}
+
+/// Objects of `/Type /Page` (not `/Pages`).
+fn page_objects(text: &str) -> usize {
+    keys(text, "/Type")
+        .filter(|&j| text[j..].starts_with("/Page") && !text[j..].starts_with("/Pages"))
+        .count()
+}
+
+/// Every FlateDecode stream, decompressed: (object number, dictionary, data).
+fn streams(pdf: &[u8]) -> Vec<(u32, String, Vec<u8>)> {
+    let mut out = Vec::new();
+    let mut at = 0;
+    while let Some(k) = find(&pdf[at..], b"stream\n").map(|k| k + at) {
+        let start = k + b"stream\n".len();
+        let end = find(&pdf[start..], b"endstream").unwrap() + start;
+        let obj = pdf[..k].windows(6).rposition(|w| w == b" 0 obj").unwrap();
+        let num_start = pdf[..obj]
+            .iter()
+            .rposition(|b| !b.is_ascii_digit())
+            .map_or(0, |i| i + 1);
+        let num = std::str::from_utf8(&pdf[num_start..obj])
+            .unwrap()
+            .parse()
+            .unwrap();
+        let dict = String::from_utf8_lossy(&pdf[obj..k]).into_owned();
+        if dict.contains("/FlateDecode") {
+            let mut data = Vec::new();
+            flate2::read::ZlibDecoder::new(&pdf[start..end])
+                .read_to_end(&mut data)
+                .unwrap();
+            out.push((num, dict, data));
+        }
+        at = end + b"endstream".len();
+    }
+    out
+}
+
+fn find(hay: &[u8], needle: &[u8]) -> Option<usize> {
+    hay.windows(needle.len()).position(|w| w == needle)
 }
 
 #[test]
@@ -21,37 +82,104 @@ fn one_page_per_sheet_at_paper_size() {
     ] {
         let (d, w) = load(name, &fixture(name));
         let sheets = sheets_for(&d, &w, paper, Window::Auto);
+        assert!(sheets.len() >= 2, "{name}");
         let pdf = sheets_pdf(&sheets).unwrap();
         assert!(pdf.starts_with(b"%PDF-"));
         let text = String::from_utf8_lossy(&pdf);
-        let pages = text.matches("/Type /Page\n").count()
-            + text.matches("/Type /Page ").count()
-            + text.matches("/Type /Page/").count();
-        assert_eq!(pages, sheets.len(), "{name}");
-        assert!(text.contains(&format!("/Count {}", sheets.len())));
+        assert_eq!(page_objects(&text), sheets.len(), "{name}");
+        let counts: Vec<&str> = keys(&text, "/Count")
+            .map(|j| {
+                text[j..]
+                    .split(|c: char| !c.is_ascii_digit())
+                    .next()
+                    .unwrap()
+            })
+            .collect();
+        assert_eq!(counts, [sheets.len().to_string()], "{name}");
         // 1 mm = 72/25.4 pt.
         let (wmm, hmm) = paper.size_mm();
-        let want = format!(
-            "0 0 {} {}",
-            trim(wmm * 72.0 / 25.4),
-            trim(hmm * 72.0 / 25.4)
-        );
-        let boxes = media_boxes(&pdf);
-        assert_eq!(boxes.len(), sheets.len());
+        let want = [0.0, 0.0, wmm * 72.0 / 25.4, hmm * 72.0 / 25.4];
+        let boxes = media_boxes(&text);
+        assert_eq!(boxes.len(), sheets.len(), "{name}");
         for b in boxes {
-            let v: Vec<f64> = b.split_whitespace().map(|x| x.parse().unwrap()).collect();
-            let w: Vec<f64> = want
-                .split_whitespace()
-                .map(|x| x.parse().unwrap())
-                .collect();
-            for (a, b) in v.iter().zip(&w) {
-                assert!((a - b).abs() < 0.05, "{name}: {v:?} vs {w:?}");
+            assert_eq!(b.len(), 4, "{name}: {b:?}");
+            for (a, w) in b.iter().zip(want) {
+                assert!((a - w).abs() < 0.05, "{name}: {b:?} vs {want:?}");
             }
         }
-        assert_eq!(pdf, sheets_pdf(&sheets).unwrap(), "{name}: deterministic");
     }
 }
 
-fn trim(x: f64) -> String {
-    format!("{x:.3}")
+#[test]
+fn same_sheets_give_the_same_bytes() {
+    let (d, w) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
+    let sheets = sheets_for(&d, &w, Paper::A4, Window::Auto);
+    let first = sheets_pdf(&sheets).unwrap();
+    let second = sheets_pdf(&sheets).unwrap();
+    assert!(first.len() > 10_000, "{} bytes", first.len());
+    assert!(first == second, "two conversions of the same sheets differ");
+    // No clock reaches the file.
+    let text = String::from_utf8_lossy(&first);
+    assert!(!text.contains("/CreationDate") && !text.contains("/ModDate"));
+    assert!(!text.contains("xmp:CreateDate") && !text.contains("xmp:ModifyDate"));
+}
+
+/// The text is kept as text: both DejaVu faces are embedded (as subsets, TrueType outlines in
+/// /FontFile2) with a ToUnicode map, and the pages draw glyphs with text operators, so a
+/// reader can select and search the words.
+#[test]
+fn text_is_real_text_in_embedded_fonts() {
+    let (d, w) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
+    let sheets = sheets_for(&d, &w, Paper::A4, Window::Auto);
+    let pdf = sheets_pdf(&sheets).unwrap();
+    let text = String::from_utf8_lossy(&pdf);
+    let mut base_fonts: Vec<&str> = keys(&text, "/Subtype/Type0/BaseFont/")
+        .map(|j| text[j..].split(['/', '>', ' ']).next().unwrap())
+        .map(|f| f.split_once('+').expect("a subset tag").1)
+        .collect();
+    base_fonts.sort_unstable();
+    assert_eq!(base_fonts, ["DejaVuSans", "DejaVuSans-Bold"]);
+    assert_eq!(text.matches("/FontFile2 ").count(), 2);
+    assert_eq!(text.matches("/ToUnicode ").count(), 2);
+
+    // The characters each ToUnicode map gives back, as Unicode scalar values.
+    let streams = streams(&pdf);
+    let mut mapped = std::collections::BTreeSet::new();
+    for (_, _, data) in streams.iter().filter(|(_, d, _)| d.contains("/Type/CMap")) {
+        let cmap = String::from_utf8_lossy(data);
+        for line in cmap.lines() {
+            let hex: Vec<&str> = line
+                .split(['<', '>'])
+                .filter(|s| !s.trim().is_empty())
+                .collect();
+            if let [_, unicode] = hex[..]
+                && let Ok(u) = u32::from_str_radix(unicode, 16)
+                && let Some(c) = char::from_u32(u)
+            {
+                mapped.insert(c);
+            }
+        }
+    }
+    for c in "Connection table: coil 0123456789 CAUTION sheet of".chars() {
+        assert!(mapped.contains(&c), "{c:?} has no ToUnicode entry");
+    }
+    // Page contents show glyphs with text operators (BT … Tf … TJ/Tj … ET).
+    let content_refs: Vec<u32> = keys(&text, "/Contents")
+        .map(|j| text[j..].split(' ').next().unwrap().parse().unwrap())
+        .collect();
+    assert_eq!(content_refs.len(), sheets.len());
+    let contents: Vec<String> = content_refs
+        .iter()
+        .map(|r| {
+            let (_, _, data) = streams
+                .iter()
+                .find(|(n, _, _)| n == r)
+                .expect("a content stream");
+            String::from_utf8_lossy(data).into_owned()
+        })
+        .collect();
+    for c in &contents {
+        assert!(c.matches("BT ").count() > 50, "too few text objects");
+        assert!(c.contains(" Tf ") && c.contains(")Tj"), "no text shown");
+    }
 }

@@ -8,12 +8,12 @@ use crate::winding::Winding;
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let c = w.active_coils;
     let suggests = match d.poles {
-        4 | 8 => Some(if c % 2 == 0 {
+        4 | 8 => Some(if c.is_multiple_of(2) {
             WindingType::Lap
         } else {
             WindingType::Wave
         }),
-        6 => Some(if c % 3 == 0 {
+        6 => Some(if c.is_multiple_of(3) {
             WindingType::Lap
         } else {
             WindingType::Wave

@@ -10,7 +10,7 @@ pub(super) fn check(d: &Design, _w: &Winding, out: &mut Vec<Finding>) {
     out.push(Finding::new(
         "poles.even",
         Severity::Error,
-        d.poles % 2 == 0 && d.poles >= 2,
+        d.poles.is_multiple_of(2) && d.poles >= 2,
         format!("{} poles: poles come in north-south pairs", d.poles),
         PITCH_TEXTS,
     ));

@@ -22,7 +22,7 @@ pub fn is_symmetric(findings: &[Finding]) -> bool {
 }
 
 fn whole(num: u32, den: u32) -> bool {
-    den != 0 && num % den == 0
+    den != 0 && num.is_multiple_of(den)
 }
 
 fn ratio(num: u32, den: u32) -> String {

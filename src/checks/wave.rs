@@ -80,21 +80,21 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             Direction::Progressive => Direction::Retrogressive,
             Direction::Retrogressive => Direction::Progressive,
         };
-        if let Some(alt) = pitch::wave_active_coils(w.coils, m, p, other) {
-            if alt > c {
-                out.push(Finding::new(
-                    "wave.direction-hint",
-                    Severity::Info,
-                    true,
-                    format!(
-                        "a {} winding would use {alt} segments with {} dummy coil(s) instead of {}",
-                        other.as_str(),
-                        w.coils - alt,
-                        dummies
-                    ),
-                    DUMMY,
-                ));
-            }
+        if let Some(alt) = pitch::wave_active_coils(w.coils, m, p, other)
+            && alt > c
+        {
+            out.push(Finding::new(
+                "wave.direction-hint",
+                Severity::Info,
+                true,
+                format!(
+                    "a {} winding would use {alt} segments with {} dummy coil(s) instead of {}",
+                    other.as_str(),
+                    w.coils - alt,
+                    dummies
+                ),
+                DUMMY,
+            ));
         }
     }
 }

@@ -332,9 +332,10 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
         "the lead offset in segments",
         "0 puts each coil's two segments either side of its centre line",
     )?;
-    if let Some(lo) = &lead_offset {
-        if 2 * poles.value * lo.value.abs() >= active {
-            return Err(src
+    if let Some(lo) = &lead_offset
+        && 2 * poles.value * lo.value.abs() >= active
+    {
+        return Err(src
                 .error(
                     lo.span.clone(),
                     "winding.lead_offset",
@@ -346,7 +347,6 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
                     ),
                 )
                 .with_hint("the offset swings the leads a few segments from the symmetric position; measure it on the old winding"));
-        }
     }
     let equalizers = read_equalizers(&win, wtype)?;
 

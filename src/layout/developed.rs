@@ -261,7 +261,7 @@ pub fn resolve_view(design: &Design, winding: &Winding, window: Window) -> View 
     let s = design.slots;
     let p = design.pole_pairs();
     let c = winding.active_coils;
-    let repeat_slots = (p > 1 && s % p == 0 && c % p == 0).then_some(s / p);
+    let repeat_slots = (p > 1 && s.is_multiple_of(p) && c.is_multiple_of(p)).then_some(s / p);
     let whole = View {
         whole: true,
         first_slot: 1,

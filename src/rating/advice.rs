@@ -73,13 +73,12 @@ pub fn more_paths(m: &Machine<'_>, current: f64, limit: f64) -> Vec<String> {
     let d = m.design;
     let need = super::commutator::ceil_u32(current / limit).max(1);
     let mut out = Vec::new();
-    if d.winding_type == WindingType::Wave {
-        if let Some(k) = (d.multiplicity..=bounds::MAX_MULTIPLICITY as u32)
+    if d.winding_type == WindingType::Wave
+        && let Some(k) = (d.multiplicity..=bounds::MAX_MULTIPLICITY as u32)
             .filter_map(|mm| connect(d, m.segments, WindingType::Lap, mm).ok())
             .find(|k| k.paths >= need)
-        {
-            out.push(format!("lap instead of wave, {}", m.describe(&k, current)));
-        }
+    {
+        out.push(format!("lap instead of wave, {}", m.describe(&k, current)));
     }
     if let Some(k) = (d.multiplicity + 1..=bounds::MAX_MULTIPLICITY as u32)
         .filter_map(|mm| connect(d, m.segments, d.winding_type, mm).ok())

@@ -133,16 +133,15 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
         area_mm2: conductor::conductor_area_mm2(&k.shape),
         mean_turn: conductor::mean_turn(d, k),
     });
-    if let Some(k) = &conductor {
-        if let Some(MeanTurn {
+    if let Some(k) = &conductor
+        && let Some(MeanTurn {
             source: MeanTurnSource::Estimated(f),
             ..
         }) = &k.mean_turn
-        {
-            notes.push(format!(
-                "mean turn {f}; give [conductor] mean_turn_mm for a measured value"
-            ));
-        }
+    {
+        notes.push(format!(
+            "mean turn {f}; give [conductor] mean_turn_mm for a measured value"
+        ));
     }
     let calc_r20 = conductor.as_ref().and_then(|k| {
         k.mean_turn

@@ -159,19 +159,19 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
             req.voltage
         ));
     }
-    if let Some(n) = req.speed_rpm {
-        if !(n > 0.0 && n.is_finite() && n <= 200_000.0) {
-            return err(format!(
-                "--speed must be a positive number of rpm up to 200000, found {n}"
-            ));
-        }
+    if let Some(n) = req.speed_rpm
+        && !(n > 0.0 && n.is_finite() && n <= 200_000.0)
+    {
+        return err(format!(
+            "--speed must be a positive number of rpm up to 200000, found {n}"
+        ));
     }
-    if let Some(r) = req.measured_r20 {
-        if !(r > 0.0 && r.is_finite()) {
-            return err(format!(
-                "--ra must be a positive resistance in ohms, found {r}"
-            ));
-        }
+    if let Some(r) = req.measured_r20
+        && !(r > 0.0 && r.is_finite())
+    {
+        return err(format!(
+            "--ra must be a positive resistance in ohms, found {r}"
+        ));
     }
     let rated: RatingReport = rate_with(d, w, req.measured_r20);
     let a0 = w.paths_formula.max(1);
@@ -339,13 +339,13 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
         .zip(a_old)
         .map(|(an, ao)| f64::from(turns) * an / (t0 * ao));
     let density = i1.zip(a_new).map(|(i, a)| i / f64::from(a1) / a);
-    if let Some(f) = fill_chosen {
-        if f > 1.02 {
-            notes.push(format!(
+    if let Some(f) = fill_chosen
+        && f > 1.02
+    {
+        notes.push(format!(
                 "the chosen conductor puts {} % more copper in each slot than the original: check that it fits, or take the next size down",
                 fmt_fixed((f - 1.0) * 100.0, 0)
             ));
-        }
     }
     if d.conductor.is_none() {
         notes.push("no [conductor] in the design: the conductor size cannot be worked out; scale the old area by the old/new conductor ratio Z0/Z1".to_string());

@@ -372,15 +372,15 @@ fn sequence(s: &mut String, w: &Winding) {
 }
 
 fn equalizers(s: &mut String, w: &Winding) {
-    if let EqualizerPlan::Possible(e) = &w.equalizers {
-        if !e.groups.is_empty() {
-            section(
-                s,
-                "EQUALIZERS (type A; each ring joins the segments listed)",
-            );
-            for (i, g) in e.groups.iter().enumerate() {
-                let _ = writeln!(s, "  E{:<4} {}", i + 1, join(g));
-            }
+    if let EqualizerPlan::Possible(e) = &w.equalizers
+        && !e.groups.is_empty()
+    {
+        section(
+            s,
+            "EQUALIZERS (type A; each ring joins the segments listed)",
+        );
+        for (i, g) in e.groups.iter().enumerate() {
+            let _ = writeln!(s, "  E{:<4} {}", i + 1, join(g));
         }
     }
 }

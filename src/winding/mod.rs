@@ -106,7 +106,7 @@ pub fn trace_winding(design: &Design) -> Result<Winding, WindingError> {
     let mut coil_path = vec![0u32; n as usize];
     for r in &runs {
         if paths::is_path(r, &spots) {
-            let to_positive = (if spots[r.to].pole % 2 == 0 {
+            let to_positive = (if spots[r.to].pole.is_multiple_of(2) {
                 sign0
             } else {
                 -sign0
@@ -236,7 +236,11 @@ fn make_brush(d: &Design, s: &BrushSpot, sign0: i64, c: u32, units: i64, mark: &
         let lo = centre / units;
         vec![lo as u32 + 1, ((lo + 1) % ci) as u32 + 1]
     };
-    let sign = if s.pole % 2 == 0 { sign0 } else { -sign0 };
+    let sign = if s.pole.is_multiple_of(2) {
+        sign0
+    } else {
+        -sign0
+    };
     Brush {
         index: s.pole as u32 + 1,
         polarity: if sign > 0 {
@@ -314,21 +318,21 @@ fn plan_equalizers(d: &Design, c: u32, reentrancy: u32) -> EqualizerPlan {
             "a 2-pole lap winding has a single pole pair: there are no points two pole pitches apart to join".into(),
         );
     }
-    if c % p != 0 {
+    if !c.is_multiple_of(p) {
         return EqualizerPlan::Impossible(format!(
             "the equalizer pitch 2C/P = {}/{} is not a whole number of segments",
             2 * c,
             d.poles
         ));
     }
-    if d.slots % p != 0 {
+    if !d.slots.is_multiple_of(p) {
         return EqualizerPlan::Impossible(format!(
             "slots per pole pair S/p = {}/{p} is not whole, so points two pole pitches apart are not at one potential",
             d.slots
         ));
     }
     let pitch = c / p;
-    if pitch % reentrancy != 0 {
+    if !pitch.is_multiple_of(reentrancy) {
         return EqualizerPlan::Impossible(format!(
             "the equalizer pitch {pitch} would join segments of different closed windings ({reentrancy} of them)"
         ));
