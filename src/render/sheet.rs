@@ -51,53 +51,24 @@ struct Column {
 
 /// The connection-table columns; the position columns only when u > 1.
 fn connection_columns(u: u32) -> Vec<Column> {
-    let mut c = vec![
-        Column {
-            head: ["coil", ""],
-            width: 13.0,
-        },
-        Column {
-            head: ["top", "slot"],
-            width: 12.0,
-        },
+    // (heading, width in mm, shown only when u > 1)
+    const COLUMNS: [([&str; 2], f64, bool); 10] = [
+        (["coil", ""], 13.0, false),
+        (["top", "slot"], 12.0, false),
+        (["top", "pos"], 9.0, true),
+        (["bottom", "slot"], 14.0, false),
+        (["bot.", "pos"], 9.0, true),
+        (["start", "seg"], 12.0, false),
+        (["end", "seg"], 12.0, false),
+        (["seq", ""], 15.0, false),
+        (["path", ""], 11.0, false),
+        (["dummy", ""], 15.0, false),
     ];
-    if u > 1 {
-        c.push(Column {
-            head: ["top", "pos"],
-            width: 9.0,
-        });
-    }
-    c.push(Column {
-        head: ["bottom", "slot"],
-        width: 14.0,
-    });
-    if u > 1 {
-        c.push(Column {
-            head: ["bot.", "pos"],
-            width: 9.0,
-        });
-    }
-    c.push(Column {
-        head: ["start", "seg"],
-        width: 12.0,
-    });
-    c.push(Column {
-        head: ["end", "seg"],
-        width: 12.0,
-    });
-    c.push(Column {
-        head: ["seq", ""],
-        width: 15.0,
-    });
-    c.push(Column {
-        head: ["path", ""],
-        width: 11.0,
-    });
-    c.push(Column {
-        head: ["dummy", ""],
-        width: 15.0,
-    });
-    c
+    COLUMNS
+        .iter()
+        .filter(|(_, _, positions)| u > 1 || !positions)
+        .map(|&(head, width, _)| Column { head, width })
+        .collect()
 }
 
 /// The equalizer-table columns: the list column is as wide as p numbers need, up to `max` mm.
