@@ -5,7 +5,6 @@
 
 use armsheet::checks::run_checks;
 use armsheet::design::{Design, parse_design};
-use armsheet::render::Report;
 use armsheet::render::json::report_json;
 use armsheet::winding::trace_winding;
 
@@ -26,14 +25,14 @@ fn lap_design(segments: u32) -> Design {
 #[divan::bench(args = [100, 1_000, 10_000])]
 fn engine(bencher: divan::Bencher, segments: u32) {
     let d = lap_design(segments);
-    bencher.bench(|| trace_winding(divan::black_box(&d)).unwrap());
+    bencher.bench(|| trace_winding(divan::black_box(&d)));
 }
 
 #[divan::bench(args = [100, 1_000, 10_000])]
 fn engine_and_checks(bencher: divan::Bencher, segments: u32) {
     let d = lap_design(segments);
     bencher.bench(|| {
-        let w = trace_winding(divan::black_box(&d)).unwrap();
+        let w = trace_winding(divan::black_box(&d));
         run_checks(&d, &w)
     });
 }
@@ -46,12 +45,6 @@ fn check_json_largest_demo(bencher: divan::Bencher) {
     let text = std::fs::read_to_string(path).unwrap();
     bencher.bench(|| {
         let d = parse_design(divan::black_box(&text), "designs/mill-lap-12p.toml").unwrap();
-        let w = trace_winding(&d).unwrap();
-        let f = run_checks(&d, &w);
-        report_json(&Report {
-            design: &d,
-            winding: &w,
-            findings: &f,
-        })
+        report_json(&armsheet::check(d))
     });
 }

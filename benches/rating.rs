@@ -8,10 +8,8 @@
 //!
 //! Run: `cargo bench --bench rating`.
 
-use armsheet::checks::run_checks;
 use armsheet::design::{Design, parse_design};
 use armsheet::rating::{RewindRequest, rate, rewind};
-use armsheet::render::Report;
 use armsheet::render::json::report_json;
 use armsheet::render::text::{TextOptions, render_text};
 use armsheet::winding::trace_winding;
@@ -39,26 +37,11 @@ fn strip(mut d: Design) -> Design {
 }
 
 fn check_text(d: &Design) -> String {
-    let w = trace_winding(d).unwrap();
-    let f = run_checks(d, &w);
-    render_text(
-        &Report {
-            design: d,
-            winding: &w,
-            findings: &f,
-        },
-        TextOptions::default(),
-    )
+    render_text(&armsheet::check(d.clone()), TextOptions::default())
 }
 
 fn check_json(d: &Design) -> String {
-    let w = trace_winding(d).unwrap();
-    let f = run_checks(d, &w);
-    report_json(&Report {
-        design: d,
-        winding: &w,
-        findings: &f,
-    })
+    report_json(&armsheet::check(d.clone()))
 }
 
 #[divan::bench]
@@ -88,14 +71,14 @@ fn check_json_without_rating(bencher: divan::Bencher) {
 #[divan::bench]
 fn rate_only(bencher: divan::Bencher) {
     let d = parse_design(&text(), NAME).unwrap();
-    let w = trace_winding(&d).unwrap();
+    let w = trace_winding(&d);
     bencher.bench(|| rate(divan::black_box(&d), &w));
 }
 
 #[divan::bench]
 fn rewind_only(bencher: divan::Bencher) {
     let d = parse_design(&text(), NAME).unwrap();
-    let w = trace_winding(&d).unwrap();
+    let w = trace_winding(&d);
     let req = RewindRequest {
         voltage: 600.0,
         ..RewindRequest::default()
@@ -106,17 +89,18 @@ fn rewind_only(bencher: divan::Bencher) {
 #[divan::bench]
 fn rating_findings_only(bencher: divan::Bencher) {
     let d = parse_design(&text(), NAME).unwrap();
-    let w = trace_winding(&d).unwrap();
-    bencher.bench(|| armsheet::rating::rating_findings(divan::black_box(&d), &w));
+    let r = rate(&d, &trace_winding(&d)).unwrap();
+    bencher.bench(|| armsheet::rating::findings_of(divan::black_box(&r)));
 }
 
 #[divan::bench]
 fn rating_text_section_only(bencher: divan::Bencher) {
     let d = parse_design(&text(), NAME).unwrap();
-    let w = trace_winding(&d).unwrap();
+    let w = trace_winding(&d);
+    let r = rate(&d, &w);
     bencher.bench(|| {
         let mut s = String::new();
-        armsheet::render::rating_text::rating_section(&mut s, divan::black_box(&d), &w);
+        armsheet::render::rating_text::rating_section(&mut s, divan::black_box(&d), r.as_ref());
         s
     });
 }
@@ -124,6 +108,7 @@ fn rating_text_section_only(bencher: divan::Bencher) {
 #[divan::bench]
 fn rating_json_value_only(bencher: divan::Bencher) {
     let d = parse_design(&text(), NAME).unwrap();
-    let w = trace_winding(&d).unwrap();
-    bencher.bench(|| armsheet::render::rating_json::rating_value(divan::black_box(&d), &w));
+    let w = trace_winding(&d);
+    let r = rate(&d, &w);
+    bencher.bench(|| armsheet::render::rating_json::rating_value(divan::black_box(r.as_ref())));
 }

@@ -7,7 +7,6 @@
 use armsheet::checks::run_checks;
 use armsheet::design::parse_design;
 use armsheet::layout::{Paper, Window};
-use armsheet::render::Report;
 use armsheet::render::csv::connections_csv;
 use armsheet::render::json::report_json;
 use armsheet::render::pdf::sheets_pdf;
@@ -35,7 +34,7 @@ fn design_text(segments: u32) -> String {
 /// Everything `armsheet sheet` computes before it writes files; returns the bytes.
 fn sheet_bytes(text: &str, pdf: bool) -> usize {
     let d = parse_design(text, "bench.toml").unwrap();
-    let w = trace_winding(&d).unwrap();
+    let w = trace_winding(&d);
     let findings = run_checks(&d, &w);
     let failures = findings
         .iter()
@@ -54,12 +53,7 @@ fn sheet_bytes(text: &str, pdf: bool) -> usize {
     let sheets = render_sheets(&input);
     let mut n: usize = sheets.iter().map(String::len).sum();
     n += connections_csv(&d, &w).len();
-    n += report_json(&Report {
-        design: &d,
-        winding: &w,
-        findings: &findings,
-    })
-    .len();
+    n += report_json(&armsheet::check(d.clone())).len();
     if pdf {
         n += sheets_pdf(&sheets).unwrap().len();
     }

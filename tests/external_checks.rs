@@ -6,7 +6,7 @@ use armsheet::winding::{Winding, trace_winding};
 
 fn wind(toml: &str) -> Winding {
     let d = parse_design(toml, "example.toml").unwrap_or_else(|e| panic!("{e}"));
-    trace_winding(&d).unwrap()
+    trace_winding(&d)
 }
 
 fn design(

@@ -14,7 +14,7 @@ use armsheet::winding::trace_winding;
 
 fn rated(toml: &str) -> RatingReport {
     let d = parse_design(toml, "t.toml").unwrap_or_else(|e| panic!("{e}"));
-    let w = trace_winding(&d).unwrap();
+    let w = trace_winding(&d);
     rate(&d, &w).expect("rating inputs present")
 }
 
@@ -206,6 +206,6 @@ fn no_rating_inputs_gives_none() {
         "t.toml",
     )
     .unwrap();
-    let w = trace_winding(&d).unwrap();
+    let w = trace_winding(&d);
     assert!(rate(&d, &w).is_none());
 }

@@ -1,7 +1,6 @@
 //! Every `[limits]` key can be overridden, and the override changes the verdict; a failed
 //! limit comes with advice that has numbers in it.
 
-use armsheet::checks::run_checks;
 use armsheet::design::{LIMIT_KEYS, parse_design};
 use armsheet::rating::{Bound, RatingReport, rate, rules};
 use armsheet::winding::trace_winding;
@@ -38,7 +37,7 @@ brush_width_mm = 20
 
 fn rated(toml: &str) -> RatingReport {
     let d = parse_design(toml, "t.toml").unwrap_or_else(|e| panic!("{e}"));
-    let w = trace_winding(&d).unwrap();
+    let w = trace_winding(&d);
     rate(&d, &w).unwrap()
 }
 
@@ -125,15 +124,13 @@ fn a_shop_limit_can_pass_what_the_default_fails() {
 #[test]
 fn findings_carry_id_severity_value_limit_units_and_source() {
     let hot = BASE.replace("voltage = 110", "voltage = 230");
-    let d = parse_design(&hot, "t.toml").unwrap();
-    let w = trace_winding(&d).unwrap();
-    let f = run_checks(&d, &w);
+    let f = armsheet::check(parse_design(&hot, "t.toml").unwrap()).findings;
     let seg = f
         .iter()
         .find(|f| f.id == "rating.segment-volts-average")
         .expect("merged into the checks");
     assert!(!seg.passed);
-    assert_eq!(seg.severity, armsheet::checks::Severity::Error);
+    assert_eq!(seg.severity, armsheet::base::Severity::Error);
     assert!(
         seg.message.contains(" V: above the limit of at most 15 V"),
         "{}",

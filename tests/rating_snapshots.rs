@@ -19,7 +19,7 @@ fn load(name: &str) -> armsheet::design::Design {
 fn rating_sections_of_the_demos() {
     for name in RATED_DEMOS {
         let d = load(name);
-        let w = trace_winding(&d).unwrap();
+        let w = trace_winding(&d);
         let r = rate(&d, &w).unwrap_or_else(|| panic!("{name} has no rating data"));
         let mut s = String::new();
         render_rating(&mut s, &d, &r);
@@ -37,7 +37,7 @@ fn rating_sections_of_the_demos() {
 fn demos_without_rating_data_have_no_rating() {
     for name in ["conveyor-wave-dummy", "press-duplex-lap"] {
         let d = load(name);
-        let w = trace_winding(&d).unwrap();
+        let w = trace_winding(&d);
         assert!(rate(&d, &w).is_none(), "{name}");
     }
 }
@@ -45,7 +45,7 @@ fn demos_without_rating_data_have_no_rating() {
 #[test]
 fn rewind_report_and_new_file_hoist_to_220_v_wave() {
     let d = load("hoist-lap");
-    let w = trace_winding(&d).unwrap();
+    let w = trace_winding(&d);
     let req = RewindRequest {
         voltage: 220.0,
         kind: Some(WindingType::Wave),
@@ -55,7 +55,7 @@ fn rewind_report_and_new_file_hoist_to_220_v_wave() {
     let asked = "armsheet rewind designs/hoist-lap.toml --voltage 220 --type wave";
     let file = p.design_file("designs/hoist-lap.toml", asked);
     let back = parse_design(&file, "new.toml").unwrap();
-    let nw = trace_winding(&back).unwrap();
+    let nw = trace_winding(&back);
     let report = render_rewind(
         &p,
         "designs/hoist-lap.toml",

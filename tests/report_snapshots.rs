@@ -1,12 +1,10 @@
 //! Reference outputs of `check` (text and JSON) for every demo design, kept with insta.
 //! A change of wording or numbers shows up as a snapshot diff to review.
 
-use armsheet::checks::run_checks;
+use armsheet::check;
 use armsheet::design::parse_design;
-use armsheet::render::Report;
 use armsheet::render::json::report_json;
 use armsheet::render::text::{TextOptions, render_text};
-use armsheet::winding::trace_winding;
 
 const DEMOS: [&str; 5] = [
     "hoist-lap",
@@ -19,14 +17,7 @@ const DEMOS: [&str; 5] = [
 fn outputs(name: &str) -> (String, String) {
     let path = format!("designs/{name}.toml");
     let text = std::fs::read_to_string(format!("{}/{path}", env!("CARGO_MANIFEST_DIR"))).unwrap();
-    let d = parse_design(&text, &path).unwrap();
-    let w = trace_winding(&d).unwrap();
-    let f = run_checks(&d, &w);
-    let r = Report {
-        design: &d,
-        winding: &w,
-        findings: &f,
-    };
+    let r = check(parse_design(&text, &path).unwrap());
     (
         render_text(&r, TextOptions { unicode: false }),
         report_json(&r),

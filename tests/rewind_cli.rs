@@ -66,7 +66,7 @@ fn writes_a_new_design_that_parses_back_and_keeps_it_without_force() {
     let d = parse_design(&written, &out_s).unwrap_or_else(|e| panic!("{e}"));
     assert_eq!(
         (d.winding_type, d.turns, d.segments),
-        (WindingType::Wave, 4, Some(35))
+        (WindingType::Wave, 4, 35)
     );
     assert_eq!(d.rating.as_ref().unwrap().voltage, Some(220.0));
 

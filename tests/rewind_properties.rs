@@ -110,7 +110,7 @@ proptest! {
         let d = design(&c);
         prop_assume!(d.is_some());
         let d = d.unwrap();
-        let w = trace_winding(&d).unwrap();
+        let w = trace_winding(&d);
         let req = RewindRequest { voltage: c.voltage, ..RewindRequest::default() };
         let p = rewind(&d, &w, &req);
         prop_assume!(p.is_ok());
@@ -129,7 +129,7 @@ proptest! {
         let d = design(&c);
         prop_assume!(d.is_some());
         let d = d.unwrap();
-        let w = trace_winding(&d).unwrap();
+        let w = trace_winding(&d);
         let req = RewindRequest { voltage: 2.0 * c.voltage, ..RewindRequest::default() };
         let p = rewind(&d, &w, &req);
         prop_assume!(p.is_ok());
@@ -152,7 +152,7 @@ proptest! {
         let d = design(&c);
         prop_assume!(d.is_some());
         let d = d.unwrap();
-        let w = trace_winding(&d).unwrap();
+        let w = trace_winding(&d);
         let kind = if lap { armsheet::design::WindingType::Lap } else { armsheet::design::WindingType::Wave };
         let req = RewindRequest { voltage: v.round(), kind: Some(kind), ..RewindRequest::default() };
         let p = rewind(&d, &w, &req);
@@ -164,7 +164,7 @@ proptest! {
         let back = back.unwrap();
         prop_assert_eq!(back.turns, p.new.turns);
         prop_assert_eq!(back.winding_type, kind);
-        let nw = trace_winding(&back).unwrap();
+        let nw = trace_winding(&back);
         prop_assert_eq!(nw.active_coils, p.new.connection.segments);
         prop_assert_eq!(nw.paths_formula, p.new.connection.paths);
         prop_assert!(text.starts_with("# armsheet rewind of p.toml\n"));

@@ -2,8 +2,8 @@
 
 use super::sources::{EQUALIZERS, MULTIPLEX_BRUSH, PITCH_TEXTS};
 use super::{Finding, Severity};
+use crate::base::number::fmt_fixed;
 use crate::design::{Design, EqualizerChoice};
-use crate::render::number::fmt_fixed;
 use crate::winding::{EqualizerPlan, Winding};
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {

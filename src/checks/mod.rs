@@ -1,10 +1,11 @@
-//! `checks`: the trade's rules applied to a design and its traced winding.
+//! `checks`: the trade's rules applied to a design, its traced winding and its rating; and
+//! [`check`], the one entry that runs the pure pipeline once.
 //!
-//! Third stage of the pipeline. One file per rule family; each returns [`Finding`]s and never
-//! prints. To add a rule, add a function to the family's file (or a new file) that pushes
-//! findings, call it from [`run_checks`], and give it an id, a severity and its source.
+//! Stage 5 of the pipeline (see [`crate::STAGES`]). One file per rule family; each pushes
+//! [`Finding`]s and never prints. To add a rule, add a function to the family's file (or a new
+//! file) that pushes findings, call it from [`run_checks`], and give it an id, a severity and
+//! its source; then add a passing and a failing row to `tests/rule_cases.rs`.
 
-mod finding;
 mod lap;
 mod shop;
 mod sources;
@@ -13,13 +14,54 @@ mod symmetry;
 mod trace;
 mod wave;
 
-pub use finding::{Finding, Severity, has_errors};
-pub use symmetry::is_symmetric;
+pub use crate::base::{Finding, Severity, has_errors};
 
 use crate::design::{Design, WindingType};
-use crate::winding::Winding;
+use crate::rating::{RatingReport, findings_of, rate};
+use crate::winding::{Winding, trace_winding};
 
-/// Runs every rule family in a fixed order.
+/// A design traced, rated and checked: everything layout and render need, computed once.
+#[derive(Clone, Debug)]
+pub struct Checked {
+    /// The resolved design.
+    pub design: Design,
+    /// The traced winding.
+    pub winding: Winding,
+    /// The rating, `None` when the design has no rating inputs.
+    pub rating: Option<RatingReport>,
+    /// The rule findings in report order, rating findings last.
+    pub findings: Vec<Finding>,
+    /// Whether the paths are symmetric by the symmetry rules.
+    pub symmetric: bool,
+}
+
+impl Checked {
+    /// True when an error-level rule failed (`check` exits 1).
+    pub fn has_errors(&self) -> bool {
+        has_errors(&self.findings)
+    }
+}
+
+/// Traces, rates and checks `design`, each exactly once.
+pub fn check(design: Design) -> Checked {
+    let winding = trace_winding(&design);
+    let rating = rate(&design, &winding);
+    let mut findings = run_checks(&design, &winding);
+    let symmetric = symmetry::is_symmetric(&findings);
+    if let Some(r) = &rating {
+        findings.extend(findings_of(r));
+    }
+    Checked {
+        design,
+        winding,
+        rating,
+        findings,
+        symmetric,
+    }
+}
+
+/// Runs every winding rule family in a fixed order (the rating's findings are added by
+/// [`check`]).
 pub fn run_checks(design: &Design, winding: &Winding) -> Vec<Finding> {
     let mut out = Vec::new();
     span::check(design, winding, &mut out);
@@ -30,6 +72,5 @@ pub fn run_checks(design: &Design, winding: &Winding) -> Vec<Finding> {
     }
     trace::check(design, winding, &mut out);
     shop::check(design, winding, &mut out);
-    out.extend(crate::rating::rating_findings(design, winding));
     out
 }

@@ -2,8 +2,9 @@
 
 use super::sources::{PITCH_TEXTS, SPAN};
 use super::{Finding, Severity};
+use crate::base::number::fmt_fixed;
 use crate::design::{Design, SpanSource};
-use crate::render::number::fmt_fixed;
+use crate::theory::words::span_shop;
 use crate::winding::Winding;
 
 pub(super) fn check(d: &Design, _w: &Winding, out: &mut Vec<Finding>) {
@@ -54,11 +55,11 @@ pub(super) fn check(d: &Design, _w: &Winding, out: &mut Vec<Finding>) {
             Severity::Info,
             true,
             format!(
-                "no span given: used floor(S/P) = floor({}/{}) = {} slots (\"1-{}\"); give `span` to match the old coils",
+                "no span given: used floor(S/P) = floor({}/{}) = {} slots (\"{}\"); give `span` to match the old coils",
                 d.slots,
                 d.poles,
                 d.span,
-                d.span + 1
+                span_shop(d.span)
             ),
             SPAN,
         ));

@@ -2,8 +2,8 @@
 
 use super::sources::{SIMULATION, SYMMETRY};
 use super::{Finding, Severity};
+use crate::base::number::fmt_fixed;
 use crate::design::{Design, WindingType};
-use crate::render::number::fmt_fixed;
 use crate::winding::Winding;
 
 /// The ids of the classical symmetry conditions.

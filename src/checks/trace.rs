@@ -2,14 +2,11 @@
 
 use super::sources::TRACE;
 use super::{Finding, Severity};
-use crate::design::{Design, WindingType};
+use crate::design::Design;
 use crate::winding::Winding;
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
-    let formula = match d.winding_type {
-        WindingType::Lap => format!("m x P = {} x {}", d.multiplicity, d.poles),
-        WindingType::Wave => format!("2m = 2 x {}", d.multiplicity),
-    };
+    let formula = d.winding_type.kind().paths_formula(d.multiplicity, d.poles);
     out.push(Finding::new(
         "trace.paths",
         Severity::Error,

@@ -3,8 +3,9 @@
 use super::lap::multiplex_brush;
 use super::sources::{DUMMY, PITCH_TEXTS};
 use super::{Finding, Severity};
-use crate::design::{Design, Direction};
-use crate::winding::{Winding, pitch};
+use crate::design::{Design, Direction, WindingType};
+use crate::theory::wave_pitch_whole;
+use crate::winding::Winding;
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let (c, m, p) = (w.active_coils, d.multiplicity, d.pole_pairs());
@@ -13,11 +14,10 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     } else {
         "-"
     };
-    let num = i64::from(c) + d.direction.sign() * i64::from(m);
     out.push(Finding::new(
         "wave.commutator-pitch",
         Severity::Error,
-        num % i64::from(p) == 0,
+        wave_pitch_whole(c, m, p, d.direction),
         format!(
             "y_c = (C {sign} m)/p = ({c} {sign} {m})/{p} = {}",
             w.pitches.commutator
@@ -45,7 +45,10 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         out.push(multiplex_brush(m));
     }
     let dummies = w.dummy_coils.len() as u32;
-    let best = pitch::wave_active_coils(w.coils, m, p, d.direction).unwrap_or(c);
+    let wave = WindingType::Wave.kind();
+    let best = wave
+        .default_segments(w.coils, m, p, d.direction)
+        .unwrap_or(c);
     if dummies > 0 || best > c {
         let list = w
             .dummy_coils
@@ -76,11 +79,8 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         ));
     }
     if w.segments_derived {
-        let other = match d.direction {
-            Direction::Progressive => Direction::Retrogressive,
-            Direction::Retrogressive => Direction::Progressive,
-        };
-        if let Some(alt) = pitch::wave_active_coils(w.coils, m, p, other)
+        let other = d.direction.other();
+        if let Some(alt) = wave.default_segments(w.coils, m, p, other)
             && alt > c
         {
             out.push(Finding::new(

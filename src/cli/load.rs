@@ -2,20 +2,8 @@
 
 use std::path::Path;
 
-use crate::checks::{Finding, run_checks};
-use crate::design::{Design, parse_design_bytes};
-use crate::winding::{Winding, trace_winding};
-
-/// A design read from disk, traced and checked.
-#[derive(Clone, Debug)]
-pub struct Checked {
-    /// The resolved design.
-    pub design: Design,
-    /// The traced winding.
-    pub winding: Winding,
-    /// The rule findings.
-    pub findings: Vec<Finding>,
-}
+use crate::checks::{Checked, check};
+use crate::design::parse_design_bytes;
 
 /// Reads, parses, traces and checks `path`. On failure the diagnostic is already printed to
 /// stderr and the exit code (2) is returned.
@@ -34,14 +22,5 @@ pub fn load_design(path: &Path) -> Result<Checked, u8> {
         eprint!("{d}");
         2u8
     })?;
-    let winding = trace_winding(&design).map_err(|e| {
-        eprintln!("error: {name}: the winding cannot be traced: {e}");
-        2u8
-    })?;
-    let findings = run_checks(&design, &winding);
-    Ok(Checked {
-        design,
-        winding,
-        findings,
-    })
+    Ok(check(design))
 }

@@ -14,11 +14,11 @@ use std::path::PathBuf;
 
 use clap::{Args, Parser, Subcommand};
 
-use crate::checks::has_errors;
+use crate::base::has_errors;
+use crate::render::json;
 use crate::render::text::{TextOptions, render_text};
-use crate::render::{Report, json};
 
-pub use load::{Checked, load_design};
+pub use load::load_design;
 
 /// The starter design written by `armsheet new`.
 pub const STARTER: &str = include_str!("starter.toml");
@@ -119,12 +119,11 @@ fn check(a: &CheckArgs) -> u8 {
         Ok(c) => c,
         Err(code) => return code,
     };
-    let report = checked.report();
     let out = if a.json {
-        json::report_json(&report)
+        json::report_json(&checked)
     } else {
         render_text(
-            &report,
+            &checked,
             TextOptions {
                 unicode: std::io::stdout().is_terminal(),
             },
@@ -161,15 +160,4 @@ pub fn print_stdout(s: &str) -> std::io::Result<()> {
     let mut out = std::io::stdout().lock();
     out.write_all(s.as_bytes())?;
     out.flush()
-}
-
-impl Checked {
-    /// The report view of this checked design.
-    pub fn report(&self) -> Report<'_> {
-        Report {
-            design: &self.design,
-            winding: &self.winding,
-            findings: &self.findings,
-        }
-    }
 }

@@ -12,11 +12,10 @@ use clap::{Args, ValueEnum};
 use super::load::load_design;
 use super::output::{write_atomic, write_new};
 use super::print_stdout;
+use crate::base::number::fmt_fixed;
 use crate::design::{WindingType, parse_design};
 use crate::rating::{self, RewindRequest, design_toml, rewind::flux_from_test, rewind::with_flux};
-use crate::render::number::fmt_fixed;
 use crate::render::rewind_text::render_rewind;
-use crate::winding::trace_winding;
 
 /// Help shown after `armsheet rewind --help`.
 pub const REWIND_HELP: &str = "\
@@ -182,15 +181,8 @@ pub fn rewind(a: &RewindArgs) -> u8 {
             ));
         }
     };
-    let new_rating = match trace_winding(&back) {
-        Ok(nw) => rating::rate(&back, &nw),
-        Err(e) => {
-            return refuse(&format!(
-                "the new design cannot be traced ({e}), so nothing was written"
-            ));
-        }
-    };
-    let report = render_rewind(&plan, &name, &asked, new_rating.as_ref());
+    let new = crate::checks::check(back);
+    let report = render_rewind(&plan, &name, &asked, new.rating.as_ref());
     if print_stdout(&report).is_err() {
         return 2;
     }

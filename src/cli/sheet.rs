@@ -11,7 +11,7 @@ use clap::Args;
 
 use super::load::load_design;
 use super::output::write_atomic;
-use crate::checks::has_errors;
+use crate::base::has_errors;
 use crate::layout::{Paper, Window};
 use crate::render::json::report_json;
 use crate::render::sheet::{SheetInput, render_sheets};
@@ -165,8 +165,10 @@ pub fn sheet(a: &SheetArgs) -> u8 {
         paper: a.paper,
         window: a.window.window(),
         failures,
-        extra_rows: crate::rating::rate(&checked.design, &checked.winding)
-            .map_or_else(Vec::new, |r| crate::rating::sheet_rows(&r)),
+        extra_rows: checked
+            .rating
+            .as_ref()
+            .map_or_else(Vec::new, crate::rating::sheet_rows),
         version: env!("CARGO_PKG_VERSION").to_string(),
     };
     let sheets = render_sheets(&input);
@@ -191,10 +193,7 @@ pub fn sheet(a: &SheetArgs) -> u8 {
         dir.join("connections.csv"),
         csv::connections_csv(&checked.design, &checked.winding).into_bytes(),
     ));
-    all.push((
-        dir.join("report.json"),
-        report_json(&checked.report()).into_bytes(),
-    ));
+    all.push((dir.join("report.json"), report_json(&checked).into_bytes()));
     all.append(&mut files);
     if !make_dir(&dir) {
         return 2;

@@ -3,51 +3,7 @@
 //! Part of the `design` stage. Later stages take a `Design` and never see TOML. Units are in
 //! the field names or docs; design-file keys are named in each doc comment.
 
-/// Lap or wave (`[winding] type`).
-#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
-pub enum WindingType {
-    /// Coil ends go to neighbouring segments; a = m·P.
-    Lap,
-    /// Coil ends go about two pole pitches apart; a = 2m.
-    Wave,
-}
-
-impl WindingType {
-    /// The design-file word.
-    pub fn as_str(self) -> &'static str {
-        match self {
-            WindingType::Lap => "lap",
-            WindingType::Wave => "wave",
-        }
-    }
-}
-
-/// Progressive or retrogressive (`[winding] direction`, default progressive).
-#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
-pub enum Direction {
-    /// Lap: y_c = +m. Wave: y_c = (C + m)/p, the trace lands m segments ahead after one round.
-    Progressive,
-    /// Lap: y_c = −m. Wave: y_c = (C − m)/p, the trace lands m segments behind after one round.
-    Retrogressive,
-}
-
-impl Direction {
-    /// The design-file word.
-    pub fn as_str(self) -> &'static str {
-        match self {
-            Direction::Progressive => "progressive",
-            Direction::Retrogressive => "retrogressive",
-        }
-    }
-
-    /// +1 progressive, −1 retrogressive.
-    pub fn sign(self) -> i64 {
-        match self {
-            Direction::Progressive => 1,
-            Direction::Retrogressive => -1,
-        }
-    }
-}
+pub use crate::theory::{Direction, WindingType};
 
 /// Sense of rotation seen from the commutator end (`[armature] rotation`, default `"cw"`).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -321,8 +277,11 @@ pub struct Design {
     pub slots: u32,
     /// `[armature] coils_per_slot` (u).
     pub coils_per_slot: u32,
-    /// `[armature] segments` as given; the engine works out C when absent.
-    pub segments: Option<u32>,
+    /// Commutator segments C, resolved: `[armature] segments` as given and validated, or
+    /// worked out for the winding kind when absent ([`crate::theory::WindingKind::default_segments`]).
+    pub segments: u32,
+    /// Whether `segments` was worked out rather than given.
+    pub segments_derived: bool,
     /// `[armature] rotation`.
     pub rotation: Rotation,
     /// `[armature] pole_arc`: pole arc / pole pitch (default 0.7).

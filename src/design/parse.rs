@@ -7,7 +7,7 @@ use toml::de::{DeTable, DeValue};
 use super::Diagnostic;
 use super::model::*;
 use super::reader::{At, Source, TableReader, nearest};
-use crate::winding::pitch;
+use crate::theory::wave_pitch_whole;
 
 const TABLES: &[&str] = &[
     "job",
@@ -409,7 +409,8 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
         poles: poles.value as u32,
         slots: slots.value as u32,
         coils_per_slot: u as u32,
-        segments: segments.map(|s| s.value as u32),
+        segments: active as u32,
+        segments_derived: segments.is_none(),
         rotation,
         pole_arc,
         winding_type: wtype,
@@ -576,7 +577,9 @@ fn resolve_segments(
                 "set segments = {positions}, or change coils_per_slot; dummy coils belong to wave windings"
             ))),
         (WindingType::Wave, None) => {
-            pitch::wave_active_coils(positions as u32, m as u32, p as u32, direction)
+            wtype
+                .kind()
+                .default_segments(positions as u32, m as u32, p as u32, direction)
                 .map(i64::from)
                 .ok_or_else(|| {
                     let at = win.raw("type").map_or(win.span.clone(), |v| v.span());
@@ -586,7 +589,8 @@ fn resolve_segments(
         }
         (WindingType::Wave, Some(c)) => {
             let sign = direction.sign();
-            let workable = |n: i64| n >= 2 && (n + sign * m) % p == 0;
+            let workable =
+                |n: i64| n >= 2 && wave_pitch_whole(n as u32, m as u32, p as u32, direction);
             if c.value > positions {
                 let below = (2..=positions).rev().find(|&n| workable(n));
                 return Err(src
@@ -611,17 +615,14 @@ fn resolve_segments(
                     .chain(above)
                     .map(|n| format!("{n} ({} dummy coil(s))", positions - n))
                     .collect();
-                let other = (c.value - sign * m) % p == 0;
+                let other = wave_pitch_whole(c.value as u32, m as u32, p as u32, direction.other());
                 let mut hint = if near.is_empty() {
                     "no count up to the coil count works".to_string()
                 } else {
                     format!("the nearest workable count(s): {}", near.join(" or "))
                 };
                 if other {
-                    let other_dir = match direction {
-                        Direction::Progressive => "retrogressive",
-                        Direction::Retrogressive => "progressive",
-                    };
+                    let other_dir = direction.other().as_str();
                     hint.push_str(&format!("; or keep {} and make the winding {other_dir}", c.value));
                 }
                 let sym = if sign > 0 { "+" } else { "−" };

@@ -8,8 +8,8 @@ use std::f64::consts::PI;
 
 use super::conductor::WireFamily;
 use super::connection::{Connection, connect};
+use crate::base::number::fmt_fixed;
 use crate::design::{Design, WindingType, bounds};
-use crate::render::number::fmt_fixed;
 
 /// What the advice needs to know about the machine as designed.
 #[derive(Clone, Copy, Debug)]

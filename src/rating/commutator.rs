@@ -123,18 +123,9 @@ pub fn coils_shorted(beta: f64, kind: WindingType, m: u32, p: u32) -> (u32, u32,
     let touch_hi = hi as i64 + 1;
     let per = |k: i64| (k - i64::from(m)).max(0) as u32;
     let (fewest, most) = (per(touch_lo), per(touch_hi));
-    match kind {
-        WindingType::Lap => (
-            fewest,
-            most,
-            format!("lap: a brush touching k segments shorts k - m coils (m = {m})"),
-        ),
-        WindingType::Wave => (
-            fewest * p,
-            most * p,
-            format!("wave: each bridged gap shorts p = {p} coils in series (k - m gaps, m = {m})"),
-        ),
-    }
+    let rules = kind.kind();
+    let gap = rules.coils_per_gap(p);
+    (fewest * gap, most * gap, rules.shorting_rule(m, p))
 }
 
 #[cfg(test)]

@@ -47,7 +47,7 @@ pub fn strands(shape: &ConductorShape) -> u32 {
 
 /// A conductor described in words: "2 × AWG 17 (1.150 mm)", "1.250 mm", "6.30 × 2.50 mm r 0.50".
 pub fn describe(shape: &ConductorShape) -> String {
-    use crate::render::number::fmt_fixed;
+    use crate::base::number::fmt_fixed;
     let n = strands(shape);
     let body = match *shape {
         ConductorShape::Round {
@@ -235,7 +235,7 @@ pub struct MeanTurn {
 /// connection taken as 1.25 coil pitches at the core surface [common practice, from memory].
 /// `None` when neither the length nor the core diameter and length are known.
 pub fn mean_turn(d: &Design, c: &Conductor) -> Option<MeanTurn> {
-    use crate::render::number::fmt_fixed;
+    use crate::base::number::fmt_fixed;
     if let Some(mm) = c.mean_turn_mm {
         return Some(MeanTurn {
             mm,

@@ -2,8 +2,8 @@
 //!
 //! Part of the `rating` stage. Used by the advice (more paths) and by the rewind.
 
-use crate::design::{Design, Direction, WindingType, bounds};
-use crate::winding::pitch::wave_active_coils;
+use crate::design::{Design, WindingType, bounds};
+use crate::theory::words::multiplicity_word;
 
 /// One way of connecting the armature's u·S coil positions.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -20,19 +20,6 @@ pub struct Connection {
     pub dummies: u32,
     /// True when C equals the segments of the design's own commutator.
     pub keeps_commutator: bool,
-}
-
-/// Parallel paths of a connection [src: standard textbook relations: lap a = m·P, wave a = 2m].
-pub fn paths(kind: WindingType, m: u32, poles: u32) -> u32 {
-    match kind {
-        WindingType::Lap => m * poles,
-        WindingType::Wave => 2 * m,
-    }
-}
-
-/// Whether `c` segments give a whole wave commutator pitch (C ± m)/p.
-pub fn wave_workable(c: u32, m: u32, p: u32, dir: Direction) -> bool {
-    (i64::from(c) + dir.sign() * i64::from(m)).rem_euclid(i64::from(p)) == 0
 }
 
 /// The connection `kind`, `m` on the design's coils, or why it cannot be made.
@@ -53,23 +40,21 @@ pub fn connect(
             bounds::MAX_MULTIPLICITY
         ));
     }
-    let segments = match kind {
-        WindingType::Lap => n,
-        WindingType::Wave => {
-            if p < 2 {
-                return Err(format!(
-                    "a wave winding needs at least 4 poles; this armature has {}",
-                    d.poles
-                ));
-            }
-            if current_segments <= n && wave_workable(current_segments, m, p, d.direction) {
-                current_segments
-            } else {
-                wave_active_coils(n, m, p, d.direction).ok_or_else(|| {
-                    format!("no segment count up to {n} gives a whole wave commutator pitch")
-                })?
-            }
-        }
+    let rules = kind.kind();
+    if d.poles < rules.min_poles() {
+        return Err(format!(
+            "a {} winding needs at least {} poles; this armature has {}",
+            rules.word(),
+            rules.min_poles(),
+            d.poles
+        ));
+    }
+    let segments = if rules.workable(current_segments, n, m, p, d.direction) {
+        current_segments
+    } else {
+        rules
+            .default_segments(n, m, p, d.direction)
+            .ok_or_else(|| format!("no segment count up to {n} gives a whole commutator pitch"))?
     };
     if segments < 2 * m * d.poles {
         return Err(format!(
@@ -81,7 +66,7 @@ pub fn connect(
     Ok(Connection {
         kind,
         multiplicity: m,
-        paths: paths(kind, m, d.poles),
+        paths: rules.parallel_paths(m, d.poles),
         segments,
         dummies: n - segments,
         keeps_commutator: segments == current_segments,
@@ -91,12 +76,7 @@ pub fn connect(
 impl Connection {
     /// "simplex lap (a = 4, C = 36)".
     pub fn label(&self) -> String {
-        let word = match self.multiplicity {
-            1 => "simplex".to_string(),
-            2 => "duplex".to_string(),
-            3 => "triplex".to_string(),
-            k => format!("{k}-plex"),
-        };
+        let word = multiplicity_word(self.multiplicity);
         let dummies = if self.dummies > 0 {
             format!(", {} dummy", self.dummies)
         } else {

@@ -6,6 +6,8 @@
 
 use std::fmt::Write;
 
+use crate::theory::words::span_shop;
+
 use crate::design::{
     BrushWidth, ConductorShape, Design, EqualizerChoice, LIMIT_KEYS, Limits, ThermalClass,
 };
@@ -42,8 +44,8 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
     let _ = writeln!(s, "poles = {}", d.poles);
     let _ = writeln!(s, "slots = {}", d.slots);
     let _ = writeln!(s, "coils_per_slot = {}", d.coils_per_slot);
-    if let Some(c) = d.segments {
-        let _ = writeln!(s, "segments = {c}");
+    if !d.segments_derived {
+        let _ = writeln!(s, "segments = {}", d.segments);
     }
     let _ = writeln!(s, "rotation = \"{}\"", d.rotation.as_str());
     let _ = writeln!(s, "pole_arc = {}", num(d.pole_arc, 4));
@@ -51,7 +53,7 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
     let _ = writeln!(s, "type = \"{}\"", d.winding_type.as_str());
     let _ = writeln!(s, "multiplicity = {}", d.multiplicity);
     let _ = writeln!(s, "direction = \"{}\"", d.direction.as_str());
-    let _ = writeln!(s, "span = \"1-{}\"", d.span + 1);
+    let _ = writeln!(s, "span = \"{}\"", span_shop(d.span));
     let _ = writeln!(s, "turns = {}", d.turns);
     let _ = writeln!(s, "lead_offset = {}", d.lead_offset);
     match d.equalizers {

@@ -3,8 +3,6 @@
 //! Part of the `rating` stage: pure arithmetic. E = P·Z·Φ·N/(60·a) [src: any DC machine text,
 //! e.g. Chapman, *Electric Machinery Fundamentals*, DC machine chapters].
 
-use std::f64::consts::PI;
-
 use crate::design::{BrushGrade, Mode};
 
 /// Conventional brush contact drop for the whole machine (both polarities), V: 2.0 for carbon
@@ -30,25 +28,7 @@ pub fn induced_emf(mode: Mode, volts: f64, ir_drop: f64, brush_drop: f64) -> f64
     }
 }
 
-/// E = P·Z·Φ·N/(60·a), V, with Φ in Wb and N in rpm.
-pub fn emf_v(poles: u32, z: u64, paths: u32, flux_wb: f64, speed_rpm: f64) -> f64 {
-    f64::from(poles) * z as f64 * flux_wb * speed_rpm / (60.0 * f64::from(paths))
-}
-
-/// The flux per pole that gives `emf` at `speed_rpm`, Wb: Φ = 60·a·E/(P·Z·N).
-pub fn flux_for(poles: u32, z: u64, paths: u32, emf: f64, speed_rpm: f64) -> f64 {
-    60.0 * f64::from(paths) * emf / (f64::from(poles) * z as f64 * speed_rpm)
-}
-
-/// The speed at which `flux_wb` gives `emf`, rpm: N = 60·a·E/(P·Z·Φ).
-pub fn speed_for(poles: u32, z: u64, paths: u32, emf: f64, flux_wb: f64) -> f64 {
-    60.0 * f64::from(paths) * emf / (f64::from(poles) * z as f64 * flux_wb)
-}
-
-/// Machine constant K = P·Z/(2π·a); K·Φ is both V per rad/s and N·m per A.
-pub fn machine_constant(poles: u32, z: u64, paths: u32) -> f64 {
-    f64::from(poles) * z as f64 / (2.0 * PI * f64::from(paths))
-}
+pub use crate::theory::emf::{emf_v, flux_for, machine_constant, speed_for};
 
 /// Where the EMF came from.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]

@@ -1,29 +1,24 @@
 //! The rating checks as [`Finding`]s, for the checks list of `check`.
 //!
-//! Bridges the pure `rating` stage into the `checks` stage: each finding carries the rule's
-//! id, severity, the computed value and the limit with units, and the rule's source.
+//! Part of the `rating` stage: each finding carries the rule's id, severity, the computed value
+//! and the limit with units, and the rule's source. The `checks` stage merges them into its
+//! list; the report is computed once, by [`crate::checks::check`].
 
-use super::{Level, RatingReport, rate};
-use crate::checks::{Finding, Severity};
-use crate::design::Design;
-use crate::winding::Winding;
+use super::RatingReport;
+use crate::base::Finding;
 
-/// The rating findings of `design`, in rule order; empty without rating inputs.
-pub fn rating_findings(design: &Design, winding: &Winding) -> Vec<Finding> {
-    rate(design, winding).map_or_else(Vec::new, |r| findings_of(&r))
-}
-
-/// The findings of a computed report.
+/// The findings of a computed report, in rule order.
 pub fn findings_of(r: &RatingReport) -> Vec<Finding> {
     r.checks
         .iter()
         .map(|c| {
-            let severity = match c.rule.level {
-                Level::Error => Severity::Error,
-                Level::Warning => Severity::Warning,
-                Level::Info => Severity::Info,
-            };
-            Finding::new(c.rule.id, severity, c.passed, c.message(), c.rule.source)
+            Finding::new(
+                c.rule.id,
+                c.rule.level,
+                c.passed,
+                c.message(),
+                c.rule.source,
+            )
         })
         .collect()
 }

@@ -3,30 +3,9 @@
 //! Part of the `rating` stage. Every threshold comes from [`Limits`] (defaults there, with
 //! their sources), so a shop's `[limits]` override changes the verdict.
 
+use crate::base::Severity;
+use crate::base::number::fmt_fixed;
 use crate::design::Limits;
-use crate::render::number::fmt_fixed;
-
-/// How much a failed rating check matters (mapped one to one onto the checks' severities).
-#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
-pub enum Level {
-    /// The winding should not be built this way.
-    Error,
-    /// It will run, but a rule of the trade is bent.
-    Warning,
-    /// Worth knowing.
-    Info,
-}
-
-impl Level {
-    /// Lower-case word.
-    pub fn as_str(self) -> &'static str {
-        match self {
-            Level::Error => "error",
-            Level::Warning => "warning",
-            Level::Info => "info",
-        }
-    }
-}
 
 /// Whether the limit is an upper or a lower bound.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -53,14 +32,15 @@ pub struct Rule {
     /// Upper or lower bound.
     pub bound: Bound,
     /// Severity when it fails.
-    pub level: Level,
+    pub level: Severity,
     /// Where the rule comes from.
     pub source: &'static str,
 }
 
 /// The rules, in report order.
 pub mod rules {
-    use super::{Bound, Level, Rule};
+    use super::{Bound, Rule};
+    use crate::base::Severity;
 
     /// Average segment voltage.
     pub const SEGMENT_VOLTS_AVG: Rule = Rule {
@@ -70,7 +50,7 @@ pub mod rules {
         unit: "V",
         decimals: 2,
         bound: Bound::AtMost,
-        level: Level::Error,
+        level: Severity::Error,
         source: "keep the average segment voltage within about 15 V [common practice]",
     };
     /// Estimated peak segment voltage.
@@ -81,7 +61,7 @@ pub mod rules {
         unit: "V",
         decimals: 2,
         bound: Bound::AtMost,
-        level: Level::Warning,
+        level: Severity::Warning,
         source: "peak about the average divided by the pole-arc ratio, within about 30 V [common practice; Sawhney, A Course in Electrical Machine Design, from memory]",
     };
     /// Current per parallel path.
@@ -92,7 +72,7 @@ pub mod rules {
         unit: "A",
         decimals: 2,
         bound: Bound::AtMost,
-        level: Level::Warning,
+        level: Severity::Warning,
         source: "about 200-250 A per path at most; above that use more paths [common practice]",
     };
     /// Current per brush arm.
@@ -103,7 +83,7 @@ pub mod rules {
         unit: "A",
         decimals: 2,
         bound: Bound::AtMost,
-        level: Level::Warning,
+        level: Severity::Warning,
         source: "at most about 400 A per brush arm [common practice]",
     };
     /// Current density, upper bound.
@@ -114,7 +94,7 @@ pub mod rules {
         unit: "A/mm2",
         decimals: 2,
         bound: Bound::AtMost,
-        level: Level::Warning,
+        level: Severity::Warning,
         source: "armature current density 4.5-7 A/mm2 [common practice, from memory]",
     };
     /// Current density, lower bound.
@@ -125,7 +105,7 @@ pub mod rules {
         unit: "A/mm2",
         decimals: 2,
         bound: Bound::AtLeast,
-        level: Level::Info,
+        level: Severity::Info,
         source: "armature current density 4.5-7 A/mm2 [common practice, from memory]",
     };
     /// Segment pitch.
@@ -136,7 +116,7 @@ pub mod rules {
         unit: "mm",
         decimals: 2,
         bound: Bound::AtLeast,
-        level: Level::Error,
+        level: Severity::Error,
         source: "segment pitch at least 4 mm (3.2 mm copper + 0.8 mm mica) [common practice]",
     };
     /// Commutator peripheral speed, preferred.
@@ -147,7 +127,7 @@ pub mod rules {
         unit: "m/s",
         decimals: 2,
         bound: Bound::AtMost,
-        level: Level::Warning,
+        level: Severity::Warning,
         source: "commutator peripheral speed about 15 m/s preferred, 30 m/s at most [common practice]",
     };
     /// Commutator peripheral speed, maximum.
@@ -158,7 +138,7 @@ pub mod rules {
         unit: "m/s",
         decimals: 2,
         bound: Bound::AtMost,
-        level: Level::Error,
+        level: Severity::Error,
         source: "commutator peripheral speed about 15 m/s preferred, 30 m/s at most [common practice]",
     };
     /// Brush width, lower bound.
@@ -169,7 +149,7 @@ pub mod rules {
         unit: "segment pitches",
         decimals: 2,
         bound: Bound::AtLeast,
-        level: Level::Warning,
+        level: Severity::Warning,
         source: "brushes 1 to 3 segment pitches wide [common practice]",
     };
     /// Brush width, upper bound.
@@ -180,7 +160,7 @@ pub mod rules {
         unit: "segment pitches",
         decimals: 2,
         bound: Bound::AtMost,
-        level: Level::Warning,
+        level: Severity::Warning,
         source: "brushes 1 to 3 segment pitches wide [common practice]",
     };
     /// Electric loading.
@@ -191,7 +171,7 @@ pub mod rules {
         unit: "A/m",
         decimals: 0,
         bound: Bound::AtMost,
-        level: Level::Warning,
+        level: Severity::Warning,
         source: "armature electric loading up to about 40 000 A/m [common practice, from memory]",
     };
 

@@ -8,8 +8,8 @@
 use super::conductor::{self, WireFamily, WireOption};
 use super::connection::{Connection, connect};
 use super::{RatingReport, design_toml, emf, rate_with};
+use crate::base::number::fmt_fixed;
 use crate::design::{ConductorShape, Design, EqualizerChoice, Mode, Rating, WindingType, bounds};
-use crate::render::number::fmt_fixed;
 use crate::winding::Winding;
 
 /// What the rewinder asks for.
@@ -353,15 +353,9 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
 
     // Segments and dummy coils.
     if !conn.keeps_commutator {
-        let why = match kind {
-            WindingType::Lap => format!("a lap winding uses all {} coils", d.coil_positions()),
-            WindingType::Wave => format!(
-                "a {} wave needs (C {} {m})/{} whole, which {c0} does not give",
-                d.direction.as_str(),
-                if d.direction.sign() > 0 { "+" } else { "-" },
-                d.pole_pairs()
-            ),
-        };
+        let why = kind
+            .kind()
+            .segment_rule(c0, d.coil_positions(), m, d.pole_pairs(), d.direction);
         notes.push(format!("segments: the commutator has {c0} segments, the new winding needs {c1} ({why}): fit a new commutator"));
     }
     if conn.dummies > 0 {
@@ -394,7 +388,8 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
     nd.winding_type = kind;
     nd.multiplicity = m;
     nd.turns = turns;
-    nd.segments = Some(c1);
+    nd.segments = c1;
+    nd.segments_derived = false;
     nd.flux_per_pole_mwb = Some(flux_wb * 1000.0);
     nd.speed_rpm = Some(speed);
     let mut r = d.rating.clone().unwrap_or(Rating {

@@ -4,7 +4,7 @@
 //! Values are kept to about 20 characters so they fit the block's value column.
 
 use super::RatingReport;
-use crate::render::number::fmt_fixed;
+use crate::base::number::fmt_fixed;
 
 /// Short label/value pairs for the sheet: conductor, resistance, EMF, segment voltage,
 /// currents, commutator speed and the withstand test voltages (the sheet carries the caution

@@ -5,15 +5,15 @@
 
 use serde_json::{Map, Value, json};
 
-use super::number::round_to;
-use super::report::{Report, span_shop};
-use crate::checks::is_symmetric;
+use crate::base::number::round_to;
+use crate::checks::Checked;
 use crate::design::SpanSource;
+use crate::theory::words::span_shop;
 use crate::winding::EqualizerPlan;
 
 /// Builds the report object.
-pub fn report_value(r: &Report<'_>) -> Value {
-    let (d, w) = (r.design, r.winding);
+pub fn report_value(r: &Checked) -> Value {
+    let (d, w) = (&r.design, &r.winding);
     let k = &w.constants;
     let mut o = Map::new();
     let mut put = |key: &str, v: Value| {
@@ -60,7 +60,7 @@ pub fn report_value(r: &Report<'_>) -> Value {
     put("brush_sets", json!(w.brush_sets()));
     put("brush_sets_minimum", json!(w.brush_sets_minimum));
     put("machine_constant", json!(round_to(k.machine_constant, 6)));
-    put("symmetric", json!(is_symmetric(r.findings)));
+    put("symmetric", json!(r.symmetric));
     put(
         "path_balance",
         json!({
@@ -120,7 +120,10 @@ pub fn report_value(r: &Report<'_>) -> Value {
         ),
     );
     put("shorted_coils", json!(w.shorted_coils));
-    put("rating", super::rating_json::rating_value(d, w));
+    put(
+        "rating",
+        super::rating_json::rating_value(r.rating.as_ref()),
+    );
     put(
         "checks",
         Value::Array(
@@ -188,7 +191,7 @@ pub fn report_value(r: &Report<'_>) -> Value {
 }
 
 /// The report as pretty-printed JSON with a final newline.
-pub fn report_json(r: &Report<'_>) -> String {
+pub fn report_json(r: &Checked) -> String {
     let mut s = serde_json::to_string_pretty(&report_value(r)).unwrap_or_else(|_| "{}".into());
     s.push('\n');
     s

@@ -5,7 +5,6 @@
 
 pub mod csv;
 pub mod json;
-pub mod number;
 pub mod pdf;
 pub mod rating_json;
 pub mod rating_text;
@@ -16,5 +15,3 @@ pub mod sheet_data;
 pub mod svg;
 pub mod svg_writer;
 pub mod text;
-
-pub use report::Report;

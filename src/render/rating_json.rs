@@ -5,15 +5,13 @@
 
 use serde_json::{Value, json};
 
-use super::number::round_to;
-use crate::design::Design;
+use crate::base::number::round_to;
 use crate::rating::test_voltage::{TEST_VOLTAGE_CAUTION, TEST_VOLTAGE_SOURCE};
-use crate::rating::{Bound, EmfBasis, MeanTurnSource, RatingReport, rate};
-use crate::winding::Winding;
+use crate::rating::{Bound, EmfBasis, MeanTurnSource, RatingReport};
 
-/// The `rating` value for `d`: an object, or null.
-pub fn rating_value(d: &Design, w: &Winding) -> Value {
-    rate(d, w).map_or(Value::Null, |r| report_value(&r))
+/// The `rating` value: an object, or null when the design has no rating inputs.
+pub fn rating_value(rating: Option<&RatingReport>) -> Value {
+    rating.map_or(Value::Null, report_value)
 }
 
 fn r(x: f64, n: i32) -> Value {

@@ -6,16 +6,15 @@
 
 use std::fmt::Write;
 
-use super::number::fmt_fixed;
+use crate::base::number::fmt_fixed;
 use crate::design::Design;
 use crate::rating::test_voltage::{TEST_VOLTAGE_CAUTION, TEST_VOLTAGE_SOURCE};
-use crate::rating::{EmfBasis, MeanTurnSource, RatingReport, rate};
-use crate::winding::Winding;
+use crate::rating::{EmfBasis, MeanTurnSource, RatingReport};
 
 /// Appends the rating section for `d` (nothing when it has no rating inputs).
-pub fn rating_section(s: &mut String, d: &Design, w: &Winding) {
-    if let Some(r) = rate(d, w) {
-        render_rating(s, d, &r);
+pub fn rating_section(s: &mut String, d: &Design, rating: Option<&RatingReport>) {
+    if let Some(r) = rating {
+        render_rating(s, d, r);
     }
 }
 

@@ -5,8 +5,8 @@
 
 use std::fmt::Write;
 
-use super::number::fmt_fixed;
 use super::report::CAUTIONS;
+use crate::base::number::fmt_fixed;
 use crate::rating::conductor::{self, WireFamily};
 use crate::rating::rewind::signed;
 use crate::rating::{RatingReport, RewindPlan};

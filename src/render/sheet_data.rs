@@ -6,13 +6,8 @@
 use crate::design::{ConductorShape, Design};
 use crate::winding::{EqualizerPlan, Winding};
 
-use super::number::fmt_fixed;
-use super::report::multiplicity_word;
-
-/// The span in shop form with an en dash, "1–8" for 7 slots.
-pub fn span_words(span: u32) -> String {
-    format!("1\u{2013}{}", span + 1)
-}
+use crate::base::number::fmt_fixed;
+use crate::theory::words::{multiplicity_word, span_shop_dash};
 
 /// A signed pitch, "+1" or "−3".
 pub fn signed(x: i64) -> String {
@@ -62,7 +57,11 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
     row("dummy coils", dummies);
     row(
         "span",
-        format!("{} ({} slots)", span_words(w.pitches.span), w.pitches.span),
+        format!(
+            "{} ({} slots)",
+            span_shop_dash(w.pitches.span),
+            w.pitches.span
+        ),
     );
     row("turns per coil", d.turns.to_string());
     row("lead offset", format!("{} seg", d.lead_offset));

@@ -6,7 +6,7 @@
 
 use std::fmt::Write as _;
 
-use super::number::fmt_fixed;
+use crate::base::number::fmt_fixed;
 
 /// Writes a coordinate or length: two decimals at most, trailing zeros dropped, never "-0".
 pub fn num(x: f64) -> String {

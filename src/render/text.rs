@@ -6,10 +6,12 @@
 
 use std::fmt::Write;
 
-use super::number::fmt_fixed;
-use super::report::{CAUTIONS, Report, multiplicity_word, span_shop};
-use crate::checks::{Finding, Severity};
+use super::report::CAUTIONS;
+use crate::base::number::fmt_fixed;
+use crate::base::{Finding, Severity};
+use crate::checks::Checked;
 use crate::design::{Design, SpanSource};
+use crate::theory::words::{multiplicity_word, span_shop};
 use crate::winding::{EqualizerPlan, Winding};
 
 /// Options for the text report.
@@ -20,16 +22,16 @@ pub struct TextOptions {
 }
 
 /// Renders the whole `check` report.
-pub fn render_text(r: &Report<'_>, opts: TextOptions) -> String {
+pub fn render_text(r: &Checked, opts: TextOptions) -> String {
     let mut s = String::new();
-    let (d, w) = (r.design, r.winding);
+    let (d, w) = (&r.design, &r.winding);
     header(&mut s, d);
     summary(&mut s, d, w);
     pitches(&mut s, d, w);
     paths(&mut s, d, w);
     constants(&mut s, d, w);
-    super::rating_text::rating_section(&mut s, d, w);
-    checks(&mut s, r.findings, opts);
+    super::rating_text::rating_section(&mut s, d, r.rating.as_ref());
+    checks(&mut s, &r.findings, opts);
     connections(&mut s, w);
     sequence(&mut s, w);
     equalizers(&mut s, w);

@@ -19,60 +19,32 @@
 mod geometry;
 mod model;
 mod paths;
-pub mod pitch;
 mod trace;
 
 #[cfg(test)]
 mod tests;
 
-use std::f64::consts::PI;
-
+pub use crate::theory::pitch::Pitches;
 pub use model::*;
 
-use crate::design::{Design, EqualizerChoice, Mode, WindingType};
+use crate::design::{Design, EqualizerChoice, Mode};
+use crate::theory::{emf, pitch};
 use geometry::{Geometry, SAMPLES_PER_SEGMENT};
 use paths::BrushSpot;
 
 /// Mean spread between path EMFs, in coil EMFs, above which the paths count as unbalanced.
 pub const BALANCE_TOLERANCE: f64 = 0.5;
 
-/// A design the engine cannot wind (never returned for a design that passed validation).
-#[derive(Clone, Debug, PartialEq, Eq)]
-pub struct WindingError(pub String);
-
-impl std::fmt::Display for WindingError {
-    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
-        f.write_str(&self.0)
-    }
-}
-
-/// Winds and traces `design`.
-pub fn trace_winding(design: &Design) -> Result<Winding, WindingError> {
+/// Winds and traces `design`. The design stage has resolved and validated the segment count,
+/// so every `Design` can be wound.
+pub fn trace_winding(design: &Design) -> Winding {
     let d = design;
     let n = d.coil_positions();
     let m = d.multiplicity;
     let p = d.pole_pairs();
-    let (c, derived) = match (d.segments, d.winding_type) {
-        (Some(c), _) => (c, false),
-        (None, WindingType::Lap) => (n, true),
-        (None, WindingType::Wave) => (
-            pitch::wave_active_coils(n, m, p, d.direction)
-                .ok_or_else(|| WindingError("no workable segment count".into()))?,
-            true,
-        ),
-    };
-    if c > n || c < (m + 1) * d.poles {
-        return Err(WindingError(format!(
-            "{c} segments cannot be wound on {n} coils with {} poles",
-            d.poles
-        )));
-    }
+    let c = d.segments;
+    let kind = d.winding_type.kind();
     let yc = pitch::commutator_pitch(d.winding_type, d.direction, c, m, p);
-    if d.winding_type == WindingType::Wave
-        && (i64::from(c) + d.direction.sign() * i64::from(m)) % i64::from(p) != 0
-    {
-        return Err(WindingError("the commutator pitch is not whole".into()));
-    }
     let pitches = pitch::pitches(d.winding_type, d.span, d.coils_per_slot, yc);
     let dummy_coils = place_dummies(n, n - c);
     let connections = connect(d, c, yc, &dummy_coils);
@@ -136,11 +108,8 @@ pub fn trace_winding(design: &Design) -> Result<Winding, WindingError> {
     shorted.sort_unstable();
 
     let balance = simulate_balance(d, &geo, &closed_windings, &spots, c, n);
-    let paths_formula = match d.winding_type {
-        WindingType::Lap => m * d.poles,
-        WindingType::Wave => 2 * m,
-    };
-    let reentrancy_formula = pitch::gcd(u64::from(c), yc.unsigned_abs()) as u32;
+    let paths_formula = kind.parallel_paths(m, d.poles);
+    let reentrancy_formula = pitch::reentrancy(c, yc);
     let conductors = 2 * u64::from(c) * u64::from(d.turns);
     let a = path_list.len() as u32;
     let constants = machine_constants(d, conductors, a);
@@ -149,20 +118,17 @@ pub fn trace_winding(design: &Design) -> Result<Winding, WindingError> {
         + f64::from(d.lead_offset) * delta)
         .rem_euclid(360.0);
 
-    Ok(Winding {
+    Winding {
         coils: n,
         active_coils: c,
         dummy_coils,
-        segments_derived: derived,
+        segments_derived: d.segments_derived,
         conductors,
         pitches,
         connections,
         closed_windings,
         brushes,
-        brush_sets_minimum: match d.winding_type {
-            WindingType::Lap => d.poles,
-            WindingType::Wave => 2,
-        },
+        brush_sets_minimum: kind.fewest_brush_sets(d.poles),
         paths: path_list,
         shorted_coils: shorted,
         coil_current,
@@ -176,7 +142,7 @@ pub fn trace_winding(design: &Design) -> Result<Winding, WindingError> {
             .collect(),
         segment1_deg,
         constants,
-    })
+    }
 }
 
 /// Spreads `count` dummy coils evenly: positions ⌊k·N/d⌋ for k = 1…d (the last is coil N).
@@ -309,7 +275,7 @@ fn simulate_balance(
 
 /// Type-A equalizers: points two pole pitches (2C/P segments) apart, p points each.
 fn plan_equalizers(d: &Design, c: u32, reentrancy: u32) -> EqualizerPlan {
-    if d.winding_type == WindingType::Wave {
+    if !d.winding_type.kind().takes_equalizers() {
         return EqualizerPlan::NotNeeded;
     }
     let p = d.pole_pairs();
@@ -360,17 +326,15 @@ fn plan_equalizers(d: &Design, c: u32, reentrancy: u32) -> EqualizerPlan {
 /// K = P·Z/(2π·a); with Φ, K·Φ (V per rad/s = N·m per A); with a speed, E = K·Φ·ω.
 /// [src: Chapman, *Electric Machinery Fundamentals*, DC machine chapters; E = PZΦN/(60a).]
 fn machine_constants(d: &Design, z: u64, a: u32) -> Constants {
-    let k = if a == 0 {
-        0.0
-    } else {
-        f64::from(d.poles) * z as f64 / (2.0 * PI * f64::from(a))
-    };
+    let k = emf::machine_constant(d.poles, z, a);
     let kphi = d.flux_per_pole_mwb.map(|f| k * f / 1000.0);
     Constants {
         machine_constant: k,
         emf_constant_v_per_rad_s: kphi,
-        emf_v_per_1000_rpm: kphi.map(|x| x * 1000.0 * 2.0 * PI / 60.0),
+        emf_v_per_1000_rpm: kphi.map(emf::v_per_1000_rpm),
         torque_constant_nm_per_a: kphi,
-        emf_v: kphi.zip(d.speed_rpm).map(|(x, n)| x * n * 2.0 * PI / 60.0),
+        emf_v: kphi
+            .zip(d.speed_rpm)
+            .map(|(x, n)| x * n * emf::RAD_S_PER_RPM),
     }
 }

@@ -4,6 +4,8 @@
 //! Angles are mechanical degrees in the rotor frame at the reference position, measured from
 //! the centre of slot 1 towards rising slot numbers (clockwise seen from the commutator end).
 
+use super::Pitches;
+
 /// Where a coil side lies.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub struct SlotPlace {
@@ -30,22 +32,6 @@ pub struct Connection {
     pub end_segment: Option<u32>,
     /// A dummy coil: wound for balance, ends cut back and taped, not connected.
     pub dummy: bool,
-}
-
-/// The pitches, in coil-side units of the textbook numbering unless said otherwise.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub struct Pitches {
-    /// Coil span in slots (y_s); shop form "1–(1+y_s)".
-    pub span: u32,
-    /// Back pitch y_b = 2u·y_s + 1.
-    pub back: i64,
-    /// Front pitch y_f: lap y_b ∓ 2m, wave 2y_c − y_b.
-    pub front: i64,
-    /// Resultant pitch: top side to the next top side in the trace, 2·y_c.
-    pub resultant: i64,
-    /// Commutator pitch y_c in segments, signed: + towards rising segment numbers.
-    /// Lap ±m; wave (C ± m)/p, which is positive for both directions.
-    pub commutator: i64,
 }
 
 /// One step of the trace: a coil and the segments it joins.

@@ -4,7 +4,7 @@ use super::*;
 use crate::design::parse_design;
 
 fn wind(text: &str) -> Winding {
-    trace_winding(&parse_design(text, "t.toml").unwrap()).unwrap()
+    trace_winding(&parse_design(text, "t.toml").unwrap())
 }
 
 fn lap(extra_arm: &str, extra_win: &str) -> Winding {

@@ -19,7 +19,7 @@ pub fn fixture(name: &str) -> String {
 
 pub fn load(name: &str, text: &str) -> (Design, Winding) {
     let d = parse_design(text, name).unwrap();
-    let w = trace_winding(&d).unwrap();
+    let w = trace_winding(&d);
     (d, w)
 }
 

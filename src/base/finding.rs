@@ -1,6 +1,6 @@
 //! `Finding`: the outcome of one rule check, with its severity and the rule's source.
 //!
-//! Part of the `checks` stage. Findings are returned, never printed.
+//! Part of the `base` leaf: the `checks` and `rating` stages return findings, never print them.
 
 /// How much a failed check matters.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]

@@ -1,27 +1,29 @@
-//! Pitch arithmetic: commutator, back, front and resultant pitches, and the wave coil count.
+//! Pitch arithmetic: back, front, resultant and commutator pitches, and the reentrancy formula.
 //!
-//! Part of the `winding` stage; pure integer arithmetic, also used by `design` validation.
+//! Part of the `theory` stage; pure integer arithmetic, used by `design` validation, the
+//! engine, the checks and the rating.
 
-use crate::design::{Direction, WindingType};
-
-use super::Pitches;
+use super::kind::{Direction, WindingType};
 
 /// Greatest common divisor.
 pub fn gcd(a: u64, b: u64) -> u64 {
     if b == 0 { a } else { gcd(b, a % b) }
 }
 
-/// Largest C ≤ `positions` with (C ± m)/p whole for `direction`, i.e. the fewest dummy coils.
-///
-/// [src: textbook treatment of dummy coils in wave windings, e.g. Theraja, *Electrical
-/// Technology* vol. 2, ch. 26 — from memory as to chapter.]
-pub fn wave_active_coils(positions: u32, m: u32, p: u32, direction: Direction) -> Option<u32> {
-    let (n, m, p) = (i64::from(positions), i64::from(m), i64::from(p));
-    let s = direction.sign();
-    (2..=n)
-        .rev()
-        .find(|c| (c + s * m).rem_euclid(p) == 0)
-        .map(|c| c as u32)
+/// The pitches, in coil-side units of the textbook numbering unless said otherwise.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct Pitches {
+    /// Coil span in slots (y_s); shop form "1–(1+y_s)".
+    pub span: u32,
+    /// Back pitch y_b = 2u·y_s + 1.
+    pub back: i64,
+    /// Front pitch y_f: lap y_b ∓ 2m, wave 2y_c − y_b.
+    pub front: i64,
+    /// Resultant pitch: top side to the next top side in the trace, 2·y_c.
+    pub resultant: i64,
+    /// Commutator pitch y_c in segments, signed: + towards rising segment numbers.
+    /// Lap ±m; wave (C ± m)/p, which is positive for both directions.
+    pub commutator: i64,
 }
 
 /// Signed commutator pitch y_c in segments.
@@ -29,11 +31,7 @@ pub fn wave_active_coils(positions: u32, m: u32, p: u32, direction: Direction) -
 /// Lap: ±m. Wave: (C ± m)/p with + progressive (always positive).
 /// [src: standard textbook relations; DOMAIN.md "Lap windings", "Wave windings".]
 pub fn commutator_pitch(kind: WindingType, dir: Direction, c: u32, m: u32, p: u32) -> i64 {
-    let (c, m, p) = (i64::from(c), i64::from(m), i64::from(p));
-    match kind {
-        WindingType::Lap => dir.sign() * m,
-        WindingType::Wave => (c + dir.sign() * m) / p,
-    }
+    kind.kind().commutator_pitch(c, m, p, dir)
 }
 
 /// All pitches for a winding with `u` coils per slot and span `span` slots.
@@ -42,40 +40,32 @@ pub fn commutator_pitch(kind: WindingType, dir: Direction, c: u32, m: u32, p: u3
 /// (= y_b ∓ 2m). Wave: y_f = 2·y_c − y_b. Resultant 2·y_c.
 pub fn pitches(kind: WindingType, span: u32, u: u32, yc: i64) -> Pitches {
     let back = 2 * i64::from(u) * i64::from(span) + 1;
-    let front = match kind {
-        WindingType::Lap => back - 2 * yc,
-        WindingType::Wave => 2 * yc - back,
-    };
     Pitches {
         span,
         back,
-        front,
+        front: kind.kind().front_pitch(back, yc),
         resultant: 2 * yc,
         commutator: yc,
     }
 }
 
+/// Reentrancy by the formula: gcd(C, |y_c|) closed windings.
+pub fn reentrancy(c: u32, yc: i64) -> u32 {
+    gcd(u64::from(c), yc.unsigned_abs()) as u32
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::design::Direction::*;
-    use crate::design::WindingType::*;
+    use Direction::*;
+    use WindingType::*;
 
     #[test]
     fn gcd_cases() {
         assert_eq!(gcd(12, 18), 6);
         assert_eq!(gcd(35, 12), 1);
         assert_eq!(gcd(7, 0), 7);
-    }
-
-    #[test]
-    fn wave_coil_count_takes_fewest_dummies() {
-        // 36 positions, 6 poles: (36+1)/3 is not whole, (35+1)/3 = 12 is.
-        assert_eq!(wave_active_coils(36, 1, 3, Progressive), Some(35));
-        // Retrogressive: (37−1)/3 would need 37; (34−1)/3 = 11 is the first at or below 36.
-        assert_eq!(wave_active_coils(36, 1, 3, Retrogressive), Some(34));
-        // No dummy needed.
-        assert_eq!(wave_active_coils(25, 1, 2, Progressive), Some(25));
+        assert_eq!(reentrancy(36, -2), 2);
     }
 
     #[test]

@@ -1,6 +1,6 @@
 //! The one number writer: every number that reaches output goes through here.
 //!
-//! Part of the `render` stage. Fixed precision, never `-0.00`, so output is byte-stable.
+//! Part of the `base` leaf, used by every stage that words a number. Fixed precision, never `-0.00`, so output is byte-stable.
 
 /// Writes `x` with exactly `decimals` digits after the point; `-0.00` becomes `0.00`.
 pub fn fmt_fixed(x: f64, decimals: usize) -> String {

@@ -1,0 +1,242 @@
+//! The winding kinds and every fact that differs between them.
+//!
+//! Part of the `theory` stage. Each kind is a type implementing [`WindingKind`];
+//! [`WindingType::kind`] is the only place that matches on the kind. Sources: the standard
+//! textbook relations (DOMAIN.md "Lap windings", "Wave windings"; Theraja, *Electrical
+//! Technology* vol. 2, ch. 26, from memory as to chapter).
+
+/// Lap or wave (`[winding] type`).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
+pub enum WindingType {
+    /// Coil ends go to neighbouring segments; a = m·P.
+    Lap,
+    /// Coil ends go about two pole pitches apart; a = 2m.
+    Wave,
+}
+
+impl WindingType {
+    /// Every kind, in design-file order.
+    pub const ALL: [WindingType; 2] = [WindingType::Lap, WindingType::Wave];
+
+    /// The facts of this kind.
+    pub fn kind(self) -> &'static dyn WindingKind {
+        match self {
+            WindingType::Lap => &Lap,
+            WindingType::Wave => &Wave,
+        }
+    }
+
+    /// The design-file word (`"lap"`, `"wave"`).
+    pub fn as_str(self) -> &'static str {
+        self.kind().word()
+    }
+}
+
+/// Progressive or retrogressive (`[winding] direction`, default progressive).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
+pub enum Direction {
+    /// Lap: y_c = +m. Wave: y_c = (C + m)/p, the trace lands m segments ahead after one round.
+    Progressive,
+    /// Lap: y_c = −m. Wave: y_c = (C − m)/p, the trace lands m segments behind after one round.
+    Retrogressive,
+}
+
+impl Direction {
+    /// The design-file word.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Direction::Progressive => "progressive",
+            Direction::Retrogressive => "retrogressive",
+        }
+    }
+
+    /// +1 progressive, −1 retrogressive.
+    pub fn sign(self) -> i64 {
+        match self {
+            Direction::Progressive => 1,
+            Direction::Retrogressive => -1,
+        }
+    }
+
+    /// The other direction.
+    pub fn other(self) -> Direction {
+        match self {
+            Direction::Progressive => Direction::Retrogressive,
+            Direction::Retrogressive => Direction::Progressive,
+        }
+    }
+}
+
+/// What one winding kind decides. `n` is the coil positions u·S, `c` the segments, `m` the
+/// multiplicity, `p` the pole pairs.
+pub trait WindingKind: Sync {
+    /// The design-file word.
+    fn word(&self) -> &'static str;
+
+    /// Whether `c` segments can be wound on `n` coil positions (the commutator pitch is whole
+    /// and every segment has a coil).
+    fn workable(&self, c: u32, n: u32, m: u32, p: u32, dir: Direction) -> bool;
+
+    /// The segment count when the design gives none: lap every coil, wave the largest workable
+    /// count (fewest dummy coils). `None` when no count works.
+    fn default_segments(&self, n: u32, m: u32, p: u32, dir: Direction) -> Option<u32>;
+
+    /// Signed commutator pitch y_c in segments, for a workable `c`.
+    fn commutator_pitch(&self, c: u32, m: u32, p: u32, dir: Direction) -> i64;
+
+    /// Front pitch y_f from the back pitch y_b and y_c, in coil-side units.
+    fn front_pitch(&self, back: i64, yc: i64) -> i64;
+
+    /// Parallel paths a by the textbook formula.
+    fn parallel_paths(&self, m: u32, poles: u32) -> u32;
+
+    /// The path formula in words with its numbers, e.g. `"m x P = 2 x 4"`.
+    fn paths_formula(&self, m: u32, poles: u32) -> String;
+
+    /// Fewest brush sets that collect every path.
+    fn fewest_brush_sets(&self, poles: u32) -> u32;
+
+    /// Whether type-A equalizer rings apply (a lap's paths lie under different poles).
+    fn takes_equalizers(&self) -> bool;
+
+    /// Coils in series between neighbouring segments, which one bridged gap under a brush shorts.
+    fn coils_per_gap(&self, p: u32) -> u32;
+
+    /// Why a brush shorts the coils it does, in words (for the rating's "coils shorted").
+    fn shorting_rule(&self, m: u32, p: u32) -> String;
+
+    /// Least poles the kind can be wound on.
+    fn min_poles(&self) -> u32;
+
+    /// Why `c` segments do not suit this kind, in words (for a rewind that needs a new
+    /// commutator).
+    fn segment_rule(&self, c: u32, n: u32, m: u32, p: u32, dir: Direction) -> String;
+}
+
+/// Lap winding: y_c = ±m, a = m·P, uses every coil.
+#[derive(Clone, Copy, Debug)]
+pub struct Lap;
+
+/// Wave winding: y_c = (C ± m)/p, a = 2m, may leave dummy coils.
+#[derive(Clone, Copy, Debug)]
+pub struct Wave;
+
+impl WindingKind for Lap {
+    fn word(&self) -> &'static str {
+        "lap"
+    }
+    fn workable(&self, c: u32, n: u32, _m: u32, _p: u32, _dir: Direction) -> bool {
+        c == n
+    }
+    fn default_segments(&self, n: u32, _m: u32, _p: u32, _dir: Direction) -> Option<u32> {
+        Some(n)
+    }
+    fn commutator_pitch(&self, _c: u32, m: u32, _p: u32, dir: Direction) -> i64 {
+        dir.sign() * i64::from(m)
+    }
+    fn front_pitch(&self, back: i64, yc: i64) -> i64 {
+        back - 2 * yc
+    }
+    fn parallel_paths(&self, m: u32, poles: u32) -> u32 {
+        m * poles
+    }
+    fn paths_formula(&self, m: u32, poles: u32) -> String {
+        format!("m x P = {m} x {poles}")
+    }
+    fn fewest_brush_sets(&self, poles: u32) -> u32 {
+        poles
+    }
+    fn takes_equalizers(&self) -> bool {
+        true
+    }
+    fn coils_per_gap(&self, _p: u32) -> u32 {
+        1
+    }
+    fn shorting_rule(&self, m: u32, _p: u32) -> String {
+        format!("lap: a brush touching k segments shorts k - m coils (m = {m})")
+    }
+    fn min_poles(&self) -> u32 {
+        2
+    }
+    fn segment_rule(&self, _c: u32, n: u32, _m: u32, _p: u32, _dir: Direction) -> String {
+        format!("a lap winding uses all {n} coils")
+    }
+}
+
+impl WindingKind for Wave {
+    fn word(&self) -> &'static str {
+        "wave"
+    }
+    fn workable(&self, c: u32, n: u32, m: u32, p: u32, dir: Direction) -> bool {
+        c >= 2 && c <= n && wave_pitch_whole(c, m, p, dir)
+    }
+    fn default_segments(&self, n: u32, m: u32, p: u32, dir: Direction) -> Option<u32> {
+        (2..=n).rev().find(|&c| wave_pitch_whole(c, m, p, dir))
+    }
+    fn commutator_pitch(&self, c: u32, m: u32, p: u32, dir: Direction) -> i64 {
+        (i64::from(c) + dir.sign() * i64::from(m)) / i64::from(p)
+    }
+    fn front_pitch(&self, back: i64, yc: i64) -> i64 {
+        2 * yc - back
+    }
+    fn parallel_paths(&self, m: u32, _poles: u32) -> u32 {
+        2 * m
+    }
+    fn paths_formula(&self, m: u32, _poles: u32) -> String {
+        format!("2m = 2 x {m}")
+    }
+    fn fewest_brush_sets(&self, _poles: u32) -> u32 {
+        2
+    }
+    fn takes_equalizers(&self) -> bool {
+        false
+    }
+    fn coils_per_gap(&self, p: u32) -> u32 {
+        p
+    }
+    fn shorting_rule(&self, m: u32, p: u32) -> String {
+        format!("wave: each bridged gap shorts p = {p} coils in series (k - m gaps, m = {m})")
+    }
+    fn min_poles(&self) -> u32 {
+        4
+    }
+    fn segment_rule(&self, c: u32, _n: u32, m: u32, p: u32, dir: Direction) -> String {
+        let sign = if dir.sign() > 0 { "+" } else { "-" };
+        format!(
+            "a {} wave needs (C {sign} {m})/{p} whole, which {c} does not give",
+            dir.as_str()
+        )
+    }
+}
+
+/// Whether (C ± m)/p is whole: the wave commutator pitch [src: standard textbook relation].
+pub fn wave_pitch_whole(c: u32, m: u32, p: u32, dir: Direction) -> bool {
+    p > 0 && (i64::from(c) + dir.sign() * i64::from(m)).rem_euclid(i64::from(p)) == 0
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use Direction::*;
+
+    #[test]
+    fn wave_count_takes_fewest_dummies() {
+        // 36 positions, 6 poles: (36+1)/3 is not whole, (35+1)/3 = 12 is.
+        assert_eq!(Wave.default_segments(36, 1, 3, Progressive), Some(35));
+        // Retrogressive: (34−1)/3 = 11 is the first at or below 36.
+        assert_eq!(Wave.default_segments(36, 1, 3, Retrogressive), Some(34));
+        assert_eq!(Wave.default_segments(25, 1, 2, Progressive), Some(25));
+        assert!(Wave.workable(25, 25, 1, 2, Progressive));
+        assert!(!Wave.workable(26, 26, 1, 2, Progressive));
+        assert!(!Wave.workable(27, 26, 1, 2, Retrogressive));
+    }
+
+    #[test]
+    fn kind_facts() {
+        assert_eq!(WindingType::Lap.kind().parallel_paths(2, 4), 8);
+        assert_eq!(WindingType::Wave.kind().parallel_paths(2, 8), 4);
+        assert_eq!(Lap.commutator_pitch(36, 2, 2, Retrogressive), -2);
+        assert_eq!(Wave.commutator_pitch(35, 1, 3, Progressive), 12);
+        assert_eq!(WindingType::Wave.as_str(), "wave");
+    }
+}
