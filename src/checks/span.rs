@@ -1,33 +1,17 @@
-//! Poles and span: poles even, span within the slots and near one pole pitch.
+//! Span rules: the span near one pole pitch, and a note when it was defaulted.
+//!
+//! Part of the `checks` stage.
 
-use super::sources::{PITCH_TEXTS, SPAN};
+use super::sources::SPAN;
 use super::{Finding, Severity};
 use crate::base::number::fmt_fixed;
 use crate::design::{Design, SpanSource};
 use crate::theory::words::span_shop;
 use crate::winding::Winding;
 
+/// Even poles and a span from 1 to S − 1 are the design stage's to refuse (with a located
+/// error); what is left here is the span against the pole pitch.
 pub(super) fn check(d: &Design, _w: &Winding, out: &mut Vec<Finding>) {
-    out.push(Finding::new(
-        "poles.even",
-        Severity::Error,
-        d.poles.is_multiple_of(2) && d.poles >= 2,
-        format!("{} poles: poles come in north-south pairs", d.poles),
-        PITCH_TEXTS,
-    ));
-    let ok = d.span >= 1 && d.span < d.slots;
-    out.push(Finding::new(
-        "span.range",
-        Severity::Error,
-        ok,
-        format!(
-            "span {} slots; it must lie from 1 to {} for {} slots",
-            d.span,
-            d.slots - 1,
-            d.slots
-        ),
-        PITCH_TEXTS,
-    ));
     let pole_pitch = f64::from(d.slots) / f64::from(d.poles);
     let off = f64::from(d.span) - pole_pitch;
     let within = off.abs() <= 1.0 + 1e-9;

@@ -1,29 +1,16 @@
-//! Wave rules: a whole commutator pitch, reentrancy, dummy coils.
+//! Wave rules: reentrancy, dummy coils, and the direction that needs fewer of them. A whole
+//! commutator pitch is the design stage's to refuse.
+//!
+//! Part of the `checks` stage.
 
 use super::lap::multiplex_brush;
 use super::sources::{DUMMY, PITCH_TEXTS};
 use super::{Finding, Severity};
-use crate::design::{Design, Direction, WindingType};
-use crate::theory::wave_pitch_whole;
+use crate::design::{Design, WindingType};
 use crate::winding::Winding;
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let (c, m, p) = (w.active_coils, d.multiplicity, d.pole_pairs());
-    let sign = if d.direction == Direction::Progressive {
-        "+"
-    } else {
-        "-"
-    };
-    out.push(Finding::new(
-        "wave.commutator-pitch",
-        Severity::Error,
-        wave_pitch_whole(c, m, p, d.direction),
-        format!(
-            "y_c = (C {sign} m)/p = ({c} {sign} {m})/{p} = {}",
-            w.pitches.commutator
-        ),
-        PITCH_TEXTS,
-    ));
     let r = w.reentrancy();
     out.push(Finding::new(
         "wave.reentrancy",

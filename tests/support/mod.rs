@@ -1,0 +1,67 @@
+//! Helpers shared by the integration tests: fixtures, demo designs, parsing, and running the
+//! binary. Each test file that needs them says `mod support;`.
+#![allow(dead_code)]
+
+use std::path::{Path, PathBuf};
+use std::process::{Command, Output};
+
+use armsheet::design::{Design, parse_design};
+
+/// The repository root.
+pub const ROOT: &str = env!("CARGO_MANIFEST_DIR");
+
+/// The demo designs under `designs/`, by stem.
+pub const DEMOS: [&str; 5] = [
+    "hoist-lap",
+    "press-duplex-lap",
+    "pump-wave",
+    "conveyor-wave-dummy",
+    "mill-lap-12p",
+];
+
+/// The text of `tests/fixtures/NAME`.
+pub fn fixture(name: &str) -> String {
+    std::fs::read_to_string(format!("{ROOT}/tests/fixtures/{name}")).unwrap()
+}
+
+/// The path of the demo design `designs/NAME.toml`, relative to the root.
+pub fn demo_path(name: &str) -> String {
+    format!("designs/{name}.toml")
+}
+
+/// The text of the demo design `designs/NAME.toml`.
+pub fn demo(name: &str) -> String {
+    std::fs::read_to_string(format!("{ROOT}/{}", demo_path(name))).unwrap()
+}
+
+/// Parses `toml` (named `t.toml` in diagnostics), panicking with the diagnostic on error.
+pub fn design(toml: &str) -> Design {
+    parse_design(toml, "t.toml").unwrap_or_else(|e| panic!("{e}"))
+}
+
+/// A fresh, empty scratch folder under the target dir for one test.
+pub fn scratch(name: &str) -> PathBuf {
+    let dir = Path::new(env!("CARGO_TARGET_TMPDIR")).join(name);
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    dir
+}
+
+/// Runs the armsheet binary with `args` in the repository root.
+pub fn armsheet(args: &[&str]) -> Output {
+    armsheet_in(args, Path::new(ROOT))
+}
+
+/// Runs the armsheet binary with `args` in `cwd`.
+pub fn armsheet_in(args: &[&str], cwd: &Path) -> Output {
+    Command::new(env!("CARGO_BIN_EXE_armsheet"))
+        .args(args)
+        .current_dir(cwd)
+        .output()
+        .unwrap()
+}
+
+/// Lossy UTF-8 of captured output.
+pub fn text(b: &[u8]) -> String {
+    String::from_utf8_lossy(b).into_owned()
+}
