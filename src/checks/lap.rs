@@ -1,4 +1,6 @@
 //! Lap rules: reentrancy of multiplex windings, equalizer feasibility, brush width.
+//!
+//! Part of the `checks` stage.
 
 use super::sources::{EQUALIZERS, MULTIPLEX_BRUSH, PITCH_TEXTS};
 use super::{Finding, Severity};

@@ -1,4 +1,6 @@
 //! Shop rules of thumb.
+//!
+//! Part of the `checks` stage.
 
 use super::sources::BAR_RULE;
 use super::{Finding, Severity};

@@ -1,4 +1,6 @@
 //! Source lines for the rules, written once so every finding cites its rule the same way.
+//!
+//! Part of the `checks` stage.
 
 /// Pitch relations of lap and wave windings.
 pub const PITCH_TEXTS: &str = "standard textbook relations (e.g. Theraja, Electrical Technology vol. 2, armature windings; Say & Taylor, Direct Current Machines) [from memory as to chapter]";

@@ -1,9 +1,11 @@
 //! Arnold's symmetry conditions for identical parallel paths, and the simulated balance.
+//!
+//! Part of the `checks` stage.
 
 use super::sources::{SIMULATION, SYMMETRY};
 use super::{Finding, Severity};
 use crate::base::number::fmt_fixed;
-use crate::design::{Design, WindingType};
+use crate::design::Design;
 use crate::winding::Winding;
 
 /// The ids of the classical symmetry conditions.
@@ -58,7 +60,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         ),
         SYMMETRY,
     ));
-    if d.winding_type == WindingType::Wave {
+    if d.winding_type.kind().symmetry_counts_pole_pairs() {
         out.push(Finding::new(
             IDS[2],
             Severity::Error,

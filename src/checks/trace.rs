@@ -1,4 +1,6 @@
 //! Cross-checks of the traced winding against the textbook formulas.
+//!
+//! Part of the `checks` stage.
 
 use super::sources::TRACE;
 use super::{Finding, Severity};

@@ -108,6 +108,10 @@ pub trait WindingKind: Sync {
     /// Least poles the kind can be wound on.
     fn min_poles(&self) -> u32;
 
+    /// Whether the symmetry rules also ask for whole pole pairs per pair of paths (a wave's
+    /// paths each run under every pole) [from memory: Arnold's conditions, DOMAIN.md "Symmetry"].
+    fn symmetry_counts_pole_pairs(&self) -> bool;
+
     /// Why `c` segments do not suit this kind, in words (for a rewind that needs a new
     /// commutator).
     fn segment_rule(&self, c: u32, n: u32, m: u32, p: u32, dir: Direction) -> String;
@@ -158,6 +162,9 @@ impl WindingKind for Lap {
     fn min_poles(&self) -> u32 {
         2
     }
+    fn symmetry_counts_pole_pairs(&self) -> bool {
+        false
+    }
     fn segment_rule(&self, _c: u32, n: u32, _m: u32, _p: u32, _dir: Direction) -> String {
         format!("a lap winding uses all {n} coils")
     }
@@ -199,6 +206,9 @@ impl WindingKind for Wave {
     }
     fn min_poles(&self) -> u32 {
         4
+    }
+    fn symmetry_counts_pole_pairs(&self) -> bool {
+        true
     }
     fn segment_rule(&self, c: u32, _n: u32, m: u32, p: u32, dir: Direction) -> String {
         let sign = if dir.sign() > 0 { "+" } else { "-" };
