@@ -1,7 +1,7 @@
 //! Every `[limits]` key can be overridden, and the override changes the verdict; a failed
 //! limit comes with advice that has numbers in it.
 
-use armsheet::design::{LIMIT_KEYS, parse_design};
+use armsheet::design::{LIMIT_KEYS, LIMITS, parse_design};
 use armsheet::rating::{Bound, RatingReport, rate, rules};
 use armsheet::winding::trace_winding;
 
@@ -184,4 +184,52 @@ fn advice_for_too_high_density_names_standard_sizes() {
     let text = c.advice.join("\n");
     assert!(text.contains("at least 5.000 mm2"), "{text}");
     assert!(text.contains("2 x 1.800 mm (5.089 mm2)"), "{text}");
+}
+
+/// The number written after `prefix` in `text` (up to `)` or a space; thousands commas dropped).
+fn number_after(text: &str, prefix: &str) -> Option<f64> {
+    let rest = &text[text.find(prefix)? + prefix.len()..];
+    let word: String = rest
+        .chars()
+        .take_while(|c| c.is_ascii_digit() || *c == '.' || *c == ',')
+        .filter(|c| *c != ',')
+        .collect();
+    word.parse().ok()
+}
+
+#[test]
+fn the_readme_and_the_starter_name_every_limit_key_with_its_default() {
+    let readme = include_str!("../README.md");
+    let row = readme
+        .lines()
+        .find(|l| l.starts_with("| `[limits]` |"))
+        .expect("the README's [limits] row");
+    for spec in &LIMITS {
+        assert_eq!(
+            number_after(row, &format!("`{}` (", spec.key)),
+            Some(spec.default),
+            "README [limits] row: `{}` with its default {}",
+            spec.key,
+            spec.default
+        );
+        assert_eq!(
+            number_after(armsheet::cli::STARTER, &format!("\n# {} = ", spec.key)),
+            Some(spec.default),
+            "starter.toml: `# {} = {}`",
+            spec.key,
+            spec.default
+        );
+    }
+    // And neither names a limit the table does not hold.
+    let known = |k: &str| LIMITS.iter().any(|s| s.key == k);
+    let after_header = armsheet::cli::STARTER
+        .split("# [limits]")
+        .nth(1)
+        .expect("a [limits] block");
+    for line in after_header.lines().skip(1) {
+        let key = line.trim_start_matches("# ").split(" =").next().unwrap();
+        assert!(known(key), "starter.toml names an unknown limit `{key}`");
+    }
+    let in_row = row.matches("` (").count();
+    assert_eq!(in_row, LIMITS.len(), "README [limits] row: {row}");
 }
