@@ -43,13 +43,23 @@ fn rated(toml: &str) -> RatingReport {
 
 #[test]
 fn every_limit_key_has_a_rule_and_every_rule_runs_on_the_base() {
-    let keys: Vec<&str> = rules::ALL.iter().map(|r| r.key).collect();
-    assert_eq!(
-        keys, LIMIT_KEYS,
-        "one rule per [limits] key, in the same order"
-    );
+    for (i, spec) in LIMITS.iter().enumerate() {
+        assert_eq!(spec.limit as usize, i, "{} out of order", spec.key);
+        assert!(spec.id.starts_with("rating."), "{}", spec.id);
+        assert!(spec.default > 0.0, "{}", spec.key);
+        for other in &LIMITS[i + 1..] {
+            assert!(
+                spec.key != other.key && spec.id != other.id,
+                "{} twice",
+                spec.key
+            );
+        }
+    }
     let base = rated(BASE);
-    assert_eq!(base.checks.len(), rules::ALL.len());
+    // One check per [limits] key, in the table's order.
+    let ids: Vec<&str> = base.checks.iter().map(|c| c.rule.id).collect();
+    let spec_ids: Vec<&str> = LIMITS.iter().map(|s| s.id).collect();
+    assert_eq!(ids, spec_ids);
     for c in &base.checks {
         assert!(c.passed, "{}", c.message());
         assert!(!c.overridden);
@@ -184,6 +194,47 @@ fn advice_for_too_high_density_names_standard_sizes() {
     let text = c.advice.join("\n");
     assert!(text.contains("at least 5.000 mm2"), "{text}");
     assert!(text.contains("2 x 1.800 mm (5.089 mm2)"), "{text}");
+}
+
+#[test]
+fn a_misspelt_limit_key_is_refused_with_the_nearest_key_or_the_list() {
+    let e = parse_design(
+        &format!("{BASE}\n[limits]\nsegment_volts_avg = 20\n"),
+        "t.toml",
+    )
+    .unwrap_err();
+    assert_eq!(e.key, "limits.segment_volts_avg");
+    assert_eq!(
+        e.hint.as_deref(),
+        Some("did you mean `segment_volts_avg_max`?")
+    );
+    let e = parse_design(&format!("{BASE}\n[limits]\nvoltage = 20\n"), "t.toml").unwrap_err();
+    assert_eq!(
+        e.hint,
+        Some(format!("known keys in [limits]: {}", LIMIT_KEYS.join(", ")))
+    );
+    // Each key sets its own limit and no other.
+    for spec in &LIMITS {
+        let d = parse_design(
+            &format!("{BASE}\n[limits]\n{} = 12345\n", spec.key),
+            "t.toml",
+        )
+        .unwrap();
+        for other in &LIMITS {
+            let want = if other.key == spec.key {
+                12345.0
+            } else {
+                other.default
+            };
+            assert_eq!(
+                d.limits.get(other.limit),
+                want,
+                "{} set {}",
+                spec.key,
+                other.key
+            );
+        }
+    }
 }
 
 /// The number written after `prefix` in `text` (up to `)` or a space; thousands commas dropped).
