@@ -1,7 +1,7 @@
 //! Every `[limits]` key can be overridden, and the override changes the verdict; a failed
 //! limit comes with advice that has numbers in it.
 
-use armsheet::design::{LIMIT_KEYS, parse_design};
+use armsheet::design::{LIMIT_KEYS, LIMITS, parse_design};
 use armsheet::rating::{Bound, RatingReport, rate, rules};
 use armsheet::winding::trace_winding;
 
@@ -43,13 +43,23 @@ fn rated(toml: &str) -> RatingReport {
 
 #[test]
 fn every_limit_key_has_a_rule_and_every_rule_runs_on_the_base() {
-    let keys: Vec<&str> = rules::ALL.iter().map(|r| r.key).collect();
-    assert_eq!(
-        keys, LIMIT_KEYS,
-        "one rule per [limits] key, in the same order"
-    );
+    for (i, spec) in LIMITS.iter().enumerate() {
+        assert_eq!(spec.limit as usize, i, "{} out of order", spec.key);
+        assert!(spec.id.starts_with("rating."), "{}", spec.id);
+        assert!(spec.default > 0.0, "{}", spec.key);
+        for other in &LIMITS[i + 1..] {
+            assert!(
+                spec.key != other.key && spec.id != other.id,
+                "{} twice",
+                spec.key
+            );
+        }
+    }
     let base = rated(BASE);
-    assert_eq!(base.checks.len(), rules::ALL.len());
+    // One check per [limits] key, in the table's order.
+    let ids: Vec<&str> = base.checks.iter().map(|c| c.rule.id).collect();
+    let spec_ids: Vec<&str> = LIMITS.iter().map(|s| s.id).collect();
+    assert_eq!(ids, spec_ids);
     for c in &base.checks {
         assert!(c.passed, "{}", c.message());
         assert!(!c.overridden);
@@ -184,4 +194,93 @@ fn advice_for_too_high_density_names_standard_sizes() {
     let text = c.advice.join("\n");
     assert!(text.contains("at least 5.000 mm2"), "{text}");
     assert!(text.contains("2 x 1.800 mm (5.089 mm2)"), "{text}");
+}
+
+#[test]
+fn a_misspelt_limit_key_is_refused_with_the_nearest_key_or_the_list() {
+    let e = parse_design(
+        &format!("{BASE}\n[limits]\nsegment_volts_avg = 20\n"),
+        "t.toml",
+    )
+    .unwrap_err();
+    assert_eq!(e.key, "limits.segment_volts_avg");
+    assert_eq!(
+        e.hint.as_deref(),
+        Some("did you mean `segment_volts_avg_max`?")
+    );
+    let e = parse_design(&format!("{BASE}\n[limits]\nvoltage = 20\n"), "t.toml").unwrap_err();
+    assert_eq!(
+        e.hint,
+        Some(format!("known keys in [limits]: {}", LIMIT_KEYS.join(", ")))
+    );
+    // Each key sets its own limit and no other.
+    for spec in &LIMITS {
+        let d = parse_design(
+            &format!("{BASE}\n[limits]\n{} = 12345\n", spec.key),
+            "t.toml",
+        )
+        .unwrap();
+        for other in &LIMITS {
+            let want = if other.key == spec.key {
+                12345.0
+            } else {
+                other.default
+            };
+            assert_eq!(
+                d.limits.get(other.limit),
+                want,
+                "{} set {}",
+                spec.key,
+                other.key
+            );
+        }
+    }
+}
+
+/// The number written after `prefix` in `text` (up to `)` or a space; thousands commas dropped).
+fn number_after(text: &str, prefix: &str) -> Option<f64> {
+    let rest = &text[text.find(prefix)? + prefix.len()..];
+    let word: String = rest
+        .chars()
+        .take_while(|c| c.is_ascii_digit() || *c == '.' || *c == ',')
+        .filter(|c| *c != ',')
+        .collect();
+    word.parse().ok()
+}
+
+#[test]
+fn the_readme_and_the_starter_name_every_limit_key_with_its_default() {
+    let readme = include_str!("../README.md");
+    let row = readme
+        .lines()
+        .find(|l| l.starts_with("| `[limits]` |"))
+        .expect("the README's [limits] row");
+    for spec in &LIMITS {
+        assert_eq!(
+            number_after(row, &format!("`{}` (", spec.key)),
+            Some(spec.default),
+            "README [limits] row: `{}` with its default {}",
+            spec.key,
+            spec.default
+        );
+        assert_eq!(
+            number_after(armsheet::cli::STARTER, &format!("\n# {} = ", spec.key)),
+            Some(spec.default),
+            "starter.toml: `# {} = {}`",
+            spec.key,
+            spec.default
+        );
+    }
+    // And neither names a limit the table does not hold.
+    let known = |k: &str| LIMITS.iter().any(|s| s.key == k);
+    let after_header = armsheet::cli::STARTER
+        .split("# [limits]")
+        .nth(1)
+        .expect("a [limits] block");
+    for line in after_header.lines().skip(1) {
+        let key = line.trim_start_matches("# ").split(" =").next().unwrap();
+        assert!(known(key), "starter.toml names an unknown limit `{key}`");
+    }
+    let in_row = row.matches("` (").count();
+    assert_eq!(in_row, LIMITS.len(), "README [limits] row: {row}");
 }

@@ -1,16 +1,38 @@
 //! `design`: parse and validate a TOML design file into a resolved [`Design`].
 //!
-//! First stage of the pipeline. Nothing here reads files: the CLI passes the bytes in.
-//! Errors are [`Diagnostic`]s naming file, line, column, key, what was expected and a hint.
+//! Stage 2 of the pipeline (see [`crate::STAGES`]); it imports only `base` and `theory`.
+//! Nothing here reads files: the CLI passes the bytes in. Errors are [`Diagnostic`]s naming
+//! file, line, column, key, what was expected and a hint.
+//!
+//! The files:
+//! - `parse.rs`: the orchestration — UTF-8, TOML, the list of tables, the order of readers;
+//! - `tables/`: one reader per table (`job.rs`, `armature.rs`, `winding.rs`, `rating.rs`,
+//!   `conductor.rs`, `core.rs`, `commutator.rs`, `limits.rs`), each with its `KEYS`, its
+//!   reading and validation, and a doc listing the keys with their defaults; `segments.rs`
+//!   resolves the segment count from `[armature]` and `[winding]`;
+//! - `limits.rs`: the `[limits]` spec table [`LIMITS`], the one place a rating limit is written;
+//! - `reader.rs`: located, typed access to one table (shared by every reader);
+//! - `diagnostic.rs`: the error and its rendering; `model.rs`: the resolved [`Design`].
+//!
+//! To add a key: add it to the table reader's `KEYS`, read and validate it there, add the
+//! field (with its key and default in the doc) to [`Design`] or the table's type in
+//! `model.rs`, and document it in the reader's `//!`, the README and `src/cli/starter.toml`.
+//! To add a `[limits]` key: add one row to [`LIMITS`] (see `limits.rs`); the reader, the
+//! resolved [`Limits`] and the rating checks follow from it.
+//! To add a table: add a reader in `tables/` with a `mod` line in `tables/mod.rs`, its name
+//! to `TABLES` in `parse.rs`, and call it from `parse_design` at its place in the order.
 
 // A diagnostic is built at most once per run, on the way out; boxing it would buy nothing.
 #![allow(clippy::result_large_err)]
 
 mod diagnostic;
+mod limits;
 mod model;
 mod parse;
 mod reader;
+mod tables;
 
 pub use diagnostic::Diagnostic;
+pub use limits::{Bound, LIMIT_KEYS, LIMITS, LimitId, LimitSpec, Limits};
 pub use model::*;
-pub use parse::{LIMIT_KEYS, parse_design, parse_design_bytes};
+pub use parse::{parse_design, parse_design_bytes};

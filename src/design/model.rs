@@ -200,54 +200,6 @@ pub struct Commutator {
     pub brush_grade: Option<BrushGrade>,
 }
 
-/// Shop limits for the rating checks (`[limits]`); each has a default with its source.
-#[derive(Clone, Debug, PartialEq)]
-pub struct Limits {
-    /// `segment_volts_avg_max`, V (default 15) [common practice].
-    pub segment_volts_avg_max: f64,
-    /// `segment_volts_peak_max`, V (default 30) [common practice].
-    pub segment_volts_peak_max: f64,
-    /// `path_current_max`, A per parallel path (default 250) [common practice].
-    pub path_current_max: f64,
-    /// `brush_arm_current_max`, A per brush arm (default 400) [common practice].
-    pub brush_arm_current_max: f64,
-    /// `segment_pitch_min_mm` (default 4.0) [common practice].
-    pub segment_pitch_min_mm: f64,
-    /// `commutator_speed_preferred_m_s` (default 15) [common practice].
-    pub commutator_speed_preferred_m_s: f64,
-    /// `commutator_speed_max_m_s` (default 30) [common practice].
-    pub commutator_speed_max_m_s: f64,
-    /// `current_density_min_a_mm2` (default 4.5) [common practice, from memory].
-    pub current_density_min_a_mm2: f64,
-    /// `current_density_max_a_mm2` (default 7.0) [common practice, from memory].
-    pub current_density_max_a_mm2: f64,
-    /// `brush_width_min_segments` (default 1) [common practice].
-    pub brush_width_min_segments: f64,
-    /// `brush_width_max_segments` (default 3) [common practice].
-    pub brush_width_max_segments: f64,
-    /// `electric_loading_max_a_m`, A/m (default 40 000) [common practice, from memory].
-    pub electric_loading_max_a_m: f64,
-}
-
-impl Default for Limits {
-    fn default() -> Self {
-        Limits {
-            segment_volts_avg_max: 15.0,
-            segment_volts_peak_max: 30.0,
-            path_current_max: 250.0,
-            brush_arm_current_max: 400.0,
-            segment_pitch_min_mm: 4.0,
-            commutator_speed_preferred_m_s: 15.0,
-            commutator_speed_max_m_s: 30.0,
-            current_density_min_a_mm2: 4.5,
-            current_density_max_a_mm2: 7.0,
-            brush_width_min_segments: 1.0,
-            brush_width_max_segments: 3.0,
-            electric_loading_max_a_m: 40_000.0,
-        }
-    }
-}
-
 /// Hard limits on the size of a design, so no input can exhaust memory.
 pub mod bounds {
     /// Largest pole count accepted.
@@ -316,8 +268,8 @@ pub struct Design {
     pub core: Option<Core>,
     /// `[commutator]`, when present.
     pub commutator: Option<Commutator>,
-    /// `[limits]` with defaults filled in.
-    pub limits: Limits,
+    /// `[limits]` with defaults filled in (see [`super::LIMITS`]).
+    pub limits: super::Limits,
 }
 
 impl Design {

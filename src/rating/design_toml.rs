@@ -8,9 +8,7 @@ use std::fmt::Write;
 
 use crate::theory::words::span_shop;
 
-use crate::design::{
-    BrushWidth, ConductorShape, Design, EqualizerChoice, LIMIT_KEYS, Limits, ThermalClass,
-};
+use crate::design::{BrushWidth, ConductorShape, Design, EqualizerChoice, ThermalClass};
 
 /// The design as TOML, `header` lines first as `# ` comments.
 pub fn write_design(d: &Design, header: &[String]) -> String {
@@ -145,41 +143,14 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
             let _ = writeln!(s, "brush_grade = \"{}\"", g.as_str());
         }
     }
-    let overrides = limit_overrides(&d.limits);
-    if !overrides.is_empty() {
+    // `[limits]` keys whose values differ from the defaults, in key order.
+    if d.limits.overrides().next().is_some() {
         s.push_str("\n[limits]\n");
-        for (k, v) in overrides {
-            let _ = writeln!(s, "{k} = {}", num(v, 6));
+        for (spec, v) in d.limits.overrides() {
+            let _ = writeln!(s, "{} = {}", spec.key, num(v, 6));
         }
     }
     s
-}
-
-/// `[limits]` keys whose values differ from the defaults, in key order.
-fn limit_overrides(l: &Limits) -> Vec<(&'static str, f64)> {
-    let d = Limits::default();
-    let values = |l: &Limits| {
-        [
-            l.segment_volts_avg_max,
-            l.segment_volts_peak_max,
-            l.path_current_max,
-            l.brush_arm_current_max,
-            l.segment_pitch_min_mm,
-            l.commutator_speed_preferred_m_s,
-            l.commutator_speed_max_m_s,
-            l.current_density_min_a_mm2,
-            l.current_density_max_a_mm2,
-            l.brush_width_min_segments,
-            l.brush_width_max_segments,
-            l.electric_loading_max_a_m,
-        ]
-    };
-    LIMIT_KEYS
-        .iter()
-        .zip(values(l).into_iter().zip(values(&d)))
-        .filter(|(_, (v, def))| v != def)
-        .map(|(k, (v, _))| (*k, v))
-        .collect()
 }
 
 fn class_number(c: ThermalClass) -> u32 {

@@ -186,8 +186,8 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
             d.poles,
             c,
             d.pole_arc,
-            d.limits.segment_volts_avg_max,
-            d.limits.segment_volts_peak_max,
+            d.limits.get(crate::design::LimitId::SegmentVoltsAvgMax),
+            d.limits.get(crate::design::LimitId::SegmentVoltsPeakMax),
         )
     });
 
@@ -406,15 +406,15 @@ fn run_checks(d: &Design, r: &RatingReport) -> Vec<RatingCheck> {
     push(rules::BRUSH_WIDTH_MIN, bw, &|_| {
         advice::brush_width(
             pitch,
-            l.brush_width_min_segments,
-            l.brush_width_max_segments,
+            l.get(crate::design::LimitId::BrushWidthMin),
+            l.get(crate::design::LimitId::BrushWidthMax),
         )
     });
     push(rules::BRUSH_WIDTH_MAX, bw, &|_| {
         advice::brush_width(
             pitch,
-            l.brush_width_min_segments,
-            l.brush_width_max_segments,
+            l.get(crate::design::LimitId::BrushWidthMin),
+            l.get(crate::design::LimitId::BrushWidthMax),
         )
     });
     let core_d = d.core.as_ref().and_then(|k| k.diameter_mm).unwrap_or(0.0);

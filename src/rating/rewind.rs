@@ -377,11 +377,11 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
         nd.lead_offset = 0;
     }
     let seg_avg = emf1 * f64::from(d.poles) / f64::from(c1);
-    if seg_avg > d.limits.segment_volts_avg_max {
+    if seg_avg > d.limits.get(crate::design::LimitId::SegmentVoltsAvgMax) {
         notes.push(format!(
             "the new average segment voltage {} V is above the {} V limit: run `armsheet check` on the new file for the options",
             fmt_fixed(seg_avg, 2),
-            super::limits::fmt_limit(d.limits.segment_volts_avg_max)
+            super::limits::fmt_limit(d.limits.get(crate::design::LimitId::SegmentVoltsAvgMax))
         ));
     }
 

@@ -1,0 +1,129 @@
+//! `[armature]`: the iron and the commutator bar count.
+//!
+//! Part of the `design` stage (a table reader, see `tables/mod.rs`). Keys:
+//! - `poles` (required): even, 2 to [`bounds::MAX_POLES`];
+//! - `slots` (required): 2 to [`bounds::MAX_SLOTS`];
+//! - `coils_per_slot` (u, default 1): 1 to [`bounds::MAX_COILS_PER_SLOT`], with u·slots at
+//!   most [`bounds::MAX_COILS`];
+//! - `segments` (default: worked out for the winding kind, see `tables/segments.rs`);
+//! - `rotation` (`"cw"` or `"ccw"`, default `"cw"`);
+//! - `pole_arc` (pole arc / pole pitch, 0.3 to 1, default 0.7).
+
+use crate::design::Diagnostic;
+use crate::design::model::{Rotation, bounds};
+use crate::design::reader::{At, TableReader};
+
+/// The keys of `[armature]`.
+pub(crate) const KEYS: &[&str] = &[
+    "poles",
+    "slots",
+    "coils_per_slot",
+    "segments",
+    "rotation",
+    "pole_arc",
+];
+
+/// `[armature]` as read, with the spans later checks point at.
+pub(crate) struct Armature {
+    /// `poles`, even.
+    pub poles: At<i64>,
+    /// `slots`.
+    pub slots: At<i64>,
+    /// `coils_per_slot` (u).
+    pub coils_per_slot: i64,
+    /// Coil positions u·S.
+    pub positions: i64,
+    /// `segments` as given, not yet checked against the winding.
+    pub segments: Option<At<i64>>,
+    /// `rotation`.
+    pub rotation: Rotation,
+    /// `pole_arc`.
+    pub pole_arc: f64,
+}
+
+/// Reads the values of `[armature]` (its keys were checked by the caller).
+pub(crate) fn read(arm: &TableReader<'_, '_>) -> Result<Armature, Diagnostic> {
+    let src = arm.src;
+    let poles = arm
+        .int(
+            "poles",
+            2..=bounds::MAX_POLES,
+            "the number of poles",
+            "a DC machine has 2, 4, 6, 8 … poles",
+        )?
+        .ok_or_else(|| arm.missing("poles", "the number of poles", "poles = 4"))?;
+    if poles.value % 2 != 0 {
+        return Err(src
+            .error(
+                poles.span.clone(),
+                "armature.poles",
+                format!("poles must be even, found {}", poles.value),
+            )
+            .with_hint(format!(
+                "poles come in north-south pairs: try {} or {}",
+                poles.value - 1,
+                poles.value + 1
+            )));
+    }
+    let slots = arm
+        .int(
+            "slots",
+            2..=bounds::MAX_SLOTS,
+            "the number of armature slots",
+            "count the slots on the stripped core",
+        )?
+        .ok_or_else(|| arm.missing("slots", "the number of armature slots", "slots = 24"))?;
+    let u = arm
+        .int(
+            "coils_per_slot",
+            1..=bounds::MAX_COILS_PER_SLOT,
+            "coil sides per slot per layer",
+            "1 for one coil side per layer; 2 or 3 when each slot holds several coils",
+        )?
+        .map_or(1, |a| a.value);
+    let positions = slots.value * u;
+    if positions > bounds::MAX_COILS {
+        let at = arm
+            .raw("coils_per_slot")
+            .map_or(slots.span.clone(), |v| v.span());
+        return Err(src
+            .error(
+                at,
+                "armature.coils_per_slot",
+                format!(
+                    "{} slots × {u} coils per slot = {positions} coils is beyond any real machine: at most {} coils",
+                    slots.value,
+                    bounds::MAX_COILS
+                ),
+            )
+            .with_hint("check the slot count and coils per slot"));
+    }
+    let segments = arm.int(
+        "segments",
+        2..=bounds::MAX_COILS,
+        "the number of commutator segments (bars)",
+        "count the bars; leave the key out to let armsheet work it out",
+    )?;
+    let rotation = match arm.choice("rotation", &["cw", "ccw"])? {
+        Some(At { value: "ccw", .. }) => Rotation::CounterClockwise,
+        _ => Rotation::Clockwise,
+    };
+    let pole_arc = arm
+        .number(
+            "pole_arc",
+            0.3,
+            false,
+            1.0,
+            "the pole arc as a fraction of the pole pitch",
+        )?
+        .map_or(0.7, |a| a.value);
+    Ok(Armature {
+        poles,
+        slots,
+        coils_per_slot: u,
+        positions,
+        segments,
+        rotation,
+        pole_arc,
+    })
+}

@@ -1,0 +1,93 @@
+//! `[commutator]`: the commutator and its brushes.
+//!
+//! Part of the `design` stage (a table reader, see `tables/mod.rs`). Keys, all optional:
+//! - `diameter_mm`: above 0 and at most 10 000;
+//! - `brush_width_mm` (circumferential, less than half the circumference) or
+//!   `brush_width_segments` (less than half the segments), not both;
+//! - `brush_grade`: `"carbon"` or `"metal-graphite"` (no default here; the rating takes
+//!   carbon when absent).
+
+use crate::design::Diagnostic;
+use crate::design::model::{BrushGrade, BrushWidth, Commutator};
+use crate::design::reader::{At, TableReader};
+
+/// The keys of `[commutator]`.
+pub(crate) const KEYS: &[&str] = &[
+    "diameter_mm",
+    "brush_width_mm",
+    "brush_width_segments",
+    "brush_grade",
+];
+
+/// Reads `[commutator]` for a winding of `segments` segments.
+pub(crate) fn read(t: &TableReader<'_, '_>, segments: i64) -> Result<Commutator, Diagnostic> {
+    t.deny_unknown(KEYS)?;
+    let diameter = t.number(
+        "diameter_mm",
+        0.0,
+        true,
+        10_000.0,
+        "the commutator diameter in mm",
+    )?;
+    let wmm = t.number(
+        "brush_width_mm",
+        0.0,
+        true,
+        1_000.0,
+        "the brush width (circumferential) in mm",
+    )?;
+    let wseg = t.number(
+        "brush_width_segments",
+        0.0,
+        true,
+        1_000.0,
+        "the brush width in segment pitches",
+    )?;
+    let brush_width = match (wmm, wseg) {
+        (Some(_), Some(s)) => {
+            return Err(t
+                .src
+                .error(
+                    s.span,
+                    "commutator.brush_width_segments",
+                    "give the brush width either in mm or in segments, not both",
+                )
+                .with_hint("remove one of brush_width_mm and brush_width_segments"));
+        }
+        (Some(w), None) => {
+            if let Some(d) = &diameter {
+                let circumference = std::f64::consts::PI * d.value;
+                if w.value >= circumference / 2.0 {
+                    return Err(t
+                        .src
+                        .error(w.span, "commutator.brush_width_mm", format!("a {} mm brush is wider than half the commutator's {:.1} mm circumference", w.value, circumference))
+                        .with_hint("the brush width is measured around the commutator, usually 1 to 3 segment pitches"));
+                }
+            }
+            Some(BrushWidth::Millimetres(w.value))
+        }
+        (None, Some(s)) => {
+            if s.value >= segments as f64 / 2.0 {
+                return Err(t
+                    .src
+                    .error(s.span, "commutator.brush_width_segments", format!("a brush {} segments wide is wider than half the commutator ({segments} segments)", s.value))
+                    .with_hint("brushes usually cover 1 to 3 segments"));
+            }
+            Some(BrushWidth::Segments(s.value))
+        }
+        (None, None) => None,
+    };
+    let brush_grade = match t.choice("brush_grade", &["carbon", "metal-graphite"])? {
+        Some(At {
+            value: "metal-graphite",
+            ..
+        }) => Some(BrushGrade::MetalGraphite),
+        Some(_) => Some(BrushGrade::Carbon),
+        None => None,
+    };
+    Ok(Commutator {
+        diameter_mm: diameter.map(|d| d.value),
+        brush_width,
+        brush_grade,
+    })
+}

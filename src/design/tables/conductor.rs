@@ -1,0 +1,133 @@
+//! `[conductor]`: the conductor of one turn, round or rectangular.
+//!
+//! Part of the `design` stage (a table reader, see `tables/mod.rs`). Keys:
+//! - round wire: `diameter_mm` (bare, above 0 and at most 20) or `awg` (-3 for 0000 to 40,
+//!   ASTM B258), not both;
+//! - rectangular strip: `width_mm` and `height_mm` (above 0 and at most 100), with
+//!   `corner_radius_mm` (0 to 10 and at most half the smaller side, default 0);
+//! - `strands`: wires or strips in hand, 1 to 200 (default 1);
+//! - `mean_turn_mm`: mean length of one turn (default: estimated from `[core]`).
+
+use crate::design::Diagnostic;
+use crate::design::model::{Conductor, ConductorShape, awg_diameter_mm};
+use crate::design::reader::TableReader;
+
+/// The keys of `[conductor]`.
+pub(crate) const KEYS: &[&str] = &[
+    "diameter_mm",
+    "awg",
+    "strands",
+    "width_mm",
+    "height_mm",
+    "corner_radius_mm",
+    "mean_turn_mm",
+];
+
+/// Reads `[conductor]`.
+pub(crate) fn read(t: &TableReader<'_, '_>) -> Result<Conductor, Diagnostic> {
+    t.deny_unknown(KEYS)?;
+    let num = |k: &str, what: &str, max: f64| t.number(k, 0.0, true, max, what);
+    let d = num("diameter_mm", "the bare wire diameter in mm", 20.0)?;
+    let awg = t.int(
+        "awg",
+        -3..=40,
+        "the AWG gauge (0000 is -3)",
+        "ASTM B258 gauges run from 0000 (-3) to 40",
+    )?;
+    let strands = t
+        .int(
+            "strands",
+            1..=200,
+            "wires or strips in hand",
+            "1 for a single conductor",
+        )?
+        .map_or(1, |a| a.value as u32);
+    let w = num("width_mm", "the strip width in mm", 100.0)?;
+    let h = num("height_mm", "the strip height in mm", 100.0)?;
+    let r = t.number(
+        "corner_radius_mm",
+        0.0,
+        false,
+        10.0,
+        "the strip corner radius in mm",
+    )?;
+    let mean_turn_mm = num(
+        "mean_turn_mm",
+        "the mean length of one turn in mm",
+        100_000.0,
+    )?
+    .map(|a| a.value);
+    let shape = match (d, awg, w, h) {
+        (Some(_), Some(a), _, _) => {
+            return Err(t
+                .src
+                .error(
+                    a.span,
+                    "conductor.awg",
+                    "give the wire either as diameter_mm or as awg, not both",
+                )
+                .with_hint("remove one of the two keys"));
+        }
+        (Some(d), None, None, None) => ConductorShape::Round {
+            diameter_mm: d.value,
+            awg: None,
+            strands,
+        },
+        (None, Some(a), None, None) => ConductorShape::Round {
+            diameter_mm: awg_diameter_mm(a.value as i32),
+            awg: Some(a.value as i32),
+            strands,
+        },
+        (None, None, Some(w), Some(h)) => {
+            let rad = r.as_ref().map_or(0.0, |r| r.value);
+            if 2.0 * rad > w.value.min(h.value) {
+                return Err(t
+                    .src
+                    .error(
+                        r.map_or(w.span, |r| r.span),
+                        "conductor.corner_radius_mm",
+                        format!(
+                            "a corner radius of {rad} mm does not fit a {} × {} mm strip",
+                            w.value, h.value
+                        ),
+                    )
+                    .with_hint("the radius is at most half the smaller side"));
+            }
+            ConductorShape::Rectangular {
+                width_mm: w.value,
+                height_mm: h.value,
+                corner_radius_mm: rad,
+                strands,
+            }
+        }
+        (Some(d), None, Some(_), _) | (Some(d), None, _, Some(_)) => {
+            return Err(t
+                .src
+                .error(d.span, "conductor.diameter_mm", "a conductor is either round (diameter_mm or awg) or rectangular (width_mm, height_mm), not both")
+                .with_hint("remove the keys of the shape you do not use"));
+        }
+        (None, Some(a), _, _) => {
+            return Err(t
+                .src
+                .error(a.span, "conductor.awg", "a conductor is either round (diameter_mm or awg) or rectangular (width_mm, height_mm), not both")
+                .with_hint("remove the keys of the shape you do not use"));
+        }
+        (None, None, Some(_), None) => {
+            return Err(t.missing("height_mm", "the strip height in mm", "height_mm = 2.5"));
+        }
+        (None, None, None, Some(_)) => {
+            return Err(t.missing("width_mm", "the strip width in mm", "width_mm = 6.3"));
+        }
+        (None, None, None, None) => {
+            return Err(t.missing(
+                "diameter_mm",
+                "the wire size: diameter_mm, awg, or width_mm and height_mm",
+                "diameter_mm = 1.25",
+            ));
+        }
+    };
+    Ok(Conductor {
+        shape,
+        mean_turn_mm,
+    })
+}

@@ -1,0 +1,299 @@
+//! `[winding]`: the kind of winding, its span, turns, leads and equalizers.
+//!
+//! Part of the `design` stage (a table reader, see `tables/mod.rs`). Keys:
+//! - `type` (required): `"lap"` or `"wave"`; a wave winding needs at least 4 poles;
+//! - `multiplicity` (m, default 1): 1 to [`bounds::MAX_MULTIPLICITY`];
+//! - `direction`: `"progressive"` (default) or `"retrogressive"`;
+//! - `span`: slots, 1 to slots − 1, as a number or the shop form `"1-8"` (= 7); default
+//!   floor(slots / poles), at least 1;
+//! - `turns` (required): turns per coil, 1 to [`bounds::MAX_TURNS`];
+//! - `lead_offset` (default 0): segments, less than half a pole pitch either way;
+//! - `equalizers` (lap only, default `"none"`): `"none"`, `"full"` or every n-th connection;
+//! - `flux_per_pole_mwb`, `speed_rpm`: also accepted in `[rating]`, and read with it
+//!   (`tables/rating.rs`).
+//!
+//! The segment count is resolved here, between the span and the lead offset, by
+//! `tables/segments.rs`.
+
+use toml::de::DeValue;
+
+use super::armature::Armature;
+use super::segments;
+use crate::design::Diagnostic;
+use crate::design::model::{Direction, EqualizerChoice, SpanSource, WindingType, bounds};
+use crate::design::reader::{At, TableReader, fmt_num};
+
+/// The keys of `[winding]`.
+pub(crate) const KEYS: &[&str] = &[
+    "type",
+    "multiplicity",
+    "direction",
+    "span",
+    "turns",
+    "lead_offset",
+    "equalizers",
+    "flux_per_pole_mwb",
+    "speed_rpm",
+];
+
+/// `[winding]` as read and validated against `[armature]`.
+pub(crate) struct Winding {
+    /// `type`.
+    pub winding_type: WindingType,
+    /// `multiplicity`.
+    pub multiplicity: i64,
+    /// `direction`.
+    pub direction: Direction,
+    /// `span` in slots.
+    pub span: u32,
+    /// Whether the span was given.
+    pub span_source: SpanSource,
+    /// `turns`.
+    pub turns: i64,
+    /// Active coils = segments, resolved.
+    pub segments: i64,
+    /// `lead_offset`.
+    pub lead_offset: i64,
+    /// `equalizers`.
+    pub equalizers: EqualizerChoice,
+}
+
+/// Reads the values of `[winding]` (its keys were checked by the caller) against the
+/// armature read from `arm`.
+pub(crate) fn read(
+    win: &TableReader<'_, '_>,
+    arm: &TableReader<'_, '_>,
+    a: &Armature,
+) -> Result<Winding, Diagnostic> {
+    let src = win.src;
+    let poles = &a.poles;
+    let wtype = match win.choice("type", &["lap", "wave"])? {
+        Some(At { value: "wave", .. }) => WindingType::Wave,
+        Some(_) => WindingType::Lap,
+        None => return Err(win.missing("type", "\"lap\" or \"wave\"", "type = \"lap\"")),
+    };
+    let m = win
+        .int(
+            "multiplicity",
+            1..=bounds::MAX_MULTIPLICITY,
+            "the multiplicity (1 simplex, 2 duplex, 3 triplex)",
+            "use 1 for a simplex winding",
+        )?
+        .map_or(1, |a| a.value);
+    let direction = match win.choice("direction", &["progressive", "retrogressive"])? {
+        Some(At {
+            value: "retrogressive",
+            ..
+        }) => Direction::Retrogressive,
+        _ => Direction::Progressive,
+    };
+    let p = poles.value / 2;
+    if wtype == WindingType::Wave && p < 2 {
+        let at = win.raw("type").map_or(win.span.clone(), |v| v.span());
+        return Err(src
+            .error(
+                at,
+                "winding.type",
+                "a wave winding needs at least 4 poles; with 2 poles it is a lap winding",
+            )
+            .with_hint("use type = \"lap\" for a 2-pole armature"));
+    }
+    let turns = win
+        .int(
+            "turns",
+            1..=bounds::MAX_TURNS,
+            "turns per coil",
+            "count the turns of one coil",
+        )?
+        .ok_or_else(|| win.missing("turns", "turns per coil", "turns = 3"))?;
+    let (span, span_source) = read_span(win, a.slots.value, poles.value)?;
+
+    // Active coils: lap uses every position; wave may need dummies.
+    let active = segments::resolve(
+        &src,
+        win,
+        arm,
+        wtype,
+        direction,
+        a.positions,
+        m,
+        p,
+        a.segments.as_ref(),
+    )?;
+    if active < (m + 1) * poles.value {
+        let at = a
+            .segments
+            .as_ref()
+            .map_or(a.slots.span.clone(), |s| s.span.clone());
+        return Err(src
+            .error(
+                at,
+                "armature.segments",
+                format!(
+                    "{active} segments is too few for {} poles and multiplicity {m}: expected at least {} ((m + 1) segments per pole)",
+                    poles.value,
+                    (m + 1) * poles.value
+                ),
+            )
+            .with_hint("the brushes of neighbouring poles would touch; check the poles, slots and coils per slot"));
+    }
+
+    let lead_offset = win.int(
+        "lead_offset",
+        -1000..=1000,
+        "the lead offset in segments",
+        "0 puts each coil's two segments either side of its centre line",
+    )?;
+    if let Some(lo) = &lead_offset
+        && 2 * poles.value * lo.value.abs() >= active
+    {
+        return Err(src
+                .error(
+                    lo.span.clone(),
+                    "winding.lead_offset",
+                    format!(
+                        "lead offset {} is half a pole pitch or more: expected |lead_offset| < {} segments ({active} segments, {} poles)",
+                        lo.value,
+                        fmt_half_pitch(active, poles.value),
+                        poles.value
+                    ),
+                )
+                .with_hint("the offset swings the leads a few segments from the symmetric position; measure it on the old winding"));
+    }
+    let equalizers = read_equalizers(win, wtype)?;
+    Ok(Winding {
+        winding_type: wtype,
+        multiplicity: m,
+        direction,
+        span,
+        span_source,
+        turns: turns.value,
+        segments: active,
+        lead_offset: lead_offset.map_or(0, |l| l.value),
+        equalizers,
+    })
+}
+
+fn fmt_half_pitch(c: i64, poles: i64) -> String {
+    let half = c as f64 / (2.0 * poles as f64);
+    fmt_num((half * 100.0).round() / 100.0)
+}
+
+fn read_span(
+    t: &TableReader<'_, '_>,
+    slots: i64,
+    poles: i64,
+) -> Result<(u32, SpanSource), Diagnostic> {
+    let Some(v) = t.raw("span") else {
+        return Ok(((slots / poles).max(1) as u32, SpanSource::Default));
+    };
+    let src = t.src;
+    let max = slots - 1;
+    let hint = format!("the span is in slots: 1 to {max}; near {slots}/{poles} = one pole pitch");
+    let value = match v.get_ref() {
+        DeValue::Integer(_) => t
+            .int("span", i64::MIN..=i64::MAX, "the coil span in slots", &hint)?
+            .map(|a| a.value),
+        DeValue::String(s) => {
+            let norm = s.replace(['–', '—'], "-");
+            let parts: Vec<&str> = norm.split('-').map(str::trim).collect();
+            match parts.as_slice() {
+                [a, b] => match (a.parse::<i64>(), b.parse::<i64>()) {
+                    (Ok(a), Ok(b)) if a >= 1 && b > a => Some(b - a),
+                    _ => None,
+                },
+                _ => None,
+            }
+            .ok_or_else(|| {
+                src.error(
+                    v.span(),
+                    "winding.span",
+                    format!("expected a span such as 7 or \"1-8\", found \"{s}\""),
+                )
+                .with_hint(
+                    "the shop form \"1-8\" means the coil lies in slots 1 and 8, a span of 7 slots",
+                )
+            })
+            .map(Some)?
+        }
+        other => {
+            return Err(src
+                .error(
+                    v.span(),
+                    "winding.span",
+                    format!(
+                        "expected a span such as 7 or \"1-8\", found {}",
+                        other.type_str()
+                    ),
+                )
+                .with_hint(hint));
+        }
+    };
+    let value = value.unwrap_or(0);
+    if value < 1 || value > max {
+        return Err(src
+            .error(
+                v.span(),
+                "winding.span",
+                format!(
+                    "span {value} is out of range: expected 1 to {max} slots for {slots} slots"
+                ),
+            )
+            .with_hint(hint));
+    }
+    Ok((value as u32, SpanSource::Given))
+}
+
+fn read_equalizers(
+    t: &TableReader<'_, '_>,
+    wtype: WindingType,
+) -> Result<EqualizerChoice, Diagnostic> {
+    let Some(v) = t.raw("equalizers") else {
+        return Ok(EqualizerChoice::None);
+    };
+    let choice = match v.get_ref() {
+        DeValue::String(_) => match t.choice("equalizers", &["none", "full"])? {
+            Some(At { value: "full", .. }) => EqualizerChoice::Full,
+            _ => EqualizerChoice::None,
+        },
+        DeValue::Integer(_) => {
+            let n = t
+                .int(
+                    "equalizers",
+                    1..=10_000,
+                    "\"none\", \"full\" or every n-th possible connection",
+                    "2 fits every second connection",
+                )?
+                .map_or(1, |a| a.value);
+            if n == 1 {
+                EqualizerChoice::Full
+            } else {
+                EqualizerChoice::EveryNth(n as u32)
+            }
+        }
+        other => {
+            return Err(t
+                .src
+                .error(
+                    v.span(),
+                    "winding.equalizers",
+                    format!(
+                        "expected \"none\", \"full\" or a whole number n, found {}",
+                        other.type_str()
+                    ),
+                )
+                .with_hint("equalizers = 3 fits every third possible connection"));
+        }
+    };
+    if wtype == WindingType::Wave && choice != EqualizerChoice::None {
+        return Err(t
+            .src
+            .error(
+                v.span(),
+                "winding.equalizers",
+                "equalizers belong to lap windings: a wave winding needs none",
+            )
+            .with_hint("remove the key or set equalizers = \"none\""));
+    }
+    Ok(choice)
+}
