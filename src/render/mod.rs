@@ -8,6 +8,7 @@ pub mod json;
 pub mod pdf;
 pub mod rating_json;
 pub mod rating_text;
+pub mod rating_words;
 pub mod report;
 pub mod rewind_text;
 pub mod sheet;

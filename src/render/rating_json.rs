@@ -6,11 +6,13 @@
 
 use serde::{Serialize, Serializer};
 
+use super::rating_words;
 use crate::base::number::round_to;
+use crate::rating::conductor::describe;
 use crate::rating::test_voltage::{TEST_VOLTAGE_CAUTION, TEST_VOLTAGE_SOURCE};
 use crate::rating::{
-    Bound, CommutatorData, ConductorData, Currents, Emf, EmfBasis, Losses, MeanTurnSource,
-    RatingCheck, RatingReport, Resistance, SegmentVoltage, TestVoltage,
+    Bound, CommutatorData, ConductorData, Currents, Emf, EmfBasis, Losses, RatingCheck,
+    RatingReport, Resistance, SegmentVoltage, TestVoltage,
 };
 
 /// The `rating` object for a computed report.
@@ -19,13 +21,13 @@ pub struct RatingJson<'a> {
     #[serde(serialize_with = "checks")]
     checks: &'a [RatingCheck],
     commutator: Option<CommutatorJson>,
-    conductor: Option<ConductorJson<'a>>,
+    conductor: Option<ConductorJson>,
     conductors: u64,
     currents: Option<CurrentsJson>,
     electric_loading_a_m: Option<f64>,
     emf: Option<EmfJson>,
     losses: Option<LossesJson>,
-    notes: &'a [String],
+    notes: Vec<String>,
     paths: u32,
     resistance: Option<ResistanceJson>,
     segment_voltage: Option<SegmentVoltageJson>,
@@ -45,7 +47,7 @@ impl<'a> RatingJson<'a> {
             electric_loading_a_m: ro(r.electric_loading_a_m, 1),
             emf: r.emf.as_ref().map(EmfJson::from),
             losses: r.losses.as_ref().map(LossesJson::from),
-            notes: &r.notes,
+            notes: rating_words::notes(r),
             paths: r.paths,
             resistance: r.resistance.as_ref().map(ResistanceJson::from),
             segment_voltage: r.segment_voltage.as_ref().map(SegmentVoltageJson::from),
@@ -61,23 +63,23 @@ fn ro(x: Option<f64>, n: i32) -> Option<f64> {
 
 /// `conductor`.
 #[derive(Serialize)]
-struct ConductorJson<'a> {
+struct ConductorJson {
     area_mm2: f64,
-    description: &'a str,
+    description: String,
     mean_turn_estimated: bool,
-    mean_turn_formula: Option<&'a str>,
+    mean_turn_formula: Option<String>,
     mean_turn_mm: Option<f64>,
 }
 
-impl<'a> From<&'a ConductorData> for ConductorJson<'a> {
-    fn from(k: &'a ConductorData) -> Self {
-        let formula = k.mean_turn.as_ref().and_then(|t| match &t.source {
-            MeanTurnSource::Given => None,
-            MeanTurnSource::Estimated(f) => Some(f.as_str()),
-        });
+impl From<&ConductorData> for ConductorJson {
+    fn from(k: &ConductorData) -> Self {
+        let formula = k
+            .mean_turn
+            .as_ref()
+            .and_then(rating_words::mean_turn_formula);
         ConductorJson {
             area_mm2: round_to(k.area_mm2, 6),
-            description: &k.description,
+            description: describe(&k.shape),
             mean_turn_estimated: formula.is_some(),
             mean_turn_formula: formula,
             mean_turn_mm: k.mean_turn.as_ref().map(|t| round_to(t.mm, 3)),
@@ -258,7 +260,7 @@ impl From<&TestVoltage> for TestVoltageJson {
             overhauled_v: round_to(t.overhauled_v, 1),
             partly_rewound_v: round_to(t.partial_v, 1),
             rated_v: round_to(t.rated_v, 3),
-            rule: t.rule.describe(),
+            rule: rating_words::test_rule(t.rule),
             source: TEST_VOLTAGE_SOURCE,
         }
     }
