@@ -133,7 +133,7 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
     if let Some(t) = conductor.as_ref().and_then(|k| k.mean_turn.as_ref())
         && let MeanTurnSource::Estimated(_) = t.source
     {
-        notes.push(RatingNote::MeanTurnEstimated(t.clone()));
+        notes.push(RatingNote::MeanTurnEstimated(*t));
     }
     let calc_r20 = conductor.as_ref().and_then(|k| {
         k.mean_turn
