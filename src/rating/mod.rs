@@ -9,6 +9,7 @@
 //! speed or connection. Nothing here touches files.
 
 pub mod advice;
+mod advice_words;
 pub mod commutator;
 pub mod conductor;
 pub mod connection;
@@ -22,6 +23,7 @@ pub mod resistance;
 pub mod rewind;
 pub mod test_voltage;
 
+pub use advice::{Advice, CheckAdvice};
 pub use commutator::{CommutatorData, SegmentVoltage};
 pub use conductor::{MeanTurn, MeanTurnEstimate, MeanTurnSource};
 pub use emf::{Emf, EmfBasis};
@@ -92,8 +94,11 @@ pub struct RatingReport {
     pub losses: Option<Losses>,
     /// Withstand test voltages.
     pub test_voltage: Option<TestVoltage>,
-    /// The checks, in [`rules::ALL`] order, only those whose inputs are present.
+    /// The checks, in [`rules::ALL`] order, only those whose inputs are present. A failed
+    /// check's `advice` holds its remedy in words.
     pub checks: Vec<RatingCheck>,
+    /// The remedies of the failed checks with their numbers, in check order.
+    pub advice: Vec<CheckAdvice>,
     /// What could not be worked out and why, and assumptions made.
     pub notes: Vec<RatingNote>,
 }
@@ -102,6 +107,11 @@ impl RatingReport {
     /// The check with `id`, if it ran.
     pub fn check(&self, id: &str) -> Option<&RatingCheck> {
         self.checks.iter().find(|c| c.rule.id == id)
+    }
+
+    /// The remedy for the failed check with `id`, if it failed.
+    pub fn advice_for(&self, id: &str) -> Option<&Advice> {
+        self.advice.iter().find(|a| a.id == id).map(|a| &a.advice)
     }
 }
 
@@ -242,9 +252,10 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
         losses,
         test_voltage,
         checks: Vec::new(),
+        advice: Vec::new(),
         notes,
     };
-    report.checks = run_checks(d, &report);
+    (report.checks, report.advice) = run_checks(d, &report);
     report
 }
 
@@ -323,7 +334,7 @@ fn emf_block(
     })
 }
 
-fn run_checks(d: &Design, r: &RatingReport) -> Vec<RatingCheck> {
+fn run_checks(d: &Design, r: &RatingReport) -> (Vec<RatingCheck>, Vec<CheckAdvice>) {
     let l = &d.limits;
     let m = Machine {
         design: d,
@@ -333,16 +344,21 @@ fn run_checks(d: &Design, r: &RatingReport) -> Vec<RatingCheck> {
         area_mm2: r.conductor.as_ref().map(|k| k.area_mm2),
     };
     let mut out = Vec::new();
-    let mut push =
-        |rule: Rule, value: Option<f64>, advise: &dyn Fn(&RatingCheck) -> Vec<String>| {
-            if let Some(v) = value.filter(|v| v.is_finite()) {
-                let mut chk = RatingCheck::new(rule, v, l);
-                if !chk.passed {
-                    chk.advice = advise(&chk);
-                }
-                out.push(chk);
+    let mut remedies = Vec::new();
+    let mut push = |rule: Rule, value: Option<f64>, advise: &dyn Fn(&RatingCheck) -> Advice| {
+        if let Some(v) = value.filter(|v| v.is_finite()) {
+            let mut chk = RatingCheck::new(rule, v, l);
+            if !chk.passed {
+                let advice = advise(&chk);
+                chk.advice = advice.words();
+                remedies.push(CheckAdvice {
+                    id: rule.id,
+                    advice,
+                });
             }
-        };
+            out.push(chk);
+        }
+    };
     let sv = r.segment_voltage.as_ref();
     let cur = r.currents.as_ref();
     let com = r.commutator.as_ref();
@@ -406,5 +422,5 @@ fn run_checks(d: &Design, r: &RatingReport) -> Vec<RatingCheck> {
     push(rules::ELECTRIC_LOADING, r.electric_loading_a_m, &|c| {
         advice::electric_loading(&m, i, core_d, c.limit)
     });
-    out
+    (out, remedies)
 }
