@@ -3,7 +3,7 @@
 //! Part of the `rating` stage. Options follow the trade's usual remedies: more parallel paths
 //! (lap instead of wave, a higher multiplicity), more segments, a larger conductor, or a
 //! different commutator [common practice]. This file only works the numbers out; the words are
-//! in [`super::advice_words`].
+//! in the `advice_words` module (`Advice::words`).
 
 use std::f64::consts::PI;
 
