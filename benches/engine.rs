@@ -1,5 +1,6 @@
 //! Engine benchmarks (divan): trace_winding on lap designs of about 100, 1,000 and 10,000
-//! segments, to show the cost grows linearly; and `check --json` end to end on the largest demo.
+//! segments, to show the cost grows linearly; and `check --json` end to end on the largest demo
+//! and on the 1,152-bar lap of `benches/lap-1152.toml` (the whole-process timing design).
 //!
 //! Run: `cargo bench --bench engine`.
 
@@ -46,5 +47,17 @@ fn check_json_largest_demo(bencher: divan::Bencher) {
     bencher.bench(|| {
         let d = parse_design(divan::black_box(&text), "designs/mill-lap-12p.toml").unwrap();
         report_json(&armsheet::check(d))
+    });
+}
+
+/// Parse, trace, check and write JSON to a sink for the 1,152-bar lap (24 poles, 288 slots,
+/// u = 4, span 11, 2 turns), the design the whole-process `check --json` timing uses.
+#[divan::bench]
+fn check_json_1152_bars(bencher: divan::Bencher) {
+    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/benches/lap-1152.toml");
+    let text = std::fs::read_to_string(path).unwrap();
+    bencher.bench(|| {
+        let d = parse_design(divan::black_box(&text), "benches/lap-1152.toml").unwrap();
+        armsheet::render::json::write_report_json(&armsheet::check(d), std::io::sink()).unwrap()
     });
 }

@@ -110,5 +110,10 @@ fn rating_json_value_only(bencher: divan::Bencher) {
     let d = parse_design(&text(), NAME).unwrap();
     let w = trace_winding(&d);
     let r = rate(&d, &w);
-    bencher.bench(|| armsheet::render::rating_json::rating_value(divan::black_box(r.as_ref())));
+    let r = r.unwrap();
+    bencher.bench(|| {
+        let mut out = Vec::new();
+        armsheet::render::rating_json::write_rating_json(divan::black_box(&r), &mut out).unwrap();
+        out
+    });
 }

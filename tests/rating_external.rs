@@ -184,6 +184,7 @@ fn mean_turn_is_estimated_and_said_so() {
         "[armature]\npoles = 4\nslots = 36\n[winding]\ntype = \"lap\"\nspan = 8\nturns = 4\n\
          [conductor]\ndiameter_mm = 1.6\n[core]\ndiameter_mm = 190\nlength_mm = 160\n",
     );
+    let notes = armsheet::render::rating_words::notes(&r);
     let t = r.conductor.unwrap().mean_turn.unwrap();
     close(
         t.mm,
@@ -191,11 +192,10 @@ fn mean_turn_is_estimated_and_said_so() {
         1e-9,
     );
     assert!(
-        r.notes
+        notes
             .iter()
             .any(|n| n.contains("L_mt = 2*L + 2.5*pi*D*y_s/S")),
-        "{:?}",
-        r.notes
+        "{notes:?}"
     );
 }
 

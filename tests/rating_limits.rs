@@ -2,7 +2,7 @@
 //! limit comes with advice that has numbers in it.
 
 use armsheet::design::{LIMIT_KEYS, LIMITS, parse_design};
-use armsheet::rating::{Bound, RatingReport, rate, rules};
+use armsheet::rating::{Advice, Bound, RatingReport, rate, rules};
 use armsheet::winding::trace_winding;
 
 const BASE: &str = r#"
@@ -126,6 +126,19 @@ fn a_shop_limit_can_pass_what_the_default_fails() {
             .any(|a| a.starts_with("more segments: at least 61")),
         "{:?}",
         c.advice
+    );
+    assert!(
+        matches!(
+            r.advice_for("rating.segment-volts-average"),
+            Some(Advice::MoreSegments {
+                c_min: 61,
+                now: 36,
+                slots: 36,
+                ..
+            })
+        ),
+        "{:?}",
+        r.advice
     );
     let r = rated(&format!("{hot}\n[limits]\nsegment_volts_avg_max = 30\n"));
     assert!(r.check("rating.segment-volts-average").unwrap().passed);

@@ -2,8 +2,9 @@
 //! a rewind report with the new design file it writes. Review a changed .snap before accepting.
 
 use armsheet::design::{WindingType, parse_design};
-use armsheet::rating::{RewindRequest, rate, rewind, sheet_rows};
+use armsheet::rating::{RewindRequest, rate, rewind};
 use armsheet::render::rating_text::render_rating;
+use armsheet::render::rating_words::rating_sheet_rows;
 use armsheet::render::rewind_text::render_rewind;
 use armsheet::winding::trace_winding;
 
@@ -23,7 +24,7 @@ fn rating_sections_of_the_demos() {
         let r = rate(&d, &w).unwrap_or_else(|| panic!("{name} has no rating data"));
         let mut s = String::new();
         render_rating(&mut s, &d, &r);
-        let rows: Vec<String> = sheet_rows(&r)
+        let rows: Vec<String> = rating_sheet_rows(&r)
             .into_iter()
             .map(|(l, v)| format!("{l}: {v}"))
             .collect();

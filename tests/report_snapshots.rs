@@ -39,7 +39,13 @@ fn outputs(name: &str) -> (String, String) {
     let text = std::fs::read_to_string(format!("{}/{path}", env!("CARGO_MANIFEST_DIR"))).unwrap();
     let r = check(parse_design(&text, &path).unwrap());
     (
-        render_text(&r, TextOptions { unicode: false }),
+        render_text(
+            &r,
+            TextOptions {
+                unicode: false,
+                version: env!("CARGO_PKG_VERSION"),
+            },
+        ),
         report_json(&r),
     )
 }

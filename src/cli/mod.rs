@@ -119,17 +119,19 @@ fn check(a: &CheckArgs) -> u8 {
         Ok(c) => c,
         Err(code) => return code,
     };
-    let out = if a.json {
-        json::report_json(&checked)
+    let written = if a.json {
+        let mut out = std::io::BufWriter::with_capacity(1 << 16, std::io::stdout().lock());
+        json::write_report_json(&checked, &mut out).and_then(|()| out.flush())
     } else {
-        render_text(
+        print_stdout(&render_text(
             &checked,
             TextOptions {
                 unicode: std::io::stdout().is_terminal(),
+                version: env!("CARGO_PKG_VERSION"),
             },
-        )
+        ))
     };
-    if print_stdout(&out).is_err() {
+    if written.is_err() {
         return 2;
     }
     u8::from(has_errors(&checked.findings))

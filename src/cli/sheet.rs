@@ -168,7 +168,7 @@ pub fn sheet(a: &SheetArgs) -> u8 {
         extra_rows: checked
             .rating
             .as_ref()
-            .map_or_else(Vec::new, crate::rating::sheet_rows),
+            .map_or_else(Vec::new, crate::render::rating_words::rating_sheet_rows),
         version: env!("CARGO_PKG_VERSION").to_string(),
     };
     let sheets = render_sheets(&input);

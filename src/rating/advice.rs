@@ -1,14 +1,14 @@
-//! What would fix a failed rating check, with the numbers for each option.
+//! What would fix a failed rating check: typed remedies with the numbers for each option.
 //!
 //! Part of the `rating` stage. Options follow the trade's usual remedies: more parallel paths
 //! (lap instead of wave, a higher multiplicity), more segments, a larger conductor, or a
-//! different commutator [common practice].
+//! different commutator [common practice]. This file only works the numbers out; the words are
+//! in the `advice_words` module (`Advice::words`).
 
 use std::f64::consts::PI;
 
-use super::conductor::WireFamily;
+use super::conductor::{WireFamily, WireOption};
 use super::connection::{Connection, connect};
-use crate::base::number::fmt_fixed;
 use crate::design::{Design, WindingType, bounds};
 
 /// What the advice needs to know about the machine as designed.
@@ -32,81 +32,209 @@ impl Machine<'_> {
         self.conductors as f64 / f64::from(self.paths)
     }
 
-    /// Turns per coil on connection `k` for the same EMF, before rounding.
-    fn turns_for(&self, k: &Connection) -> f64 {
-        self.per_path() * f64::from(k.paths) / (2.0 * f64::from(k.segments))
+    /// Turns per coil on `paths` paths and `segments` segments for the same EMF, before
+    /// rounding.
+    fn turns_for(&self, paths: u32, segments: u32) -> f64 {
+        self.per_path() * f64::from(paths) / (2.0 * f64::from(segments))
     }
 
-    /// One option in words: paths, current per path, turns and the conductor for the same
-    /// current density.
-    fn describe(&self, k: &Connection, current: f64) -> String {
-        let t = self.turns_for(k);
-        let whole = t.round().max(1.0);
-        let mut s = format!(
-            "{}: {} A per path, {} turns per coil for the same EMF ({} exact)",
-            k.label(),
-            fmt_fixed(current / f64::from(k.paths), 1),
-            fmt_fixed(whole, 0),
-            fmt_fixed(t, 2)
-        );
-        if let Some(a) = self.area_mm2 {
-            s.push_str(&format!(
-                ", conductor {} mm2 for the same current density",
-                fmt_fixed(a * f64::from(self.paths) / f64::from(k.paths), 3)
-            ));
+    /// One reconnection option with its current, turns and conductor.
+    fn path_option(&self, route: PathRoute, k: Connection, current: f64) -> PathOption {
+        let exact = self.turns_for(k.paths, k.segments);
+        PathOption {
+            route,
+            connection: k,
+            per_path_a: current / f64::from(k.paths),
+            turns: exact.round().max(1.0),
+            turns_exact: exact,
+            area_mm2: self
+                .area_mm2
+                .map(|a| a * f64::from(self.paths) / f64::from(k.paths)),
         }
-        if !k.keeps_commutator {
-            s.push_str(&format!(", needs a {}-segment commutator", k.segments));
-        }
-        if k.multiplicity > 1 {
-            s.push_str(&format!(
-                ", brushes at least {} segments wide",
-                k.multiplicity
-            ));
-        }
-        s
     }
 }
 
+/// A remedy for one failed rating check, with its numbers.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Advice {
+    /// Path current too high: reconnect for more paths. `options` is empty when no lap or wave
+    /// connection up to the largest multiplicity gives `need` paths.
+    MorePaths {
+        /// Paths needed.
+        need: u32,
+        /// Poles P.
+        poles: u32,
+        /// The connections that give enough paths.
+        options: Vec<PathOption>,
+    },
+    /// Segment voltage too high: more segments.
+    MoreSegments {
+        /// Fewest segments that keep the voltage within its limit.
+        c_min: u32,
+        /// Segments now.
+        now: u32,
+        /// Slots S.
+        slots: u32,
+        /// The first coils-per-slot count that reaches `c_min`, if any does.
+        option: Option<SegmentOption>,
+    },
+    /// Current density too high: a larger conductor.
+    LargerConductor {
+        /// Area needed, mm².
+        need_mm2: f64,
+        /// Per wire family (AWG, then metric), the smallest size for 1 to 4 strands.
+        picks: Vec<Vec<WirePick>>,
+        /// How much the copper per slot rises, %, when the present area is known.
+        copper_rise_pct: Option<f64>,
+    },
+    /// Current density below its lower limit: the conductor may be smaller.
+    SmallerConductor {
+        /// The smallest area that keeps the density at the lower limit, mm².
+        most_mm2: f64,
+    },
+    /// Segment pitch too small: a wider commutator or fewer segments.
+    SegmentPitch {
+        /// Diameter needed for the present segments, mm.
+        min_diameter_mm: f64,
+        /// Segments now.
+        segments: u32,
+        /// Most segments on the present commutator.
+        max_segments: u32,
+        /// The present commutator diameter, mm.
+        diameter_mm: f64,
+    },
+    /// Peripheral speed too high: a smaller commutator or a lower speed.
+    CommutatorSpeed {
+        /// Largest diameter at the present speed, mm.
+        max_diameter_mm: f64,
+        /// The present speed, rpm.
+        speed_rpm: f64,
+        /// Highest speed on the present commutator, rpm.
+        max_speed_rpm: f64,
+        /// The present commutator diameter, mm.
+        diameter_mm: f64,
+    },
+    /// Brush width outside `min..=max` segment pitches.
+    BrushWidth {
+        /// Narrowest, segment pitches.
+        min: f64,
+        /// Widest, segment pitches.
+        max: f64,
+        /// The segment pitch, mm, when the commutator diameter is known.
+        pitch_mm: Option<f64>,
+    },
+    /// Brush-arm current too high: more arms (poles) or less current.
+    BrushArm {
+        /// Poles P.
+        poles: u32,
+        /// Brush arms needed (even, more than the poles).
+        arms: u32,
+        /// Highest armature current on the present arms, A.
+        max_current_a: f64,
+    },
+    /// Electric loading too high: a larger armature or less current.
+    ElectricLoading {
+        /// Armature diameter needed, mm.
+        min_diameter_mm: f64,
+        /// Highest current on this winding, A.
+        max_current_a: f64,
+    },
+}
+
+/// How a reconnection gets more paths.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum PathRoute {
+    /// A wave reconnected as a lap.
+    LapInsteadOfWave,
+    /// The same kind at a higher multiplicity.
+    HigherMultiplicity,
+}
+
+/// One reconnection for more paths.
+#[derive(Clone, Debug, PartialEq)]
+pub struct PathOption {
+    /// How the paths are gained.
+    pub route: PathRoute,
+    /// The new connection.
+    pub connection: Connection,
+    /// Current per path on it, A.
+    pub per_path_a: f64,
+    /// Whole turns per coil for the same EMF (at least 1).
+    pub turns: f64,
+    /// Turns per coil for the same EMF, before rounding.
+    pub turns_exact: f64,
+    /// Conductor area for the same current density, mm², when the present area is known.
+    pub area_mm2: Option<f64>,
+}
+
+/// More coils per slot for more segments.
+#[derive(Clone, Debug, PartialEq)]
+pub struct SegmentOption {
+    /// Coils per slot u.
+    pub coils_per_slot: u32,
+    /// Segments C it gives.
+    pub segments: u32,
+    /// Whole turns per coil for the same EMF.
+    pub turns: f64,
+    /// Turns per coil for the same EMF, before rounding.
+    pub turns_exact: f64,
+    /// How far whole turns move the EMF, %, when it is more than a tenth.
+    pub emf_shift_pct: Option<f64>,
+    /// Whether the turns fit, and the conductor that goes with them.
+    pub fit: TurnsFit,
+}
+
+/// Whether the turns of a [`SegmentOption`] can be wound.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum TurnsFit {
+    /// Less than one whole turn: not possible.
+    BelowOneTurn,
+    /// The conductor area, mm², that fills the same slot space.
+    Area(f64),
+    /// The present conductor is not known.
+    Unknown,
+}
+
+/// The smallest standard size of one family for a number of strands.
+#[derive(Clone, Debug, PartialEq)]
+pub struct WirePick {
+    /// AWG or metric.
+    pub family: WireFamily,
+    /// Wires in hand.
+    pub strands: u32,
+    /// The size, or `None` when even the largest of the family is too small.
+    pub wire: Option<WireOption>,
+}
+
 /// More paths for a path current above `limit`: lap instead of wave, or a higher multiplicity.
-pub fn more_paths(m: &Machine<'_>, current: f64, limit: f64) -> Vec<String> {
+pub fn more_paths(m: &Machine<'_>, current: f64, limit: f64) -> Advice {
     let d = m.design;
     let need = super::commutator::ceil_u32(current / limit).max(1);
-    let mut out = Vec::new();
+    let mut options = Vec::new();
     if d.winding_type == WindingType::Wave
         && let Some(k) = (d.multiplicity..=bounds::MAX_MULTIPLICITY as u32)
             .filter_map(|mm| connect(d, m.segments, WindingType::Lap, mm).ok())
             .find(|k| k.paths >= need)
     {
-        out.push(format!("lap instead of wave, {}", m.describe(&k, current)));
+        options.push(m.path_option(PathRoute::LapInsteadOfWave, k, current));
     }
     if let Some(k) = (d.multiplicity + 1..=bounds::MAX_MULTIPLICITY as u32)
         .filter_map(|mm| connect(d, m.segments, d.winding_type, mm).ok())
         .find(|k| k.paths >= need)
     {
-        out.push(format!(
-            "a higher multiplicity, {}",
-            m.describe(&k, current)
-        ));
+        options.push(m.path_option(PathRoute::HigherMultiplicity, k, current));
     }
-    if out.is_empty() {
-        out.push(format!(
-            "more paths: at least {need} are needed, which no lap or wave connection up to multiplicity {} gives on {} poles",
-            bounds::MAX_MULTIPLICITY,
-            d.poles
-        ));
+    Advice::MorePaths {
+        need,
+        poles: d.poles,
+        options,
     }
-    out
 }
 
 /// More segments for a segment voltage above its limit: at least `c_min`.
-pub fn more_segments(m: &Machine<'_>, c_min: u32) -> Vec<String> {
+pub fn more_segments(m: &Machine<'_>, c_min: u32) -> Advice {
     let d = m.design;
     let s = d.slots;
-    let mut out = vec![format!(
-        "more segments: at least {c_min} (now {})",
-        m.segments
-    )];
     let first_u = c_min.div_ceil(s).max(d.coils_per_slot + 1);
     let found = (first_u..=bounds::MAX_COILS_PER_SLOT as u32).find_map(|u| {
         let mut dd = d.clone();
@@ -114,176 +242,137 @@ pub fn more_segments(m: &Machine<'_>, c_min: u32) -> Vec<String> {
         let k = connect(&dd, 0, d.winding_type, d.multiplicity).ok()?;
         (k.segments >= c_min).then_some((u, k))
     });
-    match found {
-        Some((u, k)) => {
-            let t = m.per_path() * f64::from(k.paths) / (2.0 * f64::from(k.segments));
-            let whole = t.round();
-            let mut line = format!(
-                "{u} coils per slot on the {s} slots gives C = {}; turns per coil {} for the same EMF ({} exact)",
-                k.segments,
-                fmt_fixed(whole, 0),
-                fmt_fixed(t, 2)
-            );
-            if whole >= 1.0 && (whole - t).abs() > 0.1 * t {
-                line.push_str(&format!(
-                    " (whole turns move the EMF by {} %, so try the next count up as well)",
-                    fmt_fixed((whole / t - 1.0) * 100.0, 0)
-                ));
-            }
-            if whole < 1.0 {
-                line.push_str(": less than one turn, so not possible with whole turns; more slots or a larger armature is needed");
-            } else if let Some(a) = m.area_mm2 {
+    let option = found.map(|(u, k)| {
+        let t = m.turns_for(k.paths, k.segments);
+        let whole = t.round();
+        let emf_shift_pct =
+            (whole >= 1.0 && (whole - t).abs() > 0.1 * t).then(|| (whole / t - 1.0) * 100.0);
+        let fit = if whole < 1.0 {
+            TurnsFit::BelowOneTurn
+        } else {
+            m.area_mm2.map_or(TurnsFit::Unknown, |a| {
                 let ratio =
                     f64::from(d.turns) * f64::from(d.coils_per_slot) / (whole * f64::from(u));
-                line.push_str(&format!(
-                    ", conductor about {} mm2 in the same slot space",
-                    fmt_fixed(a * ratio, 3)
-                ));
-            }
-            out.push(line);
+                TurnsFit::Area(a * ratio)
+            })
+        };
+        SegmentOption {
+            coils_per_slot: u,
+            segments: k.segments,
+            turns: whole,
+            turns_exact: t,
+            emf_shift_pct,
+            fit,
         }
-        None => out.push(format!(
-            "no coils-per-slot count up to {} on {s} slots reaches {c_min} segments",
-            bounds::MAX_COILS_PER_SLOT
-        )),
+    });
+    Advice::MoreSegments {
+        c_min,
+        now: m.segments,
+        slots: s,
+        option,
     }
-    out.push("more paths do not help here: E*P/C does not depend on a".to_string());
-    out
 }
 
 /// A larger conductor for a current density above its limit: area `need_mm2` or more.
-pub fn larger_conductor(m: &Machine<'_>, need_mm2: f64) -> Vec<String> {
-    let mut out = vec![format!(
-        "a larger conductor: at least {} mm2",
-        fmt_fixed(need_mm2, 3)
-    )];
-    for family in [WireFamily::Awg, WireFamily::Metric] {
-        let picks: Vec<String> = (1..=4)
-            .map(|n| bigger_or_equal(family, n, need_mm2))
-            .collect();
-        out.push(picks.join(", "));
+pub fn larger_conductor(m: &Machine<'_>, need_mm2: f64) -> Advice {
+    let picks = [WireFamily::Awg, WireFamily::Metric]
+        .into_iter()
+        .map(|family| {
+            (1..=4)
+                .map(|n| WirePick {
+                    family,
+                    strands: n,
+                    wire: bigger_or_equal(family, n, need_mm2),
+                })
+                .collect()
+        })
+        .collect();
+    Advice::LargerConductor {
+        need_mm2,
+        picks,
+        copper_rise_pct: m.area_mm2.map(|a| (need_mm2 / a - 1.0) * 100.0),
     }
-    if let Some(a) = m.area_mm2 {
-        out.push(format!(
-            "copper per slot rises by {} %: check that it fits the slot",
-            fmt_fixed((need_mm2 / a - 1.0) * 100.0, 0)
-        ));
-    }
-    out
 }
 
 /// The smallest size of `family` whose `strands` wires reach `need` mm².
-fn bigger_or_equal(family: WireFamily, strands: u32, need: f64) -> String {
-    use super::conductor::{AWG_RANGE, awg_name, r20_diameters_mm, round_area_mm2};
+fn bigger_or_equal(family: WireFamily, strands: u32, need: f64) -> Option<WireOption> {
+    use super::conductor::{AWG_RANGE, r20_diameters_mm, round_area_mm2};
     use crate::design::awg_diameter_mm;
     let n = f64::from(strands);
-    let (label, d) = match family {
-        WireFamily::Awg => match AWG_RANGE
-            .rev()
-            .find(|&g| round_area_mm2(awg_diameter_mm(g)) * n >= need * (1.0 - 1e-9))
-        {
-            Some(g) => (format!("AWG {}", awg_name(g)), awg_diameter_mm(g)),
-            None => return format!("{strands} x (beyond AWG 0000)"),
-        },
-        WireFamily::Metric => match r20_diameters_mm()
-            .into_iter()
-            .find(|&d| round_area_mm2(d) * n >= need * (1.0 - 1e-9))
-        {
-            Some(d) => (format!("{} mm", fmt_fixed(d, 3)), d),
-            None => return format!("{strands} x (beyond 5 mm)"),
-        },
+    let enough = |d: f64| round_area_mm2(d) * n >= need * (1.0 - 1e-9);
+    let (awg, d) = match family {
+        WireFamily::Awg => {
+            let g = AWG_RANGE.rev().find(|&g| enough(awg_diameter_mm(g)))?;
+            (Some(g), awg_diameter_mm(g))
+        }
+        WireFamily::Metric => (None, r20_diameters_mm().into_iter().find(|&d| enough(d))?),
     };
     let area = round_area_mm2(d) * n;
-    if strands == 1 {
-        format!("{label} ({} mm2)", fmt_fixed(area, 3))
-    } else {
-        format!("{strands} x {label} ({} mm2)", fmt_fixed(area, 3))
-    }
+    Some(WireOption {
+        family,
+        awg,
+        diameter_mm: d,
+        strands,
+        area_mm2: area,
+        error: area / need - 1.0,
+    })
 }
 
 /// A smaller conductor is possible when the density is below its lower limit.
-pub fn smaller_conductor(most_mm2: f64) -> Vec<String> {
-    vec![format!(
-        "the conductor is generous: down to {} mm2 keeps the density at the lower limit and frees slot space",
-        fmt_fixed(most_mm2, 3)
-    )]
+pub fn smaller_conductor(most_mm2: f64) -> Advice {
+    Advice::SmallerConductor { most_mm2 }
 }
 
 /// A wider commutator or fewer segments for a segment pitch below `min_mm`.
-pub fn segment_pitch(m: &Machine<'_>, diameter_mm: f64, min_mm: f64) -> Vec<String> {
-    let c_max = (PI * diameter_mm / min_mm).floor() as u32;
-    vec![
-        format!(
-            "a commutator of at least {} mm diameter for {} segments",
-            fmt_fixed(f64::from(m.segments) * min_mm / PI, 1),
-            m.segments
-        ),
-        format!(
-            "at most {c_max} segments on the {} mm commutator (fewer coils per slot)",
-            fmt_fixed(diameter_mm, 1)
-        ),
-    ]
-}
-
-/// A smaller commutator or a lower speed for a peripheral speed above `max_m_s`.
-pub fn commutator_speed(diameter_mm: f64, speed_rpm: f64, max_m_s: f64) -> Vec<String> {
-    vec![
-        format!(
-            "a commutator of at most {} mm diameter at {} rpm",
-            fmt_fixed(max_m_s * 60_000.0 / (PI * speed_rpm), 1),
-            fmt_fixed(speed_rpm, 0)
-        ),
-        format!(
-            "at most {} rpm on the {} mm commutator",
-            fmt_fixed(max_m_s * 60_000.0 / (PI * diameter_mm), 0),
-            fmt_fixed(diameter_mm, 1)
-        ),
-    ]
-}
-
-/// A brush of the right width when it is outside `min..=max` segment pitches.
-pub fn brush_width(pitch_mm: Option<f64>, min: f64, max: f64) -> Vec<String> {
-    match pitch_mm {
-        Some(p) => vec![format!(
-            "a brush {} to {} mm wide ({} to {} segment pitches of {} mm)",
-            fmt_fixed(min * p, 1),
-            fmt_fixed(max * p, 1),
-            fmt_fixed(min, 2),
-            fmt_fixed(max, 2),
-            fmt_fixed(p, 2)
-        )],
-        None => vec![format!(
-            "a brush {} to {} segment pitches wide",
-            fmt_fixed(min, 2),
-            fmt_fixed(max, 2)
-        )],
+pub fn segment_pitch(m: &Machine<'_>, diameter_mm: f64, min_mm: f64) -> Advice {
+    Advice::SegmentPitch {
+        min_diameter_mm: f64::from(m.segments) * min_mm / PI,
+        segments: m.segments,
+        max_segments: (PI * diameter_mm / min_mm).floor() as u32,
+        diameter_mm,
     }
 }
 
+/// A smaller commutator or a lower speed for a peripheral speed above `max_m_s`.
+pub fn commutator_speed(diameter_mm: f64, speed_rpm: f64, max_m_s: f64) -> Advice {
+    Advice::CommutatorSpeed {
+        max_diameter_mm: max_m_s * 60_000.0 / (PI * speed_rpm),
+        speed_rpm,
+        max_speed_rpm: max_m_s * 60_000.0 / (PI * diameter_mm),
+        diameter_mm,
+    }
+}
+
+/// A brush of the right width when it is outside `min..=max` segment pitches.
+pub fn brush_width(pitch_mm: Option<f64>, min: f64, max: f64) -> Advice {
+    Advice::BrushWidth { min, max, pitch_mm }
+}
+
 /// More brush arms (poles) or less current for a brush-arm current above `limit`.
-pub fn brush_arm(current: f64, poles: u32, limit: f64) -> Vec<String> {
+pub fn brush_arm(current: f64, poles: u32, limit: f64) -> Advice {
     let arms = super::commutator::ceil_u32(2.0 * current / limit);
     let arms = arms + arms % 2;
-    vec![format!(
-        "the arm current 2I/P is set by the current and the {poles} poles: it needs {} brush arms (poles), or at most {} A armature current",
-        arms.max(poles + 2),
-        fmt_fixed(limit * f64::from(poles) / 2.0, 1)
-    )]
+    Advice::BrushArm {
+        poles,
+        arms: arms.max(poles + 2),
+        max_current_a: limit * f64::from(poles) / 2.0,
+    }
 }
 
 /// A larger armature or less current for an electric loading above `limit` A/m.
-pub fn electric_loading(
-    m: &Machine<'_>,
-    current: f64,
-    diameter_mm: f64,
-    limit: f64,
-) -> Vec<String> {
+pub fn electric_loading(m: &Machine<'_>, current: f64, diameter_mm: f64, limit: f64) -> Advice {
     let x = m.per_path();
-    let dmin = x * current / (PI * limit) * 1000.0;
-    let imax = limit * PI * diameter_mm / 1000.0 / x;
-    vec![format!(
-        "an armature of at least {} mm diameter, or at most {} A on this winding",
-        fmt_fixed(dmin, 1),
-        fmt_fixed(imax, 1)
-    )]
+    Advice::ElectricLoading {
+        min_diameter_mm: x * current / (PI * limit) * 1000.0,
+        max_current_a: limit * PI * diameter_mm / 1000.0 / x,
+    }
+}
+
+/// The remedy for one failed rating check.
+#[derive(Clone, Debug, PartialEq)]
+pub struct CheckAdvice {
+    /// The check's id (`rating.…`).
+    pub id: &'static str,
+    /// The remedy.
+    pub advice: Advice,
 }

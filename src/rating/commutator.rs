@@ -67,8 +67,6 @@ pub struct CommutatorData {
     pub coils_shorted_max: Option<u32>,
     /// Fewest coils one brush shorts at once.
     pub coils_shorted_min: Option<u32>,
-    /// How the count was made.
-    pub coils_shorted_note: Option<String>,
 }
 
 /// Commutator figures from the design data; `speed_rpm` is the speed to rate at.
@@ -99,20 +97,19 @@ pub fn commutator_data(
         speed_rpm: speed.and(speed_rpm),
         brush_width_segments: w_seg,
         brush_width_mm: w_mm,
-        coils_shorted_max: shorted.as_ref().map(|s| s.1),
-        coils_shorted_min: shorted.as_ref().map(|s| s.0),
-        coils_shorted_note: shorted.map(|s| s.2),
+        coils_shorted_max: shorted.map(|s| s.1),
+        coils_shorted_min: shorted.map(|s| s.0),
     }
 }
 
-/// Coils one brush shorts at once, (fewest, most, how).
+/// Coils one brush shorts at once, (fewest, most); the kind's `shorting_rule` words how.
 ///
 /// A brush β segment pitches wide (mica neglected) touches ⌊β⌋+1 or ⌈β⌉+1 segments as the
 /// commutator turns. In a lap winding a coil joins segments m apart, so k touched segments
 /// short k − m coils. In a wave winding each gap between neighbouring segments closes a chain
 /// of p coils in series through the brushes of one polarity, so the count is p times that
 /// [common practice, textbook commutation treatment, from memory].
-pub fn coils_shorted(beta: f64, kind: WindingType, m: u32, p: u32) -> (u32, u32, String) {
+pub fn coils_shorted(beta: f64, kind: WindingType, m: u32, p: u32) -> (u32, u32) {
     let near = beta.round();
     let (lo, hi) = if (beta - near).abs() < 1e-9 {
         (near, near)
@@ -123,9 +120,8 @@ pub fn coils_shorted(beta: f64, kind: WindingType, m: u32, p: u32) -> (u32, u32,
     let touch_hi = hi as i64 + 1;
     let per = |k: i64| (k - i64::from(m)).max(0) as u32;
     let (fewest, most) = (per(touch_lo), per(touch_hi));
-    let rules = kind.kind();
-    let gap = rules.coils_per_gap(p);
-    (fewest * gap, most * gap, rules.shorting_rule(m, p))
+    let gap = kind.kind().coils_per_gap(p);
+    (fewest * gap, most * gap)
 }
 
 #[cfg(test)]

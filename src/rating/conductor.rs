@@ -214,16 +214,29 @@ pub fn choose_size(
 }
 
 /// Where the mean length of one turn came from.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub enum MeanTurnSource {
     /// `[conductor] mean_turn_mm`.
     Given,
-    /// Estimated; the string is the formula with its numbers.
-    Estimated(String),
+    /// Estimated from the core, with the numbers that went in.
+    Estimated(MeanTurnEstimate),
+}
+
+/// The inputs of the mean-turn estimate L_mt = 2·L + 2.5·π·D·y_s/S.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct MeanTurnEstimate {
+    /// Core length L, mm.
+    pub core_length_mm: f64,
+    /// Core diameter D, mm.
+    pub core_diameter_mm: f64,
+    /// Coil span y_s, slots.
+    pub span: u32,
+    /// Slots S.
+    pub slots: u32,
 }
 
 /// The mean length of one turn.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub struct MeanTurn {
     /// mm.
     pub mm: f64,
@@ -235,7 +248,6 @@ pub struct MeanTurn {
 /// connection taken as 1.25 coil pitches at the core surface [common practice, from memory].
 /// `None` when neither the length nor the core diameter and length are known.
 pub fn mean_turn(d: &Design, c: &Conductor) -> Option<MeanTurn> {
-    use crate::base::number::fmt_fixed;
     if let Some(mm) = c.mean_turn_mm {
         return Some(MeanTurn {
             mm,
@@ -248,14 +260,12 @@ pub fn mean_turn(d: &Design, c: &Conductor) -> Option<MeanTurn> {
     let mm = 2.0 * len + 2.5 * pitch;
     Some(MeanTurn {
         mm,
-        source: MeanTurnSource::Estimated(format!(
-            "estimated: L_mt = 2*L + 2.5*pi*D*y_s/S = 2*{} + 2.5*pi*{}*{}/{} = {} mm (ends taken as 1.25 coil pitches) [common practice, from memory]",
-            fmt_fixed(len, 1),
-            fmt_fixed(dia, 1),
-            d.span,
-            d.slots,
-            fmt_fixed(mm, 1)
-        )),
+        source: MeanTurnSource::Estimated(MeanTurnEstimate {
+            core_length_mm: len,
+            core_diameter_mm: dia,
+            span: d.span,
+            slots: d.slots,
+        }),
     })
 }
 

@@ -9,6 +9,7 @@
 //! speed or connection. Nothing here touches files.
 
 pub mod advice;
+mod advice_words;
 pub mod commutator;
 pub mod conductor;
 pub mod connection;
@@ -17,20 +18,21 @@ pub mod emf;
 pub mod findings;
 pub mod limits;
 pub mod losses;
+pub mod note;
 pub mod resistance;
 pub mod rewind;
-mod sheet;
 pub mod test_voltage;
 
+pub use advice::{Advice, CheckAdvice};
 pub use commutator::{CommutatorData, SegmentVoltage};
-pub use conductor::{MeanTurn, MeanTurnSource};
+pub use conductor::{MeanTurn, MeanTurnEstimate, MeanTurnSource};
 pub use emf::{Emf, EmfBasis};
 pub use findings::findings_of;
 pub use limits::{Bound, RatingCheck, Rule, rules};
 pub use losses::Losses;
+pub use note::RatingNote;
 pub use resistance::Resistance;
 pub use rewind::{FluxSource, RewindError, RewindPlan, RewindRequest, rewind};
-pub use sheet::sheet_rows;
 pub use test_voltage::TestVoltage;
 
 use std::f64::consts::PI;
@@ -44,8 +46,6 @@ use advice::Machine;
 pub struct ConductorData {
     /// The cross-section as given.
     pub shape: ConductorShape,
-    /// In words.
-    pub description: String,
     /// Copper area, all strands, mm².
     pub area_mm2: f64,
     /// The mean turn, when given or estimable.
@@ -94,16 +94,24 @@ pub struct RatingReport {
     pub losses: Option<Losses>,
     /// Withstand test voltages.
     pub test_voltage: Option<TestVoltage>,
-    /// The checks, in [`rules::ALL`] order, only those whose inputs are present.
+    /// The checks, in [`rules::ALL`] order, only those whose inputs are present. A failed
+    /// check's `advice` holds its remedy in words.
     pub checks: Vec<RatingCheck>,
+    /// The remedies of the failed checks with their numbers, in check order.
+    pub advice: Vec<CheckAdvice>,
     /// What could not be worked out and why, and assumptions made.
-    pub notes: Vec<String>,
+    pub notes: Vec<RatingNote>,
 }
 
 impl RatingReport {
     /// The check with `id`, if it ran.
     pub fn check(&self, id: &str) -> Option<&RatingCheck> {
         self.checks.iter().find(|c| c.rule.id == id)
+    }
+
+    /// The remedy for the failed check with `id`, if it failed.
+    pub fn advice_for(&self, id: &str) -> Option<&Advice> {
+        self.advice.iter().find(|a| a.id == id).map(|a| &a.advice)
     }
 }
 
@@ -129,19 +137,13 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
     // Conductor and resistance.
     let conductor = d.conductor.as_ref().map(|k| ConductorData {
         shape: k.shape,
-        description: conductor::describe(&k.shape),
         area_mm2: conductor::conductor_area_mm2(&k.shape),
         mean_turn: conductor::mean_turn(d, k),
     });
-    if let Some(k) = &conductor
-        && let Some(MeanTurn {
-            source: MeanTurnSource::Estimated(f),
-            ..
-        }) = &k.mean_turn
+    if let Some(t) = conductor.as_ref().and_then(|k| k.mean_turn.as_ref())
+        && let MeanTurnSource::Estimated(_) = t.source
     {
-        notes.push(format!(
-            "mean turn {f}; give [conductor] mean_turn_mm for a measured value"
-        ));
+        notes.push(RatingNote::MeanTurnEstimated(*t));
     }
     let calc_r20 = conductor.as_ref().and_then(|k| {
         k.mean_turn
@@ -155,12 +157,11 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
     };
     if resistance.is_none() {
         notes.push(match &conductor {
-            None => "no armature resistance: give [conductor] (diameter_mm or awg, or width_mm and height_mm)".to_string(),
-            Some(_) => "no armature resistance: give [conductor] mean_turn_mm, or [core] diameter_mm and length_mm to estimate it".to_string(),
+            None => RatingNote::NoConductor,
+            Some(_) => RatingNote::NoMeanTurn,
         });
     } else if class.is_none() {
-        notes
-            .push("no [rating] thermal_class: resistance and losses are taken at 20 C".to_string());
+        notes.push(RatingNote::NoThermalClass);
     }
 
     let grade = d
@@ -202,10 +203,7 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
         }
     });
     if current.is_none() && d.rating.is_some() {
-        notes.push(
-            "no [rating] current: currents, density, loading, losses and torque need it"
-                .to_string(),
-        );
+        notes.push(RatingNote::NoCurrent);
     }
 
     let core_d = d.core.as_ref().and_then(|k| k.diameter_mm);
@@ -237,7 +235,7 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
 
     let test_voltage = voltage.map(|u| test_voltage::test_voltages(u, current.map(|i| u * i)));
     if voltage.is_some_and(|u| u < 100.0) && current.is_none() {
-        notes.push("test voltage: no current, so the machine is not taken as under 1 kW (the general row applies)".to_string());
+        notes.push(RatingNote::TestVoltageGeneralRow);
     }
 
     let mut report = RatingReport {
@@ -254,9 +252,10 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
         losses,
         test_voltage,
         checks: Vec::new(),
+        advice: Vec::new(),
         notes,
     };
-    report.checks = run_checks(d, &report);
+    (report.checks, report.advice) = run_checks(d, &report);
     report
 }
 
@@ -269,14 +268,14 @@ fn emf_block(
     current: Option<f64>,
     r: Option<&Resistance>,
     grade: BrushGrade,
-    notes: &mut Vec<String>,
+    notes: &mut Vec<RatingNote>,
 ) -> Option<Emf> {
     let flux_wb = d.flux_per_pole_mwb.map(|f| f / 1000.0);
     let (basis, e, ir, ir_known, drop) = match (voltage, flux_wb, d.speed_rpm) {
         (Some(v), _, _) => {
             let ir = current.zip(r).map(|(i, r)| i * r.hot_ohm);
             if current.is_some() && ir.is_none() {
-                notes.push("EMF: I*R_a left out (no armature resistance)".to_string());
+                notes.push(RatingNote::EmfWithoutIrDrop);
             }
             let drop = if current.is_some() {
                 emf::brush_drop_v(grade)
@@ -300,16 +299,13 @@ fn emf_block(
             0.0,
         ),
         _ => {
-            notes.push("no EMF: give [rating] voltage, or a flux and a speed".to_string());
+            notes.push(RatingNote::NoEmf);
             return None;
         }
     };
     let usable = e > 0.0;
     if !usable {
-        notes.push(
-            "the drops exceed the terminal voltage: no positive EMF, so no flux or speed follows"
-                .to_string(),
-        );
+        notes.push(RatingNote::DropsExceedVoltage);
     }
     let flux_needed = d
         .speed_rpm
@@ -338,7 +334,7 @@ fn emf_block(
     })
 }
 
-fn run_checks(d: &Design, r: &RatingReport) -> Vec<RatingCheck> {
+fn run_checks(d: &Design, r: &RatingReport) -> (Vec<RatingCheck>, Vec<CheckAdvice>) {
     let l = &d.limits;
     let m = Machine {
         design: d,
@@ -348,16 +344,21 @@ fn run_checks(d: &Design, r: &RatingReport) -> Vec<RatingCheck> {
         area_mm2: r.conductor.as_ref().map(|k| k.area_mm2),
     };
     let mut out = Vec::new();
-    let mut push =
-        |rule: Rule, value: Option<f64>, advise: &dyn Fn(&RatingCheck) -> Vec<String>| {
-            if let Some(v) = value.filter(|v| v.is_finite()) {
-                let mut chk = RatingCheck::new(rule, v, l);
-                if !chk.passed {
-                    chk.advice = advise(&chk);
-                }
-                out.push(chk);
+    let mut remedies = Vec::new();
+    let mut push = |rule: Rule, value: Option<f64>, advise: &dyn Fn(&RatingCheck) -> Advice| {
+        if let Some(v) = value.filter(|v| v.is_finite()) {
+            let mut chk = RatingCheck::new(rule, v, l);
+            if !chk.passed {
+                let advice = advise(&chk);
+                chk.advice = advice.words();
+                remedies.push(CheckAdvice {
+                    id: rule.id,
+                    advice,
+                });
             }
-        };
+            out.push(chk);
+        }
+    };
     let sv = r.segment_voltage.as_ref();
     let cur = r.currents.as_ref();
     let com = r.commutator.as_ref();
@@ -421,5 +422,5 @@ fn run_checks(d: &Design, r: &RatingReport) -> Vec<RatingCheck> {
     push(rules::ELECTRIC_LOADING, r.electric_loading_a_m, &|c| {
         advice::electric_loading(&m, i, core_d, c.limit)
     });
-    out
+    (out, remedies)
 }

@@ -33,8 +33,10 @@ pub struct TestVoltage {
     pub rule: TestRule,
     /// New or fully rewound winding, V.
     pub new_v: f64,
-    /// Overhauled machine after cleaning and drying: 1.5·U, at least 1000 V (U ≥ 100 V) or 500 V.
+    /// Overhauled machine after cleaning and drying: 1.5·U, at least `overhauled_minimum_v`.
     pub overhauled_v: f64,
+    /// The floor of the overhauled value: 1000 V when U ≥ 100 V, else 500 V.
+    pub overhauled_minimum_v: f64,
     /// Partly rewound: 75 % of the new value [from memory].
     pub partial_v: f64,
 }
@@ -56,24 +58,15 @@ pub fn test_voltages(u: f64, power_w: Option<f64>) -> TestVoltage {
             (TestRule::General, v)
         }
     };
-    let overhauled_v = (1.5 * u).max(if u >= 100.0 { 1000.0 } else { 500.0 });
+    let overhauled_minimum_v = if u >= 100.0 { 1000.0 } else { 500.0 };
+    let overhauled_v = (1.5 * u).max(overhauled_minimum_v);
     TestVoltage {
         rated_v: u,
         power_w,
         rule,
         new_v,
         overhauled_v,
+        overhauled_minimum_v,
         partial_v: 0.75 * new_v,
-    }
-}
-
-impl TestRule {
-    /// The rule in words.
-    pub fn describe(self) -> &'static str {
-        match self {
-            TestRule::Small => "under 1 kW and under 100 V: 500 V + 2U",
-            TestRule::General => "1000 V + 2U (minimum 1500 V)",
-            TestRule::GeneralMinimum => "1000 V + 2U, raised to the 1500 V minimum",
-        }
     }
 }

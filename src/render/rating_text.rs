@@ -6,8 +6,10 @@
 
 use std::fmt::Write;
 
+use super::rating_words::{coils_shorted_rule, note, test_rule};
 use crate::base::number::fmt_fixed;
-use crate::design::Design;
+use crate::design::{Design, Mode};
+use crate::rating::conductor::describe;
 use crate::rating::test_voltage::{TEST_VOLTAGE_CAUTION, TEST_VOLTAGE_SOURCE};
 use crate::rating::{EmfBasis, MeanTurnSource, RatingReport};
 
@@ -34,12 +36,12 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
         row(
             s,
             "conductor",
-            format!("{}, {} mm2", k.description, fmt_fixed(k.area_mm2, 3)),
+            format!("{}, {} mm2", describe(&k.shape), fmt_fixed(k.area_mm2, 3)),
         );
         if let Some(t) = &k.mean_turn {
-            let how = match &t.source {
-                MeanTurnSource::Given => "given".to_string(),
-                MeanTurnSource::Estimated(_) => "estimated, see notes".to_string(),
+            let how = match t.source {
+                MeanTurnSource::Given => "given",
+                MeanTurnSource::Estimated(_) => "estimated, see notes",
             };
             row(
                 s,
@@ -75,11 +77,7 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
         row(s, "mode", e.mode.as_str());
         match (e.basis, e.terminal_v) {
             (EmfBasis::Terminal, Some(v)) => {
-                let sign = if e.mode == crate::design::Mode::Motor {
-                    "-"
-                } else {
-                    "+"
-                };
+                let sign = if e.mode == Mode::Motor { "-" } else { "+" };
                 let ir = if e.ir_known {
                     fmt_fixed(e.ir_drop_v, 2)
                 } else {
@@ -222,7 +220,7 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
         if let (Some(lo), Some(hi), Some(how)) = (
             k.coils_shorted_min,
             k.coils_shorted_max,
-            &k.coils_shorted_note,
+            coils_shorted_rule(d, k),
         ) {
             let n = if lo == hi {
                 lo.to_string()
@@ -257,7 +255,7 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
             format!(
                 "new or fully rewound: {} V ({})",
                 fmt_fixed(t.new_v, 0),
-                t.rule.describe()
+                test_rule(t.rule)
             ),
         );
         row(
@@ -266,7 +264,7 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
             format!(
                 "overhauled, cleaned and dried: {} V (1.5*U, minimum {} V)",
                 fmt_fixed(t.overhauled_v, 0),
-                if t.rated_v >= 100.0 { 1000 } else { 500 }
+                fmt_fixed(t.overhauled_minimum_v, 0)
             ),
         );
         row(
@@ -297,7 +295,7 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
     if !r.notes.is_empty() {
         let _ = writeln!(s, "  notes:");
         for n in &r.notes {
-            let _ = writeln!(s, "    - {n}");
+            let _ = writeln!(s, "    - {}", note(n));
         }
     }
 }

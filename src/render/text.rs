@@ -16,16 +16,18 @@ use crate::winding::{EqualizerPlan, Winding};
 
 /// Options for the text report.
 #[derive(Clone, Copy, Debug, Default)]
-pub struct TextOptions {
+pub struct TextOptions<'a> {
     /// Use Unicode check marks (for a terminal).
     pub unicode: bool,
+    /// The program version for the header line (the CLI passes its package version).
+    pub version: &'a str,
 }
 
 /// Renders the whole `check` report.
-pub fn render_text(r: &Checked, opts: TextOptions) -> String {
+pub fn render_text(r: &Checked, opts: TextOptions<'_>) -> String {
     let mut s = String::new();
     let (d, w) = (&r.design, &r.winding);
-    header(&mut s, d);
+    header(&mut s, d, opts.version);
     summary(&mut s, d, w);
     pitches(&mut s, d, w);
     paths(&mut s, d, w);
@@ -50,13 +52,8 @@ fn row(s: &mut String, label: &str, value: impl std::fmt::Display) {
     let _ = writeln!(s, "  {label:<22}{value}");
 }
 
-fn header(s: &mut String, d: &Design) {
-    let _ = writeln!(
-        s,
-        "armsheet {} - winding check of {}",
-        env!("CARGO_PKG_VERSION"),
-        d.file_name
-    );
+fn header(s: &mut String, d: &Design, version: &str) {
+    let _ = writeln!(s, "armsheet {version} - winding check of {}", d.file_name);
     let j = &d.job;
     let fields = [
         ("job", &j.id),
@@ -310,7 +307,7 @@ fn mark(f: &Finding, unicode: bool) -> &'static str {
     }
 }
 
-fn checks(s: &mut String, findings: &[Finding], opts: TextOptions) {
+fn checks(s: &mut String, findings: &[Finding], opts: TextOptions<'_>) {
     section(s, "CHECKS");
     let errors = findings.iter().filter(|f| f.is_failure()).count();
     let warnings = findings

@@ -1,0 +1,214 @@
+//! The remedies of [`super::advice`] in words, one line per option.
+//!
+//! Part of the `rating` stage for now: the words end up in the rating checks' finding messages
+//! (`RatingCheck::advice`, read by `RatingCheck::message`) and in the rewind report, both of
+//! which are made from the rating's output. When the finding message moves out of the rating,
+//! this file moves to `render` with it; nothing else here computes.
+
+use super::advice::{Advice, PathOption, PathRoute, SegmentOption, TurnsFit, WirePick};
+use super::conductor::{WireFamily, awg_name};
+use crate::base::number::fmt_fixed;
+use crate::design::bounds;
+
+impl Advice {
+    /// The remedy in words, one line per option.
+    pub fn words(&self) -> Vec<String> {
+        match self {
+            Advice::MorePaths {
+                need,
+                poles,
+                options,
+            } => {
+                if options.is_empty() {
+                    return vec![format!(
+                        "more paths: at least {need} are needed, which no lap or wave connection up to multiplicity {} gives on {poles} poles",
+                        bounds::MAX_MULTIPLICITY
+                    )];
+                }
+                options.iter().map(path_option).collect()
+            }
+            Advice::MoreSegments {
+                c_min,
+                now,
+                slots,
+                option,
+            } => vec![
+                format!("more segments: at least {c_min} (now {now})"),
+                match option {
+                    Some(o) => segment_option(o, *slots),
+                    None => format!(
+                        "no coils-per-slot count up to {} on {slots} slots reaches {c_min} segments",
+                        bounds::MAX_COILS_PER_SLOT
+                    ),
+                },
+                "more paths do not help here: E*P/C does not depend on a".to_string(),
+            ],
+            Advice::LargerConductor {
+                need_mm2,
+                picks,
+                copper_rise_pct,
+            } => {
+                let mut out = vec![format!(
+                    "a larger conductor: at least {} mm2",
+                    fmt_fixed(*need_mm2, 3)
+                )];
+                for family in picks {
+                    let line: Vec<String> = family.iter().map(wire_pick).collect();
+                    out.push(line.join(", "));
+                }
+                if let Some(pct) = copper_rise_pct {
+                    out.push(format!(
+                        "copper per slot rises by {} %: check that it fits the slot",
+                        fmt_fixed(*pct, 0)
+                    ));
+                }
+                out
+            }
+            Advice::SmallerConductor { most_mm2 } => vec![format!(
+                "the conductor is generous: down to {} mm2 keeps the density at the lower limit and frees slot space",
+                fmt_fixed(*most_mm2, 3)
+            )],
+            Advice::SegmentPitch {
+                min_diameter_mm,
+                segments,
+                max_segments,
+                diameter_mm,
+            } => vec![
+                format!(
+                    "a commutator of at least {} mm diameter for {segments} segments",
+                    fmt_fixed(*min_diameter_mm, 1)
+                ),
+                format!(
+                    "at most {max_segments} segments on the {} mm commutator (fewer coils per slot)",
+                    fmt_fixed(*diameter_mm, 1)
+                ),
+            ],
+            Advice::CommutatorSpeed {
+                max_diameter_mm,
+                speed_rpm,
+                max_speed_rpm,
+                diameter_mm,
+            } => vec![
+                format!(
+                    "a commutator of at most {} mm diameter at {} rpm",
+                    fmt_fixed(*max_diameter_mm, 1),
+                    fmt_fixed(*speed_rpm, 0)
+                ),
+                format!(
+                    "at most {} rpm on the {} mm commutator",
+                    fmt_fixed(*max_speed_rpm, 0),
+                    fmt_fixed(*diameter_mm, 1)
+                ),
+            ],
+            Advice::BrushWidth { min, max, pitch_mm } => vec![match pitch_mm {
+                Some(p) => format!(
+                    "a brush {} to {} mm wide ({} to {} segment pitches of {} mm)",
+                    fmt_fixed(min * p, 1),
+                    fmt_fixed(max * p, 1),
+                    fmt_fixed(*min, 2),
+                    fmt_fixed(*max, 2),
+                    fmt_fixed(*p, 2)
+                ),
+                None => format!(
+                    "a brush {} to {} segment pitches wide",
+                    fmt_fixed(*min, 2),
+                    fmt_fixed(*max, 2)
+                ),
+            }],
+            Advice::BrushArm {
+                poles,
+                arms,
+                max_current_a,
+            } => vec![format!(
+                "the arm current 2I/P is set by the current and the {poles} poles: it needs {arms} brush arms (poles), or at most {} A armature current",
+                fmt_fixed(*max_current_a, 1)
+            )],
+            Advice::ElectricLoading {
+                min_diameter_mm,
+                max_current_a,
+            } => vec![format!(
+                "an armature of at least {} mm diameter, or at most {} A on this winding",
+                fmt_fixed(*min_diameter_mm, 1),
+                fmt_fixed(*max_current_a, 1)
+            )],
+        }
+    }
+}
+
+/// One reconnection: paths, current per path, turns and the conductor for the same density.
+fn path_option(o: &PathOption) -> String {
+    let k = &o.connection;
+    let route = match o.route {
+        PathRoute::LapInsteadOfWave => "lap instead of wave",
+        PathRoute::HigherMultiplicity => "a higher multiplicity",
+    };
+    let mut s = format!(
+        "{route}, {}: {} A per path, {} turns per coil for the same EMF ({} exact)",
+        k.label(),
+        fmt_fixed(o.per_path_a, 1),
+        fmt_fixed(o.turns, 0),
+        fmt_fixed(o.turns_exact, 2)
+    );
+    if let Some(a) = o.area_mm2 {
+        s.push_str(&format!(
+            ", conductor {} mm2 for the same current density",
+            fmt_fixed(a, 3)
+        ));
+    }
+    if !k.keeps_commutator {
+        s.push_str(&format!(", needs a {}-segment commutator", k.segments));
+    }
+    if k.multiplicity > 1 {
+        s.push_str(&format!(
+            ", brushes at least {} segments wide",
+            k.multiplicity
+        ));
+    }
+    s
+}
+
+/// More coils per slot: the segments and the turns they need.
+fn segment_option(o: &SegmentOption, slots: u32) -> String {
+    let mut line = format!(
+        "{} coils per slot on the {slots} slots gives C = {}; turns per coil {} for the same EMF ({} exact)",
+        o.coils_per_slot,
+        o.segments,
+        fmt_fixed(o.turns, 0),
+        fmt_fixed(o.turns_exact, 2)
+    );
+    if let Some(pct) = o.emf_shift_pct {
+        line.push_str(&format!(
+            " (whole turns move the EMF by {} %, so try the next count up as well)",
+            fmt_fixed(pct, 0)
+        ));
+    }
+    match o.fit {
+        TurnsFit::BelowOneTurn => line.push_str(": less than one turn, so not possible with whole turns; more slots or a larger armature is needed"),
+        TurnsFit::Area(a) => line.push_str(&format!(
+            ", conductor about {} mm2 in the same slot space",
+            fmt_fixed(a, 3)
+        )),
+        TurnsFit::Unknown => {}
+    }
+    line
+}
+
+/// "AWG 9 (6.632 mm2)", "2 x 1.800 mm (5.089 mm2)", "3 x (beyond 5 mm)".
+fn wire_pick(p: &WirePick) -> String {
+    let n = p.strands;
+    let Some(w) = &p.wire else {
+        return match p.family {
+            WireFamily::Awg => format!("{n} x (beyond AWG 0000)"),
+            WireFamily::Metric => format!("{n} x (beyond 5 mm)"),
+        };
+    };
+    let label = match w.awg {
+        Some(g) => format!("AWG {}", awg_name(g)),
+        None => format!("{} mm", fmt_fixed(w.diameter_mm, 3)),
+    };
+    if n == 1 {
+        format!("{label} ({} mm2)", fmt_fixed(w.area_mm2, 3))
+    } else {
+        format!("{n} x {label} ({} mm2)", fmt_fixed(w.area_mm2, 3))
+    }
+}

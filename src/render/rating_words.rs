@@ -1,0 +1,152 @@
+//! The rating in words: notes, the mean-turn estimate, the test-voltage rule, the coils under
+//! a brush, and the short label/value rows of the winding sheet's data block.
+//!
+//! Part of the `render` stage: the rating returns typed values with their numbers, this file
+//! words them once for the text report, the JSON and the sheet. Sheet values are kept to about
+//! 20 characters so they fit the block's value column.
+
+use crate::base::number::fmt_fixed;
+use crate::design::Design;
+use crate::rating::test_voltage::TestRule;
+use crate::rating::{CommutatorData, MeanTurn, MeanTurnSource, RatingNote, RatingReport};
+
+/// A note of the rating in words.
+pub fn note(n: &RatingNote) -> String {
+    match n {
+        RatingNote::MeanTurnEstimated(t) => format!(
+            "mean turn {}; give [conductor] mean_turn_mm for a measured value",
+            mean_turn_formula(t).unwrap_or_default()
+        ),
+        RatingNote::NoConductor => "no armature resistance: give [conductor] (diameter_mm or awg, or width_mm and height_mm)".to_string(),
+        RatingNote::NoMeanTurn => "no armature resistance: give [conductor] mean_turn_mm, or [core] diameter_mm and length_mm to estimate it".to_string(),
+        RatingNote::NoThermalClass => "no [rating] thermal_class: resistance and losses are taken at 20 C".to_string(),
+        RatingNote::EmfWithoutIrDrop => "EMF: I*R_a left out (no armature resistance)".to_string(),
+        RatingNote::NoEmf => "no EMF: give [rating] voltage, or a flux and a speed".to_string(),
+        RatingNote::DropsExceedVoltage => "the drops exceed the terminal voltage: no positive EMF, so no flux or speed follows".to_string(),
+        RatingNote::NoCurrent => "no [rating] current: currents, density, loading, losses and torque need it".to_string(),
+        RatingNote::TestVoltageGeneralRow => "test voltage: no current, so the machine is not taken as under 1 kW (the general row applies)".to_string(),
+    }
+}
+
+/// Every note of `r` in words, in order.
+pub fn notes(r: &RatingReport) -> Vec<String> {
+    r.notes.iter().map(note).collect()
+}
+
+/// The estimate of the mean turn with its numbers; `None` when the length was given.
+pub fn mean_turn_formula(t: &MeanTurn) -> Option<String> {
+    match t.source {
+        MeanTurnSource::Given => None,
+        MeanTurnSource::Estimated(e) => Some(format!(
+            "estimated: L_mt = 2*L + 2.5*pi*D*y_s/S = 2*{} + 2.5*pi*{}*{}/{} = {} mm (ends taken as 1.25 coil pitches) [common practice, from memory]",
+            fmt_fixed(e.core_length_mm, 1),
+            fmt_fixed(e.core_diameter_mm, 1),
+            e.span,
+            e.slots,
+            fmt_fixed(t.mm, 1)
+        )),
+    }
+}
+
+/// The row of the withstand-test table used for the new winding, in words.
+pub fn test_rule(rule: TestRule) -> &'static str {
+    match rule {
+        TestRule::Small => "under 1 kW and under 100 V: 500 V + 2U",
+        TestRule::General => "1000 V + 2U (minimum 1500 V)",
+        TestRule::GeneralMinimum => "1000 V + 2U, raised to the 1500 V minimum",
+    }
+}
+
+/// How the coils shorted by one brush were counted, for the design's kind, multiplicity and
+/// pole pairs; `None` when the brush width is not known.
+pub fn coils_shorted_rule(d: &Design, k: &CommutatorData) -> Option<String> {
+    k.brush_width_segments.map(|_| {
+        d.winding_type
+            .kind()
+            .shorting_rule(d.multiplicity, d.pole_pairs())
+    })
+}
+
+/// Short label/value pairs for the sheet: conductor, resistance, EMF, segment voltage,
+/// currents, commutator speed and the withstand test voltages (the sheet carries the caution
+/// that the applicable standard governs). Only rows whose values exist.
+pub fn rating_sheet_rows(r: &RatingReport) -> Vec<(String, String)> {
+    let mut rows: Vec<(String, String)> = Vec::new();
+    let mut add = |l: &str, v: String| rows.push((l.to_string(), v));
+    if let Some(k) = &r.conductor {
+        add(
+            "conductor area",
+            format!("{} mm2", fmt_fixed(k.area_mm2, 3)),
+        );
+    }
+    if let Some(x) = &r.resistance {
+        add("R_a at 20 C", format!("{} ohm", fmt_fixed(x.r20_ohm, 4)));
+        if x.from_class {
+            add(
+                &format!("R_a at {} C", fmt_fixed(x.reference_c, 0)),
+                format!("{} ohm", fmt_fixed(x.hot_ohm, 4)),
+            );
+        }
+    }
+    if let Some(e) = &r.emf {
+        add("induced EMF", format!("{} V", fmt_fixed(e.emf_v, 1)));
+        if let Some(f) = e.flux_needed_mwb {
+            add("flux needed", format!("{} mWb", fmt_fixed(f, 3)));
+        }
+        if let Some(n) = e.speed_at_flux_rpm {
+            add("speed at flux", format!("{} rpm", fmt_fixed(n, 0)));
+        }
+        if let Some(t) = e.torque_nm {
+            add("rated torque", format!("{} N m", fmt_fixed(t, 1)));
+        }
+    }
+    if let Some(s) = &r.segment_voltage {
+        add(
+            "segment V, average",
+            format!("{} V", fmt_fixed(s.average_v, 2)),
+        );
+        add(
+            "segment V, peak est.",
+            format!("{} V", fmt_fixed(s.peak_v, 2)),
+        );
+    }
+    if let Some(c) = &r.currents {
+        add(
+            "current per path",
+            format!("{} A", fmt_fixed(c.per_path_a, 2)),
+        );
+        if let Some(j) = c.density_a_mm2 {
+            add("current density", format!("{} A/mm2", fmt_fixed(j, 2)));
+        }
+    }
+    if let Some(k) = &r.commutator {
+        if let Some(v) = k.peripheral_speed_m_s {
+            add("commutator speed", format!("{} m/s", fmt_fixed(v, 2)));
+        }
+        if let Some(b) = k.brush_width_segments {
+            add("brush width", format!("{} segments", fmt_fixed(b, 2)));
+        }
+    }
+    if let Some(t) = &r.test_voltage {
+        add(
+            "test 1 min, new",
+            format!("{} V (IEC 60034-1)", fmt_fixed(t.new_v, 0)),
+        );
+        add(
+            "test 1 min, overhaul",
+            format!("{} V (IEC 60034-1)", fmt_fixed(t.overhauled_v, 0)),
+        );
+    }
+    if !r.checks.is_empty() {
+        let failed = r.checks.iter().filter(|c| !c.passed).count();
+        add(
+            "rating checks",
+            if failed == 0 {
+                "all within limits".to_string()
+            } else {
+                format!("{failed} outside limits")
+            },
+        );
+    }
+    rows
+}
