@@ -115,8 +115,15 @@ pub fn replace_folder(
         path: target.to_path_buf(),
         source,
     };
+    fs::create_dir_all(parent_of(target)).map_err(create_err)?;
+    // A folder reached through a symbolic link is replaced where it really is, so the link
+    // keeps pointing at the set.
+    let real: PathBuf = match fs::symlink_metadata(target) {
+        Ok(m) if m.file_type().is_symlink() => fs::canonicalize(target).map_err(create_err)?,
+        _ => target.to_path_buf(),
+    };
+    let (user_target, target) = (target, real.as_path());
     let parent = parent_of(target);
-    fs::create_dir_all(parent).map_err(create_err)?;
     let old_exists = match fs::symlink_metadata(target) {
         Ok(m) if m.is_dir() => true,
         Ok(_) => {
@@ -134,7 +141,7 @@ pub fn replace_folder(
         .map_err(create_err)?;
     for (name, bytes) in files {
         write_file(&stage.path().join(name), bytes)
-            .map_err(|e| CliError::write(target.join(name), e))?;
+            .map_err(|e| CliError::write(user_target.join(name), e))?;
     }
     if !old_exists {
         fs::rename(stage.path(), target).map_err(|e| CliError::write(target, e))?;
@@ -156,7 +163,7 @@ pub fn replace_folder(
             continue;
         }
         if is_stale(&name) {
-            stale.push(target.join(&name));
+            stale.push(user_target.join(&name));
             continue;
         }
         carried.carry(name)?;

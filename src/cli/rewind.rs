@@ -127,9 +127,9 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
             ));
         }
         s.push_str("  use it: armsheet rewind DESIGN --from-test V0 N0 --voltage V\n");
-        print_stdout(&s)?;
+        let shown = print_stdout(&s);
         return match &a.output {
-            None => Ok(Outcome::Passed),
+            None => shown.map(|()| Outcome::Passed),
             Some(out) => {
                 let header = vec![
                     format!("armsheet: {name} with the flux per pole from a no-load test"),
@@ -140,7 +140,7 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
                     ),
                 ];
                 let text = design_toml::write_design(&nd, &header);
-                write_checked(out, &text, a.force)
+                write_checked(out, &text, a.force, shown)
             }
         };
     };
@@ -176,12 +176,19 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
         new.rating.as_ref(),
         env!("CARGO_PKG_VERSION"),
     );
-    print_stdout(&report)?;
-    write_checked(&out, &text, a.force)
+    let shown = print_stdout(&report);
+    write_checked(&out, &text, a.force, shown)
 }
 
 /// Writes the new design (replacing an existing file only with `--force`) and says so.
-fn write_checked(out: &Path, text: &str, force: bool) -> Result<Outcome, CliError> {
+/// `shown` is how printing the report went: a closed standard output does not stop the file
+/// from being written (an error writing the file is reported first).
+fn write_checked(
+    out: &Path,
+    text: &str,
+    force: bool,
+    shown: Result<(), CliError>,
+) -> Result<Outcome, CliError> {
     let result = if force {
         write_atomic(out, text.as_bytes())
     } else {
@@ -197,6 +204,7 @@ fn write_checked(out: &Path, text: &str, force: bool) -> Result<Outcome, CliErro
             CliError::write(out, e)
         }
     })?;
+    shown?;
     print_stdout(&format!("wrote {}\n", out.display()))?;
     Ok(Outcome::Passed)
 }

@@ -3,7 +3,9 @@
 //! Part of the `rating` stage: pure. The flux per pole and the slot space are kept. The new
 //! conductors per path follow from the ratio of the EMFs; the turns per coil from the new
 //! connection's paths and segments, rounded to whole turns; the conductor from the same current
-//! density (so the same copper in the slot and the same power). The CLI writes the result.
+//! density (so the same copper in the slot and the same power). A request that cannot be met is
+//! a [`RewindError`] carrying the numbers; the CLI words it (naming its flags) and writes the
+//! result.
 
 use super::conductor::{self, WireFamily, WireOption};
 use super::connection::{ConnectError, Connection, connect};
