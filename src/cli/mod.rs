@@ -140,16 +140,16 @@ pub fn run_from_env() -> u8 {
             Ok(outcome) => outcome.code(),
             Err(e) => e.report(),
         },
-        Err(e) => {
-            let code = if e.use_stderr() {
-                error::EXIT_BAD_INPUT
-            } else {
-                0
-            };
-            // Help or usage on a closed stream: nothing more to say.
+        // Help and version go to standard output, usage errors to standard error.
+        Err(e) if e.use_stderr() => {
+            // If standard error is gone there is no one left to tell.
             let _ = e.print();
-            code
+            error::EXIT_BAD_INPUT
         }
+        Err(e) => match e.print() {
+            Ok(()) => 0,
+            Err(io) => CliError::Stdout(io).report(),
+        },
     }
 }
 
