@@ -2,23 +2,34 @@
 //! the environment. Everything else is pure and is called from here.
 //!
 //! Exit codes: 0 all checks pass (warnings allowed), 1 an error-level check fails,
-//! 2 unreadable or invalid input (or output that could not be written).
+//! 2 unreadable or invalid input, or output that could not be written.
+//!
+//! Errors: every command returns `Result<Outcome, CliError>`; [`run_from_env`] is the one
+//! place that prints a [`CliError`] and maps it to its exit code. Everything on standard output
+//! goes through [`output::print_stdout`], which never panics. When standard output is closed
+//! under the program (a broken pipe, EPIPE: `armsheet check … | head`), armsheet stops quietly
+//! with exit 0, as standard Unix tools do; files already written are complete, since every file
+//! is written before its `wrote …` line. Any other failed write to standard output (a full
+//! disk, `/dev/full`) is `error: cannot write to standard output: …` with exit 2.
 
+pub mod error;
 mod load;
 pub mod output;
 pub mod rewind;
 pub mod sheet;
 
-use std::io::{IsTerminal, Write};
+use std::io::IsTerminal;
 use std::path::PathBuf;
 
 use clap::{Args, Parser, Subcommand};
 
-use crate::base::has_errors;
+use crate::base::{Finding, has_errors};
 use crate::render::json;
 use crate::render::text::{TextOptions, render_text};
 
+pub use error::CliError;
 pub use load::load_design;
+pub use output::print_stdout;
 
 /// The starter design written by `armsheet new`.
 pub const STARTER: &str = include_str!("starter.toml");
@@ -30,7 +41,8 @@ const CONVENTIONS: &str = "\
 Conventions: slots, coils and segments count from 1. Coil n lies in slot ceil(n/u), its bottom
 side `span` slots on; top coil sides are odd, bottom sides even, so y_b = 2u*span + 1.
 Segment 1 takes coil 1's start lead; y_c is signed, + towards rising segment numbers.
-Exit codes: 0 passes, 1 an error-level check fails, 2 bad input.";
+Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
+written. A closed standard output (e.g. `| head`) ends armsheet quietly with exit 0.";
 
 /// armsheet's command line.
 #[derive(Debug, Parser)]
@@ -67,7 +79,8 @@ lead_offset, equalizers, flux_per_pole_mwb, speed_rpm) and, for rating checks, [
 [conductor], [core], [commutator], [limits]. Unknown keys are errors.
 Span: 7 or the shop form \"1-8\". lead_offset 0 puts a coil's two segments either side of its
 centre line; + swings the leads towards rising segment numbers.
-Exit codes: 0 passes, 1 an error-level check fails, 2 bad input.";
+Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
+written.";
 
 const NEW_HELP: &str = "\
 Writes a starter design with every key commented. Edit it, then run
@@ -91,20 +104,57 @@ pub struct NewArgs {
     pub path: PathBuf,
 }
 
-/// Parses the process arguments and runs; returns the exit code.
-pub fn run_from_env() -> u8 {
-    match Cli::try_parse() {
-        Ok(cli) => run(cli),
-        Err(e) => {
-            let code = if e.use_stderr() { 2 } else { 0 };
-            let _ = e.print();
-            code
+/// How a command that ran to its end came out.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Outcome {
+    /// Done; every error-level check passes (exit 0).
+    Passed,
+    /// Done, but an error-level check fails (exit 1).
+    ChecksFail,
+}
+
+impl Outcome {
+    /// [`Outcome::ChecksFail`] when an error-level finding fails.
+    pub fn of(findings: &[Finding]) -> Self {
+        if has_errors(findings) {
+            Outcome::ChecksFail
+        } else {
+            Outcome::Passed
+        }
+    }
+
+    /// The exit code: 0 or 1.
+    pub fn code(self) -> u8 {
+        match self {
+            Outcome::Passed => 0,
+            Outcome::ChecksFail => 1,
         }
     }
 }
 
-/// Runs one parsed command; returns the exit code.
-pub fn run(cli: Cli) -> u8 {
+/// Parses the process arguments and runs; prints any error (the only place that does) and
+/// returns the exit code.
+pub fn run_from_env() -> u8 {
+    match Cli::try_parse() {
+        Ok(cli) => match run(cli) {
+            Ok(outcome) => outcome.code(),
+            Err(e) => e.report(),
+        },
+        // Help and version go to standard output, usage errors to standard error.
+        Err(e) if e.use_stderr() => {
+            // If standard error is gone there is no one left to tell.
+            let _ = e.print();
+            error::EXIT_BAD_INPUT
+        }
+        Err(e) => match e.print() {
+            Ok(()) => 0,
+            Err(io) => CliError::Stdout(io).report(),
+        },
+    }
+}
+
+/// Runs one parsed command.
+pub fn run(cli: Cli) -> Result<Outcome, CliError> {
     match cli.command {
         Command::Check(a) => check(&a),
         Command::New(a) => new(&a),
@@ -114,14 +164,10 @@ pub fn run(cli: Cli) -> u8 {
     }
 }
 
-fn check(a: &CheckArgs) -> u8 {
-    let checked = match load_design(&a.design) {
-        Ok(c) => c,
-        Err(code) => return code,
-    };
-    let written = if a.json {
-        let mut out = std::io::BufWriter::with_capacity(1 << 16, std::io::stdout().lock());
-        json::write_report_json(&checked, &mut out).and_then(|()| out.flush())
+fn check(a: &CheckArgs) -> Result<Outcome, CliError> {
+    let checked = load_design(&a.design)?;
+    if a.json {
+        output::write_stdout(|out| json::write_report_json(&checked, out))?;
     } else {
         print_stdout(&render_text(
             &checked,
@@ -129,37 +175,22 @@ fn check(a: &CheckArgs) -> u8 {
                 unicode: std::io::stdout().is_terminal(),
                 version: env!("CARGO_PKG_VERSION"),
             },
-        ))
-    };
-    if written.is_err() {
-        return 2;
+        ))?;
     }
-    u8::from(has_errors(&checked.findings))
+    Ok(Outcome::of(&checked.findings))
 }
 
-fn new(a: &NewArgs) -> u8 {
-    match output::write_new(&a.path, STARTER.as_bytes()) {
-        Ok(()) => {
-            println!("wrote {}", a.path.display());
-            0
+fn new(a: &NewArgs) -> Result<Outcome, CliError> {
+    output::write_new(&a.path, STARTER.as_bytes()).map_err(|e| {
+        if e.kind() == std::io::ErrorKind::AlreadyExists {
+            CliError::Exists {
+                path: a.path.clone(),
+                by: error::NoOverwrite::New,
+            }
+        } else {
+            CliError::write(&a.path, e)
         }
-        Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => {
-            eprintln!(
-                "error: {} already exists; armsheet new never overwrites a file\n  = hint: give another path, e.g. `armsheet new job-42.toml`",
-                a.path.display()
-            );
-            2
-        }
-        Err(e) => {
-            eprintln!("error: cannot write {}: {e}", a.path.display());
-            2
-        }
-    }
-}
-
-/// Writes to stdout; a closed pipe is not an error worth a panic.
-pub fn print_stdout(s: &str) -> std::io::Result<()> {
-    let mut out = std::io::stdout().lock();
-    out.write_all(s.as_bytes())?;
-    out.flush()
+    })?;
+    print_stdout(&format!("wrote {}\n", a.path.display()))?;
+    Ok(Outcome::Passed)
 }

@@ -3,15 +3,17 @@
 //!
 //! Part of the `cli` stage: reads the design, calls the pure [`crate::rating::rewind()`],
 //! parses the new file back with armsheet's own parser before writing, and writes it with
-//! [`super::output::write_new`] (or [`super::output::write_atomic`] with `--force`).
+//! [`super::output::write_new`] (or [`super::output::write_atomic`] with `--force`). A refused
+//! request is a [`CliError::Rewind`], worded with the flags in [`super::error::rewind_message`].
 
 use std::path::{Path, PathBuf};
 
 use clap::{Args, ValueEnum};
 
+use super::Outcome;
+use super::error::{CliError, NoOverwrite};
 use super::load::load_design;
-use super::output::{write_atomic, write_new};
-use super::print_stdout;
+use super::output::{print_stdout, write_atomic, write_new};
 use crate::base::number::fmt_fixed;
 use crate::design::{WindingType, parse_design};
 use crate::rating::{self, RewindRequest, design_toml, rewind::flux_from_test, rewind::with_flux};
@@ -26,7 +28,7 @@ in hand). The flux comes from the design (flux_per_pole_mwb, or voltage and spee
 [rating]) or from a no-load test: --from-test V0 N0 (open-circuit volts at rpm).
 The new file is parsed back before it is written; an existing file is kept unless --force.
 Without -o the file is written beside the design as NAME-<V>V.toml.
-Exit codes: 0 written, 2 bad input or an impossible request.";
+Exit codes: 0 written, 2 bad input, an impossible request or output that could not be written.";
 
 /// `--type`.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
@@ -69,28 +71,22 @@ pub struct RewindArgs {
     pub force: bool,
 }
 
-/// Runs `rewind`; returns the exit code.
-pub fn rewind(a: &RewindArgs) -> u8 {
-    let checked = match load_design(&a.design) {
-        Ok(c) => c,
-        Err(code) => return code,
-    };
+/// Runs `rewind`: prints the report, writes the new design.
+pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
+    let checked = load_design(&a.design)?;
     let (d, w) = (&checked.design, &checked.winding);
     let name = a.design.display().to_string();
     let asked = asked_line(a);
-    let refuse = |msg: &str| {
-        eprintln!("error: {name}: cannot rewind: {msg}");
-        2u8
+    let refuse = |error| CliError::Rewind {
+        design: name.clone(),
+        error,
     };
     let from_test = a.from_test.as_ref().map(|v| (v[0], v[1]));
 
     let Some(voltage) = a.voltage else {
         // --from-test alone: report the flux, and record it if asked to.
         let (v0, n0) = from_test.unwrap_or((0.0, 0.0));
-        let flux = match flux_from_test(d, w, v0, n0) {
-            Ok(f) => f * 1000.0,
-            Err(e) => return refuse(&e.0),
-        };
+        let flux = flux_from_test(d, w, v0, n0).map_err(refuse)? * 1000.0;
         let mut s = format!(
             "armsheet {} - no-load test of {name}\n",
             env!("CARGO_PKG_VERSION")
@@ -131,11 +127,9 @@ pub fn rewind(a: &RewindArgs) -> u8 {
             ));
         }
         s.push_str("  use it: armsheet rewind DESIGN --from-test V0 N0 --voltage V\n");
-        if print_stdout(&s).is_err() {
-            return 2;
-        }
+        let shown = print_stdout(&s);
         return match &a.output {
-            None => 0,
+            None => shown.map(|()| Outcome::Passed),
             Some(out) => {
                 let header = vec![
                     format!("armsheet: {name} with the flux per pole from a no-load test"),
@@ -146,7 +140,7 @@ pub fn rewind(a: &RewindArgs) -> u8 {
                     ),
                 ];
                 let text = design_toml::write_design(&nd, &header);
-                write_checked(out, &text, a.force, &name)
+                write_checked(out, &text, a.force, shown)
             }
         };
     };
@@ -162,10 +156,7 @@ pub fn rewind(a: &RewindArgs) -> u8 {
         from_test,
         measured_r20: a.ra,
     };
-    let plan = match rating::rewind(d, w, &req) {
-        Ok(p) => p,
-        Err(e) => return refuse(&e.0),
-    };
+    let plan = rating::rewind(d, w, &req).map_err(refuse)?;
     let out = a
         .output
         .clone()
@@ -173,45 +164,49 @@ pub fn rewind(a: &RewindArgs) -> u8 {
     let text = plan.design_file(&name, &asked);
     // Parse the new file back with armsheet's own parser before anything is written.
     let out_name = out.display().to_string();
-    let back = match parse_design(&text, &out_name) {
-        Ok(b) => b,
-        Err(diag) => {
-            return refuse(&format!(
-                "the new design does not parse back, so nothing was written:\n{diag}"
-            ));
-        }
-    };
+    let back = parse_design(&text, &out_name).map_err(|diagnostic| CliError::RewindParseBack {
+        design: name.clone(),
+        diagnostic: Box::new(diagnostic),
+    })?;
     let new = crate::checks::check(back);
-    let report = render_rewind(&plan, &name, &asked, new.rating.as_ref());
-    if print_stdout(&report).is_err() {
-        return 2;
-    }
-    write_checked(&out, &text, a.force, &name)
+    let report = render_rewind(
+        &plan,
+        &name,
+        &asked,
+        new.rating.as_ref(),
+        env!("CARGO_PKG_VERSION"),
+    );
+    let shown = print_stdout(&report);
+    write_checked(&out, &text, a.force, shown)
 }
 
-fn write_checked(out: &Path, text: &str, force: bool, name: &str) -> u8 {
+/// Writes the new design (replacing an existing file only with `--force`) and says so.
+/// `shown` is how printing the report went: a closed standard output does not stop the file
+/// from being written (an error writing the file is reported first).
+fn write_checked(
+    out: &Path,
+    text: &str,
+    force: bool,
+    shown: Result<(), CliError>,
+) -> Result<Outcome, CliError> {
     let result = if force {
         write_atomic(out, text.as_bytes())
     } else {
         write_new(out, text.as_bytes())
     };
-    match result {
-        Ok(()) => {
-            println!("wrote {}", out.display());
-            0
+    result.map_err(|e| {
+        if e.kind() == std::io::ErrorKind::AlreadyExists {
+            CliError::Exists {
+                path: out.to_path_buf(),
+                by: NoOverwrite::Rewind,
+            }
+        } else {
+            CliError::write(out, e)
         }
-        Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => {
-            eprintln!(
-                "error: {} already exists; armsheet rewind does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
-                out.display()
-            );
-            2
-        }
-        Err(e) => {
-            eprintln!("error: {name}: cannot write {}: {e}", out.display());
-            2
-        }
-    }
+    })?;
+    shown?;
+    print_stdout(&format!("wrote {}\n", out.display()))?;
+    Ok(Outcome::Passed)
 }
 
 /// `designs/hoist.toml` at 220 V → `designs/hoist-220V.toml`.

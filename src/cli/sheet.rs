@@ -2,16 +2,21 @@
 //! developed diagram alone, for a screen).
 //!
 //! Part of the `cli` stage: it reads the design, runs the pure pipeline, renders every file in
-//! memory and only then writes them, each through a temporary name and a rename, so an error
-//! writes nothing and leaves earlier files intact. Exit codes are `check`'s.
+//! memory and only then writes them. `sheet` stages the whole set in a temporary folder beside
+//! `DIR/<stem>` and swaps it into place ([`replace_folder`]); `draw` writes its one file through
+//! a temporary file and a rename. An error writes nothing new and leaves the earlier files
+//! intact; the `wrote …` lines come once everything is in place. Exit codes are `check`'s.
 
+use std::ffi::OsStr;
+use std::fmt::Write as _;
 use std::path::{Path, PathBuf};
 
 use clap::Args;
 
+use super::Outcome;
+use super::error::CliError;
 use super::load::load_design;
-use super::output::write_atomic;
-use crate::base::has_errors;
+use super::output::{print_stdout, replace_folder, write_atomic};
 use crate::layout::{Paper, Window};
 use crate::render::json::report_json;
 use crate::render::sheet::{SheetInput, render_sheets};
@@ -111,7 +116,10 @@ legend, caution), sheet-2.svg … (connection table with the winding sequence, t
 equalizer table), connections.csv, report.json (the `check --json` object) and, with --pdf,
 sheets.pdf. Sheets are sized in mm and print at true scale. A design that fails a check is
 still drawn, under a NOT FOR WINDING band.
-Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or a file that cannot be written.";
+The set is written whole or not at all: it is made in a temporary folder beside DIR/<design-stem>
+and then swapped into place; other files already in that folder are kept.
+Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
+written.";
 
 fn stem(path: &Path) -> String {
     path.file_stem()
@@ -120,39 +128,9 @@ fn stem(path: &Path) -> String {
         .unwrap_or_else(|| "design".into())
 }
 
-fn write_all(files: &[(PathBuf, Vec<u8>)]) -> u8 {
-    for (path, bytes) in files {
-        if let Err(e) = write_atomic(path, bytes) {
-            eprintln!(
-                "error: cannot write {}: {e}\n  = hint: check that the folder is writable",
-                path.display()
-            );
-            return 2;
-        }
-        println!("wrote {}", path.display());
-    }
-    0
-}
-
-fn make_dir(dir: &Path) -> bool {
-    match std::fs::create_dir_all(dir) {
-        Ok(()) => true,
-        Err(e) => {
-            eprintln!(
-                "error: cannot create the output folder {}: {e}\n  = hint: give another folder with -o DIR",
-                dir.display()
-            );
-            false
-        }
-    }
-}
-
 /// Runs `armsheet sheet`.
-pub fn sheet(a: &SheetArgs) -> u8 {
-    let checked = match load_design(&a.design) {
-        Ok(c) => c,
-        Err(code) => return code,
-    };
+pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
+    let checked = load_design(&a.design)?;
     let failures: Vec<String> = checked
         .findings
         .iter()
@@ -173,84 +151,71 @@ pub fn sheet(a: &SheetArgs) -> u8 {
     };
     let sheets = render_sheets(&input);
     let dir = a.out.join(stem(&a.design));
-    let mut files: Vec<(PathBuf, Vec<u8>)> = Vec::new();
+    let mut files: Vec<(String, Vec<u8>)> = Vec::new();
     if a.pdf {
         match pdf::sheets_pdf(&sheets) {
-            Ok(bytes) => files.push((dir.join("sheets.pdf"), bytes)),
+            Ok(bytes) => files.push(("sheets.pdf".to_string(), bytes)),
             Err(e) => {
-                eprintln!("error: {}: the PDF cannot be made: {e}", a.design.display());
-                return 2;
+                return Err(CliError::Pdf {
+                    design: a.design.display().to_string(),
+                    message: e.to_string(),
+                });
             }
         }
     }
     let count = sheets.len();
-    let mut all: Vec<(PathBuf, Vec<u8>)> = sheets
+    let mut all: Vec<(String, Vec<u8>)> = sheets
         .into_iter()
         .enumerate()
-        .map(|(i, s)| (dir.join(format!("sheet-{}.svg", i + 1)), s.into_bytes()))
+        .map(|(i, s)| (format!("sheet-{}.svg", i + 1), s.into_bytes()))
         .collect();
     all.push((
-        dir.join("connections.csv"),
+        "connections.csv".to_string(),
         csv::connections_csv(&checked.design, &checked.winding).into_bytes(),
     ));
-    all.push((dir.join("report.json"), report_json(&checked).into_bytes()));
+    all.push((
+        "report.json".to_string(),
+        report_json(&checked).into_bytes(),
+    ));
     all.append(&mut files);
-    if !make_dir(&dir) {
-        return 2;
+    let removed = replace_folder(&dir, &all, |name| is_stale_sheet(name, count))?;
+    let mut said = String::new();
+    for (name, _) in &all {
+        let _ = writeln!(said, "wrote {}", dir.join(name).display());
     }
-    let code = write_all(&all);
-    if code != 0 {
-        return code;
+    for p in removed {
+        let _ = writeln!(said, "removed stale {}", p.display());
     }
-    remove_stale_sheets(&dir, count);
-    u8::from(has_errors(&checked.findings))
+    print_stdout(&said)?;
+    Ok(Outcome::of(&checked.findings))
 }
 
-/// Removes `sheet-K.svg` left by an earlier run with more sheets, so the folder holds one set.
-fn remove_stale_sheets(dir: &Path, count: usize) {
-    let Ok(entries) = std::fs::read_dir(dir) else {
-        return;
-    };
-    let mut stale: Vec<PathBuf> = entries
-        .filter_map(Result::ok)
-        .map(|e| e.path())
-        .filter(|p| {
-            p.file_name()
-                .and_then(|n| n.to_str())
-                .and_then(|n| n.strip_prefix("sheet-"))
-                .and_then(|n| n.strip_suffix(".svg"))
-                .and_then(|n| n.parse::<usize>().ok())
-                .is_some_and(|k| k > count)
-        })
-        .collect();
-    stale.sort();
-    for p in stale {
-        if std::fs::remove_file(&p).is_ok() {
-            println!("removed stale {}", p.display());
-        }
-    }
+/// `sheet-K.svg` with K above this run's `count`: left by an earlier run with more sheets, so
+/// it goes with the old set and the folder holds one set.
+fn is_stale_sheet(name: &OsStr, count: usize) -> bool {
+    name.to_str()
+        .and_then(|n| n.strip_prefix("sheet-"))
+        .and_then(|n| n.strip_suffix(".svg"))
+        .and_then(|n| n.parse::<usize>().ok())
+        .is_some_and(|k| k > count)
 }
 
 /// Runs `armsheet draw`.
-pub fn draw(a: &DrawArgs) -> u8 {
-    let checked = match load_design(&a.design) {
-        Ok(c) => c,
-        Err(code) => return code,
-    };
+pub fn draw(a: &DrawArgs) -> Result<Outcome, CliError> {
+    let checked = load_design(&a.design)?;
     let svg = svg::render_draw(&checked.design, &checked.winding, a.window.window());
     let path = a.out.clone().unwrap_or_else(|| {
         PathBuf::from("out")
             .join(stem(&a.design))
             .join("diagram.svg")
     });
-    if let Some(dir) = path.parent().filter(|p| !p.as_os_str().is_empty())
-        && !make_dir(dir)
-    {
-        return 2;
+    if let Some(dir) = path.parent().filter(|p| !p.as_os_str().is_empty()) {
+        std::fs::create_dir_all(dir).map_err(|source| CliError::CreateDir {
+            path: dir.to_path_buf(),
+            source,
+        })?;
     }
-    let code = write_all(&[(path, svg.into_bytes())]);
-    if code != 0 {
-        return code;
-    }
-    u8::from(has_errors(&checked.findings))
+    write_atomic(&path, svg.as_bytes()).map_err(|e| CliError::write(&path, e))?;
+    print_stdout(&format!("wrote {}\n", path.display()))?;
+    Ok(Outcome::of(&checked.findings))
 }

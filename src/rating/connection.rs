@@ -22,6 +22,77 @@ pub struct Connection {
     pub keeps_commutator: bool,
 }
 
+/// Why the coils cannot be connected as asked; the numbers are fields, the words are in
+/// [`std::fmt::Display`].
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum ConnectError {
+    /// The multiplicity is outside 1 to `max`.
+    MultiplicityOutOfRange {
+        /// The multiplicity asked for.
+        multiplicity: u32,
+        /// The largest one armsheet traces.
+        max: u32,
+    },
+    /// The connection needs more poles than the armature has.
+    TooFewPoles {
+        /// Lap or wave.
+        kind: WindingType,
+        /// The fewest poles it needs.
+        min_poles: u32,
+        /// The armature's poles.
+        poles: u32,
+    },
+    /// No segment count up to the coil positions gives a whole commutator pitch.
+    NoWholePitch {
+        /// The coil positions u·S.
+        coil_positions: u32,
+    },
+    /// Too few segments for the poles and the multiplicity.
+    TooFewSegments {
+        /// The segment count the connection would take.
+        segments: u32,
+        /// The armature's poles.
+        poles: u32,
+        /// The multiplicity asked for.
+        multiplicity: u32,
+        /// The fewest segments it needs, 2·m·P.
+        min_segments: u32,
+    },
+}
+
+impl std::fmt::Display for ConnectError {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match *self {
+            ConnectError::MultiplicityOutOfRange { multiplicity, max } => write!(
+                f,
+                "multiplicity {multiplicity} is out of range: expected 1 to {max}"
+            ),
+            ConnectError::TooFewPoles {
+                kind,
+                min_poles,
+                poles,
+            } => write!(
+                f,
+                "a {} winding needs at least {min_poles} poles; this armature has {poles}",
+                kind.kind().word()
+            ),
+            ConnectError::NoWholePitch { coil_positions } => write!(
+                f,
+                "no segment count up to {coil_positions} gives a whole commutator pitch"
+            ),
+            ConnectError::TooFewSegments {
+                segments,
+                poles,
+                multiplicity,
+                min_segments,
+            } => write!(
+                f,
+                "{segments} segments is too few for {poles} poles and multiplicity {multiplicity} (needs at least {min_segments})"
+            ),
+        }
+    }
+}
+
 /// The connection `kind`, `m` on the design's coils, or why it cannot be made.
 ///
 /// A wave keeps the design's segment count when that count works for the new multiplicity;
@@ -31,37 +102,37 @@ pub fn connect(
     current_segments: u32,
     kind: WindingType,
     m: u32,
-) -> Result<Connection, String> {
+) -> Result<Connection, ConnectError> {
     let n = d.coil_positions();
     let p = d.pole_pairs();
     if !(1..=bounds::MAX_MULTIPLICITY as u32).contains(&m) {
-        return Err(format!(
-            "multiplicity {m} is out of range: expected 1 to {}",
-            bounds::MAX_MULTIPLICITY
-        ));
+        return Err(ConnectError::MultiplicityOutOfRange {
+            multiplicity: m,
+            max: bounds::MAX_MULTIPLICITY as u32,
+        });
     }
     let rules = kind.kind();
     if d.poles < rules.min_poles() {
-        return Err(format!(
-            "a {} winding needs at least {} poles; this armature has {}",
-            rules.word(),
-            rules.min_poles(),
-            d.poles
-        ));
+        return Err(ConnectError::TooFewPoles {
+            kind,
+            min_poles: rules.min_poles(),
+            poles: d.poles,
+        });
     }
     let segments = if rules.workable(current_segments, n, m, p, d.direction) {
         current_segments
     } else {
         rules
             .default_segments(n, m, p, d.direction)
-            .ok_or_else(|| format!("no segment count up to {n} gives a whole commutator pitch"))?
+            .ok_or(ConnectError::NoWholePitch { coil_positions: n })?
     };
     if segments < 2 * m * d.poles {
-        return Err(format!(
-            "{segments} segments is too few for {} poles and multiplicity {m} (needs at least {})",
-            d.poles,
-            2 * m * d.poles
-        ));
+        return Err(ConnectError::TooFewSegments {
+            segments,
+            poles: d.poles,
+            multiplicity: m,
+            min_segments: 2 * m * d.poles,
+        });
     }
     Ok(Connection {
         kind,

@@ -3,10 +3,12 @@
 //! Part of the `rating` stage: pure. The flux per pole and the slot space are kept. The new
 //! conductors per path follow from the ratio of the EMFs; the turns per coil from the new
 //! connection's paths and segments, rounded to whole turns; the conductor from the same current
-//! density (so the same copper in the slot and the same power). The CLI writes the result.
+//! density (so the same copper in the slot and the same power). A request that cannot be met is
+//! a [`RewindError`] carrying the numbers; the CLI words it (naming its flags) and writes the
+//! result.
 
 use super::conductor::{self, WireFamily, WireOption};
-use super::connection::{Connection, connect};
+use super::connection::{ConnectError, Connection, connect};
 use super::{RatingReport, design_toml, emf, rate_with};
 use crate::base::number::fmt_fixed;
 use crate::design::{ConductorShape, Design, EqualizerChoice, Mode, Rating, WindingType, bounds};
@@ -57,19 +59,87 @@ impl FluxSource {
     }
 }
 
-/// A request that cannot be met, in plain words (the CLI exits 2).
-#[derive(Clone, Debug, PartialEq, Eq)]
-pub struct RewindError(pub String);
+/// The highest voltage a rewind is worked out for, V.
+pub const MAX_VOLTAGE: f64 = 100_000.0;
 
-impl std::fmt::Display for RewindError {
-    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
-        f.write_str(&self.0)
+/// The highest speed a rewind is worked out for, rpm.
+pub const MAX_SPEED_RPM: f64 = 200_000.0;
+
+/// A request that cannot be met. The numbers are fields; the words, which name the command
+/// line's flags, are the CLI's (the CLI exits 2).
+#[derive(Clone, Debug, PartialEq)]
+pub enum RewindError {
+    /// The no-load test needs a positive, finite voltage and speed.
+    TestNotPositive {
+        /// Open-circuit volts as given.
+        volts: f64,
+        /// Speed as given, rpm.
+        rpm: f64,
+    },
+    /// The new voltage is not a positive number up to [`MAX_VOLTAGE`].
+    VoltageOutOfRange {
+        /// As given, V.
+        volts: f64,
+    },
+    /// The new speed is not a positive number up to [`MAX_SPEED_RPM`].
+    SpeedOutOfRange {
+        /// As given, rpm.
+        rpm: f64,
+    },
+    /// The measured resistance is not a positive number.
+    ResistanceNotPositive {
+        /// As given, Ω.
+        ohms: f64,
+    },
+    /// Neither the design nor a test gives the flux per pole.
+    FluxUnknown,
+    /// Neither the request nor the design gives a speed.
+    SpeedUnknown,
+    /// The coils cannot be connected as asked.
+    Connect(ConnectError),
+    /// Generator: the I·R drop per conductor exceeds the EMF per conductor.
+    DropExceedsEmf,
+    /// The voltage does not cover the brush drop.
+    BelowBrushDrop {
+        /// The new voltage, V.
+        volts: f64,
+        /// The brush drop, V.
+        brush_drop_v: f64,
+    },
+    /// The turns per coil round to zero on this connection.
+    TurnsRoundToZero {
+        /// Turns per coil before rounding.
+        exact_turns: f64,
+        /// The new connection.
+        connection: Connection,
+    },
+    /// More turns per coil than any real coil has.
+    TooManyTurns {
+        /// The whole turns per coil.
+        turns: f64,
+        /// The most armsheet accepts.
+        max: i64,
+    },
+    /// With whole turns the drops take the whole voltage.
+    NoSpeedAtWholeTurns,
+    /// A strip of the old width would be lower than twice its corner radius.
+    StripTooThin {
+        /// The kept strip width, mm.
+        width_mm: f64,
+        /// The height it would need, mm.
+        height_mm: f64,
+    },
+}
+
+impl From<ConnectError> for RewindError {
+    fn from(e: ConnectError) -> Self {
+        RewindError::Connect(e)
     }
 }
 
-/// One winding, old or new, as the rewind sees it.
+/// The figures of one winding, old or new, as the rewind compares them.
 #[derive(Clone, Debug, PartialEq)]
-pub struct WindingSide {
+pub struct WindingFigures {
     /// The connection.
     pub connection: Connection,
     /// Turns per coil.
@@ -98,9 +168,9 @@ pub struct RewindPlan {
     /// Where it came from.
     pub flux_source: FluxSource,
     /// The winding as it is.
-    pub old: WindingSide,
+    pub old: WindingFigures,
     /// The new winding.
-    pub new: WindingSide,
+    pub new: WindingFigures,
     /// Turns per coil before rounding.
     pub exact_turns: f64,
     /// The speed the whole turns give at the new voltage, rpm.
@@ -128,11 +198,7 @@ pub struct RewindPlan {
 /// The flux per pole from a no-load test: Φ = 60·a·V0/(P·Z·N0), Wb, open circuit so E = V0.
 pub fn flux_from_test(d: &Design, w: &Winding, volts: f64, rpm: f64) -> Result<f64, RewindError> {
     if !(volts > 0.0 && volts.is_finite() && rpm > 0.0 && rpm.is_finite()) {
-        return Err(RewindError(format!(
-            "--from-test needs a positive no-load voltage and speed, found {} V at {} rpm",
-            fmt_fixed(volts, 3),
-            fmt_fixed(rpm, 3)
-        )));
+        return Err(RewindError::TestNotPositive { volts, rpm });
     }
     Ok(emf::flux_for(
         d.poles,
@@ -152,26 +218,18 @@ pub fn with_flux(d: &Design, flux_mwb: f64) -> Design {
 
 /// Works out the rewind of `d` (traced as `w`) for `req`.
 pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan, RewindError> {
-    let err = |s: String| Err(RewindError(s));
-    if !(req.voltage > 0.0 && req.voltage.is_finite() && req.voltage <= 100_000.0) {
-        return err(format!(
-            "--voltage must be a positive number of volts up to 100000, found {}",
-            req.voltage
-        ));
+    if !(req.voltage > 0.0 && req.voltage.is_finite() && req.voltage <= MAX_VOLTAGE) {
+        return Err(RewindError::VoltageOutOfRange { volts: req.voltage });
     }
-    if let Some(n) = req.speed_rpm
-        && !(n > 0.0 && n.is_finite() && n <= 200_000.0)
+    if let Some(rpm) = req.speed_rpm
+        && !(rpm > 0.0 && rpm.is_finite() && rpm <= MAX_SPEED_RPM)
     {
-        return err(format!(
-            "--speed must be a positive number of rpm up to 200000, found {n}"
-        ));
+        return Err(RewindError::SpeedOutOfRange { rpm });
     }
-    if let Some(r) = req.measured_r20
-        && !(r > 0.0 && r.is_finite())
+    if let Some(ohms) = req.measured_r20
+        && !(ohms > 0.0 && ohms.is_finite())
     {
-        return err(format!(
-            "--ra must be a positive resistance in ohms, found {r}"
-        ));
+        return Err(RewindError::ResistanceNotPositive { ohms });
     }
     let rated: RatingReport = rate_with(d, w, req.measured_r20);
     let a0 = w.paths_formula.max(1);
@@ -195,7 +253,7 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
         (None, Some(f), _) => (f / 1000.0, FluxSource::Design),
         (None, None, Some(f)) => (f / 1000.0, FluxSource::Rating),
         (None, None, None) => {
-            return err("the flux per pole is unknown: give [rating] flux_per_pole_mwb, or [rating] voltage with speed_rpm, or measure the old machine with --from-test V0 N0".to_string());
+            return Err(RewindError::FluxUnknown);
         }
     };
 
@@ -211,14 +269,13 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
         .or_else(|| (old_emf_v > 0.0).then(|| emf::speed_for(d.poles, z0, a0, old_emf_v, flux_wb)));
     let speed = match req.speed_rpm.or(old_speed) {
         Some(n) => n,
-        None => return err("no speed to rewind for: give --speed N, or [rating] speed_rpm or voltage in the design".to_string()),
+        None => return Err(RewindError::SpeedUnknown),
     };
 
     // The new connection.
     let kind = req.kind.unwrap_or(d.winding_type);
     let m = req.multiplicity.unwrap_or(d.multiplicity);
-    let conn = connect(d, c0, kind, m)
-        .map_err(|e| RewindError(format!("cannot connect the coils as asked: {e}")))?;
+    let conn = connect(d, c0, kind, m)?;
 
     // Conductors per path x: V = x·(P·Φ·N/60) ± IR0·x/x0 ± Vb, the I·R drop scaling with x at
     // the same current density.
@@ -228,40 +285,32 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
         Mode::Generator => {
             let den = ke - ir0 / x0;
             if den <= 0.0 {
-                return err("the resistive drop at this speed is larger than the EMF per conductor: no winding gives this voltage".to_string());
+                return Err(RewindError::DropExceedsEmf);
             }
             (req.voltage + vb) / den
         }
     };
     if !(x > 0.0 && x.is_finite()) {
-        return err(format!(
-            "{} V is not enough to cover the brush drop of {} V: no winding gives it",
-            fmt_fixed(req.voltage, 1),
-            fmt_fixed(vb, 1)
-        ));
+        return Err(RewindError::BelowBrushDrop {
+            volts: req.voltage,
+            brush_drop_v: vb,
+        });
     }
     let a1 = conn.paths;
     let c1 = conn.segments;
     let exact_turns = x * f64::from(a1) / (2.0 * f64::from(c1));
     let turns = exact_turns.round();
     if turns < 1.0 {
-        let fewer_paths = match (kind, m) {
-            (WindingType::Lap, _) => "a connection with fewer paths (wave instead of lap), ",
-            (WindingType::Wave, 2..) => "a lower multiplicity, ",
-            (WindingType::Wave, _) => "",
-        };
-        return err(format!(
-            "the turns per coil round to zero ({} exact on {}): the voltage is too low for this many coils; use {fewer_paths}a lower speed, a higher voltage, or an armature with fewer coils",
-            fmt_fixed(exact_turns, 3),
-            conn.label(),
-        ));
+        return Err(RewindError::TurnsRoundToZero {
+            exact_turns,
+            connection: conn,
+        });
     }
     if turns > bounds::MAX_TURNS as f64 {
-        return err(format!(
-            "{} turns per coil is beyond any real coil (at most {})",
-            fmt_fixed(turns, 0),
-            bounds::MAX_TURNS
-        ));
+        return Err(RewindError::TooManyTurns {
+            turns,
+            max: bounds::MAX_TURNS,
+        });
     }
     let turns = turns as u32;
     let z1 = 2 * u64::from(c1) * u64::from(turns);
@@ -272,9 +321,7 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
         Mode::Generator => 60.0 * (req.voltage + vb + ir1) / (f64::from(d.poles) * flux_wb * x1),
     };
     if speed_whole <= 0.0 {
-        return err(
-            "with whole turns the drops take the whole voltage: no speed results".to_string(),
-        );
+        return Err(RewindError::NoSpeedAtWholeTurns);
     }
     let speed_error = speed_whole / speed - 1.0;
     let i1 = i0.map(|i| i * x0 / x1);
@@ -302,11 +349,10 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
                 .round()
                 / 100.0;
             if h < 2.0 * corner_radius_mm || h <= 0.0 {
-                return err(format!(
-                    "a {} mm wide strip would need a height of {} mm, less than twice its corner radius: use round wire or a narrower strip",
-                    fmt_fixed(width_mm, 2),
-                    fmt_fixed(h, 2)
-                ));
+                return Err(RewindError::StripTooThin {
+                    width_mm,
+                    height_mm: h,
+                });
             }
             notes.push(format!(
                 "strip: width {} mm kept, height {} mm for the same current density; round-wire equivalents are listed too",
@@ -415,7 +461,7 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
     Ok(RewindPlan {
         flux_mwb: flux_wb * 1000.0,
         flux_source,
-        old: WindingSide {
+        old: WindingFigures {
             connection: old_conn,
             turns: d.turns,
             conductors: z0,
@@ -426,7 +472,7 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
             area_mm2: a_old,
             conductor: d.conductor.as_ref().map(|k| k.shape),
         },
-        new: WindingSide {
+        new: WindingFigures {
             connection: conn,
             turns,
             conductors: z1,

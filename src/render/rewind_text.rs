@@ -19,19 +19,17 @@ fn row(s: &mut String, label: &str, value: impl std::fmt::Display) {
     let _ = writeln!(s, "  {label:<22}{value}");
 }
 
-/// Renders the rewind report; `new_rating` is the new design rated.
+/// Renders the rewind report; `new_rating` is the new design rated, `version` the armsheet
+/// version for the first line (the CLI passes its package version).
 pub fn render_rewind(
     p: &RewindPlan,
     file: &str,
     asked: &str,
     new_rating: Option<&RatingReport>,
+    version: &str,
 ) -> String {
     let mut s = String::new();
-    let _ = writeln!(
-        s,
-        "armsheet {} - rewind of {file}",
-        env!("CARGO_PKG_VERSION")
-    );
+    let _ = writeln!(s, "armsheet {version} - rewind of {file}");
     row(&mut s, "asked", asked);
     let (o, n) = (&p.old, &p.new);
     section(&mut s, "FLUX AND SPEED");

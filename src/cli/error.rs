@@ -1,0 +1,292 @@
+//! [`CliError`]: everything that can stop a command, and the one place that reports it.
+//!
+//! Part of the `cli` stage. Commands return `Result<Outcome, CliError>`; only
+//! [`super::run_from_env`] prints an error (through [`CliError::report`]) and turns it into an
+//! exit code. A closed standard output (broken pipe) is not reported and exits 0, as standard
+//! Unix tools do when the reader has seen enough (`armsheet check … | head`).
+
+use std::fmt;
+use std::io::{self, Write};
+use std::path::PathBuf;
+
+use crate::base::number::fmt_fixed;
+use crate::design::{Diagnostic, WindingType};
+use crate::rating::RewindError;
+use crate::rating::rewind::{MAX_SPEED_RPM, MAX_VOLTAGE};
+
+/// The exit code of bad input, or of output that could not be written.
+pub const EXIT_BAD_INPUT: u8 = 2;
+
+/// The command that refuses to replace an existing file.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum NoOverwrite {
+    /// `armsheet new`: never overwrites.
+    New,
+    /// `armsheet rewind` without `--force`.
+    Rewind,
+}
+
+/// Why a command stopped.
+#[derive(Debug)]
+pub enum CliError {
+    /// The design file cannot be read.
+    Read {
+        /// The design file.
+        path: PathBuf,
+        /// What the system said.
+        source: io::Error,
+    },
+    /// The design file does not parse or validate; the diagnostic names file, line and key
+    /// (boxed: it is large and errors travel through every `?`).
+    Design(Box<Diagnostic>),
+    /// An output folder cannot be made.
+    CreateDir {
+        /// The folder.
+        path: PathBuf,
+        /// What the system said.
+        source: io::Error,
+    },
+    /// An output file cannot be written.
+    Write {
+        /// The file.
+        path: PathBuf,
+        /// What the system said.
+        source: io::Error,
+    },
+    /// Standard output cannot be written (a broken pipe is quiet and exits 0).
+    Stdout(io::Error),
+    /// The output file exists and the command does not overwrite it.
+    Exists {
+        /// The file.
+        path: PathBuf,
+        /// Which command refused.
+        by: NoOverwrite,
+    },
+    /// The rewind asked for cannot be worked out.
+    Rewind {
+        /// The design file, as given.
+        design: String,
+        /// Why.
+        error: RewindError,
+    },
+    /// The rewound design does not parse back with armsheet's own parser (nothing is written).
+    RewindParseBack {
+        /// The design file, as given.
+        design: String,
+        /// The parser's diagnostic on the new file.
+        diagnostic: Box<Diagnostic>,
+    },
+    /// The PDF cannot be made from the sheets.
+    Pdf {
+        /// The design file, as given.
+        design: String,
+        /// What the PDF writer said.
+        message: String,
+    },
+}
+
+impl CliError {
+    /// A write to `path` that failed.
+    pub fn write(path: impl Into<PathBuf>, source: io::Error) -> Self {
+        CliError::Write {
+            path: path.into(),
+            source,
+        }
+    }
+
+    /// True for a closed standard output: the reader is gone, nothing is said.
+    pub fn is_broken_pipe(&self) -> bool {
+        matches!(self, CliError::Stdout(e) if e.kind() == io::ErrorKind::BrokenPipe)
+    }
+
+    /// The exit code: 0 for a broken pipe, else 2 ([`EXIT_BAD_INPUT`]).
+    pub fn exit_code(&self) -> u8 {
+        if self.is_broken_pipe() {
+            0
+        } else {
+            EXIT_BAD_INPUT
+        }
+    }
+
+    /// Prints the error to standard error (nothing for a broken pipe) and returns the exit
+    /// code. The one place where a command's error reaches the terminal.
+    pub fn report(&self) -> u8 {
+        if !self.is_broken_pipe() {
+            // If standard error is gone too there is no one left to tell.
+            let _ = write!(io::stderr().lock(), "{self}");
+        }
+        self.exit_code()
+    }
+}
+
+impl fmt::Display for CliError {
+    /// The whole message, ending in a newline.
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            CliError::Read { path, source } => {
+                let name = path.display();
+                writeln!(
+                    f,
+                    "error: cannot read design file {name}: {source}\n  = hint: check the path; `armsheet new {name}` writes a starter design"
+                )
+            }
+            // The diagnostic ends in its own newline.
+            CliError::Design(d) => write!(f, "{d}"),
+            CliError::CreateDir { path, source } => writeln!(
+                f,
+                "error: cannot create the output folder {}: {source}\n  = hint: give another folder with -o DIR",
+                path.display()
+            ),
+            CliError::Write { path, source } => writeln!(
+                f,
+                "error: cannot write {}: {source}\n  = hint: check that the folder is writable",
+                path.display()
+            ),
+            CliError::Stdout(e) => writeln!(f, "error: cannot write to standard output: {e}"),
+            CliError::Exists {
+                path,
+                by: NoOverwrite::New,
+            } => writeln!(
+                f,
+                "error: {} already exists; armsheet new never overwrites a file\n  = hint: give another path, e.g. `armsheet new job-42.toml`",
+                path.display()
+            ),
+            CliError::Exists {
+                path,
+                by: NoOverwrite::Rewind,
+            } => writeln!(
+                f,
+                "error: {} already exists; armsheet rewind does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
+                path.display()
+            ),
+            CliError::Rewind { design, error } => {
+                writeln!(
+                    f,
+                    "error: {design}: cannot rewind: {}",
+                    rewind_message(error)
+                )
+            }
+            CliError::RewindParseBack { design, diagnostic } => writeln!(
+                f,
+                "error: {design}: cannot rewind: the new design does not parse back, so nothing was written:\n{diagnostic}"
+            ),
+            CliError::Pdf { design, message } => {
+                writeln!(f, "error: {design}: the PDF cannot be made: {message}")
+            }
+        }
+    }
+}
+
+impl std::error::Error for CliError {
+    fn source(&self) -> Option<&(dyn std::error::Error + 'static)> {
+        match self {
+            CliError::Read { source, .. }
+            | CliError::CreateDir { source, .. }
+            | CliError::Write { source, .. }
+            | CliError::Stdout(source) => Some(source),
+            _ => None,
+        }
+    }
+}
+
+impl From<Diagnostic> for CliError {
+    fn from(d: Diagnostic) -> Self {
+        CliError::Design(Box::new(d))
+    }
+}
+
+/// A refused rewind in the command line's words: each message names the flag to change.
+pub fn rewind_message(e: &RewindError) -> String {
+    match e {
+        RewindError::TestNotPositive { volts, rpm } => format!(
+            "--from-test needs a positive no-load voltage and speed, found {} V at {} rpm",
+            fmt_fixed(*volts, 3),
+            fmt_fixed(*rpm, 3)
+        ),
+        RewindError::VoltageOutOfRange { volts } => format!(
+            "--voltage must be a positive number of volts up to {MAX_VOLTAGE}, found {volts}"
+        ),
+        RewindError::SpeedOutOfRange { rpm } => format!(
+            "--speed must be a positive number of rpm up to {MAX_SPEED_RPM}, found {rpm}"
+        ),
+        RewindError::ResistanceNotPositive { ohms } => {
+            format!("--ra must be a positive resistance in ohms, found {ohms}")
+        }
+        RewindError::FluxUnknown => "the flux per pole is unknown: give [rating] flux_per_pole_mwb, or [rating] voltage with speed_rpm, or measure the old machine with --from-test V0 N0".to_string(),
+        RewindError::SpeedUnknown => "no speed to rewind for: give --speed N, or [rating] speed_rpm or voltage in the design".to_string(),
+        RewindError::Connect(e) => format!("cannot connect the coils as asked: {e}"),
+        RewindError::DropExceedsEmf => "the resistive drop at this speed is larger than the EMF per conductor: no winding gives this voltage".to_string(),
+        RewindError::BelowBrushDrop {
+            volts,
+            brush_drop_v,
+        } => format!(
+            "{} V is not enough to cover the brush drop of {} V: no winding gives it",
+            fmt_fixed(*volts, 1),
+            fmt_fixed(*brush_drop_v, 1)
+        ),
+        RewindError::TurnsRoundToZero {
+            exact_turns,
+            connection,
+        } => {
+            let fewer_paths = match (connection.kind, connection.multiplicity) {
+                (WindingType::Lap, _) => "a connection with fewer paths (wave instead of lap), ",
+                (WindingType::Wave, 2..) => "a lower multiplicity, ",
+                (WindingType::Wave, _) => "",
+            };
+            format!(
+                "the turns per coil round to zero ({} exact on {}): the voltage is too low for this many coils; use {fewer_paths}a lower speed, a higher voltage, or an armature with fewer coils",
+                fmt_fixed(*exact_turns, 3),
+                connection.label(),
+            )
+        }
+        RewindError::TooManyTurns { turns, max } => format!(
+            "{} turns per coil is beyond any real coil (at most {max})",
+            fmt_fixed(*turns, 0)
+        ),
+        RewindError::NoSpeedAtWholeTurns => {
+            "with whole turns the drops take the whole voltage: no speed results".to_string()
+        }
+        RewindError::StripTooThin {
+            width_mm,
+            height_mm,
+        } => format!(
+            "a {} mm wide strip would need a height of {} mm, less than twice its corner radius: use round wire or a narrower strip",
+            fmt_fixed(*width_mm, 2),
+            fmt_fixed(*height_mm, 2)
+        ),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn limits_print_as_before() {
+        // The limits are f64 constants; they print as whole numbers, as the messages always did.
+        let v = rewind_message(&RewindError::VoltageOutOfRange { volts: -5.0 });
+        assert_eq!(
+            v,
+            "--voltage must be a positive number of volts up to 100000, found -5"
+        );
+        let n = rewind_message(&RewindError::SpeedOutOfRange { rpm: 0.0 });
+        assert_eq!(
+            n,
+            "--speed must be a positive number of rpm up to 200000, found 0"
+        );
+    }
+
+    #[test]
+    fn a_broken_pipe_is_quiet_and_exits_0_other_stdout_errors_exit_2() {
+        let pipe = CliError::Stdout(io::Error::from(io::ErrorKind::BrokenPipe));
+        assert!(pipe.is_broken_pipe());
+        assert_eq!(pipe.exit_code(), 0);
+        let full = CliError::Stdout(io::Error::from(io::ErrorKind::StorageFull));
+        assert!(!full.is_broken_pipe());
+        assert_eq!(full.exit_code(), EXIT_BAD_INPUT);
+        assert!(
+            full.to_string()
+                .starts_with("error: cannot write to standard output: ")
+        );
+    }
+}
