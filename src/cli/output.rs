@@ -23,6 +23,16 @@ pub fn print_stdout(s: &str) -> Result<(), CliError> {
         .map_err(CliError::Stdout)
 }
 
+/// Writes to standard output through a 64 KiB buffer with `write`, for large reports.
+pub fn write_stdout(
+    write: impl FnOnce(&mut io::BufWriter<io::StdoutLock<'static>>) -> io::Result<()>,
+) -> Result<(), CliError> {
+    let mut out = io::BufWriter::with_capacity(1 << 16, io::stdout().lock());
+    write(&mut out)
+        .and_then(|()| out.flush())
+        .map_err(CliError::Stdout)
+}
+
 /// The folder a path's file goes into (`.` for a bare file name).
 fn parent_of(path: &Path) -> &Path {
     path.parent()

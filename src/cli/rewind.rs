@@ -14,10 +14,9 @@ use super::Outcome;
 use super::error::{CliError, NoOverwrite};
 use super::load::load_design;
 use super::output::{print_stdout, write_atomic, write_new};
-use crate::base::number::fmt_fixed;
 use crate::design::{WindingType, parse_design};
-use crate::rating::{self, RewindRequest, design_toml, rewind::flux_from_test, rewind::with_flux};
-use crate::render::rewind_text::render_rewind;
+use crate::rating::{self, RewindRequest, design_toml, rewind::no_load_test};
+use crate::render::rewind_text::{no_load_header, render_no_load, render_rewind};
 
 /// Help shown after `armsheet rewind --help`.
 pub const REWIND_HELP: &str = "\
@@ -86,60 +85,14 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
     let Some(voltage) = a.voltage else {
         // --from-test alone: report the flux, and record it if asked to.
         let (v0, n0) = from_test.unwrap_or((0.0, 0.0));
-        let flux = flux_from_test(d, w, v0, n0).map_err(refuse)? * 1000.0;
-        let mut s = format!(
-            "armsheet {} - no-load test of {name}\n",
-            env!("CARGO_PKG_VERSION")
-        );
-        s.push_str(&format!(
-            "  flux per pole         {} mWb = 60*a*V0/(P*Z*N0) = 60*{}*{}/({}*{}*{}) (open circuit, E = V0)\n",
-            fmt_fixed(flux, 4),
-            w.paths_formula,
-            fmt_fixed(v0, 2),
-            d.poles,
-            w.conductors,
-            fmt_fixed(n0, 1)
-        ));
-        if let Some(f) = d.flux_per_pole_mwb {
-            s.push_str(&format!(
-                "  design flux           {} mWb ({} % against the test)\n",
-                fmt_fixed(f, 4),
-                rating::rewind::signed((f / flux - 1.0) * 100.0, 2)
-            ));
-        }
-        let nd = with_flux(d, flux);
-        let rated = rating::rate_with(&nd, w, a.ra);
-        if let Some(n) = rated.emf.as_ref().and_then(|e| e.speed_at_flux_rpm) {
-            s.push_str(&format!(
-                "  speed at the rating   {} rpm with this flux\n",
-                fmt_fixed(n, 1)
-            ));
-        }
-        if let Some(r) = &rated.resistance {
-            let how = if r.measured {
-                "measured (--ra)"
-            } else {
-                "calculated"
-            };
-            s.push_str(&format!(
-                "  armature resistance   {} ohm at 20 C, {how}\n",
-                fmt_fixed(r.r20_ohm, 4)
-            ));
-        }
-        s.push_str("  use it: armsheet rewind DESIGN --from-test V0 N0 --voltage V\n");
+        let test = no_load_test(d, w, v0, n0, a.ra).map_err(refuse)?;
+        let s = render_no_load(&test, &name, env!("CARGO_PKG_VERSION"));
         let shown = print_stdout(&s);
         return match &a.output {
             None => shown.map(|()| Outcome::Passed),
             Some(out) => {
-                let header = vec![
-                    format!("armsheet: {name} with the flux per pole from a no-load test"),
-                    format!("asked: {asked}"),
-                    format!(
-                        "flux per pole {} mWb = 60*a*V0/(P*Z*N0), open circuit",
-                        fmt_fixed(flux, 4)
-                    ),
-                ];
-                let text = design_toml::write_design(&nd, &header);
+                let header = no_load_header(&test, &name, &asked);
+                let text = design_toml::write_design(&test.design, &header);
                 write_checked(out, &text, a.force, shown)
             }
         };
@@ -156,7 +109,7 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
         from_test,
         measured_r20: a.ra,
     };
-    let plan = rating::rewind(d, w, &req).map_err(refuse)?;
+    let plan = rating::rewind_rated(d, w, checked.rating.as_ref(), &req).map_err(refuse)?;
     let out = a
         .output
         .clone()

@@ -32,7 +32,7 @@ pub use limits::{Bound, RatingCheck, Rule, rules};
 pub use losses::Losses;
 pub use note::RatingNote;
 pub use resistance::Resistance;
-pub use rewind::{FluxSource, RewindError, RewindPlan, RewindRequest, rewind};
+pub use rewind::{FluxSource, RewindError, RewindPlan, RewindRequest, rewind, rewind_rated};
 pub use test_voltage::TestVoltage;
 
 use std::f64::consts::PI;
@@ -255,7 +255,7 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
         advice: Vec::new(),
         notes,
     };
-    (report.checks, report.advice) = run_checks(d, &report);
+    (report.checks, report.advice) = check_limits(d, &report);
     report
 }
 
@@ -334,7 +334,7 @@ fn emf_block(
     })
 }
 
-fn run_checks(d: &Design, r: &RatingReport) -> (Vec<RatingCheck>, Vec<CheckAdvice>) {
+fn check_limits(d: &Design, r: &RatingReport) -> (Vec<RatingCheck>, Vec<CheckAdvice>) {
     let l = &d.limits;
     let m = Machine {
         design: d,

@@ -216,8 +216,66 @@ pub fn with_flux(d: &Design, flux_mwb: f64) -> Design {
     n
 }
 
-/// Works out the rewind of `d` (traced as `w`) for `req`.
+/// What a no-load (open-circuit) test of the old machine tells: the flux per pole, and the
+/// design rated with it.
+#[derive(Clone, Debug, PartialEq)]
+pub struct NoLoadTest {
+    /// Measured open-circuit voltage V0, V.
+    pub volts: f64,
+    /// Measured speed N0, rpm.
+    pub rpm: f64,
+    /// Flux per pole Φ = 60·a·V0/(P·Z·N0), mWb.
+    pub flux_mwb: f64,
+    /// The parallel paths a used (the textbook formula).
+    pub paths: u32,
+    /// The active conductors Z.
+    pub conductors: u64,
+    /// The flux per pole the design file gave, mWb, to compare with the test's.
+    pub design_flux_mwb: Option<f64>,
+    /// The design with its flux per pole set to the test's.
+    pub design: Design,
+    /// That design rated (with the measured 20 °C resistance when given).
+    pub rated: RatingReport,
+}
+
+/// Back-solves the flux per pole from a no-load test of `d` (traced as `w`) and rates the
+/// design with it; `measured_r20` replaces the calculated armature resistance.
+pub fn no_load_test(
+    d: &Design,
+    w: &Winding,
+    volts: f64,
+    rpm: f64,
+    measured_r20: Option<f64>,
+) -> Result<NoLoadTest, RewindError> {
+    let flux_mwb = flux_from_test(d, w, volts, rpm)? * 1000.0;
+    let design = with_flux(d, flux_mwb);
+    let rated = rate_with(&design, w, measured_r20);
+    Ok(NoLoadTest {
+        volts,
+        rpm,
+        flux_mwb,
+        paths: w.paths_formula,
+        conductors: w.conductors,
+        design_flux_mwb: d.flux_per_pole_mwb,
+        design,
+        rated,
+    })
+}
+
+/// Works out the rewind of `d` (traced as `w`) for `req`, rating the old winding afresh.
 pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan, RewindError> {
+    rewind_rated(d, w, None, req)
+}
+
+/// Works out the rewind of `d` (traced as `w`) for `req`. `rated` is the old winding's rating
+/// as already computed; it is used unless the request brings a measured resistance, which
+/// changes the rating.
+pub fn rewind_rated(
+    d: &Design,
+    w: &Winding,
+    rated: Option<&RatingReport>,
+    req: &RewindRequest,
+) -> Result<RewindPlan, RewindError> {
     if !(req.voltage > 0.0 && req.voltage.is_finite() && req.voltage <= MAX_VOLTAGE) {
         return Err(RewindError::VoltageOutOfRange { volts: req.voltage });
     }
@@ -231,7 +289,14 @@ pub fn rewind(d: &Design, w: &Winding, req: &RewindRequest) -> Result<RewindPlan
     {
         return Err(RewindError::ResistanceNotPositive { ohms });
     }
-    let rated: RatingReport = rate_with(d, w, req.measured_r20);
+    let fresh;
+    let rated: &RatingReport = match (rated, req.measured_r20) {
+        (Some(r), None) => r,
+        _ => {
+            fresh = rate_with(d, w, req.measured_r20);
+            &fresh
+        }
+    };
     let a0 = w.paths_formula.max(1);
     let z0 = w.conductors;
     let x0 = z0 as f64 / f64::from(a0);

@@ -8,7 +8,7 @@ use std::fmt::Write;
 use super::report::CAUTIONS;
 use crate::base::number::fmt_fixed;
 use crate::rating::conductor::{self, WireFamily};
-use crate::rating::rewind::signed;
+use crate::rating::rewind::{NoLoadTest, signed};
 use crate::rating::{RatingReport, RewindPlan};
 
 fn section(s: &mut String, title: &str) {
@@ -236,4 +236,62 @@ pub fn render_rewind(
         let _ = writeln!(s, "  - {c}");
     }
     s
+}
+
+/// Renders the no-load test report of `rewind --from-test` without `--voltage`: the flux per
+/// pole with its arithmetic, the design's own flux against it, and what follows at the rating.
+pub fn render_no_load(t: &NoLoadTest, file: &str, version: &str) -> String {
+    let mut s = format!("armsheet {version} - no-load test of {file}\n");
+    let d = &t.design;
+    let _ = writeln!(
+        s,
+        "  flux per pole         {} mWb = 60*a*V0/(P*Z*N0) = 60*{}*{}/({}*{}*{}) (open circuit, E = V0)",
+        fmt_fixed(t.flux_mwb, 4),
+        t.paths,
+        fmt_fixed(t.volts, 2),
+        d.poles,
+        t.conductors,
+        fmt_fixed(t.rpm, 1)
+    );
+    if let Some(f) = t.design_flux_mwb {
+        let _ = writeln!(
+            s,
+            "  design flux           {} mWb ({} % against the test)",
+            fmt_fixed(f, 4),
+            signed((f / t.flux_mwb - 1.0) * 100.0, 2)
+        );
+    }
+    if let Some(n) = t.rated.emf.as_ref().and_then(|e| e.speed_at_flux_rpm) {
+        let _ = writeln!(
+            s,
+            "  speed at the rating   {} rpm with this flux",
+            fmt_fixed(n, 1)
+        );
+    }
+    if let Some(r) = &t.rated.resistance {
+        let how = if r.measured {
+            "measured (--ra)"
+        } else {
+            "calculated"
+        };
+        let _ = writeln!(
+            s,
+            "  armature resistance   {} ohm at 20 C, {how}",
+            fmt_fixed(r.r20_ohm, 4)
+        );
+    }
+    s.push_str("  use it: armsheet rewind DESIGN --from-test V0 N0 --voltage V\n");
+    s
+}
+
+/// The comment header of a design file that records a no-load test's flux.
+pub fn no_load_header(t: &NoLoadTest, file: &str, asked: &str) -> Vec<String> {
+    vec![
+        format!("armsheet: {file} with the flux per pole from a no-load test"),
+        format!("asked: {asked}"),
+        format!(
+            "flux per pole {} mWb = 60*a*V0/(P*Z*N0), open circuit",
+            fmt_fixed(t.flux_mwb, 4)
+        ),
+    ]
 }
