@@ -116,7 +116,7 @@ proptest! {
         prop_assume!(p.is_ok());
         let p = p.unwrap();
         prop_assert_eq!(p.new.turns, d.turns);
-        prop_assert_eq!(p.new.connection.segments, w.active_coils);
+        prop_assert_eq!(p.new.scheme.segments, w.active_coils);
         let a0 = p.old.area_mm2.unwrap();
         prop_assert!((p.area_needed_mm2.unwrap() / a0 - 1.0).abs() < 1e-9);
         prop_assert!(p.speed_error.abs() < 1e-9, "speed error {}", p.speed_error);
@@ -165,8 +165,8 @@ proptest! {
         prop_assert_eq!(back.turns, p.new.turns);
         prop_assert_eq!(back.winding_type, kind);
         let nw = trace_winding(&back);
-        prop_assert_eq!(nw.active_coils, p.new.connection.segments);
-        prop_assert_eq!(nw.paths_formula, p.new.connection.paths);
+        prop_assert_eq!(nw.active_coils, p.new.scheme.segments);
+        prop_assert_eq!(nw.paths_formula, p.new.scheme.paths);
         prop_assert!(text.starts_with("# armsheet rewind of p.toml\n"));
     }
 }

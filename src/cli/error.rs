@@ -10,7 +10,7 @@ use std::io::{self, Write};
 use std::path::PathBuf;
 
 use crate::base::number::fmt_fixed;
-use crate::design::{Diagnostic, WindingType};
+use crate::design::Diagnostic;
 use crate::rating::RewindError;
 use crate::rating::rewind::{MAX_SPEED_RPM, MAX_VOLTAGE};
 
@@ -226,13 +226,12 @@ pub fn rewind_message(e: &RewindError) -> String {
         ),
         RewindError::TurnsRoundToZero {
             exact_turns,
-            connection,
+            scheme: connection,
         } => {
-            let fewer_paths = match (connection.kind, connection.multiplicity) {
-                (WindingType::Lap, _) => "a connection with fewer paths (wave instead of lap), ",
-                (WindingType::Wave, 2..) => "a lower multiplicity, ",
-                (WindingType::Wave, _) => "",
-            };
+            let fewer_paths = connection
+                .kind
+                .kind()
+                .fewer_paths_remedy(connection.multiplicity);
             format!(
                 "the turns per coil round to zero ({} exact on {}): the voltage is too low for this many coils; use {fewer_paths}a lower speed, a higher voltage, or an armature with fewer coils",
                 fmt_fixed(*exact_turns, 3),

@@ -8,7 +8,7 @@
 use std::f64::consts::PI;
 
 use super::conductor::{WireFamily, WireOption};
-use super::connection::{Connection, connect};
+use super::scheme::{Scheme, connect};
 use crate::design::{Design, WindingType, bounds};
 
 /// What the advice needs to know about the machine as designed.
@@ -39,11 +39,11 @@ impl Machine<'_> {
     }
 
     /// One reconnection option with its current, turns and conductor.
-    fn path_option(&self, route: PathRoute, k: Connection, current: f64) -> PathOption {
+    fn path_option(&self, route: PathRoute, k: Scheme, current: f64) -> PathOption {
         let exact = self.turns_for(k.paths, k.segments);
         PathOption {
             route,
-            connection: k,
+            scheme: k,
             per_path_a: current / f64::from(k.paths),
             turns: exact.round().max(1.0),
             turns_exact: exact,
@@ -156,7 +156,7 @@ pub struct PathOption {
     /// How the paths are gained.
     pub route: PathRoute,
     /// The new connection.
-    pub connection: Connection,
+    pub scheme: Scheme,
     /// Current per path on it, A.
     pub per_path_a: f64,
     /// Whole turns per coil for the same EMF (at least 1).

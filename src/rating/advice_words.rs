@@ -137,7 +137,7 @@ impl Advice {
 
 /// One reconnection: paths, current per path, turns and the conductor for the same density.
 fn path_option(o: &PathOption) -> String {
-    let k = &o.connection;
+    let k = &o.scheme;
     let route = match o.route {
         PathRoute::LapInsteadOfWave => "lap instead of wave",
         PathRoute::HigherMultiplicity => "a higher multiplicity",

@@ -12,7 +12,6 @@ pub mod advice;
 mod advice_words;
 pub mod commutator;
 pub mod conductor;
-pub mod connection;
 pub mod design_toml;
 pub mod emf;
 pub mod findings;
@@ -21,6 +20,7 @@ pub mod losses;
 pub mod note;
 pub mod resistance;
 pub mod rewind;
+pub mod scheme;
 pub mod test_voltage;
 
 pub use advice::{Advice, CheckAdvice};

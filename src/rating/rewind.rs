@@ -8,7 +8,7 @@
 //! result.
 
 use super::conductor::{self, WireFamily, WireOption};
-use super::connection::{ConnectError, Connection, connect};
+use super::scheme::{ConnectError, Scheme, connect};
 use super::{RatingReport, design_toml, emf, rate_with};
 use crate::base::number::fmt_fixed;
 use crate::design::{ConductorShape, Design, EqualizerChoice, Mode, Rating, WindingType, bounds};
@@ -111,7 +111,7 @@ pub enum RewindError {
         /// Turns per coil before rounding.
         exact_turns: f64,
         /// The new connection.
-        connection: Connection,
+        scheme: Scheme,
     },
     /// More turns per coil than any real coil has.
     TooManyTurns {
@@ -141,7 +141,7 @@ impl From<ConnectError> for RewindError {
 #[derive(Clone, Debug, PartialEq)]
 pub struct WindingFigures {
     /// The connection.
-    pub connection: Connection,
+    pub scheme: Scheme,
     /// Turns per coil.
     pub turns: u32,
     /// Conductors Z = 2·C·T.
@@ -368,7 +368,7 @@ pub fn rewind_rated(
     if turns < 1.0 {
         return Err(RewindError::TurnsRoundToZero {
             exact_turns,
-            connection: conn,
+            scheme: conn,
         });
     }
     if turns > bounds::MAX_TURNS as f64 {
@@ -476,7 +476,7 @@ pub fn rewind_rated(
         ));
     }
     let mut nd = d.clone();
-    if kind == WindingType::Wave && d.equalizers != EqualizerChoice::None {
+    if !kind.kind().takes_equalizers() && d.equalizers != EqualizerChoice::None {
         notes.push("equalizers removed: a wave winding needs none".to_string());
         nd.equalizers = EqualizerChoice::None;
     }
@@ -515,7 +515,7 @@ pub fn rewind_rated(
         k.shape = shape;
     }
 
-    let old_conn = Connection {
+    let old_conn = Scheme {
         kind: d.winding_type,
         multiplicity: d.multiplicity,
         paths: a0,
@@ -527,7 +527,7 @@ pub fn rewind_rated(
         flux_mwb: flux_wb * 1000.0,
         flux_source,
         old: WindingFigures {
-            connection: old_conn,
+            scheme: old_conn,
             turns: d.turns,
             conductors: z0,
             voltage: rating.voltage,
@@ -538,7 +538,7 @@ pub fn rewind_rated(
             conductor: d.conductor.as_ref().map(|k| k.shape),
         },
         new: WindingFigures {
-            connection: conn,
+            scheme: conn,
             turns,
             conductors: z1,
             voltage: Some(req.voltage),
@@ -595,8 +595,8 @@ impl RewindPlan {
         ));
         h.push(format!(
             "connection: {} -> {}",
-            o.connection.label(),
-            n.connection.label()
+            o.scheme.label(),
+            n.scheme.label()
         ));
         h.push(format!(
             "turns per coil: {} -> {} ({} exact, from the EMF ratio and the new paths and segments)",

@@ -70,7 +70,7 @@ pub fn render_rewind(
     row(
         &mut s,
         "connection",
-        format!("{} -> {}", o.connection.label(), n.connection.label()),
+        format!("{} -> {}", o.scheme.label(), n.scheme.label()),
     );
     row(
         &mut s,
@@ -79,8 +79,8 @@ pub fn render_rewind(
             "{} -> {} ({} -> {} per path)",
             o.conductors,
             n.conductors,
-            fmt_fixed(o.conductors as f64 / f64::from(o.connection.paths), 1),
-            fmt_fixed(n.conductors as f64 / f64::from(n.connection.paths), 1)
+            fmt_fixed(o.conductors as f64 / f64::from(o.scheme.paths), 1),
+            fmt_fixed(n.conductors as f64 / f64::from(n.scheme.paths), 1)
         ),
     );
     row(

@@ -108,6 +108,10 @@ pub trait WindingKind: Sync {
     /// Least poles the kind can be wound on.
     fn min_poles(&self) -> u32;
 
+    /// How to get fewer parallel paths from the same coils, in words ending in ", " (empty when
+    /// there is no way: a simplex wave has the fewest).
+    fn fewer_paths_remedy(&self, m: u32) -> &'static str;
+
     /// Whether the symmetry rules also ask for whole pole pairs per pair of paths (a wave's
     /// paths each run under every pole) [from memory: Arnold's conditions, DOMAIN.md "Symmetry"].
     fn symmetry_counts_pole_pairs(&self) -> bool;
@@ -162,6 +166,9 @@ impl WindingKind for Lap {
     fn min_poles(&self) -> u32 {
         2
     }
+    fn fewer_paths_remedy(&self, _m: u32) -> &'static str {
+        "a connection with fewer paths (wave instead of lap), "
+    }
     fn symmetry_counts_pole_pairs(&self) -> bool {
         false
     }
@@ -206,6 +213,9 @@ impl WindingKind for Wave {
     }
     fn min_poles(&self) -> u32 {
         4
+    }
+    fn fewer_paths_remedy(&self, m: u32) -> &'static str {
+        if m >= 2 { "a lower multiplicity, " } else { "" }
     }
     fn symmetry_counts_pole_pairs(&self) -> bool {
         true

@@ -1,13 +1,16 @@
-//! Alternative connections of the same coils: lap or wave, any multiplicity.
+//! Winding schemes for the same coils: lap or wave, any multiplicity — what the trade calls
+//! "the connection" of an armature. Named [`Scheme`] so it is never confused with a row of the
+//! connection table ([`crate::winding::Connection`]).
 //!
 //! Part of the `rating` stage. Used by the advice (more paths) and by the rewind.
 
 use crate::design::{Design, WindingType, bounds};
 use crate::theory::words::multiplicity_word;
 
-/// One way of connecting the armature's u·S coil positions.
+/// One winding scheme for the armature's u·S coil positions: kind and multiplicity, with the
+/// paths and segments they give.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub struct Connection {
+pub struct Scheme {
     /// Lap or wave.
     pub kind: WindingType,
     /// Multiplicity m.
@@ -102,7 +105,7 @@ pub fn connect(
     current_segments: u32,
     kind: WindingType,
     m: u32,
-) -> Result<Connection, ConnectError> {
+) -> Result<Scheme, ConnectError> {
     let n = d.coil_positions();
     let p = d.pole_pairs();
     if !(1..=bounds::MAX_MULTIPLICITY as u32).contains(&m) {
@@ -134,7 +137,7 @@ pub fn connect(
             min_segments: 2 * m * d.poles,
         });
     }
-    Ok(Connection {
+    Ok(Scheme {
         kind,
         multiplicity: m,
         paths: rules.parallel_paths(m, d.poles),
@@ -144,7 +147,7 @@ pub fn connect(
     })
 }
 
-impl Connection {
+impl Scheme {
     /// "simplex lap (a = 4, C = 36)".
     pub fn label(&self) -> String {
         let word = multiplicity_word(self.multiplicity);
