@@ -2,6 +2,8 @@
 //! binary. Each test file that needs them says `mod support;`.
 #![allow(dead_code)]
 
+pub mod mutate;
+
 use std::path::{Path, PathBuf};
 use std::process::{Command, Output};
 
