@@ -12,9 +12,8 @@ use clap::Args;
 use super::load::load_design;
 use super::output::write_atomic;
 use crate::base::has_errors;
-use crate::layout::{Paper, Window};
+use crate::layout::{Paper, SheetOptions, Window, draw_page, sheet_pages};
 use crate::render::json::report_json;
-use crate::render::sheet::{SheetInput, render_sheets};
 use crate::render::{csv, pdf, svg};
 
 /// How much of a large armature the diagram shows (`--window`).
@@ -153,29 +152,19 @@ pub fn sheet(a: &SheetArgs) -> u8 {
         Ok(c) => c,
         Err(code) => return code,
     };
-    let failures: Vec<String> = checked
-        .findings
-        .iter()
-        .filter(|f| f.is_failure())
-        .map(|f| format!("{}: {}", f.id, f.message))
-        .collect();
-    let input = SheetInput {
-        design: &checked.design,
-        winding: &checked.winding,
-        paper: a.paper,
-        window: a.window.window(),
-        failures,
-        extra_rows: checked
-            .rating
-            .as_ref()
-            .map_or_else(Vec::new, crate::rating::sheet_rows),
-        version: env!("CARGO_PKG_VERSION").to_string(),
-    };
-    let sheets = render_sheets(&input);
+    let pages = sheet_pages(
+        &checked,
+        &SheetOptions {
+            paper: a.paper,
+            window: a.window.window(),
+            version: env!("CARGO_PKG_VERSION").to_string(),
+        },
+    );
+    let sheets: Vec<String> = pages.iter().map(svg::page_svg).collect();
     let dir = a.out.join(stem(&a.design));
     let mut files: Vec<(PathBuf, Vec<u8>)> = Vec::new();
     if a.pdf {
-        match pdf::sheets_pdf(&sheets) {
+        match pdf::sheets_pdf(&pages) {
             Ok(bytes) => files.push((dir.join("sheets.pdf"), bytes)),
             Err(e) => {
                 eprintln!("error: {}: the PDF cannot be made: {e}", a.design.display());
@@ -237,7 +226,7 @@ pub fn draw(a: &DrawArgs) -> u8 {
         Ok(c) => c,
         Err(code) => return code,
     };
-    let svg = svg::render_draw(&checked.design, &checked.winding, a.window.window());
+    let svg = svg::page_svg(&draw_page(&checked, a.window.window()));
     let path = a.out.clone().unwrap_or_else(|| {
         PathBuf::from("out")
             .join(stem(&a.design))

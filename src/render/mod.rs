@@ -1,7 +1,14 @@
 //! `render`: bytes for people and programs: the text report, JSON, CSV, SVG and PDF.
 //!
-//! Fifth stage of the pipeline. Renderers hold no winding logic: they format what the engine,
-//! the checks and the layout resolved. Every number goes through [`number`].
+//! Seventh stage of the pipeline. Renderers hold no winding logic: they format what the
+//! engine, the checks and the layout resolved. Every number goes through the one number
+//! writer (`base::number`, and [`svg_writer::num`] for coordinates).
+//!
+//! The drawings are laid out by `layout` into a page tree (`layout::tree::Page`); the
+//! drawing renderers only walk that tree: [`svg`] writes each node as one element and the
+//! style table as the style sheet, [`pdf`] draws the same nodes with krilla, resolving
+//! their classes through the same style table. Neither measures, fits, wraps or places
+//! anything: a new drawing or a change of looks belongs in `layout`, not here.
 
 pub mod csv;
 pub mod json;
@@ -10,7 +17,6 @@ pub mod rating_json;
 pub mod rating_text;
 pub mod report;
 pub mod rewind_text;
-pub mod sheet;
 pub mod sheet_data;
 pub mod svg;
 pub mod svg_writer;
