@@ -5,7 +5,9 @@
 
 use crate::checks::Checked;
 
-use super::developed::{DiagramOptions, Window, layout_developed, nodes::diagram_group, resolve_view};
+use super::developed::{
+    DiagramOptions, Window, layout_developed, nodes::diagram_group, resolve_view,
+};
 use super::tree::{Page, PageKind, PageUnit, Rect, Text};
 
 /// Screen pixels to the millimetre of the screen page.
@@ -44,7 +46,7 @@ pub fn draw_page(checked: &Checked, window: Window) -> Page {
     };
     let mut heading = Text::new(11.0, 5.5, 3.2, "b", title.clone());
     heading.class_first = true;
-    Page {
+    let mut page = Page {
         kind: PageKind::Screen,
         title,
         width_mm: width,
@@ -56,5 +58,20 @@ pub fn draw_page(checked: &Checked, window: Window) -> Page {
             heading.into(),
             diagram_group(&diagram, 0.0, 8.0).into(),
         ],
+    };
+    // The page grows to hold its lowest baseline (the brush names under narrow brushes
+    // stand below the diagram box when no equalizer band follows).
+    let lowest = page
+        .texts()
+        .iter()
+        .map(|(_, dy, t)| dy + t.y)
+        .fold(0.0, f64::max);
+    if lowest + FOOT > height {
+        page.height_mm = lowest + FOOT;
+        page.children[0] = Rect::filled("#fff", 0.0, 0.0, width, page.height_mm).into();
     }
+    page
 }
+
+/// Least paper below the lowest baseline of the screen page, mm.
+const FOOT: f64 = 0.8;

@@ -317,9 +317,7 @@ pub fn resolve(
             .filter(|s| match s {
                 Selector::Text => is_text,
                 Selector::Class(c) => mine.contains(&c.as_str()),
-                Selector::Inside(a, c) => {
-                    mine.contains(&c.as_str()) && outer.contains(&a.as_str())
-                }
+                Selector::Inside(a, c) => mine.contains(&c.as_str()) && outer.contains(&a.as_str()),
             })
             .map(Selector::specificity)
             .max();

@@ -75,7 +75,10 @@ pub fn sheets_pdf(pages: &[Page]) -> Result<Vec<u8>, PdfError> {
     };
     let mut document = Document::new();
     for (i, p) in pages.iter().enumerate() {
-        let (w, h) = (p.width_mm as f32 * PT_PER_MM, p.height_mm as f32 * PT_PER_MM);
+        let (w, h) = (
+            p.width_mm as f32 * PT_PER_MM,
+            p.height_mm as f32 * PT_PER_MM,
+        );
         let size = Size::from_wh(w, h).ok_or_else(|| PdfError {
             sheet: i + 1,
             message: format!("page size {w} × {h} pt"),
@@ -202,8 +205,7 @@ impl Walker<'_, '_> {
             }
             Node::Path(p) => {
                 let own: Vec<Decl> = p.fill.map(|f| Decl::Fill(Some(f))).into_iter().collect();
-                let style =
-                    self.resolve(inherited, false, p.class.as_deref().unwrap_or(""), &own);
+                let style = self.resolve(inherited, false, p.class.as_deref().unwrap_or(""), &own);
                 let mut pb = PathBuilder::new();
                 for op in &p.ops {
                     match *op {
@@ -216,8 +218,7 @@ impl Walker<'_, '_> {
             }
             Node::Rect(r) => {
                 let own: Vec<Decl> = r.fill.map(|f| Decl::Fill(Some(f))).into_iter().collect();
-                let style =
-                    self.resolve(inherited, false, r.class.as_deref().unwrap_or(""), &own);
+                let style = self.resolve(inherited, false, r.class.as_deref().unwrap_or(""), &own);
                 let Some(rect) =
                     krilla::geom::Rect::from_xywh(r.x as f32, r.y as f32, r.w as f32, r.h as f32)
                 else {
@@ -272,9 +273,7 @@ impl Walker<'_, '_> {
         };
         if let Some(deg) = t.rotate {
             self.surface.push_transform(&Transform::from_rotate_at(
-                deg as f32,
-                t.x as f32,
-                t.y as f32,
+                deg as f32, t.x as f32, t.y as f32,
             ));
         }
         let start = Point::from_xy((t.x + dx) as f32, t.y as f32);

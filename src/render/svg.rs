@@ -139,7 +139,10 @@ fn node(w: &mut SvgWriter, n: &Node) {
             }
             data(&mut attrs, &g.data);
             if let Some((x, y)) = g.translate {
-                attrs.push(("transform", format!("translate({} {})", num(x), num(y)).into()));
+                attrs.push((
+                    "transform",
+                    format!("translate({} {})", num(x), num(y)).into(),
+                ));
             }
             w.open("g", &attrs);
             for c in &g.children {

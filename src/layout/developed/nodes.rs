@@ -133,7 +133,9 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
             .with_class(cls)
             .with_data("data-coil", c.coil);
         if let (Some(s), Some(e)) = (c.start_segment, c.end_segment) {
-            cg = cg.with_data("data-start-seg", s).with_data("data-end-seg", e);
+            cg = cg
+                .with_data("data-start-seg", s)
+                .with_data("data-end-seg", e);
         }
         cg = cg.with_data("data-path", c.path);
         if c.dummy {

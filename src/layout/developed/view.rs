@@ -141,7 +141,12 @@ impl Geo {
 }
 
 /// Appends the parts of `pts` inside x0 ≤ x ≤ x1 to `out`, flagging cut ends.
-pub(super) fn clip_polyline(pts: &[Point], x0: f64, x1: f64, out: &mut Vec<(Vec<Point>, bool, bool)>) {
+pub(super) fn clip_polyline(
+    pts: &[Point],
+    x0: f64,
+    x1: f64,
+    out: &mut Vec<(Vec<Point>, bool, bool)>,
+) {
     let inside = |p: Point| p.0 >= x0 - 1e-9 && p.0 <= x1 + 1e-9;
     let mut cur: Vec<Point> = Vec::new();
     let mut cut_start = false;

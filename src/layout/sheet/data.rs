@@ -47,14 +47,7 @@ pub(super) fn data_block(input: &Input<'_>, r: &Rect) -> Group {
         let y = top + (row as f64 + 0.7) * line_h;
         let mut datum = Group::class("datum").with_data("data-key", k);
         datum.push(text_fit(x, y, ks, label_w - 0.8, "", k));
-        datum.push(text_fit(
-            x + label_w,
-            y,
-            vs,
-            col_w - label_w - 1.5,
-            "b",
-            v,
-        ));
+        datum.push(text_fit(x + label_w, y, vs, col_w - label_w - 1.5, "b", v));
         g.push(datum);
     }
     g

@@ -3,8 +3,7 @@
 //! Part of the `layout` stage (the sheets).
 
 use crate::layout::style::{
-    DUMMY_DASH, DUMMY_GREY, INK, PATH_COLOURS, PATH_DASHES, SHORTED_GREY, colour_class,
-    dash_class,
+    DUMMY_DASH, DUMMY_GREY, INK, PATH_COLOURS, PATH_DASHES, SHORTED_GREY, colour_class, dash_class,
 };
 use crate::layout::tree::{self, Circle, Group, Line, Path, Text};
 use crate::winding::EqualizerPlan;
@@ -24,12 +23,13 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
         g.push(text_fit(x, y, size, room - (x - xs), class, s));
     };
     let mut y = r.y + 9.6;
-    let sample = |g: &mut Group, y: f64, stroke: &'static str, class: &str, dash: &'static [f64]| {
-        let mut line = Line::new(class, (x0, y - 0.8), (x0 + 8.5, y - 0.8));
-        line.stroke = Some(stroke);
-        line.dash = (!dash.is_empty()).then_some(dash);
-        g.push(line);
-    };
+    let sample =
+        |g: &mut Group, y: f64, stroke: &'static str, class: &str, dash: &'static [f64]| {
+            let mut line = Line::new(class, (x0, y - 0.8), (x0 + 8.5, y - 0.8));
+            line.stroke = Some(stroke);
+            line.dash = (!dash.is_empty()).then_some(dash);
+            g.push(line);
+        };
     sample(&mut g, y, INK, "side-top", &[]);
     text(&mut g, xs, y, "", "top-layer coil side (start lead)");
     y += line_h;
@@ -39,11 +39,7 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
     let (ax, ay) = (x0 + 4.2, y - 0.9);
     let mut arrow = Path::triangle(
         None,
-        [
-            (ax, ay - 1.1),
-            (ax - 0.9, ay + 1.0),
-            (ax + 0.9, ay + 1.0),
-        ],
+        [(ax, ay - 1.1), (ax - 0.9, ay + 1.0), (ax + 0.9, ay + 1.0)],
     );
     arrow.fill = Some(INK);
     g.push(arrow);
@@ -120,13 +116,7 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
         );
         y += line_h;
     }
-    g.push(tree::Rect::new(
-        "brushbox brush-pos",
-        x0,
-        y - 2.6,
-        3.6,
-        2.6,
-    ));
+    g.push(tree::Rect::new("brushbox brush-pos", x0, y - 2.6, 3.6, 2.6));
     g.push(tree::Rect::new(
         "brushbox brush-neg",
         x0 + 4.8,

@@ -181,7 +181,9 @@ pub(super) fn connection_page(
             });
             let mut row = Group::class("row").with_data("data-coil", conn.coil);
             if let (Some(s), Some(e)) = (conn.start_segment, conn.end_segment) {
-                row = row.with_data("data-start-seg", s).with_data("data-end-seg", e);
+                row = row
+                    .with_data("data-start-seg", s)
+                    .with_data("data-end-seg", e);
             }
             let mut cx = *gx;
             for (j, (col, cell)) in cols.iter().zip(cells).enumerate() {
@@ -234,7 +236,8 @@ pub(super) fn equalizer_page(
     );
     out.push(Text::new(c.right() - 2.0, c.y + 6.5, 2.4, "end", hint).into());
     let cols = equalizer_columns(input.design.pole_pairs(), table_area(frame).w);
-    let mut g = Group::id(format!("eq-table-{}", page.rows.start + 1)).with_class("equalizer-table");
+    let mut g =
+        Group::id(format!("eq-table-{}", page.rows.start + 1)).with_class("equalizer-table");
     for (gx, rows) in &page.groups {
         table_head(&mut g, &cols, *gx, page.top);
         for (i, r) in rows.clone().enumerate() {

@@ -13,7 +13,13 @@ pub(super) fn failure_band(band: &Rect, failures: &[String]) -> Group {
     let mut g = Group::id("not-for-winding");
     g.push(rect("band", band));
     let lead = "NOT FOR WINDING: design fails checks";
-    g.push(Text::new(band.x + 3.0, band.y + 6.3, 4.4, "band-text", lead));
+    g.push(Text::new(
+        band.x + 3.0,
+        band.y + 6.3,
+        4.4,
+        "band-text",
+        lead,
+    ));
     let x = band.x + 6.0 + text_width(lead, 4.4, Weight::Bold);
     let detail = failures.join("; ");
     let detail = cut_to_width(&detail, 2.4, Weight::Bold, band.right() - x - 3.0);
@@ -69,7 +75,12 @@ pub(super) fn title_block(input: &Input<'_>, frame: &PageFrame, n: usize, total:
             2.8,
             "",
         ),
-        ("tool", format!("armsheet {}", input.options.version), 2.6, ""),
+        (
+            "tool",
+            format!("armsheet {}", input.options.version),
+            2.6,
+            "",
+        ),
     ];
     for (i, h) in rows.iter().enumerate() {
         if i > 0 {
