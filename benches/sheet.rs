@@ -73,3 +73,16 @@ fn mill_sheet(bencher: divan::Bencher) {
 fn mill_sheet_with_pdf(bencher: divan::Bencher) {
     bencher.bench(|| sheet_bytes(divan::black_box(MILL), true));
 }
+
+/// The PDF writer alone, on the mill demo's laid-out pages.
+#[divan::bench(sample_count = 10)]
+fn mill_pdf_only(bencher: divan::Bencher) {
+    let checked = armsheet::check(parse_design(MILL, "mill.toml").unwrap());
+    let options = SheetOptions {
+        paper: Paper::A4,
+        window: Window::Auto,
+        version: "bench".into(),
+    };
+    let pages = sheet_pages(&checked, &options);
+    bencher.bench(|| sheets_pdf(divan::black_box(&pages)).unwrap().len());
+}

@@ -26,6 +26,7 @@ use crate::winding::{EqualizerPlan, Winding};
 use super::developed::{DiagramOptions, Window, layout_developed, nodes::diagram_group};
 use super::font::{cut_to_width, fit_size};
 use super::paper::Paper;
+use super::style::text_face;
 use super::tree::{self, Line, Node, Page, PageKind, PageUnit, Text};
 
 /// How the sheets are laid out.
@@ -187,7 +188,7 @@ fn vline(x: f64, y0: f64, y1: f64, class: &str) -> Node {
 
 /// `s` at (x, y), shrunk (down to 80 %) and then cut to fit `width` mm in its face.
 fn text_fit(x: f64, y: f64, size: f64, width: f64, class: &str, s: &str) -> Text {
-    let weight = Text::new(0.0, 0.0, size, class, "").weight;
+    let (weight, _) = text_face(class);
     let sz = fit_size(s, size, weight, width);
     Text::new(x, y, sz, class, cut_to_width(s, sz, weight, width))
 }
