@@ -1,7 +1,10 @@
 //! The developed winding diagram as plain geometry: the armature surface unrolled left to right.
 //!
 //! Part of the `layout` stage: [`Design`] + [`Winding`] in, [`Diagram`] out, in millimetres
-//! with the origin at the top-left of the diagram box. No SVG here; `render::svg` draws it.
+//! with the origin at the top-left of the diagram box. `view` picks what is shown and maps
+//! angles to the strip, `bands` stacks the bands, `coils` draws the coils and their edge
+//! cuts, `labels` spaces the labels, `equalizers` the equalizer band; [`nodes`] turns the
+//! geometry into page-tree nodes (classes, type sizes), which `render` only writes.
 //!
 //! ## Bands, top to bottom
 //! header (rotation, window note) · pole shoes · back end connections · slots with coil sides ·
