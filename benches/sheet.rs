@@ -1,17 +1,16 @@
-//! Sheet benchmarks (divan): the in-memory work of `armsheet sheet` (parse, trace, checks,
-//! every SVG sheet, connections.csv, report.json) on lap designs of about 100 and 1,000
-//! segments, and the same with the PDF.
+//! Sheet benchmarks (divan): the in-memory work of `armsheet sheet` (parse, check, lay out
+//! every page, write every SVG sheet, connections.csv, report.json) on lap designs of about
+//! 100 and 1,000 segments and on the 12-pole mill demo, each with and without the PDF.
 //!
-//! Run: `cargo bench --bench sheet`. Goal: under 100 ms for 1,000 segments without the PDF.
+//! Run: `cargo bench --bench sheet`. Goals: under 100 ms for 1,000 segments without the PDF;
+//! the PDF at most doubling the time of the SVG sheets (`sheet --pdf` within 3× of `sheet`).
 
-use armsheet::checks::run_checks;
 use armsheet::design::parse_design;
-use armsheet::layout::{Paper, Window};
+use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
 use armsheet::render::csv::connections_csv;
 use armsheet::render::json::report_json;
 use armsheet::render::pdf::sheets_pdf;
-use armsheet::render::sheet::{SheetInput, render_sheets};
-use armsheet::winding::trace_winding;
+use armsheet::render::svg::page_svg;
 
 fn main() {
     divan::main();
@@ -31,31 +30,24 @@ fn design_text(segments: u32) -> String {
     )
 }
 
+/// The mill demo (12 poles, 1,056 segments, equalizers, a rating).
+const MILL: &str = include_str!("../designs/mill-lap-12p.toml");
+
 /// Everything `armsheet sheet` computes before it writes files; returns the bytes.
 fn sheet_bytes(text: &str, pdf: bool) -> usize {
     let d = parse_design(text, "bench.toml").unwrap();
-    let w = trace_winding(&d);
-    let findings = run_checks(&d, &w);
-    let failures = findings
-        .iter()
-        .filter(|f| f.is_failure())
-        .map(|f| f.id.clone())
-        .collect();
-    let input = SheetInput {
-        design: &d,
-        winding: &w,
+    let checked = armsheet::check(d);
+    let options = SheetOptions {
         paper: Paper::A4,
         window: Window::Auto,
-        failures,
-        extra_rows: Vec::new(),
         version: "bench".into(),
     };
-    let sheets = render_sheets(&input);
-    let mut n: usize = sheets.iter().map(String::len).sum();
-    n += connections_csv(&d, &w).len();
-    n += report_json(&armsheet::check(d.clone())).len();
+    let pages = sheet_pages(&checked, &options);
+    let mut n: usize = pages.iter().map(|p| page_svg(p).len()).sum();
+    n += connections_csv(&checked.design, &checked.winding).len();
+    n += report_json(&checked).len();
     if pdf {
-        n += sheets_pdf(&sheets).unwrap().len();
+        n += sheets_pdf(&pages).unwrap().len();
     }
     n
 }
@@ -70,4 +62,27 @@ fn sheet(bencher: divan::Bencher, segments: u32) {
 fn sheet_with_pdf(bencher: divan::Bencher, segments: u32) {
     let text = design_text(segments);
     bencher.bench(|| sheet_bytes(divan::black_box(&text), true));
+}
+
+#[divan::bench(sample_count = 10)]
+fn mill_sheet(bencher: divan::Bencher) {
+    bencher.bench(|| sheet_bytes(divan::black_box(MILL), false));
+}
+
+#[divan::bench(sample_count = 10)]
+fn mill_sheet_with_pdf(bencher: divan::Bencher) {
+    bencher.bench(|| sheet_bytes(divan::black_box(MILL), true));
+}
+
+/// The PDF writer alone, on the mill demo's laid-out pages.
+#[divan::bench(sample_count = 10)]
+fn mill_pdf_only(bencher: divan::Bencher) {
+    let checked = armsheet::check(parse_design(MILL, "mill.toml").unwrap());
+    let options = SheetOptions {
+        paper: Paper::A4,
+        window: Window::Auto,
+        version: "bench".into(),
+    };
+    let pages = sheet_pages(&checked, &options);
+    bencher.bench(|| sheets_pdf(divan::black_box(&pages)).unwrap().len());
 }

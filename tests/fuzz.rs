@@ -63,7 +63,10 @@ fn mutated_designs_never_panic() {
     let n = env_u64("ARMSHEET_FUZZ_N", 20_000);
     let seed = env_u64("ARMSHEET_FUZZ_SEED", 1);
     // The small demos most of the time; the 1,056-bar one now and then.
-    let small: Vec<String> = support::DEMOS[..4].iter().map(|d| support::demo(d)).collect();
+    let small: Vec<String> = support::DEMOS[..4]
+        .iter()
+        .map(|d| support::demo(d))
+        .collect();
     let large = support::demo(support::DEMOS[4]);
     let mut rng = Rng::new(seed);
     let mut parsed = 0u64;

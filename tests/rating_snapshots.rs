@@ -2,9 +2,9 @@
 //! a rewind report with the new design file it writes. Review a changed .snap before accepting.
 
 use armsheet::design::{WindingType, parse_design};
+use armsheet::layout::sheet::rows::rating_sheet_rows;
 use armsheet::rating::{RewindRequest, rate, rewind};
 use armsheet::render::rating_text::render_rating;
-use armsheet::render::rating_words::rating_sheet_rows;
 use armsheet::render::rewind_text::render_rewind;
 use armsheet::winding::trace_winding;
 

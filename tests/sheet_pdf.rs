@@ -80,8 +80,8 @@ fn one_page_per_sheet_at_paper_size() {
         ("sheet_lap.toml", Paper::A4),
         ("sheet_wave_dummy.toml", Paper::Letter),
     ] {
-        let (d, w) = load(name, &fixture(name));
-        let sheets = sheets_for(&d, &w, paper, Window::Auto);
+        let (d, _) = load(name, &fixture(name));
+        let sheets = pages_for(&d, paper, Window::Auto);
         assert!(sheets.len() >= 2, "{name}");
         let pdf = sheets_pdf(&sheets).unwrap();
         assert!(pdf.starts_with(b"%PDF-"));
@@ -112,8 +112,8 @@ fn one_page_per_sheet_at_paper_size() {
 
 #[test]
 fn same_sheets_give_the_same_bytes() {
-    let (d, w) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
-    let sheets = sheets_for(&d, &w, Paper::A4, Window::Auto);
+    let (d, _) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
+    let sheets = pages_for(&d, Paper::A4, Window::Auto);
     let first = sheets_pdf(&sheets).unwrap();
     let second = sheets_pdf(&sheets).unwrap();
     assert!(first.len() > 10_000, "{} bytes", first.len());
@@ -125,12 +125,12 @@ fn same_sheets_give_the_same_bytes() {
 }
 
 /// The text is kept as text: both DejaVu faces are embedded (as subsets, TrueType outlines in
-/// /FontFile2) with a ToUnicode map, and the pages draw glyphs with text operators, so a
-/// reader can select and search the words.
+/// /FontFile2) with a ToUnicode map, and the pages draw every text of the page tree with text
+/// operators, so a reader can select and search the words.
 #[test]
 fn text_is_real_text_in_embedded_fonts() {
-    let (d, w) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
-    let sheets = sheets_for(&d, &w, Paper::A4, Window::Auto);
+    let (d, _) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
+    let sheets = pages_for(&d, Paper::A4, Window::Auto);
     let pdf = sheets_pdf(&sheets).unwrap();
     let text = String::from_utf8_lossy(&pdf);
     let mut base_fonts: Vec<&str> = keys(&text, "/Subtype/Type0/BaseFont/")
@@ -178,8 +178,51 @@ fn text_is_real_text_in_embedded_fonts() {
             String::from_utf8_lossy(data).into_owned()
         })
         .collect();
-    for c in &contents {
-        assert!(c.matches("BT ").count() > 50, "too few text objects");
-        assert!(c.contains(" Tf ") && c.contains(")Tj"), "no text shown");
+    // At least one text object for every text of the page tree (a haloed text takes two).
+    for (c, page) in contents.iter().zip(&sheets) {
+        let texts = page
+            .texts()
+            .iter()
+            .filter(|(_, _, t)| !t.content.is_empty())
+            .count();
+        assert!(texts > 20, "{texts} texts");
+        let objects = c.matches("BT ").count();
+        assert!(objects >= texts, "{objects} text objects for {texts} texts");
+        assert!(c.contains(" Tf ") && c.contains("Tj"), "no text shown");
+    }
+}
+
+/// An independent PDF reader (poppler's `pdftotext`, where installed) reads the connection
+/// table back: the heading and every row's cells in order.
+#[test]
+fn pdftotext_reads_the_connection_table() {
+    let (d, w) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
+    let pdf = sheets_pdf(&pages_for(&d, Paper::A4, Window::Auto)).unwrap();
+    let dir = std::env::temp_dir().join(format!("armsheet-pdftotext-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let file = dir.join("sheets.pdf");
+    std::fs::write(&file, &pdf).unwrap();
+    let out = std::process::Command::new("pdftotext")
+        .args(["-layout", "-f", "2", "-l", "2"])
+        .arg(&file)
+        .arg("-")
+        .output();
+    let _ = std::fs::remove_dir_all(&dir);
+    let Ok(out) = out else {
+        eprintln!("pdftotext is not installed; the ToUnicode test above covers the text");
+        return;
+    };
+    assert!(out.status.success());
+    let text = String::from_utf8(out.stdout).unwrap();
+    assert!(
+        text.contains("Connection table: coils 1\u{2013}12 of 12"),
+        "{text}"
+    );
+    for c in &w.connections {
+        let row = format!("{} {} {}", c.coil, c.top.slot, c.bottom.slot);
+        let found = text
+            .lines()
+            .any(|l| l.split_whitespace().take(3).collect::<Vec<_>>().join(" ") == row);
+        assert!(found, "row {row} not read back:\n{text}");
     }
 }

@@ -8,8 +8,8 @@ use armsheet::layout::{Paper, Window};
 use sheet_support::*;
 
 fn check_design(name: &str, text: &str, paper: Paper) -> usize {
-    let (d, w) = load(name, text);
-    let sheets = sheets_for(&d, &w, paper, Window::Auto);
+    let (d, _) = load(name, text);
+    let sheets = sheets_for(&d, paper, Window::Auto);
     let (pw, ph) = paper.size_mm();
     for (i, svg) in sheets.iter().enumerate() {
         let tree = parse(svg);
@@ -111,8 +111,8 @@ fn fixture_sheets_render_on_every_paper() {
 #[test]
 fn the_screen_diagram_renders() {
     for name in ["sheet_lap.toml", "sheet_wave_dummy.toml"] {
-        let (d, w) = load(name, &fixture(name));
-        let svg = armsheet::render::svg::render_draw(&d, &w, Window::Auto);
+        let (d, _) = load(name, &fixture(name));
+        let svg = draw_svg(&d, Window::Auto);
         let tree = parse(&svg);
         let pm = render(&tree, 1.0);
         let ink = ink(&pm);

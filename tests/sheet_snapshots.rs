@@ -8,26 +8,23 @@ use sheet_support::*;
 
 #[test]
 fn lap_sheet_1() {
-    let (d, w) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
-    insta::assert_snapshot!(
-        "lap_sheet_1",
-        sheets_for(&d, &w, Paper::A4, Window::Auto)[0]
-    );
+    let (d, _) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
+    insta::assert_snapshot!("lap_sheet_1", sheets_for(&d, Paper::A4, Window::Auto)[0]);
 }
 
 #[test]
 fn wave_dummy_sheet_1() {
-    let (d, w) = load("sheet_wave_dummy.toml", &fixture("sheet_wave_dummy.toml"));
+    let (d, _) = load("sheet_wave_dummy.toml", &fixture("sheet_wave_dummy.toml"));
     insta::assert_snapshot!(
         "wave_dummy_sheet_1",
-        sheets_for(&d, &w, Paper::A4, Window::Auto)[0]
+        sheets_for(&d, Paper::A4, Window::Auto)[0]
     );
 }
 
 #[test]
 fn wave_dummy_draw() {
-    let (d, w) = load("sheet_wave_dummy.toml", &fixture("sheet_wave_dummy.toml"));
-    let svg = armsheet::render::svg::render_draw(&d, &w, Window::Auto);
+    let (d, _) = load("sheet_wave_dummy.toml", &fixture("sheet_wave_dummy.toml"));
+    let svg = draw_svg(&d, Window::Auto);
     assert!(!svg.contains("title-block"));
     assert!(svg.contains("width=\"1120px\""));
     insta::assert_snapshot!("wave_dummy_draw", svg);

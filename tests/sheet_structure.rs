@@ -8,7 +8,6 @@ use std::collections::BTreeMap;
 
 use armsheet::layout::{Paper, Window};
 use armsheet::render::csv::connections_csv;
-use armsheet::render::sheet::{SheetInput, render_sheets};
 use sheet_support::*;
 
 /// The text content of a one-line `<text …>content</text>` element.
@@ -24,7 +23,7 @@ fn text_content(line: &str) -> Option<&str> {
 
 fn diagram_checks(name: &str) {
     let (d, w) = load(name, &fixture(name));
-    let sheets = sheets_for(&d, &w, Paper::A4, Window::Auto);
+    let sheets = sheets_for(&d, Paper::A4, Window::Auto);
     let svg = &sheets[0];
     // Coil sides: one top and one bottom element per coil position.
     let tops = svg.matches("class=\"side-top\" data-slot").count();
@@ -100,8 +99,8 @@ fn diagram_checks(name: &str) {
 fn lap_diagram_structure() {
     diagram_checks("sheet_lap.toml");
     // The lap fixture fits all six equalizer rings, each joining p = 2 segments 6 apart.
-    let (d, w) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
-    let svg = &sheets_for(&d, &w, Paper::A4, Window::Auto)[0];
+    let (d, _) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
+    let svg = &sheets_for(&d, Paper::A4, Window::Auto)[0];
     let segs = attr_values(svg, "class=\"eq\"", "data-segs");
     assert_eq!(segs, ["1 7", "2 8", "3 9", "4 10", "5 11", "6 12"]);
 }
@@ -120,7 +119,7 @@ const BIG_LAP: &str = "[job]\nid = \"BIG-1056\"\n[armature]\npoles = 8\nslots = 
 fn a_1056_segment_table_reads_back_complete() {
     let (d, w) = load("big.toml", BIG_LAP);
     assert_eq!(w.active_coils, 1056);
-    let sheets = sheets_for(&d, &w, Paper::A4, Window::Auto);
+    let sheets = sheets_for(&d, Paper::A4, Window::Auto);
     let mut rows: Vec<Vec<String>> = Vec::new();
     let mut eq_rows = Vec::new();
     for svg in &sheets[1..] {
@@ -183,8 +182,8 @@ fn a_1056_segment_table_reads_back_complete() {
 
 #[test]
 fn a_large_armature_is_drawn_as_a_window_of_whole_pole_pairs() {
-    let (d, w) = load("big.toml", BIG_LAP);
-    let svg = &sheets_for(&d, &w, Paper::A4, Window::Auto)[0];
+    let (d, _) = load("big.toml", BIG_LAP);
+    let svg = &sheets_for(&d, Paper::A4, Window::Auto)[0];
     // 1,056 segments over 4 pole pairs: 264 a pair is already above the legibility limit,
     // so one pole pair (66 slots) is shown.
     assert!(svg.contains(
@@ -194,7 +193,6 @@ fn a_large_armature_is_drawn_as_a_window_of_whole_pole_pairs() {
     assert_eq!(tops, 66 * 4);
     let windowed = sheets_for(
         &d,
-        &w,
         Paper::A4,
         Window::PolePairs {
             pairs: 2,
@@ -206,7 +204,7 @@ fn a_large_armature_is_drawn_as_a_window_of_whole_pole_pairs() {
         windowed[0].matches("class=\"side-top\" data-slot").count(),
         132 * 4
     );
-    let whole = sheets_for(&d, &w, Paper::A4, Window::Whole);
+    let whole = sheets_for(&d, Paper::A4, Window::Whole);
     assert_eq!(
         whole[0].matches("class=\"side-top\" data-slot").count(),
         1056
@@ -217,7 +215,7 @@ fn a_large_armature_is_drawn_as_a_window_of_whole_pole_pairs() {
 fn hostile_job_text_is_escaped_everywhere() {
     let text = fixture("sheet_hostile.toml");
     let (d, w) = load("sheet_hostile.toml", &text);
-    let sheets = sheets_for(&d, &w, Paper::A4, Window::Auto);
+    let sheets = sheets_for(&d, Paper::A4, Window::Auto);
     for svg in &sheets {
         assert!(!svg.contains("<script>"));
         assert!(svg.contains("&lt;script&gt;alert(1)&lt;/script&gt; &amp; &quot;quoted&quot;"));
@@ -246,22 +244,25 @@ fn hostile_job_text_is_escaped_everywhere() {
 #[test]
 fn a_passing_design_has_no_band_and_output_is_byte_identical() {
     let (d, w) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
-    let a = sheets_for(&d, &w, Paper::A3, Window::Auto);
-    let b = sheets_for(&d, &w, Paper::A3, Window::Auto);
+    let a = sheets_for(&d, Paper::A3, Window::Auto);
+    let b = sheets_for(&d, Paper::A3, Window::Auto);
     assert_eq!(a, b);
     assert!(!a[0].contains("NOT FOR WINDING"));
     assert_eq!(connections_csv(&d, &w), connections_csv(&d, &w));
-    // Extra rows (e.g. a rating summary) go into the winding-data block.
-    let input = SheetInput {
-        design: &d,
-        winding: &w,
-        paper: Paper::A4,
-        window: Window::Auto,
-        failures: vec![],
-        extra_rows: vec![("armature R20".into(), "0.412 \u{3a9}".into())],
-        version: "x".into(),
-    };
-    let s = render_sheets(&input);
-    assert!(s[0].contains("data-key=\"armature R20\""));
-    assert!(s[0].contains(">0.412 \u{3a9}</text>"));
+}
+
+/// The rating's rows follow the design's in the winding-data block.
+#[test]
+fn the_rating_rows_go_into_the_data_block() {
+    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/designs/pump-wave.toml");
+    let (d, _) = load("pump-wave.toml", &std::fs::read_to_string(path).unwrap());
+    let checked = armsheet::check(d.clone());
+    let rows = armsheet::layout::sheet::rows::rating_sheet_rows(
+        checked.rating.as_ref().expect("a rating"),
+    );
+    assert!(!rows.is_empty());
+    let s = sheets_for(&d, Paper::A4, Window::Auto);
+    for (k, _) in &rows {
+        assert!(s[0].contains(&format!("data-key=\"{k}\"")), "row {k}");
+    }
 }

@@ -17,9 +17,8 @@ use super::Outcome;
 use super::error::CliError;
 use super::load::load_design;
 use super::output::{print_stdout, replace_folder, write_atomic};
-use crate::layout::{Paper, Window};
+use crate::layout::{Paper, SheetOptions, Window, draw_page, sheet_pages};
 use crate::render::json::report_json;
-use crate::render::sheet::{SheetInput, render_sheets};
 use crate::render::{csv, pdf, svg};
 
 /// How much of a large armature the diagram shows (`--window`).
@@ -131,29 +130,19 @@ fn stem(path: &Path) -> String {
 /// Runs `armsheet sheet`.
 pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
     let checked = load_design(&a.design)?;
-    let failures: Vec<String> = checked
-        .findings
-        .iter()
-        .filter(|f| f.is_failure())
-        .map(|f| format!("{}: {}", f.id, f.message))
-        .collect();
-    let input = SheetInput {
-        design: &checked.design,
-        winding: &checked.winding,
-        paper: a.paper,
-        window: a.window.window(),
-        failures,
-        extra_rows: checked
-            .rating
-            .as_ref()
-            .map_or_else(Vec::new, crate::render::rating_words::rating_sheet_rows),
-        version: env!("CARGO_PKG_VERSION").to_string(),
-    };
-    let sheets = render_sheets(&input);
+    let pages = sheet_pages(
+        &checked,
+        &SheetOptions {
+            paper: a.paper,
+            window: a.window.window(),
+            version: env!("CARGO_PKG_VERSION").to_string(),
+        },
+    );
+    let sheets: Vec<String> = pages.iter().map(svg::page_svg).collect();
     let dir = a.out.join(stem(&a.design));
     let mut files: Vec<(String, Vec<u8>)> = Vec::new();
     if a.pdf {
-        match pdf::sheets_pdf(&sheets) {
+        match pdf::sheets_pdf(&pages) {
             Ok(bytes) => files.push(("sheets.pdf".to_string(), bytes)),
             Err(e) => {
                 return Err(CliError::Pdf {
@@ -203,7 +192,7 @@ fn is_stale_sheet(name: &OsStr, count: usize) -> bool {
 /// Runs `armsheet draw`.
 pub fn draw(a: &DrawArgs) -> Result<Outcome, CliError> {
     let checked = load_design(&a.design)?;
-    let svg = svg::render_draw(&checked.design, &checked.winding, a.window.window());
+    let svg = svg::page_svg(&draw_page(&checked, a.window.window()));
     let path = a.out.clone().unwrap_or_else(|| {
         PathBuf::from("out")
             .join(stem(&a.design))

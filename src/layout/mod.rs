@@ -1,42 +1,40 @@
-//! `layout`: design and winding into drawing geometry, in millimetres, with no SVG strings.
+//! `layout`: every drawing and sheet resolved into a page tree, in millimetres.
 //!
-//! Fourth stage of the pipeline, between the pure engine and the renderers. [`developed`]
-//! unrolls the armature into a developed winding diagram; [`sheet`] places the frame, title
-//! block, blocks and paginated tables on a [`paper::Paper`]. Everything here is deterministic
-//! arithmetic on the engine's angles: no fonts are measured, text widths are estimated.
+//! Sixth stage of the pipeline, between the checks and the renderers: it takes a
+//! [`Checked`](crate::Checked) (design, traced winding, rating, findings) and options, and
+//! returns [`tree::Page`]s in which every item is placed, every look is named by a class of
+//! the one [`style`] table, and every text carries its face, anchor and width measured in the
+//! embedded font ([`font`]). All layout decisions live here: type sizes, fitting and cutting
+//! text to its box, wrapping, table columns and pagination, legend and label placement.
+//!
+//! ## The house
+//! - [`tree`]: the page tree ([`Page`], [`Node`](tree::Node): group, text, line, path, rect,
+//!   circle) that the renderers walk.
+//! - [`style`]: class name → stroke, fill, dash, face; written once, printed by the SVG
+//!   writer as the style sheet and resolved by the PDF writer.
+//! - [`font`]: the embedded DejaVu Sans and the text measurer (real advance widths).
+//! - [`developed`]: the developed winding diagram: view and strip mapping, bands, coils,
+//!   labels, equalizers, then [`developed::nodes`] turns that geometry into tree nodes.
+//! - [`sheet`]: the printed sheets ([`sheet_pages`]): page frame and pagination, title block,
+//!   data block, legend, caution box, tables. [`paper`] holds the paper sizes.
+//! - [`screen`]: the diagram alone for a screen ([`draw_page`]).
+//!
+//! ## Adding a drawing
+//! Write a function here that takes `&Checked` and options and returns a [`Page`] (or adds
+//! nodes to one), using the classes of [`style`] (add a rule there for a new look) and
+//! [`tree::Text::new`] for every text, so that it is measured. Nothing in `render` needs to
+//! change: `render::svg` and `render::pdf` only walk the tree.
 
 pub mod developed;
+pub mod font;
 pub mod paper;
+pub mod screen;
 pub mod sheet;
+pub mod style;
+pub mod tree;
 
 pub use developed::{Diagram, DiagramOptions, Window, layout_developed};
 pub use paper::Paper;
-
-/// Estimated advance width of `text` at `size` mm in DejaVu Sans (about 0.57 em a character on
-/// average for digits and lower case; generous so that text never overruns its box).
-pub fn text_width(text: &str, size: f64) -> f64 {
-    text.chars().count() as f64 * size * 0.57
-}
-
-/// Breaks `text` into lines of at most `width` mm at `size` mm, at spaces.
-pub fn wrap_text(text: &str, size: f64, width: f64) -> Vec<String> {
-    let mut lines = Vec::new();
-    let mut line = String::new();
-    for word in text.split_whitespace() {
-        let candidate = if line.is_empty() {
-            word.to_string()
-        } else {
-            format!("{line} {word}")
-        };
-        if text_width(&candidate, size) > width && !line.is_empty() {
-            lines.push(std::mem::take(&mut line));
-            line = word.to_string();
-        } else {
-            line = candidate;
-        }
-    }
-    if !line.is_empty() {
-        lines.push(line);
-    }
-    lines
-}
+pub use screen::draw_page;
+pub use sheet::{SheetOptions, sheet_pages};
+pub use tree::Page;

@@ -9,7 +9,7 @@
 use crate::design::Design;
 use crate::winding::Winding;
 
-use super::sheet_data::sequence_labels;
+use crate::layout::sheet::rows::sequence_labels;
 
 /// One CSV cell.
 enum Cell {

@@ -2,7 +2,14 @@
 //!
 //! Stage 7 of the pipeline. Renderers hold no winding logic: they format what the engine,
 //! the rating, the checks and the layout resolved, and word the rating's typed values
-//! ([`rating_words`]). Every number goes through [`crate::base::number`].
+//! ([`rating_words`]). Every number goes through the one number writer (`base::number`, and
+//! [`svg_writer::num`] for coordinates).
+//!
+//! The drawings are laid out by `layout` into a page tree (`layout::tree::Page`); the
+//! drawing renderers only walk that tree: [`svg`] writes each node as one element and the
+//! style table as the style sheet, [`pdf`] draws the same nodes with krilla, resolving
+//! their classes through the same style table. Neither measures, fits, wraps or places
+//! anything: a new drawing or a change of looks belongs in `layout`, not here.
 
 pub mod csv;
 pub mod json;
@@ -10,10 +17,7 @@ pub mod pdf;
 pub mod rating_json;
 pub mod rating_text;
 pub mod rating_words;
-pub mod report;
 pub mod rewind_text;
-pub mod sheet;
-pub mod sheet_data;
 pub mod svg;
 pub mod svg_writer;
 pub mod text;

@@ -5,7 +5,7 @@
 
 use std::fmt::Write;
 
-use super::report::CAUTIONS;
+use crate::base::caution::CAUTIONS;
 use crate::base::number::fmt_fixed;
 use crate::rating::conductor::{self, WireFamily};
 use crate::rating::rewind::{NoLoadTest, signed};

@@ -161,18 +161,6 @@ impl SvgWriter {
     }
 }
 
-/// Path data for a polyline.
-pub fn polyline_d(pts: &[(f64, f64)]) -> String {
-    let mut d = String::with_capacity(pts.len() * 14);
-    for (i, &(x, y)) in pts.iter().enumerate() {
-        d.push(if i == 0 { 'M' } else { 'L' });
-        d.push_str(&num(x));
-        d.push(' ');
-        d.push_str(&num(y));
-    }
-    d
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;

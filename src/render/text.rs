@@ -6,7 +6,7 @@
 
 use std::fmt::Write;
 
-use super::report::CAUTIONS;
+use crate::base::caution::CAUTIONS;
 use crate::base::number::fmt_fixed;
 use crate::base::{Finding, Severity};
 use crate::checks::Checked;

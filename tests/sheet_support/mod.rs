@@ -1,17 +1,17 @@
 //! Helpers shared by the sheet tests: build sheets from a fixture design, and render SVG with
-//! an independent SVG library (usvg/resvg) using the DejaVu fonts shipped as test fixtures, so
-//! the tests do not depend on the fonts of the machine.
+//! an independent SVG library (usvg/resvg) using the DejaVu fonts the binary embeds
+//! (`assets/fonts/`), so the tests do not depend on the fonts of the machine.
 #![allow(dead_code)]
 
 use std::sync::Arc;
 
-use armsheet::checks::run_checks;
 use armsheet::design::{Design, parse_design};
-use armsheet::layout::{Paper, Window};
-use armsheet::render::sheet::{SheetInput, render_sheets};
+use armsheet::layout::{Page, Paper, SheetOptions, Window, draw_page, sheet_pages};
+use armsheet::render::svg::page_svg;
 use armsheet::winding::{Winding, trace_winding};
 
 pub const FIXTURES: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures");
+pub const FONTS: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/assets/fonts");
 
 pub fn fixture(name: &str) -> String {
     std::fs::read_to_string(format!("{FIXTURES}/{name}")).unwrap()
@@ -23,29 +23,31 @@ pub fn load(name: &str, text: &str) -> (Design, Winding) {
     (d, w)
 }
 
-pub fn sheets_for(d: &Design, w: &Winding, paper: Paper, window: Window) -> Vec<String> {
-    let failures = run_checks(d, w)
-        .iter()
-        .filter(|f| f.is_failure())
-        .map(|f| f.id.clone())
-        .collect();
-    let input = SheetInput {
-        design: d,
-        winding: w,
+/// The page trees of every sheet of `d`.
+pub fn pages_for(d: &Design, paper: Paper, window: Window) -> Vec<Page> {
+    let options = SheetOptions {
         paper,
         window,
-        failures,
-        extra_rows: Vec::new(),
         version: "test".into(),
     };
-    render_sheets(&input)
+    sheet_pages(&armsheet::check(d.clone()), &options)
 }
 
-/// usvg options with only the fixture fonts, every generic family mapped to DejaVu Sans.
+/// Every sheet of `d` as SVG.
+pub fn sheets_for(d: &Design, paper: Paper, window: Window) -> Vec<String> {
+    pages_for(d, paper, window).iter().map(page_svg).collect()
+}
+
+/// The screen diagram of `d` as SVG.
+pub fn draw_svg(d: &Design, window: Window) -> String {
+    page_svg(&draw_page(&armsheet::check(d.clone()), window))
+}
+
+/// usvg options with only the embedded fonts, every generic family mapped to DejaVu Sans.
 pub fn usvg_options() -> resvg::usvg::Options<'static> {
     let mut db = resvg::usvg::fontdb::Database::new();
     for f in ["DejaVuSans.ttf", "DejaVuSans-Bold.ttf"] {
-        db.load_font_data(std::fs::read(format!("{FIXTURES}/fonts/{f}")).unwrap());
+        db.load_font_data(std::fs::read(format!("{FONTS}/{f}")).unwrap());
     }
     db.set_sans_serif_family("DejaVu Sans");
     db.set_serif_family("DejaVu Sans");

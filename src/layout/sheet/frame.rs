@@ -1,11 +1,11 @@
 //! Page geometry for printed sheets: frame, title block, blocks and table pagination.
 //!
 //! Part of the `layout` stage. Pure arithmetic in millimetres on the landscape page; the
-//! text that fills the blocks is chosen by `render::sheet`.
+//! blocks are filled by the sibling modules of `layout::sheet`.
 
 use std::ops::Range;
 
-use super::paper::Paper;
+use crate::layout::paper::Paper;
 
 /// Page margin on every side, mm (inside most printers' unprintable edge).
 pub const MARGIN: f64 = 10.0;

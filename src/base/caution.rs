@@ -1,6 +1,8 @@
-//! The shop cautions every report and sheet carries.
+//! The shop cautions every report and sheet carries, written once.
 //!
-//! Part of the `render` stage.
+//! Part of the `base` leaf: the text reports, the rewind report and the sheets all print this
+//! list. Rewinding and testing machines can hurt people; the wording defers to the applicable
+//! standard, local codes and licensed practice.
 
 /// The shop caution carried by every report and sheet.
 pub const CAUTIONS: [&str; 4] = [

@@ -1,0 +1,224 @@
+//! The coils of the developed diagram: sides, back end connections, leads and edge cuts.
+//!
+//! Part of the `layout` stage (the developed diagram). In the whole view a line cut at an
+//! edge re-enters at the other edge and both cuts carry the coil number; in a window the cut
+//! carries the slot or segment number it leads to.
+
+use crate::winding::{Connection, Winding};
+
+use super::Point;
+use super::bands::Bands;
+use super::view::Geo;
+
+/// A line that reaches an edge of the strip.
+#[derive(Clone, Debug, PartialEq)]
+pub struct EdgeCut {
+    /// Where the line meets the edge.
+    pub at: Point,
+    /// True at the right edge.
+    pub right: bool,
+    /// The label: the coil number in the whole view, else what lies beyond ("slot 23", "seg 45");
+    /// empty when there was no room for it beside its neighbours (the dot is still drawn).
+    pub label: String,
+    /// Baseline of the label, moved off its neighbours where needed.
+    pub label_y: f64,
+}
+
+/// A vertical coil side.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct SideLine {
+    /// x, mm.
+    pub x: f64,
+    /// Slot, 1…S.
+    pub slot: u32,
+    /// Position in the layer, 1…u.
+    pub position: u32,
+}
+
+/// Everything drawn for one coil position.
+#[derive(Clone, Debug, PartialEq)]
+pub struct CoilDrawing {
+    /// Coil position, 1…N.
+    pub coil: u32,
+    /// Wound but not connected.
+    pub dummy: bool,
+    /// Parallel path (1-based), 0 when shorted or dummy.
+    pub path: u32,
+    /// Current sense at the drawn instant: +1 up the top side, −1 down it, 0 none.
+    pub current: i8,
+    /// Segment of the start lead.
+    pub start_segment: Option<u32>,
+    /// Segment of the end lead.
+    pub end_segment: Option<u32>,
+    /// Top-layer side, when inside the strip.
+    pub top: Option<SideLine>,
+    /// Bottom-layer side, when inside the strip.
+    pub bottom: Option<SideLine>,
+    /// Back end connection pieces.
+    pub back: Vec<Vec<Point>>,
+    /// Start lead pieces (top side to start segment; a short cut stub for a dummy).
+    pub start_lead: Vec<Vec<Point>>,
+    /// End lead pieces (bottom side to end segment; a short cut stub for a dummy).
+    pub end_lead: Vec<Vec<Point>>,
+    /// Where this coil's lines meet an edge.
+    pub cuts: Vec<EdgeCut>,
+    /// Where the path tag goes (above the back apex), when the apex is inside.
+    pub tag: Option<Point>,
+}
+
+/// What the far end of a cut line is, for the window labels.
+pub(super) struct Ends {
+    pub(super) origin: String,
+    pub(super) destination: String,
+}
+
+pub(super) fn coil_drawing(
+    conn: &Connection,
+    winding: &Winding,
+    geo: &Geo,
+    bands: &Bands,
+    top_deg: f64,
+    bottom_deg: f64,
+) -> Option<CoilDrawing> {
+    let coil = conn.coil;
+    let xt = geo.x(top_deg);
+    let xb = xt + (bottom_deg - top_deg) * geo.scale;
+    let mut d = CoilDrawing {
+        coil,
+        dummy: conn.dummy,
+        path: winding.coil_path[(coil - 1) as usize],
+        current: winding.coil_current[(coil - 1) as usize],
+        start_segment: conn.start_segment,
+        end_segment: conn.end_segment,
+        top: None,
+        bottom: None,
+        back: Vec::new(),
+        start_lead: Vec::new(),
+        end_lead: Vec::new(),
+        cuts: Vec::new(),
+        tag: None,
+    };
+    for x in [xt, xt - geo.turn] {
+        if geo.inside(x) {
+            d.top = Some(SideLine {
+                x,
+                slot: conn.top.slot,
+                position: conn.top.position,
+            });
+        }
+    }
+    let bottoms = if geo.whole {
+        vec![xb, xb - geo.turn]
+    } else {
+        vec![xb]
+    };
+    for x in bottoms {
+        if geo.inside(x) {
+            d.bottom = Some(SideLine {
+                x,
+                slot: conn.bottom.slot,
+                position: conn.bottom.position,
+            });
+        }
+    }
+    let (ct, cb) = bands.core;
+    let xm = (xt + xb) / 2.0;
+    d.tag = [xm, xm - geo.turn, xm + geo.turn]
+        .into_iter()
+        .find(|&x| geo.inside(x))
+        .map(|x| (x, bands.back_apex - 0.6));
+    let coil_label = coil.to_string();
+    let top_slot = format!("slot {}", conn.top.slot);
+    let bottom_slot = format!("slot {}", conn.bottom.slot);
+
+    let back = [(xt, ct), (xm, bands.back_apex), (xb, ct)];
+    let ends = Ends {
+        origin: top_slot.clone(),
+        destination: bottom_slot.clone(),
+    };
+    d.back = add_pieces(geo, &back, &ends, &coil_label, &mut d.cuts);
+
+    let lead = |x_side: f64, seg: Option<u32>| -> Vec<Point> {
+        match seg {
+            Some(s) => {
+                let xs = geo.x(winding.segment_deg(s));
+                let dx = (xs - x_side).rem_euclid(geo.turn);
+                let dx = if dx > geo.turn / 2.0 {
+                    dx - geo.turn
+                } else {
+                    dx
+                };
+                vec![
+                    (x_side, cb),
+                    (x_side + dx, bands.riser),
+                    (x_side + dx, bands.commutator.0),
+                ]
+            }
+            None => vec![(x_side, cb), (x_side, cb + 3.0)],
+        }
+    };
+    let seg_name = |s: Option<u32>| s.map_or_else(|| "cut".to_string(), |s| format!("seg {s}"));
+    let start = lead(xt, conn.start_segment);
+    let ends = Ends {
+        origin: top_slot,
+        destination: seg_name(conn.start_segment),
+    };
+    d.start_lead = add_pieces(geo, &start, &ends, &coil_label, &mut d.cuts);
+    let end = lead(xb, conn.end_segment);
+    let ends = Ends {
+        origin: bottom_slot,
+        destination: seg_name(conn.end_segment),
+    };
+    d.end_lead = add_pieces(geo, &end, &ends, &coil_label, &mut d.cuts);
+
+    // A window shows the coils whose top side lies in it, each whole or cut at an edge.
+    let anything = if geo.whole {
+        d.top.is_some()
+            || d.bottom.is_some()
+            || !d.back.is_empty()
+            || !d.start_lead.is_empty()
+            || !d.end_lead.is_empty()
+    } else {
+        d.top.is_some()
+    };
+    anything.then_some(d)
+}
+
+pub(super) fn add_pieces(
+    geo: &Geo,
+    pts: &[Point],
+    ends: &Ends,
+    coil_label: &str,
+    cuts: &mut Vec<EdgeCut>,
+) -> Vec<Vec<Point>> {
+    let mut out = Vec::new();
+    for (piece, cut_start, cut_end) in geo.polyline(pts) {
+        let label = |far: &str| {
+            if geo.whole {
+                coil_label.to_string()
+            } else {
+                far.to_string()
+            }
+        };
+        if cut_start {
+            let at = piece[0];
+            cuts.push(EdgeCut {
+                at,
+                right: at.0 > (geo.strip.0 + geo.strip.1) / 2.0,
+                label: label(&ends.origin),
+                label_y: at.1 + 0.65,
+            });
+        }
+        if cut_end {
+            let at = piece[piece.len() - 1];
+            cuts.push(EdgeCut {
+                at,
+                right: at.0 > (geo.strip.0 + geo.strip.1) / 2.0,
+                label: label(&ends.destination),
+                label_y: at.1 + 0.65,
+            });
+        }
+        out.push(piece);
+    }
+    out
+}

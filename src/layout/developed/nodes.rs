@@ -1,0 +1,357 @@
+//! The developed diagram as page-tree nodes: the looks (classes, type sizes, label
+//! placement) of the geometry that the rest of `layout::developed` resolved.
+//!
+//! Part of the `layout` stage. Ids and data attributes come from the domain: `coil-12`
+//! (`data-coil`, `data-start-seg`, `data-end-seg`), `seg-7` (`data-seg`), `brush-1`, `eq-3`.
+
+use crate::design::Rotation;
+use crate::layout::font::{Weight, text_width};
+use crate::layout::style::{colour_class, dash_class};
+use crate::layout::tree::{Circle, Group, Line, Node, Path, PathOp, Rect, Text};
+use crate::winding::Polarity;
+
+use super::{Diagram, EqualizerBand};
+
+/// The size at most `max` mm at which the header's two texts, with four spaces between
+/// them, fill the strip.
+fn header_size(head: &str, note: &str, room: f64, max: f64) -> f64 {
+    let em = text_width(head, 1.0, Weight::Regular)
+        + text_width(note, 1.0, Weight::Bold)
+        + text_width("    ", 1.0, Weight::Regular);
+    max.min(room / em)
+}
+
+fn rect(class: &str, x: f64, y: f64, w: f64, h: f64) -> Node {
+    Rect::new(class, x, y, w, h).into()
+}
+
+fn join(v: &[u32]) -> String {
+    v.iter().map(u32::to_string).collect::<Vec<_>>().join(" ")
+}
+
+/// `diagram` as a `diagram` group with its top-left at (`x`, `y`).
+pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
+    let mut g = Group::id("diagram");
+    g.translate = Some((x, y));
+    let (x0, x1) = d.strip;
+    let b = &d.bands;
+    let ls = d.label_size;
+
+    // Header: rotation and what is shown. Slots are numbered clockwise seen from the
+    // commutator end and rise to the right here (the surface seen from outside, commutator
+    // at the bottom), so a clockwise rotor carries the surface towards rising slot numbers.
+    let (arrow, words) = match d.rotation {
+        Rotation::Clockwise => ("\u{2192}", "clockwise"),
+        Rotation::CounterClockwise => ("\u{2190}", "counter-clockwise"),
+    };
+    let head =
+        format!("armature surface moves {arrow}  (rotation {words}, seen from the commutator end)");
+    let v = &d.view;
+    let mut note = if v.whole {
+        "whole armature shown".to_string()
+    } else {
+        let last = (v.first_slot - 1 + v.slots - 1) % v.total_slots + 1;
+        let pairs = v.pole_pairs.unwrap_or(1);
+        format!(
+            "window: slots {}\u{2013}{} of {} ({} pole pair{})",
+            v.first_slot,
+            last,
+            v.total_slots,
+            pairs,
+            if pairs == 1 { "" } else { "s" }
+        )
+    };
+    match v.repeat_slots {
+        Some(r) => note.push_str(&format!(" \u{b7} pattern repeats every {r} slots")),
+        None if !v.whole => {
+            note.push_str(" \u{b7} pattern does not repeat exactly: see the connection table")
+        }
+        None => {}
+    }
+    if !v.whole {
+        note.push_str(" \u{b7} coils whose top side is in view are drawn");
+    }
+    let hs = header_size(&head, &note, x1 - x0, 2.6);
+    g.push(Text::new(x0, b.header, hs, "", head));
+    g.push(Text::new(x1, b.header, hs, "end b", note));
+
+    // Poles: shoes in their own row and a light shade over the slots.
+    let mut poles = Group::id("poles");
+    for p in &d.poles {
+        let (cls, shade) = if p.north {
+            ("pole-n", "shade-n")
+        } else {
+            ("pole-s", "shade-s")
+        };
+        let mut pg = Group::id(format!("pole-{}", p.index)).with_data("data-pole", p.index);
+        for &(a, bb) in &p.pieces {
+            pg.push(rect(cls, a, b.pole.0, bb - a, b.pole.1 - b.pole.0));
+            pg.push(rect("pole-edge", a, b.pole.0, bb - a, b.pole.1 - b.pole.0));
+            pg.push(rect(shade, a, b.core.0, bb - a, b.core.1 - b.core.0));
+        }
+        if let Some(ax) = p.axis_x {
+            let label = format!("{}{}", if p.north { "N" } else { "S" }, p.index);
+            pg.push(Text::new(ax, b.pole.1 - 1.4, 3.2, "mid b", label));
+        }
+        poles.push(pg);
+    }
+    g.push(poles);
+
+    // Slots and their numbers.
+    let mut slots = Group::id("slots");
+    slots.push(rect("core", x0, b.core.0, x1 - x0, b.core.1 - b.core.0));
+    // Slot numbers of up to three digits at about 0.6 em a digit.
+    let slot_font = (d.slot_pitch * 0.62 / 0.6 / 2.0).clamp(1.5, 2.4);
+    let slot_font = if d.slot_pitch < 3.0 * slot_font * 0.6 {
+        (d.slot_pitch / (3.0 * 0.6)).max(1.3)
+    } else {
+        slot_font
+    };
+    for &(_, sx) in &d.slots {
+        slots.push(rect(
+            "slot",
+            sx - d.slot_pitch * 0.4,
+            b.core.0,
+            d.slot_pitch * 0.8,
+            b.core.1 - b.core.0,
+        ));
+    }
+    g.push(slots);
+
+    // Coils.
+    let mut coils = Group::id("coils");
+    let arrow_h = (d.slot_pitch * 0.16).clamp(0.6, 1.4);
+    let ymid = (b.core.0 + b.core.1) / 2.0 + 1.0;
+    for c in &d.coils {
+        let k = colour_class(c.path);
+        let cls = if c.dummy {
+            "coil dead".to_string()
+        } else {
+            format!("coil k{k} d{}", dash_class(c.path))
+        };
+        let mut cg = Group::id(format!("coil-{}", c.coil))
+            .with_class(cls)
+            .with_data("data-coil", c.coil);
+        if let (Some(s), Some(e)) = (c.start_segment, c.end_segment) {
+            cg = cg
+                .with_data("data-start-seg", s)
+                .with_data("data-end-seg", e);
+        }
+        cg = cg.with_data("data-path", c.path);
+        if c.dummy {
+            cg = cg.with_data("data-dummy", "true");
+        }
+        for piece in &c.back {
+            let mut p = Path::polyline("conn", piece);
+            p.data.push(("data-part", "back".into()));
+            cg.push(p);
+        }
+        for (pieces, part) in [(&c.start_lead, "start"), (&c.end_lead, "end")] {
+            for piece in pieces {
+                let cls = if c.dummy { "stub" } else { "conn" };
+                let mut p = Path::polyline(cls, piece);
+                p.data.push(("data-part", part.into()));
+                cg.push(p);
+                if c.dummy
+                    && let Some(&(px, py)) = piece.last()
+                {
+                    // The cut end of a dummy's lead: a cross.
+                    let r = 0.8;
+                    let mut mark = Path::polyline("mark", &[]);
+                    mark.ops = vec![
+                        PathOp::Move(px - r, py - r),
+                        PathOp::Line(px + r, py + r),
+                        PathOp::Move(px - r, py + r),
+                        PathOp::Line(px + r, py - r),
+                    ];
+                    cg.push(mark);
+                }
+            }
+        }
+        for (side, cls, sense) in [(&c.top, "side-top", 1i8), (&c.bottom, "side-bot", -1i8)] {
+            let Some(s) = side else { continue };
+            let mut line = Line::new(cls, (s.x, b.core.0), (s.x, b.core.1));
+            line.data.push(("data-slot", s.slot.to_string()));
+            line.data.push(("data-pos", s.position.to_string()));
+            cg.push(line);
+            // Current: +1 runs up the top side (away from the commutator) and down the bottom.
+            let dir = i32::from(c.current) * i32::from(sense);
+            if dir != 0 && !c.dummy {
+                let (hx, hy) = (arrow_h * 0.75, arrow_h * f64::from(dir));
+                cg.push(Path::triangle(
+                    Some(&format!("arrow-head f{k}")),
+                    [
+                        (s.x, ymid - hy),
+                        (s.x - hx, ymid + hy),
+                        (s.x + hx, ymid + hy),
+                    ],
+                ));
+            }
+        }
+        if let Some((tx, ty)) = c.tag {
+            let (text, cls) = if c.dummy {
+                ("dead".to_string(), "mid halo".to_string())
+            } else if c.path == 0 {
+                ("sc".to_string(), "mid halo".to_string())
+            } else {
+                (c.path.to_string(), format!("mid halo b f{k}"))
+            };
+            cg.push(Text::new(tx, ty, ls, &cls, text));
+        }
+        for cut in &c.cuts {
+            cg.push(Circle::new("cutdot", cut.at.0, cut.at.1, 0.35));
+            if cut.label.is_empty() {
+                continue;
+            }
+            let (tx, cls) = if cut.right {
+                (cut.at.0 + 0.8, "cut-label")
+            } else {
+                (cut.at.0 - 0.8, "cut-label end")
+            };
+            cg.push(Text::new(tx, cut.label_y, 1.8, cls, cut.label.clone()));
+        }
+        coils.push(cg);
+    }
+    g.push(coils);
+
+    // Slot numbers, on top of the coil sides.
+    let mut numbers = Group::id("slot-numbers");
+    for &(slot, sx) in &d.slots {
+        numbers.push(
+            Text::new(sx, b.slot_labels, slot_font, "mid halo b", slot.to_string())
+                .with_data("data-slot", slot),
+        );
+    }
+    g.push(numbers);
+
+    // Commutator.
+    let mut comm = Group::id("commutator");
+    let (ct, cb) = b.commutator;
+    let seg_font = if d.turn_segment_labels {
+        (d.segment_pitch * 1.2).clamp(1.2, 2.2)
+    } else {
+        2.2_f64.min(ls + 0.3)
+    };
+    for s in &d.segments {
+        let mut sg = Group::id(format!("seg-{}", s.segment))
+            .with_class("seg")
+            .with_data("data-seg", s.segment);
+        for &(a, bb) in &s.pieces {
+            sg.push(rect("segbox", a, ct, bb - a, cb - ct));
+        }
+        let label = s.segment.to_string();
+        if d.turn_segment_labels {
+            let (lx, ly) = (s.label_x + seg_font * 0.36, cb - 0.6);
+            sg.push(Text::new(lx, ly, seg_font, "", label).rotated(-90.0));
+        } else {
+            sg.push(Text::new(
+                s.label_x,
+                (ct + cb) / 2.0 + seg_font * 0.36,
+                seg_font,
+                "mid",
+                label,
+            ));
+        }
+        comm.push(sg);
+    }
+    g.push(comm);
+
+    // Equalizers (drawn before the brushes so the brushes sit on top of the taps).
+    match &d.equalizers {
+        EqualizerBand::None => {}
+        EqualizerBand::Rings(rings) => {
+            let mut eg = Group::id("equalizers");
+            for e in rings {
+                let mut rg = Group::id(format!("eq-{}", e.index))
+                    .with_class("eq")
+                    .with_data("data-eq", e.index)
+                    .with_data("data-segs", join(&e.segments));
+                rg.push(Line::new("eqline", (x0, e.y), (x1, e.y)));
+                for &(_, tx) in &e.taps {
+                    rg.push(Line::new("eqtap", (tx, cb), (tx, e.y)));
+                    rg.push(Circle::new("eqdot", tx, e.y, 0.45));
+                }
+                rg.push(Text::new(
+                    x0 - 0.8,
+                    e.y + 0.6,
+                    1.8,
+                    "end",
+                    format!("E{}", e.index),
+                ));
+                eg.push(rg);
+            }
+            g.push(eg);
+        }
+        EqualizerBand::Taps(taps) => {
+            let mut eg = Group::id("equalizers");
+            let y = b.equalizer_rows.first().copied().unwrap_or(cb + 6.0);
+            eg.push(Text::new(x0 - 0.8, y + 0.6, 1.8, "end", "E"));
+            for e in taps.iter().filter(|e| !e.taps.is_empty()) {
+                let mut rg = Group::id(format!("eq-{}", e.index))
+                    .with_class("eq")
+                    .with_data("data-eq", e.index)
+                    .with_data("data-segs", join(&e.segments));
+                for &(_, tx) in &e.taps {
+                    rg.push(Line::new("eqtap", (tx, cb), (tx, y)));
+                    rg.push(Circle::new("eqdot", tx, y, 0.4));
+                    let (lx, ly) = (tx + 0.6, y + 1.0);
+                    rg.push(Text::new(lx, ly, 1.7, "", format!("E{}", e.index)).rotated(90.0));
+                }
+                eg.push(rg);
+            }
+            g.push(eg);
+        }
+    }
+
+    // Brushes.
+    let mut brushes = Group::id("brushes");
+    let (bt, bb) = b.brush;
+    for br in &d.brushes {
+        let (cls, sign) = match br.polarity {
+            Polarity::Positive => ("brushbox brush-pos", "+"),
+            Polarity::Negative => ("brushbox brush-neg", "\u{2212}"),
+        };
+        let mut bg = Group::id(format!("brush-{}", br.index))
+            .with_class("brush")
+            .with_data("data-brush", br.index)
+            .with_data("data-polarity", br.polarity.sign())
+            .with_data("data-segs", join(&br.under));
+        for &(a, z) in &br.pieces {
+            bg.push(rect(cls, a, bt, z - a, bb - bt));
+        }
+        let fill = if br.polarity == Polarity::Positive {
+            "mid b wt"
+        } else {
+            "mid b"
+        };
+        let wide = br.pieces.iter().map(|p| p.1 - p.0).fold(0.0, f64::max) > 4.2;
+        let label = if wide {
+            format!("B{}{sign}", br.index)
+        } else {
+            sign.to_string()
+        };
+        bg.push(Text::new(br.label_x, bb - 1.3, 2.6, fill, label));
+        if !wide {
+            bg.push(Text::new(
+                br.label_x,
+                bb + 2.6,
+                1.9,
+                "mid",
+                format!("B{}", br.index),
+            ));
+        }
+        brushes.push(bg);
+    }
+    g.push(brushes);
+
+    // Band names in the left gutter.
+    for (yy, name) in [
+        ((b.back_apex + b.core.0) / 2.0, "back"),
+        ((b.core.1 + b.commutator.0) / 2.0, "front"),
+    ] {
+        let mut t = Text::new(x0 - 5.5, yy, 2.0, "mid", name).rotated(-90.0);
+        t.fill = Some("#666");
+        g.push(t);
+    }
+    g
+}

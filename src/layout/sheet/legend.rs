@@ -1,0 +1,156 @@
+//! The legend of sheet 1: a sample and a line of words for every look the diagram uses.
+//!
+//! Part of the `layout` stage (the sheets).
+
+use crate::layout::style::{
+    DUMMY_DASH, DUMMY_GREY, INK, PATH_COLOURS, PATH_DASHES, SHORTED_GREY, colour_class, dash_class,
+};
+use crate::layout::tree::{self, Circle, Group, Line, Path, Text};
+use crate::winding::EqualizerPlan;
+
+use super::{Input, Rect, hline, text_fit};
+
+/// The legend in `r`; `whole` says whether the diagram shows the whole armature.
+pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
+    let mut g = Group::id("legend");
+    g.push(Text::new(r.x + 2.0, r.y + 5.0, 3.2, "b", "Legend"));
+    let x0 = r.x + 3.0;
+    let xs = x0 + 11.0;
+    let size = 2.3;
+    let line_h = 3.55;
+    let room = r.right() - xs - 1.5;
+    let text = |g: &mut Group, x: f64, y: f64, class: &str, s: &str| {
+        g.push(text_fit(x, y, size, room - (x - xs), class, s));
+    };
+    let mut y = r.y + 9.6;
+    let sample =
+        |g: &mut Group, y: f64, stroke: &'static str, class: &str, dash: &'static [f64]| {
+            let mut line = Line::new(class, (x0, y - 0.8), (x0 + 8.5, y - 0.8));
+            line.stroke = Some(stroke);
+            line.dash = (!dash.is_empty()).then_some(dash);
+            g.push(line);
+        };
+    sample(&mut g, y, INK, "side-top", &[]);
+    text(&mut g, xs, y, "", "top-layer coil side (start lead)");
+    y += line_h;
+    sample(&mut g, y, INK, "side-bot", &[]);
+    text(&mut g, xs, y, "", "bottom-layer coil side (end lead)");
+    y += line_h;
+    let (ax, ay) = (x0 + 4.2, y - 0.9);
+    let mut arrow = Path::triangle(
+        None,
+        [(ax, ay - 1.1), (ax - 0.9, ay + 1.0), (ax + 0.9, ay + 1.0)],
+    );
+    arrow.fill = Some(INK);
+    g.push(arrow);
+    text(&mut g, xs, y, "", "current at the drawn instant");
+    y += line_h;
+    let a = input.winding.paths.len();
+    let shown = a.min(4);
+    for p in input.winding.paths.iter().take(shown) {
+        let k = colour_class(p.index);
+        let dash = PATH_DASHES[dash_class(p.index) - 1];
+        sample(&mut g, y, PATH_COLOURS[k - 1], "conn", dash);
+        text(
+            &mut g,
+            x0 + 9.6,
+            y,
+            &format!("b f{k}"),
+            &p.index.to_string(),
+        );
+        text(
+            &mut g,
+            xs + 1.5,
+            y,
+            "",
+            &format!(
+                "path {}: brush {} to brush {}, {} coil{}",
+                p.index,
+                p.from_brush,
+                p.to_brush,
+                p.coils.len(),
+                if p.coils.len() == 1 { "" } else { "s" }
+            ),
+        );
+        y += line_h;
+    }
+    if a > shown {
+        text(
+            &mut g,
+            xs,
+            y,
+            "",
+            &format!(
+                "paths {}\u{2013}{}: colours and dashes repeat;",
+                shown + 1,
+                a
+            ),
+        );
+        y += line_h;
+        text(
+            &mut g,
+            xs,
+            y,
+            "",
+            "the number at each back end names the path",
+        );
+        y += line_h;
+    }
+    sample(&mut g, y, SHORTED_GREY, "conn", &[]);
+    text(
+        &mut g,
+        xs,
+        y,
+        "",
+        "grey, tag sc: shorted by a brush now (no current)",
+    );
+    y += line_h;
+    if !input.winding.dummy_coils.is_empty() {
+        sample(&mut g, y, DUMMY_GREY, "conn", DUMMY_DASH);
+        text(
+            &mut g,
+            xs,
+            y,
+            "",
+            "dummy coil: dead, ends cut and taped (\u{d7})",
+        );
+        y += line_h;
+    }
+    g.push(tree::Rect::new("brushbox brush-pos", x0, y - 2.6, 3.6, 2.6));
+    g.push(tree::Rect::new(
+        "brushbox brush-neg",
+        x0 + 4.8,
+        y - 2.6,
+        3.6,
+        2.6,
+    ));
+    text(
+        &mut g,
+        xs,
+        y,
+        "",
+        "brush: filled positive (+), open negative (\u{2212})",
+    );
+    y += line_h;
+    g.push(Circle::new("cutdot", x0 + 7.5, y - 0.8, 0.4));
+    g.push(hline(x0, x0 + 7.5, y - 0.8, "rule"));
+    let cut = if whole {
+        "edge: goes on at the other edge, same number"
+    } else {
+        "edge: leaves the window; label names its end"
+    };
+    text(&mut g, xs, y, "", cut);
+    y += line_h;
+    if matches!(&input.winding.equalizers, EqualizerPlan::Possible(e) if !e.groups.is_empty()) {
+        g.push(hline(x0, x0 + 8.5, y - 0.8, "eqline"));
+        g.push(Circle::new("eqdot", x0 + 4.2, y - 0.8, 0.45));
+        text(
+            &mut g,
+            xs,
+            y,
+            "",
+            "equalizer ring E n and its taps (see table)",
+        );
+    }
+    g
+}

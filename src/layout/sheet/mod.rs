@@ -1,0 +1,194 @@
+//! Printable winding sheets as page trees: sheet 1 is the developed diagram with the title
+//! block, the winding-data block, the legend, the numbering convention and the caution box;
+//! the sheets after it carry the connection table (with the winding sequence) and the
+//! equalizer table.
+//!
+//! Part of the `layout` stage: [`Checked`] in, one [`Page`] a sheet out. [`frame`] holds the
+//! page geometry and pagination; [`title`] the title block and the failure band; [`data`] the
+//! winding-data block; [`legend`] the legend; [`caution`] the caution box; [`table`] the
+//! tables. Pages are landscape and sized in millimetres. The date printed is the design's
+//! `[job] date`; the clock is never read.
+
+pub mod caution;
+pub mod data;
+pub mod frame;
+pub mod legend;
+pub mod rows;
+pub mod table;
+pub mod title;
+
+pub use frame::*;
+
+use crate::checks::Checked;
+use crate::design::Design;
+use crate::winding::{EqualizerPlan, Winding};
+
+use super::developed::{DiagramOptions, Window, layout_developed, nodes::diagram_group};
+use super::font::{cut_to_width, fit_size};
+use super::paper::Paper;
+use super::style::text_face;
+use super::tree::{self, Line, Node, Page, PageKind, PageUnit, Text};
+
+/// How the sheets are laid out.
+#[derive(Clone, Debug, PartialEq)]
+pub struct SheetOptions {
+    /// Paper size (`--paper`, default A4).
+    pub paper: Paper,
+    /// Diagram window (`--window`, default automatic).
+    pub window: Window,
+    /// The tool version printed in the title block (the CLI passes `CARGO_PKG_VERSION`).
+    pub version: String,
+}
+
+/// What the blocks are filled from.
+struct Input<'a> {
+    design: &'a Design,
+    winding: &'a Winding,
+    options: &'a SheetOptions,
+    /// Failed error-level checks, `id: message`; when any, every sheet carries the band.
+    failures: Vec<String>,
+    /// The winding-data rows after the design's own (the rating summary).
+    extra_rows: Vec<(String, String)>,
+}
+
+/// What one sheet shows.
+enum Content {
+    Diagram,
+    Connections(TablePage),
+    Equalizers(TablePage),
+}
+
+/// Lays out every sheet of `checked`, in order; `result[0]` is sheet 1.
+pub fn sheet_pages(checked: &Checked, options: &SheetOptions) -> Vec<Page> {
+    let input = Input {
+        design: &checked.design,
+        winding: &checked.winding,
+        options,
+        failures: checked
+            .findings
+            .iter()
+            .filter(|f| f.is_failure())
+            .map(|f| format!("{}: {}", f.id, f.message))
+            .collect(),
+        extra_rows: checked
+            .rating
+            .as_ref()
+            .map_or_else(Vec::new, rows::rating_sheet_rows),
+    };
+    let frame = page_frame(options.paper, !input.failures.is_empty());
+    let area = table::table_area(&frame);
+    let mut contents = vec![Content::Diagram];
+    let conn_w = table::connection_width(input.design.coils_per_slot);
+    for p in paginate(input.winding.connections.len(), conn_w, &area) {
+        contents.push(Content::Connections(p));
+    }
+    let groups = match &input.winding.equalizers {
+        EqualizerPlan::Possible(e) => e.groups.len(),
+        _ => 0,
+    };
+    if groups > 0 {
+        let eq_w = table::equalizer_width(input.design.pole_pairs(), area.w);
+        for p in paginate(groups, eq_w, &area) {
+            contents.push(Content::Equalizers(p));
+        }
+    }
+    let total = contents.len();
+    let seq = rows::sequence_labels(input.winding);
+    contents
+        .iter()
+        .enumerate()
+        .map(|(i, content)| {
+            let mut page = begin_page(&frame);
+            let (kind, title) = match content {
+                Content::Diagram => {
+                    diagram_sheet_blocks(&mut page.children, &input, &frame);
+                    (PageKind::Diagram, "developed winding diagram")
+                }
+                Content::Connections(p) => {
+                    table::connection_page(&mut page.children, &input, &frame, p, &seq);
+                    (PageKind::Connections, "connection table")
+                }
+                Content::Equalizers(p) => {
+                    table::equalizer_page(&mut page.children, &input, &frame, p, groups);
+                    (PageKind::Equalizers, "equalizer table")
+                }
+            };
+            if !matches!(content, Content::Diagram) {
+                page.children
+                    .push(caution::caution_box(&table::caution_rect(&frame), 2.3).into());
+            }
+            page.children
+                .push(title::title_block(&input, &frame, i + 1, total).into());
+            if let Some(band) = &frame.band {
+                page.children
+                    .push(title::failure_band(band, &input.failures).into());
+            }
+            page.kind = kind;
+            page.title = format!("sheet {} of {total}: {title}", i + 1);
+            page
+        })
+        .collect()
+}
+
+/// An empty sheet: white paper and the drawing frame.
+fn begin_page(frame: &PageFrame) -> Page {
+    let f = &frame.frame;
+    Page {
+        kind: PageKind::Diagram,
+        title: String::new(),
+        width_mm: frame.width,
+        height_mm: frame.height,
+        unit: PageUnit::Millimetres,
+        data: vec![("data-paper", frame.paper.as_str().to_string())],
+        children: vec![
+            tree::Rect::filled("#fff", 0.0, 0.0, frame.width, frame.height).into(),
+            rect("frame", f),
+        ],
+    }
+}
+
+/// Sheet 1: the diagram above, the data block, the legend and the caution box below.
+fn diagram_sheet_blocks(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFrame) {
+    let s = diagram_sheet(frame);
+    let diagram = layout_developed(
+        input.design,
+        input.winding,
+        &DiagramOptions {
+            width: s.diagram.w,
+            height: s.diagram.h,
+            window: input.options.window,
+        },
+    );
+    out.push(diagram_group(&diagram, s.diagram.x, s.diagram.y).into());
+    out.push(hline(frame.frame.x, frame.frame.right(), s.data.y, "rule"));
+    out.push(data::data_block(input, &s.data).into());
+    out.push(vline(s.legend.x, s.legend.y, s.legend.bottom(), "rule"));
+    out.push(legend::legend_block(input, &s.legend, diagram.view.whole).into());
+    out.push(vline(s.notes.x, s.notes.y, frame.frame.bottom(), "rule"));
+    let caution = Rect {
+        x: s.notes.x + 1.5,
+        y: s.notes.y + 1.5,
+        w: s.notes.w - 3.0,
+        h: s.notes.h - 3.0,
+    };
+    out.push(caution::caution_box(&caution, 2.2).into());
+}
+
+fn rect(class: &str, r: &Rect) -> Node {
+    tree::Rect::new(class, r.x, r.y, r.w, r.h).into()
+}
+
+fn hline(x0: f64, x1: f64, y: f64, class: &str) -> Node {
+    Line::new(class, (x0, y), (x1, y)).into()
+}
+
+fn vline(x: f64, y0: f64, y1: f64, class: &str) -> Node {
+    Line::new(class, (x, y0), (x, y1)).into()
+}
+
+/// `s` at (x, y), shrunk (down to 80 %) and then cut to fit `width` mm in its face.
+fn text_fit(x: f64, y: f64, size: f64, width: f64, class: &str, s: &str) -> Text {
+    let (weight, _) = text_face(class);
+    let sz = fit_size(s, size, weight, width);
+    Text::new(x, y, sz, class, cut_to_width(s, sz, weight, width))
+}

@@ -1,0 +1,270 @@
+//! The tables of the sheets after the first: the connection table (with the winding
+//! sequence) and the equalizer table, in column groups side by side, paginated.
+//!
+//! Part of the `layout` stage (the sheets).
+
+use crate::layout::font::{Weight, cut_to_width};
+use crate::layout::tree::{self, Group, Node, Text};
+use crate::winding::EqualizerPlan;
+
+use super::{Input, PageFrame, Rect, TABLE_FONT, TABLE_HEADER, TABLE_ROW, TablePage, hline};
+
+/// One column of a table.
+struct Column {
+    head: [&'static str; 2],
+    width: f64,
+}
+
+/// The connection-table columns; the position columns only when u > 1.
+fn connection_columns(u: u32) -> Vec<Column> {
+    // (heading, width in mm, shown only when u > 1)
+    const COLUMNS: [([&str; 2], f64, bool); 10] = [
+        (["coil", ""], 13.0, false),
+        (["top", "slot"], 12.0, false),
+        (["top", "pos"], 9.0, true),
+        (["bottom", "slot"], 14.0, false),
+        (["bot.", "pos"], 9.0, true),
+        (["start", "seg"], 12.0, false),
+        (["end", "seg"], 12.0, false),
+        (["seq", ""], 15.0, false),
+        (["path", ""], 11.0, false),
+        (["dummy", ""], 15.0, false),
+    ];
+    COLUMNS
+        .iter()
+        .filter(|(_, _, positions)| u > 1 || !positions)
+        .map(|&(head, width, _)| Column { head, width })
+        .collect()
+}
+
+/// Width of the connection table, mm.
+pub(super) fn connection_width(u: u32) -> f64 {
+    connection_columns(u).iter().map(|c| c.width).sum()
+}
+
+/// The equalizer-table columns: the list column is as wide as p numbers need (about 7
+/// digit widths each, a digit about 0.6 em), up to `max` mm.
+fn equalizer_columns(pole_pairs: u32, max: f64) -> Vec<Column> {
+    let list = (f64::from(pole_pairs) * 7.0 * 0.6 * TABLE_FONT).clamp(50.0, max - 13.0);
+    vec![
+        Column {
+            head: ["ring", ""],
+            width: 13.0,
+        },
+        Column {
+            head: ["segments joined", ""],
+            width: list,
+        },
+    ]
+}
+
+/// Width of the equalizer table, mm.
+pub(super) fn equalizer_width(pole_pairs: u32, max: f64) -> f64 {
+    equalizer_columns(pole_pairs, max)
+        .iter()
+        .map(|c| c.width)
+        .sum()
+}
+
+/// Where the tables go on a page.
+pub(super) fn table_area(frame: &PageFrame) -> Rect {
+    let c = &frame.content;
+    Rect {
+        x: c.x + 2.0,
+        y: c.y + 11.0,
+        w: c.w - 4.0,
+        h: c.h - 13.0,
+    }
+}
+
+/// The caution box of the table pages, left of the title block.
+pub(super) fn caution_rect(frame: &PageFrame) -> Rect {
+    let t = &frame.title_block;
+    Rect {
+        x: frame.frame.x + 2.0,
+        y: t.y + 2.0,
+        w: t.x - frame.frame.x - 6.0,
+        h: t.h - 4.0,
+    }
+}
+
+fn table_head(g: &mut Group, cols: &[Column], x: f64, y: f64) -> f64 {
+    let total: f64 = cols.iter().map(|c| c.width).sum();
+    let mut cx = x;
+    for (i, c) in cols.iter().enumerate() {
+        // Numbers are right-aligned under their heads; the equalizer list (a second column
+        // wider than any number) reads from the left.
+        let left = i > 0 && c.width > 40.0;
+        let (hx, cls) = if left {
+            (cx + 3.0, "b")
+        } else {
+            (cx + c.width - 1.5, "b end")
+        };
+        g.push(Text::new(hx, y + 3.6, TABLE_FONT * 0.86, cls, c.head[0]));
+        if !c.head[1].is_empty() {
+            g.push(Text::new(hx, y + 7.3, TABLE_FONT * 0.86, cls, c.head[1]));
+        }
+        cx += c.width;
+    }
+    g.push(hline(x, x + total, y + TABLE_HEADER - 0.3, "rule"));
+    total
+}
+
+/// A page of the connection table.
+pub(super) fn connection_page(
+    out: &mut Vec<Node>,
+    input: &Input<'_>,
+    frame: &PageFrame,
+    page: &TablePage,
+    seq: &[String],
+) {
+    let conns = &input.winding.connections;
+    let c = &frame.content;
+    let first = conns.get(page.rows.start).map_or(0, |r| r.coil);
+    let last = conns
+        .get(page.rows.end.saturating_sub(1))
+        .map_or(0, |r| r.coil);
+    out.push(
+        Text::new(
+            c.x + 2.0,
+            c.y + 6.5,
+            4.2,
+            "b",
+            format!(
+                "Connection table: coils {first}\u{2013}{last} of {}",
+                conns.len()
+            ),
+        )
+        .into(),
+    );
+    let hint = "start lead from the top-layer side, end lead from the bottom-layer side \u{b7} seq = order in the winding trace";
+    out.push(Text::new(c.right() - 2.0, c.y + 6.5, 2.4, "end", hint).into());
+    let u = input.design.coils_per_slot;
+    let cols = connection_columns(u);
+    let mut g = Group::id(format!("table-{}", page.rows.start + 1)).with_class("connection-table");
+    for (gx, rows) in &page.groups {
+        let total = table_head(&mut g, &cols, *gx, page.top);
+        for (i, r) in rows.clone().enumerate() {
+            let conn = &conns[r];
+            let y = page.top + TABLE_HEADER + (i as f64 + 1.0) * TABLE_ROW - 1.4;
+            if i % 2 == 1 {
+                g.push(tree::Rect::filled(
+                    "#f1f1f1",
+                    *gx,
+                    y - TABLE_ROW + 1.4,
+                    total,
+                    TABLE_ROW,
+                ));
+            }
+            let seg = |s: Option<u32>| s.map_or_else(|| "\u{2014}".to_string(), |s| s.to_string());
+            let path = input.winding.coil_path[(conn.coil - 1) as usize];
+            let mut cells = vec![conn.coil.to_string(), conn.top.slot.to_string()];
+            if u > 1 {
+                cells.push(conn.top.position.to_string());
+            }
+            cells.push(conn.bottom.slot.to_string());
+            if u > 1 {
+                cells.push(conn.bottom.position.to_string());
+            }
+            cells.push(seg(conn.start_segment));
+            cells.push(seg(conn.end_segment));
+            cells.push(seq[(conn.coil - 1) as usize].clone());
+            cells.push(if conn.dummy || path == 0 {
+                "\u{2013}".into()
+            } else {
+                path.to_string()
+            });
+            cells.push(if conn.dummy {
+                "DEAD".into()
+            } else {
+                String::new()
+            });
+            let mut row = Group::class("row").with_data("data-coil", conn.coil);
+            if let (Some(s), Some(e)) = (conn.start_segment, conn.end_segment) {
+                row = row
+                    .with_data("data-start-seg", s)
+                    .with_data("data-end-seg", e);
+            }
+            let mut cx = *gx;
+            for (j, (col, cell)) in cols.iter().zip(cells).enumerate() {
+                let cls = if j == 0 || col.head[0] == "dummy" {
+                    "b end"
+                } else {
+                    "end"
+                };
+                if !cell.is_empty() {
+                    row.push(Text::new(cx + col.width - 1.5, y, TABLE_FONT, cls, cell));
+                }
+                cx += col.width;
+            }
+            g.push(row);
+        }
+    }
+    out.push(g.into());
+}
+
+/// A page of the equalizer table (`total` rings in all).
+pub(super) fn equalizer_page(
+    out: &mut Vec<Node>,
+    input: &Input<'_>,
+    frame: &PageFrame,
+    page: &TablePage,
+    total: usize,
+) {
+    let EqualizerPlan::Possible(e) = &input.winding.equalizers else {
+        return;
+    };
+    let c = &frame.content;
+    out.push(
+        Text::new(
+            c.x + 2.0,
+            c.y + 6.5,
+            4.2,
+            "b",
+            format!(
+                "Equalizer table: rings {}\u{2013}{} of {total}",
+                page.rows.start + 1,
+                page.rows.end
+            ),
+        )
+        .into(),
+    );
+    let hint = format!(
+        "each ring joins {} segments {} apart (two pole pitches, 2C/P)",
+        input.design.pole_pairs(),
+        e.pitch
+    );
+    out.push(Text::new(c.right() - 2.0, c.y + 6.5, 2.4, "end", hint).into());
+    let cols = equalizer_columns(input.design.pole_pairs(), table_area(frame).w);
+    let mut g =
+        Group::id(format!("eq-table-{}", page.rows.start + 1)).with_class("equalizer-table");
+    for (gx, rows) in &page.groups {
+        table_head(&mut g, &cols, *gx, page.top);
+        for (i, r) in rows.clone().enumerate() {
+            let segs = &e.groups[r];
+            let y = page.top + TABLE_HEADER + (i as f64 + 1.0) * TABLE_ROW - 1.4;
+            let joined = segs
+                .iter()
+                .map(u32::to_string)
+                .collect::<Vec<_>>()
+                .join(" \u{b7} ");
+            let mut row = Group::class("row").with_data("data-eq", r + 1);
+            row.push(Text::new(
+                gx + cols[0].width - 1.5,
+                y,
+                TABLE_FONT,
+                "b end",
+                format!("E{}", r + 1),
+            ));
+            row.push(Text::new(
+                gx + cols[0].width + 3.0,
+                y,
+                TABLE_FONT,
+                "",
+                cut_to_width(&joined, TABLE_FONT, Weight::Regular, cols[1].width - 4.0),
+            ));
+            g.push(row);
+        }
+    }
+    out.push(g.into());
+}

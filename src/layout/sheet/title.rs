@@ -1,0 +1,113 @@
+//! The title block (job, title, customer, design file; sheet, date, paper, tool) and the
+//! "not for winding" band of a design that fails its checks.
+//!
+//! Part of the `layout` stage (the sheets).
+
+use crate::layout::font::{Weight, cut_to_width, text_width};
+use crate::layout::tree::{self, Group, Text};
+
+use super::{Input, PageFrame, Rect, hline, rect, text_fit, vline};
+
+/// The band across the top of every sheet of a design that fails an error-level check.
+pub(super) fn failure_band(band: &Rect, failures: &[String]) -> Group {
+    let mut g = Group::id("not-for-winding");
+    g.push(rect("band", band));
+    let lead = "NOT FOR WINDING: design fails checks";
+    g.push(Text::new(
+        band.x + 3.0,
+        band.y + 6.3,
+        4.4,
+        "band-text",
+        lead,
+    ));
+    let x = band.x + 6.0 + text_width(lead, 4.4, Weight::Bold);
+    let detail = failures.join("; ");
+    let detail = cut_to_width(&detail, 2.4, Weight::Bold, band.right() - x - 3.0);
+    g.push(Text::new(x, band.y + 5.9, 2.4, "band-text", detail));
+    g
+}
+
+/// The title block, bottom right, of sheet `n` of `total`.
+pub(super) fn title_block(input: &Input<'_>, frame: &PageFrame, n: usize, total: usize) -> Group {
+    let t = &frame.title_block;
+    let d = input.design;
+    let mut g = Group::id("title-block");
+    let mut back = tree::Rect::new("frame", t.x, t.y, t.w, t.h);
+    back.fill = Some("#fff");
+    g.push(back);
+    let split = t.x + t.w - 34.0;
+    g.push(vline(split, t.y, t.bottom(), "rule"));
+    let rows = [9.0, 6.0, 6.0, 6.0];
+    let mut y = t.y;
+    let none = "\u{2014}";
+    let left: [(&str, String, f64, &str); 4] = [
+        (
+            "job",
+            d.job.id.clone().unwrap_or_else(|| none.into()),
+            4.2,
+            "b",
+        ),
+        (
+            "title",
+            d.job.title.clone().unwrap_or_else(|| none.into()),
+            2.8,
+            "",
+        ),
+        (
+            "customer",
+            d.job.customer.clone().unwrap_or_else(|| none.into()),
+            2.8,
+            "",
+        ),
+        ("design file", d.file_name.clone(), 2.6, ""),
+    ];
+    let right: [(&str, String, f64, &str); 4] = [
+        ("sheet", format!("{n} of {total}"), 4.2, "b"),
+        (
+            "date",
+            d.job.date.clone().unwrap_or_else(|| none.into()),
+            2.8,
+            "",
+        ),
+        (
+            "paper",
+            format!("{} 1:1, mm", input.options.paper.label()),
+            2.8,
+            "",
+        ),
+        (
+            "tool",
+            format!("armsheet {}", input.options.version),
+            2.6,
+            "",
+        ),
+    ];
+    for (i, h) in rows.iter().enumerate() {
+        if i > 0 {
+            g.push(hline(t.x, t.right(), y, "rule"));
+        }
+        let base = y + h - 1.5;
+        let (cap, val, size, cls) = &left[i];
+        g.push(Text::new(t.x + 1.5, y + 2.3, 1.8, "", *cap));
+        g.push(text_fit(
+            t.x + 17.0,
+            base,
+            *size,
+            split - t.x - 18.5,
+            cls,
+            val,
+        ));
+        let (cap, val, size, cls) = &right[i];
+        g.push(Text::new(split + 1.5, y + 2.3, 1.8, "", *cap));
+        g.push(text_fit(
+            split + 10.0,
+            base,
+            *size,
+            t.right() - split - 11.0,
+            cls,
+            val,
+        ));
+        y += h;
+    }
+    g
+}

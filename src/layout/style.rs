@@ -1,0 +1,364 @@
+//! The style table: every class the pages use, resolved once into stroke, fill, dash and face.
+//!
+//! Part of the `layout` stage. The table is an ordered list of CSS-like rules; the SVG writer
+//! prints it as the pages' `<style>` sheet, and the PDF writer resolves an item's looks from
+//! it with the same cascade (later and more specific rules win over earlier ones, a rule wins
+//! over a look given on the element, everything else is inherited from the enclosing group).
+//! Paths are told apart three ways so that a greyscale print still separates them: a
+//! colour-blind-safe colour (the Okabe–Ito palette [src: Okabe & Ito, *Color Universal
+//! Design*, 2002/2008]), a dash pattern on the end connections, and the path number written
+//! at every coil's back end.
+
+use std::sync::OnceLock;
+
+use super::font::Weight;
+
+/// Path colours (Okabe–Ito, without yellow and black, which print poorly or clash with the
+/// drawing's black); path k takes `PATH_COLOURS[(k − 1) % 6]`.
+pub const PATH_COLOURS: [&str; 6] = [
+    "#0072B2", "#D55E00", "#009E73", "#CC79A7", "#E69F00", "#56B4E9",
+];
+
+/// Dash patterns of the end connections, mm (empty: solid); path k takes
+/// `PATH_DASHES[(k − 1) % 4]`.
+pub const PATH_DASHES: [&[f64]; 4] = [&[], &[2.4, 0.9], &[0.7, 0.7], &[2.4, 0.7, 0.7, 0.7]];
+
+/// Dash pattern of a dummy coil's connections, mm.
+pub const DUMMY_DASH: &[f64] = &[0.4, 0.6];
+
+/// Grey of coils under commutation (shorted by a brush at the drawn instant).
+pub const SHORTED_GREY: &str = "#505050";
+/// Grey of dummy coils.
+pub const DUMMY_GREY: &str = "#9a9a9a";
+/// The ink of lines and text.
+pub const INK: &str = "#111";
+
+/// The colour class number (1…6) of path `path` (1-based); 0 for no path.
+pub fn colour_class(path: u32) -> usize {
+    if path == 0 {
+        0
+    } else {
+        (path as usize - 1) % PATH_COLOURS.len() + 1
+    }
+}
+
+/// The dash class number (1…4) of path `path` (1-based).
+pub fn dash_class(path: u32) -> usize {
+    if path == 0 {
+        1
+    } else {
+        (path as usize - 1) % PATH_DASHES.len() + 1
+    }
+}
+
+/// Where a text stands on its anchor point.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+pub enum Anchor {
+    /// Starts at x.
+    #[default]
+    Start,
+    /// Centred on x.
+    Middle,
+    /// Ends at x.
+    End,
+}
+
+/// What a rule applies to.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Selector {
+    /// Every text.
+    Text,
+    /// Items of a class.
+    Class(String),
+    /// Items of the second class inside a group of the first.
+    Inside(String, String),
+}
+
+impl Selector {
+    fn specificity(&self) -> u32 {
+        match self {
+            Selector::Text => 1,
+            Selector::Class(_) => 10,
+            Selector::Inside(..) => 20,
+        }
+    }
+}
+
+/// One look.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Decl {
+    /// The sheets' typeface (DejaVu Sans, embedded).
+    FontFamily,
+    /// Fill colour, or none.
+    Fill(Option<&'static str>),
+    /// Stroke colour, or none.
+    Stroke(Option<&'static str>),
+    /// Stroke width, mm.
+    StrokeWidth(f64),
+    /// Dash pattern, mm (empty: solid).
+    Dash(&'static [f64]),
+    /// Round line ends.
+    RoundCap,
+    /// Round line joins.
+    RoundJoin,
+    /// The stroke is painted under the fill (a halo round text).
+    StrokeUnder,
+    /// Bold face.
+    Bold,
+    /// Text anchor.
+    Anchor(Anchor),
+}
+
+/// A rule: selectors (any of them) and the looks they give.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Rule {
+    /// The selectors.
+    pub selectors: Vec<Selector>,
+    /// The looks.
+    pub decls: Vec<Decl>,
+}
+
+fn rule(selectors: &[&str], decls: Vec<Decl>) -> Rule {
+    let selectors = selectors
+        .iter()
+        .map(|s| match s.split_once(' ') {
+            _ if *s == "text" => Selector::Text,
+            Some((a, b)) => Selector::Inside(a.to_string(), b.to_string()),
+            None => Selector::Class(s.to_string()),
+        })
+        .collect();
+    Rule { selectors, decls }
+}
+
+/// The style table, in cascade order.
+pub fn style_table() -> &'static [Rule] {
+    static TABLE: OnceLock<Vec<Rule>> = OnceLock::new();
+    TABLE.get_or_init(build_table)
+}
+
+fn build_table() -> Vec<Rule> {
+    use Decl::*;
+    let none = |c: fn(Option<&'static str>) -> Decl| c(None);
+    let mut t = vec![
+        rule(&["text"], vec![FontFamily, Fill(Some(INK)), none(Stroke)]),
+        rule(
+            &["halo"],
+            vec![
+                StrokeUnder,
+                Stroke(Some("#fff")),
+                StrokeWidth(0.55),
+                RoundJoin,
+            ],
+        ),
+        rule(
+            &["side-top", "side-bot", "conn", "stub"],
+            vec![none(Fill), RoundCap, RoundJoin],
+        ),
+        rule(&["side-top"], vec![StrokeWidth(0.5)]),
+        rule(&["side-bot"], vec![StrokeWidth(0.5), Dash(&[1.1, 0.7])]),
+        rule(&["conn"], vec![StrokeWidth(0.3)]),
+        rule(&["stub"], vec![StrokeWidth(0.3)]),
+        rule(&["k0"], vec![Stroke(Some(SHORTED_GREY))]),
+        rule(&["dead"], vec![Stroke(Some(DUMMY_GREY))]),
+        rule(&["dead conn", "dead stub"], vec![Dash(DUMMY_DASH)]),
+        rule(&["pole-n"], vec![Fill(Some("#f2dcd3"))]),
+        rule(&["pole-s"], vec![Fill(Some("#d8e4ef"))]),
+        rule(&["shade-n"], vec![Fill(Some("#f9efeb"))]),
+        rule(&["shade-s"], vec![Fill(Some("#edf3f8"))]),
+        rule(
+            &["pole-edge"],
+            vec![none(Fill), Stroke(Some("#555")), StrokeWidth(0.2)],
+        ),
+        rule(
+            &["core"],
+            vec![none(Fill), Stroke(Some("#777")), StrokeWidth(0.2)],
+        ),
+        rule(
+            &["slot"],
+            vec![none(Fill), Stroke(Some("#c4c4c4")), StrokeWidth(0.15)],
+        ),
+        rule(
+            &["segbox"],
+            vec![
+                Fill(Some("#f4efe2")),
+                Stroke(Some("#3a3a3a")),
+                StrokeWidth(0.2),
+            ],
+        ),
+        rule(&["brushbox"], vec![Stroke(Some(INK)), StrokeWidth(0.3)]),
+        rule(&["brush-pos"], vec![Fill(Some(INK))]),
+        rule(&["brush-neg"], vec![Fill(Some("#fff"))]),
+        rule(
+            &["eqline"],
+            vec![none(Fill), Stroke(Some("#6b4b2a")), StrokeWidth(0.35)],
+        ),
+        rule(
+            &["eqtap"],
+            vec![none(Fill), Stroke(Some("#6b4b2a")), StrokeWidth(0.2)],
+        ),
+        rule(&["eqdot"], vec![Fill(Some("#6b4b2a"))]),
+        rule(&["cutdot"], vec![Fill(Some(INK)), none(Stroke)]),
+        rule(&["arrow-head"], vec![none(Stroke)]),
+        rule(
+            &["mark"],
+            vec![none(Fill), Stroke(Some(INK)), StrokeWidth(0.3)],
+        ),
+        rule(
+            &["frame"],
+            vec![none(Fill), Stroke(Some(INK)), StrokeWidth(0.5)],
+        ),
+        rule(
+            &["rule"],
+            vec![none(Fill), Stroke(Some(INK)), StrokeWidth(0.25)],
+        ),
+        rule(
+            &["thin"],
+            vec![none(Fill), Stroke(Some("#999")), StrokeWidth(0.15)],
+        ),
+        rule(&["band"], vec![Fill(Some(INK))]),
+        rule(&["band-text"], vec![Fill(Some("#fff")), Bold]),
+        rule(
+            &["caution"],
+            vec![Fill(Some("#fff8e6")), Stroke(Some(INK)), StrokeWidth(0.35)],
+        ),
+        rule(&["wt"], vec![Fill(Some("#fff"))]),
+        rule(&["cut-label"], vec![Fill(Some("#222"))]),
+        rule(&["b"], vec![Bold]),
+        rule(&["end"], vec![Anchor(self::Anchor::End)]),
+        rule(&["mid"], vec![Anchor(self::Anchor::Middle)]),
+    ];
+    for (i, c) in PATH_COLOURS.iter().enumerate() {
+        t.push(rule(&[&format!("k{}", i + 1)], vec![Stroke(Some(c))]));
+        t.push(rule(&[&format!("f{}", i + 1)], vec![Fill(Some(c))]));
+    }
+    for (i, d) in PATH_DASHES.iter().enumerate() {
+        t.push(rule(&[&format!("d{} conn", i + 1)], vec![Dash(d)]));
+    }
+    t
+}
+
+/// The looks of one item, after the cascade.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Resolved {
+    /// Fill colour (`#rgb` or `#rrggbb`), or none.
+    pub fill: Option<&'static str>,
+    /// Stroke colour, or none.
+    pub stroke: Option<&'static str>,
+    /// Stroke width, mm.
+    pub stroke_width: f64,
+    /// Dash pattern, mm (empty: solid).
+    pub dash: &'static [f64],
+    /// Round line ends.
+    pub round_cap: bool,
+    /// Round line joins.
+    pub round_join: bool,
+    /// Stroke painted under the fill.
+    pub stroke_under: bool,
+    /// The face.
+    pub weight: Weight,
+    /// The text anchor.
+    pub anchor: Anchor,
+}
+
+impl Default for Resolved {
+    /// The initial looks: black fill, no stroke, 1 mm stroke width, regular face.
+    fn default() -> Resolved {
+        Resolved {
+            fill: Some("#000"),
+            stroke: None,
+            stroke_width: 1.0,
+            dash: &[],
+            round_cap: false,
+            round_join: false,
+            stroke_under: false,
+            weight: Weight::Regular,
+            anchor: Anchor::Start,
+        }
+    }
+}
+
+impl Resolved {
+    fn apply(&mut self, d: &Decl) {
+        match d {
+            Decl::FontFamily => {}
+            Decl::Fill(c) => self.fill = *c,
+            Decl::Stroke(c) => self.stroke = *c,
+            Decl::StrokeWidth(w) => self.stroke_width = *w,
+            Decl::Dash(a) => self.dash = a,
+            Decl::RoundCap => self.round_cap = true,
+            Decl::RoundJoin => self.round_join = true,
+            Decl::StrokeUnder => self.stroke_under = true,
+            Decl::Bold => self.weight = Weight::Bold,
+            Decl::Anchor(a) => self.anchor = *a,
+        }
+    }
+}
+
+/// The looks of an item with classes `class` (space-separated), inside groups whose classes
+/// are `outer`, given the looks `inherited` from its group and the looks `own` set on the
+/// element itself.
+pub fn resolve(
+    inherited: &Resolved,
+    is_text: bool,
+    class: &str,
+    outer: &[&str],
+    own: &[Decl],
+) -> Resolved {
+    let mut out = inherited.clone();
+    for d in own {
+        out.apply(d);
+    }
+    let mine: Vec<&str> = class.split_whitespace().collect();
+    let mut hits: Vec<(u32, usize, &Rule)> = Vec::new();
+    for (order, r) in style_table().iter().enumerate() {
+        let spec = r
+            .selectors
+            .iter()
+            .filter(|s| match s {
+                Selector::Text => is_text,
+                Selector::Class(c) => mine.contains(&c.as_str()),
+                Selector::Inside(a, c) => mine.contains(&c.as_str()) && outer.contains(&a.as_str()),
+            })
+            .map(Selector::specificity)
+            .max();
+        if let Some(spec) = spec {
+            hits.push((spec, order, r));
+        }
+    }
+    hits.sort_by_key(|h| (h.0, h.1));
+    for (_, _, r) in hits {
+        for d in &r.decls {
+            out.apply(d);
+        }
+    }
+    out
+}
+
+/// The face and anchor a text of classes `class` takes.
+pub fn text_face(class: &str) -> (Weight, Anchor) {
+    let r = resolve(&Resolved::default(), true, class, &[], &[]);
+    (r.weight, r.anchor)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_cascade_follows_specificity_then_order() {
+        let base = Resolved::default();
+        let coil = resolve(&base, false, "coil dead", &[], &[]);
+        assert_eq!(coil.stroke, Some(DUMMY_GREY));
+        let conn = resolve(&coil, false, "conn", &["coil", "dead"], &[]);
+        assert_eq!(conn.dash, DUMMY_DASH);
+        assert_eq!(conn.stroke, Some(DUMMY_GREY));
+        assert_eq!(conn.stroke_width, 0.3);
+        assert_eq!(conn.fill, None);
+        // A rule beats a fill given on the element.
+        let t = resolve(&base, true, "mid", &[], &[Decl::Fill(Some("#666"))]);
+        assert_eq!(t.fill, Some(INK));
+        assert_eq!(t.anchor, Anchor::Middle);
+        assert_eq!(text_face("b end"), (Weight::Bold, Anchor::End));
+        assert_eq!(text_face(""), (Weight::Regular, Anchor::Start));
+    }
+}
