@@ -59,9 +59,9 @@ pub struct Currents {
     pub armature_a: f64,
     /// I/a, A.
     pub per_path_a: f64,
-    /// 2I/P (P brush arms), A.
+    /// Current per brush arm (one brush set each), 2I/(brush sets), A.
     pub per_brush_arm_a: f64,
-    /// Brush arms carrying it (brush sets fitted).
+    /// Brush arms carrying it: one per brush set fitted.
     pub brush_arms: u32,
     /// (I/a)/A_c, A/mm², when the conductor is known.
     pub density_a_mm2: Option<f64>,

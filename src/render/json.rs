@@ -15,7 +15,7 @@ use crate::checks::Checked;
 use crate::design::{Job, SpanSource};
 use crate::theory::words::span_shop;
 use crate::winding::{
-    Brush, ClosedWinding, Connection, EqualizerPlan, Equalizers, ParallelPath, PathBalance,
+    BrushSet, ClosedWinding, Connection, EqualizerPlan, Equalizers, ParallelPath, PathBalance,
 };
 
 use super::rating_json::RatingJson;
@@ -42,7 +42,7 @@ struct ReportJson<'a> {
     brush_sets: u32,
     brush_sets_minimum: u32,
     #[serde(serialize_with = "brushes")]
-    brushes: &'a [Brush],
+    brushes: &'a [BrushSet],
     #[serde(serialize_with = "findings")]
     checks: &'a [Finding],
     coils: u32,
@@ -252,7 +252,7 @@ struct BrushJson<'a> {
     under: &'a [u32],
 }
 
-fn brushes<S: Serializer>(b: &&[Brush], s: S) -> Result<S::Ok, S::Error> {
+fn brushes<S: Serializer>(b: &&[BrushSet], s: S) -> Result<S::Ok, S::Error> {
     s.collect_seq(b.iter().map(|b| BrushJson {
         angle_deg: round_to(b.angle_deg, 4),
         centre_segment: round_to(b.centre_segment, 4),

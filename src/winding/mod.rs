@@ -193,7 +193,7 @@ fn connect(d: &Design, c: u32, yc: i64, dummies: &[u32]) -> Vec<Connection> {
         .collect()
 }
 
-fn make_brush(d: &Design, s: &BrushSpot, sign0: i64, c: u32, units: i64, mark: &[i32]) -> Brush {
+fn make_brush(d: &Design, s: &BrushSpot, sign0: i64, c: u32, units: i64, mark: &[i32]) -> BrushSet {
     let ci = i64::from(c);
     let centre = s.centre.rem_euclid(units * ci);
     let under = if centre % units == 0 {
@@ -207,7 +207,7 @@ fn make_brush(d: &Design, s: &BrushSpot, sign0: i64, c: u32, units: i64, mark: &
     } else {
         -sign0
     };
-    Brush {
+    BrushSet {
         index: s.pole as u32 + 1,
         polarity: if sign > 0 {
             Polarity::Positive

@@ -71,26 +71,32 @@ impl Polarity {
     }
 }
 
-/// A brush set, one per pole.
+/// A brush set: the brushes at one place round the commutator, carried by one brush arm and
+/// all of one polarity; one set by each pole.
+///
+/// The words, one meaning each: a *brush* is one carbon (its width, in segment pitches, is the
+/// brush width); a *brush set* is the brushes at one place, which the report names B1…BP; a
+/// *brush arm* (stud) carries one brush set, so the current per brush arm is the current per
+/// set.
 #[derive(Clone, Debug, PartialEq)]
-pub struct Brush {
-    /// 1…P; brush k sits by the axis of pole k.
+pub struct BrushSet {
+    /// 1…P; set k sits by the axis of pole k.
     pub index: u32,
     /// Polarity, from the EMF of the paths it collects.
     pub polarity: Polarity,
-    /// Mechanical angle of the brush centre from the axis of pole 1, degrees, towards rising
+    /// Mechanical angle of the set's centre from the axis of pole 1, degrees, towards rising
     /// slot numbers: (k−1)·360/P + lead_offset·360/C.
     pub angle_deg: f64,
     /// Brush centre in segment numbers at the reference position (e.g. 1.5 = on the mica
     /// between segments 1 and 2).
     pub centre_segment: f64,
-    /// The segment (or the two segments) under the brush centre at the reference position.
+    /// The segment (or the two segments) under the set's centre at the reference position.
     pub under: Vec<u32>,
     /// Segments touched in the engine's contact model (brush m segments wide).
     pub contacts: Vec<u32>,
 }
 
-/// A parallel path: a run of coils between brushes of opposite polarity.
+/// A parallel path: a run of coils between brush sets of opposite polarity.
 #[derive(Clone, Debug, PartialEq)]
 pub struct ParallelPath {
     /// 1…a, in the order found (by closed winding, then along the trace).
@@ -177,8 +183,8 @@ pub struct Winding {
     pub connections: Vec<Connection>,
     /// Closed windings found by the trace.
     pub closed_windings: Vec<ClosedWinding>,
-    /// Brush sets (P of them).
-    pub brushes: Vec<Brush>,
+    /// The brush sets fitted (P of them).
+    pub brushes: Vec<BrushSet>,
     /// Fewest brush sets that work: lap P, wave 2.
     pub brush_sets_minimum: u32,
     /// Parallel paths found by the trace at the reference position.
