@@ -131,7 +131,7 @@ fn a_shop_limit_can_pass_what_the_default_fails() {
         matches!(
             r.advice_for("rating.segment-volts-average"),
             Some(Advice::MoreSegments {
-                c_min: 61,
+                c_min: Some(61),
                 now: 36,
                 slots: 36,
                 ..
@@ -228,14 +228,15 @@ fn a_misspelt_limit_key_is_refused_with_the_nearest_key_or_the_list() {
     );
     // Each key sets its own limit and no other.
     for spec in &LIMITS {
+        let value = spec.default * 7.5;
         let d = parse_design(
-            &format!("{BASE}\n[limits]\n{} = 12345\n", spec.key),
+            &format!("{BASE}\n[limits]\n{} = {value}\n", spec.key),
             "t.toml",
         )
         .unwrap();
         for other in &LIMITS {
             let want = if other.key == spec.key {
-                12345.0
+                value
             } else {
                 other.default
             };

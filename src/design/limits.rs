@@ -6,6 +6,11 @@
 //! resolved [`Limits`] values, the rating checks (`rating::limits`) and the rewritten design
 //! file (`rating::design_toml`) all read this table; nothing else lists the limits.
 //!
+//! A shop may move a limit to anywhere from 1/[`LIMIT_RANGE_FACTOR`] to
+//! [`LIMIT_RANGE_FACTOR`] times its default ([`LimitSpec::accepted`]); the reader refuses any
+//! other value with a located error naming the key and the range, so an absurd limit (a brush
+//! arm current of 10^-7 A, say) never reaches the rating's arithmetic.
+//!
 //! To add a limit: add a [`LimitId`] variant and its row in [`LIMITS`] at the same index (a
 //! compile-time assertion checks the order), a check in `rating::run_checks`, and the key to
 //! the README's `[limits]` row and to `src/cli/starter.toml` (a test checks both).
@@ -48,6 +53,21 @@ pub enum LimitId {
     BrushWidthMax,
     /// `electric_loading_max_a_m`.
     ElectricLoadingMax,
+}
+
+/// How far a shop limit may move from its default, either way: a factor of 1000 keeps every
+/// real shop's choice and refuses typing slips and absurd values.
+pub const LIMIT_RANGE_FACTOR: f64 = 1000.0;
+
+impl LimitSpec {
+    /// The values `[limits]` accepts for this key, inclusive: the default divided and
+    /// multiplied by [`LIMIT_RANGE_FACTOR`].
+    pub fn accepted(&self) -> (f64, f64) {
+        (
+            self.default / LIMIT_RANGE_FACTOR,
+            self.default * LIMIT_RANGE_FACTOR,
+        )
+    }
 }
 
 impl LimitId {

@@ -60,8 +60,8 @@ pub enum Advice {
     /// Path current too high: reconnect for more paths. `options` is empty when no lap or wave
     /// connection up to the largest multiplicity gives `need` paths.
     MorePaths {
-        /// Paths needed.
-        need: u32,
+        /// Paths needed; `None` when the count does not fit in a `u32`.
+        need: Option<u32>,
         /// Poles P.
         poles: u32,
         /// The connections that give enough paths.
@@ -69,8 +69,9 @@ pub enum Advice {
     },
     /// Segment voltage too high: more segments.
     MoreSegments {
-        /// Fewest segments that keep the voltage within its limit.
-        c_min: u32,
+        /// Fewest segments that keep the voltage within its limit; `None` when the count does
+        /// not fit in a `u32`.
+        c_min: Option<u32>,
         /// Segments now.
         now: u32,
         /// Slots S.
@@ -127,8 +128,9 @@ pub enum Advice {
     BrushArm {
         /// Poles P.
         poles: u32,
-        /// Brush arms needed (even, more than the poles).
-        arms: u32,
+        /// Brush arms needed (even, more than the poles); `None` when the count does not fit
+        /// in a `u32`.
+        arms: Option<u32>,
         /// Highest armature current on the present arms, A.
         max_current_a: f64,
     },
@@ -209,18 +211,25 @@ pub struct WirePick {
 /// More paths for a path current above `limit`: lap instead of wave, or a higher multiplicity.
 pub fn more_paths(m: &Machine<'_>, current: f64, limit: f64) -> Advice {
     let d = m.design;
-    let need = super::commutator::ceil_u32(current / limit).max(1);
+    let need = super::commutator::ceil_count(current / limit).map(|n| n.max(1));
     let mut options = Vec::new();
+    let Some(need_n) = need else {
+        return Advice::MorePaths {
+            need,
+            poles: d.poles,
+            options,
+        };
+    };
     if d.winding_type == WindingType::Wave
         && let Some(k) = (d.multiplicity..=bounds::MAX_MULTIPLICITY as u32)
             .filter_map(|mm| connect(d, m.segments, WindingType::Lap, mm).ok())
-            .find(|k| k.paths >= need)
+            .find(|k| k.paths >= need_n)
     {
         options.push(m.path_option(PathRoute::LapInsteadOfWave, k, current));
     }
     if let Some(k) = (d.multiplicity + 1..=bounds::MAX_MULTIPLICITY as u32)
         .filter_map(|mm| connect(d, m.segments, d.winding_type, mm).ok())
-        .find(|k| k.paths >= need)
+        .find(|k| k.paths >= need_n)
     {
         options.push(m.path_option(PathRoute::HigherMultiplicity, k, current));
     }
@@ -231,16 +240,19 @@ pub fn more_paths(m: &Machine<'_>, current: f64, limit: f64) -> Advice {
     }
 }
 
-/// More segments for a segment voltage above its limit: at least `c_min`.
-pub fn more_segments(m: &Machine<'_>, c_min: u32) -> Advice {
+/// More segments for a segment voltage above its limit: at least `c_min` (`None`: more than a
+/// `u32` counts, so no coils-per-slot count reaches it).
+pub fn more_segments(m: &Machine<'_>, c_min: Option<u32>) -> Advice {
     let d = m.design;
     let s = d.slots;
-    let first_u = c_min.div_ceil(s).max(d.coils_per_slot + 1);
-    let found = (first_u..=bounds::MAX_COILS_PER_SLOT as u32).find_map(|u| {
-        let mut dd = d.clone();
-        dd.coils_per_slot = u;
-        let k = connect(&dd, 0, d.winding_type, d.multiplicity).ok()?;
-        (k.segments >= c_min).then_some((u, k))
+    let found = c_min.and_then(|c_min| {
+        let first_u = c_min.div_ceil(s).max(d.coils_per_slot + 1);
+        (first_u..=bounds::MAX_COILS_PER_SLOT as u32).find_map(|u| {
+            let mut dd = d.clone();
+            dd.coils_per_slot = u;
+            let k = connect(&dd, 0, d.winding_type, d.multiplicity).ok()?;
+            (k.segments >= c_min).then_some((u, k))
+        })
     });
     let option = found.map(|(u, k)| {
         let t = m.turns_for(k.paths, k.segments);
@@ -350,11 +362,13 @@ pub fn brush_width(pitch_mm: Option<f64>, min: f64, max: f64) -> Advice {
 
 /// More brush arms (poles) or less current for a brush-arm current above `limit`.
 pub fn brush_arm(current: f64, poles: u32, limit: f64) -> Advice {
-    let arms = super::commutator::ceil_u32(2.0 * current / limit);
-    let arms = arms + arms % 2;
+    // Checked: a tiny limit gives a count beyond u32, and rounding it up to even must not wrap.
+    let arms = super::commutator::ceil_count(2.0 * current / limit)
+        .and_then(|a| a.checked_add(a % 2))
+        .and_then(|a| Some(a.max(poles.checked_add(2)?)));
     Advice::BrushArm {
         poles,
-        arms: arms.max(poles + 2),
+        arms,
         max_current_a: limit * f64::from(poles) / 2.0,
     }
 }
@@ -375,4 +389,37 @@ pub struct CheckAdvice {
     pub id: &'static str,
     /// The remedy.
     pub advice: Advice,
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn arms(current: f64, poles: u32, limit: f64) -> Option<u32> {
+        match brush_arm(current, poles, limit) {
+            Advice::BrushArm { arms, .. } => arms,
+            other => panic!("{other:?}"),
+        }
+    }
+
+    #[test]
+    fn brush_arms_round_up_to_even_and_never_wrap() {
+        // 2 * 900 / 100 = 18 arms; 2 * 950 / 100 = 19 -> 20; at least P + 2.
+        assert_eq!(arms(900.0, 4, 100.0), Some(18));
+        assert_eq!(arms(950.0, 4, 100.0), Some(20));
+        assert_eq!(arms(100.0, 12, 400.0), Some(14));
+        // u32::MAX arms (odd) cannot be rounded up to even in a u32, and 2e10 is no u32.
+        let odd_max = 2.0 * 1000.0 / f64::from(u32::MAX);
+        assert_eq!(arms(1000.0 * (1.0 - 1e-12), 4, odd_max), None);
+        assert_eq!(arms(1000.0, 4, 1e-7), None);
+        assert!(
+            Advice::BrushArm {
+                poles: 4,
+                arms: None,
+                max_current_a: 0.0
+            }
+            .words()[0]
+                .contains("more brush arms (poles) than can be counted")
+        );
+    }
 }

@@ -20,8 +20,12 @@ impl Advice {
                 options,
             } => {
                 if options.is_empty() {
+                    let need = need.map_or_else(
+                        || "more than can be counted".to_string(),
+                        |n| format!("at least {n}"),
+                    );
                     return vec![format!(
-                        "more paths: at least {need} are needed, which no lap or wave connection up to multiplicity {} gives on {poles} poles",
+                        "more paths: {need} are needed, which no lap or wave connection up to multiplicity {} gives on {poles} poles",
                         bounds::MAX_MULTIPLICITY
                     )];
                 }
@@ -33,11 +37,18 @@ impl Advice {
                 slots,
                 option,
             } => vec![
-                format!("more segments: at least {c_min} (now {now})"),
-                match option {
-                    Some(o) => segment_option(o, *slots),
-                    None => format!(
-                        "no coils-per-slot count up to {} on {slots} slots reaches {c_min} segments",
+                match c_min {
+                    Some(c) => format!("more segments: at least {c} (now {now})"),
+                    None => format!("more segments: more than can be counted (now {now})"),
+                },
+                match (option, c_min) {
+                    (Some(o), _) => segment_option(o, *slots),
+                    (None, Some(c)) => format!(
+                        "no coils-per-slot count up to {} on {slots} slots reaches {c} segments",
+                        bounds::MAX_COILS_PER_SLOT
+                    ),
+                    (None, None) => format!(
+                        "no coils-per-slot count up to {} on {slots} slots comes near",
                         bounds::MAX_COILS_PER_SLOT
                     ),
                 },
@@ -119,10 +130,16 @@ impl Advice {
                 poles,
                 arms,
                 max_current_a,
-            } => vec![format!(
-                "the arm current 2I/P is set by the current and the {poles} poles: it needs {arms} brush arms (poles), or at most {} A armature current",
-                fmt_fixed(*max_current_a, 1)
-            )],
+            } => {
+                let arms = arms.map_or_else(
+                    || "more brush arms (poles) than can be counted".to_string(),
+                    |a| format!("{a} brush arms (poles)"),
+                );
+                vec![format!(
+                    "the arm current 2I/P is set by the current and the {poles} poles: it needs {arms}, or at most {} A armature current",
+                    fmt_fixed(*max_current_a, 1)
+                )]
+            }
             Advice::ElectricLoading {
                 min_diameter_mm,
                 max_current_a,

@@ -15,10 +15,12 @@ pub struct SegmentVoltage {
     pub peak_v: f64,
     /// The pole-arc ratio used.
     pub pole_arc: f64,
-    /// Fewest segments that keep the average within its limit: ⌈E·P/limit⌉.
-    pub c_min_average: u32,
-    /// Fewest segments that keep the estimated peak within its limit: ⌈E·P/(arc·limit)⌉.
-    pub c_min_peak: u32,
+    /// Fewest segments that keep the average within its limit: ⌈E·P/limit⌉; `None` when that
+    /// count is beyond `u32` (no commutator has that many).
+    pub c_min_average: Option<u32>,
+    /// Fewest segments that keep the estimated peak within its limit: ⌈E·P/(arc·limit)⌉;
+    /// `None` as for `c_min_average`.
+    pub c_min_peak: Option<u32>,
 }
 
 /// Average and peak segment voltage for EMF `e`, `poles`, `segments`, and the limits.
@@ -36,16 +38,22 @@ pub fn segment_voltage(
         average_v,
         peak_v: average_v / pole_arc,
         pole_arc,
-        c_min_average: ceil_u32(ep / avg_max),
-        c_min_peak: ceil_u32(ep / (pole_arc * peak_max)),
+        c_min_average: ceil_count(ep / avg_max),
+        c_min_peak: ceil_count(ep / (pole_arc * peak_max)),
     }
 }
 
-/// ⌈x⌉ as a count, with a tiny tolerance so 30.000000001 stays 30.
-pub(crate) fn ceil_u32(x: f64) -> u32 {
+/// ⌈x⌉ as a count, with a tiny tolerance so 30.000000001 stays 30; 0 for x ≤ 0, and `None`
+/// when x is not a number or the count does not fit in a `u32` (never a clamped, plausible
+/// looking but wrong count).
+pub(crate) fn ceil_count(x: f64) -> Option<u32> {
     let r = x.round();
     let c = if (x - r).abs() < 1e-9 { r } else { x.ceil() };
-    c.clamp(0.0, f64::from(u32::MAX)) as u32
+    if c.is_nan() || c > f64::from(u32::MAX) {
+        None
+    } else {
+        Some(c.max(0.0) as u32)
+    }
 }
 
 /// The commutator and brushes.
@@ -116,12 +124,14 @@ pub fn coils_shorted(beta: f64, kind: WindingType, m: u32, p: u32) -> (u32, u32)
     } else {
         (beta.floor(), beta.ceil())
     };
-    let touch_lo = lo as i64 + 1;
-    let touch_hi = hi as i64 + 1;
-    let per = |k: i64| (k - i64::from(m)).max(0) as u32;
+    // The design stage bounds the brush width in segment pitches, so these counts are small;
+    // the arithmetic still saturates rather than wrap on any input.
+    let touch_lo = (lo as i64).saturating_add(1);
+    let touch_hi = (hi as i64).saturating_add(1);
+    let per = |k: i64| u32::try_from(k.saturating_sub(i64::from(m)).max(0)).unwrap_or(u32::MAX);
     let (fewest, most) = (per(touch_lo), per(touch_hi));
     let gap = kind.kind().coils_per_gap(p);
-    (fewest * gap, most * gap)
+    (fewest.saturating_mul(gap), most.saturating_mul(gap))
 }
 
 #[cfg(test)]
@@ -132,8 +142,21 @@ mod tests {
     fn segment_voltage_and_minimum_bars() {
         let s = segment_voltage(450.0, 6, 150, 0.7, 15.0, 30.0);
         assert!((s.average_v - 18.0).abs() < 1e-12);
-        assert_eq!(s.c_min_average, 180);
-        assert_eq!(s.c_min_peak, 129); // 2700 / 21 = 128.57
+        assert_eq!(s.c_min_average, Some(180));
+        assert_eq!(s.c_min_peak, Some(129)); // 2700 / 21 = 128.57
+    }
+
+    #[test]
+    fn counts_beyond_u32_are_none_not_clamped() {
+        assert_eq!(ceil_count(30.000000001), Some(30));
+        assert_eq!(ceil_count(30.2), Some(31));
+        assert_eq!(ceil_count(-3.0), Some(0));
+        assert_eq!(ceil_count(f64::from(u32::MAX)), Some(u32::MAX));
+        assert_eq!(ceil_count(f64::from(u32::MAX) + 1.0), None);
+        assert_eq!(ceil_count(f64::INFINITY), None);
+        assert_eq!(ceil_count(f64::NAN), None);
+        let s = segment_voltage(1e5, 96, 150, 0.7, 1e-9, 1e-9);
+        assert_eq!((s.c_min_average, s.c_min_peak), (None, None));
     }
 
     #[test]

@@ -364,10 +364,10 @@ fn check_limits(d: &Design, r: &RatingReport) -> (Vec<RatingCheck>, Vec<CheckAdv
     let com = r.commutator.as_ref();
     let i = cur.map_or(0.0, |c| c.armature_a);
     push(rules::SEGMENT_VOLTS_AVG, sv.map(|s| s.average_v), &|_| {
-        advice::more_segments(&m, sv.map_or(0, |s| s.c_min_average))
+        advice::more_segments(&m, sv.and_then(|s| s.c_min_average))
     });
     push(rules::SEGMENT_VOLTS_PEAK, sv.map(|s| s.peak_v), &|_| {
-        advice::more_segments(&m, sv.map_or(0, |s| s.c_min_peak))
+        advice::more_segments(&m, sv.and_then(|s| s.c_min_peak))
     });
     push(rules::PATH_CURRENT, cur.map(|c| c.per_path_a), &|c| {
         advice::more_paths(&m, i, c.limit)

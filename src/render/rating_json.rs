@@ -154,8 +154,8 @@ impl From<&Emf> for EmfJson {
 #[derive(Serialize)]
 struct SegmentVoltageJson {
     average_v: f64,
-    c_min_average: u32,
-    c_min_peak: u32,
+    c_min_average: Option<u32>,
+    c_min_peak: Option<u32>,
     peak_v: f64,
     pole_arc: f64,
 }

@@ -158,7 +158,8 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
             "",
             format!(
                 "C_min {} for the average limit, {} for the peak limit",
-                v.c_min_average, v.c_min_peak
+                count(v.c_min_average),
+                count(v.c_min_peak)
             ),
         );
     }
@@ -298,4 +299,9 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
             let _ = writeln!(s, "    - {}", note(n));
         }
     }
+}
+
+/// A count, or words for one beyond `u32`.
+fn count(n: Option<u32>) -> String {
+    n.map_or_else(|| "beyond counting".to_string(), |n| n.to_string())
 }
