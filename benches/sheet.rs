@@ -44,7 +44,7 @@ fn sheet_bytes(text: &str, pdf: bool) -> usize {
     };
     let pages = sheet_pages(&checked, &options);
     let mut n: usize = pages.iter().map(|p| page_svg(p).len()).sum();
-    n += connections_csv(&checked.design, &checked.winding).len();
+    n += connections_csv(&checked.winding).len();
     n += report_json(&checked).len();
     if pdf {
         n += sheets_pdf(&pages).unwrap().len();

@@ -42,6 +42,7 @@ fn sheet_writes_every_file_and_says_so() {
         "sheet-2.svg",
         "sheet-3.svg",
         "connections.csv",
+        "job.csv",
         "report.json",
         "sheets.pdf",
     ];
@@ -110,8 +111,13 @@ fn a_failing_design_still_draws_and_exits_1() {
     assert!(out.contains("wrote ./sheet_hostile/sheet-1.svg"));
     let svg = std::fs::read_to_string(dir.join("sheet_hostile/sheet-1.svg")).unwrap();
     assert!(svg.contains("NOT FOR WINDING: design fails checks"));
+    let job = std::fs::read_to_string(dir.join("sheet_hostile/job.csv")).unwrap();
+    assert!(job.lines().nth(1).unwrap().starts_with("\"'=HYPERLINK("));
     let csv = std::fs::read_to_string(dir.join("sheet_hostile/connections.csv")).unwrap();
-    assert!(csv.lines().nth(1).unwrap().starts_with("\"'=HYPERLINK("));
+    assert!(
+        !csv.contains("HYPERLINK"),
+        "the job is not repeated on the rows"
+    );
 }
 
 #[test]

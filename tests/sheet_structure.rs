@@ -7,7 +7,7 @@ mod sheet_support;
 use std::collections::BTreeMap;
 
 use armsheet::layout::{Paper, Window};
-use armsheet::render::csv::connections_csv;
+use armsheet::render::csv::{connections_csv, job_csv};
 use sheet_support::*;
 
 /// The text content of a one-line `<text …>content</text>` element.
@@ -227,12 +227,15 @@ fn hostile_job_text_is_escaped_everywhere() {
     for svg in &sheets {
         assert!(svg.contains("NOT FOR WINDING: design fails checks"));
     }
-    let csv = connections_csv(&d, &w);
-    let first = csv.lines().nth(1).unwrap();
+    let job = job_csv(&d);
+    let first = job.lines().nth(1).unwrap();
     assert!(
-        first.starts_with("\"'=HYPERLINK(\"\"http://x\"\")\",1,"),
+        first.starts_with("\"'=HYPERLINK(\"\"http://x\"\")\","),
         "{first}"
     );
+    assert_eq!(job.lines().count(), 2);
+    let csv = connections_csv(&w);
+    assert!(csv.lines().nth(1).unwrap().starts_with("1,"));
     assert!(csv.ends_with("\r\n"));
     assert_eq!(csv.lines().count(), 1 + w.connections.len());
     // Numbers stay numbers: the current column keeps its sign, unquoted.
@@ -248,7 +251,7 @@ fn a_passing_design_has_no_band_and_output_is_byte_identical() {
     let b = sheets_for(&d, Paper::A3, Window::Auto);
     assert_eq!(a, b);
     assert!(!a[0].contains("NOT FOR WINDING"));
-    assert_eq!(connections_csv(&d, &w), connections_csv(&d, &w));
+    assert_eq!(connections_csv(&w), connections_csv(&w));
 }
 
 /// The rating's rows follow the design's in the winding-data block.

@@ -112,9 +112,10 @@ pub struct DrawArgs {
 pub(crate) const SHEET_HELP: &str = "\
 Writes into DIR/<design-stem>/: sheet-1.svg (developed diagram, title block, winding data,
 legend, caution), sheet-2.svg … (connection table with the winding sequence, then the
-equalizer table), connections.csv, report.json (the `check --json` object) and, with --pdf,
-sheets.pdf. Sheets are sized in mm and print at true scale. A design that fails a check is
-still drawn, under a NOT FOR WINDING band.
+equalizer table), connections.csv (one record per coil position), job.csv (the job they
+belong to, once), report.json (the `check --json` object) and, with --pdf, sheets.pdf.
+Sheets are sized in mm and print at true scale. A design that fails a check is still drawn,
+under a NOT FOR WINDING band.
 The set is written whole or not at all: it is made in a temporary folder beside DIR/<design-stem>
 and then swapped into place; other files already in that folder are kept.
 Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
@@ -160,7 +161,11 @@ pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
         .collect();
     all.push((
         "connections.csv".to_string(),
-        csv::connections_csv(&checked.design, &checked.winding).into_bytes(),
+        csv::connections_csv(&checked.winding).into_bytes(),
+    ));
+    all.push((
+        "job.csv".to_string(),
+        csv::job_csv(&checked.design).into_bytes(),
     ));
     all.push((
         "report.json".to_string(),

@@ -148,7 +148,7 @@ mod tests {
 
     #[test]
     fn counts_beyond_u32_are_none_not_clamped() {
-        assert_eq!(ceil_count(30.000000001), Some(30));
+        assert_eq!(ceil_count(30.0000000001), Some(30));
         assert_eq!(ceil_count(30.2), Some(31));
         assert_eq!(ceil_count(-3.0), Some(0));
         assert_eq!(ceil_count(f64::from(u32::MAX)), Some(u32::MAX));

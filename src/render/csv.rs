@@ -1,10 +1,21 @@
-//! `connections.csv`: the connection table for a spreadsheet (RFC 4180).
+//! `connections.csv` and `job.csv`: the connection table and the job it belongs to, for a
+//! spreadsheet (RFC 4180).
 //!
 //! Part of the `render` stage. Records end in CRLF, fields holding a comma, a quote or a line
 //! break are quoted with inner quotes doubled [src: RFC 4180, *Common Format and MIME Type for
-//! CSV Files*, section 2]. A text cell starting with `=`, `+`, `-` or `@` (or a tab or carriage
-//! return) is prefixed with a single quote, so that a spreadsheet shows it instead of running
-//! it as a formula [src: OWASP, *CSV Injection*]. Numeric cells are written as numbers.
+//! CSV Files*, section 2]. A text cell that starts with `=`, `+`, `-` or `@`, also after any
+//! leading whitespace or control characters (space, no-break space, tab, CR, line feed …), or
+//! that starts with a tab or a carriage return, is prefixed with a single quote, so that a
+//! spreadsheet shows it instead of running it as a formula [src: OWASP, *CSV Injection*].
+//! Numeric cells, the numbers the writer makes itself (a negative current, say), are written as
+//! numbers and never prefixed.
+//!
+//! The job is written once, in its own two-record file `job.csv` ([`JOB_COLUMNS`]), not on
+//! every connection row: repeating a long job id on each of thousands of rows multiplied the
+//! table's size by the id's length. Every record of an RFC 4180 file has the same fields, so
+//! the job is neither a leading comment nor a differently shaped first record of
+//! `connections.csv`; to combine the tables of several jobs, join each `connections.csv` with
+//! its `job.csv`.
 
 use crate::design::Design;
 use crate::winding::Winding;
@@ -17,10 +28,20 @@ enum Cell {
     Text(String),
 }
 
-/// Quotes and neutralises one field.
+/// Whether a spreadsheet could take the text cell `s` for a formula: it starts with a formula
+/// character, or with a tab or carriage return, or with a formula character once leading
+/// whitespace and control characters are skipped.
+fn looks_like_formula(s: &str) -> bool {
+    const FORMULA: [char; 4] = ['=', '+', '-', '@'];
+    s.starts_with(['\t', '\r'])
+        || s.trim_start_matches(|c: char| c.is_whitespace() || c.is_control())
+            .starts_with(FORMULA)
+}
+
+/// Quotes and neutralises one text field.
 pub fn csv_text(s: &str) -> String {
     let mut t = String::with_capacity(s.len() + 2);
-    if s.starts_with(['=', '+', '-', '@', '\t', '\r']) {
+    if looks_like_formula(s) {
         t.push('\'');
     }
     t.push_str(s);
@@ -44,9 +65,8 @@ fn record(out: &mut String, cells: &[Cell]) {
     out.push_str("\r\n");
 }
 
-/// The column names, in order.
-pub const CSV_COLUMNS: [&str; 14] = [
-    "job",
+/// The column names of `connections.csv`, in order.
+pub const CSV_COLUMNS: [&str; 13] = [
     "coil",
     "top_slot",
     "top_position",
@@ -62,17 +82,34 @@ pub const CSV_COLUMNS: [&str; 14] = [
     "current",
 ];
 
-/// The connection table, one record per coil position, with a header record. The `job`
-/// column repeats the design's job id (or its file name) so that tables of several jobs can
-/// be pasted together.
-pub fn connections_csv(design: &Design, winding: &Winding) -> String {
-    let mut out = String::with_capacity(64 * (winding.connections.len() + 1));
+/// The column names of `job.csv`, in order: the `[job]` keys and the design file's name.
+pub const JOB_COLUMNS: [&str; 5] = ["job", "title", "customer", "date", "design_file"];
+
+/// The job the connection table belongs to: a header record and one record with the `[job]`
+/// id, title, customer and date (empty when absent) and the design file's name.
+pub fn job_csv(design: &Design) -> String {
+    let mut out = String::new();
+    record(&mut out, &JOB_COLUMNS.map(|c| Cell::Text(c.to_string())));
+    let text = |x: &Option<String>| Cell::Text(x.clone().unwrap_or_default());
+    let job = &design.job;
+    record(
+        &mut out,
+        &[
+            text(&job.id),
+            text(&job.title),
+            text(&job.customer),
+            text(&job.date),
+            Cell::Text(design.file_name.clone()),
+        ],
+    );
+    out
+}
+
+/// The connection table, one record per coil position, with a header record. The job is in
+/// [`job_csv`], once, not on every row.
+pub fn connections_csv(winding: &Winding) -> String {
+    let mut out = String::with_capacity(48 * (winding.connections.len() + 1));
     record(&mut out, &CSV_COLUMNS.map(|c| Cell::Text(c.to_string())));
-    let job = design
-        .job
-        .id
-        .clone()
-        .unwrap_or_else(|| design.file_name.clone());
     let seq = sequence_labels(winding);
     let n = |x: u32| Cell::Num(x.to_string());
     let opt = |x: Option<u32>| x.map_or(Cell::Text(String::new()), |x| Cell::Num(x.to_string()));
@@ -81,7 +118,6 @@ pub fn connections_csv(design: &Design, winding: &Winding) -> String {
         record(
             &mut out,
             &[
-                Cell::Text(job.clone()),
                 n(c.coil),
                 n(c.top.slot),
                 n(c.top.position),
@@ -119,5 +155,33 @@ mod tests {
             "\"'=HYPERLINK(\"\"x\"\",\"\"y\"\")\""
         );
         assert_eq!(csv_text("two\nlines"), "\"two\nlines\"");
+    }
+
+    #[test]
+    fn formulas_behind_leading_whitespace_or_controls_are_neutralised() {
+        // The quote goes first, so the field no longer starts with a blank; line breaks are
+        // quoted as always.
+        assert_eq!(csv_text(" =1+2"), "' =1+2");
+        assert_eq!(csv_text("\u{a0}=1+2"), "'\u{a0}=1+2");
+        assert_eq!(csv_text("\t=1+2"), "'\t=1+2");
+        assert_eq!(csv_text("\r\n@SUM(A1)"), "\"'\r\n@SUM(A1)\"");
+        assert_eq!(csv_text("\n+cmd"), "\"'\n+cmd\"");
+        assert_eq!(csv_text("\u{3000}-2"), "'\u{3000}-2");
+        assert_eq!(csv_text("\u{1}\u{7f}=x"), "'\u{1}\u{7f}=x");
+        assert_eq!(csv_text("\u{2028}=x"), "'\u{2028}=x");
+        assert_eq!(csv_text(" \u{a0}\t\u{85} @x"), "' \u{a0}\t\u{85} @x");
+        // A tab or CR alone at the start is neutralised as before; other text is left alone
+        // (a leading blank without a formula is only quoted, as RFC 4180 readers may trim).
+        assert_eq!(csv_text("\tplain"), "'\tplain");
+        assert_eq!(csv_text(" plain"), "\" plain\"");
+        assert_eq!(csv_text("a-b"), "a-b");
+        assert_eq!(csv_text(""), "");
+    }
+
+    #[test]
+    fn numbers_the_writer_makes_stay_numbers() {
+        let mut out = String::new();
+        record(&mut out, &[Cell::Num("-1".into()), Cell::Text("-1".into())]);
+        assert_eq!(out, "-1,'-1\r\n");
     }
 }

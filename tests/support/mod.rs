@@ -2,6 +2,7 @@
 //! binary. Each test file that needs them says `mod support;`.
 #![allow(dead_code)]
 
+pub mod fuzz_drive;
 pub mod mutate;
 
 use std::path::{Path, PathBuf};

@@ -1,0 +1,107 @@
+//! The one drive function of the fuzz harness: a design file's text through the library calls
+//! the CLI makes — parse, check, text and JSON reports, the CSV, a rewind whose new file is
+//! parsed back and, for a share of the inputs, the sheet layout with its SVG and PDF writers.
+//!
+//! Shared by the stable driver (`tests/fuzz.rs`) and the cargo-fuzz target
+//! (`fuzz/fuzz_targets/design.rs`, which includes this file and `mutate.rs` by path), so both
+//! exercise exactly the same calls. `super::mutate` is the generator in either crate.
+#![allow(dead_code)]
+
+use armsheet::check;
+use armsheet::design::{WindingType, parse_design};
+use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
+use armsheet::rating::{RewindRequest, rewind_rated};
+use armsheet::render::csv::{connections_csv, job_csv};
+use armsheet::render::json::report_json;
+use armsheet::render::pdf::sheets_pdf;
+use armsheet::render::svg::page_svg;
+use armsheet::render::text::{TextOptions, render_text};
+
+use super::mutate::Rng;
+
+/// How often the slower stages run: the sheets (layout and SVG) for every `sheets`-th parsed
+/// input and the PDF for every `pdf`-th (0: never).
+#[derive(Clone, Copy, Debug)]
+pub struct Every {
+    /// Lay out and write SVG sheets for every this many parsed inputs.
+    pub sheets: u64,
+    /// Also write the PDF for every this many parsed inputs.
+    pub pdf: u64,
+}
+
+/// What one input reached.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
+pub struct Reached {
+    /// It parsed.
+    pub parsed: bool,
+    /// Its sheets were laid out and written as SVG.
+    pub sheets: bool,
+    /// Its sheets were written as PDF.
+    pub pdf: bool,
+}
+
+/// Drives `text` through the pipeline. `parsed` counts the parsed inputs so far (this one
+/// included once it parses) and chooses, with `every`, whether the sheets and the PDF run.
+/// Choices the CLI would take from its arguments (text style, rewind request, paper, window)
+/// come from `rng`. Any panic is the caller's to catch.
+pub fn drive(text: &str, rng: &mut Rng, parsed: &mut u64, every: Every) -> Reached {
+    let Ok(design) = parse_design(text, "fuzz.toml") else {
+        return Reached::default();
+    };
+    *parsed += 1;
+    let checked = check(design);
+    let opts = TextOptions {
+        unicode: rng.below(2) == 0,
+        version: "fuzz",
+    };
+    let _ = render_text(&checked, opts);
+    let _ = report_json(&checked);
+    let _ = connections_csv(&checked.winding);
+    let _ = job_csv(&checked.design);
+    let volts = *rng.pick(&[0.5, 12.0, 110.0, 230.0, 460.0, 1e5, 1e-9, f64::NAN]);
+    let req = RewindRequest {
+        voltage: volts,
+        speed_rpm: *rng.pick(&[None, Some(900.0), Some(1e-6), Some(1e7)]),
+        kind: *rng.pick(&[None, Some(WindingType::Lap), Some(WindingType::Wave)]),
+        multiplicity: *rng.pick(&[None, Some(1), Some(2), Some(0), Some(7)]),
+        from_test: *rng.pick(&[None, Some((200.0, 1000.0)), Some((1e308, 1e-308))]),
+        measured_r20: *rng.pick(&[None, Some(0.5), Some(-1.0)]),
+    };
+    let (d, w) = (&checked.design, &checked.winding);
+    if let Ok(plan) = rewind_rated(d, w, checked.rating.as_ref(), &req) {
+        let new = plan.design_file("fuzz.toml", "fuzz");
+        if let Ok(back) = parse_design(&new, "new.toml") {
+            let _ = report_json(&check(back));
+        }
+    }
+    let mut reached = Reached {
+        parsed: true,
+        ..Reached::default()
+    };
+    let due = |n: u64| n > 0 && parsed.is_multiple_of(n);
+    if due(every.sheets) || due(every.pdf) {
+        let options = SheetOptions {
+            paper: *rng.pick(&[Paper::A4, Paper::A3, Paper::Letter, Paper::Tabloid]),
+            window: match rng.below(8) {
+                0 => Window::Whole,
+                1 => Window::PolePairs {
+                    pairs: 1 + rng.below(3) as u32,
+                    first_slot: *rng.pick(&[1, 2, 7, 97, 4000, u32::MAX]),
+                },
+                _ => Window::Auto,
+            },
+            version: "fuzz".to_string(),
+        };
+        let pages = sheet_pages(&checked, &options);
+        for page in &pages {
+            let _ = page_svg(page);
+        }
+        reached.sheets = true;
+        if due(every.pdf) {
+            // A writer error is a typed result the CLI reports; only a panic is a finding.
+            let _ = sheets_pdf(&pages);
+            reached.pdf = true;
+        }
+    }
+    reached
+}
