@@ -110,11 +110,19 @@ pub fn write_new(path: &Path, bytes: &[u8]) -> io::Result<()> {
 /// Replaces the folder `target` with one holding exactly `files` (names inside the folder,
 /// bytes), whole or not at all.
 ///
-/// The files are written into a temporary folder `.<name>.…` beside `target`. Entries of the
-/// old folder that are not in the new set are carried over (a `draw` diagram, the user's own
-/// notes), except those `is_stale` names, which go with the old set. Then the old folder is
-/// renamed aside, the new one renamed into place and the old one removed. An error at any point
-/// undoes what was done: the old folder stays as it was and no temporary folder is left.
+/// The files are written into a temporary folder `.<name>.XXXXXX.new` beside `target`. Entries
+/// of the old folder that are not in the new set are carried over (a `draw` diagram, the user's
+/// own notes), except those `is_stale` names, which go with the old set. Then the two folders
+/// are exchanged in one step (Linux `renameat2` with `RENAME_EXCHANGE`) and the staging folder,
+/// now holding the old set, is removed; where the system cannot exchange, the old folder is
+/// renamed aside (`.<name>.XXXXXX.old/set`), the new one renamed into place and the old one
+/// removed. An error at any point undoes what was done: the old folder stays as it was and no
+/// temporary folder is left.
+///
+/// A killed run cannot clean up, so it may leave its staging or aside folder behind; the target
+/// still holds one whole set (see [`recover_stale`]), and the next run into the same folder
+/// first puts back what such a folder holds that belongs to the user and removes it. Two runs
+/// into the same folder at the same time are not supported.
 /// Returns the stale entries removed, as paths in `target`, sorted.
 pub fn replace_folder(
     target: &Path,
@@ -134,6 +142,9 @@ pub fn replace_folder(
     };
     let (user_target, target) = (target, real.as_path());
     let parent = parent_of(target);
+    let prefix = temp_prefix(target);
+    let is_set = |name: &OsStr| files.iter().any(|(n, _)| OsStr::new(n) == name) || is_stale(name);
+    recover_stale(target, &prefix, is_set).map_err(create_err)?;
     let old_exists = match fs::symlink_metadata(target) {
         Ok(m) if m.is_dir() => true,
         Ok(_) => {
@@ -145,7 +156,6 @@ pub fn replace_folder(
         Err(e) if e.kind() == io::ErrorKind::NotFound => false,
         Err(e) => return Err(create_err(e)),
     };
-    let prefix = temp_prefix(target);
     let stage = builder(&prefix, ".new", true)
         .tempdir_in(parent)
         .map_err(create_err)?;
@@ -179,7 +189,16 @@ pub fn replace_folder(
         carried.carry(name)?;
     }
 
-    // The swap.
+    // The swap: one exchange where the system has it; the old set then goes with the stage.
+    match exchange(stage.path(), target) {
+        Ok(true) => {
+            let _ = stage.close();
+            stale.sort();
+            return Ok(stale);
+        }
+        Ok(false) => {}
+        Err(e) => return Err(carried.undo(CliError::write(target, e))),
+    }
     let aside = builder(&prefix, ".old", true)
         .tempdir_in(parent)
         .map_err(|e| carried.undo(create_err(e)))?;
@@ -197,6 +216,74 @@ pub fn replace_folder(
     let _ = aside.close();
     stale.sort();
     Ok(stale)
+}
+
+/// Swaps the folders `a` and `b` in one step (`renameat2` with `RENAME_EXCHANGE`), so that no
+/// moment has `b` missing or mixed; `Ok(false)` when the file system cannot.
+#[cfg(target_os = "linux")]
+fn exchange(a: &Path, b: &Path) -> io::Result<bool> {
+    use rustix::fs::{CWD, RenameFlags, renameat_with};
+    use rustix::io::Errno;
+    match renameat_with(CWD, a, CWD, b, RenameFlags::EXCHANGE) {
+        Ok(()) => Ok(true),
+        Err(Errno::INVAL | Errno::NOSYS | Errno::NOTSUP) => Ok(false),
+        Err(e) => Err(e.into()),
+    }
+}
+
+/// No one-step exchange here: the caller renames aside and into place.
+#[cfg(not(target_os = "linux"))]
+fn exchange(_: &Path, _: &Path) -> io::Result<bool> {
+    Ok(false)
+}
+
+/// Clears what killed runs left beside `target`: folders named `<prefix>XXXXXX.old` or
+/// `<prefix>XXXXXX.new` (six random characters, as this module makes them).
+///
+/// An `.old` folder was the old set moved aside for the two-rename swap; if the kill came
+/// before the new set was in place, `target` is missing and the old set goes back. A `.new`
+/// folder was a staging folder: killed while it was being filled it holds part of a new set
+/// and possibly entries carried from `target` (the user's); killed after the exchange it holds
+/// the old set. Entries that are not `is_set` names and that `target` lacks go back into
+/// `target`; the rest goes with the folder.
+fn recover_stale(target: &Path, prefix: &str, is_set: impl Fn(&OsStr) -> bool) -> io::Result<()> {
+    let parent = parent_of(target);
+    let mut found: Vec<(bool, PathBuf)> = Vec::new();
+    for entry in fs::read_dir(parent)? {
+        let entry = entry?;
+        let name = entry.file_name();
+        let Some(rest) = name.to_str().and_then(|n| n.strip_prefix(prefix)) else {
+            continue;
+        };
+        let old = match (rest.strip_suffix(".old"), rest.strip_suffix(".new")) {
+            (Some(r), _) if r.len() == 6 => true,
+            (_, Some(r)) if r.len() == 6 => false,
+            _ => continue,
+        };
+        if entry.file_type()?.is_dir() {
+            found.push((old, entry.path()));
+        }
+    }
+    // The aside folders first: they may hold the only whole set.
+    found.sort_by_key(|(old, p)| (!old, p.clone()));
+    for (old, folder) in found {
+        if old {
+            let set = folder.join("set");
+            if fs::symlink_metadata(target).is_err() && set.is_dir() {
+                fs::rename(&set, target)?;
+            }
+        } else if target.is_dir() {
+            for entry in fs::read_dir(&folder)? {
+                let name = entry?.file_name();
+                let back = target.join(&name);
+                if !is_set(&name) && fs::symlink_metadata(&back).is_err() {
+                    fs::rename(folder.join(&name), back)?;
+                }
+            }
+        }
+        fs::remove_dir_all(&folder)?;
+    }
+    Ok(())
 }
 
 /// Entries moved from the old folder into the staged one, so they can be moved back.
