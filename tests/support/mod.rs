@@ -1,8 +1,9 @@
 //! Helpers shared by the integration tests: fixtures, demo designs, parsing, and running the
 //! binary. Each test file that needs them says `mod support;`.
-#![allow(dead_code)]
+#![allow(dead_code, unused_imports)]
 
 pub mod mutate;
+pub mod sheets;
 
 use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
