@@ -359,6 +359,36 @@ mod tests {
     }
 
     #[test]
+    fn a_full_disk_says_so_other_write_errors_keep_their_hint() {
+        for e in [
+            io::Error::from_raw_os_error(28),
+            io::Error::from(io::ErrorKind::StorageFull),
+        ] {
+            let w = CliError::write("out/x.toml", e).to_string();
+            assert!(w.starts_with("error: cannot write out/x.toml: "), "{w}");
+            assert!(
+                w.ends_with(
+                    "\n  = hint: no space left on the device: free some space, or write to another device\n"
+                ),
+                "{w}"
+            );
+        }
+        let full = CliError::CreateDir {
+            path: "out".into(),
+            source: io::Error::from_raw_os_error(28),
+        };
+        assert!(full.to_string().ends_with(
+            "\n  = hint: no space left on the device: free some space, or give a folder on another device with -o DIR\n"
+        ));
+        let denied = CliError::write("x.toml", io::Error::from(io::ErrorKind::PermissionDenied));
+        assert!(
+            denied
+                .to_string()
+                .ends_with("\n  = hint: check that the folder is writable\n")
+        );
+    }
+
+    #[test]
     fn a_broken_pipe_is_quiet_and_exits_0_other_stdout_errors_exit_2() {
         let pipe = CliError::Stdout(io::Error::from(io::ErrorKind::BrokenPipe));
         assert!(pipe.is_broken_pipe());

@@ -2,6 +2,14 @@
 //! and a rename, and a whole folder of files (a sheet set) staged beside the target and swapped
 //! into place, so an error never leaves a mixed set.
 //!
+//! What may be replaced, for every command that writes (`new`, `rewind`, `draw`, `sheet`): an
+//! output path must be absent, a regular file (a folder for a sheet set), or a symbolic link to
+//! an existing one, which is followed: the file or folder it leads to is replaced and the link
+//! kept. A folder where a file goes, a file where a folder goes, a device (`/dev/null`), a
+//! FIFO, a socket, a link to nothing or to any of these is [`CliError::WrongKind`] (exit 2),
+//! found before anything is written. Temporary files and folders have random names and are
+//! created exclusively (`O_EXCL`), so nothing planted at a name is opened or followed.
+//!
 //! Part of the `cli` stage, the only stage that touches the file system or the terminal.
 
 use std::collections::BTreeSet;

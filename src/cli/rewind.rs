@@ -30,7 +30,9 @@ EMFs and the new connection's paths and segments, rounded to whole turns (the sp
 reported); the conductor keeps the current density (nearest AWG and metric R20 sizes, up to 4
 in hand). The flux comes from the design (flux_per_pole_mwb, or voltage and speed_rpm in
 [rating]) or from a no-load test: --from-test V0 N0 (open-circuit volts at rpm).
-The new file is parsed back before it is written; an existing file is kept unless --force.
+The new file is parsed back before it is written; an existing file is kept unless --force,
+which replaces only a regular file (a symbolic link to one is followed, the link kept):
+never a folder, a device, a FIFO or a link to nothing.
 Without -o the file is written beside the design as NAME-<V>V.toml.
 Exit codes: 0 written, 2 bad input, an impossible request or output that could not be written.";
 
@@ -70,7 +72,7 @@ pub struct RewindArgs {
     /// Where to write the new design.
     #[arg(short = 'o', long = "output", value_name = "NEW.toml")]
     pub output: Option<PathBuf>,
-    /// Overwrite the output file if it exists.
+    /// Overwrite the output file if it exists (a regular file, or a link to one, only).
     #[arg(long)]
     pub force: bool,
 }

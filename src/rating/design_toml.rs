@@ -248,3 +248,76 @@ fn quote(v: &str) -> String {
     out.push('"');
     out
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[track_caller]
+    fn case(x: f64, decimals: usize, want: &str) {
+        assert_eq!(num(x, decimals), want, "num({x:e}, {decimals})");
+        if x.is_finite() {
+            let back: f64 = want.parse().unwrap();
+            assert!(x == 0.0 || back != 0.0, "{x:e} became 0");
+        }
+    }
+
+    #[test]
+    fn numbers_keep_their_fixed_form_and_never_round_to_nothing() {
+        // As before: fixed places, trailing zeros dropped.
+        case(230.0, 3, "230");
+        case(1.25, 4, "1.25");
+        case(19.033_456, 4, "19.0335");
+        case(0.7, 4, "0.7");
+        case(-0.000_01, 2, "-1e-5");
+        case(0.0, 3, "0");
+        case(-0.0, 3, "0");
+        // Lost in the fixed form: exponent form, at least 4 significant figures.
+        case(5e-324, 4, "4.941e-324");
+        case(0.000_123_46, 4, "1.235e-4");
+        case(0.012_345_6, 4, "1.235e-2");
+        case(1e308, 4, "1e308");
+        case(4.2e15, 2, "4.2e15");
+        // Not numbers: TOML's words, which the parser refuses by name.
+        case(f64::NAN, 4, "nan");
+        case(f64::INFINITY, 4, "inf");
+        case(f64::NEG_INFINITY, 4, "-inf");
+    }
+
+    #[test]
+    fn comment_text_escapes_everything_that_could_end_or_hide_a_line() {
+        assert_eq!(
+            comment_text("evil\n[limits]\r\nx = 1\t#"),
+            "evil\\n[limits]\\r\\nx = 1\\t#"
+        );
+        assert_eq!(
+            comment_text("a\u{1b}[2Jb\u{7f}\u{85}"),
+            "a\\u001B[2Jb\\u007F\\u0085"
+        );
+        assert_eq!(
+            comment_text("x\u{2028}y\u{202e}z\u{feff}"),
+            "x\\u2028y\\u202Ez\\uFEFF"
+        );
+        // Ordinary text, backslashes and non-ASCII letters stay as they are.
+        assert_eq!(
+            comment_text(r"C:\jobs\Motor Ölpumpe.toml"),
+            r"C:\jobs\Motor Ölpumpe.toml"
+        );
+    }
+
+    #[test]
+    fn a_header_never_adds_a_line_of_toml() {
+        let d = crate::design::parse_design(
+            "[armature]\npoles = 4\nslots = 24\n[winding]\ntype = \"lap\"\nturns = 5\n",
+            "t.toml",
+        )
+        .unwrap();
+        let text = write_design(
+            &d,
+            &["a\n[limits]\nsegment_volts_avg_max = 999".to_string()],
+        );
+        assert!(text.starts_with("# a\\n[limits]\\nsegment_volts_avg_max = 999\n\n[armature]\n"));
+        let back = crate::design::parse_design(&text, "t.toml").unwrap();
+        assert!(back.limits.overrides().next().is_none());
+    }
+}
