@@ -387,3 +387,30 @@ fn write_file(path: &Path, bytes: &[u8]) -> io::Result<()> {
     f.write_all(bytes)?;
     f.sync_all()
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn temporary_names_are_random_and_beside_the_target() {
+        let dir = tempfile::tempdir().unwrap();
+        let target = dir.path().join("x.toml");
+        let a = staged_file(&target, b"a").unwrap();
+        let b = staged_file(&target, b"b").unwrap();
+        let name = |t: &NamedTempFile| t.path().file_name().unwrap().to_string_lossy().into_owned();
+        let (na, nb) = (name(&a), name(&b));
+        assert_ne!(na, nb);
+        for n in [&na, &nb] {
+            let random = n
+                .strip_prefix(".x.toml.")
+                .and_then(|r| r.strip_suffix(".tmp"))
+                .unwrap_or_else(|| panic!("{n}"));
+            assert!(
+                random.len() >= 6 && random.chars().all(|c| c.is_ascii_alphanumeric()),
+                "{n}"
+            );
+        }
+        assert_eq!(a.path().parent(), Some(dir.path()));
+    }
+}

@@ -5,7 +5,9 @@
 //! connection's paths and segments, rounded to whole turns; the conductor from the same current
 //! density (so the same copper in the slot and the same power). A request that cannot be met is
 //! a [`RewindError`] carrying the numbers; the CLI words it (naming its flags) and writes the
-//! result.
+//! result. Every number the new design file takes (flux, speed, voltage, current) is first
+//! range-checked against what a design file holds, so a rewind never asks for a file armsheet
+//! would refuse; the CLI still parses the file back before writing it.
 
 use super::conductor::{self, WireFamily, WireOption};
 use super::scheme::{ConnectError, Scheme, connect};
