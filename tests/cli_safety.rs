@@ -8,6 +8,7 @@
 //! the link kept); for a sheet set the same with "folder" for "regular file". Anything else (a
 //! folder, a device, a FIFO, a link to nothing or to any of these) is exit 2 with nothing
 //! written.
+#![cfg(unix)]
 
 mod support;
 
@@ -202,6 +203,26 @@ fn dev_null_is_refused_before_anything_is_written() {
         .collect();
     assert!(stray.is_empty(), "temporary files in /dev: {stray:?}");
     assert_eq!(names(&dir), ["null-link"]);
+
+    // A copy of a device node (as the issue found it: `-o dir/full --force`), where the system
+    // lets this test make one (root, outside a restricted container); else /dev/null above is
+    // the case.
+    let full = dir.join("full");
+    let made = Command::new("mknod")
+        .arg(&full)
+        .args(["c", "1", "7"])
+        .stderr(Stdio::null())
+        .status()
+        .is_ok_and(|s| s.success());
+    if made {
+        refused(
+            &rewind_to(&dir, "full", true),
+            "error: cannot write full: it is a character device, not a regular file; armsheet writes only where there is nothing or a regular file (or a symbolic link to one)\n  = hint: give another path\n",
+        );
+        assert!(is_char(&full), "the device node was replaced");
+        assert_eq!(names(&dir), ["full", "null-link"]);
+        fs::remove_file(&full).unwrap();
+    }
 }
 
 #[test]
