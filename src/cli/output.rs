@@ -167,7 +167,7 @@ pub struct WrongKind {
 }
 
 /// Where an output of kind `want` ([`EntryKind::File`] or [`EntryKind::Folder`]) for `path`
-/// goes, and whether something is there already.
+/// goes, and whether something is there already: `(the path to write at, exists)`.
 ///
 /// The rules, the same for every command that writes (`new`, `rewind`, `draw`, `sheet`):
 /// - nothing at `path`: it is created there;
