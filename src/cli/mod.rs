@@ -181,16 +181,7 @@ fn check(a: &CheckArgs) -> Result<Outcome, CliError> {
 }
 
 fn new(a: &NewArgs) -> Result<Outcome, CliError> {
-    output::write_new(&a.path, STARTER.as_bytes()).map_err(|e| {
-        if e.kind() == std::io::ErrorKind::AlreadyExists {
-            CliError::Exists {
-                path: a.path.clone(),
-                by: error::NoOverwrite::New,
-            }
-        } else {
-            CliError::write(&a.path, e)
-        }
-    })?;
+    output::write_new(&a.path, STARTER.as_bytes(), error::NoOverwrite::New)?;
     print_stdout(&format!("wrote {}\n", a.path.display()))?;
     Ok(Outcome::Passed)
 }

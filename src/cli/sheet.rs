@@ -204,7 +204,7 @@ pub fn draw(a: &DrawArgs) -> Result<Outcome, CliError> {
             source,
         })?;
     }
-    write_atomic(&path, svg.as_bytes()).map_err(|e| CliError::write(&path, e))?;
+    write_atomic(&path, svg.as_bytes())?;
     print_stdout(&format!("wrote {}\n", path.display()))?;
     Ok(Outcome::of(&checked.findings))
 }
