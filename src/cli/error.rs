@@ -10,7 +10,8 @@ use std::io::{self, Write};
 use std::path::PathBuf;
 
 use crate::base::number::fmt_fixed;
-use crate::design::Diagnostic;
+use crate::base::visible::visible;
+use crate::design::Diagnostics;
 use crate::rating::RewindError;
 use crate::rating::rewind::{MAX_SPEED_RPM, MAX_VOLTAGE};
 
@@ -36,9 +37,9 @@ pub enum CliError {
         /// What the system said.
         source: io::Error,
     },
-    /// The design file does not parse or validate; the diagnostic names file, line and key
-    /// (boxed: it is large and errors travel through every `?`).
-    Design(Box<Diagnostic>),
+    /// The design file does not parse or validate; each diagnostic names file, line and key,
+    /// and all of them are printed (boxed: errors travel through every `?`).
+    Design(Box<Diagnostics>),
     /// An output folder cannot be made.
     CreateDir {
         /// The folder.
@@ -73,8 +74,8 @@ pub enum CliError {
     RewindParseBack {
         /// The design file, as given.
         design: String,
-        /// The parser's diagnostic on the new file.
-        diagnostic: Box<Diagnostic>,
+        /// The parser's diagnostics on the new file.
+        diagnostic: Box<Diagnostics>,
     },
     /// The PDF cannot be made from the sheets.
     Pdf {
@@ -124,7 +125,7 @@ impl fmt::Display for CliError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
             CliError::Read { path, source } => {
-                let name = path.display();
+                let name = shown(path);
                 writeln!(
                     f,
                     "error: cannot read design file {name}: {source}\n  = hint: check the path; `armsheet new {name}` writes a starter design"
@@ -135,12 +136,12 @@ impl fmt::Display for CliError {
             CliError::CreateDir { path, source } => writeln!(
                 f,
                 "error: cannot create the output folder {}: {source}\n  = hint: give another folder with -o DIR",
-                path.display()
+                shown(path)
             ),
             CliError::Write { path, source } => writeln!(
                 f,
                 "error: cannot write {}: {source}\n  = hint: check that the folder is writable",
-                path.display()
+                shown(path)
             ),
             CliError::Stdout(e) => writeln!(f, "error: cannot write to standard output: {e}"),
             CliError::Exists {
@@ -149,7 +150,7 @@ impl fmt::Display for CliError {
             } => writeln!(
                 f,
                 "error: {} already exists; armsheet new never overwrites a file\n  = hint: give another path, e.g. `armsheet new job-42.toml`",
-                path.display()
+                shown(path)
             ),
             CliError::Exists {
                 path,
@@ -157,22 +158,27 @@ impl fmt::Display for CliError {
             } => writeln!(
                 f,
                 "error: {} already exists; armsheet rewind does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
-                path.display()
+                shown(path)
             ),
             CliError::Rewind { design, error } => {
                 writeln!(
                     f,
-                    "error: {design}: cannot rewind: {}",
+                    "error: {}: cannot rewind: {}",
+                    visible(design),
                     rewind_message(error)
                 )
             }
             CliError::RewindParseBack { design, diagnostic } => writeln!(
                 f,
-                "error: {design}: cannot rewind: the new design does not parse back, so nothing was written:\n{diagnostic}"
+                "error: {}: cannot rewind: the new design does not parse back, so nothing was written:\n{diagnostic}",
+                visible(design)
             ),
-            CliError::Pdf { design, message } => {
-                writeln!(f, "error: {design}: the PDF cannot be made: {message}")
-            }
+            CliError::Pdf { design, message } => writeln!(
+                f,
+                "error: {}: the PDF cannot be made: {}",
+                visible(design),
+                visible(message)
+            ),
         }
     }
 }
@@ -189,10 +195,16 @@ impl std::error::Error for CliError {
     }
 }
 
-impl From<Diagnostic> for CliError {
-    fn from(d: Diagnostic) -> Self {
+impl From<Diagnostics> for CliError {
+    fn from(d: Diagnostics) -> Self {
         CliError::Design(Box::new(d))
     }
+}
+
+/// A path as shown in a message: made [`visible`], so a file name cannot carry escapes to the
+/// terminal.
+fn shown(path: &std::path::Path) -> String {
+    visible(&path.display().to_string()).into_owned()
 }
 
 /// A refused rewind in the command line's words: each message names the flag to change.

@@ -32,7 +32,7 @@ mod parse;
 mod reader;
 mod tables;
 
-pub use diagnostic::Diagnostic;
+pub use diagnostic::{Diagnostic, Diagnostics, MAX_DIAGNOSTICS};
 pub use limits::{Bound, LIMIT_KEYS, LIMITS, LimitId, LimitSpec, Limits};
 pub use model::*;
 pub use parse::{parse_design, parse_design_bytes};

@@ -19,8 +19,12 @@ pub(crate) const KEYS: &[&str] = &[
     "brush_grade",
 ];
 
-/// Reads `[commutator]` for a winding of `segments` segments.
-pub(crate) fn read(t: &TableReader<'_, '_>, segments: i64) -> Result<Commutator, Diagnostic> {
+/// Reads `[commutator]` for a winding of `segments` segments (`None` when the winding is in
+/// error: the brush width in segments is then not checked against it).
+pub(crate) fn read(
+    t: &TableReader<'_, '_>,
+    segments: Option<i64>,
+) -> Result<Commutator, Diagnostic> {
     t.deny_unknown(KEYS)?;
     let diameter = t.number(
         "diameter_mm",
@@ -60,17 +64,19 @@ pub(crate) fn read(t: &TableReader<'_, '_>, segments: i64) -> Result<Commutator,
                 if w.value >= circumference / 2.0 {
                     return Err(t
                         .src
-                        .error(w.span, "commutator.brush_width_mm", format!("a {} mm brush is wider than half the commutator's {:.1} mm circumference", w.value, circumference))
+                        .error(w.span, "commutator.brush_width_mm", format!("a {} mm brush is half the commutator's {:.1} mm circumference or more: expected less than half", w.value, circumference))
                         .with_hint("the brush width is measured around the commutator, usually 1 to 3 segment pitches"));
                 }
             }
             Some(BrushWidth::Millimetres(w.value))
         }
         (None, Some(s)) => {
-            if s.value >= segments as f64 / 2.0 {
+            if let Some(segments) = segments
+                && s.value >= segments as f64 / 2.0
+            {
                 return Err(t
                     .src
-                    .error(s.span, "commutator.brush_width_segments", format!("a brush {} segments wide is wider than half the commutator ({segments} segments)", s.value))
+                    .error(s.span, "commutator.brush_width_segments", format!("a brush {} segments wide is half the commutator ({segments} segments) or more: expected less than half", s.value))
                     .with_hint("brushes usually cover 1 to 3 segments"));
             }
             Some(BrushWidth::Segments(s.value))

@@ -12,6 +12,7 @@
 
 use toml::de::DeValue;
 
+use crate::base::visible::{ECHO_WIDTH, clip};
 use crate::design::Diagnostic;
 use crate::design::model::{Mode, Rating, ThermalClass};
 use crate::design::reader::{At, Source, TableReader};
@@ -149,7 +150,7 @@ fn read_rating(t: &TableReader<'_, '_>) -> Result<(Mode, Option<Rating>), Diagno
                 _ => {
                     return Err(t
                         .src
-                        .error(v.span(), "rating.thermal_class", format!("expected a thermal class 105, 120, 130, 155 or 180 (A, E, B, F, H), found {word}"))
+                        .error(v.span(), "rating.thermal_class", format!("expected a thermal class 105, 120, 130, 155 or 180 (A, E, B, F, H), found {}", clip(&word, ECHO_WIDTH)))
                         .with_hint("the class is on the nameplate or the insulation system's data, e.g. thermal_class = 155 or \"F\""));
                 }
             })

@@ -19,6 +19,7 @@ use toml::de::DeValue;
 
 use super::armature::Armature;
 use super::segments;
+use crate::base::visible::{ECHO_WIDTH, clip};
 use crate::design::Diagnostic;
 use crate::design::model::{Direction, EqualizerChoice, SpanSource, WindingType, bounds};
 use crate::design::reader::{At, TableReader, fmt_num};
@@ -208,7 +209,10 @@ fn read_span(
                 src.error(
                     v.span(),
                     "winding.span",
-                    format!("expected a span such as 7 or \"1-8\", found \"{s}\""),
+                    format!(
+                        "expected a span such as 7 or \"1-8\", found \"{}\"",
+                        clip(s, ECHO_WIDTH)
+                    ),
                 )
                 .with_hint(
                     "the shop form \"1-8\" means the coil lies in slots 1 and 8, a span of 7 slots",
