@@ -250,7 +250,8 @@ impl<'a> IntoIterator for &'a Diagnostics {
 impl fmt::Display for Diagnostics {
     /// One problem prints as the [`Diagnostic`] alone; several print one after the other,
     /// each after a blank line, and end in a count:
-    /// `error: 3 errors in shop.toml` (`…, stopped at the first 20` when capped).
+    /// `error: 3 errors in shop.toml` (`error: more than 20 errors in shop.toml: the first 20
+    /// are shown` when capped).
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         for (i, d) in self.list.iter().enumerate() {
             if i > 0 {
@@ -260,11 +261,14 @@ impl fmt::Display for Diagnostics {
         }
         if self.list.len() > 1 {
             let file = visible(&self.list[0].file);
-            write!(f, "\nerror: {} errors in {file}", self.list.len())?;
             if self.capped {
-                write!(f, ", stopped at the first {MAX_DIAGNOSTICS}")?;
+                writeln!(
+                    f,
+                    "\nerror: more than {MAX_DIAGNOSTICS} errors in {file}: the first {MAX_DIAGNOSTICS} are shown"
+                )?;
+            } else {
+                writeln!(f, "\nerror: {} errors in {file}", self.list.len())?;
             }
-            writeln!(f)?;
         }
         Ok(())
     }

@@ -43,12 +43,6 @@ impl Found {
         !self.0.borrow().is_empty()
     }
 
-    /// True once more problems are recorded than a report shows
-    /// ([`MAX_DIAGNOSTICS`](super::diagnostic::MAX_DIAGNOSTICS)): readers of long lists stop.
-    pub fn full(&self) -> bool {
-        self.0.borrow().len() > super::diagnostic::MAX_DIAGNOSTICS
-    }
-
     /// The problems recorded, in the order found.
     pub fn into_vec(self) -> Vec<Diagnostic> {
         self.0.into_inner()
@@ -113,35 +107,39 @@ impl<'a, 'i> TableReader<'a, 'i> {
     /// Fails on a key not in `known`, suggesting the nearest: the first such key is the
     /// error returned, and any further ones are recorded in the source's [`Found`].
     pub fn deny_unknown(&self, known: &[&str]) -> Result<(), Diagnostic> {
+        // In source order (the table iterates by name), and no more than a report shows.
+        let mut unknown: Vec<_> = self
+            .table
+            .iter()
+            .map(|(k, _)| k)
+            .filter(|k| !known.contains(&k.get_ref().as_ref()))
+            .collect();
+        unknown.sort_by_key(|k| k.span().start);
+        unknown.truncate(super::diagnostic::MAX_DIAGNOSTICS + 1);
         let mut first = None;
-        for (k, _) in self.table.iter() {
-            if self.src.found.full() {
-                break;
-            }
+        for k in unknown {
             let word: &str = k.get_ref();
-            if !known.contains(&word) {
-                let mut d = self.src.error(
-                    k.span(),
-                    self.key(word),
-                    format!(
-                        "unknown key `{}` in [{}]",
-                        clip(word, ECHO_WIDTH),
-                        self.name
-                    ),
-                );
-                d = match nearest(word, known) {
-                    Some(n) => d.with_hint(format!("did you mean `{n}`?")),
-                    None => d.with_hint(format!(
-                        "known keys in [{}]: {}",
-                        self.name,
-                        known.join(", ")
-                    )),
-                };
-                if first.is_none() {
-                    first = Some(d);
-                } else {
-                    self.src.found.push(d);
-                }
+            let d = self.src.error(
+                k.span(),
+                self.key(word),
+                format!(
+                    "unknown key `{}` in [{}]",
+                    clip(word, ECHO_WIDTH),
+                    self.name
+                ),
+            );
+            let d = match nearest(word, known) {
+                Some(n) => d.with_hint(format!("did you mean `{n}`?")),
+                None => d.with_hint(format!(
+                    "known keys in [{}]: {}",
+                    self.name,
+                    known.join(", ")
+                )),
+            };
+            if first.is_none() {
+                first = Some(d);
+            } else {
+                self.src.found.push(d);
             }
         }
         first.map_or(Ok(()), Err)

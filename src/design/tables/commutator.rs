@@ -9,7 +9,7 @@
 
 use crate::design::Diagnostic;
 use crate::design::model::{BrushGrade, BrushWidth, Commutator};
-use crate::design::reader::{At, TableReader};
+use crate::design::reader::{At, TableReader, fmt_num};
 
 /// The keys of `[commutator]`.
 pub(crate) const KEYS: &[&str] = &[
@@ -64,7 +64,7 @@ pub(crate) fn read(
                 if w.value >= circumference / 2.0 {
                     return Err(t
                         .src
-                        .error(w.span, "commutator.brush_width_mm", format!("a {} mm brush is half the commutator's {:.1} mm circumference or more: expected less than half", w.value, circumference))
+                        .error(w.span, "commutator.brush_width_mm", format!("a {} mm brush covers half the commutator's {:.1} mm circumference or more: expected less than {:.1} mm", w.value, circumference, circumference / 2.0))
                         .with_hint("the brush width is measured around the commutator, usually 1 to 3 segment pitches"));
                 }
             }
@@ -76,7 +76,7 @@ pub(crate) fn read(
             {
                 return Err(t
                     .src
-                    .error(s.span, "commutator.brush_width_segments", format!("a brush {} segments wide is half the commutator ({segments} segments) or more: expected less than half", s.value))
+                    .error(s.span, "commutator.brush_width_segments", format!("a brush {} segments wide covers half the commutator's {segments} segments or more: expected less than {}", s.value, fmt_num(segments as f64 / 2.0)))
                     .with_hint("brushes usually cover 1 to 3 segments"));
             }
             Some(BrushWidth::Segments(s.value))
