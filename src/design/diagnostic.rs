@@ -291,4 +291,76 @@ mod tests {
             "error: armature.poles: bad\n  --> x.toml:3:9\n  |\n3 | poles = 5\n  |         ^\n  = hint: try 4\n"
         );
     }
+
+    #[test]
+    fn escapes_widen_the_line_and_the_caret_follows() {
+        let src = "title = \"\u{202e}ab\" junk\n";
+        let at = src.find("junk").unwrap();
+        let d = Diagnostic::new("x\u{1b}.toml", src, at..at + 4, "job.title", "bad \u{7}");
+        let text = d.to_string();
+        assert_eq!(
+            text,
+            "error: job.title: bad \\u{7}\n  --> x\\u{1b}.toml:1:15\n  |\n1 | title = \"\\u{202e}ab\" junk\n  |                      ^^^^\n"
+        );
+    }
+
+    #[test]
+    fn tabs_before_the_caret_are_kept_so_it_lines_up() {
+        let src = "\tpoles = 5\n";
+        let at = src.find('5').unwrap();
+        let d = Diagnostic::new("x.toml", src, at..at + 1, "armature.poles", "bad");
+        assert!(d.to_string().contains("1 | \tpoles = 5\n  | \t        ^\n"));
+    }
+
+    #[test]
+    fn a_long_line_is_cut_to_a_window_around_the_caret() {
+        let long = "y".repeat(10_000);
+        let src = format!("k = \"{long}\" junk\n");
+        let at = src.find("junk").unwrap();
+        let d = Diagnostic::new("x.toml", &src, at..at + 4, "job.k", "bad");
+        let text = d.to_string();
+        let lines: Vec<&str> = text.lines().collect();
+        let shown = lines[3].strip_prefix("1 | ").unwrap();
+        assert!(shown.starts_with('…') && shown.ends_with("\" junk"), "{shown}");
+        assert!(shown.chars().count() <= ECHO_WIDTH + 1);
+        let caret = lines[4].strip_prefix("  | ").unwrap();
+        let col = caret.chars().position(|c| c == '^').unwrap();
+        let junk = shown.chars().collect::<Vec<_>>();
+        assert_eq!(junk[col..col + 4].iter().collect::<String>(), "junk");
+        // A value at the start of a long line: the line is cut after the window.
+        let src = format!("k = {long}\n");
+        let d = Diagnostic::new("x.toml", &src, 4..src.len() - 1, "job.k", "bad");
+        let text = d.to_string();
+        let lines: Vec<&str> = text.lines().collect();
+        assert_eq!(lines[3], format!("1 | k = {}…", &long[..ECHO_WIDTH - 4]));
+        assert_eq!(lines[4], format!("  |     {}", "^".repeat(ECHO_WIDTH - 4)));
+    }
+
+    #[test]
+    fn diagnostics_are_listed_in_source_order_with_a_count() {
+        let src = "a = 1\nb = 2\n";
+        let at = |w: &str| {
+            let i = src.find(w).unwrap();
+            Diagnostic::new("x.toml", src, i..i + 1, w, "bad")
+        };
+        let one = Diagnostics::new(vec![at("a")]).unwrap();
+        assert_eq!(one.to_string(), at("a").to_string());
+        let two = Diagnostics::new(vec![at("b"), at("a"), at("b")]).unwrap();
+        assert_eq!(two.len(), 2);
+        assert_eq!(two.first().key, "a");
+        assert_eq!(
+            two.to_string(),
+            format!("{}\n{}\nerror: 2 errors in x.toml\n", at("a"), at("b"))
+        );
+        assert!(Diagnostics::new(Vec::new()).is_none());
+        let many: Vec<_> = (0..MAX_DIAGNOSTICS + 5)
+            .map(|i| Diagnostic::new("x.toml", src, 0..1, format!("k{i:02}"), "bad"))
+            .collect();
+        let capped = Diagnostics::new(many).unwrap();
+        assert_eq!(capped.len(), MAX_DIAGNOSTICS);
+        assert!(capped.capped());
+        assert!(capped.to_string().ends_with(
+            "error: more than 20 errors in x.toml: the first 20 are shown\n"
+        ));
+    }
 }
