@@ -11,8 +11,8 @@ use support::{armsheet, armsheet_in, scratch, text};
 /// Characters that must never reach a terminal raw.
 const RAW: [char; 18] = [
     '\u{1b}', '\u{7}', '\r', '\0', '\u{9b}', '\u{7f}', '\u{61c}', '\u{200e}', '\u{200f}',
-    '\u{202a}', '\u{202b}', '\u{202c}', '\u{202d}', '\u{202e}', '\u{2066}', '\u{2067}',
-    '\u{2068}', '\u{2069}',
+    '\u{202a}', '\u{202b}', '\u{202c}', '\u{202d}', '\u{202e}', '\u{2066}', '\u{2067}', '\u{2068}',
+    '\u{2069}',
 ];
 
 /// The hostile values, as TOML basic-string bodies, and the text each decodes to.
@@ -20,7 +20,10 @@ const HOSTILE: [(&str, &str); 5] = [
     // Sets the terminal title and clears the screen.
     (r"\u001b]0;x\u0007\u001b[2J", "\u{1b}]0;x\u{7}\u{1b}[2J"),
     // Rewrites the line above.
-    (r"x\u001b[1A\u001b[2Kfake line", "x\u{1b}[1A\u{1b}[2Kfake line"),
+    (
+        r"x\u001b[1A\u001b[2Kfake line",
+        "x\u{1b}[1A\u{1b}[2Kfake line",
+    ),
     // Carriage return, NUL, a C1 CSI and DEL.
     (r"a\rb\u0000c\u009b2J\u007f", "a\rb\0c\u{9b}2J\u{7f}"),
     // Bidi overrides, embeddings, isolates and marks.
@@ -37,11 +40,7 @@ const BODY: &str = "[armature]\npoles = 4\nslots = 24\n\n[winding]\ntype = \"lap
 #[track_caller]
 fn assert_no_raw(what: &str, out: &str) {
     for c in RAW {
-        assert!(
-            !out.contains(c),
-            "{what}: raw U+{:04X} in\n{out}",
-            c as u32
-        );
+        assert!(!out.contains(c), "{what}: raw U+{:04X} in\n{out}", c as u32);
     }
 }
 
@@ -82,7 +81,10 @@ fn every_job_field_is_shown_escaped_in_the_text_report() {
     // The visible forms, one per kind of character.
     let path = write(&dir, "job-0.toml", &job_with(HOSTILE[0].0));
     let stdout = text(&armsheet(&["check", &path]).stdout);
-    assert!(stdout.contains("  title     \\u{1b}]0;x\\u{7}\\u{1b}[2J\n"), "{stdout}");
+    assert!(
+        stdout.contains("  title     \\u{1b}]0;x\\u{7}\\u{1b}[2J\n"),
+        "{stdout}"
+    );
     let path = write(&dir, "job-2.toml", &job_with(HOSTILE[2].0));
     let stdout = text(&armsheet(&["check", &path]).stdout);
     assert!(
@@ -95,7 +97,10 @@ fn every_job_field_is_shown_escaped_in_the_text_report() {
     // A newline in a one-line field stays on its line; notes keep their lines.
     let path = write(&dir, "job-4.toml", &job_with(HOSTILE[4].0));
     let stdout = text(&armsheet(&["check", &path]).stdout);
-    assert!(stdout.contains("  title     first\\u{a}second\n"), "{stdout}");
+    assert!(
+        stdout.contains("  title     first\\u{a}second\n"),
+        "{stdout}"
+    );
     assert!(
         stdout.contains("  notes     first\n            second\n"),
         "{stdout}"
@@ -129,7 +134,10 @@ fn a_bad_value_is_echoed_escaped() {
         let out = armsheet(&["check", &path]);
         let stderr = text(&out.stderr);
         assert_eq!(out.status.code(), Some(2), "{stderr}");
-        assert!(stderr.contains("error: winding.direction: expected"), "{stderr}");
+        assert!(
+            stderr.contains("error: winding.direction: expected"),
+            "{stderr}"
+        );
         assert!(stderr.contains("found \""), "{stderr}");
         assert_no_raw(toml, &stderr);
     }

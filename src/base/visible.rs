@@ -102,7 +102,10 @@ mod tests {
             assert_eq!(shown, format!("\\u{{{:x}}}", c as u32));
         }
         // Neighbours of the bidi ranges stay as they are.
-        case("\u{2029}\u{202F}\u{2065}\u{206A}", "\\u{2029}\u{202F}\u{2065}\u{206A}");
+        case(
+            "\u{2029}\u{202F}\u{2065}\u{206A}",
+            "\\u{2029}\u{202F}\u{2065}\u{206A}",
+        );
     }
 
     #[test]

@@ -321,7 +321,10 @@ mod tests {
         let text = d.to_string();
         let lines: Vec<&str> = text.lines().collect();
         let shown = lines[3].strip_prefix("1 | ").unwrap();
-        assert!(shown.starts_with('…') && shown.ends_with("\" junk"), "{shown}");
+        assert!(
+            shown.starts_with('…') && shown.ends_with("\" junk"),
+            "{shown}"
+        );
         assert!(shown.chars().count() <= ECHO_WIDTH + 1);
         let caret = lines[4].strip_prefix("  | ").unwrap();
         let col = caret.chars().position(|c| c == '^').unwrap();
@@ -359,8 +362,10 @@ mod tests {
         let capped = Diagnostics::new(many).unwrap();
         assert_eq!(capped.len(), MAX_DIAGNOSTICS);
         assert!(capped.capped());
-        assert!(capped.to_string().ends_with(
-            "error: more than 20 errors in x.toml: the first 20 are shown\n"
-        ));
+        assert!(
+            capped
+                .to_string()
+                .ends_with("error: more than 20 errors in x.toml: the first 20 are shown\n")
+        );
     }
 }

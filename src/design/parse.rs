@@ -159,8 +159,8 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
     let r = src.keep(rating::read(&src, &win, table("rating").as_ref()));
     let conductor = table("conductor").map(|t| src.keep(conductor::read(&t)));
     let core = table("core").map(|t| src.keep(core::read(&t)));
-    let commutator = table("commutator")
-        .map(|t| src.keep(commutator::read(&t, w.as_ref().map(|w| w.segments))));
+    let commutator =
+        table("commutator").map(|t| src.keep(commutator::read(&t, w.as_ref().map(|w| w.segments))));
     let limits = table("limits").map(|t| src.keep(limits::read(&t)));
     let (Some(a), Some(w), Some(r)) = (a, w, r) else {
         return Ok(None);
@@ -256,11 +256,7 @@ fn toml_error(src: &Source<'_>, e: &toml::de::Error) -> Diagnostic {
         let first = first_definition(text, line_start, k)
             .map_or(String::new(), |n| format!(": first defined on line {n}"));
         return src
-            .error(
-                span,
-                dotted,
-                format!("duplicate key `{k}`{within}{first}"),
-            )
+            .error(span, dotted, format!("duplicate key `{k}`{within}{first}"))
             .with_hint("a key is given once in its table: remove one of the two lines");
     }
     if msg == "duplicate key" && line.trim_start().starts_with('[') {
@@ -268,7 +264,10 @@ fn toml_error(src: &Source<'_>, e: &toml::de::Error) -> Diagnostic {
         let first = header_span(text, name)
             .filter(|h| h.start < line_start)
             .map_or(String::new(), |h| {
-                format!(": first defined on line {}", text[..h.start].matches('\n').count() + 1)
+                format!(
+                    ": first defined on line {}",
+                    text[..h.start].matches('\n').count() + 1
+                )
             });
         return src
             .error(
@@ -293,8 +292,7 @@ fn table_above(text: &str) -> Option<String> {
         let l = l.trim();
         let inner = l.strip_prefix('[')?.split(']').next()?;
         let inner = inner.trim_start_matches('[').trim();
-        (!inner.is_empty() && inner.chars().all(is_bare_key_char))
-            .then(|| inner.to_string())
+        (!inner.is_empty() && inner.chars().all(is_bare_key_char)).then(|| inner.to_string())
     })
 }
 
