@@ -191,6 +191,15 @@ fn a_hostile_file_name_is_escaped_in_the_report_and_the_errors() {
         stderr.contains("--> evil\\u{1b}]0;x\\u{7}\\u{202e}.toml:2:9"),
         "{stderr}"
     );
+    // In the `wrote …` lines of `sheet`, whose folder is named after the design.
+    write(&dir, name, BODY);
+    let out = armsheet_in(&["sheet", name, "-o", "sheets"], &dir);
+    let stdout = text(&out.stdout);
+    assert_no_raw("file name in wrote lines", &stdout);
+    assert!(
+        stdout.contains("wrote sheets/evil\\u{1b}]0;x\\u{7}\\u{202e}/sheet-1.svg\n"),
+        "{stdout}"
+    );
     // In a CLI error: a file that cannot be read.
     let missing = "gone\u{1b}[2J.toml";
     let stderr = text(&armsheet_in(&["check", missing], &dir).stderr);

@@ -201,9 +201,9 @@ impl From<Diagnostics> for CliError {
     }
 }
 
-/// A path as shown in a message: made [`visible`], so a file name cannot carry escapes to the
-/// terminal.
-fn shown(path: &std::path::Path) -> String {
+/// A path as shown on the terminal (in errors and in the `wrote …` lines): made [`visible`],
+/// so a file name cannot carry escapes to the terminal.
+pub(super) fn shown(path: &std::path::Path) -> String {
     visible(&path.display().to_string()).into_owned()
 }
 

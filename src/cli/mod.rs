@@ -191,6 +191,6 @@ fn new(a: &NewArgs) -> Result<Outcome, CliError> {
             CliError::write(&a.path, e)
         }
     })?;
-    print_stdout(&format!("wrote {}\n", a.path.display()))?;
+    print_stdout(&format!("wrote {}\n", error::shown(&a.path)))?;
     Ok(Outcome::Passed)
 }
