@@ -152,15 +152,12 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
     let arm_keys = src.keep(arm.deny_unknown(armature::KEYS));
     let win_keys = src.keep(win.deny_unknown(winding::KEYS));
     let a = arm_keys.and_then(|()| armature::read(&arm));
-    let w = match (&a, win_keys) {
-        (Some(a), Some(())) => src.keep(winding::read(&win, &arm, a)),
-        _ => None,
-    };
+    let w = win_keys.and_then(|()| winding::read(&win, &arm, a.as_ref()));
     let r = src.keep(rating::read(&src, &win, table("rating").as_ref()));
-    let conductor = table("conductor").map(|t| src.keep(conductor::read(&t)));
-    let core = table("core").map(|t| src.keep(core::read(&t)));
+    let conductor = table("conductor").map(|t| conductor::read(&t));
+    let core = table("core").map(|t| core::read(&t));
     let commutator =
-        table("commutator").map(|t| src.keep(commutator::read(&t, w.as_ref().map(|w| w.segments))));
+        table("commutator").map(|t| commutator::read(&t, w.as_ref().map(|w| w.segments)));
     let limits = table("limits").map(|t| src.keep(limits::read(&t)));
     let (Some(a), Some(w), Some(r)) = (a, w, r) else {
         return Ok(None);
