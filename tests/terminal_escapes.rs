@@ -141,6 +141,16 @@ fn a_bad_value_is_echoed_escaped() {
         assert!(stderr.contains("found \""), "{stderr}");
         assert_no_raw(toml, &stderr);
     }
+    // A hostile key name.
+    let design = format!("[job]\n\"\\u001b[2J\u{202e}\" = 1\n\n{BODY}");
+    let path = write(&dir, "key.toml", &design);
+    let stderr = text(&armsheet(&["check", &path]).stderr);
+    assert_no_raw("key", &stderr);
+    assert!(
+        stderr
+            .contains("error: job.\\u{1b}[2J\\u{202e}: unknown key `\\u{1b}[2J\\u{202e}` in [job]"),
+        "{stderr}"
+    );
     let design = BODY.replace("turns = 3", "turns = 3\ndirection = \"\\u001b[2J\"");
     let path = write(&dir, "bad.toml", &design);
     let stderr = text(&armsheet(&["check", &path]).stderr);
@@ -199,6 +209,21 @@ fn a_hostile_file_name_is_escaped_in_the_report_and_the_errors() {
     assert!(
         stdout.contains("wrote sheets/evil\\u{1b}]0;x\\u{7}\\u{202e}/sheet-1.svg\n"),
         "{stdout}"
+    );
+    // In the rewind report, or in its refusal.
+    std::fs::write(dir.join(name), support::demo("hoist-lap")).unwrap();
+    let out = armsheet_in(
+        &["rewind", name, "--voltage", "200", "-o", "new.toml"],
+        &dir,
+    );
+    assert_no_raw("rewind stdout", &text(&out.stdout));
+    assert_no_raw("rewind stderr", &text(&out.stderr));
+    assert!(
+        text(&out.stdout).contains("evil\\u{1b}]0;x\\u{7}\\u{202e}.toml")
+            || text(&out.stderr).contains("evil\\u{1b}]0;x\\u{7}\\u{202e}.toml"),
+        "{}{}",
+        text(&out.stdout),
+        text(&out.stderr)
     );
     // In a CLI error: a file that cannot be read.
     let missing = "gone\u{1b}[2J.toml";

@@ -147,8 +147,8 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
         table("armature").ok_or_else(|| missing_table("armature", "poles = 4\n    slots = 24"))?;
     let win = table("winding")
         .ok_or_else(|| missing_table("winding", "type = \"lap\"\n    turns = 2"))?;
-    // A table with an unknown key is not read further: a misspelt key would only come back
-    // as a missing one.
+    // A table with required keys is not read further when it has an unknown key: a misspelt
+    // key would only come back as a missing one.
     let arm_keys = src.keep(arm.deny_unknown(armature::KEYS));
     let win_keys = src.keep(win.deny_unknown(winding::KEYS));
     let a = arm_keys.and_then(|()| armature::read(&arm));
