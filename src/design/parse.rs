@@ -99,7 +99,10 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
             let d = src.error(
                 k.span(),
                 word,
-                format!("unknown table or key `{word}` at the top level"),
+                format!(
+                    "unknown table or key `{}` at the top level",
+                    clip(word, ECHO_WIDTH)
+                ),
             );
             return Err(match nearest(word, TABLES) {
                 Some(n) => d.with_hint(format!("did you mean [{n}]?")),
