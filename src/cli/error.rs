@@ -11,7 +11,8 @@ use std::path::PathBuf;
 
 use super::output::{EntryKind, WrongKind};
 use crate::base::number::fmt_fixed;
-use crate::design::Diagnostic;
+use crate::base::visible::visible;
+use crate::design::Diagnostics;
 use crate::rating::RewindError;
 use crate::rating::design_toml;
 use crate::rating::rewind::{FluxSource, MAX_CURRENT_A, MAX_FLUX_MWB, MAX_SPEED_RPM, MAX_VOLTAGE};
@@ -38,9 +39,9 @@ pub enum CliError {
         /// What the system said.
         source: io::Error,
     },
-    /// The design file does not parse or validate; the diagnostic names file, line and key
-    /// (boxed: it is large and errors travel through every `?`).
-    Design(Box<Diagnostic>),
+    /// The design file does not parse or validate; each diagnostic names file, line and key,
+    /// and all of them are printed (boxed: errors travel through every `?`).
+    Design(Box<Diagnostics>),
     /// An output folder cannot be made.
     CreateDir {
         /// The folder.
@@ -83,8 +84,8 @@ pub enum CliError {
     RewindParseBack {
         /// The design file, as given.
         design: String,
-        /// The parser's diagnostic on the new file.
-        diagnostic: Box<Diagnostic>,
+        /// The parser's diagnostics on the new file.
+        diagnostic: Box<Diagnostics>,
     },
     /// The PDF cannot be made from the sheets.
     Pdf {
@@ -134,7 +135,7 @@ impl fmt::Display for CliError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
             CliError::Read { path, source } => {
-                let name = path.display();
+                let name = shown(path);
                 writeln!(
                     f,
                     "error: cannot read design file {name}: {source}\n  = hint: check the path; `armsheet new {name}` writes a starter design"
@@ -145,7 +146,7 @@ impl fmt::Display for CliError {
             CliError::CreateDir { path, source } => writeln!(
                 f,
                 "error: cannot create the output folder {}: {source}\n  = hint: {}",
-                path.display(),
+                shown(path),
                 if is_disk_full(source) {
                     "no space left on the device: free some space, or give a folder on another device with -o DIR"
                 } else {
@@ -155,7 +156,7 @@ impl fmt::Display for CliError {
             CliError::Write { path, source } => writeln!(
                 f,
                 "error: cannot write {}: {source}\n  = hint: {}",
-                path.display(),
+                shown(path),
                 if is_disk_full(source) {
                     "no space left on the device: free some space, or write to another device"
                 } else {
@@ -171,7 +172,7 @@ impl fmt::Display for CliError {
                     _ => ("cannot write", "give another path"),
                 };
                 let want = why.want.noun();
-                let path = path.display();
+                let path = shown(path);
                 match (&why.link, why.found) {
                     (None, found) => writeln!(
                         f,
@@ -181,12 +182,12 @@ impl fmt::Display for CliError {
                     (Some(to), None) => writeln!(
                         f,
                         "error: {what} {path}: it is a symbolic link to {}, which does not exist; armsheet follows a link only to an existing {want}\n  = hint: {hint}",
-                        to.display()
+                        shown(to)
                     ),
                     (Some(to), Some(found)) => writeln!(
                         f,
                         "error: {what} {path}: it is a symbolic link to {}, a {}, not a {want}; armsheet follows a link only to an existing {want}\n  = hint: {hint}",
-                        to.display(),
+                        shown(to),
                         found.noun()
                     ),
                 }
@@ -198,7 +199,7 @@ impl fmt::Display for CliError {
             } => writeln!(
                 f,
                 "error: {} already exists; armsheet new never overwrites a file\n  = hint: give another path, e.g. `armsheet new job-42.toml`",
-                path.display()
+                shown(path)
             ),
             CliError::Exists {
                 path,
@@ -206,22 +207,27 @@ impl fmt::Display for CliError {
             } => writeln!(
                 f,
                 "error: {} already exists; armsheet rewind does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
-                path.display()
+                shown(path)
             ),
             CliError::Rewind { design, error } => {
                 writeln!(
                     f,
-                    "error: {design}: cannot rewind: {}",
+                    "error: {}: cannot rewind: {}",
+                    visible(design),
                     rewind_message(error)
                 )
             }
             CliError::RewindParseBack { design, diagnostic } => writeln!(
                 f,
-                "error: {design}: cannot rewind: the new design does not parse back, so nothing was written:\n{diagnostic}"
+                "error: {}: cannot rewind: the new design does not parse back, so nothing was written:\n{diagnostic}",
+                visible(design)
             ),
-            CliError::Pdf { design, message } => {
-                writeln!(f, "error: {design}: the PDF cannot be made: {message}")
-            }
+            CliError::Pdf { design, message } => writeln!(
+                f,
+                "error: {}: the PDF cannot be made: {}",
+                visible(design),
+                visible(message)
+            ),
         }
     }
 }
@@ -238,8 +244,8 @@ impl std::error::Error for CliError {
     }
 }
 
-impl From<Diagnostic> for CliError {
-    fn from(d: Diagnostic) -> Self {
+impl From<Diagnostics> for CliError {
+    fn from(d: Diagnostics) -> Self {
         CliError::Design(Box::new(d))
     }
 }
@@ -247,6 +253,12 @@ impl From<Diagnostic> for CliError {
 /// True for a write that failed because the device is full (`ENOSPC`, os error 28).
 fn is_disk_full(e: &io::Error) -> bool {
     e.kind() == io::ErrorKind::StorageFull || e.raw_os_error() == Some(28)
+}
+
+/// A path as shown on the terminal (in errors and in the `wrote …` lines): made [`visible`],
+/// so a file name cannot carry escapes to the terminal.
+pub(super) fn shown(path: &std::path::Path) -> String {
+    visible(&path.display().to_string()).into_owned()
 }
 
 /// A refused rewind in the command line's words: each message names the flag to change.

@@ -182,6 +182,6 @@ fn check(a: &CheckArgs) -> Result<Outcome, CliError> {
 
 fn new(a: &NewArgs) -> Result<Outcome, CliError> {
     output::write_new(&a.path, STARTER.as_bytes(), error::NoOverwrite::New)?;
-    print_stdout(&format!("wrote {}\n", a.path.display()))?;
+    print_stdout(&format!("wrote {}\n", error::shown(&a.path)))?;
     Ok(Outcome::Passed)
 }

@@ -102,7 +102,7 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
             let text = design_toml::write_design(&test.design, &header);
             parse_back(&text, out, &name)?;
             write_design_file(out, &text, a.force)?;
-            said.push_str(&format!("wrote {}\n", out.display()));
+            said.push_str(&format!("wrote {}\n", super::error::shown(out)));
         }
         print_stdout(&said)?;
         return Ok(Outcome::Passed);
@@ -134,7 +134,7 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
         new.rating.as_ref(),
         env!("CARGO_PKG_VERSION"),
     );
-    said.push_str(&format!("wrote {}\n", out.display()));
+    said.push_str(&format!("wrote {}\n", super::error::shown(&out)));
     // The file is in place: a closed standard output now ends the command quietly.
     print_stdout(&said)?;
     Ok(Outcome::Passed)
