@@ -61,19 +61,9 @@ impl FluxSource {
     }
 }
 
-/// The highest voltage a rewind is worked out for, V.
-pub const MAX_VOLTAGE: f64 = 100_000.0;
-
-/// The highest speed a rewind is worked out for, rpm.
-pub const MAX_SPEED_RPM: f64 = 200_000.0;
-
-/// The largest flux per pole a rewind writes, mWb: the most a design file's
-/// `flux_per_pole_mwb` may say (a test in `tests/cli_safety.rs` holds the two together).
-pub const MAX_FLUX_MWB: f64 = 100_000.0;
-
-/// The largest armature current a rewind writes, A: the most a design file's `[rating]
-/// current` may say (held together with the parser by the same test).
-pub const MAX_CURRENT_A: f64 = 100_000.0;
+/// The bounds a rewind works within are the design file's own ([`bounds`]): the highest
+/// voltage and speed it is worked out for, and the largest flux and current it writes.
+pub use crate::design::bounds::{MAX_CURRENT_A, MAX_FLUX_MWB, MAX_SPEED_RPM, MAX_VOLTAGE};
 
 /// True for a value a design file holds in a key that takes a number above 0 and at most `max`.
 fn in_file_range(x: f64, max: f64) -> bool {

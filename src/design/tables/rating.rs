@@ -14,7 +14,7 @@ use toml::de::DeValue;
 
 use crate::base::visible::{ECHO_WIDTH, clip};
 use crate::design::Diagnostic;
-use crate::design::model::{Mode, Rating, ThermalClass};
+use crate::design::model::{Mode, Rating, ThermalClass, bounds};
 use crate::design::reader::{At, Source, TableReader};
 
 /// The keys of `[rating]`.
@@ -44,13 +44,19 @@ fn flux(t: &TableReader<'_, '_>) -> Result<Option<At<f64>>, Diagnostic> {
         "flux_per_pole_mwb",
         0.0,
         true,
-        100_000.0,
+        bounds::MAX_FLUX_MWB,
         "the flux per pole in mWb",
     )
 }
 
 fn speed(t: &TableReader<'_, '_>) -> Result<Option<At<f64>>, Diagnostic> {
-    t.number("speed_rpm", 0.0, true, 200_000.0, "the speed in rpm")
+    t.number(
+        "speed_rpm",
+        0.0,
+        true,
+        bounds::MAX_SPEED_RPM,
+        "the speed in rpm",
+    )
 }
 
 /// Reads `[rating]` (when present) with the flux and speed keys of `[winding]`.
@@ -121,7 +127,7 @@ fn read_rating(t: &TableReader<'_, '_>) -> Result<(Mode, Option<Rating>), Diagno
             "voltage",
             0.0,
             true,
-            100_000.0,
+            bounds::MAX_VOLTAGE,
             "the rated terminal voltage in V",
         ))
         .flatten()
@@ -131,7 +137,7 @@ fn read_rating(t: &TableReader<'_, '_>) -> Result<(Mode, Option<Rating>), Diagno
             "current",
             0.0,
             true,
-            100_000.0,
+            bounds::MAX_CURRENT_A,
             "the rated armature current in A",
         ))
         .flatten()
