@@ -1,22 +1,8 @@
 //! The binary end to end: exit codes, `new`, `check --json`, help.
 
-use std::path::PathBuf;
-use std::process::{Command, Output};
+mod support;
 
-fn armsheet(args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_armsheet"))
-        .current_dir(env!("CARGO_MANIFEST_DIR"))
-        .args(args)
-        .output()
-        .unwrap()
-}
-
-fn scratch(name: &str) -> PathBuf {
-    let dir = std::env::temp_dir().join(format!("armsheet-cli-{}-{name}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&dir);
-    std::fs::create_dir_all(&dir).unwrap();
-    dir
-}
+use support::{armsheet, scratch};
 
 #[test]
 fn demos_pass_and_an_unsymmetric_lap_fails_with_exit_1() {

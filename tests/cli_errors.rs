@@ -2,20 +2,15 @@
 //! one is an error naming standard output (exit 2), and `sheet` writes its whole set or leaves
 //! the previous one exactly as it was, with no temporary folder left behind.
 
+mod support;
+
 use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
 use std::process::{Command, Stdio};
 
-const BIN: &str = env!("CARGO_BIN_EXE_armsheet");
-const ROOT: &str = env!("CARGO_MANIFEST_DIR");
+use support::{ROOT, files_in, names_in, scratch};
 
-fn scratch(name: &str) -> PathBuf {
-    let dir =
-        std::env::temp_dir().join(format!("armsheet-cli-errors-{}-{name}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&dir);
-    std::fs::create_dir_all(&dir).unwrap();
-    dir
-}
+const BIN: &str = env!("CARGO_BIN_EXE_armsheet");
 
 /// Runs armsheet with its standard output a pipe whose read end is closed before armsheet
 /// writes; returns the exit code and standard error.
@@ -33,29 +28,6 @@ fn run_with_stdout_closed(args: &[&str]) -> (Option<i32>, String) {
         out.status.code(),
         String::from_utf8_lossy(&out.stderr).into_owned(),
     )
-}
-
-/// Every file in `dir` (not recursive) with its bytes.
-fn files_in(dir: &Path) -> BTreeMap<String, Vec<u8>> {
-    std::fs::read_dir(dir)
-        .unwrap()
-        .map(|e| {
-            let e = e.unwrap();
-            (
-                e.file_name().to_string_lossy().into_owned(),
-                std::fs::read(e.path()).unwrap(),
-            )
-        })
-        .collect()
-}
-
-fn names_in(dir: &Path) -> Vec<String> {
-    let mut v: Vec<String> = std::fs::read_dir(dir)
-        .unwrap()
-        .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
-        .collect();
-    v.sort();
-    v
 }
 
 #[test]

@@ -216,12 +216,14 @@ fn a_misspelt_limit_key_is_refused_with_the_nearest_key_or_the_list() {
         "t.toml",
     )
     .unwrap_err();
+    let e = e.first();
     assert_eq!(e.key, "limits.segment_volts_avg");
     assert_eq!(
         e.hint.as_deref(),
         Some("did you mean `segment_volts_avg_max`?")
     );
     let e = parse_design(&format!("{BASE}\n[limits]\nvoltage = 20\n"), "t.toml").unwrap_err();
+    let e = e.first();
     assert_eq!(
         e.hint,
         Some(format!("known keys in [limits]: {}", LIMIT_KEYS.join(", ")))

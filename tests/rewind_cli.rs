@@ -1,36 +1,14 @@
 //! `armsheet rewind` end to end: writes a new design that parses back, never overwrites
 //! without --force, refuses impossible requests with exit 2, back-solves the flux from a test.
 
-use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
+mod support;
 
 use armsheet::design::{WindingType, parse_design};
+use support::{armsheet as run, scratch as tmp, text};
 
-fn tmp(name: &str) -> PathBuf {
-    let dir = std::env::temp_dir().join(format!("armsheet-rewind-{}-{name}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&dir);
-    std::fs::create_dir_all(&dir).unwrap();
-    dir
-}
-
-fn run(args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_armsheet"))
-        .current_dir(env!("CARGO_MANIFEST_DIR"))
-        .args(args)
-        .output()
-        .unwrap()
-}
-
-fn text(b: &[u8]) -> String {
-    String::from_utf8_lossy(b).into_owned()
-}
-
-fn demo(name: &str) -> String {
-    Path::new(env!("CARGO_MANIFEST_DIR"))
-        .join("designs")
-        .join(name)
-        .display()
-        .to_string()
+/// The absolute path of `designs/FILE`.
+fn demo(file: &str) -> String {
+    format!("{}/designs/{file}", support::ROOT)
 }
 
 #[test]

@@ -1,10 +1,10 @@
 //! Snapshots of sheet 1 (developed diagram, title and data blocks) for two small fixtures:
 //! a simplex lap with equalizers and a simplex wave with a dummy coil.
 
-mod sheet_support;
+mod support;
 
 use armsheet::layout::{Paper, Window};
-use sheet_support::*;
+use support::sheets::*;
 
 #[test]
 fn lap_sheet_1() {

@@ -1,5 +1,5 @@
 //! `base`: the leaf every stage may use: rule findings with their severity, the one number
-//! writer, and the shop cautions.
+//! writer, the shop cautions, and the one escaper of file-given text for a terminal.
 //!
 //! Stage 0 of the pipeline (see [`crate::STAGES`]). It knows nothing of windings, designs or
 //! output formats; it imports nothing from the crate.
@@ -7,5 +7,6 @@
 pub mod caution;
 pub mod finding;
 pub mod number;
+pub mod visible;
 
 pub use finding::{Finding, Severity, has_errors};

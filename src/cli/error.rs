@@ -9,10 +9,13 @@ use std::fmt;
 use std::io::{self, Write};
 use std::path::PathBuf;
 
+use super::output::{EntryKind, WrongKind};
 use crate::base::number::fmt_fixed;
-use crate::design::Diagnostic;
+use crate::base::visible::visible;
+use crate::design::Diagnostics;
 use crate::rating::RewindError;
-use crate::rating::rewind::{MAX_SPEED_RPM, MAX_VOLTAGE};
+use crate::rating::design_toml;
+use crate::rating::rewind::{FluxSource, MAX_CURRENT_A, MAX_FLUX_MWB, MAX_SPEED_RPM, MAX_VOLTAGE};
 
 /// The exit code of bad input, or of output that could not be written.
 pub const EXIT_BAD_INPUT: u8 = 2;
@@ -36,9 +39,9 @@ pub enum CliError {
         /// What the system said.
         source: io::Error,
     },
-    /// The design file does not parse or validate; the diagnostic names file, line and key
-    /// (boxed: it is large and errors travel through every `?`).
-    Design(Box<Diagnostic>),
+    /// The design file does not parse or validate; each diagnostic names file, line and key,
+    /// and all of them are printed (boxed: errors travel through every `?`).
+    Design(Box<Diagnostics>),
     /// An output folder cannot be made.
     CreateDir {
         /// The folder.
@@ -55,6 +58,14 @@ pub enum CliError {
     },
     /// Standard output cannot be written (a broken pipe is quiet and exits 0).
     Stdout(io::Error),
+    /// The output path names something armsheet does not write over (a folder, a device, a
+    /// FIFO, a link to nothing...); nothing was written.
+    WrongKind {
+        /// The path, as given.
+        path: PathBuf,
+        /// What is there, and what was to be written.
+        why: WrongKind,
+    },
     /// The output file exists and the command does not overwrite it.
     Exists {
         /// The file.
@@ -73,8 +84,8 @@ pub enum CliError {
     RewindParseBack {
         /// The design file, as given.
         design: String,
-        /// The parser's diagnostic on the new file.
-        diagnostic: Box<Diagnostic>,
+        /// The parser's diagnostics on the new file.
+        diagnostic: Box<Diagnostics>,
     },
     /// The PDF cannot be made from the sheets.
     Pdf {
@@ -124,7 +135,7 @@ impl fmt::Display for CliError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
             CliError::Read { path, source } => {
-                let name = path.display();
+                let name = shown(path);
                 writeln!(
                     f,
                     "error: cannot read design file {name}: {source}\n  = hint: check the path; `armsheet new {name}` writes a starter design"
@@ -134,14 +145,53 @@ impl fmt::Display for CliError {
             CliError::Design(d) => write!(f, "{d}"),
             CliError::CreateDir { path, source } => writeln!(
                 f,
-                "error: cannot create the output folder {}: {source}\n  = hint: give another folder with -o DIR",
-                path.display()
+                "error: cannot create the output folder {}: {source}\n  = hint: {}",
+                shown(path),
+                if is_disk_full(source) {
+                    "no space left on the device: free some space, or give a folder on another device with -o DIR"
+                } else {
+                    "give another folder with -o DIR"
+                }
             ),
             CliError::Write { path, source } => writeln!(
                 f,
-                "error: cannot write {}: {source}\n  = hint: check that the folder is writable",
-                path.display()
+                "error: cannot write {}: {source}\n  = hint: {}",
+                shown(path),
+                if is_disk_full(source) {
+                    "no space left on the device: free some space, or write to another device"
+                } else {
+                    "check that the folder is writable"
+                }
             ),
+            CliError::WrongKind { path, why } => {
+                let (what, hint) = match why.want {
+                    EntryKind::Folder => (
+                        "cannot create the output folder",
+                        "give another folder with -o DIR",
+                    ),
+                    _ => ("cannot write", "give another path"),
+                };
+                let want = why.want.noun();
+                let path = shown(path);
+                match (&why.link, why.found) {
+                    (None, found) => writeln!(
+                        f,
+                        "error: {what} {path}: it is a {}, not a {want}; armsheet writes only where there is nothing or a {want} (or a symbolic link to one)\n  = hint: {hint}",
+                        found.map_or("", EntryKind::noun)
+                    ),
+                    (Some(to), None) => writeln!(
+                        f,
+                        "error: {what} {path}: it is a symbolic link to {}, which does not exist; armsheet follows a link only to an existing {want}\n  = hint: {hint}",
+                        shown(to)
+                    ),
+                    (Some(to), Some(found)) => writeln!(
+                        f,
+                        "error: {what} {path}: it is a symbolic link to {}, a {}, not a {want}; armsheet follows a link only to an existing {want}\n  = hint: {hint}",
+                        shown(to),
+                        found.noun()
+                    ),
+                }
+            }
             CliError::Stdout(e) => writeln!(f, "error: cannot write to standard output: {e}"),
             CliError::Exists {
                 path,
@@ -149,7 +199,7 @@ impl fmt::Display for CliError {
             } => writeln!(
                 f,
                 "error: {} already exists; armsheet new never overwrites a file\n  = hint: give another path, e.g. `armsheet new job-42.toml`",
-                path.display()
+                shown(path)
             ),
             CliError::Exists {
                 path,
@@ -157,22 +207,27 @@ impl fmt::Display for CliError {
             } => writeln!(
                 f,
                 "error: {} already exists; armsheet rewind does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
-                path.display()
+                shown(path)
             ),
             CliError::Rewind { design, error } => {
                 writeln!(
                     f,
-                    "error: {design}: cannot rewind: {}",
+                    "error: {}: cannot rewind: {}",
+                    visible(design),
                     rewind_message(error)
                 )
             }
             CliError::RewindParseBack { design, diagnostic } => writeln!(
                 f,
-                "error: {design}: cannot rewind: the new design does not parse back, so nothing was written:\n{diagnostic}"
+                "error: {}: cannot rewind: the new design does not parse back, so nothing was written:\n{diagnostic}",
+                visible(design)
             ),
-            CliError::Pdf { design, message } => {
-                writeln!(f, "error: {design}: the PDF cannot be made: {message}")
-            }
+            CliError::Pdf { design, message } => writeln!(
+                f,
+                "error: {}: the PDF cannot be made: {}",
+                visible(design),
+                visible(message)
+            ),
         }
     }
 }
@@ -189,10 +244,21 @@ impl std::error::Error for CliError {
     }
 }
 
-impl From<Diagnostic> for CliError {
-    fn from(d: Diagnostic) -> Self {
+impl From<Diagnostics> for CliError {
+    fn from(d: Diagnostics) -> Self {
         CliError::Design(Box::new(d))
     }
+}
+
+/// True for a write that failed because the device is full (`ENOSPC`, os error 28).
+fn is_disk_full(e: &io::Error) -> bool {
+    e.kind() == io::ErrorKind::StorageFull || e.raw_os_error() == Some(28)
+}
+
+/// A path as shown on the terminal (in errors and in the `wrote …` lines): made [`visible`],
+/// so a file name cannot carry escapes to the terminal.
+pub(super) fn shown(path: &std::path::Path) -> String {
+    visible(&path.display().to_string()).into_owned()
 }
 
 /// A refused rewind in the command line's words: each message names the flag to change.
@@ -213,6 +279,35 @@ pub fn rewind_message(e: &RewindError) -> String {
             format!("--ra must be a positive resistance in ohms, found {ohms}")
         }
         RewindError::FluxUnknown => "the flux per pole is unknown: give [rating] flux_per_pole_mwb, or [rating] voltage with speed_rpm, or measure the old machine with --from-test V0 N0".to_string(),
+        RewindError::FluxOutOfRange { flux_mwb, source } => {
+            let flux = if flux_mwb.is_finite() {
+                format!("a flux per pole of {} mWb", design_toml::num(*flux_mwb, 4))
+            } else {
+                "no finite flux per pole".to_string()
+            };
+            let range = format!("a design file holds above 0 and at most {MAX_FLUX_MWB} mWb");
+            match source {
+                FluxSource::Test(v, n) => format!(
+                    "--from-test {} V at {} rpm gives {flux}; {range}: check the readings (open-circuit volts first, then rpm)",
+                    design_toml::num(*v, 3),
+                    design_toml::num(*n, 3)
+                ),
+                FluxSource::Rating => format!(
+                    "[rating] voltage and speed_rpm give {flux}; {range}: check them, or give flux_per_pole_mwb or --from-test V0 N0"
+                ),
+                FluxSource::Design => format!(
+                    "the design gives {flux}; {range}: check flux_per_pole_mwb"
+                ),
+            }
+        }
+        RewindError::WorkedSpeedOutOfRange { rpm } => format!(
+            "the old machine's speed works out to {} rpm from its EMF and the flux; a design file holds above 0 and at most {MAX_SPEED_RPM} rpm: give --speed N",
+            design_toml::num(*rpm, 3)
+        ),
+        RewindError::CurrentOutOfRange { amps } => format!(
+            "the new armature current works out to {} A (the rated current scaled by the old/new conductors per path); a design file holds above 0 and at most {MAX_CURRENT_A} A: check [rating] current, or ask for another --voltage",
+            design_toml::num(*amps, 4)
+        ),
         RewindError::SpeedUnknown => "no speed to rewind for: give --speed N, or [rating] speed_rpm or voltage in the design".to_string(),
         RewindError::Connect(e) => format!("cannot connect the coils as asked: {e}"),
         RewindError::DropExceedsEmf => "the resistive drop at this speed is larger than the EMF per conductor: no winding gives this voltage".to_string(),
@@ -272,6 +367,36 @@ mod tests {
         assert_eq!(
             n,
             "--speed must be a positive number of rpm up to 200000, found 0"
+        );
+    }
+
+    #[test]
+    fn a_full_disk_says_so_other_write_errors_keep_their_hint() {
+        for e in [
+            io::Error::from_raw_os_error(28),
+            io::Error::from(io::ErrorKind::StorageFull),
+        ] {
+            let w = CliError::write("out/x.toml", e).to_string();
+            assert!(w.starts_with("error: cannot write out/x.toml: "), "{w}");
+            assert!(
+                w.ends_with(
+                    "\n  = hint: no space left on the device: free some space, or write to another device\n"
+                ),
+                "{w}"
+            );
+        }
+        let full = CliError::CreateDir {
+            path: "out".into(),
+            source: io::Error::from_raw_os_error(28),
+        };
+        assert!(full.to_string().ends_with(
+            "\n  = hint: no space left on the device: free some space, or give a folder on another device with -o DIR\n"
+        ));
+        let denied = CliError::write("x.toml", io::Error::from(io::ErrorKind::PermissionDenied));
+        assert!(
+            denied
+                .to_string()
+                .ends_with("\n  = hint: check that the folder is writable\n")
         );
     }
 

@@ -18,7 +18,7 @@ pub mod output;
 pub mod rewind;
 pub mod sheet;
 
-use std::io::IsTerminal;
+use std::io::{IsTerminal, Write};
 use std::path::PathBuf;
 
 use clap::{Args, Parser, Subcommand};
@@ -142,8 +142,11 @@ pub fn run_from_env() -> u8 {
         },
         // Help and version go to standard output, usage errors to standard error.
         Err(e) if e.use_stderr() => {
+            // The usage error echoes what was typed: shown visibly, like every other echo.
             // If standard error is gone there is no one left to tell.
-            let _ = e.print();
+            let text = e.render().to_string();
+            let shown: Vec<_> = crate::base::visible::visible_lines(&text).collect();
+            let _ = writeln!(std::io::stderr(), "{}", shown.join("\n").trim_end());
             error::EXIT_BAD_INPUT
         }
         Err(e) => match e.print() {
@@ -181,16 +184,7 @@ fn check(a: &CheckArgs) -> Result<Outcome, CliError> {
 }
 
 fn new(a: &NewArgs) -> Result<Outcome, CliError> {
-    output::write_new(&a.path, STARTER.as_bytes()).map_err(|e| {
-        if e.kind() == std::io::ErrorKind::AlreadyExists {
-            CliError::Exists {
-                path: a.path.clone(),
-                by: error::NoOverwrite::New,
-            }
-        } else {
-            CliError::write(&a.path, e)
-        }
-    })?;
-    print_stdout(&format!("wrote {}\n", a.path.display()))?;
+    output::write_new(&a.path, STARTER.as_bytes(), error::NoOverwrite::New)?;
+    print_stdout(&format!("wrote {}\n", error::shown(&a.path)))?;
     Ok(Outcome::Passed)
 }

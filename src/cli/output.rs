@@ -2,6 +2,14 @@
 //! and a rename, and a whole folder of files (a sheet set) staged beside the target and swapped
 //! into place, so an error never leaves a mixed set.
 //!
+//! What may be replaced, for every command that writes (`new`, `rewind`, `draw`, `sheet`): an
+//! output path must be absent, a regular file (a folder for a sheet set), or a symbolic link to
+//! an existing one, which is followed: the file or folder it leads to is replaced and the link
+//! kept. A folder where a file goes, a file where a folder goes, a device (`/dev/null`), a
+//! FIFO, a socket, a link to nothing or to any of these is [`CliError::WrongKind`] (exit 2),
+//! found before anything is written. Temporary files and folders have random names and are
+//! created exclusively (`O_EXCL`), so nothing planted at a name is opened or followed.
+//!
 //! Part of the `cli` stage, the only stage that touches the file system or the terminal.
 
 use std::collections::BTreeSet;
@@ -12,7 +20,7 @@ use std::path::{Path, PathBuf};
 
 use tempfile::{Builder, NamedTempFile};
 
-use super::error::CliError;
+use super::error::{CliError, NoOverwrite};
 
 /// Writes `s` to standard output and flushes it. Every line the CLI prints goes through here;
 /// a failed write is returned, never a panic (a broken pipe then ends the program quietly).
@@ -74,6 +82,11 @@ fn builder<'a>(prefix: &'a str, suffix: &'a str, folder: bool) -> Builder<'a, 'a
 }
 
 /// A temporary file beside `path`, holding `bytes`, synced.
+///
+/// Its name is `.<name>.` followed by random letters and `.tmp`, and it is created with
+/// `O_CREAT | O_EXCL` (tempfile's `create_new`), so nothing planted at a name armsheet might
+/// use (a symbolic link, a FIFO, someone else's file) is opened or followed: a name that is
+/// taken is skipped for another random one.
 fn staged_file(path: &Path, bytes: &[u8]) -> io::Result<NamedTempFile> {
     let prefix = temp_prefix(path);
     let mut tmp = builder(&prefix, ".tmp", false).tempfile_in(parent_of(path))?;
@@ -82,29 +95,179 @@ fn staged_file(path: &Path, bytes: &[u8]) -> io::Result<NamedTempFile> {
     Ok(tmp)
 }
 
-/// Writes `bytes` to `path` through a temporary file in the same folder, then renames it into
-/// place, so a reader never sees a half-written file and an error leaves the old file intact.
-pub fn write_atomic(path: &Path, bytes: &[u8]) -> io::Result<()> {
-    staged_file(path, bytes)?
-        .persist(path)
-        .map(drop)
-        .map_err(|e| e.error)
+/// What is found at a path, a symbolic link aside.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum EntryKind {
+    /// A regular file.
+    File,
+    /// A folder (directory).
+    Folder,
+    /// A character device (`/dev/null`, a terminal).
+    CharDevice,
+    /// A block device (a disk).
+    BlockDevice,
+    /// A FIFO (named pipe).
+    Fifo,
+    /// A Unix socket.
+    Socket,
+    /// Anything else the system has.
+    Other,
 }
 
-/// Creates a new file that must not exist yet (for `new` and `rewind` without `--force`),
-/// through the same temporary file; fails with `AlreadyExists` otherwise, also when the file
-/// appears while it is being written.
-pub fn write_new(path: &Path, bytes: &[u8]) -> io::Result<()> {
-    if path.exists() {
-        return Err(io::Error::new(
-            io::ErrorKind::AlreadyExists,
-            format!("{} already exists", path.display()),
-        ));
+impl EntryKind {
+    fn of(t: fs::FileType) -> Self {
+        #[cfg(unix)]
+        {
+            use std::os::unix::fs::FileTypeExt;
+            if t.is_char_device() {
+                return EntryKind::CharDevice;
+            }
+            if t.is_block_device() {
+                return EntryKind::BlockDevice;
+            }
+            if t.is_fifo() {
+                return EntryKind::Fifo;
+            }
+            if t.is_socket() {
+                return EntryKind::Socket;
+            }
+        }
+        if t.is_file() {
+            EntryKind::File
+        } else if t.is_dir() {
+            EntryKind::Folder
+        } else {
+            EntryKind::Other
+        }
     }
-    staged_file(path, bytes)?
+
+    /// The noun, to follow "a": "regular file", "FIFO (named pipe)".
+    pub fn noun(self) -> &'static str {
+        match self {
+            EntryKind::File => "regular file",
+            EntryKind::Folder => "folder",
+            EntryKind::CharDevice => "character device",
+            EntryKind::BlockDevice => "block device",
+            EntryKind::Fifo => "FIFO (named pipe)",
+            EntryKind::Socket => "socket",
+            EntryKind::Other => "special file",
+        }
+    }
+}
+
+/// An output path armsheet will not write to, and why; nothing has been written.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct WrongKind {
+    /// What was to be written: [`EntryKind::File`] or [`EntryKind::Folder`] (a sheet set).
+    pub want: EntryKind,
+    /// Where the symbolic link at the path points, as the link says, when it is one.
+    pub link: Option<PathBuf>,
+    /// What is there, after the link; `None` for a link to nothing.
+    pub found: Option<EntryKind>,
+}
+
+/// Where an output of kind `want` ([`EntryKind::File`] or [`EntryKind::Folder`]) for `path`
+/// goes, and whether something is there already: `(the path to write at, exists)`.
+///
+/// The rules, the same for every command that writes (`new`, `rewind`, `draw`, `sheet`):
+/// - nothing at `path`: it is created there;
+/// - an entry of the kind wanted: it is replaced (when the command replaces at all);
+/// - a symbolic link to an entry of the kind wanted: the link is followed, the entry it leads
+///   to is replaced and the link kept;
+/// - anything else (a folder where a file goes, a file where a folder goes, a device, a FIFO,
+///   a socket, a link to nothing or to any of these): [`CliError::WrongKind`], before anything
+///   is written.
+fn resolve(path: &Path, want: EntryKind) -> Result<(PathBuf, bool), CliError> {
+    let fail = |e: io::Error| match want {
+        EntryKind::Folder => CliError::CreateDir {
+            path: path.to_path_buf(),
+            source: e,
+        },
+        _ => CliError::write(path, e),
+    };
+    let wrong = |link, found| CliError::WrongKind {
+        path: path.to_path_buf(),
+        why: WrongKind { want, link, found },
+    };
+    let meta = match fs::symlink_metadata(path) {
+        Ok(m) => m,
+        Err(e) if e.kind() == io::ErrorKind::NotFound => return Ok((path.to_path_buf(), false)),
+        Err(e) => return Err(fail(e)),
+    };
+    if !meta.file_type().is_symlink() {
+        let kind = EntryKind::of(meta.file_type());
+        return if kind == want {
+            Ok((path.to_path_buf(), true))
+        } else {
+            Err(wrong(None, Some(kind)))
+        };
+    }
+    let link = fs::read_link(path).map_err(fail)?;
+    match fs::metadata(path) {
+        Ok(m) if EntryKind::of(m.file_type()) == want => {
+            Ok((fs::canonicalize(path).map_err(fail)?, true))
+        }
+        Ok(m) => Err(wrong(Some(link), Some(EntryKind::of(m.file_type())))),
+        Err(e) if e.kind() == io::ErrorKind::NotFound => Err(wrong(Some(link), None)),
+        Err(e) => Err(fail(e)),
+    }
+}
+
+/// Refuses, just before the rename, anything that appeared at `real` since [`resolve`] looked
+/// and is not a regular file (a narrow window, but it costs one `lstat`).
+fn still_a_file_or_absent(user: &Path, real: &Path) -> Result<(), CliError> {
+    match fs::symlink_metadata(real) {
+        Ok(m) if m.file_type().is_file() => Ok(()),
+        Ok(m) => Err(CliError::WrongKind {
+            path: user.to_path_buf(),
+            why: WrongKind {
+                want: EntryKind::File,
+                link: None,
+                found: Some(EntryKind::of(m.file_type())),
+            },
+        }),
+        Err(e) if e.kind() == io::ErrorKind::NotFound => Ok(()),
+        Err(e) => Err(CliError::write(user, e)),
+    }
+}
+
+/// Writes `bytes` to `path` (replacing a regular file there) through a temporary file in the
+/// same folder, then renames it into place, so a reader never sees a half-written file and an
+/// error leaves the old file intact. `path` must be absent, a regular file or a symbolic link
+/// to one (then the file it leads to is replaced and the link kept); anything else is
+/// [`CliError::WrongKind`] and nothing is written (see [`resolve`]).
+pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<(), CliError> {
+    let (real, _) = resolve(path, EntryKind::File)?;
+    let tmp = staged_file(&real, bytes).map_err(|e| CliError::write(path, e))?;
+    still_a_file_or_absent(path, &real)?;
+    tmp.persist(&real)
+        .map(drop)
+        .map_err(|e| CliError::write(path, e.error))
+}
+
+/// Creates a new file that must not exist yet (for `new`, and `rewind` without `--force`),
+/// through the same temporary file. An existing regular file (or a link to one) is
+/// [`CliError::Exists`], refused `by` the command; so is a file that appears while this one is
+/// being written. Anything else at `path` is [`CliError::WrongKind`], as for [`write_atomic`].
+pub fn write_new(path: &Path, bytes: &[u8], by: NoOverwrite) -> Result<(), CliError> {
+    let exists = || CliError::Exists {
+        path: path.to_path_buf(),
+        by,
+    };
+    if resolve(path, EntryKind::File)?.1 {
+        return Err(exists());
+    }
+    staged_file(path, bytes)
+        .map_err(|e| CliError::write(path, e))?
         .persist_noclobber(path)
         .map(drop)
-        .map_err(|e| e.error)
+        .map_err(|e| {
+            if e.error.kind() == io::ErrorKind::AlreadyExists {
+                exists()
+            } else {
+                CliError::write(path, e.error)
+            }
+        })
 }
 
 /// Replaces the folder `target` with one holding exactly `files` (names inside the folder,
@@ -135,27 +298,15 @@ pub fn replace_folder(
     };
     fs::create_dir_all(parent_of(target)).map_err(create_err)?;
     // A folder reached through a symbolic link is replaced where it really is, so the link
-    // keeps pointing at the set.
-    let real: PathBuf = match fs::symlink_metadata(target) {
-        Ok(m) if m.file_type().is_symlink() => fs::canonicalize(target).map_err(create_err)?,
-        _ => target.to_path_buf(),
-    };
+    // keeps pointing at the set; anything but a folder or nothing is refused (see `resolve`).
+    let (real, old_exists) = resolve(target, EntryKind::Folder)?;
     let (user_target, target) = (target, real.as_path());
     let parent = parent_of(target);
     let prefix = temp_prefix(target);
     let is_set = |name: &OsStr| files.iter().any(|(n, _)| OsStr::new(n) == name) || is_stale(name);
     recover_stale(target, &prefix, is_set).map_err(create_err)?;
-    let old_exists = match fs::symlink_metadata(target) {
-        Ok(m) if m.is_dir() => true,
-        Ok(_) => {
-            return Err(create_err(io::Error::new(
-                io::ErrorKind::AlreadyExists,
-                "a file that is not a folder has that name",
-            )));
-        }
-        Err(e) if e.kind() == io::ErrorKind::NotFound => false,
-        Err(e) => return Err(create_err(e)),
-    };
+    // A set a killed run had moved aside may be back in place now.
+    let old_exists = old_exists || fs::symlink_metadata(target).is_ok_and(|m| m.is_dir());
     let stage = builder(&prefix, ".new", true)
         .tempdir_in(parent)
         .map_err(create_err)?;
@@ -315,8 +466,40 @@ impl Carried<'_> {
     }
 }
 
+/// Writes a new file in the freshly made staging folder; `create_new` (`O_EXCL`) so nothing put
+/// there meanwhile is opened or followed.
 fn write_file(path: &Path, bytes: &[u8]) -> io::Result<()> {
-    let mut f = fs::File::create(path)?;
+    let mut f = fs::OpenOptions::new()
+        .write(true)
+        .create_new(true)
+        .open(path)?;
     f.write_all(bytes)?;
     f.sync_all()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn temporary_names_are_random_and_beside_the_target() {
+        let dir = tempfile::tempdir().unwrap();
+        let target = dir.path().join("x.toml");
+        let a = staged_file(&target, b"a").unwrap();
+        let b = staged_file(&target, b"b").unwrap();
+        let name = |t: &NamedTempFile| t.path().file_name().unwrap().to_string_lossy().into_owned();
+        let (na, nb) = (name(&a), name(&b));
+        assert_ne!(na, nb);
+        for n in [&na, &nb] {
+            let random = n
+                .strip_prefix(".x.toml.")
+                .and_then(|r| r.strip_suffix(".tmp"))
+                .unwrap_or_else(|| panic!("{n}"));
+            assert!(
+                random.len() >= 6 && random.chars().all(|c| c.is_ascii_alphanumeric()),
+                "{n}"
+            );
+        }
+        assert_eq!(a.path().parent(), Some(dir.path()));
+    }
 }

@@ -1,10 +1,14 @@
 //! `armsheet rewind`: works out a new winding for a new voltage, speed or connection, and
 //! writes it as a new design file; or back-solves the flux from a no-load test.
 //!
-//! Part of the `cli` stage: reads the design, calls the pure [`crate::rating::rewind()`],
-//! parses the new file back with armsheet's own parser before writing, and writes it with
-//! [`super::output::write_new`] (or [`super::output::write_atomic`] with `--force`). A refused
-//! request is a [`CliError::Rewind`], worded with the flags in [`super::error::rewind_message`].
+//! Part of the `cli` stage: reads the design, calls the pure [`crate::rating::rewind()`] (or
+//! [`crate::rating::rewind::no_load_test`]), parses every new file back with armsheet's own
+//! parser and checks it before writing (a file `armsheet check` would refuse is never
+//! written), and writes it with [`super::output::write_new`] (or
+//! [`super::output::write_atomic`] with `--force`: only a regular file, or a symbolic link to
+//! one, is replaced). The report is printed only once the file is in place; a refusal is the
+//! error alone, on standard error. A refused request is a [`CliError::Rewind`], worded with the
+//! flags in [`super::error::rewind_message`].
 
 use std::path::{Path, PathBuf};
 
@@ -14,6 +18,7 @@ use super::Outcome;
 use super::error::{CliError, NoOverwrite};
 use super::load::load_design;
 use super::output::{print_stdout, write_atomic, write_new};
+use crate::checks::Checked;
 use crate::design::{WindingType, parse_design};
 use crate::rating::{self, RewindRequest, design_toml, rewind::no_load_test};
 use crate::render::rewind_text::{no_load_header, render_no_load, render_rewind};
@@ -25,7 +30,9 @@ EMFs and the new connection's paths and segments, rounded to whole turns (the sp
 reported); the conductor keeps the current density (nearest AWG and metric R20 sizes, up to 4
 in hand). The flux comes from the design (flux_per_pole_mwb, or voltage and speed_rpm in
 [rating]) or from a no-load test: --from-test V0 N0 (open-circuit volts at rpm).
-The new file is parsed back before it is written; an existing file is kept unless --force.
+The new file is parsed back before it is written; an existing file is kept unless --force,
+which replaces only a regular file (a symbolic link to one is followed, the link kept):
+never a folder, a device, a FIFO or a link to nothing.
 Without -o the file is written beside the design as NAME-<V>V.toml.
 Exit codes: 0 written, 2 bad input, an impossible request or output that could not be written.";
 
@@ -65,12 +72,15 @@ pub struct RewindArgs {
     /// Where to write the new design.
     #[arg(short = 'o', long = "output", value_name = "NEW.toml")]
     pub output: Option<PathBuf>,
-    /// Overwrite the output file if it exists.
+    /// Overwrite the output file if it exists (a regular file, or a link to one, only).
     #[arg(long)]
     pub force: bool,
 }
 
-/// Runs `rewind`: prints the report, writes the new design.
+/// Runs `rewind`: writes the new design, then prints the report. A refusal (an impossible
+/// request, a new file that would not parse back, an output path that is taken or is not a
+/// regular file, a failed write) is the error alone, on standard error: nothing is printed on
+/// standard output and nothing is written.
 pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
     let checked = load_design(&a.design)?;
     let (d, w) = (&checked.design, &checked.winding);
@@ -86,16 +96,16 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
         // --from-test alone: report the flux, and record it if asked to.
         let (v0, n0) = from_test.unwrap_or((0.0, 0.0));
         let test = no_load_test(d, w, v0, n0, a.ra).map_err(refuse)?;
-        let s = render_no_load(&test, &name, env!("CARGO_PKG_VERSION"));
-        let shown = print_stdout(&s);
-        return match &a.output {
-            None => shown.map(|()| Outcome::Passed),
-            Some(out) => {
-                let header = no_load_header(&test, &name, &asked);
-                let text = design_toml::write_design(&test.design, &header);
-                write_checked(out, &text, a.force, shown)
-            }
-        };
+        let mut said = render_no_load(&test, &name, env!("CARGO_PKG_VERSION"));
+        if let Some(out) = &a.output {
+            let header = no_load_header(&test, &name, &asked);
+            let text = design_toml::write_design(&test.design, &header);
+            parse_back(&text, out, &name)?;
+            write_design_file(out, &text, a.force)?;
+            said.push_str(&format!("wrote {}\n", super::error::shown(out)));
+        }
+        print_stdout(&said)?;
+        return Ok(Outcome::Passed);
     };
 
     let req = RewindRequest {
@@ -115,51 +125,42 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
         .clone()
         .unwrap_or_else(|| default_output(&a.design, voltage));
     let text = plan.design_file(&name, &asked);
-    // Parse the new file back with armsheet's own parser before anything is written.
-    let out_name = out.display().to_string();
-    let back = parse_design(&text, &out_name).map_err(|diagnostic| CliError::RewindParseBack {
-        design: name.clone(),
-        diagnostic: Box::new(diagnostic),
-    })?;
-    let new = crate::checks::check(back);
-    let report = render_rewind(
+    let new = parse_back(&text, &out, &name)?;
+    write_design_file(&out, &text, a.force)?;
+    let mut said = render_rewind(
         &plan,
         &name,
         &asked,
         new.rating.as_ref(),
         env!("CARGO_PKG_VERSION"),
     );
-    let shown = print_stdout(&report);
-    write_checked(&out, &text, a.force, shown)
+    said.push_str(&format!("wrote {}\n", super::error::shown(&out)));
+    // The file is in place: a closed standard output now ends the command quietly.
+    print_stdout(&said)?;
+    Ok(Outcome::Passed)
 }
 
-/// Writes the new design (replacing an existing file only with `--force`) and says so.
-/// `shown` is how printing the report went: a closed standard output does not stop the file
-/// from being written (an error writing the file is reported first).
-fn write_checked(
-    out: &Path,
-    text: &str,
-    force: bool,
-    shown: Result<(), CliError>,
-) -> Result<Outcome, CliError> {
-    let result = if force {
+/// Parses `text`, the new design file for `out`, with armsheet's own parser and checks it,
+/// exactly as `armsheet check` would read the file; a file it would refuse (exit 2) is
+/// [`CliError::RewindParseBack`], so armsheet never writes a design it rejects. `design` is the
+/// old design file, as given, for the message.
+fn parse_back(text: &str, out: &Path, design: &str) -> Result<Checked, CliError> {
+    parse_design(text, &out.display().to_string())
+        .map(crate::checks::check)
+        .map_err(|diagnostic| CliError::RewindParseBack {
+            design: design.to_string(),
+            diagnostic: Box::new(diagnostic),
+        })
+}
+
+/// Writes the new design: a new file, or with `--force` a replaced regular file (a symbolic
+/// link to one is followed). Anything else at `out` is refused before anything is written.
+fn write_design_file(out: &Path, text: &str, force: bool) -> Result<(), CliError> {
+    if force {
         write_atomic(out, text.as_bytes())
     } else {
-        write_new(out, text.as_bytes())
-    };
-    result.map_err(|e| {
-        if e.kind() == std::io::ErrorKind::AlreadyExists {
-            CliError::Exists {
-                path: out.to_path_buf(),
-                by: NoOverwrite::Rewind,
-            }
-        } else {
-            CliError::write(out, e)
-        }
-    })?;
-    shown?;
-    print_stdout(&format!("wrote {}\n", out.display()))?;
-    Ok(Outcome::Passed)
+        write_new(out, text.as_bytes(), NoOverwrite::Rewind)
+    }
 }
 
 /// `designs/hoist.toml` at 220 V → `designs/hoist-220V.toml`.
@@ -200,5 +201,7 @@ fn asked_line(a: &RewindArgs) -> String {
     if let Some(r) = a.ra {
         s.push_str(&format!(" --ra {}", design_toml::num(r, 6)));
     }
-    s.replace(['\n', '\r'], " ")
+    // Control characters in the file name stay: the design file's header escapes them visibly
+    // (`design_toml::comment_text`).
+    s
 }

@@ -14,7 +14,7 @@ use std::path::{Path, PathBuf};
 use clap::Args;
 
 use super::Outcome;
-use super::error::CliError;
+use super::error::{CliError, shown};
 use super::load::load_design;
 use super::output::{print_stdout, replace_folder, write_atomic};
 use crate::layout::{Paper, SheetOptions, Window, draw_page, sheet_pages};
@@ -175,10 +175,10 @@ pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
     let removed = replace_folder(&dir, &all, |name| is_stale_sheet(name, count))?;
     let mut said = String::new();
     for (name, _) in &all {
-        let _ = writeln!(said, "wrote {}", dir.join(name).display());
+        let _ = writeln!(said, "wrote {}", shown(&dir.join(name)));
     }
     for p in removed {
-        let _ = writeln!(said, "removed stale {}", p.display());
+        let _ = writeln!(said, "removed stale {}", shown(&p));
     }
     print_stdout(&said)?;
     Ok(Outcome::of(&checked.findings))
@@ -209,7 +209,7 @@ pub fn draw(a: &DrawArgs) -> Result<Outcome, CliError> {
             source,
         })?;
     }
-    write_atomic(&path, svg.as_bytes()).map_err(|e| CliError::write(&path, e))?;
-    print_stdout(&format!("wrote {}\n", path.display()))?;
+    write_atomic(&path, svg.as_bytes())?;
+    print_stdout(&format!("wrote {}\n", shown(&path)))?;
     Ok(Outcome::of(&checked.findings))
 }

@@ -2,7 +2,8 @@
 //!
 //! Stage 2 of the pipeline (see [`crate::STAGES`]); it imports only `base` and `theory`.
 //! Nothing here reads files: the CLI passes the bytes in. Errors are [`Diagnostic`]s naming
-//! file, line, column, key, what was expected and a hint.
+//! file, line, column, key, what was expected and a hint; a file's problems come back
+//! together as [`Diagnostics`], in source order.
 //!
 //! The files:
 //! - `parse.rs`: the orchestration — UTF-8, TOML, the list of tables, the order of readers;
@@ -12,7 +13,8 @@
 //!   resolves the segment count from `[armature]` and `[winding]`;
 //! - `limits.rs`: the `[limits]` spec table [`LIMITS`], the one place a rating limit is written;
 //! - `reader.rs`: located, typed access to one table (shared by every reader);
-//! - `diagnostic.rs`: the error and its rendering; `model.rs`: the resolved [`Design`].
+//! - `diagnostic.rs`: the error, the list of a file's errors and their rendering (every text
+//!   from the file shown through `base::visible`); `model.rs`: the resolved [`Design`].
 //!
 //! To add a key: add it to the table reader's `KEYS`, read and validate it there, add the
 //! field (with its key and default in the doc) to [`Design`] or the table's type in
@@ -32,7 +34,7 @@ mod parse;
 mod reader;
 mod tables;
 
-pub use diagnostic::Diagnostic;
+pub use diagnostic::{Diagnostic, Diagnostics, MAX_DIAGNOSTICS};
 pub use limits::{Bound, LIMIT_KEYS, LIMITS, LimitId, LimitSpec, Limits};
 pub use model::*;
 pub use parse::{parse_design, parse_design_bytes};

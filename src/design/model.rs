@@ -214,6 +214,14 @@ pub mod bounds {
     pub const MAX_MULTIPLICITY: i64 = 6;
     /// Largest turns per coil accepted.
     pub const MAX_TURNS: i64 = 10_000;
+    /// Largest `[rating] voltage` accepted, V.
+    pub const MAX_VOLTAGE: f64 = 100_000.0;
+    /// Largest `[rating] current` accepted, A.
+    pub const MAX_CURRENT_A: f64 = 100_000.0;
+    /// Largest `speed_rpm` accepted, rpm.
+    pub const MAX_SPEED_RPM: f64 = 200_000.0;
+    /// Largest `flux_per_pole_mwb` accepted, mWb.
+    pub const MAX_FLUX_MWB: f64 = 100_000.0;
 }
 
 /// A fully resolved, validated armature design.

@@ -1,16 +1,23 @@
-//! `parse_design`: TOML text → validated [`Design`], or the first located [`Diagnostic`].
+//! `parse_design`: TOML text → validated [`Design`], or every located [`Diagnostic`] found.
 //!
 //! Part of the `design` stage: no I/O. The CLI reads the bytes and hands them here. This file
 //! only orchestrates: it checks UTF-8 and TOML, refuses unknown tables, and calls the table
-//! readers in `tables/` in a fixed order, so the first problem in that order is the one
-//! reported. Each table's keys, reading and validation live in its reader.
+//! readers in `tables/` in a fixed order. A reader records a problem and the reading goes on
+//! with the next table (and, where its keys are independent, the next key), so the problems
+//! of a file are reported together, in source order, up to [`super::MAX_DIAGNOSTICS`]. A table whose
+//! values a later one needs (`[armature]` for `[winding]`, `[winding]`'s segment count for the
+//! brush width) is skipped by that later reader when in error. Reading stops at the first
+//! problem when the rest would mean nothing: not UTF-8, not TOML, an unknown or missing
+//! table. Each table's keys, reading and validation live in its reader.
 
 use toml::de::DeTable;
 
+use crate::base::visible::{ECHO_WIDTH, clip};
+
 use super::Diagnostic;
-use super::limits::Limits;
+use super::diagnostic::Diagnostics;
 use super::model::*;
-use super::reader::{Source, TableReader, nearest};
+use super::reader::{Found, Source, TableReader, nearest};
 use super::tables::{armature, commutator, conductor, core, job, limits, rating, winding};
 
 /// The tables a design may hold, in the order of the design-file reference.
@@ -26,7 +33,7 @@ const TABLES: &[&str] = &[
 ];
 
 /// Parses raw bytes: checks UTF-8 first, naming the line and column of the first bad byte.
-pub fn parse_design_bytes(bytes: &[u8], file: &str) -> Result<Design, Diagnostic> {
+pub fn parse_design_bytes(bytes: &[u8], file: &str) -> Result<Design, Diagnostics> {
     match std::str::from_utf8(bytes) {
         Ok(text) => parse_design(text, file),
         Err(e) => {
@@ -35,7 +42,7 @@ pub fn parse_design_bytes(bytes: &[u8], file: &str) -> Result<Design, Diagnostic
             let line = text.matches('\n').count() + 1;
             let line_start = text.rfind('\n').map_or(0, |i| i + 1);
             let column = text[line_start..].chars().count() + 1;
-            Err(Diagnostic {
+            Err(Diagnostics::from(Diagnostic {
                 file: file.to_string(),
                 line,
                 column,
@@ -47,14 +54,34 @@ pub fn parse_design_bytes(bytes: &[u8], file: &str) -> Result<Design, Diagnostic
                 ),
                 hint: Some("save the design as UTF-8 plain text (a TOML file)".to_string()),
                 source_line: text[line_start..].to_string(),
-            })
+            }))
         }
     }
 }
 
-/// Parses and validates a design held in `text`; `file` names it in diagnostics.
-pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
-    let src = Source { file, text };
+/// Parses and validates a design held in `text`; `file` names it in diagnostics. On failure
+/// every problem found is returned, in source order.
+pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostics> {
+    let found = Found::default();
+    let read = read_design(text, file, &found);
+    let mut list = found.into_vec();
+    let design = read.unwrap_or_else(|stop| {
+        list.push(stop);
+        None
+    });
+    match Diagnostics::new(list) {
+        Some(all) => Err(all),
+        None => design.ok_or_else(|| {
+            // Not reached: a reader that returns nothing records why.
+            Diagnostic::new(file, text, 0..0, "file", "the design could not be read").into()
+        }),
+    }
+}
+
+/// Reads the design, recording problems in `found`: `Ok(None)` when any was recorded, `Err`
+/// for a problem that stops the reading (reported after those recorded before it).
+fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, Diagnostic> {
+    let src = Source { file, text, found };
     if text.trim().is_empty() {
         return Err(src
             .error(
@@ -72,7 +99,10 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
             let d = src.error(
                 k.span(),
                 word,
-                format!("unknown table or key `{word}` at the top level"),
+                format!(
+                    "unknown table or key `{}` at the top level",
+                    clip(word, ECHO_WIDTH)
+                ),
             );
             return Err(match nearest(word, TABLES) {
                 Some(n) => d.with_hint(format!("did you mean [{n}]?")),
@@ -115,33 +145,35 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
         ))
     };
 
-    let job = match table("job") {
-        Some(t) => job::read(&t)?,
-        None => Job::default(),
-    };
+    let job = table("job").map_or_else(Job::default, |t| job::read(&t));
     let arm =
         table("armature").ok_or_else(|| missing_table("armature", "poles = 4\n    slots = 24"))?;
     let win = table("winding")
         .ok_or_else(|| missing_table("winding", "type = \"lap\"\n    turns = 2"))?;
-    // Both tables' keys are checked before any value, so a misspelt key is reported first.
-    arm.deny_unknown(armature::KEYS)?;
-    win.deny_unknown(winding::KEYS)?;
-    let a = armature::read(&arm)?;
-    let w = winding::read(&win, &arm, &a)?;
-    let r = rating::read(&src, &win, table("rating").as_ref())?;
-    let conductor = table("conductor")
-        .map(|t| conductor::read(&t))
-        .transpose()?;
-    let core = table("core").map(|t| core::read(&t)).transpose()?;
-    let commutator = table("commutator")
-        .map(|t| commutator::read(&t, w.segments))
-        .transpose()?;
-    let limits = match table("limits") {
-        Some(t) => limits::read(&t)?,
-        None => Limits::default(),
+    // A table with required keys is not read further when it has an unknown key: a misspelt
+    // key would only come back as a missing one.
+    let arm_keys = src.keep(arm.deny_unknown(armature::KEYS));
+    let win_keys = src.keep(win.deny_unknown(winding::KEYS));
+    let a = arm_keys.and_then(|()| armature::read(&arm));
+    let w = win_keys.and_then(|()| winding::read(&win, &arm, a.as_ref()));
+    let r = src.keep(rating::read(&src, &win, table("rating").as_ref()));
+    let conductor = table("conductor").map(|t| conductor::read(&t));
+    let core = table("core").map(|t| core::read(&t));
+    let commutator =
+        table("commutator").map(|t| commutator::read(&t, w.as_ref().map(|w| w.segments)));
+    let limits = table("limits").map(|t| src.keep(limits::read(&t)));
+    let (Some(a), Some(w), Some(r)) = (a, w, r) else {
+        return Ok(None);
     };
+    if found.any() {
+        return Ok(None);
+    }
+    let conductor = conductor.flatten();
+    let core = core.flatten();
+    let commutator = commutator.flatten();
+    let limits = limits.flatten().unwrap_or_default();
 
-    Ok(Design {
+    Ok(Some(Design {
         file_name: file.to_string(),
         job,
         poles: a.poles.value as u32,
@@ -167,7 +199,7 @@ pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostic> {
         core,
         commutator,
         limits,
-    })
+    }))
 }
 
 fn tables_list() -> String {
@@ -200,7 +232,99 @@ fn header_span(text: &str, name: &str) -> Option<std::ops::Range<usize>> {
 
 fn toml_error(src: &Source<'_>, e: &toml::de::Error) -> Diagnostic {
     let span = e.span().unwrap_or(0..0);
-    let msg = e.message().trim().to_string();
-    src.error(span, "file", format!("this is not valid TOML: {msg}"))
-        .with_hint("each line is `key = value`; text goes in quotes, tables are `[name]` on their own line")
+    let msg = e.message().trim();
+    let text = src.text;
+    let at = span.start.min(text.len());
+    let line_start = text[..at].rfind('\n').map_or(0, |i| i + 1);
+    let table = table_above(&text[..line_start]);
+    let line = &text[line_start..];
+    let line = &line[..line.find('\n').unwrap_or(line.len())];
+    let key = key_of_line(line);
+    let dotted = match (&table, key) {
+        (Some(t), Some(k)) => format!("{t}.{k}"),
+        (None, Some(k)) => k.to_string(),
+        (Some(t), None) if !line.trim_start().starts_with('[') => format!("[{t}]"),
+        _ => "file".to_string(),
+    };
+    if msg == "duplicate key"
+        && let Some(k) = key
+    {
+        let within = match &table {
+            Some(t) => format!(" in [{t}]"),
+            None => String::new(),
+        };
+        let first = first_definition(text, line_start, k)
+            .map_or(String::new(), |n| format!(": first defined on line {n}"));
+        return src
+            .error(span, dotted, format!("duplicate key `{k}`{within}{first}"))
+            .with_hint("a key is given once in its table: remove one of the two lines");
+    }
+    if msg == "duplicate key" && line.trim_start().starts_with('[') {
+        let name = line.trim().trim_matches(['[', ']']).trim();
+        let first = header_span(text, name)
+            .filter(|h| h.start < line_start)
+            .map_or(String::new(), |h| {
+                format!(
+                    ": first defined on line {}",
+                    text[..h.start].matches('\n').count() + 1
+                )
+            });
+        return src
+            .error(
+                span,
+                format!("[{}]", clip(name, ECHO_WIDTH)),
+                format!("duplicate table [{}]{first}", clip(name, ECHO_WIDTH)),
+            )
+            .with_hint("a table is given once: move its keys under the first header");
+    }
+    let hint = if key.is_some_and(|k| k == "date" || k.ends_with("_date")) && msg.contains("date") {
+        "write the date as YYYY-MM-DD (a real day), or as text in quotes: `date = \"15 March 2024\"`"
+    } else {
+        "each line is `key = value`; text goes in quotes, tables are `[name]` on their own line"
+    };
+    src.error(span, dotted, format!("this is not valid TOML: {msg}"))
+        .with_hint(hint)
+}
+
+/// The name of the last `[table]` header in `text`, if any.
+fn table_above(text: &str) -> Option<String> {
+    text.lines().rev().find_map(|l| {
+        let l = l.trim();
+        let inner = l.strip_prefix('[')?.split(']').next()?;
+        let inner = inner.trim_start_matches('[').trim();
+        (!inner.is_empty() && inner.chars().all(is_bare_key_char)).then(|| inner.to_string())
+    })
+}
+
+/// The bare (possibly dotted) key a `key = value` line begins with.
+fn key_of_line(line: &str) -> Option<&str> {
+    let (key, _) = line.split_once('=')?;
+    let key = key.trim();
+    (!key.is_empty() && key.chars().all(is_bare_key_char)).then_some(key)
+}
+
+fn is_bare_key_char(c: char) -> bool {
+    c.is_ascii_alphanumeric() || matches!(c, '_' | '-' | '.')
+}
+
+/// The 1-based line where `key` is first given in the table that holds byte `before`.
+fn first_definition(text: &str, before: usize, key: &str) -> Option<usize> {
+    let head = &text[..before];
+    // The table starts after the last header line above `before`.
+    let mut from = 0;
+    let mut offset = 0;
+    for l in head.split_inclusive('\n') {
+        if l.trim_start().starts_with('[') {
+            from = offset + l.len();
+        }
+        offset += l.len();
+    }
+    let mut n = head[..from].matches('\n').count();
+    for l in head[from..].split_inclusive('\n') {
+        n += 1;
+        if key_of_line(l) == Some(key) {
+            return Some(n);
+        }
+    }
+    None
 }

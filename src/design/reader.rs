@@ -4,21 +4,57 @@
 //! [`Diagnostic`] that names the key, what was expected and a hint. Unknown keys are errors,
 //! with the nearest known key suggested.
 
+use std::cell::RefCell;
 use std::ops::{Range, RangeInclusive};
 
 use toml::Spanned;
 use toml::de::{DeTable, DeValue};
 
 use super::Diagnostic;
+use crate::base::visible::{ECHO_WIDTH, clip};
 
-/// The source text and file name, shared by every reader of one document.
+/// The source text and file name, shared by every reader of one document, with the list
+/// the readers record their problems in.
 #[derive(Clone, Copy)]
 pub(crate) struct Source<'s> {
     pub file: &'s str,
     pub text: &'s str,
+    pub found: &'s Found,
+}
+
+/// The problems found so far in one document; readers record one and read on, so a file's
+/// problems are reported together.
+#[derive(Default)]
+pub(crate) struct Found(RefCell<Vec<Diagnostic>>);
+
+impl Found {
+    /// Records a problem.
+    pub fn push(&self, d: Diagnostic) {
+        self.0.borrow_mut().push(d);
+    }
+
+    /// The value of `r`, or `None` with its problem recorded.
+    pub fn keep<T>(&self, r: Result<T, Diagnostic>) -> Option<T> {
+        r.map_err(|d| self.push(d)).ok()
+    }
+
+    /// True once a problem is recorded.
+    pub fn any(&self) -> bool {
+        !self.0.borrow().is_empty()
+    }
+
+    /// The problems recorded, in the order found.
+    pub fn into_vec(self) -> Vec<Diagnostic> {
+        self.0.into_inner()
+    }
 }
 
 impl<'s> Source<'s> {
+    /// The value of `r`, or `None` with its problem recorded.
+    pub fn keep<T>(&self, r: Result<T, Diagnostic>) -> Option<T> {
+        self.found.keep(r)
+    }
+
     pub fn error(
         &self,
         span: Range<usize>,
@@ -47,6 +83,10 @@ pub(crate) struct TableReader<'a, 'i> {
 
 /// Suggests the nearest of `known` to `word`, when one is close enough to be a typo.
 pub(crate) fn nearest<'k>(word: &str, known: &[&'k str]) -> Option<&'k str> {
+    // A word far longer than any key is no typo (and comparing it would cost its length).
+    if word.len() > 64 {
+        return None;
+    }
     known
         .iter()
         .map(|k| (strsim::damerau_levenshtein(word, k), *k))
@@ -64,28 +104,50 @@ impl<'a, 'i> TableReader<'a, 'i> {
         self.table.get(key)
     }
 
-    /// Fails on the first key not in `known`, suggesting the nearest.
+    /// Fails on a key not in `known`, suggesting the nearest: the first such key is the
+    /// error returned, and any further ones are recorded in the source's [`Found`].
     pub fn deny_unknown(&self, known: &[&str]) -> Result<(), Diagnostic> {
-        for (k, _) in self.table.iter() {
+        // In source order (the table iterates by name), and no more than a report shows.
+        let mut unknown: Vec<_> = self
+            .table
+            .iter()
+            .map(|(k, _)| k)
+            .filter(|k| !known.contains(&k.get_ref().as_ref()))
+            .collect();
+        unknown.sort_by_key(|k| k.span().start);
+        unknown.truncate(super::diagnostic::MAX_DIAGNOSTICS + 1);
+        let mut first = None;
+        for k in unknown {
             let word: &str = k.get_ref();
-            if !known.contains(&word) {
-                let mut d = self.src.error(
-                    k.span(),
-                    self.key(word),
-                    format!("unknown key `{word}` in [{}]", self.name),
-                );
-                d = match nearest(word, known) {
-                    Some(n) => d.with_hint(format!("did you mean `{n}`?")),
-                    None => d.with_hint(format!(
-                        "known keys in [{}]: {}",
-                        self.name,
-                        known.join(", ")
-                    )),
-                };
-                return Err(d);
+            let d = self.src.error(
+                k.span(),
+                self.key(word),
+                format!(
+                    "unknown key `{}` in [{}]",
+                    clip(word, ECHO_WIDTH),
+                    self.name
+                ),
+            );
+            let d = match nearest(word, known) {
+                Some(n) => d.with_hint(format!("did you mean `{n}`?")),
+                None => d.with_hint(format!(
+                    "known keys in [{}]: {}",
+                    self.name,
+                    known.join(", ")
+                )),
+            };
+            if first.is_none() {
+                first = Some(d);
+            } else {
+                self.src.found.push(d);
             }
         }
-        Ok(())
+        first.map_or(Ok(()), Err)
+    }
+
+    /// The value of `r`, or `None` with its problem recorded.
+    pub fn keep<T>(&self, r: Result<T, Diagnostic>) -> Option<T> {
+        self.src.keep(r)
     }
 
     fn wrong_type(&self, key: &str, v: &Spanned<DeValue<'i>>, expected: &str) -> Diagnostic {
@@ -150,7 +212,7 @@ impl<'a, 'i> TableReader<'a, 'i> {
             }
             _ => {
                 let shown = match v.get_ref() {
-                    DeValue::Integer(i) => i.to_string(),
+                    DeValue::Integer(i) => clip(&i.to_string(), ECHO_WIDTH).into_owned(),
                     _ => String::new(),
                 };
                 let msg = if n.is_some_and(|n| n > i128::from(*range.end())) && *range.end() >= 1000
@@ -261,7 +323,7 @@ impl<'a, 'i> TableReader<'a, 'i> {
                 let d = self.src.error(
                     v.span(),
                     self.key(key),
-                    format!("expected {quoted}, found \"{s}\""),
+                    format!("expected {quoted}, found \"{}\"", clip(s, ECHO_WIDTH)),
                 );
                 Err(match nearest(&lower, options) {
                     Some(n) => d.with_hint(format!("did you mean \"{n}\"?")),
@@ -287,11 +349,12 @@ impl<'a, 'i> TableReader<'a, 'i> {
 }
 
 fn raw_number(v: &DeValue<'_>) -> String {
-    match v {
+    let raw = match v {
         DeValue::Integer(i) => i.to_string(),
         DeValue::Float(f) => f.to_string(),
         other => other.type_str().to_string(),
-    }
+    };
+    clip(&raw, ECHO_WIDTH).into_owned()
 }
 
 /// Writes a bound for a message: whole numbers without a decimal point.

@@ -5,7 +5,9 @@
 //! connection's paths and segments, rounded to whole turns; the conductor from the same current
 //! density (so the same copper in the slot and the same power). A request that cannot be met is
 //! a [`RewindError`] carrying the numbers; the CLI words it (naming its flags) and writes the
-//! result.
+//! result. Every number the new design file takes (flux, speed, voltage, current) is first
+//! range-checked against what a design file holds, so a rewind never asks for a file armsheet
+//! would refuse; the CLI still parses the file back before writing it.
 
 use super::conductor::{self, WireFamily, WireOption};
 use super::scheme::{ConnectError, Scheme, connect};
@@ -59,11 +61,14 @@ impl FluxSource {
     }
 }
 
-/// The highest voltage a rewind is worked out for, V.
-pub const MAX_VOLTAGE: f64 = 100_000.0;
+/// The bounds a rewind works within are the design file's own ([`bounds`]): the highest
+/// voltage and speed it is worked out for, and the largest flux and current it writes.
+pub use crate::design::bounds::{MAX_CURRENT_A, MAX_FLUX_MWB, MAX_SPEED_RPM, MAX_VOLTAGE};
 
-/// The highest speed a rewind is worked out for, rpm.
-pub const MAX_SPEED_RPM: f64 = 200_000.0;
+/// True for a value a design file holds in a key that takes a number above 0 and at most `max`.
+fn in_file_range(x: f64, max: f64) -> bool {
+    x > 0.0 && x <= max
+}
 
 /// A request that cannot be met. The numbers are fields; the words, which name the command
 /// line's flags, are the CLI's (the CLI exits 2).
@@ -93,6 +98,27 @@ pub enum RewindError {
     },
     /// Neither the design nor a test gives the flux per pole.
     FluxUnknown,
+    /// The flux per pole worked out is not a number a design file holds (above 0, at most
+    /// [`MAX_FLUX_MWB`]), so it cannot be written or kept.
+    FluxOutOfRange {
+        /// The flux worked out, mWb (may be infinite or NaN).
+        flux_mwb: f64,
+        /// Where it came from.
+        source: FluxSource,
+    },
+    /// The old machine's speed, worked out from its EMF and the flux because neither the
+    /// request nor the design gives one, is not a number a design file holds (above 0, at most
+    /// [`MAX_SPEED_RPM`]).
+    WorkedSpeedOutOfRange {
+        /// The speed worked out, rpm.
+        rpm: f64,
+    },
+    /// The new armature current (the rated current scaled by the conductor ratio) is not a
+    /// number a design file holds (above 0, at most [`MAX_CURRENT_A`]).
+    CurrentOutOfRange {
+        /// The current worked out, A.
+        amps: f64,
+    },
     /// Neither the request nor the design gives a speed.
     SpeedUnknown,
     /// The coils cannot be connected as asked.
@@ -196,17 +222,25 @@ pub struct RewindPlan {
 }
 
 /// The flux per pole from a no-load test: Φ = 60·a·V0/(P·Z·N0), Wb, open circuit so E = V0.
+/// A flux a design file cannot hold (above [`MAX_FLUX_MWB`], or rounding to nothing) is
+/// [`RewindError::FluxOutOfRange`]: the readings are wrong (volts and rpm swapped, say).
 pub fn flux_from_test(d: &Design, w: &Winding, volts: f64, rpm: f64) -> Result<f64, RewindError> {
     if !(volts > 0.0 && volts.is_finite() && rpm > 0.0 && rpm.is_finite()) {
         return Err(RewindError::TestNotPositive { volts, rpm });
     }
-    Ok(emf::flux_for(
-        d.poles,
-        w.conductors,
-        w.paths_formula.max(1),
-        volts,
-        rpm,
-    ))
+    let flux_wb = emf::flux_for(d.poles, w.conductors, w.paths_formula.max(1), volts, rpm);
+    check_flux(flux_wb, FluxSource::Test(volts, rpm))?;
+    Ok(flux_wb)
+}
+
+/// `flux_wb` if a design file can hold it in mWb, else [`RewindError::FluxOutOfRange`].
+fn check_flux(flux_wb: f64, source: FluxSource) -> Result<f64, RewindError> {
+    let flux_mwb = flux_wb * 1000.0;
+    if in_file_range(flux_mwb, MAX_FLUX_MWB) {
+        Ok(flux_wb)
+    } else {
+        Err(RewindError::FluxOutOfRange { flux_mwb, source })
+    }
 }
 
 /// The design with its flux per pole set to `flux_mwb` (for `--from-test` without `--voltage`).
@@ -316,7 +350,10 @@ pub fn rewind_rated(
     ) {
         (Some((v, n)), _, _) => (flux_from_test(d, w, v, n)?, FluxSource::Test(v, n)),
         (None, Some(f), _) => (f / 1000.0, FluxSource::Design),
-        (None, None, Some(f)) => (f / 1000.0, FluxSource::Rating),
+        (None, None, Some(f)) => (
+            check_flux(f / 1000.0, FluxSource::Rating)?,
+            FluxSource::Rating,
+        ),
         (None, None, None) => {
             return Err(RewindError::FluxUnknown);
         }
@@ -332,9 +369,11 @@ pub fn rewind_rated(
     let old_speed = d
         .speed_rpm
         .or_else(|| (old_emf_v > 0.0).then(|| emf::speed_for(d.poles, z0, a0, old_emf_v, flux_wb)));
-    let speed = match req.speed_rpm.or(old_speed) {
-        Some(n) => n,
-        None => return Err(RewindError::SpeedUnknown),
+    let speed = match (req.speed_rpm, d.speed_rpm, old_speed) {
+        (Some(n), _, _) | (None, Some(n), _) => n,
+        (None, None, Some(n)) if in_file_range(n, MAX_SPEED_RPM) => n,
+        (None, None, Some(rpm)) => return Err(RewindError::WorkedSpeedOutOfRange { rpm }),
+        (None, None, None) => return Err(RewindError::SpeedUnknown),
     };
 
     // The new connection.
@@ -510,6 +549,11 @@ pub fn rewind_rated(
     });
     r.voltage = Some(req.voltage);
     r.current = i1.map(|i| round_sig(i, 4));
+    if let Some(amps) = r.current
+        && !in_file_range(amps, MAX_CURRENT_A)
+    {
+        return Err(RewindError::CurrentOutOfRange { amps });
+    }
     nd.rating = Some(r);
     if let (Some(k), Some(shape)) = (nd.conductor.as_mut(), new_shape) {
         k.shape = shape;
@@ -562,14 +606,14 @@ pub fn rewind_rated(
     })
 }
 
-/// Rounds to `n` significant figures (for the current written to the new file).
-fn round_sig(x: f64, n: i32) -> f64 {
-    if x == 0.0 {
-        return 0.0;
+/// Rounds to `n` (at least 1) significant figures (for the current written to the new file),
+/// through the decimal exponent form, so no power of ten overflows: the smallest subnormal stays
+/// itself, never NaN, and nothing non-zero becomes 0.
+fn round_sig(x: f64, n: usize) -> f64 {
+    if !x.is_finite() || x == 0.0 {
+        return x;
     }
-    let mag = x.abs().log10().floor() as i32;
-    let f = 10f64.powi(n - 1 - mag);
-    (x * f).round() / f
+    format!("{x:.*e}", n.max(1) - 1).parse().unwrap_or(x)
 }
 
 impl RewindPlan {

@@ -7,6 +7,7 @@ use std::fmt::Write;
 
 use crate::base::caution::CAUTIONS;
 use crate::base::number::fmt_fixed;
+use crate::base::visible::visible;
 use crate::rating::conductor::{self, WireFamily};
 use crate::rating::rewind::{NoLoadTest, signed};
 use crate::rating::{RatingReport, RewindPlan};
@@ -29,8 +30,8 @@ pub fn render_rewind(
     version: &str,
 ) -> String {
     let mut s = String::new();
-    let _ = writeln!(s, "armsheet {version} - rewind of {file}");
-    row(&mut s, "asked", asked);
+    let _ = writeln!(s, "armsheet {version} - rewind of {}", visible(file));
+    row(&mut s, "asked", visible(asked));
     let (o, n) = (&p.old, &p.new);
     section(&mut s, "FLUX AND SPEED");
     row(
@@ -201,7 +202,7 @@ pub fn render_rewind(
     if !p.notes.is_empty() {
         section(&mut s, "SEGMENTS AND NOTES");
         for note in &p.notes {
-            let _ = writeln!(s, "  - {note}");
+            let _ = writeln!(s, "  - {}", visible(note));
         }
     }
     if let Some(r) = new_rating {
@@ -241,7 +242,7 @@ pub fn render_rewind(
 /// Renders the no-load test report of `rewind --from-test` without `--voltage`: the flux per
 /// pole with its arithmetic, the design's own flux against it, and what follows at the rating.
 pub fn render_no_load(t: &NoLoadTest, file: &str, version: &str) -> String {
-    let mut s = format!("armsheet {version} - no-load test of {file}\n");
+    let mut s = format!("armsheet {version} - no-load test of {}\n", visible(file));
     let d = &t.design;
     let _ = writeln!(
         s,

@@ -8,6 +8,7 @@ use std::fmt::Write;
 
 use crate::base::caution::CAUTIONS;
 use crate::base::number::fmt_fixed;
+use crate::base::visible::{visible, visible_lines};
 use crate::base::{Finding, Severity};
 use crate::checks::Checked;
 use crate::design::{Design, SpanSource};
@@ -53,7 +54,12 @@ fn row(s: &mut String, label: &str, value: impl std::fmt::Display) {
 }
 
 fn header(s: &mut String, d: &Design, version: &str) {
-    let _ = writeln!(s, "armsheet {version} - winding check of {}", d.file_name);
+    // Every text the design file (or its name) brings is made visible: no terminal escapes.
+    let _ = writeln!(
+        s,
+        "armsheet {version} - winding check of {}",
+        visible(&d.file_name)
+    );
     let j = &d.job;
     let fields = [
         ("job", &j.id),
@@ -63,11 +69,11 @@ fn header(s: &mut String, d: &Design, version: &str) {
     ];
     for (label, value) in fields {
         if let Some(v) = value {
-            let _ = writeln!(s, "  {label:<10}{v}");
+            let _ = writeln!(s, "  {label:<10}{}", visible(v));
         }
     }
     if let Some(n) = &j.notes {
-        for (i, line) in n.lines().enumerate() {
+        for (i, line) in visible_lines(n).enumerate() {
             let _ = writeln!(s, "  {:<10}{line}", if i == 0 { "notes" } else { "" });
         }
     }

@@ -1,10 +1,12 @@
 //! Helpers shared by the integration tests: fixtures, demo designs, parsing, and running the
 //! binary. Each test file that needs them says `mod support;`.
-#![allow(dead_code)]
+#![allow(dead_code, unused_imports)]
 
 pub mod fuzz_drive;
 pub mod mutate;
+pub mod sheets;
 
+use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
 use std::process::{Command, Output};
 
@@ -42,9 +44,11 @@ pub fn design(toml: &str) -> Design {
     parse_design(toml, "t.toml").unwrap_or_else(|e| panic!("{e}"))
 }
 
-/// A fresh, empty scratch folder under the target dir for one test.
+/// A fresh, empty scratch folder under the target dir for one test, named after the test file
+/// and `name`.
 pub fn scratch(name: &str) -> PathBuf {
-    let dir = Path::new(env!("CARGO_TARGET_TMPDIR")).join(name);
+    let file = module_path!().split("::").next().unwrap_or("test");
+    let dir = Path::new(env!("CARGO_TARGET_TMPDIR")).join(format!("{file}-{name}"));
     let _ = std::fs::remove_dir_all(&dir);
     std::fs::create_dir_all(&dir).unwrap();
     dir
@@ -67,4 +71,28 @@ pub fn armsheet_in(args: &[&str], cwd: &Path) -> Output {
 /// Lossy UTF-8 of captured output.
 pub fn text(b: &[u8]) -> String {
     String::from_utf8_lossy(b).into_owned()
+}
+
+/// Every file in `dir` (not recursive) with its bytes, by name.
+pub fn files_in(dir: &Path) -> BTreeMap<String, Vec<u8>> {
+    std::fs::read_dir(dir)
+        .unwrap()
+        .map(|e| {
+            let e = e.unwrap();
+            (
+                e.file_name().to_string_lossy().into_owned(),
+                std::fs::read(e.path()).unwrap(),
+            )
+        })
+        .collect()
+}
+
+/// The names in `dir` (files and folders, not recursive), sorted.
+pub fn names_in(dir: &Path) -> Vec<String> {
+    let mut v: Vec<String> = std::fs::read_dir(dir)
+        .unwrap()
+        .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+        .collect();
+    v.sort();
+    v
 }

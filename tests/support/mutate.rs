@@ -1,7 +1,6 @@
 //! Structured mutations of design files for the fuzz driver: deterministic from a seed, aimed
 //! at the values and shapes a hostile or careless design file can hold (edge numbers, wrong
 //! types, control characters, missing, repeated and unknown keys and tables).
-#![allow(dead_code)]
 
 /// A small deterministic generator (xorshift64*); the same seed gives the same inputs.
 #[derive(Clone, Debug)]

@@ -41,9 +41,81 @@ pub(crate) struct Armature {
     pub pole_arc: f64,
 }
 
-/// Reads the values of `[armature]` (its keys were checked by the caller).
-pub(crate) fn read(arm: &TableReader<'_, '_>) -> Result<Armature, Diagnostic> {
-    let src = arm.src;
+/// Reads the values of `[armature]` (its keys were checked by the caller), recording every
+/// problem; `None` when a value the winding needs is in error.
+pub(crate) fn read(arm: &TableReader<'_, '_>) -> Option<Armature> {
+    let poles = arm.keep(read_poles(arm));
+    let slots = arm.keep(
+        arm.int(
+            "slots",
+            2..=bounds::MAX_SLOTS,
+            "the number of armature slots",
+            "count the slots on the stripped core",
+        )
+        .and_then(|s| {
+            s.ok_or_else(|| arm.missing("slots", "the number of armature slots", "slots = 24"))
+        }),
+    );
+    let u = arm.keep(arm.int(
+        "coils_per_slot",
+        1..=bounds::MAX_COILS_PER_SLOT,
+        "coil sides per slot per layer",
+        "1 for one coil side per layer; 2 or 3 when each slot holds several coils",
+    ));
+    let segments = arm.keep(arm.int(
+        "segments",
+        2..=bounds::MAX_COILS,
+        "the number of commutator segments (bars)",
+        "count the bars; leave the key out to let armsheet work it out",
+    ));
+    let rotation = match arm.keep(arm.choice("rotation", &["cw", "ccw"])).flatten() {
+        Some(At { value: "ccw", .. }) => Rotation::CounterClockwise,
+        _ => Rotation::Clockwise,
+    };
+    let pole_arc = arm
+        .keep(arm.number(
+            "pole_arc",
+            0.3,
+            false,
+            1.0,
+            "the pole arc as a fraction of the pole pitch",
+        ))
+        .flatten()
+        .map_or(0.7, |a| a.value);
+    let (slots, u, segments) = (slots?, u?.map_or(1, |a| a.value), segments?);
+    let positions = slots.value * u;
+    if positions > bounds::MAX_COILS {
+        let at = arm
+            .raw("coils_per_slot")
+            .map_or(slots.span.clone(), |v| v.span());
+        arm.src.found.push(
+            arm.src
+                .error(
+                    at,
+                    "armature.coils_per_slot",
+                    format!(
+                        "{} slots × {u} coils per slot = {positions} coils is beyond any real machine: at most {} coils",
+                        slots.value,
+                        bounds::MAX_COILS
+                    ),
+                )
+                .with_hint("check the slot count and coils per slot"),
+        );
+        return None;
+    }
+    Some(Armature {
+        poles: poles?,
+        slots,
+        coils_per_slot: u,
+        positions,
+        segments,
+        rotation,
+        pole_arc,
+    })
+}
+
+/// `poles`: present, in range and even.
+fn read_poles(arm: &TableReader<'_, '_>) -> Result<At<i64>, Diagnostic> {
     let poles = arm
         .int(
             "poles",
@@ -53,7 +125,8 @@ pub(crate) fn read(arm: &TableReader<'_, '_>) -> Result<Armature, Diagnostic> {
         )?
         .ok_or_else(|| arm.missing("poles", "the number of poles", "poles = 4"))?;
     if poles.value % 2 != 0 {
-        return Err(src
+        return Err(arm
+            .src
             .error(
                 poles.span.clone(),
                 "armature.poles",
@@ -65,65 +138,5 @@ pub(crate) fn read(arm: &TableReader<'_, '_>) -> Result<Armature, Diagnostic> {
                 poles.value + 1
             )));
     }
-    let slots = arm
-        .int(
-            "slots",
-            2..=bounds::MAX_SLOTS,
-            "the number of armature slots",
-            "count the slots on the stripped core",
-        )?
-        .ok_or_else(|| arm.missing("slots", "the number of armature slots", "slots = 24"))?;
-    let u = arm
-        .int(
-            "coils_per_slot",
-            1..=bounds::MAX_COILS_PER_SLOT,
-            "coil sides per slot per layer",
-            "1 for one coil side per layer; 2 or 3 when each slot holds several coils",
-        )?
-        .map_or(1, |a| a.value);
-    let positions = slots.value * u;
-    if positions > bounds::MAX_COILS {
-        let at = arm
-            .raw("coils_per_slot")
-            .map_or(slots.span.clone(), |v| v.span());
-        return Err(src
-            .error(
-                at,
-                "armature.coils_per_slot",
-                format!(
-                    "{} slots × {u} coils per slot = {positions} coils is beyond any real machine: at most {} coils",
-                    slots.value,
-                    bounds::MAX_COILS
-                ),
-            )
-            .with_hint("check the slot count and coils per slot"));
-    }
-    let segments = arm.int(
-        "segments",
-        2..=bounds::MAX_COILS,
-        "the number of commutator segments (bars)",
-        "count the bars; leave the key out to let armsheet work it out",
-    )?;
-    let rotation = match arm.choice("rotation", &["cw", "ccw"])? {
-        Some(At { value: "ccw", .. }) => Rotation::CounterClockwise,
-        _ => Rotation::Clockwise,
-    };
-    let pole_arc = arm
-        .number(
-            "pole_arc",
-            0.3,
-            false,
-            1.0,
-            "the pole arc as a fraction of the pole pitch",
-        )?
-        .map_or(0.7, |a| a.value);
-    Ok(Armature {
-        poles,
-        slots,
-        coils_per_slot: u,
-        positions,
-        segments,
-        rotation,
-        pole_arc,
-    })
+    Ok(poles)
 }

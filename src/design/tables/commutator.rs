@@ -9,7 +9,7 @@
 
 use crate::design::Diagnostic;
 use crate::design::model::{BrushGrade, BrushWidth, Commutator};
-use crate::design::reader::{At, TableReader};
+use crate::design::reader::{At, TableReader, fmt_num};
 
 /// The keys of `[commutator]`.
 pub(crate) const KEYS: &[&str] = &[
@@ -19,31 +19,60 @@ pub(crate) const KEYS: &[&str] = &[
     "brush_grade",
 ];
 
-/// Reads `[commutator]` for a winding of `segments` segments.
-pub(crate) fn read(t: &TableReader<'_, '_>, segments: i64) -> Result<Commutator, Diagnostic> {
-    t.deny_unknown(KEYS)?;
-    let diameter = t.number(
+/// Reads `[commutator]` for a winding of `segments` segments (`None` when the winding is in
+/// error: the brush width in segments is then not checked against it), recording every
+/// problem; `None` when any value is in error.
+pub(crate) fn read(t: &TableReader<'_, '_>, segments: Option<i64>) -> Option<Commutator> {
+    let keys = t.keep(t.deny_unknown(KEYS));
+    let diameter = t.keep(t.number(
         "diameter_mm",
         0.0,
         true,
         10_000.0,
         "the commutator diameter in mm",
-    )?;
-    let wmm = t.number(
+    ));
+    let wmm = t.keep(t.number(
         "brush_width_mm",
         0.0,
         true,
         1_000.0,
         "the brush width (circumferential) in mm",
-    )?;
-    let wseg = t.number(
+    ));
+    let wseg = t.keep(t.number(
         "brush_width_segments",
         0.0,
         true,
         1_000.0,
         "the brush width in segment pitches",
-    )?;
-    let brush_width = match (wmm, wseg) {
+    ));
+    let brush_grade = t.keep(t.choice("brush_grade", &["carbon", "metal-graphite"]));
+    let diameter = diameter?;
+    let brush_width = t.keep(brush_width(t, diameter.as_ref(), wmm?, wseg?, segments));
+    let (brush_width, brush_grade, ()) = (brush_width?, brush_grade?, keys?);
+    let brush_grade = match brush_grade {
+        Some(At {
+            value: "metal-graphite",
+            ..
+        }) => Some(BrushGrade::MetalGraphite),
+        Some(_) => Some(BrushGrade::Carbon),
+        None => None,
+    };
+    Some(Commutator {
+        diameter_mm: diameter.map(|d| d.value),
+        brush_width,
+        brush_grade,
+    })
+}
+
+/// The brush width, in mm or in segments (not both), less than half the commutator.
+fn brush_width(
+    t: &TableReader<'_, '_>,
+    diameter: Option<&At<f64>>,
+    wmm: Option<At<f64>>,
+    wseg: Option<At<f64>>,
+    segments: Option<i64>,
+) -> Result<Option<BrushWidth>, Diagnostic> {
+    Ok(match (wmm, wseg) {
         (Some(_), Some(s)) => {
             return Err(t
                 .src
@@ -55,39 +84,28 @@ pub(crate) fn read(t: &TableReader<'_, '_>, segments: i64) -> Result<Commutator,
                 .with_hint("remove one of brush_width_mm and brush_width_segments"));
         }
         (Some(w), None) => {
-            if let Some(d) = &diameter {
+            if let Some(d) = diameter {
                 let circumference = std::f64::consts::PI * d.value;
                 if w.value >= circumference / 2.0 {
                     return Err(t
                         .src
-                        .error(w.span, "commutator.brush_width_mm", format!("a {} mm brush is wider than half the commutator's {:.1} mm circumference", w.value, circumference))
+                        .error(w.span, "commutator.brush_width_mm", format!("a {} mm brush covers half the commutator's {:.1} mm circumference or more: expected less than {:.1} mm", w.value, circumference, circumference / 2.0))
                         .with_hint("the brush width is measured around the commutator, usually 1 to 3 segment pitches"));
                 }
             }
             Some(BrushWidth::Millimetres(w.value))
         }
         (None, Some(s)) => {
-            if s.value >= segments as f64 / 2.0 {
+            if let Some(segments) = segments
+                && s.value >= segments as f64 / 2.0
+            {
                 return Err(t
                     .src
-                    .error(s.span, "commutator.brush_width_segments", format!("a brush {} segments wide is wider than half the commutator ({segments} segments)", s.value))
+                    .error(s.span, "commutator.brush_width_segments", format!("a brush {} segments wide covers half the commutator's {segments} segments or more: expected less than {}", s.value, fmt_num(segments as f64 / 2.0)))
                     .with_hint("brushes usually cover 1 to 3 segments"));
             }
             Some(BrushWidth::Segments(s.value))
         }
         (None, None) => None,
-    };
-    let brush_grade = match t.choice("brush_grade", &["carbon", "metal-graphite"])? {
-        Some(At {
-            value: "metal-graphite",
-            ..
-        }) => Some(BrushGrade::MetalGraphite),
-        Some(_) => Some(BrushGrade::Carbon),
-        None => None,
-    };
-    Ok(Commutator {
-        diameter_mm: diameter.map(|d| d.value),
-        brush_width,
-        brush_grade,
     })
 }

@@ -10,7 +10,7 @@
 
 use crate::design::Diagnostic;
 use crate::design::model::{Conductor, ConductorShape, awg_diameter_mm};
-use crate::design::reader::TableReader;
+use crate::design::reader::{At, TableReader};
 
 /// The keys of `[conductor]`.
 pub(crate) const KEYS: &[&str] = &[
@@ -23,41 +23,57 @@ pub(crate) const KEYS: &[&str] = &[
     "mean_turn_mm",
 ];
 
-/// Reads `[conductor]`.
-pub(crate) fn read(t: &TableReader<'_, '_>) -> Result<Conductor, Diagnostic> {
-    t.deny_unknown(KEYS)?;
-    let num = |k: &str, what: &str, max: f64| t.number(k, 0.0, true, max, what);
-    let d = num("diameter_mm", "the bare wire diameter in mm", 20.0)?;
-    let awg = t.int(
+/// Reads `[conductor]`, recording every problem; `None` when any value is in error. A table
+/// with an unknown key is not read further (a misspelt size would come back as missing).
+pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Conductor> {
+    t.keep(t.deny_unknown(KEYS))?;
+    let num = |k: &str, what: &str, max: f64| t.keep(t.number(k, 0.0, true, max, what));
+    let d = num("diameter_mm", "the bare wire diameter in mm", 20.0);
+    let awg = t.keep(t.int(
         "awg",
         -3..=40,
         "the AWG gauge (0000 is -3)",
         "ASTM B258 gauges run from 0000 (-3) to 40",
-    )?;
-    let strands = t
-        .int(
-            "strands",
-            1..=200,
-            "wires or strips in hand",
-            "1 for a single conductor",
-        )?
-        .map_or(1, |a| a.value as u32);
-    let w = num("width_mm", "the strip width in mm", 100.0)?;
-    let h = num("height_mm", "the strip height in mm", 100.0)?;
-    let r = t.number(
+    ));
+    let strands = t.keep(t.int(
+        "strands",
+        1..=200,
+        "wires or strips in hand",
+        "1 for a single conductor",
+    ));
+    let w = num("width_mm", "the strip width in mm", 100.0);
+    let h = num("height_mm", "the strip height in mm", 100.0);
+    let r = t.keep(t.number(
         "corner_radius_mm",
         0.0,
         false,
         10.0,
         "the strip corner radius in mm",
-    )?;
+    ));
     let mean_turn_mm = num(
         "mean_turn_mm",
         "the mean length of one turn in mm",
         100_000.0,
-    )?
-    .map(|a| a.value);
-    let shape = match (d, awg, w, h) {
+    );
+    let strands = strands?.map_or(1, |a| a.value as u32);
+    let shape = t.keep(shape(t, d?, awg?, w?, h?, r?, strands))?;
+    Some(Conductor {
+        shape,
+        mean_turn_mm: mean_turn_mm?.map(|a| a.value),
+    })
+}
+
+/// The conductor's shape from its size keys: round (`diameter_mm` or `awg`) or rectangular.
+fn shape(
+    t: &TableReader<'_, '_>,
+    d: Option<At<f64>>,
+    awg: Option<At<i64>>,
+    w: Option<At<f64>>,
+    h: Option<At<f64>>,
+    r: Option<At<f64>>,
+    strands: u32,
+) -> Result<ConductorShape, Diagnostic> {
+    Ok(match (d, awg, w, h) {
         (Some(_), Some(a), _, _) => {
             return Err(t
                 .src
@@ -125,9 +141,5 @@ pub(crate) fn read(t: &TableReader<'_, '_>) -> Result<Conductor, Diagnostic> {
                 "diameter_mm = 1.25",
             ));
         }
-    };
-    Ok(Conductor {
-        shape,
-        mean_turn_mm,
     })
 }

@@ -12,8 +12,9 @@
 
 use toml::de::DeValue;
 
+use crate::base::visible::{ECHO_WIDTH, clip};
 use crate::design::Diagnostic;
-use crate::design::model::{Mode, Rating, ThermalClass};
+use crate::design::model::{Mode, Rating, ThermalClass, bounds};
 use crate::design::reader::{At, Source, TableReader};
 
 /// The keys of `[rating]`.
@@ -43,13 +44,19 @@ fn flux(t: &TableReader<'_, '_>) -> Result<Option<At<f64>>, Diagnostic> {
         "flux_per_pole_mwb",
         0.0,
         true,
-        100_000.0,
+        bounds::MAX_FLUX_MWB,
         "the flux per pole in mWb",
     )
 }
 
 fn speed(t: &TableReader<'_, '_>) -> Result<Option<At<f64>>, Diagnostic> {
-    t.number("speed_rpm", 0.0, true, 200_000.0, "the speed in rpm")
+    t.number(
+        "speed_rpm",
+        0.0,
+        true,
+        bounds::MAX_SPEED_RPM,
+        "the speed in rpm",
+    )
 }
 
 /// Reads `[rating]` (when present) with the flux and speed keys of `[winding]`.
@@ -108,31 +115,46 @@ fn merge_optional(
 }
 
 fn read_rating(t: &TableReader<'_, '_>) -> Result<(Mode, Option<Rating>), Diagnostic> {
-    let mode = match t.choice("mode", &["motor", "generator"])? {
+    // Each key is read on its own: a problem is recorded and the next key read.
+    let mode = match t.keep(t.choice("mode", &["motor", "generator"])).flatten() {
         Some(At {
             value: "generator", ..
         }) => Mode::Generator,
         _ => Mode::Motor,
     };
     let voltage = t
-        .number(
+        .keep(t.number(
             "voltage",
             0.0,
             true,
-            100_000.0,
+            bounds::MAX_VOLTAGE,
             "the rated terminal voltage in V",
-        )?
+        ))
+        .flatten()
         .map(|a| a.value);
     let current = t
-        .number(
+        .keep(t.number(
             "current",
             0.0,
             true,
-            100_000.0,
+            bounds::MAX_CURRENT_A,
             "the rated armature current in A",
-        )?
+        ))
+        .flatten()
         .map(|a| a.value);
-    let thermal_class = match t.raw("thermal_class") {
+    let thermal_class = t.keep(thermal_class(t)).flatten();
+    Ok((
+        mode,
+        Some(Rating {
+            voltage,
+            current,
+            thermal_class,
+        }),
+    ))
+}
+
+fn thermal_class(t: &TableReader<'_, '_>) -> Result<Option<ThermalClass>, Diagnostic> {
+    Ok(match t.raw("thermal_class") {
         None => None,
         Some(v) => {
             let word = match v.get_ref() {
@@ -149,18 +171,10 @@ fn read_rating(t: &TableReader<'_, '_>) -> Result<(Mode, Option<Rating>), Diagno
                 _ => {
                     return Err(t
                         .src
-                        .error(v.span(), "rating.thermal_class", format!("expected a thermal class 105, 120, 130, 155 or 180 (A, E, B, F, H), found {word}"))
+                        .error(v.span(), "rating.thermal_class", format!("expected a thermal class 105, 120, 130, 155 or 180 (A, E, B, F, H), found {}", clip(&word, ECHO_WIDTH)))
                         .with_hint("the class is on the nameplate or the insulation system's data, e.g. thermal_class = 155 or \"F\""));
                 }
             })
         }
-    };
-    Ok((
-        mode,
-        Some(Rating {
-            voltage,
-            current,
-            thermal_class,
-        }),
-    ))
+    })
 }

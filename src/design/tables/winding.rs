@@ -19,6 +19,7 @@ use toml::de::DeValue;
 
 use super::armature::Armature;
 use super::segments;
+use crate::base::visible::{ECHO_WIDTH, clip};
 use crate::design::Diagnostic;
 use crate::design::model::{Direction, EqualizerChoice, SpanSource, WindingType, bounds};
 use crate::design::reader::{At, TableReader, fmt_num};
@@ -59,28 +60,50 @@ pub(crate) struct Winding {
 }
 
 /// Reads the values of `[winding]` (its keys were checked by the caller) against the
-/// armature read from `arm`.
+/// armature read from `arm`, recording every problem: the keys that stand alone are read even
+/// when `[armature]` is in error (`a` is `None`), the rest only with it. `None` when any value
+/// is in error.
 pub(crate) fn read(
     win: &TableReader<'_, '_>,
     arm: &TableReader<'_, '_>,
-    a: &Armature,
-) -> Result<Winding, Diagnostic> {
+    a: Option<&Armature>,
+) -> Option<Winding> {
     let src = win.src;
+    let wtype = win.keep(win.choice("type", &["lap", "wave"]).and_then(|t| match t {
+        Some(At { value: "wave", .. }) => Ok(WindingType::Wave),
+        Some(_) => Ok(WindingType::Lap),
+        None => Err(win.missing("type", "\"lap\" or \"wave\"", "type = \"lap\"")),
+    }));
+    let m = win.keep(win.int(
+        "multiplicity",
+        1..=bounds::MAX_MULTIPLICITY,
+        "the multiplicity (1 simplex, 2 duplex, 3 triplex)",
+        "use 1 for a simplex winding",
+    ));
+    let direction = win.keep(win.choice("direction", &["progressive", "retrogressive"]));
+    let turns = win.keep(
+        win.int(
+            "turns",
+            1..=bounds::MAX_TURNS,
+            "turns per coil",
+            "count the turns of one coil",
+        )
+        .and_then(|t| t.ok_or_else(|| win.missing("turns", "turns per coil", "turns = 3"))),
+    );
+    let lead_offset = win.keep(win.int(
+        "lead_offset",
+        -1000..=1000,
+        "the lead offset in segments",
+        "0 puts each coil's two segments either side of its centre line",
+    ));
+    let equalizers = wtype.and_then(|t| win.keep(read_equalizers(win, t)));
+
+    // From here on the values are read against the armature.
+    let a = a?;
     let poles = &a.poles;
-    let wtype = match win.choice("type", &["lap", "wave"])? {
-        Some(At { value: "wave", .. }) => WindingType::Wave,
-        Some(_) => WindingType::Lap,
-        None => return Err(win.missing("type", "\"lap\" or \"wave\"", "type = \"lap\"")),
-    };
-    let m = win
-        .int(
-            "multiplicity",
-            1..=bounds::MAX_MULTIPLICITY,
-            "the multiplicity (1 simplex, 2 duplex, 3 triplex)",
-            "use 1 for a simplex winding",
-        )?
-        .map_or(1, |a| a.value);
-    let direction = match win.choice("direction", &["progressive", "retrogressive"])? {
+    let span = win.keep(read_span(win, a.slots.value, poles.value));
+    let (wtype, m, direction) = (wtype?, m?.map_or(1, |a| a.value), direction?);
+    let direction = match direction {
         Some(At {
             value: "retrogressive",
             ..
@@ -90,26 +113,19 @@ pub(crate) fn read(
     let p = poles.value / 2;
     if wtype == WindingType::Wave && p < 2 {
         let at = win.raw("type").map_or(win.span.clone(), |v| v.span());
-        return Err(src
-            .error(
+        src.found.push(
+            src.error(
                 at,
                 "winding.type",
                 "a wave winding needs at least 4 poles; with 2 poles it is a lap winding",
             )
-            .with_hint("use type = \"lap\" for a 2-pole armature"));
+            .with_hint("use type = \"lap\" for a 2-pole armature"),
+        );
+        return None;
     }
-    let turns = win
-        .int(
-            "turns",
-            1..=bounds::MAX_TURNS,
-            "turns per coil",
-            "count the turns of one coil",
-        )?
-        .ok_or_else(|| win.missing("turns", "turns per coil", "turns = 3"))?;
-    let (span, span_source) = read_span(win, a.slots.value, poles.value)?;
 
     // Active coils: lap uses every position; wave may need dummies.
-    let active = segments::resolve(
+    let active = win.keep(segments::resolve(
         &src,
         win,
         arm,
@@ -119,13 +135,13 @@ pub(crate) fn read(
         m,
         p,
         a.segments.as_ref(),
-    )?;
+    ))?;
     if active < (m + 1) * poles.value {
         let at = a
             .segments
             .as_ref()
             .map_or(a.slots.span.clone(), |s| s.span.clone());
-        return Err(src
+        src.found.push(src
             .error(
                 at,
                 "armature.segments",
@@ -136,18 +152,13 @@ pub(crate) fn read(
                 ),
             )
             .with_hint("the brushes of neighbouring poles would touch; check the poles, slots and coils per slot"));
+        return None;
     }
-
-    let lead_offset = win.int(
-        "lead_offset",
-        -1000..=1000,
-        "the lead offset in segments",
-        "0 puts each coil's two segments either side of its centre line",
-    )?;
+    let lead_offset = lead_offset?;
     if let Some(lo) = &lead_offset
         && 2 * poles.value * lo.value.abs() >= active
     {
-        return Err(src
+        src.found.push(src
                 .error(
                     lo.span.clone(),
                     "winding.lead_offset",
@@ -159,18 +170,19 @@ pub(crate) fn read(
                     ),
                 )
                 .with_hint("the offset swings the leads a few segments from the symmetric position; measure it on the old winding"));
+        return None;
     }
-    let equalizers = read_equalizers(win, wtype)?;
-    Ok(Winding {
+    let (span, span_source) = span?;
+    Some(Winding {
         winding_type: wtype,
         multiplicity: m,
         direction,
         span,
         span_source,
-        turns: turns.value,
+        turns: turns?.value,
         segments: active,
         lead_offset: lead_offset.map_or(0, |l| l.value),
-        equalizers,
+        equalizers: equalizers?,
     })
 }
 
@@ -208,7 +220,10 @@ fn read_span(
                 src.error(
                     v.span(),
                     "winding.span",
-                    format!("expected a span such as 7 or \"1-8\", found \"{s}\""),
+                    format!(
+                        "expected a span such as 7 or \"1-8\", found \"{}\"",
+                        clip(s, ECHO_WIDTH)
+                    ),
                 )
                 .with_hint(
                     "the shop form \"1-8\" means the coil lies in slots 1 and 8, a span of 7 slots",

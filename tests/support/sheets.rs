@@ -1,8 +1,6 @@
 //! Helpers shared by the sheet tests: build sheets from a fixture design, and render SVG with
 //! an independent SVG library (usvg/resvg) using the DejaVu fonts the binary embeds
 //! (`assets/fonts/`), so the tests do not depend on the fonts of the machine.
-#![allow(dead_code)]
-
 use std::sync::Arc;
 
 use armsheet::design::{Design, parse_design};
@@ -10,12 +8,9 @@ use armsheet::layout::{Page, Paper, SheetOptions, Window, draw_page, sheet_pages
 use armsheet::render::svg::page_svg;
 use armsheet::winding::{Winding, trace_winding};
 
-pub const FIXTURES: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fixtures");
-pub const FONTS: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/assets/fonts");
+pub use super::fixture;
 
-pub fn fixture(name: &str) -> String {
-    std::fs::read_to_string(format!("{FIXTURES}/{name}")).unwrap()
-}
+pub const FONTS: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/assets/fonts");
 
 pub fn load(name: &str, text: &str) -> (Design, Winding) {
     let d = parse_design(text, name).unwrap();
