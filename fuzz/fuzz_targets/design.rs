@@ -7,6 +7,8 @@
 //! here reproduces from its input alone.
 #![no_main]
 
+// Only its generator is used here; the mutations are the stable driver's.
+#[allow(dead_code)]
 #[path = "../../tests/support/mutate.rs"]
 mod mutate;
 
