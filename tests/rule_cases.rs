@@ -147,6 +147,18 @@ fn wave_rules() {
         &wave(4, 26, 1, 6, 1, "segments = 23\n", ""),
     );
     case("wave.dummy-coils", Absent, &wave(4, 29, 3, 7, 1, "", ""));
+    // The same 36-slot example: the 12 connections from coils 24-35 step over dummy coil 36.
+    case(
+        "wave.dummy-front-pitch",
+        Pass,
+        &wave(6, 36, 1, 6, 1, "", ""),
+    );
+    // No dummy coils: every front connection has the nominal pitch.
+    case(
+        "wave.dummy-front-pitch",
+        Absent,
+        &wave(4, 29, 3, 7, 1, "", ""),
+    );
     // Retrogressive on 36 coils, 6 poles takes 34 bars; progressive would take 35.
     let retro = "direction = \"retrogressive\"\n";
     case(

@@ -6,6 +6,8 @@
 use super::lap::multiplex_brush;
 use super::sources::{DUMMY, PITCH_TEXTS};
 use super::{Finding, Severity};
+use std::collections::BTreeMap;
+
 use crate::design::{Design, WindingType};
 use crate::winding::Winding;
 
@@ -65,6 +67,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             DUMMY,
         ));
     }
+    dummy_front_pitch(w, out);
     if w.segments_derived {
         let other = d.direction.other();
         if let Some(alt) = wave.default_segments(w.coils, m, p, other)
@@ -84,4 +87,74 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             ));
         }
     }
+}
+
+/// Most coil runs a finding names before it says how many more there are.
+const LISTED_RUNS: usize = 8;
+
+/// The front connections that step over dummy coils, so that their front pitch is not the
+/// nominal one: how many, by how much, and from which coils.
+fn dummy_front_pitch(w: &Winding, out: &mut Vec<Finding>) {
+    let nominal = w.pitches.front;
+    let mut by_pitch: BTreeMap<i64, Vec<u32>> = BTreeMap::new();
+    for c in &w.connections {
+        if let Some(y) = c.front_pitch.filter(|&y| y != nominal) {
+            by_pitch.entry(y).or_default().push(c.coil);
+        }
+    }
+    if by_pitch.is_empty() {
+        return;
+    }
+    let stepping: usize = by_pitch.values().map(Vec::len).sum();
+    let groups = by_pitch
+        .iter()
+        .map(|(y, coils)| {
+            format!(
+                "{} use {y} ({:+}), from coil(s) {}",
+                coils.len(),
+                y - nominal,
+                coil_runs(coils)
+            )
+        })
+        .collect::<Vec<_>>()
+        .join("; ");
+    out.push(Finding::new(
+        "wave.dummy-front-pitch",
+        Severity::Info,
+        true,
+        format!(
+            "{stepping} of {} front connections step over a dummy coil and differ from the nominal y_f = {nominal} by 2 coil sides per dummy: {groups}",
+            w.active_coils
+        ),
+        "armsheet trace: coil-side numbers with the dummy coils counted, front connection from a coil's bottom side to the top side of the coil that starts at its end segment [derived]",
+    ));
+}
+
+/// Ascending coil numbers as runs (`24-35, 40`), at most [`LISTED_RUNS`] of them, then how
+/// many coils are left out.
+fn coil_runs(coils: &[u32]) -> String {
+    let mut runs: Vec<(u32, u32)> = Vec::new();
+    for &c in coils {
+        match runs.last_mut() {
+            Some((_, last)) if *last + 1 == c => *last = c,
+            _ => runs.push((c, c)),
+        }
+    }
+    let mut text = runs
+        .iter()
+        .take(LISTED_RUNS)
+        .map(|&(a, b)| {
+            if a == b {
+                a.to_string()
+            } else {
+                format!("{a}-{b}")
+            }
+        })
+        .collect::<Vec<_>>()
+        .join(", ");
+    let left: u32 = runs.iter().skip(LISTED_RUNS).map(|(a, b)| b - a + 1).sum();
+    if left > 0 {
+        text.push_str(&format!(" and {left} more"));
+    }
+    text
 }

@@ -66,7 +66,7 @@ fn record(out: &mut String, cells: &[Cell]) {
 }
 
 /// The column names of `connections.csv`, in order.
-pub const CSV_COLUMNS: [&str; 13] = [
+pub const CSV_COLUMNS: [&str; 14] = [
     "coil",
     "top_slot",
     "top_position",
@@ -76,6 +76,7 @@ pub const CSV_COLUMNS: [&str; 13] = [
     "bottom_side",
     "start_segment",
     "end_segment",
+    "front_pitch",
     "dummy",
     "sequence",
     "path",
@@ -127,6 +128,8 @@ pub fn connections_csv(winding: &Winding) -> String {
                 n(c.bottom.side),
                 opt(c.start_segment),
                 opt(c.end_segment),
+                c.front_pitch
+                    .map_or(Cell::Text(String::new()), |y| Cell::Num(y.to_string())),
                 Cell::Text(if c.dummy { "yes" } else { "no" }.to_string()),
                 Cell::Text(seq[i].clone()),
                 n(winding.coil_path[i]),

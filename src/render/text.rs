@@ -332,7 +332,10 @@ fn connections(s: &mut String, w: &Winding) {
         s,
         "CONNECTION TABLE (slot/position; position 1 is the first coil side wound into the slot)",
     );
-    let _ = writeln!(s, "  coil   top     bottom   start seg  end seg  note");
+    let _ = writeln!(
+        s,
+        "  coil   top     bottom   start seg  end seg  front y_f  note"
+    );
     for c in &w.connections {
         let seg = |x: Option<u32>| x.map_or_else(|| "-".to_string(), |v| v.to_string());
         let note = if c.dummy {
@@ -340,8 +343,11 @@ fn connections(s: &mut String, w: &Winding) {
         } else {
             ""
         };
+        let front = c
+            .front_pitch
+            .map_or_else(|| "-".to_string(), |y| y.to_string());
         let line = format!(
-            "  {:<6} {:<7} {:<8} {:<10} {:<8} {note}",
+            "  {:<6} {:<7} {:<8} {:<10} {:<8} {front:<10} {note}",
             c.coil,
             format!("{}/{}", c.top.slot, c.top.position),
             format!("{}/{}", c.bottom.slot, c.bottom.position),

@@ -16,6 +16,7 @@
 //!   A positive offset swings every lead that many segments towards rising segment numbers.
 //!   The brushes then sit on the pole axes shifted by lead_offset·360/C degrees.
 
+mod front;
 mod geometry;
 mod model;
 mod paths;
@@ -47,7 +48,8 @@ pub fn trace_winding(design: &Design) -> Winding {
     let yc = pitch::commutator_pitch(d.winding_type, d.direction, c, m, p);
     let pitches = pitch::pitches(d.winding_type, d.span, d.coils_per_slot, yc);
     let dummy_coils = place_dummies(n, n - c);
-    let connections = connect(d, c, yc, &dummy_coils);
+    let mut connections = connect(d, c, yc, &dummy_coils);
+    front::set_front_pitches(&mut connections, c, kind, pitches.back, yc);
     let closed_windings = trace::trace_closed_windings(&connections, c);
     let geo = Geometry::new(d, c);
 
@@ -187,6 +189,7 @@ fn connect(d: &Design, c: u32, yc: i64, dummies: &[u32]) -> Vec<Connection> {
                 },
                 start_segment: start,
                 end_segment: end,
+                front_pitch: None,
                 dummy,
             }
         })

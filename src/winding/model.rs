@@ -30,6 +30,12 @@ pub struct Connection {
     pub start_segment: Option<u32>,
     /// Segment the end lead (from the bottom side) goes to; `None` for a dummy coil.
     pub end_segment: Option<u32>,
+    /// This coil's own front pitch, in coil-side units and the sign convention of
+    /// [`Pitches::front`](super::Pitches): the front connection runs from this coil's bottom
+    /// side (at its end segment) to the top side of the coil that starts there. It equals the
+    /// nominal front pitch except where the step passes over dummy coils (2 more per dummy
+    /// on a wave). `None` for a dummy coil.
+    pub front_pitch: Option<i64>,
     /// A dummy coil: wound for balance, ends cut back and taped, not connected.
     pub dummy: bool,
 }
