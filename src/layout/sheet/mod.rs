@@ -78,7 +78,7 @@ pub fn sheet_pages(checked: &Checked, options: &SheetOptions) -> Vec<Page> {
     let frame = page_frame(options.paper, !input.failures.is_empty());
     let area = table::table_area(&frame);
     let mut contents = vec![Content::Diagram];
-    let conn_w = table::connection_width(input.design.coils_per_slot);
+    let conn_w = table::connection_width(&input);
     for p in paginate(input.winding.connections.len(), conn_w, &area) {
         contents.push(Content::Connections(p));
     }

@@ -15,31 +15,73 @@ struct Column {
     width: f64,
 }
 
-/// The connection-table columns; the position columns only when u > 1.
-fn connection_columns(u: u32) -> Vec<Column> {
-    // (heading, width in mm, shown only when u > 1)
-    const COLUMNS: [([&str; 2], f64, bool); 10] = [
-        (["coil", ""], 13.0, false),
-        (["top", "slot"], 12.0, false),
-        (["top", "pos"], 9.0, true),
-        (["bottom", "slot"], 14.0, false),
-        (["bot.", "pos"], 9.0, true),
-        (["start", "seg"], 12.0, false),
-        (["end", "seg"], 12.0, false),
-        (["seq", ""], 15.0, false),
-        (["path", ""], 11.0, false),
-        (["dummy", ""], 15.0, false),
+/// Which optional columns of the connection table a winding shows.
+#[derive(Clone, Copy)]
+struct Shown {
+    /// The position columns: only when u > 1.
+    positions: bool,
+    /// The front-pitch column: only when some connection's front pitch is not the nominal one
+    /// (dummy coils stepped over). It costs a column group a page with u > 1 on Letter, A3 and
+    /// tabloid, so a winding whose every row would read the nominal value (printed in the
+    /// winding-data block) leaves it out.
+    front_pitch: bool,
+}
+
+impl Shown {
+    fn of(input: &Input<'_>) -> Shown {
+        let w = input.winding;
+        Shown {
+            positions: input.design.coils_per_slot > 1,
+            front_pitch: w
+                .connections
+                .iter()
+                .any(|c| c.front_pitch.is_some_and(|y| y != w.pitches.front)),
+        }
+    }
+}
+
+/// When a connection-table column is shown.
+#[derive(Clone, Copy)]
+enum When {
+    Always,
+    Positions,
+    FrontPitch,
+}
+
+/// The connection-table columns the winding shows.
+fn connection_columns(shown: Shown) -> Vec<Column> {
+    // (heading, width in mm, when shown). The front-pitch column is 10 mm: its heading is
+    // 8.6 mm at the heading size, and up to four digits fit (8.9 mm at the table font).
+    const COLUMNS: [([&str; 2], f64, When); 11] = [
+        (["coil", ""], 13.0, When::Always),
+        (["top", "slot"], 12.0, When::Always),
+        (["top", "pos"], 9.0, When::Positions),
+        (["bottom", "slot"], 14.0, When::Always),
+        (["bot.", "pos"], 9.0, When::Positions),
+        (["start", "seg"], 12.0, When::Always),
+        (["end", "seg"], 12.0, When::Always),
+        (["front", "pitch"], 10.0, When::FrontPitch),
+        (["seq", ""], 15.0, When::Always),
+        (["path", ""], 11.0, When::Always),
+        (["dummy", ""], 15.0, When::Always),
     ];
     COLUMNS
         .iter()
-        .filter(|(_, _, positions)| u > 1 || !positions)
+        .filter(|(_, _, when)| match when {
+            When::Always => true,
+            When::Positions => shown.positions,
+            When::FrontPitch => shown.front_pitch,
+        })
         .map(|&(head, width, _)| Column { head, width })
         .collect()
 }
 
 /// Width of the connection table, mm.
-pub(super) fn connection_width(u: u32) -> f64 {
-    connection_columns(u).iter().map(|c| c.width).sum()
+pub(super) fn connection_width(input: &Input<'_>) -> f64 {
+    connection_columns(Shown::of(input))
+        .iter()
+        .map(|c| c.width)
+        .sum()
 }
 
 /// The equalizer-table columns: the list column is as wide as p numbers need (about 7
@@ -139,8 +181,8 @@ pub(super) fn connection_page(
     );
     let hint = "start lead from the top-layer side, end lead from the bottom-layer side \u{b7} seq = order in the winding trace";
     out.push(Text::new(c.right() - 2.0, c.y + 6.5, 2.4, "end", hint).into());
-    let u = input.design.coils_per_slot;
-    let cols = connection_columns(u);
+    let shown = Shown::of(input);
+    let cols = connection_columns(shown);
     let mut g = Group::id(format!("table-{}", page.rows.start + 1)).with_class("connection-table");
     for (gx, rows) in &page.groups {
         let total = table_head(&mut g, &cols, *gx, page.top);
@@ -159,15 +201,21 @@ pub(super) fn connection_page(
             let seg = |s: Option<u32>| s.map_or_else(|| "\u{2014}".to_string(), |s| s.to_string());
             let path = input.winding.coil_path[(conn.coil - 1) as usize];
             let mut cells = vec![conn.coil.to_string(), conn.top.slot.to_string()];
-            if u > 1 {
+            if shown.positions {
                 cells.push(conn.top.position.to_string());
             }
             cells.push(conn.bottom.slot.to_string());
-            if u > 1 {
+            if shown.positions {
                 cells.push(conn.bottom.position.to_string());
             }
             cells.push(seg(conn.start_segment));
             cells.push(seg(conn.end_segment));
+            if shown.front_pitch {
+                cells.push(
+                    conn.front_pitch
+                        .map_or_else(|| "\u{2014}".to_string(), |y| y.to_string()),
+                );
+            }
             cells.push(seq[(conn.coil - 1) as usize].clone());
             cells.push(if conn.dummy || path == 0 {
                 "\u{2013}".into()
@@ -184,6 +232,9 @@ pub(super) fn connection_page(
                 row = row
                     .with_data("data-start-seg", s)
                     .with_data("data-end-seg", e);
+            }
+            if let Some(y) = conn.front_pitch.filter(|_| shown.front_pitch) {
+                row = row.with_data("data-front-pitch", y);
             }
             let mut cx = *gx;
             for (j, (col, cell)) in cols.iter().zip(cells).enumerate() {
