@@ -79,6 +79,29 @@ fn wave_six_poles_36_slots_needs_one_dummy() {
     );
 }
 
+/// The same 6-pole, 36-slot example, connection by connection: with dummy coil 36 counted in
+/// the coil-side numbering, the 12 front connections that step over it (from coils 24–35, whose
+/// end leads are on segments 1–12) use y_f + 2 = 13, the other 23 use y_f = 11.
+/// [src: textbook dummy-coil example (e.g. Theraja, Electrical Technology vol. 2, armature
+/// windings), from memory as to chapter, for C = 35, y_c = 12, y_b = 13, y_f = 11; the
+/// per-connection count is derived.]
+#[test]
+fn wave_six_poles_36_slots_front_pitch_per_connection() {
+    let w = wind(&design(6, 36, "wave", 1, 6, 1, ""));
+    let pitches: Vec<i64> = w.connections.iter().filter_map(|c| c.front_pitch).collect();
+    assert_eq!(pitches.len(), 35, "one front pitch per active coil");
+    assert_eq!(pitches.iter().filter(|&&y| y == 13).count(), 12);
+    assert_eq!(pitches.iter().filter(|&&y| y == 11).count(), 23);
+    let over: Vec<u32> = w
+        .connections
+        .iter()
+        .filter(|c| c.front_pitch == Some(13))
+        .map(|c| c.coil)
+        .collect();
+    assert_eq!(over, (24..=35).collect::<Vec<_>>());
+    assert_eq!(w.connections[35].front_pitch, None, "the dummy has none");
+}
+
 /// 6 poles, Z = 664, wave, Φ = 0.06 Wb, 250 rpm: E = 498 V.
 /// [src: textbook EMF example; E = P·Z·Φ·N/(60·a), e.g. Chapman, Electric Machinery
 /// Fundamentals, DC machine chapters; published worked example, from memory as to the book.]
