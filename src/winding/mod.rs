@@ -10,6 +10,8 @@
 //!   y_s slots on, same position. Top coil sides are odd (2n−1), bottom sides even.
 //! - The active coils, in position order, start at segments 1, 2, … C; coil i's end lead is on
 //!   segment i + y_c (mod C). Dummy coils are spread evenly and left unconnected.
+//! - Each active coil's front pitch is read off the connections ([`Connection::front_pitch`]):
+//!   the nominal y_f, plus 2 for each dummy coil the step to the next coil passes on a wave.
 //! - Reference position: the centre line of coil 1 lies on the axis of pole 1 (a north pole).
 //! - `lead_offset` = 0 is the symmetric position: the midpoint of the commutator arc from a
 //!   coil's start segment to its end segment (the way y_c runs) lies on the coil's centre line.
