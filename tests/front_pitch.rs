@@ -6,17 +6,20 @@
 //! it passes lengthens the top-to-top step, and so a wave's front pitch, by 2 coil sides
 //! (derived from the numbering: top sides odd, 2 coil sides per coil position). The property
 //! counts the dummies between the two coils' slots and positions; it does not use the engine's
-//! own front-pitch arithmetic.
+//! own front-pitch arithmetic. The other tests follow the values of a demo into the finding,
+//! the JSON, the CSV and the sheets' connection table.
 
 mod support;
 
 use armsheet::check;
 use armsheet::design::parse_design;
+use armsheet::layout::{Paper, Window};
 use armsheet::render::csv::{CSV_COLUMNS, connections_csv};
 use armsheet::render::json::report_json;
 use armsheet::theory::{Direction, WindingType};
 use armsheet::winding::{Winding, trace_winding};
 use proptest::prelude::*;
+use support::sheets::{attr_values, load, sheets_for};
 use support::{demo, design};
 
 #[derive(Debug, Clone)]
@@ -242,4 +245,51 @@ fn lap_rows_carry_the_nominal_pitch() {
             .iter()
             .all(|f| f.id != "wave.dummy-front-pitch")
     );
+}
+
+/// The sheets' connection table: a front-pitch column with each coil's value where dummy coils
+/// make it vary, none where every row would read the nominal value.
+#[test]
+fn sheet_table_shows_the_column_only_where_it_varies() {
+    let rows_with_pitch = |name: &str| {
+        let (d, w) = load(name, &demo(name));
+        let svgs = sheets_for(&d, Paper::A4, Window::Auto);
+        let coils: Vec<u32> = svgs[1..]
+            .iter()
+            .flat_map(|s| attr_values(s, "class=\"row\"", "data-coil"))
+            .map(|v| v.parse().unwrap())
+            .collect();
+        let pitches: Vec<Option<i64>> = svgs[1..]
+            .iter()
+            .flat_map(|s| {
+                s.lines()
+                    .filter(|l| l.contains("class=\"row\""))
+                    .map(|l| {
+                        let needle = " data-front-pitch=\"";
+                        l.find(needle).map(|i| {
+                            let r = &l[i + needle.len()..];
+                            r[..r.find('"').unwrap()].parse().unwrap()
+                        })
+                    })
+                    .collect::<Vec<_>>()
+            })
+            .collect();
+        let heading = svgs[1].contains(">pitch<");
+        (w, coils, pitches, heading)
+    };
+
+    let (w, coils, pitches, heading) = rows_with_pitch("conveyor-wave-dummy");
+    assert!(heading, "the column has its heading");
+    assert_eq!(coils.len(), w.connections.len());
+    for (coil, y) in coils.iter().zip(&pitches) {
+        assert_eq!(
+            *y,
+            w.connections[(coil - 1) as usize].front_pitch,
+            "coil {coil}"
+        );
+    }
+
+    let (_, coils, pitches, heading) = rows_with_pitch("pump-wave");
+    assert!(!heading, "no column when every row is nominal");
+    assert!(!coils.is_empty() && pitches.iter().all(Option::is_none));
 }
