@@ -1,13 +1,14 @@
-//! Wave rules: reentrancy, dummy coils, and the direction that needs fewer of them. A whole
-//! commutator pitch is the design stage's to refuse.
+//! Wave rules: reentrancy, dummy coils (and the front connections that step over them), and
+//! the direction that needs fewer of them. A whole commutator pitch is the design stage's to
+//! refuse.
 //!
 //! Part of the `checks` stage.
+
+use std::collections::BTreeMap;
 
 use super::lap::multiplex_brush;
 use super::sources::{DUMMY, PITCH_TEXTS};
 use super::{Finding, Severity};
-use std::collections::BTreeMap;
-
 use crate::design::{Design, WindingType};
 use crate::winding::Winding;
 
