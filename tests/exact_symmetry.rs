@@ -29,7 +29,11 @@ fn spread(c: &Checked) -> (f64, f64) {
         let j = ((rel + pole_pitch / 2.0) / pole_pitch).floor();
         let dist = (rel - j * pole_pitch).abs();
         if dist < half_arc {
-            if (j as i64 % i64::from(d.poles)) % 2 == 0 { 1 } else { -1 }
+            if (j as i64 % i64::from(d.poles)) % 2 == 0 {
+                1
+            } else {
+                -1
+            }
         } else {
             0
         }
@@ -41,7 +45,10 @@ fn spread(c: &Checked) -> (f64, f64) {
     }
     let period_bars = {
         let (u, m) = (d.coils_per_slot, d.multiplicity);
-        let g = (1..=u.min(m)).rev().find(|g| u % g == 0 && m % g == 0).unwrap();
+        let g = (1..=u.min(m))
+            .rev()
+            .find(|g| u % g == 0 && m % g == 0)
+            .unwrap();
         f64::from(u / g * m)
     };
     let period = (360.0 / s).max(period_bars * bar);
@@ -141,15 +148,27 @@ fn the_literal_rule_fails_but_the_balanced_duplex_lap_passes() {
     let file = dir.join("duplex.toml");
     std::fs::write(&file, &text).unwrap();
     let out = armsheet(&["check", file.to_str().unwrap()]);
-    assert_eq!(out.status.code(), Some(0), "{}", String::from_utf8_lossy(&out.stdout));
+    assert_eq!(
+        out.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&out.stdout)
+    );
 }
 
 #[test]
 fn unsymmetrical_laps_still_fail() {
     for (poles, slots, span) in [(4, 27, 7), (8, 50, 6)] {
         let c = check(design(&toml(poles, slots, 1, false, 1, span, "")));
-        assert!(!c.symmetric && c.has_errors(), "{poles} poles, {slots} slots");
-        assert!(spread(&c).0 > 0.5, "{poles} poles, {slots} slots: {:?}", spread(&c));
+        assert!(
+            !c.symmetric && c.has_errors(),
+            "{poles} poles, {slots} slots"
+        );
+        assert!(
+            spread(&c).0 > 0.5,
+            "{poles} poles, {slots} slots: {:?}",
+            spread(&c)
+        );
     }
 }
 
@@ -159,10 +178,17 @@ fn the_balance_turns_through_a_whole_slot_pitch() {
     let c = check(design(&toml(6, 22, 3, true, 1, 4, "")));
     assert_eq!(c.winding.active_coils, 65);
     let b = &c.winding.balance;
-    assert_eq!(b.samples, 8 * 3, "8 samples a segment pitch over lcm(3, 1) = 3 bars");
+    assert_eq!(
+        b.samples,
+        8 * 3,
+        "8 samples a segment pitch over lcm(3, 1) = 3 bars"
+    );
     assert!((b.mean_spread_coils - 0.54).abs() < 0.01, "{b:?}");
     assert_eq!(b.peak_spread_coils, 1.5);
-    assert!(!c.symmetric, "a dummy coil breaks the pairing of the two paths");
+    assert!(
+        !c.symmetric,
+        "a dummy coil breaks the pairing of the two paths"
+    );
 }
 
 #[derive(Debug, Clone)]

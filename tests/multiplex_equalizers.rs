@@ -28,7 +28,11 @@ fn bar_potentials(c: &Checked, phi: f64) -> Vec<f64> {
         let rel = (angle - axis0).rem_euclid(360.0);
         let j = ((rel + pole_pitch / 2.0) / pole_pitch).floor();
         if (rel - j * pole_pitch).abs() < d.pole_arc * pole_pitch / 2.0 {
-            if (j as i64 % i64::from(d.poles)) % 2 == 0 { 1.0 } else { -1.0 }
+            if (j as i64 % i64::from(d.poles)) % 2 == 0 {
+                1.0
+            } else {
+                -1.0
+            }
         } else {
             0.0
         }
@@ -92,7 +96,10 @@ fn solve(mut a: Vec<Vec<f64>>, mut b: Vec<f64>) -> Vec<f64> {
             .unwrap();
         a.swap(col, piv);
         b.swap(col, piv);
-        assert!(a[col][col].abs() > 1e-12, "singular network at column {col}");
+        assert!(
+            a[col][col].abs() > 1e-12,
+            "singular network at column {col}"
+        );
         for row in col + 1..n {
             let f = a[row][col] / a[col][col];
             if f != 0.0 {
@@ -138,7 +145,10 @@ fn a_doubly_reentrant_lap_with_an_odd_equalizer_pitch_takes_equalizers() {
             let first = v[(g[0] - 1) as usize];
             for &bar in g {
                 let at = v[(bar - 1) as usize];
-                assert!((at - first).abs() < 1e-9, "bars {g:?} at {first} and {at} (phi {phi})");
+                assert!(
+                    (at - first).abs() < 1e-9,
+                    "bars {g:?} at {first} and {at} (phi {phi})"
+                );
             }
         }
         // Bars one pole pitch apart are not joined, and the solve tells them apart.

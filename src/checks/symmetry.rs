@@ -5,22 +5,30 @@
 //!
 //! ## The exact test [derived]
 //! The field and the brushes repeat, with the polarity reversed, every pole pitch. Turning the
-//! armature k slots keeps every coil under the same field (up to sign) when k·P/S is whole.
-//! Path X is *carried onto* path Y when, for some constant segment shift j, the coil whose start
-//! lead is j segments on from each coil of X is a coil of Y, all of Y is reached, and every such
-//! coil lies exactly k slots on from its preimage with k·P ≡ 0 (mod S): then the two paths hold
-//! coils in congruent slots under the same field and carry the same EMF. Within one slot the u
-//! coils share a centre line, so j need not be a rigid rotation: with m dividing u the m closed
-//! windings sit in the same slots and are carried onto each other with k = 0.
+//! armature k slots keeps every coil under the same field (up to sign) when k·P ≡ 0 (mod S).
+//! A closed winding W is *carried onto* a closed winding W' by a segment shift j when, for every
+//! coil of W, the coil whose start lead is j segments on lies in W' exactly k slots on (one
+//! such k for all of W). Every path of W then goes where its middle coil goes, onto a path of
+//! W'; the relation sorts the paths into classes ([`path_classes`]).
 //!
-//! The winding is symmetric when this relation joins all paths into one class, or into two
-//! classes of a/2 paths each on an armature without dummy coils: every slot then holds u active
-//! top and u active bottom sides, so a path whose top sides lie under the north poles and one
-//! whose top sides lie under the south poles see the same number of active sides under each
-//! pole (tops of one are bottoms of the other). A dummy coil removes one top and one bottom side
-//! from different places and breaks that pairing, so with dummies all paths must be carried
-//! onto one another. The test sets `Checked.symmetric` and the exit code; Arnold's conditions
-//! stay in the report as the textbook rule, as warnings where the exact test passes.
+//! - When every map used moves each coil n to n + k·u (a rigid rotation of the whole armature,
+//!   which then maps slots, coils and segments onto themselves and keeps every connection) and
+//!   joins all paths into one class, the paths carry one EMF at every rotor position, whatever
+//!   the brushes short: [`Congruence::Proven`].
+//! - Two looser congruences hold the paths equal only where the brushes cut them among coils
+//!   that carry no EMF: paths joined through the u coils of a slot, which share a centre line
+//!   (with m dividing u the m closed windings lie in the same slots, k = 0, j not a rigid
+//!   shift); and two classes of a/2 paths, one for each current sense, paired by the two layers
+//!   (a path with its top sides under the north poles and one with its top sides under the
+//!   south poles have the tops of one where the bottoms of the other are). These are
+//!   [`Congruence::UpToCommutation`] and pass only when the simulated balance over a whole
+//!   period confirms them: a short pitch, brushes off neutral or a dummy coil leave EMF in the
+//!   coils under commutation and the simulation sees it.
+//! - Otherwise some paths have no congruent partner and the winding is unsymmetrical.
+//!
+//! The test sets `Checked.symmetric` and the exit code (`symmetry.exact`, an error). Arnold's
+//! conditions stay in the report as the textbook rule: errors where the exact test fails too,
+//! warnings where it passes, and the exact finding says whether the two agree.
 
 use super::sources::{EXACT_SYMMETRY as EXACT_SOURCE, SIMULATION, SYMMETRY};
 use super::{Finding, Severity};
@@ -128,7 +136,11 @@ pub fn path_classes(d: &Design, w: &Winding) -> PathClasses {
         }
     }
     let slot_of = |coil: u32| w.connections[(coil - 1) as usize].top.slot;
-    let start_of = |coil: u32| w.connections[(coil - 1) as usize].start_segment.unwrap_or(1);
+    let start_of = |coil: u32| {
+        w.connections[(coil - 1) as usize]
+            .start_segment
+            .unwrap_or(1)
+    };
     let image = |coil: u32, j: i64| {
         let seg = (i64::from(start_of(coil)) - 1 + j).rem_euclid(i64::from(c));
         out[seg as usize]
@@ -230,12 +242,6 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let classes = path_classes(d, w);
     let congruence = classes.congruence(w.paths.len());
     let exact = classes.symmetric(w.paths.len(), w.balance.balanced);
-    // The textbook rule sets the exit code only where the exact test agrees that it fails.
-    let rule_severity = if exact {
-        Severity::Warning
-    } else {
-        Severity::Error
-    };
     let mut rule = Vec::new();
     rule.push((
         IDS[0],
@@ -266,17 +272,26 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     }
     let rule_ok = rule.iter().all(|(_, ok, _)| *ok);
     for (id, ok, message) in rule {
-        let message = if !ok && exact {
-            format!(
-                "{message}; the textbook rule fails but the exact test ({EXACT}) finds the paths symmetric, so this is a warning"
+        // The textbook rule sets the exit code only where the exact test agrees that it fails;
+        // where the exact test passes, a failed condition is a warning.
+        let (severity, message) = if !ok && exact {
+            (
+                Severity::Warning,
+                format!(
+                    "{message}; the textbook rule fails but the exact test ({EXACT}) finds the paths symmetric, so this is a warning"
+                ),
             )
         } else {
-            message
+            (Severity::Error, message)
         };
-        out.push(Finding::new(id, rule_severity, ok, message, SYMMETRY));
+        out.push(Finding::new(id, severity, ok, message, SYMMETRY));
     }
 
-    let sizes: Vec<String> = classes.classes.iter().map(|c| c.len().to_string()).collect();
+    let sizes: Vec<String> = classes
+        .classes
+        .iter()
+        .map(|c| c.len().to_string())
+        .collect();
     let agree = if exact == rule_ok {
         "agrees with the textbook rule"
     } else if exact {
@@ -288,11 +303,11 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let why = match congruence {
         Congruence::Proven => "rigid rotations carry every path onto every other, so they carry one EMF at every rotor position".to_string(),
         Congruence::UpToCommutation if exact => format!(
-            "the {n_classes} class(es) ({}) are congruent up to where the brushes cut them, and the simulated balance confirms it",
+            "rotations through whole pole pitches and the slots' shared centre lines sort them into {n_classes} congruent class(es) of {} path(s), equal up to where the brushes cut them, and the simulated balance confirms it",
             sizes.join(" + ")
         ),
         Congruence::UpToCommutation => format!(
-            "the {n_classes} class(es) ({}) are congruent only up to where the brushes cut them, and the simulated balance finds the coils under commutation carry EMF{}",
+            "rotations through whole pole pitches and the slots' shared centre lines sort them into {n_classes} congruent class(es) of {} path(s), equal only up to where the brushes cut them, and the simulated balance finds the coils under commutation carry EMF{}",
             sizes.join(" + "),
             if w.dummy_coils.is_empty() {
                 String::new()
@@ -301,7 +316,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             }
         ),
         Congruence::No => format!(
-            "the paths fall into {n_classes} classes ({}) that no rotation through whole pole pitches joins",
+            "rotations through whole pole pitches join them only into {n_classes} classes of {} path(s)",
             sizes.join(" + ")
         ),
     };
@@ -309,9 +324,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         EXACT,
         Severity::Error,
         exact,
-        format!(
-            "exact symmetry of the {a} paths: {why}; {agree}"
-        ),
+        format!("exact symmetry of the {a} paths: {why}; {agree}"),
         EXACT_SOURCE,
     ));
 

@@ -25,7 +25,12 @@ pub fn rotation_segment_shift(
     let mut shift: Option<i64> = None;
     for (i, from) in connections.iter().enumerate() {
         let to = &connections[(i + t) % n];
-        match (from.start_segment, from.end_segment, to.start_segment, to.end_segment) {
+        match (
+            from.start_segment,
+            from.end_segment,
+            to.start_segment,
+            to.end_segment,
+        ) {
             (None, None, None, None) => {}
             (Some(s0), Some(e0), Some(s1), Some(e1)) => {
                 let js = (i64::from(s1) - i64::from(s0)).rem_euclid(c);
