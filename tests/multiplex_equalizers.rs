@@ -71,16 +71,14 @@ fn bar_potentials(c: &Checked, phi: f64) -> Vec<f64> {
         rhs[from] -= e;
         rhs[to] += e;
     }
-    // Nodes that no coil reaches (bars merged into a brush) get V = 0 rows; ground the
-    // negative-brush node's neighbour set by fixing node `cc`.
-    for i in 0..size {
-        if a[i][i] == 0.0 {
-            a[i][i] = 1.0;
+    // Nodes that no coil reaches (bars merged into a brush) get identity rows; the node of
+    // the brushes of the first polarity is the ground (V = 0).
+    for (i, row) in a.iter_mut().enumerate() {
+        if row[i] == 0.0 {
+            row[i] = 1.0;
         }
     }
-    for j in 0..size {
-        a[cc][j] = 0.0;
-    }
+    a[cc] = vec![0.0; size];
     a[cc][cc] = 1.0;
     rhs[cc] = 0.0;
     let v = solve(a, rhs);
@@ -103,8 +101,9 @@ fn solve(mut a: Vec<Vec<f64>>, mut b: Vec<f64>) -> Vec<f64> {
         for row in col + 1..n {
             let f = a[row][col] / a[col][col];
             if f != 0.0 {
-                for k in col..n {
-                    a[row][k] -= f * a[col][k];
+                let pivot_row = a[col].clone();
+                for (x, p) in a[row].iter_mut().zip(&pivot_row).skip(col) {
+                    *x -= f * p;
                 }
                 b[row] -= f * b[col];
             }
