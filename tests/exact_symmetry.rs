@@ -243,3 +243,24 @@ proptest! {
         prop_assert!(b.samples >= 8 * c.u.max(c.m), "{b:?}");
     }
 }
+
+#[test]
+fn a_rotation_maps_the_winding_onto_itself_only_where_it_keeps_every_connection() {
+    use armsheet::winding::rotation_segment_shift;
+    // 4-pole simplex lap, 36 slots: one pole pair is 18 slots and 18 segments.
+    let c = check(design(&toml(4, 36, 1, false, 1, 9, "")));
+    let w = &c.winding;
+    assert_eq!(rotation_segment_shift(&w.connections, 1, 36, 18), Some(18));
+    // 6-pole wave, 36 slots, one dummy (C = 35): no rotation but the whole turn keeps the dummy.
+    let c = check(design(&toml(6, 36, 1, true, 1, 6, "")));
+    let w = &c.winding;
+    assert_eq!(w.dummy_coils.len(), 1);
+    for k in 1..36 {
+        assert_eq!(
+            rotation_segment_shift(&w.connections, 1, 35, k),
+            None,
+            "k = {k}"
+        );
+    }
+    assert_eq!(rotation_segment_shift(&w.connections, 1, 35, 0), Some(0));
+}
