@@ -104,6 +104,33 @@ fn symmetry_rules() {
 }
 
 #[test]
+fn exact_symmetry_rules() {
+    // Source: derived (the armature's rotations through whole pole pitches; module doc of
+    // src/checks/symmetry.rs), cross-checked by tests/exact_symmetry.rs.
+    // Rigid rotations carry every path onto every other.
+    case("symmetry.exact", Pass, &lap(4, 36, 1, 9, 1, ""));
+    // m divides u: both windings of the duplex lap sit in the same slots; S/(a/2) = 7.5.
+    case("symmetry.exact", Pass, &lap(4, 30, 2, 7, 2, ""));
+    case(
+        "symmetry.slots-per-path-pair",
+        Fail,
+        &lap(4, 30, 2, 7, 2, ""),
+    );
+    // S/p = 13.5: no rotation joins the paths.
+    case("symmetry.exact", Fail, &lap(4, 27, 1, 7, 1, ""));
+    // 8 poles, 50 slots: only the half turn maps the winding onto itself; 4 classes of 2.
+    case("symmetry.exact", Fail, &lap(8, 50, 1, 6, 1, ""));
+    // Doubly re-entrant duplex lap, u = 1: the two windings lie in alternate slots, one slot
+    // apart, which is no whole number of pole pitches; the textbook rule passes.
+    case("symmetry.exact", Fail, &lap(4, 24, 1, 6, 2, ""));
+    case(
+        "symmetry.slots-per-path-pair",
+        Pass,
+        &lap(4, 24, 1, 6, 2, ""),
+    );
+}
+
+#[test]
 fn span_rules() {
     // Source: the span is kept near one pole pitch (common practice; textbook winding chapters).
     case("span.pole-pitch", Pass, &lap(4, 36, 1, 9, 1, ""));

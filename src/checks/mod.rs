@@ -15,6 +15,7 @@ mod trace;
 mod wave;
 
 pub use crate::base::{Finding, Severity, has_errors};
+pub use symmetry::{Congruence, PathClasses, path_classes};
 
 use crate::design::{Design, WindingType};
 use crate::rating::{RatingReport, findings_of, rate};
@@ -31,7 +32,8 @@ pub struct Checked {
     pub rating: Option<RatingReport>,
     /// The rule findings in report order, rating findings last.
     pub findings: Vec<Finding>,
-    /// Whether the paths are symmetric by the symmetry rules.
+    /// Whether the paths are symmetric by the exact symmetry test (`symmetry.exact`): the
+    /// armature's rotations carry each path onto another (see [`path_classes`]).
     pub symmetric: bool,
 }
 

@@ -22,4 +22,6 @@ pub const DUMMY: &str = "dummy coils in wave windings (textbook treatment, e.g. 
 pub const TRACE: &str =
     "armsheet trace of the connection graph, checked against the textbook formulas";
 /// The path-balance simulation.
-pub const SIMULATION: &str = "armsheet simulation: flat-topped field under the pole arcs, rotor turned through m segment pitches in 8m steps";
+pub const SIMULATION: &str = "armsheet simulation: flat-topped field under the pole arcs, rotor turned through one period of lcm(u, m) segment pitches in 8 steps each";
+/// The exact symmetry test.
+pub const EXACT_SYMMETRY: &str = "armsheet exact test: rotations of the armature through whole pole pitches that carry each path onto another [derived]";

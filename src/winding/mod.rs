@@ -22,6 +22,7 @@ mod front;
 mod geometry;
 mod model;
 mod paths;
+mod symmetry;
 mod trace;
 
 #[cfg(test)]
@@ -29,6 +30,7 @@ mod tests;
 
 pub use crate::theory::pitch::Pitches;
 pub use model::*;
+pub use symmetry::rotation_segment_shift;
 
 use crate::design::{Design, EqualizerChoice, Mode};
 use crate::theory::{emf, pitch};
@@ -111,6 +113,7 @@ pub fn trace_winding(design: &Design) -> Winding {
     }
     shorted.sort_unstable();
 
+    let equalizers = plan_equalizers(d, c, &connections);
     let balance = simulate_balance(d, &geo, &closed_windings, &spots, c, n);
     let paths_formula = kind.parallel_paths(m, d.poles);
     let reentrancy_formula = pitch::reentrancy(c, yc);
@@ -139,7 +142,7 @@ pub fn trace_winding(design: &Design) -> Winding {
         coil_path,
         paths_formula,
         reentrancy_formula,
-        equalizers: plan_equalizers(d, c, reentrancy_formula),
+        equalizers,
         balance,
         pole_axes_deg: (0..d.poles)
             .map(|k| geo.degrees(geo.pole1 + i64::from(k) * geo.pole_pitch))
@@ -233,9 +236,22 @@ fn make_brush(d: &Design, s: &BrushSpot, sign0: i64, c: u32, units: i64, mark: &
     }
 }
 
-/// Turns the rotor through m segment pitches in 8·m steps and measures, at each step, how far
-/// apart the path EMFs are (max − min, in coil EMFs: one coil fully under the poles is 2
-/// conductor units). All P brush sets are fitted, as a shop would.
+/// Segment pitches the balance simulation turns the rotor through: lcm(u, m), one slot pitch
+/// (u bars) at least and a whole number of brush widths (m bars). With u > 1 the u coils of a
+/// slot share one centre line, so the pattern of coils under the poles repeats only after a
+/// slot pitch; m bars alone miss part of it [derived].
+pub fn balance_period_segments(coils_per_slot: u32, multiplicity: u32) -> u32 {
+    let (u, m) = (
+        u64::from(coils_per_slot.max(1)),
+        u64::from(multiplicity.max(1)),
+    );
+    (u / pitch::gcd(u, m) * m) as u32
+}
+
+/// Turns the rotor through one whole period, [`balance_period_segments`] segment pitches in 8
+/// steps each, and measures, at each step, how far apart the path EMFs are (max − min, in coil
+/// EMFs: one coil fully under the poles is 2 conductor units). All P brush sets are fitted, as
+/// a shop would.
 fn simulate_balance(
     d: &Design,
     geo: &Geometry,
@@ -244,7 +260,8 @@ fn simulate_balance(
     c: u32,
     n: u32,
 ) -> PathBalance {
-    let steps = SAMPLES_PER_SEGMENT * i64::from(d.multiplicity);
+    let period = balance_period_segments(d.coils_per_slot, d.multiplicity);
+    let steps = SAMPLES_PER_SEGMENT * i64::from(period);
     let step_units = geo.per_segment_units / SAMPLES_PER_SEGMENT;
     let mut emf = vec![0i64; n as usize];
     let (mut total, mut peak) = (0i64, 0i64);
@@ -279,7 +296,13 @@ fn simulate_balance(
 }
 
 /// Type-A equalizers: points two pole pitches (2C/P segments) apart, p points each.
-fn plan_equalizers(d: &Design, c: u32, reentrancy: u32) -> EqualizerPlan {
+///
+/// The joined points are at one potential when the rotation by one pole pair (S/p slots) maps
+/// the winding onto itself and carries each joined segment onto the next: the field and the
+/// brushes repeat every pole pair, so the rotated winding is the same network under the same
+/// field, and segment s stands where segment s + 2C/P stood [derived]. A multiply re-entrant
+/// lap qualifies too: the rotation may carry one closed winding onto another.
+fn plan_equalizers(d: &Design, c: u32, connections: &[Connection]) -> EqualizerPlan {
     if !d.winding_type.kind().takes_equalizers() {
         return EqualizerPlan::NotNeeded;
     }
@@ -303,10 +326,19 @@ fn plan_equalizers(d: &Design, c: u32, reentrancy: u32) -> EqualizerPlan {
         ));
     }
     let pitch = c / p;
-    if !pitch.is_multiple_of(reentrancy) {
-        return EqualizerPlan::Impossible(format!(
-            "the equalizer pitch {pitch} would join segments of different closed windings ({reentrancy} of them)"
-        ));
+    let pair_slots = d.slots / p;
+    match rotation_segment_shift(connections, d.coils_per_slot, c, pair_slots) {
+        Some(j) if j == pitch => {}
+        Some(j) => {
+            return EqualizerPlan::Impossible(format!(
+                "turning the armature one pole pair ({pair_slots} slots) carries each segment {j} segments on, not the equalizer pitch {pitch}, so points {pitch} segments apart are not at one potential"
+            ));
+        }
+        None => {
+            return EqualizerPlan::Impossible(format!(
+                "turning the armature one pole pair ({pair_slots} slots) does not map the winding onto itself (a connection or a dummy coil does not repeat), so points two pole pitches apart are not at one potential"
+            ));
+        }
     }
     let step = match d.equalizers {
         EqualizerChoice::None => 0,

@@ -141,8 +141,9 @@ pub enum EqualizerPlan {
     Impossible(String),
 }
 
-/// Simulated path balance: the rotor is turned through m segment pitches in 8·m steps and the
-/// path EMFs compared at each step (flat-topped field under the pole arcs).
+/// Simulated path balance: the rotor is turned through one period, lcm(u, m) segment pitches
+/// (see [`crate::winding::balance_period_segments`]), in 8 steps a segment pitch, and the path
+/// EMFs compared at each step (flat-topped field under the pole arcs).
 #[derive(Clone, Debug, PartialEq)]
 pub struct PathBalance {
     /// Rotor positions sampled.
