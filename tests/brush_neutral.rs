@@ -237,3 +237,111 @@ fn a_half_bar_lead_offset_moves_the_brushes_with_the_leads() {
     // bars) further on than coil 1's own pair would put them.
     assert_eq!(w0.brushes[0].centre_segment, 2.0);
 }
+
+/// The segments each brush touches at the reference position, from the brush and segment
+/// angles and the brush width (no mica): |segment − brush| < (width + 1)/2 bar pitches.
+fn touched(w: &Winding, b: usize) -> Vec<u32> {
+    let delta = 360.0 / f64::from(w.active_coils);
+    let brush = &w.brushes[b];
+    let at = w.pole_axes_deg[0] + brush.angle_deg;
+    let reach = (brush.width_segments + 1.0) / 2.0 * delta;
+    (1..=w.active_coils)
+        .filter(|&s| wrap(w.segment_deg(s) - at, 360.0).abs() < reach - 1e-9)
+        .collect()
+}
+
+#[derive(Debug, Clone)]
+struct WidthCase {
+    base: Case,
+    /// Brush width in quarter segment pitches above m.
+    extra_quarters: u32,
+    /// Brush sets as a fraction of P for a wave (lap always P).
+    sets_halved: bool,
+}
+
+fn width_case() -> impl Strategy<Value = WidthCase> {
+    (case(), 0u32..=8, any::<bool>()).prop_map(|(base, extra_quarters, sets_halved)| WidthCase {
+        base,
+        extra_quarters,
+        sets_halved,
+    })
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(1000))]
+
+    /// §2 and §3: the trace uses the design's brush width and brush sets; the contacts, the
+    /// shorted coils and the rating's coils shorted all follow from that one width.
+    #[test]
+    fn contacts_and_shorted_coils_follow_the_given_width_and_sets(c in width_case()) {
+        let b = &c.base;
+        let width = f64::from(b.m) + f64::from(c.extra_quarters) / 4.0;
+        let sets = if b.wave && c.sets_halved { (b.poles / 2).max(2) / 2 * 2 } else { b.poles };
+        let text = format!(
+            "{}\n[commutator]\ndiameter_mm = 200\nbrush_width_segments = {width}\nbrush_sets = {sets}\n\n[rating]\nvoltage = 220\ncurrent = 10\n",
+            b.toml()
+        );
+        let Ok(d) = parse_design(&text, "prop.toml") else {
+            // A brush half the commutator wide or more is refused; nothing to trace.
+            prop_assume!(false);
+            unreachable!()
+        };
+        let checked = armsheet::check(d);
+        let (d, w) = (&checked.design, &checked.winding);
+        prop_assert_eq!(w.brushes.len() as u32, sets);
+        for (k, brush) in w.brushes.iter().enumerate() {
+            prop_assert!((brush.width_segments - width).abs() < 1e-12);
+            prop_assert_eq!(&brush.contacts, &touched(w, k), "brush {}:\n{}", k + 1, text);
+        }
+        let mut mine = shorted_at(w, d, 0.0);
+        mine.sort_unstable();
+        mine.dedup();
+        prop_assert_eq!(&w.shorted_coils, &mine, "\n{}", text);
+        if !b.wave && 2.0 * width * f64::from(b.poles) < f64::from(w.active_coils) {
+            // Lap, brushes apart: a brush touching k bars shorts the k − m coils whose two
+            // bars it covers, never more than the rating's most.
+            let k = checked.rating.as_ref().and_then(|r| r.commutator.as_ref()).unwrap();
+            for brush in &w.brushes {
+                let own = w
+                    .connections
+                    .iter()
+                    .filter(|conn| {
+                        conn.start_segment.is_some_and(|s| brush.contacts.contains(&s))
+                            && conn.end_segment.is_some_and(|s| brush.contacts.contains(&s))
+                    })
+                    .count() as u32;
+                prop_assert_eq!(own, (brush.contacts.len() as u32).saturating_sub(b.m), "\n{}", text);
+                prop_assert!(own <= k.coils_shorted_max.unwrap(), "{} above {:?}\n{}", own, k.coils_shorted_max, text);
+            }
+        }
+    }
+}
+
+/// The case: a 4-pole simplex lap with 3-bar brushes touches four bars and shorts
+/// three coils per brush, in the trace and in the rating alike.
+#[test]
+fn a_three_bar_brush_shorts_three_lap_coils() {
+    let c = armsheet::check(design(
+        "[armature]\npoles = 4\nslots = 24\n\n[winding]\ntype = \"lap\"\nturns = 3\n\n[commutator]\ndiameter_mm = 100\nbrush_width_segments = 3.0\n\n[rating]\nvoltage = 110\ncurrent = 10\n",
+    ));
+    let w = &c.winding;
+    assert_eq!(w.brushes[0].contacts.len(), 4);
+    assert_eq!(w.shorted_coils.len(), 4 * 3);
+    let k = c.rating.as_ref().unwrap().commutator.as_ref().unwrap();
+    assert_eq!(
+        (k.coils_shorted_min, k.coils_shorted_max),
+        (Some(3), Some(3))
+    );
+}
+
+/// A 4-pole wave with two brush holders: each arm carries the whole armature current.
+#[test]
+fn two_brush_sets_on_a_four_pole_wave_carry_i_per_arm() {
+    let c = armsheet::check(design(
+        "[armature]\npoles = 4\nslots = 25\n\n[winding]\ntype = \"wave\"\nturns = 3\n\n[commutator]\nbrush_sets = 2\n\n[rating]\nvoltage = 110\ncurrent = 10\n",
+    ));
+    assert_eq!(c.winding.brush_sets(), 2);
+    assert_eq!(c.winding.parallel_paths(), 2);
+    let i = c.rating.as_ref().unwrap().currents.as_ref().unwrap();
+    assert_eq!((i.brush_arms, i.per_brush_arm_a), (2, 10.0));
+}

@@ -72,6 +72,7 @@ pub(crate) fn read(t: &TableReader<'_, '_>, against: Option<Against>) -> Option<
     );
     let diameter = diameter?;
     let brush_width = t.keep(brush_width(t, diameter.as_ref(), wmm?, wseg?, segments));
+    let brush_width = brush_width.and_then(|bw| t.keep(apart(t, bw, diameter.as_ref(), against)));
     let (brush_width, brush_grade, brush_sets, ()) = (brush_width?, brush_grade?, sets?, keys?);
     let brush_grade = match brush_grade {
         Some(At {
@@ -87,6 +88,47 @@ pub(crate) fn read(t: &TableReader<'_, '_>, against: Option<Against>) -> Option<
         brush_grade,
         brush_sets,
     })
+}
+
+/// Brushes of neighbouring poles must not touch one segment: a brush β segment pitches wide
+/// reaches (β + 1)/2 pitches either side of its centre, and the centres are C/P apart, so
+/// β + 1 < C/P.
+fn apart(
+    t: &TableReader<'_, '_>,
+    bw: Option<BrushWidth>,
+    diameter: Option<&At<f64>>,
+    against: Option<Against>,
+) -> Result<Option<BrushWidth>, Diagnostic> {
+    let (Some(w), Some(a)) = (bw, against) else {
+        return Ok(bw);
+    };
+    let (beta, key) = match w {
+        BrushWidth::Segments(x) => (Some(x), "brush_width_segments"),
+        BrushWidth::Millimetres(mm) => (
+            diameter.map(|d| mm * a.segments as f64 / (std::f64::consts::PI * d.value)),
+            "brush_width_mm",
+        ),
+    };
+    let spacing = a.segments as f64 / a.poles as f64;
+    match beta {
+        Some(beta) if beta + 1.0 >= spacing => {
+            let at = t.raw(key).map_or(t.span.clone(), |v| v.span());
+            Err(t
+                .src
+                .error(
+                    at,
+                    format!("commutator.{key}"),
+                    format!(
+                        "a brush {} segment pitches wide touches the next pole's brush: brush centres are C/P = {} segments apart, so expected less than {} segment pitches",
+                        fmt_num((beta * 100.0).round() / 100.0),
+                        fmt_num((spacing * 100.0).round() / 100.0),
+                        fmt_num(((spacing - 1.0) * 100.0).round() / 100.0)
+                    ),
+                )
+                .with_hint("brushes usually cover 1 to 3 segments; a wider brush shorts brushes of opposite polarity"))
+        }
+        _ => Ok(bw),
+    }
 }
 
 /// `brush_sets` against the winding: even, at most P, and P for a lap winding.
