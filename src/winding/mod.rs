@@ -294,7 +294,7 @@ struct TraceWidth {
 
 /// The brush width from `[commutator]`: `brush_width_segments`, or `brush_width_mm` over the
 /// segment pitch π·D_c/C; m segment pitches when neither is given (or the diameter is missing
-/// for a width in mm). Rounded to the engine's 1/(16·P) of a segment pitch.
+/// for a width in mm). Rounded down to the engine's 1/(16·P) of a segment pitch.
 fn brush_width(d: &Design, c: u32, units: i64) -> TraceWidth {
     let com = d.commutator.as_ref();
     let given = com.and_then(|k| match k.brush_width {
@@ -310,7 +310,9 @@ fn brush_width(d: &Design, c: u32, units: i64) -> TraceWidth {
             segments,
             given: given.is_some(),
         },
-        units: (segments * units as f64).round() as i64,
+        // Rounded down, so a brush the design stage let through (β + 1 ≤ C/P) never reaches
+        // the next pole's brush.
+        units: (segments * units as f64 + 1e-6).floor() as i64,
     }
 }
 

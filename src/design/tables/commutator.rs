@@ -92,7 +92,7 @@ pub(crate) fn read(t: &TableReader<'_, '_>, against: Option<Against>) -> Option<
 
 /// Brushes of neighbouring poles must not touch one segment: a brush β segment pitches wide
 /// reaches (β + 1)/2 pitches either side of its centre, and the centres are C/P apart, so
-/// β + 1 < C/P.
+/// β + 1 ≤ C/P (at equality the bar midway is just out of reach of both).
 fn apart(
     t: &TableReader<'_, '_>,
     bw: Option<BrushWidth>,
@@ -111,7 +111,7 @@ fn apart(
     };
     let spacing = a.segments as f64 / a.poles as f64;
     match beta {
-        Some(beta) if beta + 1.0 >= spacing => {
+        Some(beta) if beta + 1.0 > spacing + 1e-9 => {
             let at = t.raw(key).map_or(t.span.clone(), |v| v.span());
             Err(t
                 .src
@@ -119,7 +119,7 @@ fn apart(
                     at,
                     format!("commutator.{key}"),
                     format!(
-                        "a brush {} segment pitches wide touches the next pole's brush: brush centres are C/P = {} segments apart, so expected less than {} segment pitches",
+                        "a brush {} segment pitches wide touches the next pole's brush: brush centres are C/P = {} segments apart, so expected at most {} segment pitches",
                         fmt_num((beta * 100.0).round() / 100.0),
                         fmt_num((spacing * 100.0).round() / 100.0),
                         fmt_num(((spacing - 1.0) * 100.0).round() / 100.0)
