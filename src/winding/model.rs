@@ -72,7 +72,7 @@ impl Polarity {
 }
 
 /// A brush set: the brushes at one place round the commutator, carried by one brush arm and
-/// all of one polarity; one set by each pole.
+/// all of one polarity; one set by each of the first `brush_sets` poles.
 ///
 /// The words, one meaning each: a *brush* is one carbon (its width, in segment pitches, is the
 /// brush width); a *brush set* is the brushes at one place, which the report names B1…BP; a
@@ -236,7 +236,7 @@ pub struct Winding {
     pub connections: Vec<Connection>,
     /// Closed windings found by the trace.
     pub closed_windings: Vec<ClosedWinding>,
-    /// The brush sets fitted (P of them).
+    /// The brush sets fitted (`[commutator] brush_sets`, default P), at adjacent poles.
     pub brushes: Vec<BrushSet>,
     /// Fewest brush sets that work: lap P, wave 2.
     pub brush_sets_minimum: u32,
@@ -279,7 +279,7 @@ impl Winding {
         self.closed_windings.len() as u32
     }
 
-    /// Brush sets fitted (P).
+    /// Brush sets fitted (`[commutator] brush_sets`, default P).
     pub fn brush_sets(&self) -> u32 {
         self.brushes.len() as u32
     }
