@@ -345,3 +345,20 @@ fn two_brush_sets_on_a_four_pole_wave_carry_i_per_arm() {
     let i = c.rating.as_ref().unwrap().currents.as_ref().unwrap();
     assert_eq!((i.brush_arms, i.per_brush_arm_a), (2, 10.0));
 }
+
+/// Every demo commutates on neutral, the dummy-coil wave and the 4-coils-a-slot lap included.
+#[test]
+fn every_demo_commutates_on_neutral() {
+    for name in [
+        "hoist-lap",
+        "press-duplex-lap",
+        "pump-wave",
+        "conveyor-wave-dummy",
+        "mill-lap-12p",
+    ] {
+        let d = design(&support::demo(name));
+        let w = trace_winding(&d);
+        let (mean, count) = mean_offset_bars(&w, &d);
+        assert!(count > 0 && mean.abs() <= 0.2, "{name}: {mean} bar");
+    }
+}
