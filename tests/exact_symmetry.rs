@@ -183,7 +183,10 @@ fn the_balance_turns_through_a_whole_slot_pitch() {
         8 * 3,
         "8 samples a segment pitch over lcm(3, 1) = 3 bars"
     );
-    assert!((b.mean_spread_coils - 0.54).abs() < 0.01, "{b:?}");
+    // The issue measured 0.54 mean over the slot pitch with the brushes where coil 1 alone put
+    // them; with the brushes on neutral for the slot's coil group the mean is 0.85 (peak 1.5 in
+    // both): unbalanced either way, as the m-bar sweep (0.31) hid.
+    assert!(b.mean_spread_coils > 0.5, "{b:?}");
     assert_eq!(b.peak_spread_coils, 1.5);
     assert!(
         !c.symmetric,

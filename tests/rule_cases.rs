@@ -146,6 +146,38 @@ fn lap_rules() {
     case("lap.reentrancy", Absent, &lap(4, 36, 1, 9, 1, ""));
     case("multiplex.brush-width", Pass, &lap(4, 36, 1, 9, 2, ""));
     case("multiplex.brush-width", Absent, &lap(4, 36, 1, 9, 1, ""));
+    // A duplex lap's brush 1.1 bars wide: a coil joining bars s and s+2 is shorted only while
+    // the brush spans more than 1 bar pitch (derived from the contact model).
+    let duplex_brush = |w: &str| {
+        lap(
+            4,
+            36,
+            1,
+            9,
+            2,
+            &format!("\n[commutator]\nbrush_width_segments = {w}\n"),
+        )
+    };
+    case("multiplex.brush-too-narrow", Fail, &duplex_brush("1.1"));
+    case("multiplex.brush-too-narrow", Absent, &duplex_brush("2.5"));
+    case(
+        "multiplex.brush-too-narrow",
+        Absent,
+        &lap(4, 36, 1, 9, 2, ""),
+    );
+    case(
+        "multiplex.brush-too-narrow",
+        Fail,
+        &wave(
+            4,
+            29,
+            3,
+            7,
+            2,
+            "",
+            "\n[commutator]\nbrush_width_segments = 1.5\n",
+        ),
+    );
     // Equalizer pitch 2C/P = 18 segments on 36 bars, 4 poles.
     case(
         "lap.equalizers",

@@ -30,6 +30,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             PITCH_TEXTS,
         ));
         out.push(multiplex_brush(m));
+        out.extend(narrow_multiplex_brush(m, w));
     }
     let asked = d.equalizers != EqualizerChoice::None;
     match &w.equalizers {
@@ -73,6 +74,28 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         )),
         EqualizerPlan::NotNeeded => {}
     }
+}
+
+/// A multiplex winding whose brush is narrower than m bars: a coil joining bars s and s + m
+/// is shorted only while the brush spans more than m − 1 bar pitches, and a brush touching
+/// fewer than m + 1 bars at a time leaves windings uncollected for part of each bar pitch
+/// [derived from the contact model; common practice: brushes at least m bars wide]. An error;
+/// `None` when the trace's brush is wide enough.
+pub(super) fn narrow_multiplex_brush(m: u32, w: &Winding) -> Option<Finding> {
+    let b = w.brush_width.segments;
+    (m > 1 && b < f64::from(m) - 1e-9).then(|| {
+        Finding::new(
+            "multiplex.brush-too-narrow",
+            Severity::Error,
+            false,
+            format!(
+                "the brush is {} segment pitches wide on a multiplicity-{m} winding: a coil joining bars s and s+{m} is shorted only while the brush spans more than {} bar pitch(es), so it must be at least {m} segment pitches wide to commutate and collect from every winding",
+                fmt_fixed(b, 2),
+                m - 1
+            ),
+            MULTIPLEX_BRUSH,
+        )
+    })
 }
 
 /// The brush-width note for multiplex windings.

@@ -6,7 +6,7 @@
 
 use std::collections::BTreeMap;
 
-use super::lap::multiplex_brush;
+use super::lap::{multiplex_brush, narrow_multiplex_brush};
 use super::sources::{DUMMY, PITCH_TEXTS};
 use super::{Finding, Severity};
 use crate::design::{Design, WindingType};
@@ -33,6 +33,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     ));
     if m > 1 {
         out.push(multiplex_brush(m));
+        out.extend(narrow_multiplex_brush(m, w));
     }
     let dummies = w.dummy_coils.len() as u32;
     let wave = WindingType::Wave.kind();

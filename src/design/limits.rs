@@ -145,7 +145,7 @@ pub const LIMITS: [LimitSpec; 12] = [
         key: "brush_arm_current_max",
         default: 400.0,
         unit: "A",
-        quantity: "current per brush arm 2I/P",
+        quantity: "current per brush arm 2I/(brush sets)",
         bound: Bound::AtMost,
         level: Severity::Warning,
         id: "rating.brush-arm-current",

@@ -198,6 +198,9 @@ pub struct Commutator {
     pub brush_width: Option<BrushWidth>,
     /// `brush_grade` (default carbon).
     pub brush_grade: Option<BrushGrade>,
+    /// `brush_sets`: brush sets fitted (default P, see [`Design::brush_sets`]); even, at most
+    /// P, and P for a lap winding.
+    pub brush_sets: Option<u32>,
 }
 
 /// Hard limits on the size of a design, so no input can exhaust memory.
@@ -222,6 +225,35 @@ pub mod bounds {
     pub const MAX_SPEED_RPM: f64 = 200_000.0;
     /// Largest `flux_per_pole_mwb` accepted, mWb.
     pub const MAX_FLUX_MWB: f64 = 100_000.0;
+}
+
+/// A signed length round the commutator in half segment pitches ("half bars"), exact: the
+/// lead offset `1.5` is `HalfBars(3)` (`[winding] lead_offset`).
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, PartialOrd, Ord)]
+pub struct HalfBars(pub i32);
+
+impl HalfBars {
+    /// No offset.
+    pub const ZERO: HalfBars = HalfBars(0);
+
+    /// The length in segment pitches (bars).
+    pub fn bars(self) -> f64 {
+        f64::from(self.0) / 2.0
+    }
+}
+
+impl std::fmt::Display for HalfBars {
+    /// Whole bars as an integer (`-2`), half bars with one decimal (`1.5`), so the text reads
+    /// back as the same value.
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        let sign = if self.0 < 0 { "-" } else { "" };
+        let a = self.0.unsigned_abs();
+        if a.is_multiple_of(2) {
+            write!(f, "{sign}{}", a / 2)
+        } else {
+            write!(f, "{sign}{}.5", a / 2)
+        }
+    }
 }
 
 /// A fully resolved, validated armature design.
@@ -258,8 +290,9 @@ pub struct Design {
     pub span_source: SpanSource,
     /// `[winding] turns` per coil.
     pub turns: u32,
-    /// `[winding] lead_offset`, segments (default 0). See `winding` for the convention.
-    pub lead_offset: i32,
+    /// `[winding] lead_offset`, in half bars (default 0; `0.5`, `-1.5` allowed). See `winding`
+    /// for the convention.
+    pub lead_offset: HalfBars,
     /// `[winding] equalizers`.
     pub equalizers: EqualizerChoice,
     /// Flux per pole, mWb (`[winding]` or `[rating] flux_per_pole_mwb`).
@@ -289,6 +322,14 @@ impl Design {
     /// Coil positions N = u·S.
     pub fn coil_positions(&self) -> u32 {
         self.coils_per_slot * self.slots
+    }
+
+    /// Brush sets fitted: `[commutator] brush_sets`, default P (one by each pole).
+    pub fn brush_sets(&self) -> u32 {
+        self.commutator
+            .as_ref()
+            .and_then(|k| k.brush_sets)
+            .unwrap_or(self.poles)
     }
 }
 

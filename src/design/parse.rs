@@ -159,8 +159,15 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
     let r = src.keep(rating::read(&src, &win, table("rating").as_ref()));
     let conductor = table("conductor").map(|t| conductor::read(&t));
     let core = table("core").map(|t| core::read(&t));
-    let commutator =
-        table("commutator").map(|t| commutator::read(&t, w.as_ref().map(|w| w.segments)));
+    let against = w
+        .as_ref()
+        .zip(a.as_ref())
+        .map(|(w, a)| commutator::Against {
+            segments: w.segments,
+            poles: a.poles.value,
+            winding_type: w.winding_type,
+        });
+    let commutator = table("commutator").map(|t| commutator::read(&t, against));
     let limits = table("limits").map(|t| src.keep(limits::read(&t)));
     let (Some(a), Some(w), Some(r)) = (a, w, r) else {
         return Ok(None);
@@ -189,7 +196,7 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
         span: w.span,
         span_source: w.span_source,
         turns: w.turns as u32,
-        lead_offset: w.lead_offset as i32,
+        lead_offset: HalfBars(w.lead_offset as i32),
         equalizers: w.equalizers,
         flux_per_pole_mwb: r.flux_per_pole_mwb,
         speed_rpm: r.speed_rpm,

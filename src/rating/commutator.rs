@@ -78,9 +78,13 @@ pub struct CommutatorData {
 }
 
 /// Commutator figures from the design data; `speed_rpm` is the speed to rate at.
+/// `traced_width_segments` is the brush width the trace used, when the design gave one
+/// (`Winding::brush_width`), so the coils shorted here are the trace's.
+#[allow(clippy::too_many_arguments)]
 pub fn commutator_data(
     diameter_mm: Option<f64>,
     brush: Option<BrushWidth>,
+    traced_width_segments: Option<f64>,
     segments: u32,
     speed_rpm: Option<f64>,
     kind: WindingType,
@@ -92,10 +96,10 @@ pub fn commutator_data(
     let speed = diameter_mm
         .zip(speed_rpm)
         .map(|(d, n)| PI * d / 1000.0 * n / 60.0);
-    let (w_seg, w_mm) = match brush {
-        Some(BrushWidth::Segments(s)) => (Some(s), pitch.map(|p| s * p)),
-        Some(BrushWidth::Millimetres(mm)) => (pitch.map(|p| mm / p), Some(mm)),
-        None => (None, None),
+    let w_seg = traced_width_segments;
+    let w_mm = match brush {
+        Some(BrushWidth::Millimetres(mm)) => Some(mm),
+        _ => w_seg.zip(pitch).map(|(s, p)| s * p),
     };
     let shorted = w_seg.map(|b| coils_shorted(b, kind, multiplicity, pole_pairs));
     CommutatorData {

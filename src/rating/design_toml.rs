@@ -143,6 +143,9 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
         if let Some(g) = c.brush_grade {
             let _ = writeln!(s, "brush_grade = \"{}\"", g.as_str());
         }
+        if let Some(n) = c.brush_sets {
+            let _ = writeln!(s, "brush_sets = {n}");
+        }
     }
     // `[limits]` keys whose values differ from the defaults, in key order.
     if d.limits.overrides().next().is_some() {

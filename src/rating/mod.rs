@@ -215,6 +215,7 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
         commutator::commutator_data(
             k.diameter_mm,
             k.brush_width,
+            w.brush_width.given.then_some(w.brush_width.segments),
             c,
             speed,
             d.winding_type,

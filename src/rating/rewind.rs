@@ -519,12 +519,12 @@ pub fn rewind_rated(
         notes.push("equalizers removed: a wave winding needs none".to_string());
         nd.equalizers = EqualizerChoice::None;
     }
-    if 2 * i64::from(d.poles) * i64::from(d.lead_offset).abs() >= i64::from(c1) {
+    if i64::from(d.poles) * i64::from(d.lead_offset.0).abs() >= i64::from(c1) {
         notes.push(format!(
             "lead offset {} reset to 0: it is half a pole pitch or more on {c1} segments",
             d.lead_offset
         ));
-        nd.lead_offset = 0;
+        nd.lead_offset = crate::design::HalfBars::ZERO;
     }
     let seg_avg = emf1 * f64::from(d.poles) / f64::from(c1);
     if seg_avg > d.limits.get(crate::design::LimitId::SegmentVoltsAvgMax) {
@@ -535,6 +535,17 @@ pub fn rewind_rated(
         ));
     }
 
+    if let Some(k) = nd.commutator.as_mut()
+        && let Some(sets) = k.brush_sets
+        && sets < kind.kind().fewest_brush_sets(d.poles)
+    {
+        notes.push(format!(
+            "brush sets {sets} reset to {}: a {} winding needs one by each pole",
+            d.poles,
+            kind.as_str()
+        ));
+        k.brush_sets = None;
+    }
     nd.winding_type = kind;
     nd.multiplicity = m;
     nd.turns = turns;

@@ -12,10 +12,11 @@ use serde::{Serialize, Serializer};
 use crate::base::Finding;
 use crate::base::number::round_to;
 use crate::checks::Checked;
-use crate::design::{Job, SpanSource};
+use crate::design::{HalfBars, Job, SpanSource};
 use crate::theory::words::span_shop;
 use crate::winding::{
-    BrushSet, ClosedWinding, Connection, EqualizerPlan, Equalizers, ParallelPath, PathBalance,
+    BrushSet, ClosedWinding, Connection, EqualizerPlan, Equalizers, LeadSwing, ParallelPath,
+    PathBalance,
 };
 
 use super::rating_json::RatingJson;
@@ -68,7 +69,9 @@ struct ReportJson<'a> {
     flux_per_pole_mwb: Option<Option<f64>>,
     front_pitch: i64,
     job: JobJson<'a>,
-    lead_offset: i32,
+    #[serde(serialize_with = "half_bars")]
+    lead_offset: HalfBars,
+    lead_swing: LeadSwingJson,
     machine_constant: f64,
     mode: &'static str,
     parallel_paths: u32,
@@ -156,6 +159,7 @@ impl<'a> ReportJson<'a> {
             front_pitch: p.front,
             job: JobJson::from(&d.job),
             lead_offset: d.lead_offset,
+            lead_swing: LeadSwingJson::new(&w.lead_swing, w.active_coils),
             machine_constant: round_to(k.machine_constant, 6),
             mode: d.mode.as_str(),
             parallel_paths: w.parallel_paths(),
@@ -241,6 +245,40 @@ impl From<&PathBalance> for BalanceJson {
     }
 }
 
+/// `lead_offset` as given: an integer when whole, else the half (`1.5`).
+fn half_bars<S: Serializer>(h: &HalfBars, s: S) -> Result<S::Ok, S::Error> {
+    if h.0 % 2 == 0 {
+        s.serialize_i32(h.0 / 2)
+    } else {
+        s.serialize_f64(h.bars())
+    }
+}
+
+/// `lead_swing`: the brush position from the pole axis and the bar in line with slot 1.
+#[derive(Serialize)]
+struct LeadSwingJson {
+    brush_from_pole_axis_bars: f64,
+    brush_from_pole_axis_deg: f64,
+    in_line_mica: bool,
+    in_line_segment: f64,
+    in_line_segment_nearest: u32,
+    swing_bars: f64,
+}
+
+impl LeadSwingJson {
+    fn new(l: &LeadSwing, c: u32) -> LeadSwingJson {
+        let (bar, right) = l.in_line(c);
+        LeadSwingJson {
+            brush_from_pole_axis_bars: l.from_pole_axis_bars,
+            brush_from_pole_axis_deg: round_to(l.from_pole_axis_deg, 4),
+            in_line_mica: right.is_some(),
+            in_line_segment: round_to(l.in_line_segment, 4),
+            in_line_segment_nearest: bar,
+            swing_bars: l.swing_half_bars(c) as f64 / 2.0,
+        }
+    }
+}
+
 /// One of `brushes`.
 #[derive(Serialize)]
 struct BrushJson<'a> {
@@ -250,6 +288,7 @@ struct BrushJson<'a> {
     index: u32,
     polarity: &'static str,
     under: &'a [u32],
+    width_segments: f64,
 }
 
 fn brushes<S: Serializer>(b: &&[BrushSet], s: S) -> Result<S::Ok, S::Error> {
@@ -260,6 +299,7 @@ fn brushes<S: Serializer>(b: &&[BrushSet], s: S) -> Result<S::Ok, S::Error> {
         index: b.index,
         polarity: b.polarity.sign(),
         under: &b.under,
+        width_segments: round_to(b.width_segments, 4),
     }))
 }
 

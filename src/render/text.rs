@@ -12,7 +12,7 @@ use crate::base::visible::{visible, visible_lines};
 use crate::base::{Finding, Severity};
 use crate::checks::Checked;
 use crate::design::{Design, SpanSource};
-use crate::theory::words::{multiplicity_word, span_shop};
+use crate::theory::words::{half_bars_words, lead_swing_words, multiplicity_word, span_shop};
 use crate::winding::{EqualizerPlan, Winding};
 
 /// Options for the text report.
@@ -195,7 +195,40 @@ fn paths(s: &mut String, d: &Design, w: &Winding) {
             w.brush_sets_minimum
         ),
     );
-    row(s, "lead offset", format!("{:+} segments", d.lead_offset));
+    row(
+        s,
+        "lead offset",
+        half_bars_words(i64::from(d.lead_offset.0)),
+    );
+    let ls = &w.lead_swing;
+    row(
+        s,
+        "brush position",
+        format!(
+            "{} ({} deg) from the pole axis; at 0 the brushes commutate each slot's coil group on neutral",
+            half_bars_words(i64::from(d.lead_offset.0)),
+            fmt_fixed(ls.from_pole_axis_deg, 2)
+        ),
+    );
+    let (bar, right) = ls.in_line(w.active_coils);
+    row(
+        s,
+        "lead swing",
+        lead_swing_words(bar, right, ls.swing_half_bars(w.active_coils)),
+    );
+    let bw = &w.brush_width;
+    row(
+        s,
+        "brush width",
+        if bw.given {
+            format!("{} segment pitches", fmt_fixed(bw.segments, 2))
+        } else {
+            format!(
+                "{} segment pitches (m bars: no brush width given; set [commutator] brush_width_segments, or brush_width_mm with diameter_mm)",
+                fmt_fixed(bw.segments, 2)
+            )
+        },
+    );
     let _ = writeln!(
         s,
         "\n  brush  polarity  angle from pole 1 axis  centre on segment  under"

@@ -1,5 +1,5 @@
-//! The trade's words for winding facts, written once: multiplicity names and the shop form of
-//! a span.
+//! The trade's words for winding facts, written once: multiplicity names, the shop form of
+//! a span and the lead swing.
 //!
 //! Part of the `theory` stage; used by every report, sheet and message.
 
@@ -22,6 +22,54 @@ pub fn span_shop(span: u32) -> String {
 /// The span in words for sheets, "1-8" style with the en dash the shop writes.
 pub fn span_shop_dash(span: u32) -> String {
     format!("1\u{2013}{}", span + 1)
+}
+
+/// A signed count of half bars in words: "+1.5 bars", "-2 bars", "0 bars".
+pub fn half_bars_words(half: i64) -> String {
+    let sign = match half.signum() {
+        1 => "+",
+        -1 => "-",
+        _ => "",
+    };
+    format!("{sign}{}", bars_count(half.unsigned_abs()))
+}
+
+/// `a` half bars unsigned: "1.5 bars", "1 bar".
+fn bars_count(a: u64) -> String {
+    let n = if a.is_multiple_of(2) {
+        format!("{}", a / 2)
+    } else {
+        format!("{}.5", a / 2)
+    };
+    format!("{n} {}", if a == 2 { "bar" } else { "bars" })
+}
+
+/// The lead swing in shop words: what lines up with slot 1's centre line (`bar`, or the mica
+/// between `bar` and `right`) and how far coil 1's start lead goes from there to bar 1, in
+/// half bars (positive towards rising bar numbers). A lead swing of "3 bars on" counts the bar
+/// in line as 1 [src: a winding manual's data-taking page, read in an extract].
+pub fn lead_swing_words(bar: u32, right: Option<u32>, swing_half: i64) -> String {
+    let line = match right {
+        None => format!("bar {bar}"),
+        Some(r) => format!("the mica between bars {bar} and {r}"),
+    };
+    let way = if swing_half >= 0 { "on" } else { "back" };
+    let count = swing_half.unsigned_abs();
+    let go = if count == 0 {
+        "coil 1's start lead goes straight to it".to_string()
+    } else if right.is_none() {
+        format!(
+            "coil 1's start lead swings {} {way} to bar 1 ({} counting the bar in line as 1)",
+            bars_count(count),
+            count / 2 + 1
+        )
+    } else {
+        format!(
+            "coil 1's start lead swings {} {way} to bar 1",
+            bars_count(count)
+        )
+    };
+    format!("slot 1's centre line is on {line}; {go}")
 }
 
 #[cfg(test)]

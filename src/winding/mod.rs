@@ -13,10 +13,17 @@
 //! - Each active coil's front pitch is read off the connections ([`Connection::front_pitch`]):
 //!   the nominal y_f, plus 2 for each dummy coil the step to the next coil passes on a wave.
 //! - Reference position: the centre line of coil 1 lies on the axis of pole 1 (a north pole).
-//! - `lead_offset` = 0 is the symmetric position: the midpoint of the commutator arc from a
-//!   coil's start segment to its end segment (the way y_c runs) lies on the coil's centre line.
-//!   A positive offset swings every lead that many segments towards rising segment numbers.
-//!   The brushes then sit on the pole axes shifted by lead_offset·360/C degrees.
+//! - `lead_offset` = 0 is the symmetric position for a slot's coil group: the brush sits on
+//!   the pole axis and commutates the coils while their centre lines cross the pole axis, on
+//!   average over the group. A coil is commutated when the brush is at the midpoint of its two
+//!   bars (y_c/2 on from its start bar); the u coils of a slot share one centre line but start
+//!   on u consecutive bars, and dummy coils skip bars, so the brush sits
+//!   y_c/2 + mean(i − θ_i/δ) bars on from segment 1, with i the active coil's bar index from 0,
+//!   θ_i its slot's angle from slot 1 and δ = 360/C (see [`neutral_shift_units`]). For
+//!   u = 1 without dummies the mean is 0; for u coils a slot it is (u − 1)/2 bars.
+//!   A positive offset (half bars allowed) swings every lead that many segments towards rising
+//!   segment numbers; the brushes follow, so they sit on the pole axes shifted by
+//!   lead_offset·360/C degrees and stay on electrical neutral.
 
 mod front;
 mod geometry;
@@ -32,7 +39,7 @@ pub use crate::theory::pitch::Pitches;
 pub use model::*;
 pub use symmetry::rotation_segment_shift;
 
-use crate::design::{Design, EqualizerChoice, Mode};
+use crate::design::{BrushWidth, Design, EqualizerChoice, Mode};
 use crate::theory::{emf, pitch};
 use geometry::{Geometry, SAMPLES_PER_SEGMENT};
 use paths::BrushSpot;
@@ -57,21 +64,24 @@ pub fn trace_winding(design: &Design) -> Winding {
     let closed_windings = trace::trace_closed_windings(&connections, c);
     let geo = Geometry::new(d, c);
 
-    // Brushes, one per pole, at the reference position.
+    // Brushes, one per pole at adjacent poles (`brush_sets` of them, default P), at the
+    // reference position, on neutral for the slot's coil group.
     let units = geo.per_segment_units;
-    let spots: Vec<BrushSpot> = (0..d.poles as usize)
+    let neutral = yc * units / 2 + neutral_shift_units(d, &connections, c, units);
+    let spots: Vec<BrushSpot> = (0..d.brush_sets() as usize)
         .map(|k| BrushSpot {
             pole: k,
-            centre: yc * units / 2 + k as i64 * 16 * i64::from(c),
+            centre: neutral + k as i64 * 16 * i64::from(c),
         })
         .collect();
     let emf0: Vec<i64> = (1..=n).map(|coil| geo.coil_emf(coil, 0)).collect();
-    let mark = paths::contacts(&spots, c, m, units, 0);
+    let width = brush_width(d, c, units);
+    let mark = paths::contacts_units(&spots, c, width.units, units, 0);
     let runs = paths::runs(&closed_windings, &mark, &emf0);
     let sign0 = paths::first_brush_sign(&runs, &spots);
     let brushes = spots
         .iter()
-        .map(|s| make_brush(d, s, sign0, c, units, &mark))
+        .map(|s| make_brush(d, s, sign0, c, units, &mark, width.width.segments))
         .collect::<Vec<_>>();
 
     let current_sign = match d.mode {
@@ -120,10 +130,20 @@ pub fn trace_winding(design: &Design) -> Winding {
     let conductors = 2 * u64::from(c) * u64::from(d.turns);
     let a = path_list.len() as u32;
     let constants = machine_constants(d, conductors, a);
-    let delta = 360.0 / f64::from(c);
-    let segment1_deg = (geo.degrees(geo.pole1) - yc as f64 / 2.0 * delta
-        + f64::from(d.lead_offset) * delta)
-        .rem_euclid(360.0);
+    // Segment 1's centre in ticks: the brush centre (`neutral` units on from segment 1) sits
+    // on pole 1's axis, shifted by the lead offset; one unit is N ticks.
+    let tick_n = i64::from(n);
+    let segment1 = geo.pole1 - neutral * tick_n + i64::from(d.lead_offset.0) * units / 2 * tick_n;
+    let segment1_deg = geo.degrees(segment1).rem_euclid(360.0);
+    let per_bar = units * tick_n;
+    let in_line = (-segment1).rem_euclid(geo.turn);
+    let lead_swing = LeadSwing {
+        in_line_segment: in_line as f64 / per_bar as f64 + 1.0,
+        in_line_half_bars: ((2 * in_line + per_bar / 2).div_euclid(per_bar))
+            .rem_euclid(2 * i64::from(c)) as u32,
+        from_pole_axis_bars: d.lead_offset.bars(),
+        from_pole_axis_deg: d.lead_offset.bars() * 360.0 / f64::from(c),
+    };
 
     Winding {
         coils: n,
@@ -136,6 +156,7 @@ pub fn trace_winding(design: &Design) -> Winding {
         closed_windings,
         brushes,
         brush_sets_minimum: kind.fewest_brush_sets(d.poles),
+        brush_width: width.width,
         paths: path_list,
         shorted_coils: shorted,
         coil_current,
@@ -148,8 +169,36 @@ pub fn trace_winding(design: &Design) -> Winding {
             .map(|k| geo.degrees(geo.pole1 + i64::from(k) * geo.pole_pitch))
             .collect(),
         segment1_deg,
+        lead_swing,
         constants,
     }
+}
+
+/// The brush's shift from a coil's lead midpoint that centres the commutation zone of a
+/// slot's coil group on the pole axis, in units of 1/`units` of a segment pitch, rounded to
+/// the nearest unit.
+///
+/// Active coil i (0-based, in position order) starts on segment i + 1 and is commutated when
+/// the brush is at i + y_c/2; its centre line is then θ_i/δ bars from the brush line, θ_i
+/// being its slot's angle from slot 1's and δ the bar pitch. Placing the brush at
+/// y_c/2 + mean(i − θ_i/δ) makes the mean offset zero. θ_i/δ = slot_i·C/S, so the shift is
+/// Σ(i·S − slot_i·C)/(C·S) bars [derived; DOMAIN.md "Brush neutral with several coils per
+/// slot"].
+pub(crate) fn neutral_shift_units(
+    d: &Design,
+    connections: &[Connection],
+    c: u32,
+    units: i64,
+) -> i64 {
+    let (s, ci) = (i128::from(d.slots), i128::from(c));
+    let sum: i128 = connections
+        .iter()
+        .filter_map(|k| k.start_segment.map(|st| (k.top.slot, st)))
+        .map(|(slot, st)| i128::from(st - 1) * s - i128::from(slot - 1) * ci)
+        .sum();
+    let (num, den) = (sum * i128::from(units), ci * s);
+    // Round to nearest (halves away from −∞).
+    ((2 * num + den).div_euclid(2 * den)) as i64
 }
 
 /// Spreads `count` dummy coils evenly: positions ⌊k·N/d⌋ for k = 1…d (the last is coil N).
@@ -201,7 +250,15 @@ fn connect(d: &Design, c: u32, yc: i64, dummies: &[u32]) -> Vec<Connection> {
         .collect()
 }
 
-fn make_brush(d: &Design, s: &BrushSpot, sign0: i64, c: u32, units: i64, mark: &[i32]) -> BrushSet {
+fn make_brush(
+    d: &Design,
+    s: &BrushSpot,
+    sign0: i64,
+    c: u32,
+    units: i64,
+    mark: &[i32],
+    width_segments: f64,
+) -> BrushSet {
     let ci = i64::from(c);
     let centre = s.centre.rem_euclid(units * ci);
     let under = if centre % units == 0 {
@@ -223,7 +280,7 @@ fn make_brush(d: &Design, s: &BrushSpot, sign0: i64, c: u32, units: i64, mark: &
             Polarity::Negative
         },
         angle_deg: (s.pole as f64 * 360.0 / f64::from(d.poles)
-            + f64::from(d.lead_offset) * 360.0 / f64::from(c))
+            + d.lead_offset.bars() * 360.0 / f64::from(c))
         .rem_euclid(360.0),
         centre_segment: centre as f64 / units as f64 + 1.0,
         under,
@@ -233,6 +290,37 @@ fn make_brush(d: &Design, s: &BrushSpot, sign0: i64, c: u32, units: i64, mark: &
             .filter(|(_, b)| **b == s.pole as i32)
             .map(|(x, _)| x as u32 + 1)
             .collect(),
+        width_segments,
+    }
+}
+
+/// The brush width the trace uses, and the same in position units.
+struct TraceWidth {
+    width: BrushWidthUsed,
+    units: i64,
+}
+
+/// The brush width from `[commutator]`: `brush_width_segments`, or `brush_width_mm` over the
+/// segment pitch π·D_c/C; m segment pitches when neither is given (or the diameter is missing
+/// for a width in mm). Rounded down to the engine's 1/(16·P) of a segment pitch.
+fn brush_width(d: &Design, c: u32, units: i64) -> TraceWidth {
+    let com = d.commutator.as_ref();
+    let given = com.and_then(|k| match k.brush_width {
+        Some(BrushWidth::Segments(x)) => Some(x),
+        Some(BrushWidth::Millimetres(mm)) => k
+            .diameter_mm
+            .map(|dia| mm * f64::from(c) / (std::f64::consts::PI * dia)),
+        None => None,
+    });
+    let segments = given.unwrap_or(f64::from(d.multiplicity));
+    TraceWidth {
+        width: BrushWidthUsed {
+            segments,
+            given: given.is_some(),
+        },
+        // Rounded down, so a brush the design stage let through (β + 1 ≤ C/P) never reaches
+        // the next pole's brush.
+        units: (segments * units as f64 + 1e-6).floor() as i64,
     }
 }
 

@@ -78,7 +78,7 @@ impl Polarity {
 }
 
 /// A brush set: the brushes at one place round the commutator, carried by one brush arm and
-/// all of one polarity; one set by each pole.
+/// all of one polarity; one set by each of the first `brush_sets` poles.
 ///
 /// The words, one meaning each: a *brush* is one carbon (its width, in segment pitches, is the
 /// brush width); a *brush set* is the brushes at one place, which the report names B1…BP; a
@@ -98,8 +98,61 @@ pub struct BrushSet {
     pub centre_segment: f64,
     /// The segment (or the two segments) under the set's centre at the reference position.
     pub under: Vec<u32>,
-    /// Segments touched in the engine's contact model (brush m segments wide).
+    /// Segments touched at the reference position by a brush [`Winding::brush_width`] wide.
     pub contacts: Vec<u32>,
+    /// The brush width the trace uses, segment pitches.
+    pub width_segments: f64,
+}
+
+/// The brush width the trace uses (`[commutator] brush_width_segments`, or `brush_width_mm`
+/// with the commutator diameter; m segment pitches when neither is given).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct BrushWidthUsed {
+    /// Width, segment pitches.
+    pub segments: f64,
+    /// Whether the design gave it (false: the m-bar fallback).
+    pub given: bool,
+}
+
+/// The brush position and the lead swing, as a shop measures them.
+///
+/// At `lead_offset = 0` the brushes sit on the pole axes, which is neutral for the slot's coil
+/// group (see the `winding` module doc). "Lead swing" in shop words: stretch a cord through
+/// the centre of slot 1; the bar (or mica) in line with it is where coil 1's start lead is
+/// counted from [src: a winding manual's data-taking page, read in an extract; DOMAIN.md].
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct LeadSwing {
+    /// Brush centre from the pole axis, bars (= `lead_offset`), towards rising slot numbers.
+    pub from_pole_axis_bars: f64,
+    /// The same, mechanical degrees.
+    pub from_pole_axis_deg: f64,
+    /// Segment position in line with slot 1's centre line (1.0 = the centre of segment 1,
+    /// 1.5 = the mica between segments 1 and 2; fractional with dummy coils).
+    pub in_line_segment: f64,
+    /// That position rounded to the nearest half bar, in half bars from segment 1's centre
+    /// (0…2C−1): even is a bar, odd a mica.
+    pub in_line_half_bars: u32,
+}
+
+impl LeadSwing {
+    /// The bar (`(bar, None)`) or mica (`(left, Some(right))`) in line with slot 1's centre
+    /// line, to the nearest half bar, on `segments` bars.
+    pub fn in_line(&self, segments: u32) -> (u32, Option<u32>) {
+        let bar = self.in_line_half_bars / 2 + 1;
+        if self.in_line_half_bars.is_multiple_of(2) {
+            (bar, None)
+        } else {
+            (bar, Some(bar % segments + 1))
+        }
+    }
+
+    /// Bars from the in-line position to bar 1 (coil 1's start lead), towards rising bar
+    /// numbers when positive, in half bars, taken the short way round (−C < x ≤ C).
+    pub fn swing_half_bars(&self, segments: u32) -> i64 {
+        let c2 = 2 * i64::from(segments);
+        let x = (-i64::from(self.in_line_half_bars)).rem_euclid(c2);
+        if x > c2 / 2 { x - c2 } else { x }
+    }
 }
 
 /// A parallel path: a run of coils between brush sets of opposite polarity.
@@ -190,10 +243,12 @@ pub struct Winding {
     pub connections: Vec<Connection>,
     /// Closed windings found by the trace.
     pub closed_windings: Vec<ClosedWinding>,
-    /// The brush sets fitted (P of them).
+    /// The brush sets fitted (`[commutator] brush_sets`, default P), at adjacent poles.
     pub brushes: Vec<BrushSet>,
     /// Fewest brush sets that work: lap P, wave 2.
     pub brush_sets_minimum: u32,
+    /// The one brush width behind the contacts, the shorted coils, the sheet and the rating.
+    pub brush_width: BrushWidthUsed,
     /// Parallel paths found by the trace at the reference position.
     pub paths: Vec<ParallelPath>,
     /// Coils shorted by a brush at the reference position (under commutation).
@@ -214,6 +269,8 @@ pub struct Winding {
     pub pole_axes_deg: Vec<f64>,
     /// Angle of segment 1's centre, degrees; segment s is at this + (s−1)·360/C.
     pub segment1_deg: f64,
+    /// Where the brushes sit and which bar lines up with slot 1 (the lead swing).
+    pub lead_swing: LeadSwing,
     /// Machine constants.
     pub constants: Constants,
 }
@@ -229,7 +286,7 @@ impl Winding {
         self.closed_windings.len() as u32
     }
 
-    /// Brush sets fitted (P).
+    /// Brush sets fitted (`[commutator] brush_sets`, default P).
     pub fn brush_sets(&self) -> u32 {
         self.brushes.len() as u32
     }

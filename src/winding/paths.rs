@@ -27,15 +27,27 @@ pub(crate) fn contacts(
     units: i64,
     shift: i64,
 ) -> Vec<i32> {
+    contacts_units(spots, segments, i64::from(width) * units, units, shift)
+}
+
+/// [`contacts`] for a brush `width_units` wide, in units of 1/`units` of a segment pitch:
+/// segment x is touched when 2·|x·units − centre| < width_units + units.
+pub(crate) fn contacts_units(
+    spots: &[BrushSpot],
+    segments: u32,
+    width_units: i64,
+    units: i64,
+    shift: i64,
+) -> Vec<i32> {
     let c = i64::from(segments);
-    let w = i64::from(width);
+    let reach = width_units.div_euclid(units) + 1;
     let mut mark = vec![-1i32; segments as usize];
     for (b, spot) in spots.iter().enumerate() {
         let centre = spot.centre - shift;
-        let lo = centre.div_euclid(units) - w - 1;
-        let hi = centre.div_euclid(units) + w + 1;
+        let lo = centre.div_euclid(units) - reach - 1;
+        let hi = centre.div_euclid(units) + reach + 1;
         for x in lo..=hi {
-            if 2 * (units * x - centre).abs() < units * (w + 1) {
+            if 2 * (units * x - centre).abs() < width_units + units {
                 mark[x.rem_euclid(c) as usize] = b as i32;
             }
         }

@@ -7,7 +7,8 @@
 //! - `span`: slots, 1 to slots − 1, as a number or the shop form `"1-8"` (= 7); default
 //!   floor(slots / poles), at least 1;
 //! - `turns` (required): turns per coil, 1 to [`bounds::MAX_TURNS`];
-//! - `lead_offset` (default 0): segments, less than half a pole pitch either way;
+//! - `lead_offset` (default 0): segments, a whole number of half bars (`1`, `0.5`, `-1.5`),
+//!   less than half a pole pitch either way;
 //! - `equalizers` (lap only, default `"none"`): `"none"`, `"full"` or every n-th connection;
 //! - `flux_per_pole_mwb`, `speed_rpm`: also accepted in `[rating]`, and read with it
 //!   (`tables/rating.rs`).
@@ -21,7 +22,7 @@ use super::armature::Armature;
 use super::segments;
 use crate::base::visible::{ECHO_WIDTH, clip};
 use crate::design::Diagnostic;
-use crate::design::model::{Direction, EqualizerChoice, SpanSource, WindingType, bounds};
+use crate::design::model::{Direction, EqualizerChoice, HalfBars, SpanSource, WindingType, bounds};
 use crate::design::reader::{At, TableReader, fmt_num};
 
 /// The keys of `[winding]`.
@@ -53,7 +54,7 @@ pub(crate) struct Winding {
     pub turns: i64,
     /// Active coils = segments, resolved.
     pub segments: i64,
-    /// `lead_offset`.
+    /// `lead_offset`, in half bars.
     pub lead_offset: i64,
     /// `equalizers`.
     pub equalizers: EqualizerChoice,
@@ -90,12 +91,7 @@ pub(crate) fn read(
         )
         .and_then(|t| t.ok_or_else(|| win.missing("turns", "turns per coil", "turns = 3"))),
     );
-    let lead_offset = win.keep(win.int(
-        "lead_offset",
-        -1000..=1000,
-        "the lead offset in segments",
-        "0 puts each coil's two segments either side of its centre line",
-    ));
+    let lead_offset = win.keep(read_lead_offset(win));
     let equalizers = wtype.and_then(|t| win.keep(read_equalizers(win, t)));
 
     // From here on the values are read against the armature.
@@ -156,7 +152,7 @@ pub(crate) fn read(
     }
     let lead_offset = lead_offset?;
     if let Some(lo) = &lead_offset
-        && 2 * poles.value * lo.value.abs() >= active
+        && poles.value * lo.value.abs() >= active
     {
         src.found.push(src
                 .error(
@@ -164,7 +160,7 @@ pub(crate) fn read(
                     "winding.lead_offset",
                     format!(
                         "lead offset {} is half a pole pitch or more: expected |lead_offset| < {} segments ({active} segments, {} poles)",
-                        lo.value,
+                        HalfBars(lo.value as i32),
                         fmt_half_pitch(active, poles.value),
                         poles.value
                     ),
@@ -184,6 +180,39 @@ pub(crate) fn read(
         lead_offset: lead_offset.map_or(0, |l| l.value),
         equalizers: equalizers?,
     })
+}
+
+/// `lead_offset` in half bars: a number from −1000 to 1000 segments that is a whole number of
+/// half segment pitches.
+fn read_lead_offset(win: &TableReader<'_, '_>) -> Result<Option<At<i64>>, Diagnostic> {
+    let Some(lo) = win.number(
+        "lead_offset",
+        -1000.0,
+        false,
+        1000.0,
+        "the lead offset in segments",
+    )?
+    else {
+        return Ok(None);
+    };
+    let halves = lo.value * 2.0;
+    if halves != halves.round() {
+        return Err(win
+            .src
+            .error(
+                lo.span.clone(),
+                "winding.lead_offset",
+                format!(
+                    "lead offset {} is not a whole number of half bars: expected a whole number of segments or a half (e.g. 1, 0.5, -1.5)",
+                    fmt_num(lo.value)
+                ),
+            )
+            .with_hint("0 puts the slot's coil group symmetric about its centre line; the brush then sits on neutral. Round to the nearest half bar"));
+    }
+    Ok(Some(At {
+        value: halves as i64,
+        span: lo.span,
+    }))
 }
 
 fn fmt_half_pitch(c: i64, poles: i64) -> String {

@@ -220,14 +220,13 @@ pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOpt
         })
         .collect();
 
-    let m = f64::from(design.multiplicity);
     let brushes = winding
         .brushes
         .iter()
         .filter_map(|b| {
             let deg = winding.segment1_deg + (b.centre_segment - 1.0) * seg_deg;
             let x = geo.x(deg);
-            let half = (m * segment_pitch * 0.5).max(0.9);
+            let half = (b.width_segments * segment_pitch * 0.5).max(0.9);
             let pieces = geo.interval(x - half, x + half);
             (!pieces.is_empty()).then(|| BrushBox {
                 index: b.index,

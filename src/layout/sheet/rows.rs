@@ -9,7 +9,7 @@ use crate::rating::RatingReport;
 use crate::winding::{EqualizerPlan, Winding};
 
 use crate::base::number::fmt_fixed;
-use crate::theory::words::{multiplicity_word, span_shop_dash};
+use crate::theory::words::{half_bars_words, multiplicity_word, span_shop_dash};
 
 /// A signed pitch, "+1" or "−3".
 pub fn signed(x: i64) -> String {
@@ -67,6 +67,18 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
     );
     row("turns per coil", d.turns.to_string());
     row("lead offset", format!("{} seg", d.lead_offset));
+    let (bar, right) = w.lead_swing.in_line(w.active_coils);
+    let in_line = match right {
+        None => format!("bar {bar}"),
+        Some(r) => format!("mica {bar}/{r}"),
+    };
+    row(
+        "lead swing",
+        format!(
+            "slot 1 at {in_line}, {}",
+            half_bars_words(w.lead_swing.swing_half_bars(w.active_coils))
+        ),
+    );
     row("comm. pitch", signed(w.pitches.commutator));
     row(
         "back / front",
