@@ -178,7 +178,7 @@ fn case() -> impl Strategy<Value = Case> {
 }
 
 proptest! {
-    #![proptest_config(ProptestConfig::with_cases(1000))]
+    #![proptest_config(support::properties(1000))]
 
     #[test]
     fn the_commutation_zone_is_centred_on_the_pole_axis(c in case()) {
@@ -268,7 +268,7 @@ fn width_case() -> impl Strategy<Value = WidthCase> {
 }
 
 proptest! {
-    #![proptest_config(ProptestConfig::with_cases(1000))]
+    #![proptest_config(support::properties(1000))]
 
     /// §2 and §3: the trace uses the design's brush width and brush sets; the contacts, the
     /// shorted coils and the rating's coils shorted all follow from that one width.

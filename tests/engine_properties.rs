@@ -5,6 +5,8 @@
 //! commutator pitch, every active coil traced once, and traced paths and reentrancy equal to
 //! the textbook formulas (lap a = m·P, wave a = 2m; reentrancy gcd(C, |y_c|)).
 
+mod support;
+
 use armsheet::design::parse_design;
 use armsheet::theory::pitch;
 use armsheet::winding::{Winding, trace_winding};
@@ -93,7 +95,7 @@ fn traced(c: &Case) -> Winding {
 }
 
 proptest! {
-    #![proptest_config(ProptestConfig::with_cases(1000))]
+    #![proptest_config(support::properties(1000))]
 
     #[test]
     fn every_segment_carries_one_start_and_one_end(c in case()) {
@@ -167,7 +169,7 @@ proptest! {
 }
 
 proptest! {
-    #![proptest_config(ProptestConfig::with_cases(1000))]
+    #![proptest_config(support::properties(1000))]
 
     /// No text, however broken, makes the parser panic.
     #[test]

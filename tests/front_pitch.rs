@@ -118,7 +118,7 @@ fn place(w: &Winding, coil: u32, u: u32) -> u32 {
 }
 
 proptest! {
-    #![proptest_config(ProptestConfig::with_cases(1000))]
+    #![proptest_config(support::properties(1000))]
 
     #[test]
     fn front_pitch_differs_by_two_per_dummy_stepped_over(c in case()) {

@@ -2,6 +2,8 @@
 //! area; twice the voltage on the same connection doubles the turns and halves the area; the
 //! written design parses back with armsheet's own parser.
 
+mod support;
+
 use armsheet::design::{Design, parse_design};
 use armsheet::rating::{RewindRequest, rewind};
 use armsheet::winding::trace_winding;
@@ -103,7 +105,7 @@ fn design(c: &Case) -> Option<Design> {
 }
 
 proptest! {
-    #![proptest_config(ProptestConfig { cases: 200, ..ProptestConfig::default() })]
+    #![proptest_config(support::properties(200))]
 
     #[test]
     fn same_voltage_reproduces_turns_and_area(c in case()) {

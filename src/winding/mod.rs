@@ -351,11 +351,14 @@ fn simulate_balance(
     let period = balance_period_segments(d.coils_per_slot, d.multiplicity);
     let steps = SAMPLES_PER_SEGMENT * i64::from(period);
     let step_units = geo.per_segment_units / SAMPLES_PER_SEGMENT;
+    let u = d.coils_per_slot;
     let mut emf = vec![0i64; n as usize];
     let (mut total, mut peak) = (0i64, 0i64);
     for k in 0..steps {
-        for coil in 1..=n {
-            emf[(coil - 1) as usize] = geo.coil_emf(coil, k * geo.sample_step);
+        // The u coils of a slot share their sides' places, so one EMF serves the slot.
+        for (slot, group) in emf.chunks_mut(u as usize).enumerate() {
+            let e = geo.coil_emf(slot as u32 * u + 1, k * geo.sample_step);
+            group.fill(e);
         }
         let mark = paths::contacts(
             spots,
@@ -364,11 +367,10 @@ fn simulate_balance(
             geo.per_segment_units,
             k * step_units,
         );
-        let runs = paths::runs(cycles, &mark, &emf);
-        let sizes = runs
-            .iter()
-            .filter(|r| paths::is_path(r, spots))
-            .map(|r| r.emf.abs());
+        let sizes = paths::run_emfs(cycles, &mark, &emf)
+            .into_iter()
+            .filter(|&(from, to, _)| spots[from].pole % 2 != spots[to].pole % 2)
+            .map(|(_, _, e)| e.abs());
         let (lo, hi) = sizes.fold((i64::MAX, 0), |(lo, hi), e| (lo.min(e), hi.max(e)));
         let spread = if lo == i64::MAX { 0 } else { hi - lo };
         total += spread;

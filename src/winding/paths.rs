@@ -102,6 +102,38 @@ pub(crate) fn runs(cycles: &[ClosedWinding], mark: &[i32], emf: &[i64]) -> Vec<R
     out
 }
 
+/// [`runs`] without the coil lists: (from brush, to brush, net EMF) of each run, for sweeps
+/// that only compare EMFs.
+pub(crate) fn run_emfs(
+    cycles: &[ClosedWinding],
+    mark: &[i32],
+    emf: &[i64],
+) -> Vec<(usize, usize, i64)> {
+    let mut out = Vec::new();
+    for cycle in cycles {
+        let steps = &cycle.steps;
+        let Some(first) = steps
+            .iter()
+            .position(|s| mark[(s.from_segment - 1) as usize] >= 0)
+        else {
+            continue;
+        };
+        let mut from = mark[(steps[first].from_segment - 1) as usize] as usize;
+        let mut sum = 0;
+        for k in 0..steps.len() {
+            let step = steps[(first + k) % steps.len()];
+            sum += emf[(step.coil - 1) as usize];
+            let at = mark[(step.to_segment - 1) as usize];
+            if at >= 0 {
+                out.push((from, at as usize, sum));
+                sum = 0;
+                from = at as usize;
+            }
+        }
+    }
+    out
+}
+
 /// Polarity of the brush by pole 0: +1 or −1. Brushes alternate with the pole index.
 ///
 /// Each run between brushes of opposite parity votes with its EMF for the polarity of the brush
