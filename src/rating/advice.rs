@@ -124,12 +124,15 @@ pub enum Advice {
         /// The segment pitch, mm, when the commutator diameter is known.
         pitch_mm: Option<f64>,
     },
-    /// Brush-arm current too high: more arms (poles) or less current.
+    /// Brush-arm current too high: more arms (brush sets, then poles) or less current.
     BrushArm {
         /// Poles P.
         poles: u32,
-        /// Brush arms needed (even, more than the poles); `None` when the count does not fit
-        /// in a `u32`.
+        /// Brush sets fitted now.
+        sets: u32,
+        /// Brush arms needed (even, more than are fitted); `None` when the count does not fit
+        /// in a `u32`. Up to P of them are more brush sets on the same poles; beyond P they
+        /// need more poles.
         arms: Option<u32>,
         /// Highest armature current on the present arms, A.
         max_current_a: f64,
@@ -360,16 +363,18 @@ pub fn brush_width(pitch_mm: Option<f64>, min: f64, max: f64) -> Advice {
     Advice::BrushWidth { min, max, pitch_mm }
 }
 
-/// More brush arms (poles) or less current for a brush-arm current above `limit`.
-pub fn brush_arm(current: f64, poles: u32, limit: f64) -> Advice {
+/// More brush arms or less current for a brush-arm current above `limit`, with `sets` brush
+/// sets fitted on `poles` poles. A wave winding with fewer sets than poles takes more sets first.
+pub fn brush_arm(current: f64, sets: u32, poles: u32, limit: f64) -> Advice {
     // Checked: a tiny limit gives a count beyond u32, and rounding it up to even must not wrap.
     let arms = super::commutator::ceil_count(2.0 * current / limit)
         .and_then(|a| a.checked_add(a % 2))
-        .and_then(|a| Some(a.max(poles.checked_add(2)?)));
+        .and_then(|a| Some(a.max(sets.checked_add(2)?)));
     Advice::BrushArm {
         poles,
+        sets,
         arms,
-        max_current_a: limit * f64::from(poles) / 2.0,
+        max_current_a: limit * f64::from(sets) / 2.0,
     }
 }
 
@@ -396,7 +401,7 @@ mod tests {
     use super::*;
 
     fn arms(current: f64, poles: u32, limit: f64) -> Option<u32> {
-        match brush_arm(current, poles, limit) {
+        match brush_arm(current, poles, poles, limit) {
             Advice::BrushArm { arms, .. } => arms,
             other => panic!("{other:?}"),
         }
@@ -415,11 +420,26 @@ mod tests {
         assert!(
             Advice::BrushArm {
                 poles: 4,
+                sets: 4,
                 arms: None,
                 max_current_a: 0.0
             }
             .words()[0]
                 .contains("more brush arms (poles) than can be counted")
         );
+    }
+
+    #[test]
+    fn a_wave_with_fewer_brush_sets_takes_more_sets_before_more_poles() {
+        // Two sets on six poles, 300 A, 200 A an arm: 2I/limit = 3 -> 4 arms, still within
+        // the six poles, so the remedy is two more brush sets, not more poles.
+        let a = brush_arm(300.0, 2, 6, 200.0);
+        let words = a.words().join(" ");
+        assert!(words.contains("4 brush sets on the 6 poles"), "{words}");
+        assert!(words.contains("2I/(brush sets)"), "{words}");
+        assert!(words.contains("at most 200.0 A"), "{words}");
+        // Beyond the poles the remedy is more poles.
+        let words = brush_arm(900.0, 2, 6, 200.0).words().join(" ");
+        assert!(words.contains("10 brush arms (poles)"), "{words}");
     }
 }

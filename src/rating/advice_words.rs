@@ -128,15 +128,17 @@ impl Advice {
             }],
             Advice::BrushArm {
                 poles,
+                sets,
                 arms,
                 max_current_a,
             } => {
-                let arms = arms.map_or_else(
-                    || "more brush arms (poles) than can be counted".to_string(),
-                    |a| format!("{a} brush arms (poles)"),
-                );
+                let arms = match arms {
+                    None => "more brush arms (poles) than can be counted".to_string(),
+                    Some(a) if a <= poles => format!("{a} brush sets on the {poles} poles"),
+                    Some(a) => format!("{a} brush arms (poles)"),
+                };
                 vec![format!(
-                    "the arm current 2I/P is set by the current and the {poles} poles: it needs {arms}, or at most {} A armature current",
+                    "the arm current 2I/(brush sets) is set by the current and the {sets} brush sets fitted: it needs {arms}, or at most {} A armature current",
                     fmt_fixed(*max_current_a, 1)
                 )]
             }

@@ -376,7 +376,7 @@ fn check_limits(d: &Design, r: &RatingReport) -> (Vec<RatingCheck>, Vec<CheckAdv
     push(
         rules::BRUSH_ARM_CURRENT,
         cur.map(|c| c.per_brush_arm_a),
-        &|c| advice::brush_arm(i, d.poles, c.limit),
+        &|c| advice::brush_arm(i, cur.map_or(d.poles, |k| k.brush_arms), d.poles, c.limit),
     );
     let dc = com.and_then(|k| k.diameter_mm);
     push(
