@@ -6,6 +6,7 @@
 //! file) that pushes findings, call it from [`run_checks`], and give it an id, a severity and
 //! its source; then add a passing and a failing row to `tests/rule_cases.rs`.
 
+pub mod identify;
 mod lap;
 mod shop;
 mod sources;

@@ -27,6 +27,8 @@ pub enum NoOverwrite {
     New,
     /// `armsheet rewind` without `--force`.
     Rewind,
+    /// `armsheet identify` without `--force`.
+    Identify,
 }
 
 /// Why a command stopped.
@@ -86,6 +88,14 @@ pub enum CliError {
         design: String,
         /// The parser's diagnostics on the new file.
         diagnostic: Box<Diagnostics>,
+    },
+    /// `armsheet identify --pick N` names no candidate, or the identified design does not
+    /// parse back (nothing is written).
+    Identify {
+        /// The card, as given.
+        card: String,
+        /// Why.
+        message: String,
     },
     /// The PDF cannot be made from the sheets.
     Pdf {
@@ -209,6 +219,17 @@ impl fmt::Display for CliError {
                 "error: {} already exists; armsheet rewind does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
                 shown(path)
             ),
+            CliError::Exists {
+                path,
+                by: NoOverwrite::Identify,
+            } => writeln!(
+                f,
+                "error: {} already exists; armsheet identify does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
+                shown(path)
+            ),
+            CliError::Identify { card, message } => {
+                writeln!(f, "error: {}: {}", visible(card), visible(message))
+            }
             CliError::Rewind { design, error } => {
                 writeln!(
                     f,

@@ -198,6 +198,7 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
         turns: w.turns as u32,
         lead_offset: HalfBars(w.lead_offset as i32),
         equalizers: w.equalizers,
+        dummy_coils: w.dummy_coils,
         flux_per_pole_mwb: r.flux_per_pole_mwb,
         speed_rpm: r.speed_rpm,
         mode: r.mode,
@@ -218,7 +219,7 @@ fn tables_list() -> String {
 }
 
 /// Finds the `[name]` header line so a missing key can point at it.
-fn header_span(text: &str, name: &str) -> Option<std::ops::Range<usize>> {
+pub(crate) fn header_span(text: &str, name: &str) -> Option<std::ops::Range<usize>> {
     let mut offset = 0;
     for line in text.split_inclusive('\n') {
         let trimmed = line.trim_start();
@@ -237,7 +238,7 @@ fn header_span(text: &str, name: &str) -> Option<std::ops::Range<usize>> {
     None
 }
 
-fn toml_error(src: &Source<'_>, e: &toml::de::Error) -> Diagnostic {
+pub(crate) fn toml_error(src: &Source<'_>, e: &toml::de::Error) -> Diagnostic {
     let span = e.span().unwrap_or(0..0);
     let msg = e.message().trim();
     let text = src.text;
