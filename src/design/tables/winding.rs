@@ -234,8 +234,7 @@ fn read_dummy_coils(
                 list.len()
             ),
             format!(
-                "list {want} coil(s), or set [armature] segments = {}",
-                positions - list.len() as i64
+                "list {want} coil(s): the dummies are the coils without a segment, N − C of them"
             ),
         ));
     }
