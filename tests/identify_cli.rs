@@ -242,3 +242,26 @@ fn every_broken_card_gets_its_expected_message() {
     }
     assert!(failures.is_empty(), "{}", failures.join("\n"));
 }
+
+/// The demo card yields the demo design, byte for byte, and that design checks as is.
+#[test]
+fn the_demo_card_yields_the_demo_design() {
+    let dir = scratch("demo");
+    let out = dir.join("d.toml");
+    let o = armsheet(&[
+        "identify",
+        "designs/cards/sawmill-card.toml",
+        "-o",
+        out.to_str().unwrap(),
+    ]);
+    assert_eq!(o.status.code(), Some(0), "{}", text(&o.stderr));
+    assert_eq!(
+        std::fs::read_to_string(&out).unwrap(),
+        support::demo("sawmill-identified")
+    );
+    let chk = armsheet(&["check", "designs/sawmill-identified.toml", "--json"]);
+    assert_eq!(chk.status.code(), Some(0));
+    let v: serde_json::Value = serde_json::from_slice(&chk.stdout).unwrap();
+    assert_eq!(v["lead_swing"]["swing_bars"], -6.5);
+    assert_eq!(v["dummy_positions"], serde_json::json!([30]));
+}

@@ -374,9 +374,9 @@ fn explain(card: &Card, k: &Checked, yc: i64, dummies: u32, named: &Option<Vec<u
         "-"
     };
     let pitch = match d.winding_type {
-        WindingType::Lap => format!("lap: the throw 1-{} is y_c = {sign}{m}", card.throw_end),
+        WindingType::Lap => format!("the throw 1-{} is y_c = {sign}{m}", card.throw_end),
         WindingType::Wave => format!(
-            "wave: the throw 1-{} is y_c = {yc}, and p·y_c = {p}·{yc} = {} = C {sign} {m}",
+            "the throw 1-{} is y_c = {yc}, and p·y_c = {p}·{yc} = {} = C {sign} {m}",
             card.throw_end,
             i64::from(p) * yc
         ),
@@ -393,7 +393,7 @@ fn explain(card: &Card, k: &Checked, yc: i64, dummies: u32, named: &Option<Vec<u
             c + n
         ),
         (n, Some(list)) => format!(
-            "{} coil(s) a slot: {n} dummy coil(s), coils {} as found dead",
+            "{} coil(s) a slot: {n} dummy coil(s), coil(s) {} in the slots found dead",
             d.coils_per_slot,
             list.iter()
                 .map(u32::to_string)
@@ -402,7 +402,7 @@ fn explain(card: &Card, k: &Checked, yc: i64, dummies: u32, named: &Option<Vec<u
         ),
     };
     format!(
-        "{} {} {}. {pitch}; {coils}; span {}; lead offset {} puts the brushes on neutral with the lead swing of {}",
+        "{} {} {}: {pitch}; {coils}; span {}; with lead offset {} the traced lead swing is {} and the brushes sit on neutral",
         d.direction.as_str(),
         multiplicity_word(m),
         d.winding_type.as_str(),

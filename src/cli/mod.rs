@@ -82,7 +82,7 @@ pub enum Command {
 const CHECK_HELP: &str = "\
 The design file is TOML with the tables [job], [armature] (poles, slots, coils_per_slot,
 segments, rotation, pole_arc), [winding] (type, multiplicity, direction, span, turns,
-lead_offset, equalizers, flux_per_pole_mwb, speed_rpm) and, for rating checks, [rating],
+lead_offset, equalizers, dummy_coils, flux_per_pole_mwb, speed_rpm) and, for rating checks, [rating],
 [conductor], [core], [commutator], [limits]. Unknown keys are errors.
 Span: 7 or the shop form \"1-8\". lead_offset 0 puts a coil's two segments either side of its
 centre line; + swings the leads towards rising segment numbers.
