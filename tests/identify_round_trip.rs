@@ -24,10 +24,40 @@ struct Case {
     ccw: bool,
     count_u: bool,
     record_dead: bool,
+    /// Place a wave's dummies explicitly (`[winding] dummy_coils`), this many slots on from
+    /// the even spread, each at its slot's last position; `None` keeps the default spread.
+    dummy_shift: Option<u32>,
 }
 
 impl Case {
+    /// The design, with its dummies placed explicitly when the case asks for it.
     fn design(&self) -> String {
+        let plain = self.plain();
+        let Some(shift) = self.dummy_shift else {
+            return plain;
+        };
+        let w = check(parse_design(&plain, "rt.toml").unwrap()).winding;
+        let d = w.coils - w.active_coils;
+        if d == 0 {
+            return plain;
+        }
+        let mut slots: Vec<u32> = (1..=d)
+            .map(|k| (k * self.slots / d + shift) % self.slots + 1)
+            .filter(|&s| s * self.u != 1)
+            .collect();
+        slots.sort_unstable();
+        slots.dedup();
+        if slots.len() as u32 != d {
+            return plain;
+        }
+        let coils: Vec<String> = slots.iter().map(|s| (s * self.u).to_string()).collect();
+        format!("{plain}dummy_coils = [{}]\n", coils.join(", ")).replace(
+            "[winding]",
+            &format!("segments = {}\n\n[winding]", w.active_coils),
+        )
+    }
+
+    fn plain(&self) -> String {
         let pole_pitch = (self.slots / self.poles) as i32;
         let span = (pole_pitch + self.span_delta).clamp(1, self.slots as i32 - 1);
         let lo = if 2 * self.poles * self.lead_offset.unsigned_abs()
@@ -96,9 +126,10 @@ fn case() -> impl Strategy<Value = Case> {
         any::<bool>(),
         any::<bool>(),
         any::<bool>(),
+        proptest::option::of(0u32..5),
     )
         .prop_flat_map(
-            |(pp, u, wave, m, retro, span_delta, lo, ccw, count_u, record_dead)| {
+            |(pp, u, wave, m, retro, span_delta, lo, ccw, count_u, record_dead, dummy_shift)| {
                 let pp = if wave { pp.max(2) } else { pp };
                 let poles = 2 * pp;
                 let min_coils = (m + 1) * poles + if wave { pp } else { 0 };
@@ -115,6 +146,7 @@ fn case() -> impl Strategy<Value = Case> {
                     ccw,
                     count_u,
                     record_dead,
+                    dummy_shift,
                 })
             },
         )
@@ -128,6 +160,14 @@ proptest! {
         let text = c.design();
         let original = check(parse_design(&text, "rt.toml").unwrap_or_else(|e| panic!("{text}\n{e}")));
         let card_text = card_of(&c, &original);
+        let explicit = text.contains("dummy_coils");
+        if let Some(named) = &original.design.dummy_coils {
+            // The engine winds the dummies where the design names them.
+            prop_assert_eq!(&original.winding.dummy_coils, named);
+            prop_assert!(original.winding.connections.iter().all(|k| k.dummy == named.contains(&k.coil)));
+        }
+        // Dummies placed away from the even spread can only be found from the dead coils.
+        prop_assume!(!explicit || c.record_dead);
         let card = parse_card(&card_text, "rt-card.toml").unwrap_or_else(|e| panic!("{card_text}\n{e}"));
         let found = identify(&card);
         let (d, w) = (&original.design, &original.winding);
