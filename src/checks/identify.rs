@@ -482,3 +482,31 @@ fn throw_conflict(card: &Card) -> String {
     };
     format!("{wave}you counted {c}; {on_bars}: count the bars and the throw again")
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::design::parse_card;
+
+    fn only(observed: &str) -> Candidate {
+        let card = parse_card(&format!("[observed]\n{observed}"), "t.toml").unwrap();
+        let mut found = identify(&card);
+        assert_eq!(found.candidates.len(), 1, "{:?}", found.conflicts);
+        found.candidates.remove(0)
+    }
+
+    #[test]
+    fn what_tells_candidates_apart_names_the_deciding_observation() {
+        let a = only(
+            "poles = 4\nslots = 25\nbars = 25\ncoil_span = 6\nlead_throw = \"1-14\"\nlead_swing = -3.5\nturns = 2\n",
+        );
+        let b = only(
+            "poles = 4\nslots = 13\nbars = 25\ncoil_span = 3\nlead_throw = \"1-14\"\nlead_swing = -4.5\nturns = 2\n",
+        );
+        assert_eq!(b.checked.design.coils_per_slot, 2);
+        let said = what_decides(&[a, b]);
+        assert_eq!(said.len(), 2, "{said:?}");
+        assert!(said[0].starts_with("coils per slot 1 or 2: count the leads"));
+        assert!(said[1].starts_with("dummy coils 0 or 1"));
+    }
+}
