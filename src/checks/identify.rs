@@ -401,8 +401,20 @@ fn explain(card: &Card, k: &Checked, yc: i64, dummies: u32, named: &Option<Vec<u
                 .join(", ")
         ),
     };
+    let equalizers = match (&k.winding.equalizers, d.equalizers) {
+        (_, EqualizerChoice::None) => String::new(),
+        (EqualizerPlan::Possible(e), choice) => format!(
+            "; equalizers {} bars apart (2C/P), {}",
+            e.pitch,
+            match choice {
+                EqualizerChoice::EveryNth(n) => format!("every {n}th possible ring from bar 1"),
+                _ => "every possible ring".to_string(),
+            }
+        ),
+        _ => String::new(),
+    };
     format!(
-        "{} {} {}: {pitch}; {coils}; span {}; with lead offset {} the traced lead swing is {} and the brushes sit on neutral",
+        "{} {} {}: {pitch}; {coils}; span {}{equalizers}; with lead offset {} the traced lead swing is {} and the brushes sit on neutral",
         d.direction.as_str(),
         multiplicity_word(m),
         d.winding_type.as_str(),

@@ -14,7 +14,7 @@ use super::Outcome;
 use super::error::{CliError, NoOverwrite, shown};
 use super::output::{print_stdout, write_atomic, write_new, write_stdout};
 use crate::checks::identify::identify as find;
-use crate::design::{parse_card, parse_design};
+use crate::design::{parse_card_bytes, parse_design};
 use crate::rating::design_toml::write_design;
 use crate::render::identify::{design_header, render_identify, write_identify_json};
 
@@ -57,8 +57,7 @@ pub fn identify(a: &IdentifyArgs) -> Result<Outcome, CliError> {
         source,
     })?;
     let name = a.card.display().to_string();
-    let text = String::from_utf8_lossy(&bytes);
-    let card = parse_card(&text, &name)?;
+    let card = parse_card_bytes(&bytes, &name)?;
     let found = find(&card);
     let refuse = |message: String| CliError::Identify {
         card: name.clone(),

@@ -28,7 +28,7 @@ use toml::de::{DeTable, DeValue};
 use super::Diagnostic;
 use super::diagnostic::Diagnostics;
 use super::model::{ConductorShape, HalfBars, Job, Rotation, bounds};
-use super::parse::{header_span, toml_error};
+use super::parse::{header_span, toml_error, utf8};
 use super::reader::{At, Found, Source, TableReader, nearest};
 use super::tables::{armature, conductor, job, winding};
 use crate::base::visible::{ECHO_WIDTH, clip};
@@ -95,6 +95,11 @@ impl Card {
     pub fn throw_bars(&self) -> u32 {
         self.throw_end - 1
     }
+}
+
+/// Parses raw bytes: checks UTF-8 first, naming the line and column of the first bad byte.
+pub fn parse_card_bytes(bytes: &[u8], file: &str) -> Result<Card, Diagnostics> {
+    parse_card(utf8(bytes, file, "card")?, file)
 }
 
 /// Parses and validates a data card held in `text`; `file` names it in diagnostics.

@@ -37,7 +37,7 @@ mod parse;
 mod reader;
 mod tables;
 
-pub use card::{Card, OBSERVED_KEYS, parse_card};
+pub use card::{Card, OBSERVED_KEYS, parse_card, parse_card_bytes};
 pub use diagnostic::{Diagnostic, Diagnostics, MAX_DIAGNOSTICS};
 pub use limits::{Bound, LIMIT_KEYS, LIMITS, LimitId, LimitSpec, Limits};
 pub use model::*;
