@@ -265,3 +265,14 @@ fn the_demo_card_yields_the_demo_design() {
     assert_eq!(v["lead_swing"]["swing_bars"], -6.5);
     assert_eq!(v["dummy_positions"], serde_json::json!([30]));
 }
+
+#[test]
+fn a_card_that_cannot_be_read_says_so() {
+    let o = armsheet(&["identify", "designs/cards/no-such-card.toml"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(
+        text(&o.stderr).starts_with("error: cannot read data card designs/cards/no-such-card.toml"),
+        "{}",
+        text(&o.stderr)
+    );
+}

@@ -41,6 +41,13 @@ pub enum CliError {
         /// What the system said.
         source: io::Error,
     },
+    /// The data card cannot be read (`armsheet identify`).
+    ReadCard {
+        /// The card.
+        path: PathBuf,
+        /// What the system said.
+        source: io::Error,
+    },
     /// The design file does not parse or validate; each diagnostic names file, line and key,
     /// and all of them are printed (boxed: errors travel through every `?`).
     Design(Box<Diagnostics>),
@@ -151,6 +158,13 @@ impl fmt::Display for CliError {
                     "error: cannot read design file {name}: {source}\n  = hint: check the path; `armsheet new {name}` writes a starter design"
                 )
             }
+            CliError::ReadCard { path, source } => {
+                let name = shown(path);
+                writeln!(
+                    f,
+                    "error: cannot read data card {name}: {source}\n  = hint: check the path; `armsheet new --card {name}` writes a starter card"
+                )
+            }
             // The diagnostic ends in its own newline.
             CliError::Design(d) => write!(f, "{d}"),
             CliError::CreateDir { path, source } => writeln!(
@@ -257,6 +271,7 @@ impl std::error::Error for CliError {
     fn source(&self) -> Option<&(dyn std::error::Error + 'static)> {
         match self {
             CliError::Read { source, .. }
+            | CliError::ReadCard { source, .. }
             | CliError::CreateDir { source, .. }
             | CliError::Write { source, .. }
             | CliError::Stdout(source) => Some(source),

@@ -52,7 +52,7 @@ pub struct IdentifyArgs {
 
 /// Runs `armsheet identify`.
 pub fn identify(a: &IdentifyArgs) -> Result<Outcome, CliError> {
-    let bytes = std::fs::read(&a.card).map_err(|source| CliError::Read {
+    let bytes = std::fs::read(&a.card).map_err(|source| CliError::ReadCard {
         path: a.card.clone(),
         source,
     })?;
