@@ -501,7 +501,7 @@ mod tests {
     use crate::design::parse_card;
 
     fn only(observed: &str) -> Candidate {
-        let card = parse_card(&format!("[observed]\n{observed}"), "t.toml").unwrap();
+        let card = parse_card(&format!("[observed]\n{observed}"), "card").unwrap();
         let mut found = identify(&card);
         assert_eq!(found.candidates.len(), 1, "{:?}", found.conflicts);
         found.candidates.remove(0)
