@@ -276,3 +276,31 @@ fn a_card_that_cannot_be_read_says_so() {
         text(&o.stderr)
     );
 }
+
+/// A rewind that changes the segment count drops the named dummy positions, and says so.
+#[test]
+fn a_rewind_to_lap_drops_the_named_dummies() {
+    let dir = scratch("rewind");
+    let mut design = support::demo("sawmill-identified");
+    design.push_str("\n[rating]\nvoltage = 220\ncurrent = 10\nspeed_rpm = 1500\n");
+    std::fs::write(dir.join("s.toml"), design).unwrap();
+    let o = armsheet_in(
+        &[
+            "rewind",
+            "s.toml",
+            "--voltage",
+            "110",
+            "--type",
+            "lap",
+            "-o",
+            "r.toml",
+        ],
+        &dir,
+    );
+    assert_eq!(o.status.code(), Some(0), "{}", text(&o.stderr));
+    assert!(
+        text(&o.stdout).contains("dummy coils: the positions the old design names are dropped")
+    );
+    let new = std::fs::read_to_string(dir.join("r.toml")).unwrap();
+    assert!(!new.contains("dummy_coils = ["), "{new}");
+}
