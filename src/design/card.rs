@@ -260,9 +260,8 @@ fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diag
                 .with_hint("count the bars again, and the poles on the field frame"),
         );
     }
-    let Some(u) = u else {
-        return Ok(None);
-    };
+    // A count in error is recorded; the rest of the card is still read.
+    let u = u.flatten();
     if let Some(u) = &u
         && u.value * s > bounds::MAX_COILS
     {
@@ -280,7 +279,7 @@ fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diag
                 .with_hint("count the leads in one slot and halve it"),
         );
     }
-    let span = o.keep(read_coil_span(o, s));
+    let span = o.keep(read_coil_span(o, s, p));
     let throw = o.keep(read_throw(o, c));
     let swing = o.keep(read_swing(o, c));
     let brush_sets = o.keep(read_brush_sets(o, p));
@@ -328,7 +327,7 @@ fn required<T>(
 }
 
 /// `coil_span`: `"1-8"` or a number of slots, 1 to slots − 1.
-fn read_coil_span(o: &TableReader<'_, '_>, slots: i64) -> Result<u32, Diagnostic> {
+fn read_coil_span(o: &TableReader<'_, '_>, slots: i64, poles: i64) -> Result<u32, Diagnostic> {
     let key = "coil_span";
     let Some(v) = o.raw(key) else {
         return Err(o.missing(
@@ -381,7 +380,7 @@ fn read_coil_span(o: &TableReader<'_, '_>, slots: i64) -> Result<u32, Diagnostic
                 format!("a coil span of {value} slots does not fit {slots} slots: expected 1 to {}", slots - 1),
             )
             .with_hint(format!(
-                "count from the marked slot as 1 to the slot of the coil's other side: near {slots}/P slots"
+                "count from the marked slot as 1 to the slot of the coil's other side: near {slots}/{poles} slots, one pole pitch"
             )));
     }
     Ok(value as u32)
