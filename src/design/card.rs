@@ -439,12 +439,11 @@ fn read_throw(o: &TableReader<'_, '_>, bars: i64) -> Result<u32, Diagnostic> {
 /// `lead_swing`: whole or half bars, −C/2 < swing ≤ C/2.
 fn read_swing(o: &TableReader<'_, '_>, bars: i64) -> Result<HalfBars, Diagnostic> {
     let key = "lead_swing";
-    let half = bars as f64 / 2.0;
     let Some(x) = o.number(
         key,
-        -half,
-        true,
-        half,
+        -1000.0,
+        false,
+        1000.0,
         "bar pitches from slot 1's centre line to bar 1",
     )?
     else {
@@ -468,7 +467,27 @@ fn read_swing(o: &TableReader<'_, '_>, bars: i64) -> Result<HalfBars, Diagnostic
             )
             .with_hint("the cord through slot 1's centre meets a bar or a mica: count to bar 1 in whole bars, or a half for a mica"));
     }
-    Ok(HalfBars(halves as i32))
+    let (h, c2) = (halves as i64, 2 * bars);
+    if h <= -bars || h > bars {
+        let short = (h + bars).rem_euclid(c2) - bars;
+        return Err(o
+            .src
+            .error(
+                x.span.clone(),
+                o.dotted(key),
+                format!(
+                    "a lead swing of {} bars is more than half of the {bars} bars: expected more than -{} and at most {}",
+                    HalfBars(h as i32),
+                    HalfBars(bars as i32),
+                    HalfBars(bars as i32)
+                ),
+            )
+            .with_hint(format!(
+                "count the short way round from slot 1's centre line: {} bars",
+                HalfBars(short as i32)
+            )));
+    }
+    Ok(HalfBars(h as i32))
 }
 
 /// `brush_sets`: even, 2 to P.
