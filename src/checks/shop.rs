@@ -9,19 +9,7 @@ use crate::winding::Winding;
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let c = w.active_coils;
-    let suggests = match d.poles {
-        4 | 8 => Some(if c.is_multiple_of(2) {
-            WindingType::Lap
-        } else {
-            WindingType::Wave
-        }),
-        6 => Some(if c.is_multiple_of(3) {
-            WindingType::Lap
-        } else {
-            WindingType::Wave
-        }),
-        _ => None,
-    };
+    let suggests = bar_rule(d.poles, c);
     if let Some(kind) = suggests {
         let matches = kind == d.winding_type;
         out.push(Finding::new(
@@ -41,5 +29,23 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             ),
             BAR_RULE,
         ));
+    }
+}
+
+/// The winding kind the shop's bar-count rule of thumb suggests for `c` bars on `poles` poles,
+/// when the rule speaks for that pole count ([`BAR_RULE`], common practice).
+pub(crate) fn bar_rule(poles: u32, c: u32) -> Option<WindingType> {
+    match poles {
+        4 | 8 => Some(if c.is_multiple_of(2) {
+            WindingType::Lap
+        } else {
+            WindingType::Wave
+        }),
+        6 => Some(if c.is_multiple_of(3) {
+            WindingType::Lap
+        } else {
+            WindingType::Wave
+        }),
+        _ => None,
     }
 }

@@ -27,6 +27,8 @@ pub enum NoOverwrite {
     New,
     /// `armsheet rewind` without `--force`.
     Rewind,
+    /// `armsheet identify` without `--force`.
+    Identify,
 }
 
 /// Why a command stopped.
@@ -35,6 +37,13 @@ pub enum CliError {
     /// The design file cannot be read.
     Read {
         /// The design file.
+        path: PathBuf,
+        /// What the system said.
+        source: io::Error,
+    },
+    /// The data card cannot be read (`armsheet identify`).
+    ReadCard {
+        /// The card.
         path: PathBuf,
         /// What the system said.
         source: io::Error,
@@ -86,6 +95,14 @@ pub enum CliError {
         design: String,
         /// The parser's diagnostics on the new file.
         diagnostic: Box<Diagnostics>,
+    },
+    /// `armsheet identify --pick N` names no candidate, or the identified design does not
+    /// parse back (nothing is written).
+    Identify {
+        /// The card, as given.
+        card: String,
+        /// Why.
+        message: String,
     },
     /// The PDF cannot be made from the sheets.
     Pdf {
@@ -139,6 +156,13 @@ impl fmt::Display for CliError {
                 writeln!(
                     f,
                     "error: cannot read design file {name}: {source}\n  = hint: check the path; `armsheet new {name}` writes a starter design"
+                )
+            }
+            CliError::ReadCard { path, source } => {
+                let name = shown(path);
+                writeln!(
+                    f,
+                    "error: cannot read data card {name}: {source}\n  = hint: check the path; `armsheet new --card {name}` writes a starter card"
                 )
             }
             // The diagnostic ends in its own newline.
@@ -209,6 +233,17 @@ impl fmt::Display for CliError {
                 "error: {} already exists; armsheet rewind does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
                 shown(path)
             ),
+            CliError::Exists {
+                path,
+                by: NoOverwrite::Identify,
+            } => writeln!(
+                f,
+                "error: {} already exists; armsheet identify does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
+                shown(path)
+            ),
+            CliError::Identify { card, message } => {
+                writeln!(f, "error: {}: {}", visible(card), visible(message))
+            }
             CliError::Rewind { design, error } => {
                 writeln!(
                     f,
@@ -236,6 +271,7 @@ impl std::error::Error for CliError {
     fn source(&self) -> Option<&(dyn std::error::Error + 'static)> {
         match self {
             CliError::Read { source, .. }
+            | CliError::ReadCard { source, .. }
             | CliError::CreateDir { source, .. }
             | CliError::Write { source, .. }
             | CliError::Stdout(source) => Some(source),

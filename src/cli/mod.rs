@@ -13,6 +13,7 @@
 //! disk, `/dev/full`) is `error: cannot write to standard output: …` with exit 2.
 
 pub mod error;
+pub mod identify;
 mod load;
 pub mod output;
 pub mod rewind;
@@ -33,6 +34,9 @@ pub use output::print_stdout;
 
 /// The starter design written by `armsheet new`.
 pub const STARTER: &str = include_str!("starter.toml");
+
+/// The starter data card written by `armsheet new --card`.
+pub const STARTER_CARD: &str = include_str!("starter-card.toml");
 
 const ABOUT: &str =
     "Designs, checks and prints DC armature windings (lap and wave, simplex and multiplex).";
@@ -70,12 +74,15 @@ pub enum Command {
     Sheet(sheet::SheetArgs),
     /// Write the developed winding diagram alone, sized for a screen.
     Draw(sheet::DrawArgs),
+    /// Identify the old winding from a data card and write its design file.
+    #[command(after_help = identify::IDENTIFY_HELP)]
+    Identify(identify::IdentifyArgs),
 }
 
 const CHECK_HELP: &str = "\
 The design file is TOML with the tables [job], [armature] (poles, slots, coils_per_slot,
 segments, rotation, pole_arc), [winding] (type, multiplicity, direction, span, turns,
-lead_offset, equalizers, flux_per_pole_mwb, speed_rpm) and, for rating checks, [rating],
+lead_offset, equalizers, dummy_coils, flux_per_pole_mwb, speed_rpm) and, for rating checks, [rating],
 [conductor], [core], [commutator], [limits]. Unknown keys are errors.
 Span: 7 or the shop form \"1-8\". lead_offset 0 puts a coil's two segments either side of its
 centre line; + swings the leads towards rising segment numbers.
@@ -84,7 +91,8 @@ written.";
 
 const NEW_HELP: &str = "\
 Writes a starter design with every key commented. Edit it, then run
-`armsheet check FILE`. The file is not overwritten if it exists.";
+`armsheet check FILE`. With --card, writes a starter data card for `armsheet identify`.
+The file is not overwritten if it exists.";
 
 /// Arguments of `check`.
 #[derive(Debug, Args)]
@@ -99,9 +107,11 @@ pub struct CheckArgs {
 /// Arguments of `new`.
 #[derive(Debug, Args)]
 pub struct NewArgs {
-    /// Where to write the starter design.
-    #[arg(default_value = "design.toml")]
-    pub path: PathBuf,
+    /// Where to write the starter design (or card).
+    pub path: Option<PathBuf>,
+    /// Write a starter data card for `armsheet identify` instead (default card.toml).
+    #[arg(long)]
+    pub card: bool,
 }
 
 /// How a command that ran to its end came out.
@@ -164,6 +174,7 @@ pub fn run(cli: Cli) -> Result<Outcome, CliError> {
         Command::Rewind(a) => rewind::rewind(&a),
         Command::Sheet(a) => sheet::sheet(&a),
         Command::Draw(a) => sheet::draw(&a),
+        Command::Identify(a) => identify::identify(&a),
     }
 }
 
@@ -184,7 +195,13 @@ fn check(a: &CheckArgs) -> Result<Outcome, CliError> {
 }
 
 fn new(a: &NewArgs) -> Result<Outcome, CliError> {
-    output::write_new(&a.path, STARTER.as_bytes(), error::NoOverwrite::New)?;
-    print_stdout(&format!("wrote {}\n", error::shown(&a.path)))?;
+    let (default, text) = if a.card {
+        ("card.toml", STARTER_CARD)
+    } else {
+        ("design.toml", STARTER)
+    };
+    let path = a.path.clone().unwrap_or_else(|| PathBuf::from(default));
+    output::write_new(&path, text.as_bytes(), error::NoOverwrite::New)?;
+    print_stdout(&format!("wrote {}\n", error::shown(&path)))?;
     Ok(Outcome::Passed)
 }

@@ -13,6 +13,8 @@
 //!   resolves the segment count from `[armature]` and `[winding]`;
 //! - `limits.rs`: the `[limits]` spec table [`LIMITS`], the one place a rating limit is written;
 //! - `reader.rs`: located, typed access to one table (shared by every reader);
+//! - `card.rs`: a data card (what a rewinder records before stripping) → a validated
+//!   [`Card`], with the same readers and located errors;
 //! - `diagnostic.rs`: the error, the list of a file's errors and their rendering (every text
 //!   from the file shown through `base::visible`); `model.rs`: the resolved [`Design`].
 //!
@@ -27,6 +29,7 @@
 // A diagnostic is built at most once per run, on the way out; boxing it would buy nothing.
 #![allow(clippy::result_large_err)]
 
+mod card;
 mod diagnostic;
 mod limits;
 mod model;
@@ -34,6 +37,7 @@ mod parse;
 mod reader;
 mod tables;
 
+pub use card::{Card, OBSERVED_KEYS, parse_card, parse_card_bytes};
 pub use diagnostic::{Diagnostic, Diagnostics, MAX_DIAGNOSTICS};
 pub use limits::{Bound, LIMIT_KEYS, LIMITS, LimitId, LimitSpec, Limits};
 pub use model::*;

@@ -295,6 +295,9 @@ pub struct Design {
     pub lead_offset: HalfBars,
     /// `[winding] equalizers`.
     pub equalizers: EqualizerChoice,
+    /// `[winding] dummy_coils`: the coil positions left unconnected, sorted, as many as
+    /// N − C; `None` spreads the dummies evenly (the engine's default placement).
+    pub dummy_coils: Option<Vec<u32>>,
     /// Flux per pole, mWb (`[winding]` or `[rating] flux_per_pole_mwb`).
     pub flux_per_pole_mwb: Option<f64>,
     /// Speed, rpm (`[winding]` or `[rating] speed_rpm`).

@@ -34,29 +34,32 @@ const TABLES: &[&str] = &[
 
 /// Parses raw bytes: checks UTF-8 first, naming the line and column of the first bad byte.
 pub fn parse_design_bytes(bytes: &[u8], file: &str) -> Result<Design, Diagnostics> {
-    match std::str::from_utf8(bytes) {
-        Ok(text) => parse_design(text, file),
-        Err(e) => {
-            let good = &bytes[..e.valid_up_to()];
-            let text = String::from_utf8_lossy(good);
-            let line = text.matches('\n').count() + 1;
-            let line_start = text.rfind('\n').map_or(0, |i| i + 1);
-            let column = text[line_start..].chars().count() + 1;
-            Err(Diagnostics::from(Diagnostic {
-                file: file.to_string(),
-                line,
-                column,
-                span: e.valid_up_to()..e.valid_up_to() + 1,
-                key: "file".to_string(),
-                message: format!(
-                    "the file is not UTF-8 text: byte 0x{:02X} at line {line}, column {column} is not valid",
-                    bytes[e.valid_up_to()]
-                ),
-                hint: Some("save the design as UTF-8 plain text (a TOML file)".to_string()),
-                source_line: text[line_start..].to_string(),
-            }))
-        }
-    }
+    parse_design(utf8(bytes, file, "design")?, file)
+}
+
+/// The bytes as text, or the located error at the first byte that is not UTF-8 (for design
+/// files and data cards alike; `what` names the kind of file in the hint).
+pub(crate) fn utf8<'b>(bytes: &'b [u8], file: &str, what: &str) -> Result<&'b str, Diagnostics> {
+    std::str::from_utf8(bytes).map_err(|e| {
+        let good = &bytes[..e.valid_up_to()];
+        let text = String::from_utf8_lossy(good);
+        let line = text.matches('\n').count() + 1;
+        let line_start = text.rfind('\n').map_or(0, |i| i + 1);
+        let column = text[line_start..].chars().count() + 1;
+        Diagnostics::from(Diagnostic {
+            file: file.to_string(),
+            line,
+            column,
+            span: e.valid_up_to()..e.valid_up_to() + 1,
+            key: "file".to_string(),
+            message: format!(
+                "the file is not UTF-8 text: byte 0x{:02X} at line {line}, column {column} is not valid",
+                bytes[e.valid_up_to()]
+            ),
+            hint: Some(format!("save the {what} as UTF-8 plain text (a TOML file)")),
+            source_line: text[line_start..].to_string(),
+        })
+    })
 }
 
 /// Parses and validates a design held in `text`; `file` names it in diagnostics. On failure
@@ -198,6 +201,7 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
         turns: w.turns as u32,
         lead_offset: HalfBars(w.lead_offset as i32),
         equalizers: w.equalizers,
+        dummy_coils: w.dummy_coils,
         flux_per_pole_mwb: r.flux_per_pole_mwb,
         speed_rpm: r.speed_rpm,
         mode: r.mode,
@@ -218,7 +222,7 @@ fn tables_list() -> String {
 }
 
 /// Finds the `[name]` header line so a missing key can point at it.
-fn header_span(text: &str, name: &str) -> Option<std::ops::Range<usize>> {
+pub(crate) fn header_span(text: &str, name: &str) -> Option<std::ops::Range<usize>> {
     let mut offset = 0;
     for line in text.split_inclusive('\n') {
         let trimmed = line.trim_start();
@@ -237,7 +241,7 @@ fn header_span(text: &str, name: &str) -> Option<std::ops::Range<usize>> {
     None
 }
 
-fn toml_error(src: &Source<'_>, e: &toml::de::Error) -> Diagnostic {
+pub(crate) fn toml_error(src: &Source<'_>, e: &toml::de::Error) -> Diagnostic {
     let span = e.span().unwrap_or(0..0);
     let msg = e.message().trim();
     let text = src.text;

@@ -337,6 +337,43 @@ impl<'a, 'i> TableReader<'a, 'i> {
         }
     }
 
+    /// An array of whole numbers, each in `range`, located.
+    pub fn ints(
+        &self,
+        key: &str,
+        v: &Spanned<DeValue<'i>>,
+        range: RangeInclusive<i64>,
+        what: &str,
+        example: &str,
+    ) -> Result<Vec<i64>, Diagnostic> {
+        let bad = |span: Range<usize>, found: String| {
+            self.src
+                .error(
+                    span,
+                    self.dotted(key),
+                    format!(
+                        "expected {what}, whole numbers from {} to {}, found {found}",
+                        range.start(),
+                        range.end()
+                    ),
+                )
+                .with_hint(format!("write e.g. `{key} = {example}`"))
+        };
+        let DeValue::Array(items) = v.get_ref() else {
+            return Err(bad(v.span(), v.get_ref().type_str().to_string()));
+        };
+        items
+            .iter()
+            .map(|i| match i.get_ref() {
+                DeValue::Integer(n) => i64::from_str_radix(n.as_str(), n.radix())
+                    .ok()
+                    .filter(|n| range.contains(n))
+                    .ok_or_else(|| bad(i.span(), clip(&n.to_string(), ECHO_WIDTH).into_owned())),
+                other => Err(bad(i.span(), other.type_str().to_string())),
+            })
+            .collect()
+    }
+
     /// The raw value, for keys that take more than one type.
     pub fn raw(&self, key: &str) -> Option<&'a Spanned<DeValue<'i>>> {
         self.get(key)

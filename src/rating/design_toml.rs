@@ -62,6 +62,10 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
             let _ = writeln!(s, "equalizers = {n}");
         }
     }
+    if let Some(list) = &d.dummy_coils {
+        let coils: Vec<String> = list.iter().map(u32::to_string).collect();
+        let _ = writeln!(s, "dummy_coils = [{}]", coils.join(", "));
+    }
     let has_rating = d.rating.is_some() || d.flux_per_pole_mwb.is_some() || d.speed_rpm.is_some();
     if has_rating {
         s.push_str("\n[rating]\n");

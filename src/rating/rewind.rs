@@ -551,6 +551,17 @@ pub fn rewind_rated(
     nd.turns = turns;
     nd.segments = c1;
     nd.segments_derived = false;
+    if nd.dummy_coils.is_some() && (c1 != c0 || kind != WindingType::Wave) {
+        notes.push(format!(
+            "dummy coils: the positions the old design names are dropped; {}",
+            if kind == WindingType::Wave {
+                "the new count is spread evenly"
+            } else {
+                "a lap winding uses every coil"
+            }
+        ));
+        nd.dummy_coils = None;
+    }
     nd.flux_per_pole_mwb = Some(flux_wb * 1000.0);
     nd.speed_rpm = Some(speed);
     let mut r = d.rating.clone().unwrap_or(Rating {

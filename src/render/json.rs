@@ -246,7 +246,7 @@ impl From<&PathBalance> for BalanceJson {
 }
 
 /// `lead_offset` as given: an integer when whole, else the half (`1.5`).
-fn half_bars<S: Serializer>(h: &HalfBars, s: S) -> Result<S::Ok, S::Error> {
+pub(crate) fn half_bars<S: Serializer>(h: &HalfBars, s: S) -> Result<S::Ok, S::Error> {
     if h.0 % 2 == 0 {
         s.serialize_i32(h.0 / 2)
     } else {

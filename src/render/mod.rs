@@ -12,6 +12,7 @@
 //! anything: a new drawing or a change of looks belongs in `layout`, not here.
 
 pub mod csv;
+pub mod identify;
 pub mod json;
 pub mod pdf;
 pub mod rating_json;

@@ -58,7 +58,10 @@ pub fn trace_winding(design: &Design) -> Winding {
     let kind = d.winding_type.kind();
     let yc = pitch::commutator_pitch(d.winding_type, d.direction, c, m, p);
     let pitches = pitch::pitches(d.winding_type, d.span, d.coils_per_slot, yc);
-    let dummy_coils = place_dummies(n, n - c);
+    let dummy_coils = d
+        .dummy_coils
+        .clone()
+        .unwrap_or_else(|| place_dummies(n, n - c));
     let mut connections = connect(d, c, yc, &dummy_coils);
     front::set_front_pitches(&mut connections, c, kind, pitches.back, yc);
     let closed_windings = trace::trace_closed_windings(&connections, c);
@@ -202,7 +205,8 @@ pub(crate) fn neutral_shift_units(
 }
 
 /// Spreads `count` dummy coils evenly: positions ⌊k·N/d⌋ for k = 1…d (the last is coil N).
-fn place_dummies(n: u32, count: u32) -> Vec<u32> {
+/// The placement a design gets when it does not name its dummy coils.
+pub fn place_dummies(n: u32, count: u32) -> Vec<u32> {
     (1..=count)
         .map(|k| (u64::from(k) * u64::from(n) / u64::from(count)) as u32)
         .collect()

@@ -115,7 +115,7 @@ pub(crate) fn read(arm: &TableReader<'_, '_>) -> Option<Armature> {
 }
 
 /// `poles`: present, in range and even.
-fn read_poles(arm: &TableReader<'_, '_>) -> Result<At<i64>, Diagnostic> {
+pub(crate) fn read_poles(arm: &TableReader<'_, '_>) -> Result<At<i64>, Diagnostic> {
     let poles = arm
         .int(
             "poles",
@@ -129,7 +129,7 @@ fn read_poles(arm: &TableReader<'_, '_>) -> Result<At<i64>, Diagnostic> {
             .src
             .error(
                 poles.span.clone(),
-                "armature.poles",
+                arm.dotted("poles"),
                 format!("poles must be even, found {}", poles.value),
             )
             .with_hint(format!(

@@ -28,19 +28,7 @@ pub(crate) const KEYS: &[&str] = &[
 pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Conductor> {
     t.keep(t.deny_unknown(KEYS))?;
     let num = |k: &str, what: &str, max: f64| t.keep(t.number(k, 0.0, true, max, what));
-    let d = num("diameter_mm", "the bare wire diameter in mm", 20.0);
-    let awg = t.keep(t.int(
-        "awg",
-        -3..=40,
-        "the AWG gauge (0000 is -3)",
-        "ASTM B258 gauges run from 0000 (-3) to 40",
-    ));
-    let strands = t.keep(t.int(
-        "strands",
-        1..=200,
-        "wires or strips in hand",
-        "1 for a single conductor",
-    ));
+    let (d, awg, strands) = read_wire(t);
     let w = num("width_mm", "the strip width in mm", 100.0);
     let h = num("height_mm", "the strip height in mm", 100.0);
     let r = t.keep(t.number(
@@ -63,8 +51,40 @@ pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Conductor> {
     })
 }
 
+/// The round-wire keys `diameter_mm`, `awg` and `strands` of table `t` (also read from a data
+/// card's `[observed]`), each `None` when in error (the problem recorded).
+#[allow(clippy::type_complexity)]
+pub(crate) fn read_wire(
+    t: &TableReader<'_, '_>,
+) -> (
+    Option<Option<At<f64>>>,
+    Option<Option<At<i64>>>,
+    Option<Option<At<i64>>>,
+) {
+    let d = t.keep(t.number(
+        "diameter_mm",
+        0.0,
+        true,
+        20.0,
+        "the bare wire diameter in mm",
+    ));
+    let awg = t.keep(t.int(
+        "awg",
+        -3..=40,
+        "the AWG gauge (0000 is -3)",
+        "ASTM B258 gauges run from 0000 (-3) to 40",
+    ));
+    let strands = t.keep(t.int(
+        "strands",
+        1..=200,
+        "wires or strips in hand",
+        "1 for a single conductor",
+    ));
+    (d, awg, strands)
+}
+
 /// The conductor's shape from its size keys: round (`diameter_mm` or `awg`) or rectangular.
-fn shape(
+pub(crate) fn shape(
     t: &TableReader<'_, '_>,
     d: Option<At<f64>>,
     awg: Option<At<i64>>,
@@ -79,7 +99,7 @@ fn shape(
                 .src
                 .error(
                     a.span,
-                    "conductor.awg",
+                    t.dotted("awg"),
                     "give the wire either as diameter_mm or as awg, not both",
                 )
                 .with_hint("remove one of the two keys"));
@@ -101,7 +121,7 @@ fn shape(
                     .src
                     .error(
                         r.map_or(w.span, |r| r.span),
-                        "conductor.corner_radius_mm",
+                        t.dotted("corner_radius_mm"),
                         format!(
                             "a corner radius of {rad} mm does not fit a {} × {} mm strip",
                             w.value, h.value
@@ -119,13 +139,13 @@ fn shape(
         (Some(d), None, Some(_), _) | (Some(d), None, _, Some(_)) => {
             return Err(t
                 .src
-                .error(d.span, "conductor.diameter_mm", "a conductor is either round (diameter_mm or awg) or rectangular (width_mm, height_mm), not both")
+                .error(d.span, t.dotted("diameter_mm"), "a conductor is either round (diameter_mm or awg) or rectangular (width_mm, height_mm), not both")
                 .with_hint("remove the keys of the shape you do not use"));
         }
         (None, Some(a), _, _) => {
             return Err(t
                 .src
-                .error(a.span, "conductor.awg", "a conductor is either round (diameter_mm or awg) or rectangular (width_mm, height_mm), not both")
+                .error(a.span, t.dotted("awg"), "a conductor is either round (diameter_mm or awg) or rectangular (width_mm, height_mm), not both")
                 .with_hint("remove the keys of the shape you do not use"));
         }
         (None, None, Some(_), None) => {

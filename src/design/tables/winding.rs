@@ -10,6 +10,8 @@
 //! - `lead_offset` (default 0): segments, a whole number of half bars (`1`, `0.5`, `-1.5`),
 //!   less than half a pole pitch either way;
 //! - `equalizers` (lap only, default `"none"`): `"none"`, `"full"` or every n-th connection;
+//! - `dummy_coils` (wave only): the coils left unconnected, e.g. `[13, 26]`, exactly N − C of
+//!   them and never coil 1; default: spread evenly (⌊k·N/d⌋ for k = 1…d);
 //! - `flux_per_pole_mwb`, `speed_rpm`: also accepted in `[rating]`, and read with it
 //!   (`tables/rating.rs`).
 //!
@@ -34,6 +36,7 @@ pub(crate) const KEYS: &[&str] = &[
     "turns",
     "lead_offset",
     "equalizers",
+    "dummy_coils",
     "flux_per_pole_mwb",
     "speed_rpm",
 ];
@@ -58,6 +61,8 @@ pub(crate) struct Winding {
     pub lead_offset: i64,
     /// `equalizers`.
     pub equalizers: EqualizerChoice,
+    /// `dummy_coils`, sorted.
+    pub dummy_coils: Option<Vec<u32>>,
 }
 
 /// Reads the values of `[winding]` (its keys were checked by the caller) against the
@@ -168,6 +173,7 @@ pub(crate) fn read(
                 .with_hint("the offset swings the leads a few segments from the symmetric position; measure it on the old winding"));
         return None;
     }
+    let dummy_coils = win.keep(read_dummy_coils(win, wtype, a.positions, active))?;
     let (span, span_source) = span?;
     Some(Winding {
         winding_type: wtype,
@@ -179,7 +185,60 @@ pub(crate) fn read(
         segments: active,
         lead_offset: lead_offset.map_or(0, |l| l.value),
         equalizers: equalizers?,
+        dummy_coils,
     })
+}
+
+/// `dummy_coils`: the coil positions left unconnected (wave only), distinct, 2 to N (coil 1
+/// takes segment 1), exactly N − C of them.
+fn read_dummy_coils(
+    win: &TableReader<'_, '_>,
+    wtype: WindingType,
+    positions: i64,
+    active: i64,
+) -> Result<Option<Vec<u32>>, Diagnostic> {
+    let key = "dummy_coils";
+    let Some(v) = win.raw(key) else {
+        return Ok(None);
+    };
+    let err = |msg: String, hint: String| {
+        win.src
+            .error(v.span(), win.dotted(key), msg)
+            .with_hint(hint)
+    };
+    if wtype == WindingType::Lap {
+        return Err(err(
+            "dummy coils belong to wave windings: a lap winding uses every coil".into(),
+            "remove the key".into(),
+        ));
+    }
+    let mut list = win.ints(
+        key,
+        v,
+        2..=positions,
+        "the coils left unconnected (coil 1 takes segment 1)",
+        "[26]",
+    )?;
+    list.sort_unstable();
+    if let Some(w) = list.windows(2).find(|w| w[0] == w[1]) {
+        return Err(err(
+            format!("coil {} is listed twice", w[0]),
+            "list each dummy coil once".into(),
+        ));
+    }
+    let want = positions - active;
+    if list.len() as i64 != want {
+        return Err(err(
+            format!(
+                "{} dummy coil(s) listed, but {positions} coils on {active} segments leave {want}",
+                list.len()
+            ),
+            format!(
+                "list {want} coil(s): the dummies are the coils without a segment, N − C of them"
+            ),
+        ));
+    }
+    Ok(Some(list.into_iter().map(|n| n as u32).collect()))
 }
 
 /// `lead_offset` in half bars: a number from −1000 to 1000 segments that is a whole number of
@@ -220,6 +279,14 @@ fn fmt_half_pitch(c: i64, poles: i64) -> String {
     fmt_num((half * 100.0).round() / 100.0)
 }
 
+/// The two numbers of a shop form such as `"1-8"` (a span: slots 1 and 8) or `"1-14"` (a
+/// lead throw: bars 1 and 14); an en or em dash reads as a hyphen.
+pub(crate) fn shop_pair(s: &str) -> Option<(i64, i64)> {
+    let norm = s.replace(['–', '—'], "-");
+    let (a, b) = norm.split_once('-')?;
+    Some((a.trim().parse().ok()?, b.trim().parse().ok()?))
+}
+
 fn read_span(
     t: &TableReader<'_, '_>,
     slots: i64,
@@ -235,16 +302,9 @@ fn read_span(
         DeValue::Integer(_) => t
             .int("span", i64::MIN..=i64::MAX, "the coil span in slots", &hint)?
             .map(|a| a.value),
-        DeValue::String(s) => {
-            let norm = s.replace(['–', '—'], "-");
-            let parts: Vec<&str> = norm.split('-').map(str::trim).collect();
-            match parts.as_slice() {
-                [a, b] => match (a.parse::<i64>(), b.parse::<i64>()) {
-                    (Ok(a), Ok(b)) if a >= 1 && b > a => Some(b - a),
-                    _ => None,
-                },
-                _ => None,
-            }
+        DeValue::String(s) => shop_pair(s)
+            .filter(|&(a, b)| a >= 1 && b > a)
+            .map(|(a, b)| b - a)
             .ok_or_else(|| {
                 src.error(
                     v.span(),
@@ -258,8 +318,7 @@ fn read_span(
                     "the shop form \"1-8\" means the coil lies in slots 1 and 8, a span of 7 slots",
                 )
             })
-            .map(Some)?
-        }
+            .map(Some)?,
         other => {
             return Err(src
                 .error(

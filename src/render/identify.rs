@@ -1,0 +1,216 @@
+//! The words and JSON of `armsheet identify`: the candidates a data card leads to, what tells
+//! them apart, or why none fits; and the header of the design file it writes.
+//!
+//! Part of the `render` stage: it words what [`crate::checks::identify::identify`] found and
+//! never traces or checks anything itself. Every text from the card is shown through
+//! `base::visible`.
+
+use std::fmt::Write as _;
+use std::io::{self, Write};
+
+use serde::Serialize;
+
+use crate::base::visible::visible;
+use crate::checks::identify::{Candidate, Identified};
+use crate::design::{Card, ConductorShape, HalfBars, Rotation};
+use crate::theory::words::{half_bars_words, multiplicity_word, span_shop};
+
+/// The observations of `card`, one per line, as the design file's header lists them.
+pub fn observations(card: &Card) -> Vec<String> {
+    let mut out = vec![
+        format!(
+            "poles {}, slots {}, bars {}",
+            card.poles, card.slots, card.bars
+        ),
+        format!(
+            "coil span {}, lead throw 1-{}, lead swing {} from slot 1's centre line",
+            span_shop(card.coil_span),
+            card.throw_end,
+            half_bars_words(i64::from(card.lead_swing.0))
+        ),
+    ];
+    let u = card
+        .coils_per_slot
+        .map_or("not counted".to_string(), |u| u.to_string());
+    let mut coil = format!("coils per slot {u}, turns {}", card.turns);
+    match card.wire {
+        Some(ConductorShape::Round {
+            diameter_mm,
+            awg,
+            strands,
+        }) => {
+            let size = match awg {
+                Some(g) => format!("AWG {g}"),
+                None => format!("{} mm", crate::base::number::fmt_fixed(diameter_mm, 3)),
+            };
+            let _ = write!(coil, ", wire {size} x {strands} in hand");
+        }
+        Some(ConductorShape::Rectangular { .. }) | None => {}
+    }
+    out.push(coil);
+    let mut more = Vec::new();
+    if let Some(b) = card.brush_sets {
+        more.push(format!("brush sets {b}"));
+    }
+    if let Some(dead) = &card.dead_coils {
+        more.push(if dead.is_empty() {
+            "no dead coils".to_string()
+        } else {
+            format!("dead coils in slots {}", join(dead))
+        });
+    }
+    if !card.equalizer_taps.is_empty() {
+        let taps: Vec<String> = card
+            .equalizer_taps
+            .iter()
+            .map(|(a, b)| format!("{a}-{b}"))
+            .collect();
+        more.push(format!("equalizer taps {}", taps.join(", ")));
+    }
+    if let Some(r) = card.rotation {
+        more.push(format!(
+            "rotation {}",
+            match r {
+                Rotation::Clockwise => "cw",
+                Rotation::CounterClockwise => "ccw",
+            }
+        ));
+    }
+    if !more.is_empty() {
+        out.push(more.join(", "));
+    }
+    out
+}
+
+/// The header of the design file written for `k`: where it came from and the observations.
+pub fn design_header(card: &Card, k: &Candidate, version: &str) -> Vec<String> {
+    let mut out = vec![
+        format!(
+            "Identified by armsheet {version} identify from the data card {}.",
+            visible(&card.file_name)
+        ),
+        "Observed before stripping:".to_string(),
+    ];
+    out.extend(observations(card).into_iter().map(|l| format!("  {l}")));
+    out.push(format!("Reading: {}", k.explanation));
+    out
+}
+
+/// One candidate's line: kind, u, C, dummies, y_c, span and lead offset.
+fn summary(k: &Candidate) -> String {
+    let d = &k.checked.design;
+    let dummies = d.coil_positions() - d.segments;
+    format!(
+        "{} {} {}, {} coil(s) a slot, {} bars, {} dummy coil(s), y_c {}, span {}, lead offset {}",
+        d.direction.as_str(),
+        multiplicity_word(d.multiplicity),
+        d.winding_type.as_str(),
+        d.coils_per_slot,
+        d.segments,
+        dummies,
+        k.checked.winding.pitches.commutator,
+        span_shop(d.span),
+        d.lead_offset
+    )
+}
+
+/// The text report of `armsheet identify`.
+pub fn render_identify(card: &Card, r: &Identified) -> String {
+    let mut s = String::new();
+    let _ = writeln!(s, "data card {}", visible(&card.file_name));
+    for l in observations(card) {
+        let _ = writeln!(s, "  {l}");
+    }
+    s.push('\n');
+    match r.candidates.len() {
+        0 => {
+            s.push_str("no winding fits these observations:\n");
+            for c in &r.conflicts {
+                let _ = writeln!(s, "  - {c}");
+            }
+        }
+        1 => {
+            let k = &r.candidates[0];
+            let _ = writeln!(s, "one winding fits: {}", summary(k));
+            let _ = writeln!(s, "  {}", k.explanation);
+        }
+        n => {
+            let _ = writeln!(s, "{n} windings fit:");
+            for (i, k) in r.candidates.iter().enumerate() {
+                let _ = writeln!(s, "  {}. {}", i + 1, summary(k));
+                let _ = writeln!(s, "     {}", k.explanation);
+            }
+            s.push_str("what tells them apart:\n");
+            for d in &r.decides {
+                let _ = writeln!(s, "  - {d}");
+            }
+            s.push_str("add the deciding observation to the card, or choose one with --pick N\n");
+        }
+    }
+    if let Some(rule) = &r.rule_of_thumb {
+        let _ = writeln!(s, "\ncross-check (common practice): {rule}");
+    }
+    s
+}
+
+#[derive(Serialize)]
+struct IdentifyJson<'a> {
+    card: String,
+    candidates: Vec<CandidateJson<'a>>,
+    conflicts: &'a [String],
+    decides: &'a [String],
+    rule_of_thumb: Option<&'a str>,
+}
+
+#[derive(Serialize)]
+struct CandidateJson<'a> {
+    coils_per_slot: u32,
+    commutator_pitch: i64,
+    direction: &'static str,
+    dummy_coils: usize,
+    dummy_positions: &'a [u32],
+    explanation: &'a str,
+    #[serde(serialize_with = "super::json::half_bars")]
+    lead_offset: HalfBars,
+    multiplicity: u32,
+    segments: u32,
+    span: u32,
+    #[serde(rename = "type")]
+    kind: &'static str,
+}
+
+/// Writes the identify result as pretty-printed JSON with a final newline.
+pub fn write_identify_json<W: Write>(card: &Card, r: &Identified, mut out: W) -> io::Result<()> {
+    let view = IdentifyJson {
+        card: card.file_name.clone(),
+        candidates: r
+            .candidates
+            .iter()
+            .map(|k| {
+                let (d, w) = (&k.checked.design, &k.checked.winding);
+                CandidateJson {
+                    coils_per_slot: d.coils_per_slot,
+                    commutator_pitch: w.pitches.commutator,
+                    direction: d.direction.as_str(),
+                    dummy_coils: w.dummy_coils.len(),
+                    dummy_positions: &w.dummy_coils,
+                    explanation: &k.explanation,
+                    lead_offset: d.lead_offset,
+                    multiplicity: d.multiplicity,
+                    segments: d.segments,
+                    span: d.span,
+                    kind: d.winding_type.as_str(),
+                }
+            })
+            .collect(),
+        conflicts: &r.conflicts,
+        decides: &r.decides,
+        rule_of_thumb: r.rule_of_thumb.as_deref(),
+    };
+    serde_json::to_writer_pretty(&mut out, &view)?;
+    out.write_all(b"\n")
+}
+
+fn join(v: &[u32]) -> String {
+    v.iter().map(u32::to_string).collect::<Vec<_>>().join(", ")
+}
