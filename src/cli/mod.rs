@@ -17,6 +17,7 @@ mod load;
 pub mod output;
 pub mod rewind;
 pub mod sheet;
+pub mod test;
 
 use std::io::{IsTerminal, Write};
 use std::path::PathBuf;
@@ -70,6 +71,9 @@ pub enum Command {
     Sheet(sheet::SheetArgs),
     /// Write the developed winding diagram alone, sized for a screen.
     Draw(sheet::DrawArgs),
+    /// Expected bar-to-bar and drop-test readings from the winding solved as a network.
+    #[command(after_help = test::TEST_HELP)]
+    Test(test::TestArgs),
 }
 
 const CHECK_HELP: &str = "\
@@ -164,6 +168,7 @@ pub fn run(cli: Cli) -> Result<Outcome, CliError> {
         Command::Rewind(a) => rewind::rewind(&a),
         Command::Sheet(a) => sheet::sheet(&a),
         Command::Draw(a) => sheet::draw(&a),
+        Command::Test(a) => test::test(&a),
     }
 }
 

@@ -1,0 +1,85 @@
+//! `armsheet test`: the expected bar-to-bar and drop-test readings of a design.
+//!
+//! Part of the `cli` stage: it reads the design, checks it once, computes the armature test
+//! once ([`armature_test`]) and renders that one result; with `-o DIR` it writes the report,
+//! the JSON and the readings CSV into `DIR/<design-stem>/` as one set, staged and swapped into
+//! place like the sheets. Exit codes are `check`'s.
+
+use std::fmt::Write as _;
+use std::path::PathBuf;
+
+use clap::Args;
+
+use super::Outcome;
+use super::error::{CliError, shown};
+use super::load::load_design;
+use super::output::{print_stdout, replace_folder, write_stdout};
+use super::sheet::stem;
+use crate::rating::bar_test::{
+    DEFAULT_CURRENT_A, DEFAULT_TEMPERATURE_C, TestOptions, armature_test,
+};
+use crate::render::armature_test::{
+    readings_csv, render_test_text, test_json_string, write_test_json,
+};
+
+/// Arguments of `test`.
+#[derive(Debug, Args)]
+pub struct TestArgs {
+    /// The design file (TOML).
+    pub design: PathBuf,
+    /// Print one JSON object instead of the text report.
+    #[arg(long)]
+    pub json: bool,
+    /// Drop-test current, A.
+    #[arg(long, default_value_t = DEFAULT_CURRENT_A, value_name = "AMPS")]
+    pub current: f64,
+    /// Winding temperature for the coil resistance, °C.
+    #[arg(long, default_value_t = DEFAULT_TEMPERATURE_C, value_name = "C")]
+    pub temperature: f64,
+    /// Write test.txt, test.json and readings.csv into DIR/<design-stem>/ instead.
+    #[arg(short = 'o', long = "out", value_name = "DIR")]
+    pub out: Option<PathBuf>,
+}
+
+pub(crate) const TEST_HELP: &str = "\
+Solves the traced winding as a resistor network (each active coil one resistor between its
+bars, dummy coils left out, equalizers ideal) and gives the expected reading between every
+pair of neighbouring bars, the bars m apart within one winding for multiplex windings, and
+the millivolts of the drop test. With [conductor] and a mean turn the readings are in ohms
+(IEC 60028 copper at --temperature); without, in units of one coil's resistance.
+readings.csv has an empty `measured` column for the shop to fill in.
+Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
+written.";
+
+/// Runs `test`.
+pub fn test(a: &TestArgs) -> Result<Outcome, CliError> {
+    let checked = load_design(&a.design)?;
+    let options = TestOptions {
+        current_a: a.current,
+        temperature_c: a.temperature,
+    };
+    let t = armature_test(&checked.design, &checked.winding, &options);
+    let name = shown(&a.design);
+    match &a.out {
+        Some(out) => {
+            let dir = out.join(stem(&a.design));
+            let files = vec![
+                (
+                    "test.txt".to_string(),
+                    render_test_text(&t, &name).into_bytes(),
+                ),
+                ("test.json".to_string(), test_json_string(&t).into_bytes()),
+                ("readings.csv".to_string(), readings_csv(&t).into_bytes()),
+            ];
+            replace_folder(&dir, &files, |_| false)?;
+            let mut said = String::new();
+            for (n, _) in &files {
+                let _ = writeln!(said, "wrote {}", shown(&dir.join(n)));
+            }
+            print_stdout(&said)?;
+        }
+        None if a.json => write_stdout(|o| write_test_json(&t, o))?,
+        None => print_stdout(&render_test_text(&t, &name))?,
+    }
+    Ok(Outcome::of(&checked.findings))
+}
