@@ -22,7 +22,7 @@ fn toml(poles: u32, slots: u32, kind: &str, m: u32, span: u32, eq: &str) -> Stri
 
 fn tested(text: &str) -> (Winding, ArmatureTest) {
     let c = check(design(text));
-    let t = armature_test(&c.design, &c.winding, &TestOptions::default());
+    let t = armature_test(&c.design, &c.winding, &TestOptions::default(), None).unwrap();
     (c.winding, t)
 }
 

@@ -15,6 +15,7 @@ use super::error::{CliError, shown};
 use super::load::load_design;
 use super::output::{print_stdout, replace_folder, write_stdout};
 use super::sheet::stem;
+use crate::rating::bar_test::locate::DEFAULT_TOLERANCE;
 use crate::rating::bar_test::{
     DEFAULT_CURRENT_A, DEFAULT_TEMPERATURE_C, TestOptions, armature_test,
 };
@@ -36,6 +37,13 @@ pub struct TestArgs {
     /// Winding temperature for the coil resistance, °C.
     #[arg(long, default_value_t = DEFAULT_TEMPERATURE_C, value_name = "C")]
     pub temperature: f64,
+    /// Measured readings (CSV: from_bar,to_bar,reading; `open` or `OL` for an open circuit):
+    /// compare them with the expected ones and rank the faults that explain them.
+    #[arg(long, value_name = "FILE.csv")]
+    pub readings: Option<PathBuf>,
+    /// Healthy tolerance of the locator, % of each expected reading.
+    #[arg(long, default_value_t = 100.0 * DEFAULT_TOLERANCE, value_name = "PCT")]
+    pub tolerance: f64,
     /// Write test.txt, test.json and readings.csv into DIR/<design-stem>/ instead.
     #[arg(short = 'o', long = "out", value_name = "DIR")]
     pub out: Option<PathBuf>,
@@ -57,8 +65,23 @@ pub fn test(a: &TestArgs) -> Result<Outcome, CliError> {
     let options = TestOptions {
         current_a: a.current,
         temperature_c: a.temperature,
+        tolerance: a.tolerance / 100.0,
     };
-    let t = armature_test(&checked.design, &checked.winding, &options);
+    let text = match &a.readings {
+        Some(p) => Some(
+            std::fs::read_to_string(p).map_err(|source| CliError::ReadingsRead {
+                path: p.clone(),
+                source,
+            })?,
+        ),
+        None => None,
+    };
+    let t = armature_test(&checked.design, &checked.winding, &options, text.as_deref()).map_err(
+        |error| CliError::Readings {
+            path: a.readings.clone().unwrap_or_default(),
+            error,
+        },
+    )?;
     let name = shown(&a.design);
     match &a.out {
         Some(out) => {

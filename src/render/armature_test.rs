@@ -10,7 +10,9 @@ use serde::Serialize;
 
 use crate::base::caution::TEST_CAUTIONS;
 use crate::base::number::{fmt_fixed, fmt_sig, round_sig};
-use crate::rating::bar_test::{ArmatureTest, DropFeed, Pattern, Reading, Unit};
+use crate::rating::bar_test::{
+    ArmatureTest, DropFeed, Fault, Location, Pattern, Reading, ReadingValue, Unit,
+};
 use crate::theory::words::multiplicity_word;
 
 const DIGITS: i32 = 6;
@@ -135,6 +137,10 @@ pub fn render_test_text(t: &ArmatureTest, design_name: &str) -> String {
         let _ = writeln!(out, "  {}", feed_words(f, t.drop_test.current_a));
         table(&mut out, &f.readings, unit);
     }
+    if let Some(l) = &t.location {
+        let _ = writeln!(out);
+        locator_text(&mut out, l);
+    }
     let _ = writeln!(out);
     let _ = writeln!(out, "Faults this test cannot see");
     for u in UNSEEN {
@@ -146,6 +152,144 @@ pub fn render_test_text(t: &ArmatureTest, design_name: &str) -> String {
         let _ = writeln!(out, "  - {c}");
     }
     out
+}
+
+fn measured_words(v: ReadingValue) -> String {
+    match v {
+        ReadingValue::Value(x) => fmt_sig(x, DIGITS),
+        ReadingValue::Open => "open".into(),
+    }
+}
+
+fn list(v: &[u32]) -> String {
+    v.iter().map(u32::to_string).collect::<Vec<_>>().join(", ")
+}
+
+fn locator_text(out: &mut String, l: &Location) {
+    let _ = writeln!(out, "Measured readings");
+    let _ = writeln!(
+        out,
+        "  {} reading(s) compared, {} pair(s) not read; tolerance {} % of the healthy pattern (default 5 %, --tolerance)",
+        l.measured.len(),
+        l.missing,
+        fmt_fixed(100.0 * l.tolerance, 1)
+    );
+    if l.healthy {
+        let _ = writeln!(
+            out,
+            "  healthy: every reading is within tolerance of the healthy pattern"
+        );
+    } else {
+        let _ = writeln!(
+            out,
+            "  not healthy: readings outside tolerance at bars {}",
+            list(&l.suspect_bars)
+        );
+    }
+    let best = l.faults.first();
+    let explains =
+        best.is_some_and(|f| f.score < 0.5 * l.healthy_score.max(1e-12) || f.score < 0.02);
+    if !l.healthy && !explains {
+        let _ = writeln!(
+            out,
+            "  no single fault explains these readings: check the probe contact and look for more than one fault"
+        );
+    }
+    if !l.healthy {
+        for (i, f) in l.faults.iter().take(3).enumerate() {
+            let _ = writeln!(
+                out,
+                "  {}. {} (score {}): {}",
+                i + 1,
+                f.kind.key(),
+                fmt_sig(f.score, 3),
+                f.explanation
+            );
+            let _ = writeln!(
+                out,
+                "     inspect bars {}{}",
+                list(&f.bars),
+                if f.slots.is_empty() {
+                    String::new()
+                } else {
+                    format!(", slots {}", list(&f.slots))
+                }
+            );
+        }
+    }
+    for (k, n) in &l.invisible {
+        let _ = writeln!(
+            out,
+            "  {} at {n} place(s) would change no reading: this test cannot see it",
+            k.key()
+        );
+    }
+    let _ = writeln!(
+        out,
+        "  {:>6} {:>6}  {:>12}  {:>12}",
+        "bar", "bar", "expected", "measured"
+    );
+    for (r, m) in &l.measured {
+        let e = r.expected.map(|e| e * l.healthy_scale);
+        let _ = writeln!(
+            out,
+            "  {:>6} {:>6}  {:>12}  {:>12}",
+            r.from_bar,
+            r.to_bar,
+            value(e),
+            measured_words(*m)
+        );
+    }
+}
+
+#[derive(Serialize)]
+struct FaultJson {
+    bars: Vec<u32>,
+    coils: Vec<u32>,
+    explanation: String,
+    kind: &'static str,
+    score: f64,
+    slots: Vec<u32>,
+}
+
+#[derive(Serialize)]
+struct LocationJson {
+    faults: Vec<FaultJson>,
+    healthy: bool,
+    invisible: Vec<String>,
+    missing_pairs: usize,
+    readings_compared: usize,
+    scale: f64,
+    suspect_bars: Vec<u32>,
+    tolerance: f64,
+}
+
+fn fault_json(f: &Fault) -> FaultJson {
+    FaultJson {
+        bars: f.bars.clone(),
+        coils: f.coils.clone(),
+        explanation: f.explanation.clone(),
+        kind: f.kind.key(),
+        score: round_sig(f.score, DIGITS),
+        slots: f.slots.clone(),
+    }
+}
+
+fn location_json(l: &Location) -> LocationJson {
+    LocationJson {
+        faults: l.faults.iter().map(fault_json).collect(),
+        healthy: l.healthy,
+        invisible: l
+            .invisible
+            .iter()
+            .map(|(k, n)| format!("{} at {n} place(s)", k.key()))
+            .collect(),
+        missing_pairs: l.missing,
+        readings_compared: l.measured.len(),
+        scale: round_sig(l.healthy_scale, DIGITS),
+        suspect_bars: l.suspect_bars.clone(),
+        tolerance: l.tolerance,
+    }
 }
 
 #[derive(Serialize)]
@@ -186,6 +330,8 @@ struct TestJson {
     cautions: [&'static str; 4],
     coil_resistance_ohm: Option<f64>,
     drop_test: DropJson,
+    #[serde(flatten)]
+    location: Option<LocationJson>,
     open_pairs: usize,
     pattern: String,
     readings: Vec<ReadingJson>,
@@ -216,6 +362,7 @@ fn test_json(t: &ArmatureTest) -> TestJson {
                 })
                 .collect(),
         },
+        location: t.location.as_ref().map(location_json),
         open_pairs: t.open_pairs(),
         pattern: pattern_words(t.pattern),
         readings: readings_json(&t.readings),

@@ -6,9 +6,13 @@
 //! its result. The network is in [`network`], the locator in [`locate`], the reader of the
 //! shop's readings file in [`readings`].
 
+pub mod locate;
 pub mod network;
+pub mod readings;
 
+pub use locate::{Fault, FaultKind, Location};
 pub use network::{NetCoil, Network};
+pub use readings::{MeasuredReadings, ReadingValue, ReadingsError, parse_readings};
 
 use super::conductor::{conductor_area_mm2, mean_turn};
 use super::resistance::{copper_resistance_20, correct_temperature};
@@ -28,6 +32,8 @@ pub struct TestOptions {
     pub current_a: f64,
     /// Winding temperature, °C.
     pub temperature_c: f64,
+    /// Healthy tolerance of the locator, as a fraction of each expected reading.
+    pub tolerance: f64,
 }
 
 impl Default for TestOptions {
@@ -35,6 +41,7 @@ impl Default for TestOptions {
         TestOptions {
             current_a: DEFAULT_CURRENT_A,
             temperature_c: DEFAULT_TEMPERATURE_C,
+            tolerance: locate::DEFAULT_TOLERANCE,
         }
     }
 }
@@ -144,6 +151,8 @@ pub struct ArmatureTest {
     pub spread_pct: f64,
     /// The drop test.
     pub drop_test: DropTest,
+    /// The fault locator's result, with measured readings.
+    pub location: Option<Location>,
     /// The solved network (kept for the locator and the plot).
     pub network: Network,
 }
@@ -187,9 +196,37 @@ pub fn pairs_apart(bars: u32, step: u32) -> Vec<(u32, u32)> {
     (1..=bars).map(|j| (j, (j - 1 + step) % bars + 1)).collect()
 }
 
-/// Computes the armature test of `design` from its traced `winding`, and with `measured`
-/// readings runs the fault locator.
-pub fn armature_test(design: &Design, winding: &Winding, options: &TestOptions) -> ArmatureTest {
+/// Computes the armature test of `design` from its traced `winding` (see [`expected`]), and
+/// with the text of a measured-readings file reads it against the test's pairs and runs the
+/// fault locator; a problem in that file is the error, located.
+pub fn armature_test(
+    design: &Design,
+    winding: &Winding,
+    options: &TestOptions,
+    readings: Option<&str>,
+) -> Result<ArmatureTest, ReadingsError> {
+    let mut t = expected(design, winding, options);
+    if let Some(text) = readings {
+        let pairs: Vec<(u32, u32)> = t
+            .readings
+            .iter()
+            .chain(t.readings_within_winding.iter().flatten())
+            .map(|r| (r.from_bar, r.to_bar))
+            .collect();
+        let measured = parse_readings(text, t.bars, &pairs)?;
+        let slots: Vec<(u32, u32)> = winding
+            .connections
+            .iter()
+            .map(|c| (c.top.slot, c.bottom.slot))
+            .collect();
+        t.location = Some(locate::locate(&t, &measured, &slots, options.tolerance));
+    }
+    Ok(t)
+}
+
+/// The expected readings alone: the network solved once, every neighbouring and
+/// within-winding pair, the pattern, the spread and the drop test.
+pub fn expected(design: &Design, winding: &Winding, options: &TestOptions) -> ArmatureTest {
     let network = Network::of_winding(winding);
     let bars = winding.active_coils;
     let r_coil = coil_resistance_ohm(design, options.temperature_c);
@@ -230,6 +267,7 @@ pub fn armature_test(design: &Design, winding: &Winding, options: &TestOptions) 
             current_a: options.current_a,
             feeds: Vec::new(),
         },
+        location: None,
         network,
     };
     let values: Vec<f64> = test.judged().iter().filter_map(|r| r.expected).collect();

@@ -17,7 +17,7 @@ use faer::{Mat, Side};
 use crate::winding::{EqualizerPlan, Winding};
 
 /// One coil of the network, in bars.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub struct NetCoil {
     /// Coil position number.
     pub coil: u32,
@@ -25,9 +25,14 @@ pub struct NetCoil {
     pub from_bar: u32,
     /// End bar, 1…C.
     pub to_bar: u32,
+    /// Resistance in coil resistances (1 for a sound coil; > 0).
+    pub resistance: f64,
 }
 
 /// The solved network. Resistances are in units of one coil's resistance.
+///
+/// The equalizers are ideal (no resistance of their own): a resistance key for them is not
+/// read.
 pub struct Network {
     /// Bars C.
     pub bars: u32,
@@ -70,6 +75,7 @@ impl Network {
                     coil: c.coil,
                     from_bar: a,
                     to_bar: b,
+                    resistance: 1.0,
                 }),
                 _ => None,
             })
@@ -81,8 +87,8 @@ impl Network {
         Network::new(winding.active_coils, coils, &ties)
     }
 
-    /// Builds and factors a network of `bars` bars, unit coils and ideal `ties` (groups of
-    /// bars joined by an equalizer).
+    /// Builds and factors a network of `bars` bars, `coils` and ideal `ties` (groups of bars
+    /// joined by an equalizer).
     pub fn new(bars: u32, coils: Vec<NetCoil>, ties: &[Vec<u32>]) -> Network {
         let n = bars as usize;
         // Nodes: bars merged by the equalizers.
@@ -129,13 +135,14 @@ impl Network {
             if a == b {
                 continue;
             }
+            let g = 1.0 / c.resistance;
             let (ra, rb) = (row_of_node[a], row_of_node[b]);
             for r in [ra, rb].into_iter().flatten() {
-                *entries.entry((r, r)).or_default() += 1.0;
+                *entries.entry((r, r)).or_default() += g;
             }
             if let (Some(x), Some(y)) = (ra, rb) {
                 // Lower triangle only.
-                *entries.entry((x.max(y), x.min(y))).or_default() -= 1.0;
+                *entries.entry((x.max(y), x.min(y))).or_default() -= g;
             }
         }
         let factor = (rows > 0).then(|| {
