@@ -8,7 +8,8 @@
 //! τ = Δg/(1 + Δg·d). Crossed leads change four terms at once and go through the Woodbury
 //! form with a 4 × 4 capacitance matrix. The scale of the readings (their unit) and the
 //! fault's size (τ) are fitted by linear least squares, τ kept within the fault's physical
-//! range.
+//! range. Crossed leads that would split the winding into two or leave a bar without a coil
+//! (the 4 × 4 matrix is then singular) are not among the hypotheses.
 
 use faer::Mat;
 use faer::linalg::solvers::Solve;
@@ -436,7 +437,7 @@ pub fn locate(
                 }
             }
             let inv = m.partial_piv_lu().solve(Mat::<f64>::identity(4, 4));
-            if (0..4).all(|a| (0..4).all(|b| inv[(a, b)].is_finite())) {
+            if (0..4).all(|a| (0..4).all(|b| inv[(a, b)].abs() < 1e12)) {
                 let predicted: Vec<Option<f64>> = pairs
                     .iter()
                     .zip(&base)
