@@ -312,3 +312,44 @@ proptest! {
         prop_assert!(ok, "{design}{inject:?}\ntop {top:?}\ninjected {injected:?}");
     }
 }
+
+#[test]
+fn the_plot_shows_expected_and_measured_and_marks_the_suspect_bars() {
+    let design = "designs/hoist-lap.toml";
+    let dir = scratch("plot");
+    let healthy = armsheet(&["test", design, "-o", dir.to_str().unwrap()]);
+    assert!(healthy.status.success(), "{}", text(&healthy.stderr));
+    let svg = std::fs::read_to_string(dir.join("hoist-lap").join("readings.svg")).unwrap();
+    assert!(svg.contains("conn k1") && !svg.contains("conn k2"));
+    // Coil 10 open: bars 10 and 11 read high.
+    let csv = std::fs::read_to_string(dir.join("hoist-lap").join("readings.csv")).unwrap();
+    let mut measured = String::from("from_bar,to_bar,reading\n");
+    for line in csv.lines().skip(1) {
+        let f: Vec<&str> = line.split(',').collect();
+        let v: f64 = f[2].parse().unwrap();
+        let v = if f[0] == "10" { v * 36.0 } else { v };
+        measured.push_str(&format!("{},{},{}\n", f[0], f[1], v * 1e6));
+    }
+    let m = dir.join("m.csv");
+    std::fs::write(&m, measured).unwrap();
+    let out = dir.join("with");
+    let o = armsheet(&[
+        "test",
+        design,
+        "--readings",
+        m.to_str().unwrap(),
+        "-o",
+        out.to_str().unwrap(),
+    ]);
+    assert!(o.status.success(), "{}", text(&o.stderr));
+    let svg = std::fs::read_to_string(out.join("hoist-lap").join("readings.svg")).unwrap();
+    assert!(svg.contains("conn k2"));
+    assert_eq!(
+        svg.matches("class=\"f2\"").count(),
+        3,
+        "two suspect bars and the legend's mark"
+    );
+    let report = std::fs::read_to_string(out.join("hoist-lap").join("test.txt")).unwrap();
+    assert!(report.contains("1. open-coil"), "{report}");
+    assert!(report.contains("slots 10, 18"), "{report}");
+}

@@ -2,7 +2,7 @@
 //!
 //! Part of the `cli` stage: it reads the design, checks it once, computes the armature test
 //! once ([`armature_test`]) and renders that one result; with `-o DIR` it writes the report,
-//! the JSON and the readings CSV into `DIR/<design-stem>/` as one set, staged and swapped into
+//! the JSON, the readings CSV and the plot into `DIR/<design-stem>/` as one set, staged and swapped into
 //! place like the sheets. Exit codes are `check`'s.
 
 use std::fmt::Write as _;
@@ -15,6 +15,7 @@ use super::error::{CliError, shown};
 use super::load::load_design;
 use super::output::{print_stdout, replace_folder, write_stdout};
 use super::sheet::stem;
+use crate::layout::test_plot::test_plot_page;
 use crate::rating::bar_test::locate::DEFAULT_TOLERANCE;
 use crate::rating::bar_test::{
     DEFAULT_CURRENT_A, DEFAULT_TEMPERATURE_C, TestOptions, armature_test,
@@ -22,6 +23,7 @@ use crate::rating::bar_test::{
 use crate::render::armature_test::{
     readings_csv, render_test_text, test_json_string, write_test_json,
 };
+use crate::render::svg::page_svg;
 
 /// Arguments of `test`.
 #[derive(Debug, Args)]
@@ -44,7 +46,8 @@ pub struct TestArgs {
     /// Healthy tolerance of the locator, % of each expected reading.
     #[arg(long, default_value_t = 100.0 * DEFAULT_TOLERANCE, value_name = "PCT")]
     pub tolerance: f64,
-    /// Write test.txt, test.json and readings.csv into DIR/<design-stem>/ instead.
+    /// Write test.txt, test.json, readings.csv and the plot readings.svg into
+    /// DIR/<design-stem>/ instead.
     #[arg(short = 'o', long = "out", value_name = "DIR")]
     pub out: Option<PathBuf>,
 }
@@ -55,7 +58,11 @@ bars, dummy coils left out, equalizers ideal) and gives the expected reading bet
 pair of neighbouring bars, the bars m apart within one winding for multiplex windings, and
 the millivolts of the drop test. With [conductor] and a mean turn the readings are in ohms
 (IEC 60028 copper at --temperature); without, in units of one coil's resistance.
-readings.csv has an empty `measured` column for the shop to fill in.
+readings.csv has an empty `measured` column for the shop to fill in; give it back with
+--readings (header from_bar,to_bar,reading, or the CSV's own measured column; `open` or `OL`
+for an open circuit; any consistent unit) and the locator ranks the single faults that
+explain the readings (open coil, shorted coil, high-resistance joint, shorted bars, crossed
+leads). readings.svg plots the readings round the commutator.
 Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
 written.";
 
@@ -93,6 +100,10 @@ pub fn test(a: &TestArgs) -> Result<Outcome, CliError> {
                 ),
                 ("test.json".to_string(), test_json_string(&t).into_bytes()),
                 ("readings.csv".to_string(), readings_csv(&t).into_bytes()),
+                (
+                    "readings.svg".to_string(),
+                    page_svg(&test_plot_page(&t, &name)).into_bytes(),
+                ),
             ];
             replace_folder(&dir, &files, |_| false)?;
             let mut said = String::new();

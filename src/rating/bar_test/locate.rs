@@ -160,8 +160,7 @@ fn misfit(meas: &[ReadingValue], pred: &[Option<f64>]) -> (f64, f64) {
     (rel + bad as f64, scale)
 }
 
-/// Fits τ in [lo, hi] for R'_q = R_q − τ w_q² (a bridge's open coil gives open readings
-/// where w ≠ 0 when `open_bridge`).
+/// Fits τ in [lo, hi] for R'_q = R_q − τ w_q², with the scale.
 fn fit_rank_one(meas: &[ReadingValue], base: &[Option<f64>], w: &[f64], lo: f64, hi: f64) -> Fit {
     // Least squares of m ≈ α R − β w² over the numeric pairs, τ = β/α.
     let (mut a11, mut a12, mut a22, mut b1, mut b2) = (0.0, 0.0, 0.0, 0.0, 0.0);
@@ -202,8 +201,7 @@ fn fit_rank_one(meas: &[ReadingValue], base: &[Option<f64>], w: &[f64], lo: f64,
     }
 }
 
-fn slots_of(t: &ArmatureTest, coils: &[u32], net_slots: &[(u32, u32)]) -> Vec<u32> {
-    let _ = t;
+fn slots_of(coils: &[u32], net_slots: &[(u32, u32)]) -> Vec<u32> {
     let mut s: Vec<u32> = coils
         .iter()
         .flat_map(|&k| {
@@ -309,7 +307,7 @@ pub fn locate(
         }
         faults.push(Fault {
             kind,
-            slots: slots_of(t, &coils, slots),
+            slots: slots_of(&coils, slots),
             coils,
             bars,
             score: fit.score,

@@ -203,25 +203,48 @@ impl Network {
     }
 
     /// Effective resistance between each pair of bars, in coil resistances; `None` for a pair
-    /// with no connection at all (open), 0 for bars an equalizer ties together.
+    /// with no connection at all (open), 0 for bars an equalizer ties together. Pairs of bars
+    /// on the same two nodes (bars the equalizers tie) are solved once.
     pub fn effective(&self, pairs: &[(u32, u32)]) -> Vec<Option<f64>> {
         const BLOCK: usize = 64;
-        let mut out = Vec::with_capacity(pairs.len());
-        for chunk in pairs.chunks(BLOCK) {
+        let key = |&(a, b): &(u32, u32)| {
+            let (x, y) = (self.node(a), self.node(b));
+            (x.min(y), x.max(y))
+        };
+        let mut distinct: Vec<(usize, usize)> = pairs
+            .iter()
+            .filter(|p| self.connected(p.0, p.1))
+            .map(key)
+            .filter(|(x, y)| x != y)
+            .collect();
+        distinct.sort_unstable();
+        distinct.dedup();
+        let mut solved = Vec::with_capacity(distinct.len());
+        for chunk in distinct.chunks(BLOCK) {
             let rhs: Vec<Vec<(usize, f64)>> = chunk
                 .iter()
-                .map(|&(a, b)| vec![(self.node(a), 1.0), (self.node(b), -1.0)])
+                .map(|&(x, y)| vec![(x, 1.0), (y, -1.0)])
                 .collect();
             let x = self.solve_nodes(&rhs);
             for (j, &(a, b)) in chunk.iter().enumerate() {
-                out.push(self.connected(a, b).then(|| {
-                    let r =
-                        self.potential(&x, self.node(a), j) - self.potential(&x, self.node(b), j);
-                    r.max(0.0)
-                }));
+                solved.push((self.potential(&x, a, j) - self.potential(&x, b, j)).max(0.0));
             }
         }
-        out
+        pairs
+            .iter()
+            .map(|p| {
+                let k = key(p);
+                self.connected(p.0, p.1).then(|| {
+                    if k.0 == k.1 {
+                        0.0
+                    } else {
+                        solved[distinct
+                            .binary_search(&k)
+                            .expect("every joined pair is solved")]
+                    }
+                })
+            })
+            .collect()
     }
 
     /// The grounded inverse Z (nodes × nodes, row-major; zero on grounded rows and columns):
