@@ -8,13 +8,13 @@
 //! τ = Δg/(1 + Δg·d). Crossed leads change four terms at once and go through the Woodbury
 //! form with a 4 × 4 capacitance matrix. The scale of the readings (their unit) and the
 //! fault's size (τ) are fitted by linear least squares, τ kept within the fault's physical
-//! range. Crossed leads that would split the winding into two or leave a bar without a coil
-//! (the 4 × 4 matrix is then singular) are not among the hypotheses.
+//! range. Crossed leads are defined by [`crossed_leads`]; the exchange keeps the winding one
+//! ring, so the 4 × 4 matrix stays regular.
 
 use faer::Mat;
 use faer::linalg::solvers::Solve;
 
-use super::network::Network;
+use super::network::{NetCoil, Network};
 use super::readings::{MeasuredReadings, ReadingValue};
 use super::{ArmatureTest, Reading};
 
@@ -112,6 +112,32 @@ pub struct Location {
     pub faults: Vec<Fault>,
     /// Hypotheses that change no reading (cannot be seen by this test), by kind.
     pub invisible: Vec<(FaultKind, usize)>,
+}
+
+/// Crossed leads at bars `j` and `k` = j + 1: the lead of the coil that ends at bar j and the
+/// lead of the coil that starts at bar k change places, which keeps the winding one closed
+/// ring (on a lap the readings either side of the pair go up). Where one coil does both (a
+/// retrogressive lap coil from k to j, whose exchange only reverses it), the coil starting at
+/// j and the coil ending at k are taken instead. Returns each changed coil's index in `coils`
+/// with its new bars; `None` when the bars have no such two coils.
+pub fn crossed_leads(coils: &[NetCoil], j: u32, k: u32) -> Option<[(usize, NetCoil); 2]> {
+    let ends = |b: u32| coils.iter().position(|c| c.to_bar == b);
+    let starts = |b: u32| coils.iter().position(|c| c.from_bar == b);
+    let (a, b) = (ends(j)?, starts(k)?);
+    if a != b {
+        let (mut ca, mut cb) = (coils[a], coils[b]);
+        ca.to_bar = k;
+        cb.from_bar = j;
+        return Some([(a, ca), (b, cb)]);
+    }
+    let (a, b) = (starts(j)?, ends(k)?);
+    if a == b {
+        return None;
+    }
+    let (mut ca, mut cb) = (coils[a], coils[b]);
+    ca.from_bar = k;
+    cb.to_bar = j;
+    Some([(a, ca), (b, cb)])
 }
 
 /// Grounded-inverse lookups on nodes.
@@ -422,11 +448,12 @@ pub fn locate(
                 seen(&w),
             );
         }
-        // Crossed leads: the start leads at bars j and k exchanged.
-        let starts = |b: u32| net.coils.iter().find(|c| c.from_bar == b).copied();
-        if let (Some(c1), Some(c2)) = (starts(j), starts(k)) {
-            let (n1e, n2e) = (net.node(c1.to_bar), net.node(c2.to_bar));
-            let u = [(e.1, n1e), (e.0, n1e), (e.0, n2e), (e.1, n2e)];
+        // Crossed leads: the lead ending at bar j and the lead starting at bar k exchanged.
+        if let Some(moves) = crossed_leads(&net.coils, j, k) {
+            let (c1, c2) = (moves[0].1, moves[1].1);
+            let (o1, o2) = (net.coils[moves[0].0], net.coils[moves[1].0]);
+            let nodes = |c: NetCoil| (net.node(c.from_bar), net.node(c.to_bar));
+            let u = [nodes(c1), nodes(o1), nodes(c2), nodes(o2)];
             let g = [1.0, -1.0, 1.0, -1.0];
             let mut m = Mat::<f64>::zeros(4, 4);
             for a in 0..4 {
@@ -466,7 +493,7 @@ pub fn locate(
                     },
                     None,
                     format!(
-                        "the start leads of coils {} and {} exchanged at bars {j} and {k}",
+                        "the leads of coils {} and {} exchanged at bars {j} and {k}",
                         c1.coil, c2.coil
                     ),
                     shown,
