@@ -34,22 +34,40 @@ pub struct TestArgs {
     #[arg(long)]
     pub json: bool,
     /// Drop-test current, A.
-    #[arg(long, default_value_t = DEFAULT_CURRENT_A, value_name = "AMPS")]
+    #[arg(long, default_value_t = DEFAULT_CURRENT_A, value_name = "AMPS", value_parser = positive)]
     pub current: f64,
     /// Winding temperature for the coil resistance, °C.
-    #[arg(long, default_value_t = DEFAULT_TEMPERATURE_C, value_name = "C")]
+    #[arg(long, default_value_t = DEFAULT_TEMPERATURE_C, value_name = "C", value_parser = temperature)]
     pub temperature: f64,
     /// Measured readings (CSV: from_bar,to_bar,reading; `open` or `OL` for an open circuit):
     /// compare them with the expected ones and rank the faults that explain them.
     #[arg(long, value_name = "FILE.csv")]
     pub readings: Option<PathBuf>,
     /// Healthy tolerance of the locator, % of each expected reading.
-    #[arg(long, default_value_t = 100.0 * DEFAULT_TOLERANCE, value_name = "PCT")]
+    #[arg(long, default_value_t = 100.0 * DEFAULT_TOLERANCE, value_name = "PCT", value_parser = positive)]
     pub tolerance: f64,
     /// Write test.txt, test.json, readings.csv and the plot readings.svg into
     /// DIR/<design-stem>/ instead.
     #[arg(short = 'o', long = "out", value_name = "DIR")]
     pub out: Option<PathBuf>,
+}
+
+fn positive(s: &str) -> Result<f64, String> {
+    match s.parse::<f64>() {
+        Ok(x) if x.is_finite() && x > 0.0 && x <= 1000.0 => Ok(x),
+        _ => Err(format!(
+            "expected a number above 0 and at most 1000, found \"{s}\""
+        )),
+    }
+}
+
+fn temperature(s: &str) -> Result<f64, String> {
+    match s.parse::<f64>() {
+        Ok(x) if x.is_finite() && (-50.0..=250.0).contains(&x) => Ok(x),
+        _ => Err(format!(
+            "expected a winding temperature from -50 to 250 C, found \"{s}\""
+        )),
+    }
 }
 
 pub(crate) const TEST_HELP: &str = "\
