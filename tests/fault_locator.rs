@@ -338,4 +338,15 @@ fn the_plot_shows_expected_and_measured_and_marks_the_suspect_bars() {
     let report = std::fs::read_to_string(out.join("hoist-lap").join("test.txt")).unwrap();
     assert!(report.contains("1. open-coil"), "{report}");
     assert!(report.contains("slots 10, 18"), "{report}");
+    // The readings were given in micro-ohms: the fitted scale says so.
+    let json = std::fs::read_to_string(out.join("hoist-lap").join("test.json")).unwrap();
+    let v: serde_json::Value = serde_json::from_str(&json).unwrap();
+    assert!(
+        (v["scale"].as_f64().unwrap() - 1e6).abs() < 10.0,
+        "{}",
+        v["scale"]
+    );
+    assert_eq!(v["healthy"], false);
+    assert_eq!(v["faults"][0]["kind"], "open-coil");
+    assert_eq!(v["faults"][0]["coils"][0], 10);
 }

@@ -102,7 +102,8 @@ pub struct Location {
     pub healthy: bool,
     /// The tolerance used.
     pub tolerance: f64,
-    /// The healthy network's scale (median of measured/expected).
+    /// The healthy network's scale: measured units per unit of the test's readings (median of
+    /// measured/expected).
     pub healthy_scale: f64,
     /// Bars of readings outside tolerance.
     pub suspect_bars: Vec<u32>,
@@ -513,7 +514,7 @@ pub fn locate(
         missing,
         healthy,
         tolerance,
-        healthy_scale,
+        healthy_scale: healthy_scale / scale0,
         suspect_bars,
         healthy_score,
         faults,
