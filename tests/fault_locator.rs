@@ -205,6 +205,21 @@ fn readings_file_errors_are_located() {
         let e = text(&o.stderr);
         assert!(e.contains(want), "{want}: {e}");
     }
+    // A value that carries a terminal escape is shown escaped.
+    let p = dir.join("esc.csv");
+    std::fs::write(&p, "from_bar,to_bar,reading\n1,2,\u{1b}[31mred\n").unwrap();
+    let o = armsheet(&[
+        "test",
+        "designs/hoist-lap.toml",
+        "--readings",
+        p.to_str().unwrap(),
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(
+        !o.stderr.contains(&0x1b) && text(&o.stderr).contains("\\u{1b}[31mred"),
+        "{}",
+        text(&o.stderr)
+    );
     // open, OL, 0 and a missing pair are all fine.
     let p = dir.join("ok.csv");
     std::fs::write(

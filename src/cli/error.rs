@@ -218,7 +218,7 @@ impl fmt::Display for CliError {
                 shown(path),
                 error.line,
                 error.column,
-                crate::base::visible::clip(&error.message, 200)
+                crate::base::visible::visible(&crate::base::visible::clip(&error.message, 200))
             ),
             CliError::Exists {
                 path,
