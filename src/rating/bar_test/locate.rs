@@ -26,6 +26,10 @@ pub const DEFAULT_TOLERANCE: f64 = 0.05;
 /// it the coil is as good as open.
 pub const JOINT_MAX_COILS: f64 = 20.0;
 
+/// Most network nodes the locator takes on: it keeps the dense grounded inverse (nodes² numbers,
+/// 128 MiB at this size).
+pub const MAX_NODES: usize = 4096;
+
 /// Hypotheses kept in the ranked list.
 pub const KEPT: usize = 10;
 

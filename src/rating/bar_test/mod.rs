@@ -207,6 +207,17 @@ pub fn armature_test(
 ) -> Result<ArmatureTest, ReadingsError> {
     let mut t = expected(design, winding, options);
     if let Some(text) = readings {
+        if t.network.nodes() > locate::MAX_NODES {
+            return Err(ReadingsError {
+                line: 1,
+                column: 1,
+                message: format!(
+                    "the locator works on armatures of up to {} bars (equalizer-tied bars counted once); this one has {}",
+                    locate::MAX_NODES,
+                    t.network.nodes()
+                ),
+            });
+        }
         let pairs: Vec<(u32, u32)> = t
             .readings
             .iter()
