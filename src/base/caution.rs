@@ -11,3 +11,12 @@ pub const CAUTIONS: [&str; 4] = [
     "Run insulation-resistance and high-voltage (withstand) tests per the applicable standard, e.g. IEC 60034-1.",
     "Local codes and licensed practice govern; this report is an aid, not a substitute for them.",
 ];
+
+/// The cautions the armature test's report and plot carry: the first and last shop cautions
+/// ([`CAUTIONS`]) with the two that belong to testing between them.
+pub const TEST_CAUTIONS: [&str; 4] = [
+    CAUTIONS[0],
+    "Keep the test current low (about 10 A at most) and short: bars, risers and coils heat, and a poor contact can arc.",
+    "Large armatures can hold a residual or induced voltage after a run or a high-voltage test: discharge them to earth before touching the bars.",
+    CAUTIONS[3],
+];

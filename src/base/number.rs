@@ -22,6 +22,23 @@ pub fn round_to(x: f64, decimals: i32) -> f64 {
     if r == 0.0 { 0.0 } else { r }
 }
 
+/// Rounds `x` to `digits` significant digits for JSON (readings run from micro-ohms to ohms).
+pub fn round_sig(x: f64, digits: i32) -> f64 {
+    if x == 0.0 || !x.is_finite() {
+        return x;
+    }
+    round_to(x, digits - 1 - x.abs().log10().floor() as i32)
+}
+
+/// Writes `x` with `digits` significant digits (at least none after the point).
+pub fn fmt_sig(x: f64, digits: i32) -> String {
+    if x == 0.0 || !x.is_finite() {
+        return fmt_fixed(x, 0);
+    }
+    let decimals = (digits - 1 - x.abs().log10().floor() as i32).max(0) as usize;
+    fmt_fixed(x, decimals)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

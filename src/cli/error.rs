@@ -104,6 +104,20 @@ pub enum CliError {
         /// Why.
         message: String,
     },
+    /// The measured-readings file cannot be read.
+    ReadingsRead {
+        /// The file.
+        path: PathBuf,
+        /// What the system said.
+        source: io::Error,
+    },
+    /// The measured-readings file has a problem, located.
+    Readings {
+        /// The file.
+        path: PathBuf,
+        /// What and where.
+        error: crate::rating::bar_test::ReadingsError,
+    },
     /// The PDF cannot be made from the sheets.
     Pdf {
         /// The design file, as given.
@@ -217,6 +231,19 @@ impl fmt::Display for CliError {
                 }
             }
             CliError::Stdout(e) => writeln!(f, "error: cannot write to standard output: {e}"),
+            CliError::ReadingsRead { path, source } => writeln!(
+                f,
+                "error: cannot read readings file {}: {source}\n  = hint: check the path",
+                shown(path)
+            ),
+            CliError::Readings { path, error } => writeln!(
+                f,
+                "error: {}:{}:{}: {}\n  = hint: the header is `from_bar,to_bar,reading`; a reading is a number, `open` or `OL`",
+                shown(path),
+                error.line,
+                error.column,
+                crate::base::visible::visible(&crate::base::visible::clip(&error.message, 200))
+            ),
             CliError::Exists {
                 path,
                 by: NoOverwrite::New,

@@ -18,6 +18,7 @@ mod load;
 pub mod output;
 pub mod rewind;
 pub mod sheet;
+pub mod test;
 
 use std::io::{IsTerminal, Write};
 use std::path::PathBuf;
@@ -77,6 +78,9 @@ pub enum Command {
     /// Identify the old winding from a data card and write its design file.
     #[command(after_help = identify::IDENTIFY_HELP)]
     Identify(identify::IdentifyArgs),
+    /// Expected bar-to-bar and drop-test readings from the winding solved as a network.
+    #[command(after_help = test::TEST_HELP)]
+    Test(test::TestArgs),
 }
 
 const CHECK_HELP: &str = "\
@@ -175,6 +179,7 @@ pub fn run(cli: Cli) -> Result<Outcome, CliError> {
         Command::Sheet(a) => sheet::sheet(&a),
         Command::Draw(a) => sheet::draw(&a),
         Command::Identify(a) => identify::identify(&a),
+        Command::Test(a) => test::test(&a),
     }
 }
 

@@ -121,7 +121,7 @@ and then swapped into place; other files already in that folder are kept.
 Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
 written.";
 
-fn stem(path: &Path) -> String {
+pub(crate) fn stem(path: &Path) -> String {
     path.file_stem()
         .map(|s| s.to_string_lossy().into_owned())
         .filter(|s| !s.is_empty())

@@ -31,6 +31,7 @@ pub mod paper;
 pub mod screen;
 pub mod sheet;
 pub mod style;
+pub mod test_plot;
 pub mod tree;
 
 pub use developed::{Diagram, DiagramOptions, Window, layout_developed};

@@ -24,6 +24,8 @@ pub enum PageKind {
     Connections,
     /// A page of the equalizer table.
     Equalizers,
+    /// `armsheet test`: the readings round the commutator.
+    TestPlot,
 }
 
 /// How the page's size is declared to a viewer.

@@ -10,6 +10,7 @@
 
 pub mod advice;
 mod advice_words;
+pub mod bar_test;
 pub mod commutator;
 pub mod conductor;
 pub mod design_toml;

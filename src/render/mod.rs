@@ -11,6 +11,7 @@
 //! their classes through the same style table. Neither measures, fits, wraps or places
 //! anything: a new drawing or a change of looks belongs in `layout`, not here.
 
+pub mod armature_test;
 pub mod csv;
 pub mod identify;
 pub mod json;

@@ -1,0 +1,137 @@
+//! `armsheet test`: the expected bar-to-bar and drop-test readings of a design.
+//!
+//! Part of the `cli` stage: it reads the design, checks it once, computes the armature test
+//! once ([`armature_test`]) and renders that one result; with `-o DIR` it writes the report,
+//! the JSON, the readings CSV and the plot into `DIR/<design-stem>/` as one set, staged and swapped into
+//! place like the sheets. Exit codes are `check`'s.
+
+use std::fmt::Write as _;
+use std::path::PathBuf;
+
+use clap::Args;
+
+use super::Outcome;
+use super::error::{CliError, shown};
+use super::load::load_design;
+use super::output::{print_stdout, replace_folder, write_stdout};
+use super::sheet::stem;
+use crate::layout::test_plot::test_plot_page;
+use crate::rating::bar_test::locate::DEFAULT_TOLERANCE;
+use crate::rating::bar_test::{
+    DEFAULT_CURRENT_A, DEFAULT_TEMPERATURE_C, TestOptions, armature_test,
+};
+use crate::render::armature_test::{
+    readings_csv, render_test_text, test_json_string, write_test_json,
+};
+use crate::render::svg::page_svg;
+
+/// Arguments of `test`.
+#[derive(Debug, Args)]
+pub struct TestArgs {
+    /// The design file (TOML).
+    pub design: PathBuf,
+    /// Print one JSON object instead of the text report.
+    #[arg(long)]
+    pub json: bool,
+    /// Drop-test current, A.
+    #[arg(long, default_value_t = DEFAULT_CURRENT_A, value_name = "AMPS", value_parser = positive)]
+    pub current: f64,
+    /// Winding temperature for the coil resistance, °C.
+    #[arg(long, default_value_t = DEFAULT_TEMPERATURE_C, value_name = "C", value_parser = temperature)]
+    pub temperature: f64,
+    /// Measured readings (CSV: from_bar,to_bar,reading; `open` or `OL` for an open circuit):
+    /// compare them with the expected ones and rank the faults that explain them.
+    #[arg(long, value_name = "FILE.csv")]
+    pub readings: Option<PathBuf>,
+    /// Healthy tolerance of the locator, % of each expected reading.
+    #[arg(long, default_value_t = 100.0 * DEFAULT_TOLERANCE, value_name = "PCT", value_parser = positive)]
+    pub tolerance: f64,
+    /// Write test.txt, test.json, readings.csv and the plot readings.svg into
+    /// DIR/<design-stem>/ instead.
+    #[arg(short = 'o', long = "out", value_name = "DIR")]
+    pub out: Option<PathBuf>,
+}
+
+fn positive(s: &str) -> Result<f64, String> {
+    match s.parse::<f64>() {
+        Ok(x) if x.is_finite() && x > 0.0 && x <= 1000.0 => Ok(x),
+        _ => Err(format!(
+            "expected a number above 0 and at most 1000, found \"{s}\""
+        )),
+    }
+}
+
+fn temperature(s: &str) -> Result<f64, String> {
+    match s.parse::<f64>() {
+        Ok(x) if x.is_finite() && (-50.0..=250.0).contains(&x) => Ok(x),
+        _ => Err(format!(
+            "expected a winding temperature from -50 to 250 C, found \"{s}\""
+        )),
+    }
+}
+
+pub(crate) const TEST_HELP: &str = "\
+Solves the traced winding as a resistor network (each active coil one resistor between its
+bars, dummy coils left out, equalizers ideal) and gives the expected reading between every
+pair of neighbouring bars, the bars m apart within one winding for multiplex windings, and
+the millivolts of the drop test. With [conductor] and a mean turn the readings are in ohms
+(IEC 60028 copper at --temperature); without, in units of one coil's resistance.
+readings.csv has an empty `measured` column for the shop to fill in; give it back with
+--readings (header from_bar,to_bar,reading, or the CSV's own measured column; `open` or `OL`
+for an open circuit; any consistent unit) and the locator ranks the single faults that
+explain the readings (open coil, shorted coil, high-resistance joint, shorted bars, crossed
+leads). readings.svg plots the readings round the commutator.
+Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
+written.";
+
+/// Runs `test`.
+pub fn test(a: &TestArgs) -> Result<Outcome, CliError> {
+    let checked = load_design(&a.design)?;
+    let options = TestOptions {
+        current_a: a.current,
+        temperature_c: a.temperature,
+        tolerance: a.tolerance / 100.0,
+    };
+    let text = match &a.readings {
+        Some(p) => Some(
+            std::fs::read_to_string(p).map_err(|source| CliError::ReadingsRead {
+                path: p.clone(),
+                source,
+            })?,
+        ),
+        None => None,
+    };
+    let t = armature_test(&checked.design, &checked.winding, &options, text.as_deref()).map_err(
+        |error| CliError::Readings {
+            path: a.readings.clone().unwrap_or_default(),
+            error,
+        },
+    )?;
+    let name = shown(&a.design);
+    match &a.out {
+        Some(out) => {
+            let dir = out.join(stem(&a.design));
+            let files = vec![
+                (
+                    "test.txt".to_string(),
+                    render_test_text(&t, &name).into_bytes(),
+                ),
+                ("test.json".to_string(), test_json_string(&t).into_bytes()),
+                ("readings.csv".to_string(), readings_csv(&t).into_bytes()),
+                (
+                    "readings.svg".to_string(),
+                    page_svg(&test_plot_page(&t, &name)).into_bytes(),
+                ),
+            ];
+            replace_folder(&dir, &files, |_| false)?;
+            let mut said = String::new();
+            for (n, _) in &files {
+                let _ = writeln!(said, "wrote {}", shown(&dir.join(n)));
+            }
+            print_stdout(&said)?;
+        }
+        None if a.json => write_stdout(|o| write_test_json(&t, o))?,
+        None => print_stdout(&render_test_text(&t, &name))?,
+    }
+    Ok(Outcome::of(&checked.findings))
+}

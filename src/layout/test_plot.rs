@@ -1,0 +1,144 @@
+//! The armature test's plot: the readings round the commutator, expected and measured, with
+//! the suspect bars marked.
+//!
+//! Part of the `layout` stage: a computed [`ArmatureTest`] in, one [`Page`] out (an A4
+//! landscape page in millimetres). Each pair of bars is a spoke at the angle of the mica
+//! between them, bar 1 at the top, bars rising clockwise; a reading is drawn as the distance
+//! from the inner circle, so a sound armature draws a smooth ring and a fault a spike.
+//! Measured readings are drawn at the locator's fitted scale.
+
+use std::f64::consts::PI;
+
+use super::tree::{Circle, Group, Page, PageKind, PageUnit, Path, Rect, Text};
+use crate::base::caution::TEST_CAUTIONS;
+use crate::rating::bar_test::{ArmatureTest, ReadingValue};
+
+const W: f64 = 297.0;
+const H: f64 = 210.0;
+const CX: f64 = 105.0;
+const CY: f64 = 108.0;
+const R0: f64 = 40.0;
+const SPAN: f64 = 45.0;
+
+fn at(angle: f64, r: f64) -> (f64, f64) {
+    (CX + r * angle.sin(), CY - r * angle.cos())
+}
+
+/// The plot page of `t`, titled `title`.
+pub fn test_plot_page(t: &ArmatureTest, title: &str) -> Page {
+    let rows = t.judged();
+    let c = f64::from(t.bars);
+    let angle = |from: u32| 2.0 * PI * (f64::from(from) - 0.5) / c;
+    let top = rows
+        .iter()
+        .filter_map(|r| r.expected)
+        .fold(0.0_f64, f64::max)
+        .max(1e-300);
+    // Up to twice the largest expected reading fits; beyond, the spike is cut at the edge.
+    let radius = |v: f64| R0 + SPAN * (v / (2.0 * top)).clamp(0.0, 1.0);
+    let mut g = Group::id("readings");
+    g.push(Circle::new("thin", CX, CY, R0));
+    g.push(Circle::new("thin", CX, CY, radius(top)));
+    g.push(Circle::new("thin", CX, CY, R0 + SPAN));
+    let step = (t.bars / 24).max(1);
+    for r in rows.iter().filter(|r| (r.from_bar - 1) % step == 0) {
+        let (x, y) = at(angle(r.from_bar), R0 + SPAN + 4.0);
+        g.push(Text::new(x, y + 1.0, 2.5, "mid", r.from_bar.to_string()));
+    }
+    let expected: Vec<(f64, f64)> = rows
+        .iter()
+        .map(|r| at(angle(r.from_bar), radius(r.expected.unwrap_or(0.0))))
+        .chain(
+            rows.first()
+                .map(|r| at(angle(r.from_bar), radius(r.expected.unwrap_or(0.0)))),
+        )
+        .collect();
+    g.push(Path::polyline("conn k1", &expected));
+    let mut legend = vec![("conn k1", "expected")];
+    if let Some(l) = &t.location {
+        let by_pair: std::collections::BTreeMap<(u32, u32), ReadingValue> = l
+            .measured
+            .iter()
+            .map(|(r, m)| ((r.from_bar, r.to_bar), *m))
+            .collect();
+        let scale = l.healthy_scale.max(1e-300);
+        let mut run: Vec<(f64, f64)> = Vec::new();
+        for r in rows {
+            match by_pair.get(&(r.from_bar, r.to_bar)) {
+                Some(ReadingValue::Value(v)) => {
+                    run.push(at(angle(r.from_bar), radius(v / scale)));
+                }
+                Some(ReadingValue::Open) => run.push(at(angle(r.from_bar), R0 + SPAN)),
+                None => {
+                    if run.len() > 1 {
+                        g.push(Path::polyline("conn k2", &run));
+                    }
+                    run.clear();
+                }
+            }
+        }
+        if run.len() > 1 {
+            g.push(Path::polyline("conn k2", &run));
+        }
+        for &b in &l.suspect_bars {
+            let (x, y) = at(2.0 * PI * (f64::from(b) - 1.0) / c, R0 - 3.0);
+            g.push(Circle::new("f2", x, y, 1.2));
+        }
+        legend.push(("conn k2", "measured (fitted scale)"));
+    }
+    let mut side = Group::id("notes");
+    let x0 = 200.0;
+    let mut y = 30.0;
+    for (class, words) in &legend {
+        side.push(Path::polyline(class, &[(x0, y - 1.0), (x0 + 8.0, y - 1.0)]));
+        side.push(Text::new(x0 + 10.0, y, 3.0, "", *words));
+        y += 6.0;
+    }
+    if t.location.is_some() {
+        side.push(Circle::new("f2", x0 + 4.0, y - 1.0, 1.2));
+        side.push(Text::new(x0 + 10.0, y, 3.0, "", "suspect bar"));
+        y += 6.0;
+    }
+    side.push(Text::new(
+        x0,
+        y + 4.0,
+        3.0,
+        "",
+        format!("unit: {}", t.unit.key()),
+    ));
+    let mut cy = 150.0;
+    side.push(Text::new(x0, cy, 3.0, "b", "Caution"));
+    for c in TEST_CAUTIONS {
+        // The plot shows the cautions' first clause; the report gives them whole.
+        let first = c.split([';', ':']).next().unwrap_or(c);
+        cy += 5.0;
+        side.push(Text::new(
+            x0,
+            cy,
+            2.5,
+            "",
+            first.trim_end_matches('.').to_string(),
+        ));
+    }
+    Page {
+        kind: PageKind::TestPlot,
+        title: title.to_string(),
+        width_mm: W,
+        height_mm: H,
+        unit: PageUnit::Millimetres,
+        data: Vec::new(),
+        children: vec![
+            Rect::filled("#fff", 0.0, 0.0, W, H).into(),
+            Text::new(
+                12.0,
+                14.0,
+                4.0,
+                "b",
+                format!("Bar-to-bar readings: {title}"),
+            )
+            .into(),
+            g.into(),
+            side.into(),
+        ],
+    }
+}

@@ -1,0 +1,395 @@
+//! The armature test: expected bar-to-bar and drop-test readings from the traced winding solved
+//! as a resistor network, and the fault locator for measured readings.
+//!
+//! Part of the `rating` stage: a resolved [`Design`] and its traced [`Winding`] in, an inert
+//! [`ArmatureTest`] out; [`armature_test`] is the one entry point and the renderers only read
+//! its result. The network is in [`network`], the locator in [`locate`], the reader of the
+//! shop's readings file in [`readings`].
+
+pub mod locate;
+pub mod network;
+pub mod readings;
+
+pub use locate::{Fault, FaultKind, Location};
+pub use network::{NetCoil, Network};
+pub use readings::{MeasuredReadings, ReadingValue, ReadingsError, parse_readings};
+
+use super::conductor::{conductor_area_mm2, mean_turn};
+use super::resistance::{copper_resistance_20, correct_temperature};
+use crate::design::Design;
+use crate::theory::WindingType;
+use crate::winding::Winding;
+
+/// Default test current of the drop test, A (`--current`).
+pub const DEFAULT_CURRENT_A: f64 = 10.0;
+/// Default winding temperature, °C (`--temperature`).
+pub const DEFAULT_TEMPERATURE_C: f64 = 20.0;
+
+/// What the caller chose.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct TestOptions {
+    /// Drop-test current, A.
+    pub current_a: f64,
+    /// Winding temperature, °C.
+    pub temperature_c: f64,
+    /// Healthy tolerance of the locator, as a fraction of each expected reading.
+    pub tolerance: f64,
+}
+
+impl Default for TestOptions {
+    fn default() -> Self {
+        TestOptions {
+            current_a: DEFAULT_CURRENT_A,
+            temperature_c: DEFAULT_TEMPERATURE_C,
+            tolerance: locate::DEFAULT_TOLERANCE,
+        }
+    }
+}
+
+/// The unit of the readings.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Unit {
+    /// Ohms (the design gives `[conductor]` and a mean turn).
+    Ohm,
+    /// Units of one coil's resistance.
+    Coil,
+}
+
+impl Unit {
+    /// `"ohm"` or `"coil"`, as in the JSON.
+    pub fn key(self) -> &'static str {
+        match self {
+            Unit::Ohm => "ohm",
+            Unit::Coil => "coil",
+        }
+    }
+}
+
+/// One expected reading between two bars.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Reading {
+    /// First bar.
+    pub from_bar: u32,
+    /// Second bar.
+    pub to_bar: u32,
+    /// Expected resistance in the test's unit; `None` when the two bars are not joined (open).
+    pub expected: Option<f64>,
+}
+
+/// The pattern the readings round the commutator make.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Pattern {
+    /// Every reading the same.
+    AllEqual,
+    /// Two values, one after the other.
+    TwoAlternating,
+    /// The same run of readings every `period` bars.
+    Repeats {
+        /// Bars.
+        period: u32,
+    },
+    /// No repeat shorter than the commutator.
+    Irregular,
+    /// Every pair reads open.
+    AllOpen,
+}
+
+/// One feed of the drop test.
+#[derive(Clone, Debug, PartialEq)]
+pub struct DropFeed {
+    /// The bar the current goes in at.
+    pub from_bar: u32,
+    /// The bar it leaves at.
+    pub to_bar: u32,
+    /// The bar the trade's rule gives, when an equalizer ties it to the other feed bar and the
+    /// feed was moved.
+    pub moved_from: Option<u32>,
+    /// Millivolts between the bars of each pair the feed reaches (neighbouring bars, or bars m
+    /// apart when the neighbours lie on another winding); in units of I × one coil's
+    /// resistance when the unit is `coil`.
+    pub readings: Vec<Reading>,
+}
+
+/// The drop test.
+#[derive(Clone, Debug, PartialEq)]
+pub struct DropTest {
+    /// Test current, A.
+    pub current_a: f64,
+    /// The feeds, one per closed winding that the trade feeds separately.
+    pub feeds: Vec<DropFeed>,
+}
+
+/// The armature test of one design.
+pub struct ArmatureTest {
+    /// Bars C.
+    pub bars: u32,
+    /// Poles P.
+    pub poles: u32,
+    /// Multiplicity m.
+    pub multiplicity: u32,
+    /// Lap or wave.
+    pub winding_type: WindingType,
+    /// Closed windings.
+    pub reentrancy: u32,
+    /// Whether equalizers are fitted.
+    pub equalized: bool,
+    /// The unit of every reading.
+    pub unit: Unit,
+    /// One coil's resistance at [`ArmatureTest::temperature_c`], Ω; `None` without conductor
+    /// data.
+    pub coil_resistance_ohm: Option<f64>,
+    /// Winding temperature, °C.
+    pub temperature_c: f64,
+    /// Neighbouring bars 1–2 … C–1.
+    pub readings: Vec<Reading>,
+    /// Bars m apart, within one winding (multiplex windings only).
+    pub readings_within_winding: Option<Vec<Reading>>,
+    /// The pattern of the neighbouring readings (of the within-winding readings when every
+    /// neighbouring pair reads open).
+    pub pattern: Pattern,
+    /// (largest − smallest)/mean of the readings the pattern is taken from, %.
+    pub spread_pct: f64,
+    /// The drop test.
+    pub drop_test: DropTest,
+    /// The fault locator's result, with measured readings.
+    pub location: Option<Location>,
+    /// The solved network (kept for the locator and the plot).
+    pub network: Network,
+}
+
+impl ArmatureTest {
+    /// Open neighbouring pairs.
+    pub fn open_pairs(&self) -> usize {
+        self.readings
+            .iter()
+            .filter(|r| r.expected.is_none())
+            .count()
+    }
+
+    /// The readings the trade judges: the neighbouring ones, or the within-winding ones when
+    /// every neighbouring pair reads open.
+    pub fn judged(&self) -> &[Reading] {
+        match &self.readings_within_winding {
+            Some(w) if self.open_pairs() == self.readings.len() => w,
+            _ => &self.readings,
+        }
+    }
+}
+
+/// One coil's resistance at `temperature_c`, Ω: ρ_T·turns·L_mt/A_c with IEC 60028 copper and
+/// the 234.5 °C rule; `None` without `[conductor]` or a mean turn.
+pub fn coil_resistance_ohm(design: &Design, temperature_c: f64) -> Option<f64> {
+    let k = design.conductor.as_ref()?;
+    let lmt = mean_turn(design, k)?;
+    let length_m = f64::from(design.turns) * lmt.mm / 1000.0;
+    let r20 = copper_resistance_20(length_m, conductor_area_mm2(&k.shape));
+    Some(correct_temperature(r20, 20.0, temperature_c))
+}
+
+/// Neighbouring pairs 1–2, 2–3, …, C–1.
+pub fn neighbour_pairs(bars: u32) -> Vec<(u32, u32)> {
+    (1..=bars).map(|j| (j, j % bars + 1)).collect()
+}
+
+/// Pairs `step` bars apart: j and j + step, round the commutator.
+pub fn pairs_apart(bars: u32, step: u32) -> Vec<(u32, u32)> {
+    (1..=bars).map(|j| (j, (j - 1 + step) % bars + 1)).collect()
+}
+
+/// Computes the armature test of `design` from its traced `winding` (see [`expected`]), and
+/// with the text of a measured-readings file reads it against the test's pairs and runs the
+/// fault locator; a problem in that file is the error, located.
+pub fn armature_test(
+    design: &Design,
+    winding: &Winding,
+    options: &TestOptions,
+    readings: Option<&str>,
+) -> Result<ArmatureTest, ReadingsError> {
+    let mut t = expected(design, winding, options);
+    if let Some(text) = readings {
+        if t.network.nodes() > locate::MAX_NODES {
+            return Err(ReadingsError {
+                line: 1,
+                column: 1,
+                message: format!(
+                    "the locator works on armatures of up to {} bars (equalizer-tied bars counted once); this one has {}",
+                    locate::MAX_NODES,
+                    t.network.nodes()
+                ),
+            });
+        }
+        let pairs: Vec<(u32, u32)> = t
+            .readings
+            .iter()
+            .chain(t.readings_within_winding.iter().flatten())
+            .map(|r| (r.from_bar, r.to_bar))
+            .collect();
+        let measured = parse_readings(text, t.bars, &pairs)?;
+        let slots: Vec<(u32, u32)> = winding
+            .connections
+            .iter()
+            .map(|c| (c.top.slot, c.bottom.slot))
+            .collect();
+        t.location = Some(locate::locate(&t, &measured, &slots, options.tolerance));
+    }
+    Ok(t)
+}
+
+/// The expected readings alone: the network solved once, every neighbouring and
+/// within-winding pair, the pattern, the spread and the drop test.
+pub fn expected(design: &Design, winding: &Winding, options: &TestOptions) -> ArmatureTest {
+    let network = Network::of_winding(winding);
+    let bars = winding.active_coils;
+    let r_coil = coil_resistance_ohm(design, options.temperature_c);
+    let scale = r_coil.unwrap_or(1.0);
+    let to_readings = |pairs: &[(u32, u32)]| -> Vec<Reading> {
+        pairs
+            .iter()
+            .zip(network.effective(pairs))
+            .map(|(&(a, b), r)| Reading {
+                from_bar: a,
+                to_bar: b,
+                expected: r.map(|x| x * scale),
+            })
+            .collect()
+    };
+    let readings = to_readings(&neighbour_pairs(bars));
+    let m = design.multiplicity;
+    let readings_within_winding = (m > 1 && bars > m).then(|| to_readings(&pairs_apart(bars, m)));
+    let mut test = ArmatureTest {
+        bars,
+        poles: design.poles,
+        multiplicity: m,
+        winding_type: design.winding_type,
+        reentrancy: winding.reentrancy(),
+        equalized: matches!(&winding.equalizers, crate::winding::EqualizerPlan::Possible(e) if !e.groups.is_empty()),
+        unit: if r_coil.is_some() {
+            Unit::Ohm
+        } else {
+            Unit::Coil
+        },
+        coil_resistance_ohm: r_coil,
+        temperature_c: options.temperature_c,
+        readings,
+        readings_within_winding,
+        pattern: Pattern::AllOpen,
+        spread_pct: 0.0,
+        drop_test: DropTest {
+            current_a: options.current_a,
+            feeds: Vec::new(),
+        },
+        location: None,
+        network,
+    };
+    let values: Vec<f64> = test.judged().iter().filter_map(|r| r.expected).collect();
+    test.pattern = pattern_of(&values);
+    test.spread_pct = spread_pct(&values);
+    test.drop_test = drop_test(&test, options.current_a, scale);
+    test
+}
+
+fn same(a: f64, b: f64) -> bool {
+    (a - b).abs() <= 1e-9 * a.abs().max(b.abs()).max(1e-300)
+}
+
+/// The pattern of `values` round the commutator.
+pub fn pattern_of(values: &[f64]) -> Pattern {
+    let n = values.len();
+    if n == 0 {
+        return Pattern::AllOpen;
+    }
+    let period = (1..=n)
+        .find(|&k| n.is_multiple_of(k) && (0..n).all(|i| same(values[i], values[(i + k) % n])))
+        .unwrap_or(n);
+    match period {
+        1 => Pattern::AllEqual,
+        2 => Pattern::TwoAlternating,
+        k if k == n => Pattern::Irregular,
+        k => Pattern::Repeats { period: k as u32 },
+    }
+}
+
+/// (largest − smallest)/mean, %.
+pub fn spread_pct(values: &[f64]) -> f64 {
+    if values.is_empty() {
+        return 0.0;
+    }
+    let max = values.iter().copied().fold(f64::MIN, f64::max);
+    let min = values.iter().copied().fold(f64::MAX, f64::min);
+    let mean = values.iter().sum::<f64>() / values.len() as f64;
+    if mean > 0.0 {
+        100.0 * (max - min) / mean
+    } else {
+        0.0
+    }
+}
+
+/// The feed bars the trade uses [src: a published trade training text on growlers and
+/// armature testers]: simplex lap, bar 1 and the bar opposite; simplex wave, bar 1 and the bar
+/// one pole pitch away; duplex singly re-entrant, bars 1 and 2; a multiply re-entrant
+/// winding, each closed winding on its own, from its first bar to its bar opposite.
+fn feed_bars(t: &ArmatureTest) -> Vec<(u32, u32)> {
+    let c = t.bars;
+    let r = t.reentrancy.max(1);
+    if t.multiplicity > 1 && r == 1 {
+        return vec![(1, 2)];
+    }
+    let pitch = match t.winding_type {
+        WindingType::Lap => c / 2,
+        WindingType::Wave => (c + t.poles / 2) / t.poles,
+    };
+    (1..=r)
+        .map(|w| {
+            // The bar of winding w nearest `pitch` bars on.
+            let k = ((pitch + r / 2) / r).max(1) * r;
+            (w, (w - 1 + k) % c + 1)
+        })
+        .collect()
+}
+
+fn drop_test(t: &ArmatureTest, current_a: f64, scale: f64) -> DropTest {
+    let net = &t.network;
+    let c = t.bars;
+    let feeds = feed_bars(t)
+        .into_iter()
+        .map(|(a, wanted)| {
+            // Never two bars an equalizer ties: move on within the same winding.
+            let step = t.reentrancy.max(1);
+            let mut b = wanted;
+            let mut tries = 0;
+            while net.node(a) == net.node(b) && tries < c {
+                b = (b - 1 + step) % c + 1;
+                tries += 1;
+            }
+            let phi = net.potentials(a, b);
+            let pairs = if t.reentrancy > 1 {
+                pairs_apart(c, t.multiplicity)
+            } else {
+                neighbour_pairs(c)
+            };
+            let readings = pairs
+                .into_iter()
+                .filter(|&(x, y)| net.connected(x, a) && net.connected(y, a))
+                .map(|(x, y)| {
+                    let v = match (phi[x as usize - 1], phi[y as usize - 1]) {
+                        (Some(p), Some(q)) => Some((p - q).abs() * scale * current_a),
+                        _ => None,
+                    };
+                    Reading {
+                        from_bar: x,
+                        to_bar: y,
+                        // Ω·A = V; millivolts with conductor data.
+                        expected: v.map(|v| if t.unit == Unit::Ohm { v * 1000.0 } else { v }),
+                    }
+                })
+                .collect();
+            DropFeed {
+                from_bar: a,
+                to_bar: b,
+                moved_from: (b != wanted).then_some(wanted),
+                readings,
+            }
+        })
+        .collect();
+    DropTest { current_a, feeds }
+}

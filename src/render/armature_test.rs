@@ -1,0 +1,398 @@
+//! The armature test's outputs: the text report, the JSON object and the readings CSV.
+//!
+//! Part of the `render` stage: it words a computed [`ArmatureTest`] and never solves anything.
+//! Readings are written to six significant digits (they run from micro-ohms to ohms).
+
+use std::fmt::Write as _;
+use std::io::{self, Write};
+
+use serde::Serialize;
+
+use crate::base::caution::TEST_CAUTIONS;
+use crate::base::number::{fmt_fixed, fmt_sig, round_sig};
+use crate::rating::bar_test::{
+    ArmatureTest, DropFeed, Fault, Location, Pattern, Reading, ReadingValue, Unit,
+};
+use crate::theory::words::multiplicity_word;
+
+const DIGITS: i32 = 6;
+
+/// The faults a resistance reading cannot show, and the test that does.
+pub const UNSEEN: [&str; 3] = [
+    "a reversed coil (its two leads exchanged) reads the same as a good one: find it with a growler or the compass test",
+    "a coil grounded to the core does not change a bar-to-bar reading: use the insulation-resistance and high-voltage tests",
+    "a short between a few turns of one coil can change its reading by less than the spread: confirm with a growler",
+];
+
+/// The pattern in words.
+pub fn pattern_words(p: Pattern) -> String {
+    match p {
+        Pattern::AllEqual => "all equal".into(),
+        Pattern::TwoAlternating => "two alternating values".into(),
+        Pattern::Repeats { period } => format!("repeats every {period} bars"),
+        Pattern::Irregular => "no shorter repeat than the whole commutator".into(),
+        Pattern::AllOpen => "every pair reads open".into(),
+    }
+}
+
+fn unit_words(t: &ArmatureTest) -> String {
+    match t.coil_resistance_ohm {
+        Some(r) => format!(
+            "ohm (one coil {} ohm at {} C, IEC 60028 copper corrected by the 234.5 C rule)",
+            fmt_sig(r, DIGITS),
+            fmt_fixed(t.temperature_c, 1)
+        ),
+        None => "coil (no [conductor] data with a mean turn: readings are in units of one coil's resistance)".into(),
+    }
+}
+
+fn value(x: Option<f64>) -> String {
+    x.map_or("open".into(), |v| fmt_sig(v, DIGITS))
+}
+
+fn table(out: &mut String, rows: &[Reading], head: &str) {
+    let _ = writeln!(out, "  {:>6} {:>6}  {head}", "bar", "bar");
+    for r in rows {
+        let _ = writeln!(
+            out,
+            "  {:>6} {:>6}  {}",
+            r.from_bar,
+            r.to_bar,
+            value(r.expected)
+        );
+    }
+}
+
+fn feed_words(f: &DropFeed, current: f64) -> String {
+    let moved = f.moved_from.map_or(String::new(), |b| {
+        format!(
+            " (moved from bar {b}: an equalizer ties bar {b} to bar {}, so no current would flow)",
+            f.from_bar
+        )
+    });
+    format!(
+        "feed {} A in at bar {} and out at bar {}{moved}",
+        fmt_fixed(current, 1),
+        f.from_bar,
+        f.to_bar
+    )
+}
+
+/// The text report.
+pub fn render_test_text(t: &ArmatureTest, design_name: &str) -> String {
+    let mut out = String::new();
+    let _ = writeln!(out, "Armature test: {design_name}");
+    let _ = writeln!(
+        out,
+        "winding: {} {}, {} bars, {} poles, {} closed winding(s){}",
+        multiplicity_word(t.multiplicity),
+        t.winding_type.as_str(),
+        t.bars,
+        t.poles,
+        t.reentrancy,
+        if t.equalized {
+            ", equalizers fitted (ideal)"
+        } else {
+            ""
+        }
+    );
+    let _ = writeln!(out, "unit: {}", unit_words(t));
+    let _ = writeln!(out);
+    let _ = writeln!(out, "Bar-to-bar readings, neighbouring bars");
+    let open = t.open_pairs();
+    let _ = writeln!(out, "  pattern: {}", pattern_words(t.pattern));
+    let _ = writeln!(
+        out,
+        "  spread to expect: {} % (largest - smallest, of the mean); judge the measured spread against it",
+        fmt_fixed(t.spread_pct, 2)
+    );
+    if open > 0 {
+        let _ = writeln!(
+            out,
+            "  {open} pair(s) read open: neighbouring bars lie on different closed windings; read bars {} apart, within one winding, instead",
+            t.multiplicity
+        );
+    }
+    table(&mut out, &t.readings, "expected");
+    if let Some(w) = &t.readings_within_winding {
+        let _ = writeln!(out);
+        let _ = writeln!(
+            out,
+            "Bar-to-bar readings, bars {} apart (within one winding)",
+            t.multiplicity
+        );
+        table(&mut out, w, "expected");
+    }
+    let _ = writeln!(out);
+    let unit = if t.unit == Unit::Ohm {
+        "mV"
+    } else {
+        "A x coil"
+    };
+    let _ = writeln!(
+        out,
+        "Drop test (expected {unit} between the bars of each pair)"
+    );
+    for f in &t.drop_test.feeds {
+        let _ = writeln!(out, "  {}", feed_words(f, t.drop_test.current_a));
+        table(&mut out, &f.readings, unit);
+    }
+    if let Some(l) = &t.location {
+        let _ = writeln!(out);
+        locator_text(&mut out, l);
+    }
+    let _ = writeln!(out);
+    let _ = writeln!(out, "Faults this test cannot see");
+    for u in UNSEEN {
+        let _ = writeln!(out, "  - {u}");
+    }
+    let _ = writeln!(out);
+    let _ = writeln!(out, "Caution");
+    for c in TEST_CAUTIONS {
+        let _ = writeln!(out, "  - {c}");
+    }
+    out
+}
+
+fn measured_words(v: ReadingValue) -> String {
+    match v {
+        ReadingValue::Value(x) => fmt_sig(x, DIGITS),
+        ReadingValue::Open => "open".into(),
+    }
+}
+
+fn list(v: &[u32]) -> String {
+    v.iter().map(u32::to_string).collect::<Vec<_>>().join(", ")
+}
+
+fn locator_text(out: &mut String, l: &Location) {
+    let _ = writeln!(out, "Measured readings");
+    let _ = writeln!(
+        out,
+        "  {} reading(s) compared, {} pair(s) not read; tolerance {} % of the healthy pattern (default 5 %, --tolerance)",
+        l.measured.len(),
+        l.missing,
+        fmt_fixed(100.0 * l.tolerance, 1)
+    );
+    if l.healthy {
+        let _ = writeln!(
+            out,
+            "  healthy: every reading is within tolerance of the healthy pattern"
+        );
+    } else {
+        let _ = writeln!(
+            out,
+            "  not healthy: readings outside tolerance at bars {}",
+            list(&l.suspect_bars)
+        );
+    }
+    let best = l.faults.first();
+    let explains =
+        best.is_some_and(|f| f.score < 0.5 * l.healthy_score.max(1e-12) || f.score < 0.02);
+    if !l.healthy && !explains {
+        let _ = writeln!(
+            out,
+            "  no single fault explains these readings: check the probe contact and look for more than one fault"
+        );
+    }
+    if !l.healthy {
+        for (i, f) in l.faults.iter().take(3).enumerate() {
+            let _ = writeln!(
+                out,
+                "  {}. {} (score {}): {}",
+                i + 1,
+                f.kind.key(),
+                fmt_sig(f.score, 3),
+                f.explanation
+            );
+            let _ = writeln!(
+                out,
+                "     inspect bars {}{}",
+                list(&f.bars),
+                if f.slots.is_empty() {
+                    String::new()
+                } else {
+                    format!(", slots {}", list(&f.slots))
+                }
+            );
+        }
+    }
+    for (k, n) in &l.invisible {
+        let _ = writeln!(
+            out,
+            "  {} at {n} place(s) would change no reading: this test cannot see it",
+            k.key()
+        );
+    }
+    let _ = writeln!(
+        out,
+        "  {:>6} {:>6}  {:>12}  {:>12}",
+        "bar", "bar", "expected", "measured"
+    );
+    for (r, m) in &l.measured {
+        let e = r.expected.map(|e| e * l.healthy_scale);
+        let _ = writeln!(
+            out,
+            "  {:>6} {:>6}  {:>12}  {:>12}",
+            r.from_bar,
+            r.to_bar,
+            value(e),
+            measured_words(*m)
+        );
+    }
+}
+
+#[derive(Serialize)]
+struct FaultJson {
+    bars: Vec<u32>,
+    coils: Vec<u32>,
+    explanation: String,
+    kind: &'static str,
+    score: f64,
+    slots: Vec<u32>,
+}
+
+#[derive(Serialize)]
+struct LocationJson {
+    faults: Vec<FaultJson>,
+    healthy: bool,
+    invisible: Vec<String>,
+    missing_pairs: usize,
+    readings_compared: usize,
+    scale: f64,
+    suspect_bars: Vec<u32>,
+    tolerance: f64,
+}
+
+fn fault_json(f: &Fault) -> FaultJson {
+    FaultJson {
+        bars: f.bars.clone(),
+        coils: f.coils.clone(),
+        explanation: f.explanation.clone(),
+        kind: f.kind.key(),
+        score: round_sig(f.score, DIGITS),
+        slots: f.slots.clone(),
+    }
+}
+
+fn location_json(l: &Location) -> LocationJson {
+    LocationJson {
+        faults: l.faults.iter().map(fault_json).collect(),
+        healthy: l.healthy,
+        invisible: l
+            .invisible
+            .iter()
+            .map(|(k, n)| format!("{} at {n} place(s)", k.key()))
+            .collect(),
+        missing_pairs: l.missing,
+        readings_compared: l.measured.len(),
+        scale: round_sig(l.healthy_scale, DIGITS),
+        suspect_bars: l.suspect_bars.clone(),
+        tolerance: l.tolerance,
+    }
+}
+
+#[derive(Serialize)]
+struct ReadingJson {
+    expected: Option<f64>,
+    from_bar: u32,
+    to_bar: u32,
+}
+
+fn readings_json(rows: &[Reading]) -> Vec<ReadingJson> {
+    rows.iter()
+        .map(|r| ReadingJson {
+            expected: r.expected.map(|v| round_sig(v, DIGITS)),
+            from_bar: r.from_bar,
+            to_bar: r.to_bar,
+        })
+        .collect()
+}
+
+#[derive(Serialize)]
+struct FeedJson {
+    expected_unit: &'static str,
+    from_bar: u32,
+    moved_from_bar: Option<u32>,
+    readings: Vec<ReadingJson>,
+    to_bar: u32,
+}
+
+#[derive(Serialize)]
+struct DropJson {
+    current_a: f64,
+    feeds: Vec<FeedJson>,
+}
+
+#[derive(Serialize)]
+struct TestJson {
+    cannot_see: [&'static str; 3],
+    cautions: [&'static str; 4],
+    coil_resistance_ohm: Option<f64>,
+    drop_test: DropJson,
+    #[serde(flatten)]
+    location: Option<LocationJson>,
+    open_pairs: usize,
+    pattern: String,
+    readings: Vec<ReadingJson>,
+    readings_within_winding: Option<Vec<ReadingJson>>,
+    spread_pct: f64,
+    temperature_c: f64,
+    unit: &'static str,
+}
+
+fn test_json(t: &ArmatureTest) -> TestJson {
+    let expected_unit = if t.unit == Unit::Ohm { "mV" } else { "A*coil" };
+    TestJson {
+        cannot_see: UNSEEN,
+        cautions: TEST_CAUTIONS,
+        coil_resistance_ohm: t.coil_resistance_ohm.map(|r| round_sig(r, DIGITS)),
+        drop_test: DropJson {
+            current_a: t.drop_test.current_a,
+            feeds: t
+                .drop_test
+                .feeds
+                .iter()
+                .map(|f| FeedJson {
+                    expected_unit,
+                    from_bar: f.from_bar,
+                    moved_from_bar: f.moved_from,
+                    readings: readings_json(&f.readings),
+                    to_bar: f.to_bar,
+                })
+                .collect(),
+        },
+        location: t.location.as_ref().map(location_json),
+        open_pairs: t.open_pairs(),
+        pattern: pattern_words(t.pattern),
+        readings: readings_json(&t.readings),
+        readings_within_winding: t.readings_within_winding.as_deref().map(readings_json),
+        spread_pct: round_sig(t.spread_pct, DIGITS),
+        temperature_c: t.temperature_c,
+        unit: t.unit.key(),
+    }
+}
+
+/// Writes the JSON object with a final newline.
+pub fn write_test_json<W: Write>(t: &ArmatureTest, mut out: W) -> io::Result<()> {
+    serde_json::to_writer_pretty(&mut out, &test_json(t))?;
+    out.write_all(b"\n")
+}
+
+/// The JSON object as a string.
+pub fn test_json_string(t: &ArmatureTest) -> String {
+    let mut buf = Vec::new();
+    let _ = write_test_json(t, &mut buf);
+    String::from_utf8(buf).unwrap_or_default()
+}
+
+/// The readings CSV the shop fills in: `from_bar,to_bar,expected,measured`, the neighbouring
+/// pairs then the within-winding pairs, `measured` empty.
+pub fn readings_csv(t: &ArmatureTest) -> String {
+    let mut out = String::from("from_bar,to_bar,expected,measured\n");
+    let within = t.readings_within_winding.as_deref().unwrap_or(&[]);
+    for r in t.readings.iter().chain(within) {
+        let _ = writeln!(out, "{},{},{},", r.from_bar, r.to_bar, value(r.expected));
+    }
+    out
+}
