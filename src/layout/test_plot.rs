@@ -9,6 +9,7 @@
 
 use std::f64::consts::PI;
 
+use super::font::{Weight, wrap_text};
 use super::tree::{Circle, Group, Page, PageKind, PageUnit, Path, Rect, Text};
 use crate::base::caution::TEST_CAUTIONS;
 use crate::rating::bar_test::{ArmatureTest, ReadingValue};
@@ -18,6 +19,8 @@ const H: f64 = 210.0;
 const CX: f64 = 105.0;
 const CY: f64 = 108.0;
 const R0: f64 = 40.0;
+/// The cautions' font size, mm (the legibility floor is 2.5 mm).
+const CAUTION_SIZE: f64 = 3.0;
 const SPAN: f64 = 45.0;
 
 fn at(angle: f64, r: f64) -> (f64, f64) {
@@ -54,7 +57,7 @@ pub fn test_plot_page(t: &ArmatureTest, title: &str) -> Page {
         )
         .collect();
     g.push(Path::polyline("conn k1", &expected));
-    let mut legend = vec![("conn k1", "expected")];
+    let mut legend = vec![("conn k1", "expected", "")];
     if let Some(l) = &t.location {
         let by_pair: std::collections::BTreeMap<(u32, u32), ReadingValue> = l
             .measured
@@ -62,6 +65,8 @@ pub fn test_plot_page(t: &ArmatureTest, title: &str) -> Page {
             .map(|(r, m)| ((r.from_bar, r.to_bar), *m))
             .collect();
         let scale = l.healthy_scale.max(1e-300);
+        // Dashed as well as coloured, so the two lines part in greyscale.
+        let mut measured = Group::class("d2");
         let mut run: Vec<(f64, f64)> = Vec::new();
         for r in rows {
             match by_pair.get(&(r.from_bar, r.to_bar)) {
@@ -71,26 +76,34 @@ pub fn test_plot_page(t: &ArmatureTest, title: &str) -> Page {
                 Some(ReadingValue::Open) => run.push(at(angle(r.from_bar), R0 + SPAN)),
                 None => {
                     if run.len() > 1 {
-                        g.push(Path::polyline("conn k2", &run));
+                        measured.push(Path::polyline("conn k2", &run));
                     }
                     run.clear();
                 }
             }
         }
         if run.len() > 1 {
-            g.push(Path::polyline("conn k2", &run));
+            measured.push(Path::polyline("conn k2", &run));
         }
+        g.push(measured);
         for &b in &l.suspect_bars {
             let (x, y) = at(2.0 * PI * (f64::from(b) - 1.0) / c, R0 - 3.0);
             g.push(Circle::new("f2", x, y, 1.2));
         }
-        legend.push(("conn k2", "measured (fitted scale)"));
+        legend.push(("conn k2", "measured (fitted scale)", "d2"));
     }
     let mut side = Group::id("notes");
     let x0 = 200.0;
     let mut y = 30.0;
-    for (class, words) in &legend {
-        side.push(Path::polyline(class, &[(x0, y - 1.0), (x0 + 8.0, y - 1.0)]));
+    for (class, words, dash) in &legend {
+        let line = Path::polyline(class, &[(x0, y - 1.0), (x0 + 8.0, y - 1.0)]);
+        if dash.is_empty() {
+            side.push(line);
+        } else {
+            let mut key = Group::class(*dash);
+            key.push(line);
+            side.push(key);
+        }
         side.push(Text::new(x0 + 10.0, y, 3.0, "", *words));
         y += 6.0;
     }
@@ -106,19 +119,16 @@ pub fn test_plot_page(t: &ArmatureTest, title: &str) -> Page {
         "",
         format!("unit: {}", t.unit.key()),
     ));
-    let mut cy = 150.0;
+    let mut cy = 128.0;
     side.push(Text::new(x0, cy, 3.0, "b", "Caution"));
+    // The cautions whole, wrapped to the side column between x0 and the page margin.
+    let width = W - x0 - 10.0;
     for c in TEST_CAUTIONS {
-        // The plot shows the cautions' first clause; the report gives them whole.
-        let first = c.split([';', ':']).next().unwrap_or(c);
-        cy += 5.0;
-        side.push(Text::new(
-            x0,
-            cy,
-            2.5,
-            "",
-            first.trim_end_matches('.').to_string(),
-        ));
+        cy += 2.0;
+        for line in wrap_text(c, CAUTION_SIZE, Weight::Regular, width) {
+            cy += 4.2;
+            side.push(Text::new(x0, cy, CAUTION_SIZE, "", line));
+        }
     }
     Page {
         kind: PageKind::TestPlot,

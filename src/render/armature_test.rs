@@ -199,10 +199,10 @@ fn locator_text(out: &mut String, l: &Location) {
         for (i, f) in l.faults.iter().take(3).enumerate() {
             let _ = writeln!(
                 out,
-                "  {}. {} (score {}): {}",
+                "  {}. {} (misfit {}, lower fits better): {}",
                 i + 1,
                 f.kind.key(),
-                fmt_sig(f.score, 3),
+                fmt_fixed(f.score, 3),
                 f.explanation
             );
             let _ = writeln!(
