@@ -41,6 +41,7 @@ fn sheet_writes_every_file_and_says_so() {
         "sheet-1.svg",
         "sheet-2.svg",
         "sheet-3.svg",
+        "sheet-4.svg",
         "connections.csv",
         "job.csv",
         "report.json",

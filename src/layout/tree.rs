@@ -20,10 +20,25 @@ pub enum PageKind {
     Screen,
     /// Sheet 1: the developed diagram with the title, data and legend blocks.
     Diagram,
+    /// The winding data in full, when sheet 1 cannot hold every row.
+    WindingData,
     /// A page of the connection table.
     Connections,
     /// A page of the equalizer table.
     Equalizers,
+}
+
+impl PageKind {
+    /// The page's name in the root `data-page` attribute: `developed`, `winding-data`,
+    /// `connections` or `equalizers`.
+    pub fn data_page(self) -> &'static str {
+        match self {
+            PageKind::Screen | PageKind::Diagram => "developed",
+            PageKind::WindingData => "winding-data",
+            PageKind::Connections => "connections",
+            PageKind::Equalizers => "equalizers",
+        }
+    }
 }
 
 /// How the page's size is declared to a viewer.
@@ -42,6 +57,8 @@ pub struct Page {
     pub kind: PageKind,
     /// A short title (the job, or the sheet's name).
     pub title: String,
+    /// The document's title, from the job (the PDF's title).
+    pub document: String,
     /// Width, mm.
     pub width_mm: f64,
     /// Height, mm.

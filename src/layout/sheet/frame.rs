@@ -12,7 +12,7 @@ pub const MARGIN: f64 = 10.0;
 /// Height of the "not for winding" band, mm.
 pub const BAND_HEIGHT: f64 = 9.0;
 /// Title block size, mm.
-pub const TITLE_BLOCK: (f64, f64) = (104.0, 27.0);
+pub const TITLE_BLOCK: (f64, f64) = (124.0, 31.0);
 /// Connection-table font size, mm: 3.5 mm gives a cap height of 2.55 mm in DejaVu Sans (the
 /// outline of "H" is 0.729 em tall; measured in `tests/sheet_render.rs`), above the 2.5 mm
 /// asked for on A4.
@@ -136,7 +136,7 @@ pub fn diagram_sheet(frame: &PageFrame) -> DiagramSheet {
     };
     let notes_w = TITLE_BLOCK.0;
     let rest = f.w - notes_w;
-    let data_w = (rest * 0.54).floor();
+    let data_w = (rest * 0.5).floor();
     let data = Rect {
         x: f.x,
         y: row_top,
