@@ -118,7 +118,10 @@ fn breaches(page: &Page) -> Vec<String> {
     let mut out = Vec::new();
     for p in &texts {
         let t = p.text;
-        let body = p.context.iter().any(|c| c == "row" || c == "datum");
+        let body = p
+            .context
+            .iter()
+            .any(|c| c == "row" || c == "datum" || c == "order-row");
         let floor = if body { BODY_FLOOR } else { FLOOR };
         if t.size_mm < floor - 1e-9 {
             out.push(format!(

@@ -42,6 +42,8 @@ fn sheet_writes_every_file_and_says_so() {
         "sheet-2.svg",
         "sheet-3.svg",
         "sheet-4.svg",
+        "sheet-5.svg",
+        "sheet-6.svg",
         "connections.csv",
         "job.csv",
         "report.json",

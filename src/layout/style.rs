@@ -223,6 +223,10 @@ fn build_table() -> Vec<Rule> {
             &["thin"],
             vec![none(Fill), Stroke(Some("#999")), StrokeWidth(0.15)],
         ),
+        rule(
+            &["checkbox"],
+            vec![Fill(Some("#fff")), Stroke(Some(INK)), StrokeWidth(0.3)],
+        ),
         rule(&["band"], vec![Fill(Some(INK))]),
         rule(&["band-text"], vec![Fill(Some("#fff")), Bold]),
         rule(

@@ -20,6 +20,10 @@ pub enum PageKind {
     Screen,
     /// Sheet 1: the developed diagram with the title, data and legend blocks.
     Diagram,
+    /// The commutator end view.
+    CommutatorEnd,
+    /// A page of the winding order with check-off boxes.
+    WindingOrder,
     /// The winding data in full, when sheet 1 cannot hold every row.
     WindingData,
     /// A page of the connection table.
@@ -29,11 +33,13 @@ pub enum PageKind {
 }
 
 impl PageKind {
-    /// The page's name in the root `data-page` attribute: `developed`, `winding-data`,
+    /// The page's name in the root `data-page` attribute: `developed`, `commutator-end`, `winding-order`, `winding-data`,
     /// `connections` or `equalizers`.
     pub fn data_page(self) -> &'static str {
         match self {
             PageKind::Screen | PageKind::Diagram => "developed",
+            PageKind::CommutatorEnd => "commutator-end",
+            PageKind::WindingOrder => "winding-order",
             PageKind::WindingData => "winding-data",
             PageKind::Connections => "connections",
             PageKind::Equalizers => "equalizers",

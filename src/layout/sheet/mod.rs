@@ -13,6 +13,8 @@ pub mod caution;
 pub mod data;
 pub mod frame;
 pub mod legend;
+pub mod order;
+pub mod ring;
 pub mod rows;
 pub mod table;
 pub mod title;
@@ -57,6 +59,8 @@ enum Content {
     WindingData,
     Connections(TablePage),
     Equalizers(TablePage),
+    WindingOrder(TablePage),
+    CommutatorEnd,
 }
 
 /// Lays out every sheet of `checked`, in order; `result[0]` is sheet 1.
@@ -95,6 +99,20 @@ pub fn sheet_pages(checked: &Checked, options: &SheetOptions) -> Vec<Page> {
             contents.push(Content::Equalizers(p));
         }
     }
+    contents.push(Content::CommutatorEnd);
+    let drop = order::first_page_drop(&input, &area);
+    let order_area = Rect {
+        y: area.y + drop,
+        h: area.h - drop,
+        ..area
+    };
+    for p in paginate(
+        input.winding.connections.len(),
+        order::order_width(),
+        &order_area,
+    ) {
+        contents.push(Content::WindingOrder(p));
+    }
     // The winding data in full closes the set, so the tables keep their sheet numbers.
     if data_on_own_sheet {
         contents.push(Content::WindingData);
@@ -112,6 +130,14 @@ pub fn sheet_pages(checked: &Checked, options: &SheetOptions) -> Vec<Page> {
                     let more = data_on_own_sheet.then_some(data_sheet);
                     diagram_sheet_blocks(&mut page.children, &input, &frame, more);
                     (PageKind::Diagram, "developed winding diagram")
+                }
+                Content::CommutatorEnd => {
+                    ring::ring_page(&mut page.children, &input, &frame);
+                    (PageKind::CommutatorEnd, "commutator end view")
+                }
+                Content::WindingOrder(p) => {
+                    order::order_page(&mut page.children, &input, &frame, p);
+                    (PageKind::WindingOrder, "winding order")
                 }
                 Content::WindingData => {
                     page.children
