@@ -174,12 +174,21 @@ pub struct TablePage {
     pub top: f64,
 }
 
-/// Splits `total` rows of a table whose columns take `width` mm into pages that fit `area`.
-/// Always returns at least one page.
+/// Splits `total` rows of a table whose columns take `width` mm into pages that fit `area`,
+/// the fewest pages that hold them; a table of several pages shares its rows evenly between
+/// the pages and their column groups (so no last sheet carries a handful of rows). Always
+/// returns at least one page.
 pub fn paginate(total: usize, width: f64, area: &Rect) -> Vec<TablePage> {
-    let per_group = (((area.h - TABLE_HEADER) / TABLE_ROW).floor() as usize).max(1);
+    let fit_group = (((area.h - TABLE_HEADER) / TABLE_ROW).floor() as usize).max(1);
     let groups = (((area.w + TABLE_GAP) / (width + TABLE_GAP)).floor() as usize).max(1);
-    let per_page = per_group * groups;
+    let pages = total.div_ceil(fit_group * groups).max(1);
+    let per_page = total.div_ceil(pages).max(1);
+    // A table that fits one page fills its column groups in turn, as before.
+    let per_group = if pages == 1 {
+        fit_group
+    } else {
+        per_page.div_ceil(groups).max(1)
+    };
     let mut pages = Vec::new();
     let mut first = 0;
     loop {
@@ -229,6 +238,12 @@ mod tests {
         }
         // 150 mm: (150 − 9)/5 = 28 rows a group, two 130 mm groups across 277 mm.
         assert_eq!(paginate(1056, 130.0, &area).len(), 1056usize.div_ceil(56));
+        // 57 rows need two pages of 56: they carry 29 and 28 rows, not 56 and 1.
+        let sizes: Vec<usize> = paginate(57, 130.0, &area)
+            .iter()
+            .map(|p| p.rows.len())
+            .collect();
+        assert_eq!(sizes, [29, 28]);
     }
 
     #[test]
