@@ -22,7 +22,12 @@ fn pump_sheet_carries_the_rating_rows() {
         "{}",
         String::from_utf8_lossy(&o.stderr)
     );
-    let svg = std::fs::read_to_string(dir.join("pump-wave/sheet-1.svg")).unwrap();
+    // The rating rows are on the winding-data sheet, the last of the set.
+    let last = (1..)
+        .take_while(|n| dir.join(format!("pump-wave/sheet-{n}.svg")).is_file())
+        .last()
+        .unwrap();
+    let svg = std::fs::read_to_string(dir.join(format!("pump-wave/sheet-{last}.svg"))).unwrap();
     for text in [
         ">R_a at 95 C<",
         ">0.1643 ohm<",

@@ -92,8 +92,10 @@ fn fmt(x: f64) -> String {
 fn fixture_sheets_render_on_every_paper() {
     for paper in Paper::ALL {
         assert_eq!(
+            // Diagram, connection table, equalizer table, commutator end view, winding
+            // order, winding data in full.
             check_design("sheet_lap.toml", &fixture("sheet_lap.toml"), paper),
-            3,
+            6,
             "{paper}"
         );
         assert_eq!(
@@ -102,7 +104,7 @@ fn fixture_sheets_render_on_every_paper() {
                 &fixture("sheet_wave_dummy.toml"),
                 paper
             ),
-            2,
+            5,
             "{paper}"
         );
     }
@@ -152,7 +154,7 @@ fn demo_sheets_render() {
             &fixture("sheet_hostile.toml"),
             Paper::A4
         ),
-        2
+        5
     );
 }
 

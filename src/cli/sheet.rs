@@ -111,8 +111,10 @@ pub struct DrawArgs {
 
 pub(crate) const SHEET_HELP: &str = "\
 Writes into DIR/<design-stem>/: sheet-1.svg (developed diagram, title block, winding data,
-legend, caution), sheet-2.svg … (connection table with the winding sequence, then the
-equalizer table), connections.csv (one record per coil position), job.csv (the job they
+legend, caution), sheet-2.svg … (connection table with the winding sequence, the
+equalizer table, the commutator end view, the winding order with check-off boxes and, when
+sheet 1 cannot hold it all, the winding data in full; each page's root <svg> names itself in
+data-page), connections.csv (one record per coil position), job.csv (the job they
 belong to, once), report.json (the `check --json` object) and, with --pdf, sheets.pdf.
 Sheets are sized in mm and print at true scale. A design that fails a check is still drawn,
 under a NOT FOR WINDING band.

@@ -70,6 +70,23 @@ pub fn text_width(text: &str, size: f64, weight: Weight) -> f64 {
     glyphs(text, weight).map(|g| g.advance).sum::<f64>() * size
 }
 
+/// How far the ink of `text` at `size` mm in `weight` reaches above and below the baseline,
+/// mm (both ≥ 0), from the glyphs' outline boxes in the embedded font; a text without ink
+/// (spaces) reaches nowhere.
+pub fn ink_extent(text: &str, size: f64, weight: Weight) -> (f64, f64) {
+    let face = weight.face();
+    let em = f64::from(face.units_per_em());
+    let (mut up, mut down) = (0.0_f64, 0.0_f64);
+    for c in text.chars() {
+        let id = face.glyph_index(c).unwrap_or(ttf_parser::GlyphId(0));
+        if let Some(b) = face.glyph_bounding_box(id) {
+            up = up.max(f64::from(b.y_max) / em);
+            down = down.max(-f64::from(b.y_min) / em);
+        }
+    }
+    (up * size, down * size)
+}
+
 /// Breaks `text` into lines of at most `width` mm at `size` mm, at spaces (a single word
 /// wider than the line stands alone on its line).
 pub fn wrap_text(text: &str, size: f64, weight: Weight, width: f64) -> Vec<String> {

@@ -16,7 +16,7 @@ pub const SCREEN_PX_PER_MM: f64 = 4.0;
 /// The screen page of `checked`'s developed diagram, showing `window`.
 pub fn draw_page(checked: &Checked, window: Window) -> Page {
     let (design, winding) = (&checked.design, &checked.winding);
-    let shown = resolve_view(design, winding, window);
+    let shown = resolve_view(design, winding, window, None);
     let per_slot = if shown.slots > 0 {
         f64::from(winding.active_coils) / f64::from(design.slots)
     } else {
@@ -32,27 +32,20 @@ pub fn draw_page(checked: &Checked, window: Window) -> Page {
             width,
             height: height - 8.0,
             window,
+            floor: false,
         },
     );
-    let title = [design.job.id.as_deref(), design.job.title.as_deref()]
-        .into_iter()
-        .flatten()
-        .collect::<Vec<_>>()
-        .join(" · ");
-    let title = if title.is_empty() {
-        design.file_name.clone()
-    } else {
-        title
-    };
+    let title = job_title(design);
     let mut heading = Text::new(11.0, 5.5, 3.2, "b", title.clone());
     heading.class_first = true;
     let mut page = Page {
         kind: PageKind::Screen,
+        document: title.clone(),
         title,
         width_mm: width,
         height_mm: height,
         unit: PageUnit::Pixels(SCREEN_PX_PER_MM),
-        data: Vec::new(),
+        data: vec![("data-page", PageKind::Screen.data_page().to_string())],
         children: vec![
             Rect::filled("#fff", 0.0, 0.0, width, height).into(),
             heading.into(),
@@ -71,6 +64,20 @@ pub fn draw_page(checked: &Checked, window: Window) -> Page {
         page.children[0] = Rect::filled("#fff", 0.0, 0.0, width, page.height_mm).into();
     }
     page
+}
+
+/// The job's name for titles: its id and title joined by " · ", else the design file's name.
+pub fn job_title(design: &crate::design::Design) -> String {
+    let title = [design.job.id.as_deref(), design.job.title.as_deref()]
+        .into_iter()
+        .flatten()
+        .collect::<Vec<_>>()
+        .join(" \u{b7} ");
+    if title.is_empty() {
+        design.file_name.clone()
+    } else {
+        title
+    }
 }
 
 /// Least paper below the lowest baseline of the screen page, mm.

@@ -13,6 +13,14 @@ use std::sync::OnceLock;
 
 use super::font::Weight;
 
+/// The smallest font size on any sheet, mm: a cap height of about 1.8 mm in DejaVu Sans, the
+/// smallest nominal lettering height of ISO 3098 (from memory).
+pub const TEXT_FLOOR: f64 = 2.5;
+/// The font size of table bodies and the winding-data block, mm.
+pub const BODY_TEXT: f64 = 3.5;
+/// Least distance between neighbouring coil-side lines of the developed diagram on paper, mm.
+pub const SIDE_GAP: f64 = 1.0;
+
 /// Path colours (Okabe–Ito, without yellow and black, which print poorly or clash with the
 /// drawing's black); path k takes `PATH_COLOURS[(k − 1) % 6]`.
 pub const PATH_COLOURS: [&str; 6] = [
@@ -214,6 +222,10 @@ fn build_table() -> Vec<Rule> {
         rule(
             &["thin"],
             vec![none(Fill), Stroke(Some("#999")), StrokeWidth(0.15)],
+        ),
+        rule(
+            &["checkbox"],
+            vec![Fill(Some("#fff")), Stroke(Some(INK)), StrokeWidth(0.3)],
         ),
         rule(&["band"], vec![Fill(Some(INK))]),
         rule(&["band-text"], vec![Fill(Some("#fff")), Bold]),

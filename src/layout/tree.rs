@@ -20,12 +20,33 @@ pub enum PageKind {
     Screen,
     /// Sheet 1: the developed diagram with the title, data and legend blocks.
     Diagram,
+    /// The commutator end view.
+    CommutatorEnd,
+    /// A page of the winding order with check-off boxes.
+    WindingOrder,
+    /// The winding data in full, when sheet 1 cannot hold every row.
+    WindingData,
     /// A page of the connection table.
     Connections,
     /// A page of the equalizer table.
     Equalizers,
     /// `armsheet test`: the readings round the commutator.
     TestPlot,
+}
+
+impl PageKind {
+    /// The page's name in the root `data-page` attribute: `developed`, `commutator-end`, `winding-order`, `winding-data`,
+    /// `connections` or `equalizers`.
+    pub fn data_page(self) -> &'static str {
+        match self {
+            PageKind::Screen | PageKind::Diagram => "developed",
+            PageKind::CommutatorEnd => "commutator-end",
+            PageKind::WindingOrder => "winding-order",
+            PageKind::WindingData => "winding-data",
+            PageKind::Connections => "connections",
+            PageKind::Equalizers => "equalizers",
+        }
+    }
 }
 
 /// How the page's size is declared to a viewer.
@@ -44,6 +65,8 @@ pub struct Page {
     pub kind: PageKind,
     /// A short title (the job, or the sheet's name).
     pub title: String,
+    /// The document's title, from the job (the PDF's title).
+    pub document: String,
     /// Width, mm.
     pub width_mm: f64,
     /// Height, mm.

@@ -96,7 +96,15 @@ pub fn sheets_pdf(pages: &[Page]) -> Result<Vec<u8>, PdfError> {
         surface.finish();
         page.finish();
     }
-    document.set_metadata(Metadata::new().producer("armsheet".into()));
+    let mut metadata = Metadata::new().producer("armsheet".into());
+    if let Some(title) = pages
+        .first()
+        .map(|p| p.document.clone())
+        .filter(|t| !t.is_empty())
+    {
+        metadata = metadata.title(title);
+    }
+    document.set_metadata(metadata);
     document.finish().map_err(|e| PdfError {
         sheet: 0,
         message: format!("{e:?}"),

@@ -15,6 +15,8 @@ pub const MAX_RING_ROWS: usize = 8;
 pub struct Bands {
     /// Baseline of the header text.
     pub header: f64,
+    /// Baseline of the header's second line (the window note, when it does not fit beside).
+    pub header2: f64,
     /// Pole-shoe row top and bottom.
     pub pole: (f64, f64),
     /// Apex of the back end connections.
@@ -56,8 +58,9 @@ pub(super) fn bands(design: &Design, winding: &Winding, height: f64) -> Bands {
     } else {
         3.0 + rows as f64 * eq_pitch
     };
-    let header = 4.0;
-    let pole = (6.0, 11.5);
+    let header = 3.2;
+    let header2 = 6.6;
+    let pole = (8.2, 13.7);
     let commutator_h = 7.0;
     let brush_h = 5.5;
     let fixed = pole.1 + 2.0 + commutator_h + brush_h + 1.0 + eq_height + 1.0;
@@ -72,6 +75,7 @@ pub(super) fn bands(design: &Design, winding: &Winding, height: f64) -> Bands {
     let eq0 = brush.1 + 3.0;
     Bands {
         header,
+        header2,
         pole,
         back_apex,
         core,

@@ -4,9 +4,11 @@
 //! Part of the `layout` stage (the developed diagram).
 
 use super::coils::CoilDrawing;
+use crate::layout::font::{Weight, text_width};
 
-/// Least distance between two edge labels' baselines, mm (labels are 1.8 mm type).
-pub(super) const EDGE_LABEL_GAP: f64 = 2.0;
+/// Least distance between two edge labels' baselines, mm (labels are set at the floor,
+/// digits 0.73 em tall).
+pub(super) const EDGE_LABEL_GAP: f64 = 2.6;
 
 /// Moves edge labels apart along each edge, by at most one gap; a label that still collides
 /// is left out (its dot stays, and the connection table holds the coil).
@@ -35,21 +37,35 @@ pub(super) fn space_edge_labels(coils: &mut [CoilDrawing], gap: f64) {
     }
 }
 
-/// Drops path tags that would overlap a tag already placed to their left (coils of one slot
-/// share an apex); the colour and dash pattern still name the path.
-pub(super) fn thin_tags(coils: &mut [CoilDrawing], gap: f64) {
+/// The words of a coil's tag at its back end: `dead` for a dummy, `sc` for a coil shorted
+/// by a brush, else its path number.
+pub fn tag_text(c: &CoilDrawing) -> String {
+    if c.dummy {
+        "dead".to_string()
+    } else if c.path == 0 {
+        "sc".to_string()
+    } else {
+        c.path.to_string()
+    }
+}
+
+/// Drops path tags that would come within `gap` mm of a tag already placed to their left
+/// (coils of one slot share an apex), measured at `size` mm in bold; the colour and dash
+/// pattern still name the path.
+pub(super) fn thin_tags(coils: &mut [CoilDrawing], size: f64, gap: f64) {
     let mut order: Vec<(f64, usize)> = coils
         .iter()
         .enumerate()
         .filter_map(|(i, c)| c.tag.map(|t| (t.0, i)))
         .collect();
     order.sort_by(|a, b| a.0.total_cmp(&b.0).then(a.1.cmp(&b.1)));
-    let mut last = f64::NEG_INFINITY;
+    let mut last_right = f64::NEG_INFINITY;
     for (x, i) in order {
-        if x - last < gap {
+        let half = text_width(&tag_text(&coils[i]), size, Weight::Bold) / 2.0;
+        if x - half < last_right + gap {
             coils[i].tag = None;
         } else {
-            last = x;
+            last_right = x + half;
         }
     }
 }

@@ -27,6 +27,9 @@ mod view;
 use crate::design::{Design, Rotation};
 use crate::winding::{Polarity, Winding};
 
+use super::font::{Weight, text_width};
+use super::style::{SIDE_GAP, TEXT_FLOOR};
+
 pub use bands::{Bands, MAX_RING_ROWS};
 pub use coils::{CoilDrawing, EdgeCut, SideLine};
 pub use equalizers::{EqualizerBand, EqualizerDrawing, equalizer_choice_words};
@@ -34,6 +37,7 @@ pub use view::{LEGIBLE_SEGMENTS, View, Window, resolve_view};
 
 use coils::coil_drawing;
 use equalizers::equalizer_band;
+pub use labels::tag_text;
 use labels::{EDGE_LABEL_GAP, label_spot, space_edge_labels, thin_tags};
 use view::Geo;
 
@@ -49,6 +53,9 @@ pub struct DiagramOptions {
     pub height: f64,
     /// Which part of the armature to show.
     pub window: Window,
+    /// Hold the legibility floor (a printed sheet): show no more slots than leave
+    /// [`SIDE_GAP`] between neighbouring coil sides and room for the numbers.
+    pub floor: bool,
 }
 
 /// A commutator segment box.
@@ -128,17 +135,34 @@ pub struct Diagram {
 }
 
 /// Gutter either side of the strip for edge labels, mm.
-const GUTTER: f64 = 11.0;
+const GUTTER: f64 = 16.0;
+
+/// Share of the slot pitch over which a slot's coil sides are spread.
+pub(crate) const SIDE_SPREAD: f64 = 0.85;
+
+/// The least slot pitch on paper that keeps the floor, mm: neighbouring coil sides (2u a
+/// slot, spread over [`SIDE_SPREAD`] of the pitch) [`SIDE_GAP`] apart, and every segment
+/// number (turned, its digits' cap height across) beside the next.
+fn min_slot_pitch(design: &Design, winding: &Winding) -> f64 {
+    let u = f64::from(design.coils_per_slot);
+    let sides = SIDE_GAP * 2.0 * u / SIDE_SPREAD;
+    let per_slot = f64::from(winding.active_coils) / f64::from(design.slots);
+    let numbers = (TEXT_FLOOR * 0.73 + 0.5) * per_slot;
+    sides.max(numbers) + 1e-6
+}
 
 /// Lays out the developed diagram of `winding` in a box of the given size.
 pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOptions) -> Diagram {
-    let view = resolve_view(design, winding, options.window);
     let s = f64::from(design.slots);
     let c = f64::from(winding.active_coils);
     let slot_deg = 360.0 / s;
     let seg_deg = 360.0 / c;
     let strip = (GUTTER, options.width - GUTTER);
     let strip_w = strip.1 - strip.0;
+    let fit = options
+        .floor
+        .then(|| (strip_w / min_slot_pitch(design, winding)).floor() as u32);
+    let view = resolve_view(design, winding, options.window, fit);
     let start_deg = f64::from(view.first_slot - 1) * slot_deg - slot_deg / 2.0;
     let scale = strip_w / (f64::from(view.slots) * slot_deg);
     let turn = 360.0 * scale;
@@ -153,12 +177,14 @@ pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOpt
     let bands = bands::bands(design, winding, options.height);
     let slot_pitch = slot_deg * scale;
     let segment_pitch = seg_deg * scale;
-    let label_size = if segment_pitch >= 2.4 && slot_pitch >= 2.4 {
-        2.2
-    } else {
-        1.9
-    };
-    let turn_segment_labels = segment_pitch < label_size * 0.62 * 2.0 + 0.6;
+    let label_size = TEXT_FLOOR;
+    // Segment numbers stand upright where the widest fits its box with room to spare.
+    let widest_segment = text_width(
+        &winding.active_coils.to_string(),
+        label_size,
+        Weight::Regular,
+    );
+    let turn_segment_labels = segment_pitch < widest_segment + 0.8;
 
     let slots = (0..view.slots)
         .map(|i| {
@@ -187,7 +213,7 @@ pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOpt
     let u = design.coils_per_slot;
     let side_deg = |slot: u32, position: u32, bottom: bool| {
         let j = 2 * (position - 1) + u32::from(bottom);
-        let frac = 0.7 * ((f64::from(j) + 0.5) / f64::from(2 * u) - 0.5);
+        let frac = SIDE_SPREAD * ((f64::from(j) + 0.5) / f64::from(2 * u) - 0.5);
         (f64::from(slot - 1) + frac) * slot_deg
     };
     let mut coils: Vec<CoilDrawing> = winding
@@ -203,7 +229,7 @@ pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOpt
         .collect();
 
     space_edge_labels(&mut coils, EDGE_LABEL_GAP);
-    thin_tags(&mut coils, label_size * 1.1);
+    thin_tags(&mut coils, label_size, 0.6);
     let seg_w = segment_pitch * 0.84;
     let segments = (1..=winding.active_coils)
         .filter_map(|seg| {

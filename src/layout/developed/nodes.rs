@@ -5,8 +5,8 @@
 //! (`data-coil`, `data-start-seg`, `data-end-seg`), `seg-7` (`data-seg`), `brush-1`, `eq-3`.
 
 use crate::design::Rotation;
-use crate::layout::font::{Weight, text_width};
-use crate::layout::style::{colour_class, dash_class};
+use crate::layout::font::{Weight, cut_to_width, text_width};
+use crate::layout::style::{TEXT_FLOOR, colour_class, dash_class};
 use crate::layout::tree::{Circle, Group, Line, Node, Path, PathOp, Rect, Text};
 use crate::winding::Polarity;
 
@@ -19,6 +19,12 @@ fn header_size(head: &str, note: &str, room: f64, max: f64) -> f64 {
         + text_width(note, 1.0, Weight::Bold)
         + text_width("    ", 1.0, Weight::Regular);
     max.min(room / em)
+}
+
+/// `s` at (x, y) in `class`, cut to `width` mm.
+fn text_cut(x: f64, y: f64, size: f64, width: f64, class: &str, s: &str) -> Text {
+    let (weight, _) = crate::layout::style::text_face(class);
+    Text::new(x, y, size, class, cut_to_width(s, size, weight, width))
 }
 
 fn rect(class: &str, x: f64, y: f64, w: f64, h: f64) -> Node {
@@ -52,14 +58,20 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
     } else {
         let last = (v.first_slot - 1 + v.slots - 1) % v.total_slots + 1;
         let pairs = v.pole_pairs.unwrap_or(1);
-        format!(
-            "window: slots {}\u{2013}{} of {} ({} pole pair{})",
-            v.first_slot,
-            last,
-            v.total_slots,
-            pairs,
-            if pairs == 1 { "" } else { "s" }
-        )
+        match v.pole_pairs {
+            Some(_) => format!(
+                "window: slots {}\u{2013}{} of {} ({} pole pair{})",
+                v.first_slot,
+                last,
+                v.total_slots,
+                pairs,
+                if pairs == 1 { "" } else { "s" }
+            ),
+            None => format!(
+                "slots {}\u{2013}{} of {} shown, at a scale the print can hold",
+                v.first_slot, last, v.total_slots
+            ),
+        }
     };
     match v.repeat_slots {
         Some(r) => note.push_str(&format!(" \u{b7} pattern repeats every {r} slots")),
@@ -71,9 +83,17 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
     if !v.whole {
         note.push_str(" \u{b7} coils whose top side is in view are drawn");
     }
-    let hs = header_size(&head, &note, x1 - x0, 2.6);
-    g.push(Text::new(x0, b.header, hs, "", head));
-    g.push(Text::new(x1, b.header, hs, "end b", note));
+    // One line when both fit at the floor, else the window note on a second line, wrapped
+    // no further than the strip (it is kept short enough to fit at the floor).
+    let hs = header_size(&head, &note, x1 - x0, 2.8);
+    if hs >= TEXT_FLOOR {
+        g.push(Text::new(x0, b.header, hs, "", head));
+        g.push(Text::new(x1, b.header, hs, "end b", note));
+    } else {
+        let s = TEXT_FLOOR;
+        g.push(Text::new(x0, b.header, s, "", head));
+        g.push(text_cut(x0, b.header2, s, x1 - x0, "b", &note));
+    }
 
     // Poles: shoes in their own row and a light shade over the slots.
     let mut poles = Group::id("poles");
@@ -101,12 +121,15 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
     let mut slots = Group::id("slots");
     slots.push(rect("core", x0, b.core.0, x1 - x0, b.core.1 - b.core.0));
     // Slot numbers of up to three digits at about 0.6 em a digit.
-    let slot_font = (d.slot_pitch * 0.62 / 0.6 / 2.0).clamp(1.5, 2.4);
-    let slot_font = if d.slot_pitch < 3.0 * slot_font * 0.6 {
-        (d.slot_pitch / (3.0 * 0.6)).max(1.3)
-    } else {
-        slot_font
-    };
+    // Slot numbers at the floor; where the pitch is narrower than the widest number, every
+    // k-th slot is numbered (slot 1 of the view always).
+    let slot_font = TEXT_FLOOR;
+    let widest = d
+        .slots
+        .iter()
+        .map(|&(s, _)| text_width(&s.to_string(), slot_font, Weight::Bold))
+        .fold(0.0, f64::max);
+    let slot_step = ((widest + 0.8) / d.slot_pitch).ceil().max(1.0) as usize;
     for &(_, sx) in &d.slots {
         slots.push(rect(
             "slot",
@@ -189,14 +212,17 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
             }
         }
         if let Some((tx, ty)) = c.tag {
-            let (text, cls) = if c.dummy {
-                ("dead".to_string(), "mid halo".to_string())
-            } else if c.path == 0 {
-                ("sc".to_string(), "mid halo".to_string())
+            let text = super::tag_text(c);
+            let cls = if c.dummy || c.path == 0 {
+                "mid halo b".to_string()
             } else {
-                (c.path.to_string(), format!("mid halo b f{k}"))
+                format!("mid halo b f{k}")
             };
-            cg.push(Text::new(tx, ty, ls, &cls, text));
+            // A tag that would reach the strip's edge gives way to the edge labels there.
+            let half = text_width(&text, ls, Weight::Bold) / 2.0 + 0.4;
+            if tx - half >= x0 && tx + half <= x1 {
+                cg.push(Text::new(tx, ty, ls, &cls, text));
+            }
         }
         for cut in &c.cuts {
             cg.push(Circle::new("cutdot", cut.at.0, cut.at.1, 0.35));
@@ -204,11 +230,17 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
                 continue;
             }
             let (tx, cls) = if cut.right {
-                (cut.at.0 + 0.8, "cut-label")
+                (cut.at.0 + 1.0, "cut-label")
             } else {
-                (cut.at.0 - 0.8, "cut-label end")
+                (cut.at.0 - 1.0, "cut-label end")
             };
-            cg.push(Text::new(tx, cut.label_y, 1.8, cls, cut.label.clone()));
+            cg.push(Text::new(
+                tx,
+                cut.label_y,
+                TEXT_FLOOR,
+                cls,
+                cut.label.clone(),
+            ));
         }
         coils.push(cg);
     }
@@ -216,7 +248,7 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
 
     // Slot numbers, on top of the coil sides.
     let mut numbers = Group::id("slot-numbers");
-    for &(slot, sx) in &d.slots {
+    for &(slot, sx) in d.slots.iter().step_by(slot_step) {
         numbers.push(
             Text::new(sx, b.slot_labels, slot_font, "mid halo b", slot.to_string())
                 .with_data("data-slot", slot),
@@ -227,11 +259,7 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
     // Commutator.
     let mut comm = Group::id("commutator");
     let (ct, cb) = b.commutator;
-    let seg_font = if d.turn_segment_labels {
-        (d.segment_pitch * 1.2).clamp(1.2, 2.2)
-    } else {
-        2.2_f64.min(ls + 0.3)
-    };
+    let seg_font = TEXT_FLOOR;
     for s in &d.segments {
         let mut sg = Group::id(format!("seg-{}", s.segment))
             .with_class("seg")
@@ -241,7 +269,7 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
         }
         let label = s.segment.to_string();
         if d.turn_segment_labels {
-            let (lx, ly) = (s.label_x + seg_font * 0.36, cb - 0.6);
+            let (lx, ly) = (s.label_x + seg_font * 0.365, cb - 0.6);
             sg.push(Text::new(lx, ly, seg_font, "", label).rotated(-90.0));
         } else {
             sg.push(Text::new(
@@ -273,8 +301,8 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
                 }
                 rg.push(Text::new(
                     x0 - 0.8,
-                    e.y + 0.6,
-                    1.8,
+                    e.y + 0.9,
+                    TEXT_FLOOR,
                     "end",
                     format!("E{}", e.index),
                 ));
@@ -285,7 +313,7 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
         EqualizerBand::Taps(taps) => {
             let mut eg = Group::id("equalizers");
             let y = b.equalizer_rows.first().copied().unwrap_or(cb + 6.0);
-            eg.push(Text::new(x0 - 0.8, y + 0.6, 1.8, "end", "E"));
+            eg.push(Text::new(x0 - 0.8, y + 0.9, TEXT_FLOOR, "end", "E"));
             for e in taps.iter().filter(|e| !e.taps.is_empty()) {
                 let mut rg = Group::id(format!("eq-{}", e.index))
                     .with_class("eq")
@@ -294,8 +322,10 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
                 for &(_, tx) in &e.taps {
                     rg.push(Line::new("eqtap", (tx, cb), (tx, y)));
                     rg.push(Circle::new("eqdot", tx, y, 0.4));
-                    let (lx, ly) = (tx + 0.6, y + 1.0);
-                    rg.push(Text::new(lx, ly, 1.7, "", format!("E{}", e.index)).rotated(90.0));
+                    let (lx, ly) = (tx + 0.9, y + 1.0);
+                    rg.push(
+                        Text::new(lx, ly, TEXT_FLOOR, "", format!("E{}", e.index)).rotated(90.0),
+                    );
                 }
                 eg.push(rg);
             }
@@ -334,8 +364,8 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
         if !wide {
             bg.push(Text::new(
                 br.label_x,
-                bb + 2.6,
-                1.9,
+                bb + 2.9,
+                TEXT_FLOOR,
                 "mid",
                 format!("B{}", br.index),
             ));
@@ -349,7 +379,7 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
         ((b.back_apex + b.core.0) / 2.0, "back"),
         ((b.core.1 + b.commutator.0) / 2.0, "front"),
     ] {
-        let mut t = Text::new(x0 - 5.5, yy, 2.0, "mid", name).rotated(-90.0);
+        let mut t = Text::new(x0 - 13.4, yy, TEXT_FLOOR, "mid", name).rotated(-90.0);
         t.fill = Some("#666");
         g.push(t);
     }

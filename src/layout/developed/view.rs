@@ -49,8 +49,28 @@ pub struct View {
     pub repeat_slots: Option<u32>,
 }
 
-/// Resolves the window into a [`View`].
-pub fn resolve_view(design: &Design, winding: &Winding, window: Window) -> View {
+/// Resolves the window into a [`View`]; `fit_slots` (a sheet's legibility limit) caps the
+/// slots shown, so that a window that cannot meet the floor shows fewer slots at a larger
+/// scale.
+pub fn resolve_view(
+    design: &Design,
+    winding: &Winding,
+    window: Window,
+    fit_slots: Option<u32>,
+) -> View {
+    let view = requested_view(design, winding, window);
+    match fit_slots {
+        Some(n) if n.max(1) < view.slots => View {
+            whole: false,
+            slots: n.max(1),
+            pole_pairs: None,
+            ..view
+        },
+        _ => view,
+    }
+}
+
+fn requested_view(design: &Design, winding: &Winding, window: Window) -> View {
     let s = design.slots;
     let p = design.pole_pairs();
     let c = winding.active_coils;

@@ -1,54 +1,184 @@
-//! The winding-data block of sheet 1: the design's rows (and the rating's) in two columns,
-//! with the numbering convention at its foot.
+//! The winding-data block of sheet 1 (as many rows as it holds at the body size, with the
+//! job notes and the numbering convention at its foot), and the winding-data sheet that
+//! carries every row when sheet 1 cannot.
 //!
 //! Part of the `layout` stage (the sheets).
 
-use crate::layout::font::{Weight, wrap_text};
+use crate::layout::font::{Weight, cut_to_width, text_width, wrap_text};
+use crate::layout::style::{BODY_TEXT, TEXT_FLOOR};
 use crate::layout::tree::{Group, Text};
 
 use super::rows::winding_data_rows;
-use super::{Input, Rect, text_fit};
+use super::{Input, Rect};
 
-/// The data block in `r`.
-pub(super) fn data_block(input: &Input<'_>, r: &Rect) -> Group {
-    let mut g = Group::id("winding-data");
-    g.push(Text::new(r.x + 2.0, r.y + 5.0, 3.2, "b", "Winding data"));
+/// Row pitch of the data rows, mm.
+const DATA_ROW: f64 = 4.6;
+/// Gap between a row's label and its value, mm.
+const LABEL_GAP: f64 = 2.0;
+
+/// Every data row: the design's, then the rating's.
+pub(super) fn data_rows(input: &Input<'_>) -> Vec<(String, String)> {
     let mut rows = winding_data_rows(input.design, input.winding);
     rows.extend(input.extra_rows.iter().cloned());
-    // The numbering convention sits at the foot of the block.
-    let size = 2.1;
+    rows
+}
+
+/// The numbering convention in words natural for the design's own u, with where the
+/// commutator end is.
+fn numbering_words(input: &Input<'_>) -> String {
     let u = input.design.coils_per_slot;
-    let conv = format!(
-        "Numbering: slots, coils and segments count from 1, seen from the commutator end. Coil n lies top-layer in slot \u{2308}n/{u}\u{2309} at position ((n\u{2212}1) mod {u})+1 and bottom-layer {} slots on. Start lead from the top side, end lead from the bottom side; coil 1's start lead goes to segment 1.",
-        input.winding.pitches.span
-    );
-    let lines = wrap_text(&conv, size, Weight::Regular, r.w - 4.0);
-    let conv_top = r.bottom() - 1.2 - lines.len() as f64 * size * 1.3;
-    let mut numbering = Group::id("numbering");
-    for (i, line) in lines.into_iter().enumerate() {
-        numbering.push(Text::new(
-            r.x + 2.0,
-            conv_top + (i as f64 + 1.0) * size * 1.3 - 0.4,
-            size,
-            "",
-            line,
+    let span = input.winding.pitches.span;
+    let place = if u == 1 {
+        "Coil n lies top-layer in slot n".to_string()
+    } else {
+        format!(
+            "Coil n lies top-layer in slot \u{2308}n/{u}\u{2309} at position ((n\u{2212}1) mod {u})+1"
+        )
+    };
+    format!(
+        "Numbering: slots, coils and segments count from 1, seen from the commutator end (front = commutator end, back = the far end). {place} and bottom-layer {span} slots on. Start lead from the top side, end lead from the bottom side; coil 1's start lead goes to segment 1."
+    )
+}
+
+/// The foot notes of the block: the job notes, then the numbering convention, as lines.
+fn foot_lines(input: &Input<'_>, width: f64) -> Vec<String> {
+    let mut lines = Vec::new();
+    if let Some(notes) = input
+        .design
+        .job
+        .notes
+        .as_deref()
+        .filter(|n| !n.trim().is_empty())
+    {
+        lines.extend(wrap_text(
+            &format!("Job notes: {notes}"),
+            TEXT_FLOOR,
+            Weight::Regular,
+            width,
         ));
     }
-    g.push(numbering);
-    let top = r.y + 9.4;
-    let per_col = rows.len().div_ceil(2).max(1);
-    let line_h = ((conv_top - 1.5 - top) / per_col as f64).min(3.6);
-    let (ks, vs) = ((line_h * 0.66).min(2.3), (line_h * 0.74).min(2.6));
-    let col_w = (r.w - 4.0) / 2.0;
-    let label_w = 22.0;
+    lines.extend(wrap_text(
+        &numbering_words(input),
+        TEXT_FLOOR,
+        Weight::Regular,
+        width,
+    ));
+    lines
+}
+
+/// The widest label of `rows` at the body size, mm.
+fn label_width(rows: &[(String, String)]) -> f64 {
+    rows.iter()
+        .map(|(k, _)| text_width(k, BODY_TEXT, Weight::Regular))
+        .fold(0.0, f64::max)
+}
+
+/// Rows `rows` in columns of `per_col` from (x, top), each column `col_w` wide.
+fn push_rows(
+    g: &mut Group,
+    rows: &[(String, String)],
+    x: f64,
+    top: f64,
+    per_col: usize,
+    col_w: f64,
+) {
+    let label_w = label_width(rows);
     for (i, (k, v)) in rows.iter().enumerate() {
         let (col, row) = (i / per_col, i % per_col);
-        let x = r.x + 2.0 + col as f64 * col_w;
-        let y = top + (row as f64 + 0.7) * line_h;
+        let cx = x + col as f64 * col_w;
+        let y = top + (row as f64 + 1.0) * DATA_ROW - 1.0;
         let mut datum = Group::class("datum").with_data("data-key", k);
-        datum.push(text_fit(x, y, ks, label_w - 0.8, "", k));
-        datum.push(text_fit(x + label_w, y, vs, col_w - label_w - 1.5, "b", v));
+        datum.push(Text::new(cx, y, BODY_TEXT, "", k.clone()));
+        let room = col_w - label_w - LABEL_GAP - 2.0;
+        datum.push(Text::new(
+            cx + label_w + LABEL_GAP,
+            y,
+            BODY_TEXT,
+            "b",
+            cut_to_width(v, BODY_TEXT, Weight::Bold, room),
+        ));
         g.push(datum);
     }
+}
+
+/// The data block in `r`, and how many rows it holds (the rest go to the winding-data sheet).
+pub(super) fn data_block(input: &Input<'_>, r: &Rect, more_on: Option<usize>) -> (Group, usize) {
+    let mut g = Group::id("winding-data");
+    g.push(Text::new(r.x + 2.0, r.y + 5.0, 3.2, "b", "Winding data"));
+    let rows = data_rows(input);
+    let foot = foot_lines(input, r.w - 4.0);
+    let line = TEXT_FLOOR * 1.3;
+    let foot_top = r.bottom() - 1.2 - foot.len() as f64 * line;
+    let mut notes = Group::id("numbering");
+    for (i, l) in foot.into_iter().enumerate() {
+        notes.push(Text::new(
+            r.x + 2.0,
+            foot_top + (i as f64 + 1.0) * line - 0.4,
+            TEXT_FLOOR,
+            "",
+            l,
+        ));
+    }
+    g.push(notes);
+    let top = r.y + 6.8;
+    let fit = (((foot_top - 0.8 - top) / DATA_ROW).floor().max(0.0)) as usize;
+    let shown = if rows.len() <= fit {
+        rows.len()
+    } else {
+        fit.saturating_sub(1)
+    };
+    push_rows(
+        &mut g,
+        &rows[..shown],
+        r.x + 2.0,
+        top,
+        shown.max(1),
+        r.w - 4.0,
+    );
+    if shown < rows.len()
+        && let Some(sheet) = more_on
+    {
+        g.push(Text::new(
+            r.x + 2.0,
+            top + (shown as f64 + 1.0) * DATA_ROW - 1.0,
+            TEXT_FLOOR,
+            "",
+            format!(
+                "{} more rows on sheet {sheet} (winding data)",
+                rows.len() - shown
+            ),
+        ));
+    }
+    (g, shown)
+}
+
+/// How many rows the data block of sheet 1 holds in `r`.
+pub(super) fn rows_held(input: &Input<'_>, r: &Rect) -> usize {
+    data_block(input, r, None).1
+}
+
+/// The winding-data sheet: every row, in as many columns as the area takes.
+pub(super) fn data_page(input: &Input<'_>, area: &Rect) -> Group {
+    let mut g = Group::id("winding-data");
+    g.push(Text::new(
+        area.x + 2.0,
+        area.y + 6.5,
+        4.2,
+        "b",
+        "Winding data",
+    ));
+    let rows = data_rows(input);
+    let top = area.y + 9.0;
+    let per_col = (((area.bottom() - top) / DATA_ROW).floor().max(1.0)) as usize;
+    let cols = rows.len().div_ceil(per_col).max(1);
+    let per_col = rows.len().div_ceil(cols).max(1);
+    push_rows(
+        &mut g,
+        &rows,
+        area.x + 2.0,
+        top,
+        per_col,
+        (area.w - 4.0) / cols as f64,
+    );
     g
 }

@@ -12,7 +12,7 @@ pub const MARGIN: f64 = 10.0;
 /// Height of the "not for winding" band, mm.
 pub const BAND_HEIGHT: f64 = 9.0;
 /// Title block size, mm.
-pub const TITLE_BLOCK: (f64, f64) = (104.0, 27.0);
+pub const TITLE_BLOCK: (f64, f64) = (124.0, 31.0);
 /// Connection-table font size, mm: 3.5 mm gives a cap height of 2.55 mm in DejaVu Sans (the
 /// outline of "H" is 0.729 em tall; measured in `tests/sheet_render.rs`), above the 2.5 mm
 /// asked for on A4.
@@ -136,7 +136,7 @@ pub fn diagram_sheet(frame: &PageFrame) -> DiagramSheet {
     };
     let notes_w = TITLE_BLOCK.0;
     let rest = f.w - notes_w;
-    let data_w = (rest * 0.54).floor();
+    let data_w = (rest * 0.5).floor();
     let data = Rect {
         x: f.x,
         y: row_top,
@@ -174,12 +174,21 @@ pub struct TablePage {
     pub top: f64,
 }
 
-/// Splits `total` rows of a table whose columns take `width` mm into pages that fit `area`.
-/// Always returns at least one page.
+/// Splits `total` rows of a table whose columns take `width` mm into pages that fit `area`,
+/// the fewest pages that hold them; a table of several pages shares its rows evenly between
+/// the pages and their column groups (so no last sheet carries a handful of rows). Always
+/// returns at least one page.
 pub fn paginate(total: usize, width: f64, area: &Rect) -> Vec<TablePage> {
-    let per_group = (((area.h - TABLE_HEADER) / TABLE_ROW).floor() as usize).max(1);
+    let fit_group = (((area.h - TABLE_HEADER) / TABLE_ROW).floor() as usize).max(1);
     let groups = (((area.w + TABLE_GAP) / (width + TABLE_GAP)).floor() as usize).max(1);
-    let per_page = per_group * groups;
+    let pages = total.div_ceil(fit_group * groups).max(1);
+    let per_page = total.div_ceil(pages).max(1);
+    // A table that fits one page fills its column groups in turn, as before.
+    let per_group = if pages == 1 {
+        fit_group
+    } else {
+        per_page.div_ceil(groups).max(1)
+    };
     let mut pages = Vec::new();
     let mut first = 0;
     loop {
@@ -229,6 +238,12 @@ mod tests {
         }
         // 150 mm: (150 − 9)/5 = 28 rows a group, two 130 mm groups across 277 mm.
         assert_eq!(paginate(1056, 130.0, &area).len(), 1056usize.div_ceil(56));
+        // 57 rows need two pages of 56: they carry 29 and 28 rows, not 56 and 1.
+        let sizes: Vec<usize> = paginate(57, 130.0, &area)
+            .iter()
+            .map(|p| p.rows.len())
+            .collect();
+        assert_eq!(sizes, [29, 28]);
     }
 
     #[test]

@@ -3,7 +3,8 @@
 //! Part of the `layout` stage (the sheets).
 
 use crate::layout::style::{
-    DUMMY_DASH, DUMMY_GREY, INK, PATH_COLOURS, PATH_DASHES, SHORTED_GREY, colour_class, dash_class,
+    DUMMY_DASH, DUMMY_GREY, INK, PATH_COLOURS, PATH_DASHES, SHORTED_GREY, TEXT_FLOOR, colour_class,
+    dash_class,
 };
 use crate::layout::tree::{self, Circle, Group, Line, Path, Text};
 use crate::winding::EqualizerPlan;
@@ -16,8 +17,8 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
     g.push(Text::new(r.x + 2.0, r.y + 5.0, 3.2, "b", "Legend"));
     let x0 = r.x + 3.0;
     let xs = x0 + 11.0;
-    let size = 2.3;
-    let line_h = 3.55;
+    let size = TEXT_FLOOR;
+    let line_h = 3.3;
     let room = r.right() - xs - 1.5;
     let text = |g: &mut Group, x: f64, y: f64, class: &str, s: &str| {
         g.push(text_fit(x, y, size, room - (x - xs), class, s));
@@ -46,53 +47,55 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
     text(&mut g, xs, y, "", "current at the drawn instant");
     y += line_h;
     let a = input.winding.paths.len();
-    let shown = a.min(4);
-    for p in input.winding.paths.iter().take(shown) {
-        let k = colour_class(p.index);
-        let dash = PATH_DASHES[dash_class(p.index) - 1];
-        sample(&mut g, y, PATH_COLOURS[k - 1], "conn", dash);
+    if a <= 4 {
+        for p in &input.winding.paths {
+            let k = colour_class(p.index);
+            let dash = PATH_DASHES[dash_class(p.index) - 1];
+            sample(&mut g, y, PATH_COLOURS[k - 1], "conn", dash);
+            text(
+                &mut g,
+                xs + 1.5,
+                y,
+                "",
+                &format!(
+                    "path {}: brush {} to brush {}, {} coil{}",
+                    p.index,
+                    p.from_brush,
+                    p.to_brush,
+                    p.coils.len(),
+                    if p.coils.len() == 1 { "" } else { "s" }
+                ),
+            );
+            y += line_h;
+        }
+    } else {
+        // Every path's own colour and dash, in a grid of samples each named by its number.
+        let cell = 17.0;
+        let across = (((r.right() - x0 - 1.0) / cell).floor() as usize).max(1);
+        for (i, p) in input.winding.paths.iter().enumerate() {
+            let (col, row) = (i % across, i / across);
+            let (cx, cy) = (x0 + col as f64 * cell, y + row as f64 * line_h);
+            let k = colour_class(p.index);
+            let dash = PATH_DASHES[dash_class(p.index) - 1];
+            let mut line = Line::new("conn", (cx, cy - 0.8), (cx + 8.5, cy - 0.8));
+            line.stroke = Some(PATH_COLOURS[k - 1]);
+            line.dash = (!dash.is_empty()).then_some(dash);
+            g.push(line);
+            g.push(Text::new(
+                cx + 9.6,
+                cy,
+                size,
+                &format!("b f{k}"),
+                p.index.to_string(),
+            ));
+        }
+        y += a.div_ceil(across) as f64 * line_h;
         text(
             &mut g,
-            x0 + 9.6,
-            y,
-            &format!("b f{k}"),
-            &p.index.to_string(),
-        );
-        text(
-            &mut g,
-            xs + 1.5,
+            x0,
             y,
             "",
-            &format!(
-                "path {}: brush {} to brush {}, {} coil{}",
-                p.index,
-                p.from_brush,
-                p.to_brush,
-                p.coils.len(),
-                if p.coils.len() == 1 { "" } else { "s" }
-            ),
-        );
-        y += line_h;
-    }
-    if a > shown {
-        text(
-            &mut g,
-            xs,
-            y,
-            "",
-            &format!(
-                "paths {}\u{2013}{}: colours and dashes repeat;",
-                shown + 1,
-                a
-            ),
-        );
-        y += line_h;
-        text(
-            &mut g,
-            xs,
-            y,
-            "",
-            "the number at each back end names the path",
+            "paths as above; the number at each back end names the path",
         );
         y += line_h;
     }

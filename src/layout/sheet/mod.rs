@@ -13,6 +13,8 @@ pub mod caution;
 pub mod data;
 pub mod frame;
 pub mod legend;
+pub mod order;
+pub mod ring;
 pub mod rows;
 pub mod table;
 pub mod title;
@@ -26,7 +28,7 @@ use crate::winding::{EqualizerPlan, Winding};
 use super::developed::{DiagramOptions, Window, layout_developed, nodes::diagram_group};
 use super::font::{cut_to_width, fit_size};
 use super::paper::Paper;
-use super::style::text_face;
+use super::style::{TEXT_FLOOR, text_face};
 use super::tree::{self, Line, Node, Page, PageKind, PageUnit, Text};
 
 /// How the sheets are laid out.
@@ -54,8 +56,11 @@ struct Input<'a> {
 /// What one sheet shows.
 enum Content {
     Diagram,
+    WindingData,
     Connections(TablePage),
     Equalizers(TablePage),
+    WindingOrder(TablePage),
+    CommutatorEnd,
 }
 
 /// Lays out every sheet of `checked`, in order; `result[0]` is sheet 1.
@@ -78,6 +83,8 @@ pub fn sheet_pages(checked: &Checked, options: &SheetOptions) -> Vec<Page> {
     let frame = page_frame(options.paper, !input.failures.is_empty());
     let area = table::table_area(&frame);
     let mut contents = vec![Content::Diagram];
+    let sheet1 = diagram_sheet(&frame);
+    let data_on_own_sheet = data::rows_held(&input, &sheet1.data) < data::data_rows(&input).len();
     let conn_w = table::connection_width(&input);
     for p in paginate(input.winding.connections.len(), conn_w, &area) {
         contents.push(Content::Connections(p));
@@ -92,6 +99,25 @@ pub fn sheet_pages(checked: &Checked, options: &SheetOptions) -> Vec<Page> {
             contents.push(Content::Equalizers(p));
         }
     }
+    contents.push(Content::CommutatorEnd);
+    let drop = order::first_page_drop(&input, &area);
+    let order_area = Rect {
+        y: area.y + drop,
+        h: area.h - drop,
+        ..area
+    };
+    for p in paginate(
+        input.winding.connections.len(),
+        order::order_width(),
+        &order_area,
+    ) {
+        contents.push(Content::WindingOrder(p));
+    }
+    // The winding data in full closes the set, so the tables keep their sheet numbers.
+    if data_on_own_sheet {
+        contents.push(Content::WindingData);
+    }
+    let data_sheet = contents.len();
     let total = contents.len();
     let seq = rows::sequence_labels(input.winding);
     contents
@@ -101,8 +127,22 @@ pub fn sheet_pages(checked: &Checked, options: &SheetOptions) -> Vec<Page> {
             let mut page = begin_page(&frame);
             let (kind, title) = match content {
                 Content::Diagram => {
-                    diagram_sheet_blocks(&mut page.children, &input, &frame);
+                    let more = data_on_own_sheet.then_some(data_sheet);
+                    diagram_sheet_blocks(&mut page.children, &input, &frame, more);
                     (PageKind::Diagram, "developed winding diagram")
+                }
+                Content::CommutatorEnd => {
+                    ring::ring_page(&mut page.children, &input, &frame);
+                    (PageKind::CommutatorEnd, "commutator end view")
+                }
+                Content::WindingOrder(p) => {
+                    order::order_page(&mut page.children, &input, &frame, p);
+                    (PageKind::WindingOrder, "winding order")
+                }
+                Content::WindingData => {
+                    page.children
+                        .push(data::data_page(&input, &table::table_area(&frame)).into());
+                    (PageKind::WindingData, "winding data")
                 }
                 Content::Connections(p) => {
                     table::connection_page(&mut page.children, &input, &frame, p, &seq);
@@ -115,7 +155,7 @@ pub fn sheet_pages(checked: &Checked, options: &SheetOptions) -> Vec<Page> {
             };
             if !matches!(content, Content::Diagram) {
                 page.children
-                    .push(caution::caution_box(&table::caution_rect(&frame), 2.3).into());
+                    .push(caution::caution_box(&table::caution_rect(&frame), TEXT_FLOOR).into());
             }
             page.children
                 .push(title::title_block(&input, &frame, i + 1, total).into());
@@ -124,7 +164,9 @@ pub fn sheet_pages(checked: &Checked, options: &SheetOptions) -> Vec<Page> {
                     .push(title::failure_band(band, &input.failures).into());
             }
             page.kind = kind;
+            page.data.push(("data-page", kind.data_page().to_string()));
             page.title = format!("sheet {} of {total}: {title}", i + 1);
+            page.document = super::screen::job_title(input.design);
             page
         })
         .collect()
@@ -136,6 +178,7 @@ fn begin_page(frame: &PageFrame) -> Page {
     Page {
         kind: PageKind::Diagram,
         title: String::new(),
+        document: String::new(),
         width_mm: frame.width,
         height_mm: frame.height,
         unit: PageUnit::Millimetres,
@@ -148,7 +191,12 @@ fn begin_page(frame: &PageFrame) -> Page {
 }
 
 /// Sheet 1: the diagram above, the data block, the legend and the caution box below.
-fn diagram_sheet_blocks(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFrame) {
+fn diagram_sheet_blocks(
+    out: &mut Vec<Node>,
+    input: &Input<'_>,
+    frame: &PageFrame,
+    data_more_on: Option<usize>,
+) {
     let s = diagram_sheet(frame);
     let diagram = layout_developed(
         input.design,
@@ -157,11 +205,12 @@ fn diagram_sheet_blocks(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
             width: s.diagram.w,
             height: s.diagram.h,
             window: input.options.window,
+            floor: true,
         },
     );
     out.push(diagram_group(&diagram, s.diagram.x, s.diagram.y).into());
     out.push(hline(frame.frame.x, frame.frame.right(), s.data.y, "rule"));
-    out.push(data::data_block(input, &s.data).into());
+    out.push(data::data_block(input, &s.data, data_more_on).0.into());
     out.push(vline(s.legend.x, s.legend.y, s.legend.bottom(), "rule"));
     out.push(legend::legend_block(input, &s.legend, diagram.view.whole).into());
     out.push(vline(s.notes.x, s.notes.y, frame.frame.bottom(), "rule"));
@@ -171,7 +220,7 @@ fn diagram_sheet_blocks(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
         w: s.notes.w - 3.0,
         h: s.notes.h - 3.0,
     };
-    out.push(caution::caution_box(&caution, 2.2).into());
+    out.push(caution::caution_box(&caution, TEXT_FLOOR).into());
 }
 
 fn rect(class: &str, r: &Rect) -> Node {
@@ -186,9 +235,10 @@ fn vline(x: f64, y0: f64, y1: f64, class: &str) -> Node {
     Line::new(class, (x, y0), (x, y1)).into()
 }
 
-/// `s` at (x, y), shrunk (down to 80 %) and then cut to fit `width` mm in its face.
+/// `s` at (x, y), shrunk (down to 80 %, never below the floor) and then cut to fit `width`
+/// mm in its face.
 fn text_fit(x: f64, y: f64, size: f64, width: f64, class: &str, s: &str) -> Text {
     let (weight, _) = text_face(class);
-    let sz = fit_size(s, size, weight, width);
+    let sz = fit_size(s, size, weight, width).max(TEXT_FLOOR.min(size));
     Text::new(x, y, sz, class, cut_to_width(s, sz, weight, width))
 }

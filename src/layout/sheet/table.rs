@@ -4,6 +4,7 @@
 //! Part of the `layout` stage (the sheets).
 
 use crate::layout::font::{Weight, cut_to_width};
+use crate::layout::style::TEXT_FLOOR;
 use crate::layout::tree::{self, Group, Node, Text};
 use crate::winding::EqualizerPlan;
 
@@ -180,7 +181,7 @@ pub(super) fn connection_page(
         .into(),
     );
     let hint = "start lead from the top-layer side, end lead from the bottom-layer side \u{b7} seq = order in the winding trace";
-    out.push(Text::new(c.right() - 2.0, c.y + 6.5, 2.4, "end", hint).into());
+    out.push(Text::new(c.right() - 2.0, c.y + 6.5, TEXT_FLOOR, "end", hint).into());
     let shown = Shown::of(input);
     let cols = connection_columns(shown);
     let mut g = Group::id(format!("table-{}", page.rows.start + 1)).with_class("connection-table");
@@ -285,7 +286,7 @@ pub(super) fn equalizer_page(
         input.design.pole_pairs(),
         e.pitch
     );
-    out.push(Text::new(c.right() - 2.0, c.y + 6.5, 2.4, "end", hint).into());
+    out.push(Text::new(c.right() - 2.0, c.y + 6.5, TEXT_FLOOR, "end", hint).into());
     let cols = equalizer_columns(input.design.pole_pairs(), table_area(frame).w);
     let mut g =
         Group::id(format!("eq-table-{}", page.rows.start + 1)).with_class("equalizer-table");

@@ -3,7 +3,8 @@
 //!
 //! Part of the `layout` stage (the sheets).
 
-use crate::layout::font::{Weight, cut_to_width, text_width};
+use crate::layout::font::{Weight, cut_to_width, text_width, wrap_text};
+use crate::layout::style::TEXT_FLOOR;
 use crate::layout::tree::{self, Group, Text};
 
 use super::{Input, PageFrame, Rect, hline, rect, text_fit, vline};
@@ -22,8 +23,8 @@ pub(super) fn failure_band(band: &Rect, failures: &[String]) -> Group {
     ));
     let x = band.x + 6.0 + text_width(lead, 4.4, Weight::Bold);
     let detail = failures.join("; ");
-    let detail = cut_to_width(&detail, 2.4, Weight::Bold, band.right() - x - 3.0);
-    g.push(Text::new(x, band.y + 5.9, 2.4, "band-text", detail));
+    let detail = cut_to_width(&detail, TEXT_FLOOR, Weight::Bold, band.right() - x - 3.0);
+    g.push(Text::new(x, band.y + 5.9, TEXT_FLOOR, "band-text", detail));
     g
 }
 
@@ -35,9 +36,9 @@ pub(super) fn title_block(input: &Input<'_>, frame: &PageFrame, n: usize, total:
     let mut back = tree::Rect::new("frame", t.x, t.y, t.w, t.h);
     back.fill = Some("#fff");
     g.push(back);
-    let split = t.x + t.w - 34.0;
+    let split = t.x + t.w - 42.0;
     g.push(vline(split, t.y, t.bottom(), "rule"));
-    let rows = [9.0, 6.0, 6.0, 6.0];
+    let rows = [10.0, 7.0, 7.0, 7.0];
     let mut y = t.y;
     let none = "\u{2014}";
     let left: [(&str, String, f64, &str); 4] = [
@@ -86,24 +87,39 @@ pub(super) fn title_block(input: &Input<'_>, frame: &PageFrame, n: usize, total:
         if i > 0 {
             g.push(hline(t.x, t.right(), y, "rule"));
         }
-        let base = y + h - 1.5;
+        // Captions stand left of their values, on the same baseline.
+        let base = y + h - 2.0;
         let (cap, val, size, cls) = &left[i];
-        g.push(Text::new(t.x + 1.5, y + 2.3, 1.8, "", *cap));
-        g.push(text_fit(
-            t.x + 17.0,
-            base,
-            *size,
-            split - t.x - 18.5,
-            cls,
-            val,
-        ));
+        g.push(Text::new(t.x + 1.5, base, TEXT_FLOOR, "", *cap));
+        let (vx, room) = (t.x + 17.5, split - t.x - 19.0);
+        if i == 1 && text_width(val, TEXT_FLOOR, Weight::Regular) > room {
+            // A long title wraps to two lines at the floor rather than being cut.
+            let lines = wrap_text(val, TEXT_FLOOR, Weight::Regular, room);
+            for (k, line) in lines.iter().take(2).enumerate() {
+                let last = k == 1 || lines.len() == 1;
+                let rest = if last {
+                    lines[k..].join(" ")
+                } else {
+                    line.clone()
+                };
+                g.push(Text::new(
+                    vx,
+                    y + 3.0 + k as f64 * 3.0,
+                    TEXT_FLOOR,
+                    "",
+                    cut_to_width(&rest, TEXT_FLOOR, Weight::Regular, room),
+                ));
+            }
+        } else {
+            g.push(text_fit(vx, base, *size, room, cls, val));
+        }
         let (cap, val, size, cls) = &right[i];
-        g.push(Text::new(split + 1.5, y + 2.3, 1.8, "", *cap));
+        g.push(Text::new(split + 1.5, base, TEXT_FLOOR, "", *cap));
         g.push(text_fit(
-            split + 10.0,
+            split + 10.5,
             base,
             *size,
-            t.right() - split - 11.0,
+            t.right() - split - 12.0,
             cls,
             val,
         ));

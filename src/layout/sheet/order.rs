@@ -1,0 +1,218 @@
+//! The winding-order sheets: the coils in the order a shop lays them, slot by slot, with
+//! empty boxes to tick as each coil goes in, is connected and is soldered.
+//!
+//! Part of the `layout` stage (the sheets). The first `span` slots' top sides are left
+//! lifted until the last coils' bottom sides are in (common practice), and the leads are
+//! connected bar by bar once every coil is in.
+
+use crate::base::number::fmt_fixed;
+use crate::design::ConductorShape;
+use crate::layout::font::{Weight, cut_to_width, wrap_text};
+use crate::layout::style::{BODY_TEXT, TEXT_FLOOR};
+use crate::layout::tree::{self, Group, Node, Text};
+
+use super::{Input, PageFrame, Rect, TABLE_HEADER, TABLE_ROW, TablePage, hline};
+
+/// The columns: heading lines and width, mm. The last four are left empty for the shop.
+const COLUMNS: [([&str; 2], f64); 11] = [
+    (["step", ""], 13.0),
+    (["coil", ""], 13.0),
+    (["top", "slot/pos"], 19.0),
+    (["bottom", "slot/pos"], 19.0),
+    (["start", "bar"], 14.0),
+    (["end", "bar"], 14.0),
+    (["turns and wire", ""], 74.0),
+    (["in", ""], 11.0),
+    (["con-", "nected"], 15.0),
+    (["sol-", "dered"], 15.0),
+    (["initials", ""], 20.0),
+];
+/// How many columns carry text; the rest are check-off boxes and the initials.
+const TEXT_COLUMNS: usize = 7;
+
+/// Width of the winding-order table, mm.
+pub(super) fn order_width() -> f64 {
+    COLUMNS.iter().map(|c| c.1).sum()
+}
+
+/// The turns and the wire of one coil in shop words ("4 turns, 2 in hand, Ø1.60").
+fn turns_and_wire(input: &Input<'_>) -> String {
+    let turns = input.design.turns;
+    let mut s = format!("{turns} turn{}", if turns == 1 { "" } else { "s" });
+    if let Some(c) = &input.design.conductor {
+        let (wire, strands) = match c.shape {
+            ConductorShape::Round {
+                diameter_mm,
+                strands,
+                ..
+            } => (format!("\u{d8}{}", fmt_fixed(diameter_mm, 2)), strands),
+            ConductorShape::Rectangular {
+                width_mm,
+                height_mm,
+                strands,
+                ..
+            } => (
+                format!(
+                    "{}\u{d7}{}",
+                    fmt_fixed(width_mm, 2),
+                    fmt_fixed(height_mm, 2)
+                ),
+                strands,
+            ),
+        };
+        s.push_str(&format!(", {strands} in hand, {wire}"));
+    }
+    s
+}
+
+/// Coils whose top sides are left lifted: those in the first `span` slots.
+fn lifted(input: &Input<'_>) -> usize {
+    (input.winding.pitches.span as usize * input.design.coils_per_slot as usize)
+        .min(input.winding.connections.len())
+}
+
+/// The winding-order words at the head of the first page.
+fn order_words(input: &Input<'_>) -> String {
+    let span = input.winding.pitches.span;
+    format!(
+        "Lay the coils slot by slot in step order. Leave the top sides of the coils in slots 1\u{2013}{span} (steps 1\u{2013}{}) lifted until the bottom sides of the last coils are in, then drop them in (common practice). When every coil is in, connect the leads bar by bar from bar 1, ticking each box as it is done.",
+        lifted(input)
+    )
+}
+
+/// Where the table starts on the first page, below the words, mm from the area's top.
+pub(super) fn first_page_drop(input: &Input<'_>, area: &Rect) -> f64 {
+    let lines = wrap_text(
+        &order_words(input),
+        TEXT_FLOOR,
+        Weight::Regular,
+        area.w - 4.0,
+    );
+    lines.len() as f64 * TEXT_FLOOR * 1.3 + 1.5
+}
+
+/// A page of the winding order.
+pub(super) fn order_page(
+    out: &mut Vec<Node>,
+    input: &Input<'_>,
+    frame: &PageFrame,
+    page: &TablePage,
+) {
+    let conns = &input.winding.connections;
+    let c = &frame.content;
+    out.push(
+        Text::new(
+            c.x + 2.0,
+            c.y + 6.5,
+            4.2,
+            "b",
+            format!(
+                "Winding order: steps {}\u{2013}{} of {}",
+                page.rows.start + 1,
+                page.rows.end,
+                conns.len()
+            ),
+        )
+        .into(),
+    );
+    if page.rows.start == 0 {
+        let area = super::table::table_area(frame);
+        let lines = wrap_text(
+            &order_words(input),
+            TEXT_FLOOR,
+            Weight::Regular,
+            area.w - 4.0,
+        );
+        for (i, l) in lines.into_iter().enumerate() {
+            out.push(
+                Text::new(
+                    area.x,
+                    area.y + (i as f64 + 0.8) * TEXT_FLOOR * 1.3,
+                    TEXT_FLOOR,
+                    "",
+                    l,
+                )
+                .into(),
+            );
+        }
+    }
+    let u = input.design.coils_per_slot;
+    let place = |slot: u32, pos: u32| {
+        if u == 1 {
+            slot.to_string()
+        } else {
+            format!("{slot}/{pos}")
+        }
+    };
+    let wire = turns_and_wire(input);
+    let lift = lifted(input);
+    let mut g = Group::id(format!("order-{}", page.rows.start + 1)).with_class("winding-order");
+    for (gx, rows) in &page.groups {
+        let total = order_width();
+        let mut cx = *gx;
+        for (head, width) in COLUMNS {
+            let hx = cx + width - 1.5;
+            g.push(Text::new(hx, page.top + 3.6, 3.0, "b end", head[0]));
+            if !head[1].is_empty() {
+                g.push(Text::new(hx, page.top + 7.3, 3.0, "b end", head[1]));
+            }
+            cx += width;
+        }
+        g.push(hline(
+            *gx,
+            *gx + total,
+            page.top + TABLE_HEADER - 0.3,
+            "rule",
+        ));
+        for (i, r) in rows.clone().enumerate() {
+            let conn = &conns[r];
+            let y = page.top + TABLE_HEADER + (i as f64 + 1.0) * TABLE_ROW - 1.4;
+            let bar = |s: Option<u32>| s.map_or_else(|| "cut".to_string(), |s| s.to_string());
+            let note = if conn.dummy {
+                "dummy: ends cut and taped".to_string()
+            } else if r < lift {
+                format!("{wire}; top lifted")
+            } else {
+                wire.clone()
+            };
+            let cells = [
+                (r + 1).to_string(),
+                conn.coil.to_string(),
+                place(conn.top.slot, conn.top.position),
+                place(conn.bottom.slot, conn.bottom.position),
+                bar(conn.start_segment),
+                bar(conn.end_segment),
+                note,
+            ];
+            let mut row = Group::class("order-row")
+                .with_data("data-step", r + 1)
+                .with_data("data-coil", conn.coil);
+            let mut cx = *gx;
+            for (j, (head, width)) in COLUMNS.iter().enumerate() {
+                if j < TEXT_COLUMNS {
+                    let (x, cls) = if j == TEXT_COLUMNS - 1 {
+                        (cx + 2.0, "")
+                    } else {
+                        (cx + width - 1.5, if j == 1 { "b end" } else { "end" })
+                    };
+                    let (weight, _) = crate::layout::style::text_face(cls);
+                    let text = cut_to_width(&cells[j], BODY_TEXT, weight, width - 3.0);
+                    row.push(Text::new(x, y, BODY_TEXT, cls, text));
+                } else if head[0] != "initials" {
+                    let side = 3.6;
+                    row.push(tree::Rect::new(
+                        "checkbox",
+                        cx + width - 1.5 - side,
+                        y - side + 0.3,
+                        side,
+                        side,
+                    ));
+                }
+                cx += width;
+            }
+            g.push(row);
+            g.push(hline(*gx, *gx + total, y + 1.4, "thin"));
+        }
+    }
+    out.push(g.into());
+}

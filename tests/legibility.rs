@@ -1,0 +1,275 @@
+//! The legibility floor of the printed sheets, checked by walking the page tree: every demo
+//! on every paper, and a sample of random designs.
+//!
+//! - no text under 2.5 mm font size (cap height about 1.8 mm, the smallest nominal lettering
+//!   height of ISO 3098, from memory); table bodies and the winding-data block at least 3.5 mm;
+//! - no two texts overlap, measured with the embedded font's glyph boxes; no text leaves the
+//!   page or crosses the drawing frame;
+//! - neighbouring coil-side lines of the developed diagram at least 1.0 mm apart on paper.
+
+mod support;
+
+use armsheet::layout::font::ink_extent;
+use armsheet::layout::tree::{Node, Page, Text};
+use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
+use proptest::prelude::*;
+
+/// Smallest font size anywhere, mm.
+const FLOOR: f64 = 2.5;
+/// Smallest font size of table bodies and the data block, mm.
+const BODY_FLOOR: f64 = 3.5;
+/// Least distance between neighbouring coil-side lines, mm.
+const SIDE_GAP: f64 = 1.0;
+/// Overlap below this is not counted, mm (far below what the eye sees).
+const SLACK: f64 = 0.02;
+
+const PAPERS: [Paper; 4] = [Paper::A4, Paper::A3, Paper::Letter, Paper::Tabloid];
+
+/// A text placed on the page, with the classes and ids of the groups around it.
+struct Placed<'a> {
+    text: &'a Text,
+    context: Vec<String>,
+    /// Ink box: left, top, right, bottom, mm.
+    bbox: (f64, f64, f64, f64),
+}
+
+fn ink_box(t: &Text, dx: f64, dy: f64) -> (f64, f64, f64, f64) {
+    let (left, right) = t.span();
+    let (up, down) = ink_extent(&t.content, t.size_mm, t.weight);
+    let rad = t.rotate.unwrap_or(0.0).to_radians();
+    let (ax, ay) = (dx + t.x, dy + t.y);
+    let corners = [
+        (left - t.x, -up),
+        (right - t.x, -up),
+        (left - t.x, down),
+        (right - t.x, down),
+    ];
+    let mut b = (f64::MAX, f64::MAX, f64::MIN, f64::MIN);
+    for (ex, ey) in corners {
+        let x = ax + ex * rad.cos() - ey * rad.sin();
+        let y = ay + ex * rad.sin() + ey * rad.cos();
+        b = (b.0.min(x), b.1.min(y), b.2.max(x), b.3.max(y));
+    }
+    b
+}
+
+fn walk<'a>(
+    nodes: &'a [Node],
+    dx: f64,
+    dy: f64,
+    context: &mut Vec<String>,
+    texts: &mut Vec<Placed<'a>>,
+    sides: &mut Vec<f64>,
+) {
+    for n in nodes {
+        match n {
+            Node::Group(g) => {
+                let (tx, ty) = g.translate.unwrap_or((0.0, 0.0));
+                let mut names = Vec::new();
+                names.extend(g.id.clone());
+                names.extend(
+                    g.class
+                        .iter()
+                        .flat_map(|c| c.split(' ').map(str::to_string)),
+                );
+                let depth = context.len();
+                context.extend(names);
+                walk(&g.children, dx + tx, dy + ty, context, texts, sides);
+                context.truncate(depth);
+            }
+            Node::Text(t) if !t.content.trim().is_empty() => texts.push(Placed {
+                text: t,
+                context: context.clone(),
+                bbox: ink_box(t, dx, dy),
+            }),
+            Node::Line(l)
+                if (l.class == "side-top" || l.class == "side-bot")
+                    && context.iter().any(|c| c == "coils") =>
+            {
+                sides.push(dx + l.from.0);
+            }
+            _ => {}
+        }
+    }
+}
+
+/// Every breach of the floor on `page`, worded.
+fn breaches(page: &Page) -> Vec<String> {
+    let mut texts = Vec::new();
+    let mut sides = Vec::new();
+    walk(
+        &page.children,
+        0.0,
+        0.0,
+        &mut Vec::new(),
+        &mut texts,
+        &mut sides,
+    );
+    let frame = page
+        .children
+        .iter()
+        .find_map(|n| match n {
+            Node::Rect(r) if r.class.as_deref() == Some("frame") => {
+                Some((r.x, r.y, r.x + r.w, r.y + r.h))
+            }
+            _ => None,
+        })
+        .unwrap_or((0.0, 0.0, page.width_mm, page.height_mm));
+    let mut out = Vec::new();
+    for p in &texts {
+        let t = p.text;
+        let body = p
+            .context
+            .iter()
+            .any(|c| c == "row" || c == "datum" || c == "order-row");
+        let floor = if body { BODY_FLOOR } else { FLOOR };
+        if t.size_mm < floor - 1e-9 {
+            out.push(format!(
+                "{:?} at {:.2} mm (floor {floor}) in {:?}",
+                t.content, t.size_mm, p.context
+            ));
+        }
+        let b = p.bbox;
+        if b.0 < frame.0 - SLACK
+            || b.1 < frame.1 - SLACK
+            || b.2 > frame.2 + SLACK
+            || b.3 > frame.3 + SLACK
+        {
+            out.push(format!(
+                "{:?} box ({:.1}, {:.1})–({:.1}, {:.1}) leaves the frame",
+                t.content, b.0, b.1, b.2, b.3
+            ));
+        }
+    }
+    let mut order: Vec<usize> = (0..texts.len()).collect();
+    order.sort_by(|&a, &b| texts[a].bbox.0.total_cmp(&texts[b].bbox.0));
+    for (i, &a) in order.iter().enumerate() {
+        let ba = texts[a].bbox;
+        for &b in &order[i + 1..] {
+            let bb = texts[b].bbox;
+            if bb.0 > ba.2 - SLACK {
+                break;
+            }
+            let w = ba.2.min(bb.2) - ba.0.max(bb.0);
+            let h = ba.3.min(bb.3) - ba.1.max(bb.1);
+            if w > SLACK && h > SLACK {
+                out.push(format!(
+                    "{:?} and {:?} overlap by {w:.2} × {h:.2} mm near ({:.1}, {:.1})",
+                    texts[a].text.content,
+                    texts[b].text.content,
+                    ba.0.max(bb.0),
+                    ba.1.max(bb.1)
+                ));
+            }
+        }
+    }
+    sides.sort_by(f64::total_cmp);
+    for w in sides.windows(2) {
+        let gap = w[1] - w[0];
+        if gap < SIDE_GAP - 1e-9 {
+            out.push(format!(
+                "coil sides at x = {:.2} and {:.2} mm are {gap:.2} mm apart",
+                w[0], w[1]
+            ));
+        }
+    }
+    out
+}
+
+/// Breaches of every sheet of `toml` on every paper, worded with where they are.
+fn sheet_breaches(name: &str, toml: &str) -> Vec<String> {
+    let checked = armsheet::check(support::design(toml));
+    let mut out = Vec::new();
+    for paper in PAPERS {
+        let options = SheetOptions {
+            paper,
+            window: Window::Auto,
+            version: "0.0.0".into(),
+        };
+        for (i, page) in sheet_pages(&checked, &options).iter().enumerate() {
+            for b in breaches(page) {
+                out.push(format!("{name} {} sheet {}: {b}", paper.as_str(), i + 1));
+            }
+        }
+    }
+    out
+}
+
+fn report(all: &[String]) -> String {
+    let shown: Vec<&str> = all.iter().take(25).map(String::as_str).collect();
+    format!("{} breaches, first:\n{}", all.len(), shown.join("\n"))
+}
+
+#[test]
+fn every_demo_sheet_meets_the_floor_on_every_paper() {
+    let mut all = Vec::new();
+    for name in support::DEMOS {
+        all.extend(sheet_breaches(name, &support::demo(name)));
+    }
+    assert!(all.is_empty(), "{}", report(&all));
+}
+
+#[test]
+fn the_floor_check_finds_small_overlapping_and_outside_text() {
+    let checked = armsheet::check(support::design(&support::demo("hoist-lap")));
+    let options = SheetOptions {
+        paper: Paper::A4,
+        window: Window::Auto,
+        version: "0.0.0".into(),
+    };
+    let mut page = sheet_pages(&checked, &options).remove(0);
+    assert!(breaches(&page).is_empty(), "{}", report(&breaches(&page)));
+    page.children
+        .push(Text::new(100.0, 100.0, 2.0, "", "small").into());
+    page.children
+        .push(Text::new(100.5, 100.2, 3.0, "", "on top").into());
+    page.children
+        .push(Text::new(295.0, 5.0, 3.0, "", "outside").into());
+    let found = breaches(&page).join("\n");
+    assert!(found.contains("\"small\" at 2.00 mm"), "{found}");
+    assert!(found.contains("overlap"), "{found}");
+    assert!(found.contains("\"outside\" box"), "{found}");
+}
+
+#[derive(Debug, Clone)]
+struct Case {
+    poles: u32,
+    slots: u32,
+    u: u32,
+    wave: bool,
+    m: u32,
+}
+
+fn case() -> impl Strategy<Value = Case> {
+    (1u32..=4, 1u32..=3, any::<bool>(), 1u32..=2).prop_flat_map(|(pp, u, wave, m)| {
+        let pp = if wave { pp.max(2) } else { pp };
+        let poles = 2 * pp;
+        let min_slots = ((m + 2) * poles + pp).div_ceil(u).max(poles + 1);
+        (min_slots..=min_slots + 90).prop_map(move |slots| Case {
+            poles,
+            slots,
+            u,
+            wave,
+            m,
+        })
+    })
+}
+
+proptest! {
+    #![proptest_config(support::properties(12))]
+
+    #[test]
+    fn random_designs_meet_the_floor(c in case()) {
+        let span = (c.slots / c.poles).max(1);
+        let toml = format!(
+            "[job]\nid = \"R-{s}\"\ntitle = \"Random design {p}-pole, {s} slots, u = {u}\"\n\n[armature]\npoles = {p}\nslots = {s}\ncoils_per_slot = {u}\n\n[winding]\ntype = \"{t}\"\nmultiplicity = {m}\nspan = {span}\nturns = 3\n",
+            p = c.poles,
+            s = c.slots,
+            u = c.u,
+            t = if c.wave { "wave" } else { "lap" },
+            m = c.m,
+        );
+        let all = sheet_breaches("random", &toml);
+        prop_assert!(all.is_empty(), "{}\n{}", toml, report(&all));
+    }
+}
