@@ -133,6 +133,7 @@ pub fn test_plot_page(t: &ArmatureTest, title: &str) -> Page {
     Page {
         kind: PageKind::TestPlot,
         title: title.to_string(),
+        document: title.to_string(),
         width_mm: W,
         height_mm: H,
         unit: PageUnit::Millimetres,

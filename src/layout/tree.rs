@@ -36,7 +36,7 @@ pub enum PageKind {
 
 impl PageKind {
     /// The page's name in the root `data-page` attribute: `developed`, `commutator-end`, `winding-order`, `winding-data`,
-    /// `connections` or `equalizers`.
+    /// `connections`, `equalizers` or `test-readings`.
     pub fn data_page(self) -> &'static str {
         match self {
             PageKind::Screen | PageKind::Diagram => "developed",
@@ -45,6 +45,7 @@ impl PageKind {
             PageKind::WindingData => "winding-data",
             PageKind::Connections => "connections",
             PageKind::Equalizers => "equalizers",
+            PageKind::TestPlot => "test-readings",
         }
     }
 }
