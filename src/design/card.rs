@@ -28,7 +28,7 @@ use toml::de::{DeTable, DeValue};
 use super::Diagnostic;
 use super::diagnostic::Diagnostics;
 use super::model::{ConductorShape, HalfBars, Job, Rotation, bounds};
-use super::parse::{header_span, toml_error, utf8};
+use super::parse::{header_span, read_all, toml_error, utf8};
 use super::reader::{At, Found, Source, TableReader, nearest};
 use super::tables::{armature, conductor, job, winding};
 use crate::base::visible::{ECHO_WIDTH, clip};
@@ -104,20 +104,7 @@ pub fn parse_card_bytes(bytes: &[u8], file: &str) -> Result<Card, Diagnostics> {
 
 /// Parses and validates a data card held in `text`; `file` names it in diagnostics.
 pub fn parse_card(text: &str, file: &str) -> Result<Card, Diagnostics> {
-    let found = Found::default();
-    let read = read_card(text, file, &found);
-    let mut list = found.into_vec();
-    let card = read.unwrap_or_else(|stop| {
-        list.push(stop);
-        None
-    });
-    match Diagnostics::new(list) {
-        Some(all) => Err(all),
-        None => card.ok_or_else(|| {
-            // Not reached: a reader that returns nothing records why.
-            Diagnostic::new(file, text, 0..0, "file", "the card could not be read").into()
-        }),
-    }
+    read_all(text, file, "card", |found| read_card(text, file, found))
 }
 
 fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diagnostic> {

@@ -65,18 +65,37 @@ pub(crate) fn utf8<'b>(bytes: &'b [u8], file: &str, what: &str) -> Result<&'b st
 /// Parses and validates a design held in `text`; `file` names it in diagnostics. On failure
 /// every problem found is returned, in source order.
 pub fn parse_design(text: &str, file: &str) -> Result<Design, Diagnostics> {
+    read_all(text, file, "design", |found| read_design(text, file, found))
+}
+
+/// Runs `read` with a fresh record of problems and returns what it read, or every problem
+/// recorded (in source order) followed by the one that stopped it. `what` names the kind of
+/// file ("design", "card") in the fallback message.
+pub(super) fn read_all<T>(
+    text: &str,
+    file: &str,
+    what: &str,
+    read: impl FnOnce(&Found) -> Result<Option<T>, Diagnostic>,
+) -> Result<T, Diagnostics> {
     let found = Found::default();
-    let read = read_design(text, file, &found);
+    let result = read(&found);
     let mut list = found.into_vec();
-    let design = read.unwrap_or_else(|stop| {
+    let value = result.unwrap_or_else(|stop| {
         list.push(stop);
         None
     });
     match Diagnostics::new(list) {
         Some(all) => Err(all),
-        None => design.ok_or_else(|| {
+        None => value.ok_or_else(|| {
             // Not reached: a reader that returns nothing records why.
-            Diagnostic::new(file, text, 0..0, "file", "the design could not be read").into()
+            Diagnostic::new(
+                file,
+                text,
+                0..0,
+                "file",
+                format!("the {what} could not be read"),
+            )
+            .into()
         }),
     }
 }
