@@ -11,6 +11,7 @@ use crate::layout::font::{Weight, cut_to_width, wrap_text};
 use crate::layout::style::{BODY_TEXT, TEXT_FLOOR};
 use crate::layout::tree::{self, Group, Node, Text};
 
+use super::table::page_heading;
 use super::{Input, PageFrame, Rect, TABLE_HEADER, TABLE_ROW, TablePage, hline};
 
 /// The columns: heading lines and width, mm. The last four are left empty for the shop.
@@ -100,21 +101,15 @@ pub(super) fn order_page(
 ) {
     let conns = &input.winding.connections;
     let c = &frame.content;
-    out.push(
-        Text::new(
-            c.x + 2.0,
-            c.y + 6.5,
-            4.2,
-            "b",
-            format!(
-                "Winding order: steps {}\u{2013}{} of {}",
-                page.rows.start + 1,
-                page.rows.end,
-                conns.len()
-            ),
-        )
-        .into(),
-    );
+    out.push(page_heading(
+        c,
+        format!(
+            "Winding order: steps {}\u{2013}{} of {}",
+            page.rows.start + 1,
+            page.rows.end,
+            conns.len()
+        ),
+    ));
     if page.rows.start == 0 {
         let area = super::table::table_area(frame);
         let lines = wrap_text(

@@ -16,6 +16,7 @@ use crate::theory::words::half_bars_words;
 use crate::winding::Polarity;
 
 use super::rows::signed;
+use super::table::page_heading;
 use super::{Input, PageFrame};
 
 /// A point `r` mm from the centre at `deg` (clockwise from twelve o'clock).
@@ -37,16 +38,10 @@ pub(super) fn ring_page(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
     let c = &frame.content;
     let s_count = d.slots;
     let bars = w.active_coils;
-    out.push(
-        Text::new(
-            c.x + 2.0,
-            c.y + 6.5,
-            4.2,
-            "b",
-            "Commutator end view: the armature seen from the commutator end",
-        )
-        .into(),
-    );
+    out.push(page_heading(
+        c,
+        "Commutator end view: the armature seen from the commutator end",
+    ));
     // The ring on the left, the words on the right.
     let words_w = (c.w * 0.38).min(130.0);
     let room_w = c.w - words_w - 6.0;

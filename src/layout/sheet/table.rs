@@ -10,6 +10,14 @@ use crate::winding::EqualizerPlan;
 
 use super::{Input, PageFrame, Rect, TABLE_FONT, TABLE_HEADER, TABLE_ROW, TablePage, hline};
 
+/// Font size of a page heading after sheet 1, mm.
+const HEADING_SIZE: f64 = 4.2;
+
+/// The heading of a page after sheet 1: bold, at the top left of the content area `c`.
+pub(super) fn page_heading(c: &Rect, text: impl Into<String>) -> Node {
+    Text::new(c.x + 2.0, c.y + 6.5, HEADING_SIZE, "b", text).into()
+}
+
 /// One column of a table.
 struct Column {
     head: [&'static str; 2],
@@ -167,19 +175,13 @@ pub(super) fn connection_page(
     let last = conns
         .get(page.rows.end.saturating_sub(1))
         .map_or(0, |r| r.coil);
-    out.push(
-        Text::new(
-            c.x + 2.0,
-            c.y + 6.5,
-            4.2,
-            "b",
-            format!(
-                "Connection table: coils {first}\u{2013}{last} of {}",
-                conns.len()
-            ),
-        )
-        .into(),
-    );
+    out.push(page_heading(
+        c,
+        format!(
+            "Connection table: coils {first}\u{2013}{last} of {}",
+            conns.len()
+        ),
+    ));
     let hint = "start lead from the top-layer side, end lead from the bottom-layer side \u{b7} seq = order in the winding trace";
     out.push(Text::new(c.right() - 2.0, c.y + 6.5, TEXT_FLOOR, "end", hint).into());
     let shown = Shown::of(input);
@@ -267,20 +269,14 @@ pub(super) fn equalizer_page(
         return;
     };
     let c = &frame.content;
-    out.push(
-        Text::new(
-            c.x + 2.0,
-            c.y + 6.5,
-            4.2,
-            "b",
-            format!(
-                "Equalizer table: rings {}\u{2013}{} of {total}",
-                page.rows.start + 1,
-                page.rows.end
-            ),
-        )
-        .into(),
-    );
+    out.push(page_heading(
+        c,
+        format!(
+            "Equalizer table: rings {}\u{2013}{} of {total}",
+            page.rows.start + 1,
+            page.rows.end
+        ),
+    ));
     let hint = format!(
         "each ring joins {} segments {} apart (two pole pitches, 2C/P)",
         input.design.pole_pairs(),
