@@ -68,9 +68,15 @@ pub(crate) struct Run {
     pub emf: i64,
 }
 
-/// Cuts every closed winding at the touched segments.
-pub(crate) fn runs(cycles: &[ClosedWinding], mark: &[i32], emf: &[i64]) -> Vec<Run> {
-    let mut out = Vec::new();
+/// Walks every closed winding that a brush touches from its first touched segment, calling
+/// `visit` with each coil in trace order and, when the coil ends on a touched segment, the
+/// (from brush, to brush) of the run it closes. Every walk ends on the segment it began at, so
+/// each run is closed before the next winding starts.
+fn cut_cycles(
+    cycles: &[ClosedWinding],
+    mark: &[i32],
+    mut visit: impl FnMut(u32, Option<(usize, usize)>),
+) {
     for cycle in cycles {
         let steps = &cycle.steps;
         let Some(first) = steps
@@ -80,25 +86,36 @@ pub(crate) fn runs(cycles: &[ClosedWinding], mark: &[i32], emf: &[i64]) -> Vec<R
             continue;
         };
         let mut from = mark[(steps[first].from_segment - 1) as usize] as usize;
-        let mut coils = Vec::new();
-        let mut sum = 0;
         for k in 0..steps.len() {
             let step = steps[(first + k) % steps.len()];
-            coils.push(step.coil);
-            sum += emf[(step.coil - 1) as usize];
             let at = mark[(step.to_segment - 1) as usize];
             if at >= 0 {
-                out.push(Run {
-                    from,
-                    to: at as usize,
-                    coils: std::mem::take(&mut coils),
-                    emf: sum,
-                });
-                sum = 0;
+                visit(step.coil, Some((from, at as usize)));
                 from = at as usize;
+            } else {
+                visit(step.coil, None);
             }
         }
     }
+}
+
+/// Cuts every closed winding at the touched segments.
+pub(crate) fn runs(cycles: &[ClosedWinding], mark: &[i32], emf: &[i64]) -> Vec<Run> {
+    let mut out = Vec::new();
+    let mut coils = Vec::new();
+    let mut sum = 0;
+    cut_cycles(cycles, mark, |coil, cut| {
+        coils.push(coil);
+        sum += emf[(coil - 1) as usize];
+        if let Some((from, to)) = cut {
+            out.push(Run {
+                from,
+                to,
+                coils: std::mem::take(&mut coils),
+                emf: std::mem::take(&mut sum),
+            });
+        }
+    });
     out
 }
 
@@ -110,27 +127,13 @@ pub(crate) fn run_emfs(
     emf: &[i64],
 ) -> Vec<(usize, usize, i64)> {
     let mut out = Vec::new();
-    for cycle in cycles {
-        let steps = &cycle.steps;
-        let Some(first) = steps
-            .iter()
-            .position(|s| mark[(s.from_segment - 1) as usize] >= 0)
-        else {
-            continue;
-        };
-        let mut from = mark[(steps[first].from_segment - 1) as usize] as usize;
-        let mut sum = 0;
-        for k in 0..steps.len() {
-            let step = steps[(first + k) % steps.len()];
-            sum += emf[(step.coil - 1) as usize];
-            let at = mark[(step.to_segment - 1) as usize];
-            if at >= 0 {
-                out.push((from, at as usize, sum));
-                sum = 0;
-                from = at as usize;
-            }
+    let mut sum = 0;
+    cut_cycles(cycles, mark, |coil, cut| {
+        sum += emf[(coil - 1) as usize];
+        if let Some((from, to)) = cut {
+            out.push((from, to, std::mem::take(&mut sum)));
         }
-    }
+    });
     out
 }
 
