@@ -5,12 +5,15 @@
 //!   height of ISO 3098, from memory); table bodies and the winding-data block at least 3.5 mm;
 //! - no two texts overlap, measured with the embedded font's glyph boxes; no text leaves the
 //!   page or crosses the drawing frame;
-//! - neighbouring coil-side lines of the developed diagram at least 1.0 mm apart on paper.
+//! - neighbouring coil-side lines of the developed diagram at least 1.0 mm apart on paper;
+//! - every line cut at an edge of the developed diagram ends in one dot with one label
+//!   (coil→slot or bar), dots on an edge at least 1.0 mm apart, and in the whole view both
+//!   edges carry the same labels in the same order.
 
 mod support;
 
 use armsheet::layout::font::ink_extent;
-use armsheet::layout::tree::{Node, Page, Text};
+use armsheet::layout::tree::{Circle, Group, Node, Page, Text};
 use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
 use proptest::prelude::*;
 
@@ -60,6 +63,7 @@ fn walk<'a>(
     context: &mut Vec<String>,
     texts: &mut Vec<Placed<'a>>,
     sides: &mut Vec<f64>,
+    dots: &mut Vec<(f64, f64)>,
 ) {
     for n in nodes {
         match n {
@@ -74,7 +78,7 @@ fn walk<'a>(
                 );
                 let depth = context.len();
                 context.extend(names);
-                walk(&g.children, dx + tx, dy + ty, context, texts, sides);
+                walk(&g.children, dx + tx, dy + ty, context, texts, sides, dots);
                 context.truncate(depth);
             }
             Node::Text(t) if !t.content.trim().is_empty() => texts.push(Placed {
@@ -88,6 +92,9 @@ fn walk<'a>(
             {
                 sides.push(dx + l.from.0);
             }
+            Node::Circle(c) if c.class == "cutdot" && context.iter().any(|c| c == "coils") => {
+                dots.push((dx + c.cx, dy + c.cy))
+            }
             _ => {}
         }
     }
@@ -97,6 +104,7 @@ fn walk<'a>(
 fn breaches(page: &Page) -> Vec<String> {
     let mut texts = Vec::new();
     let mut sides = Vec::new();
+    let mut dots = Vec::new();
     walk(
         &page.children,
         0.0,
@@ -104,6 +112,7 @@ fn breaches(page: &Page) -> Vec<String> {
         &mut Vec::new(),
         &mut texts,
         &mut sides,
+        &mut dots,
     );
     let frame = page
         .children
@@ -163,6 +172,7 @@ fn breaches(page: &Page) -> Vec<String> {
             }
         }
     }
+    out.extend(edge_breaches(&texts, &dots));
     sides.sort_by(f64::total_cmp);
     for w in sides.windows(2) {
         let gap = w[1] - w[0];
@@ -172,6 +182,69 @@ fn breaches(page: &Page) -> Vec<String> {
                 w[0], w[1]
             ));
         }
+    }
+    out
+}
+
+/// Least distance between two dots on one edge, mm.
+const DOT_GAP: f64 = 1.0;
+
+/// The edge-label breaches of a developed diagram: a dot without its own label, two dots
+/// closer than [`DOT_GAP`], and in the whole view edges that read differently.
+fn edge_breaches(texts: &[Placed<'_>], dots: &[(f64, f64)]) -> Vec<String> {
+    let mut out = Vec::new();
+    let whole = texts
+        .iter()
+        .any(|p| p.text.content.starts_with("whole armature shown"));
+    let mut edges: Vec<f64> = dots.iter().map(|d| d.0).collect();
+    edges.sort_by(f64::total_cmp);
+    edges.dedup_by(|a, b| (*a - *b).abs() < 0.01);
+    let mut sequences = Vec::new();
+    for &x in &edges {
+        let mut ys: Vec<f64> = dots
+            .iter()
+            .filter(|d| (d.0 - x).abs() < 0.01)
+            .map(|d| d.1)
+            .collect();
+        ys.sort_by(f64::total_cmp);
+        for w in ys.windows(2) {
+            if w[1] - w[0] < DOT_GAP - 1e-9 {
+                out.push(format!(
+                    "edge dots at x = {x:.1}, y = {:.2} and {:.2} mm are {:.2} mm apart",
+                    w[0],
+                    w[1],
+                    w[1] - w[0]
+                ));
+            }
+        }
+        let mut labels: Vec<(f64, &str)> = texts
+            .iter()
+            .filter(|p| {
+                p.text.class.split(' ').any(|c| c == "cut-label")
+                    && ((p.bbox.0 - x).abs() < 3.5 || (p.bbox.2 - x).abs() < 3.5)
+            })
+            .map(|p| (p.bbox.3, p.text.content.as_str()))
+            .collect();
+        labels.sort_by(|a, b| a.0.total_cmp(&b.0));
+        if labels.len() != ys.len() {
+            out.push(format!(
+                "edge at x = {x:.1} has {} dots and {} labels",
+                ys.len(),
+                labels.len()
+            ));
+        }
+        sequences.push(
+            labels
+                .into_iter()
+                .map(|l| l.1.to_string())
+                .collect::<Vec<_>>(),
+        );
+    }
+    if whole && sequences.len() == 2 && sequences[0] != sequences[1] {
+        out.push(format!(
+            "the edges read differently: {:?} / {:?}",
+            sequences[0], sequences[1]
+        ));
     }
     out
 }
@@ -225,10 +298,32 @@ fn the_floor_check_finds_small_overlapping_and_outside_text() {
         .push(Text::new(100.5, 100.2, 3.0, "", "on top").into());
     page.children
         .push(Text::new(295.0, 5.0, 3.0, "", "outside").into());
+    // An extra edge dot beside the first one, with no label of its own.
+    let first_dot = page.children.iter().find_map(|n| first_cut_dot(n, 0.0, 0.0));
+    let (dx, dy) = first_dot.expect("hoist-lap's whole view has edge dots");
+    let mut coils = Group::id("coils");
+    coils.push(Circle::new("cutdot", dx, dy + 0.5, 0.35));
+    page.children.push(coils.into());
     let found = breaches(&page).join("\n");
+    assert!(found.contains("0.50 mm apart"), "{found}");
+    assert!(found.contains("dots and"), "{found}");
     assert!(found.contains("\"small\" at 2.00 mm"), "{found}");
     assert!(found.contains("overlap"), "{found}");
     assert!(found.contains("\"outside\" box"), "{found}");
+}
+
+/// The page position of the first edge dot under `n`.
+fn first_cut_dot(n: &Node, dx: f64, dy: f64) -> Option<(f64, f64)> {
+    match n {
+        Node::Group(g) => {
+            let (tx, ty) = g.translate.unwrap_or((0.0, 0.0));
+            g.children
+                .iter()
+                .find_map(|c| first_cut_dot(c, dx + tx, dy + ty))
+        }
+        Node::Circle(c) if c.class == "cutdot" => Some((dx + c.cx, dy + c.cy)),
+        _ => None,
+    }
 }
 
 #[derive(Debug, Clone)]

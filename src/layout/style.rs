@@ -206,6 +206,10 @@ fn build_table() -> Vec<Rule> {
         ),
         rule(&["eqdot"], vec![Fill(Some("#6b4b2a"))]),
         rule(&["cutdot"], vec![Fill(Some(INK)), none(Stroke)]),
+        rule(
+            &["leader"],
+            vec![none(Fill), Stroke(Some(INK)), StrokeWidth(0.15)],
+        ),
         rule(&["arrow-head"], vec![none(Stroke)]),
         rule(
             &["mark"],

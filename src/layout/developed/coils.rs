@@ -1,8 +1,8 @@
 //! The coils of the developed diagram: sides, back end connections, leads and edge cuts.
 //!
-//! Part of the `layout` stage (the developed diagram). In the whole view a line cut at an
-//! edge re-enters at the other edge and both cuts carry the coil number; in a window the cut
-//! carries the slot or segment number it leads to.
+//! Part of the `layout` stage (the developed diagram). Every line cut at an edge carries one
+//! label naming its coil and the slot or bar it goes to ([`edge_label`]); in the whole view
+//! the line re-enters at the other edge and both cuts carry the same label.
 
 use crate::winding::{Connection, Winding};
 
@@ -17,8 +17,9 @@ pub struct EdgeCut {
     pub at: Point,
     /// True at the right edge.
     pub right: bool,
-    /// The label: the coil number in the whole view, else what lies beyond ("slot 23", "seg 45");
-    /// empty when there was no room for it beside its neighbours (the dot is still drawn).
+    /// The label, [`edge_label`]: the coil and the slot or bar its line goes to ("32→s4",
+    /// "32→b33"); empty when there was no room for it beside its neighbours (the dot is still
+    /// drawn).
     pub label: String,
     /// Baseline of the label, moved off its neighbours where needed.
     pub label_y: f64,
@@ -66,10 +67,26 @@ pub struct CoilDrawing {
     pub tag: Option<Point>,
 }
 
-/// What the far end of a cut line is, for the window labels.
-pub(super) struct Ends {
-    pub(super) origin: String,
-    pub(super) destination: String,
+/// What the far end of a line is: the slot of a back connection's bottom side, the bar of a
+/// lead, nothing for a dummy's cut lead.
+#[derive(Clone, Copy, Debug)]
+pub enum Goes {
+    /// The slot of a back connection's bottom side.
+    Slot(u32),
+    /// The bar of a lead.
+    Bar(u32),
+    /// A dummy coil's cut lead.
+    Cut,
+}
+
+/// The label of a line cut at an edge: its coil, an arrow and where the line goes ("s" a
+/// slot, "b" a bar); the same at both edges of the whole view.
+pub fn edge_label(coil: u32, goes: Goes) -> String {
+    match goes {
+        Goes::Slot(s) => format!("{coil}\u{2192}s{s}"),
+        Goes::Bar(b) => format!("{coil}\u{2192}b{b}"),
+        Goes::Cut => format!("{coil} dead"),
+    }
 }
 
 pub(super) fn coil_drawing(
@@ -77,8 +94,9 @@ pub(super) fn coil_drawing(
     winding: &Winding,
     geo: &Geo,
     bands: &Bands,
-    top_deg: f64,
-    bottom_deg: f64,
+    (top_deg, bottom_deg): (f64, f64),
+    whole_coils: bool,
+    lean: f64,
 ) -> Option<CoilDrawing> {
     let coil = conn.coil;
     let xt = geo.x(top_deg);
@@ -122,21 +140,19 @@ pub(super) fn coil_drawing(
         }
     }
     let (ct, cb) = bands.core;
-    let xm = (xt + xb) / 2.0;
+    // The back apex, leant off the coil's centre by `lean` mm (the same for every coil).
+    let xm = (xt + xb) / 2.0 + lean;
     d.tag = [xm, xm - geo.turn, xm + geo.turn]
         .into_iter()
         .find(|&x| geo.inside(x))
         .map(|x| (x, bands.back_apex - 0.6));
-    let coil_label = coil.to_string();
-    let top_slot = format!("slot {}", conn.top.slot);
-    let bottom_slot = format!("slot {}", conn.bottom.slot);
-
     let back = [(xt, ct), (xm, bands.back_apex), (xb, ct)];
-    let ends = Ends {
-        origin: top_slot.clone(),
-        destination: bottom_slot.clone(),
-    };
-    d.back = add_pieces(geo, &back, &ends, &coil_label, &mut d.cuts);
+    d.back = add_pieces(
+        geo,
+        &back,
+        &edge_label(coil, Goes::Slot(conn.bottom.slot)),
+        &mut d.cuts,
+    );
 
     let lead = |x_side: f64, seg: Option<u32>| -> Vec<Point> {
         match seg {
@@ -157,21 +173,16 @@ pub(super) fn coil_drawing(
             None => vec![(x_side, cb), (x_side, cb + 3.0)],
         }
     };
-    let seg_name = |s: Option<u32>| s.map_or_else(|| "cut".to_string(), |s| format!("seg {s}"));
+    let goes = |s: Option<u32>| s.map_or(Goes::Cut, Goes::Bar);
     let start = lead(xt, conn.start_segment);
-    let ends = Ends {
-        origin: top_slot,
-        destination: seg_name(conn.start_segment),
-    };
-    d.start_lead = add_pieces(geo, &start, &ends, &coil_label, &mut d.cuts);
+    let label = edge_label(coil, goes(conn.start_segment));
+    d.start_lead = add_pieces(geo, &start, &label, &mut d.cuts);
     let end = lead(xb, conn.end_segment);
-    let ends = Ends {
-        origin: bottom_slot,
-        destination: seg_name(conn.end_segment),
-    };
-    d.end_lead = add_pieces(geo, &end, &ends, &coil_label, &mut d.cuts);
+    let label = edge_label(coil, goes(conn.end_segment));
+    d.end_lead = add_pieces(geo, &end, &label, &mut d.cuts);
 
-    // A window shows the coils whose top side lies in it, each whole or cut at an edge.
+    // A window shows the coils lying wholly in it (both sides in view; `whole_coils`), or
+    // when none does, those whose top side lies in it, each whole or cut at an edge.
     let anything = if geo.whole {
         d.top.is_some()
             || d.bottom.is_some()
@@ -179,7 +190,7 @@ pub(super) fn coil_drawing(
             || !d.start_lead.is_empty()
             || !d.end_lead.is_empty()
     } else {
-        d.top.is_some()
+        d.top.is_some() && (!whole_coils || d.bottom.is_some())
     };
     anything.then_some(d)
 }
@@ -187,25 +198,17 @@ pub(super) fn coil_drawing(
 pub(super) fn add_pieces(
     geo: &Geo,
     pts: &[Point],
-    ends: &Ends,
-    coil_label: &str,
+    label: &str,
     cuts: &mut Vec<EdgeCut>,
 ) -> Vec<Vec<Point>> {
     let mut out = Vec::new();
     for (piece, cut_start, cut_end) in geo.polyline(pts) {
-        let label = |far: &str| {
-            if geo.whole {
-                coil_label.to_string()
-            } else {
-                far.to_string()
-            }
-        };
         if cut_start {
             let at = piece[0];
             cuts.push(EdgeCut {
                 at,
                 right: at.0 > (geo.strip.0 + geo.strip.1) / 2.0,
-                label: label(&ends.origin),
+                label: label.to_string(),
                 label_y: at.1 + 0.65,
             });
         }
@@ -214,7 +217,7 @@ pub(super) fn add_pieces(
             cuts.push(EdgeCut {
                 at,
                 right: at.0 > (geo.strip.0 + geo.strip.1) / 2.0,
-                label: label(&ends.destination),
+                label: label.to_string(),
                 label_y: at.1 + 0.65,
             });
         }

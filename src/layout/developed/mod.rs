@@ -31,14 +31,14 @@ use super::font::{Weight, text_width};
 use super::style::{SIDE_GAP, TEXT_FLOOR};
 
 pub use bands::{Bands, MAX_RING_ROWS};
-pub use coils::{CoilDrawing, EdgeCut, SideLine};
+pub use coils::{CoilDrawing, EdgeCut, Goes, SideLine, edge_label};
 pub use equalizers::{EqualizerBand, EqualizerDrawing, equalizer_choice_words};
 pub use view::{LEGIBLE_SEGMENTS, View, Window, resolve_view};
 
 use coils::coil_drawing;
 use equalizers::equalizer_band;
 pub use labels::tag_text;
-use labels::{EDGE_LABEL_GAP, label_spot, space_edge_labels, thin_tags};
+use labels::{EDGE_LABEL_GAP, label_spot, place_edge_labels, thin_tags};
 use view::Geo;
 
 /// A point in mm.
@@ -134,8 +134,37 @@ pub struct Diagram {
     pub label_size: f64,
 }
 
-/// Gutter either side of the strip for edge labels, mm.
+/// Least gutter either side of the strip, mm: the band names and the edge labels.
 const GUTTER: f64 = 16.0;
+/// From an edge dot to its label, mm (the leader).
+pub(super) const LEADER: f64 = 3.0;
+/// Room the band names ("back", "front") take at the outer side of the left gutter, mm.
+const BAND_NAMES: f64 = 4.0;
+
+/// The gutter either side of the strip that `d`'s edge labels need: the widest beside its
+/// leader, and the band names.
+fn gutter_needed(d: &Diagram) -> f64 {
+    let widest = d
+        .coils
+        .iter()
+        .flat_map(|c| c.cuts.iter())
+        .map(|cut| text_width(&cut.label, TEXT_FLOOR, Weight::Regular))
+        .fold(0.0, f64::max);
+    (LEADER + widest + 0.8 + BAND_NAMES).max(GUTTER)
+}
+
+/// Lays out the developed diagram of `winding` in a box of the given size: first with the
+/// least gutter, then, when its edge labels need more, once more with that gutter (a wider
+/// gutter shows no more slots, so no wider label comes in).
+pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOptions) -> Diagram {
+    let d = layout_in(design, winding, options, GUTTER);
+    let need = gutter_needed(&d);
+    if need > GUTTER + 1e-9 {
+        layout_in(design, winding, options, need)
+    } else {
+        d
+    }
+}
 
 /// Share of the slot pitch over which a slot's coil sides are spread.
 pub(crate) const SIDE_SPREAD: f64 = 0.85;
@@ -151,30 +180,166 @@ fn min_slot_pitch(design: &Design, winding: &Winding) -> f64 {
     sides.max(numbers) + 1e-6
 }
 
-/// Lays out the developed diagram of `winding` in a box of the given size.
-pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOptions) -> Diagram {
+/// Dots closer than this on one edge, mm, read as one dot.
+const DOT_GAP: f64 = 1.2;
+
+/// How far the back apex may lean off the coil's centre, in slot pitches, tried in order
+/// when the seam alone cannot keep the dots apart: lines crossing each other on the seam
+/// then cross beside it.
+const APEX_LEANS: [f64; 5] = [0.0, 0.2, -0.2, 0.35, -0.35];
+
+/// Where the whole view's seam may fall, as the share of a slot pitch between the left edge
+/// and the first slot's centre: 0.5 first, then steps either side while the slot box (0.8 of
+/// the pitch) and the outermost coil side stay clear of the edge.
+fn seam_offsets(u: u32, whole: bool) -> Vec<f64> {
+    let outermost = SIDE_SPREAD * (0.5 - 0.25 / f64::from(u));
+    let lo = outermost.max(0.4) + 0.02;
+    let mut out = vec![0.5];
+    if whole {
+        for k in 1..=8 {
+            let d = 0.01 * f64::from(k);
+            if 0.5 - d >= lo {
+                out.extend([0.5 - d, 0.5 + d]);
+            }
+        }
+    }
+    out
+}
+
+/// The least distance between two dots on one edge, mm (infinite with fewer than two).
+fn least_dot_gap(coils: &[CoilDrawing]) -> f64 {
+    let mut least = f64::INFINITY;
+    for right in [false, true] {
+        let mut ys: Vec<f64> = coils
+            .iter()
+            .flat_map(|c| c.cuts.iter())
+            .filter(|cut| cut.right == right)
+            .map(|cut| cut.at.1)
+            .collect();
+        ys.sort_by(f64::total_cmp);
+        for w in ys.windows(2) {
+            least = least.min(w[1] - w[0]);
+        }
+    }
+    least
+}
+
+/// The coils drawn, at the first seam offset that keeps every pair of dots on an edge
+/// [`DOT_GAP`] apart (else the one that comes nearest): two lines meeting an edge at one
+/// point would put two labels on one dot. A window draws the coils lying wholly in it, or
+/// when none does those whose top side lies in it.
+fn seam_and_coils(
+    design: &Design,
+    winding: &Winding,
+    bands: &Bands,
+    whole: bool,
+    geo_at: &dyn Fn(f64) -> Geo,
+) -> (f64, Vec<CoilDrawing>) {
+    let mut best: Option<(f64, f64, Vec<CoilDrawing>)> = None;
+    let leans: &[f64] = if whole { &APEX_LEANS } else { &[0.0] };
+    'search: for &lean in leans {
+        for seam in seam_offsets(design.coils_per_slot, whole) {
+            let geo = geo_at(seam);
+            let lean_mm = lean * geo.scale * 360.0 / f64::from(design.slots);
+            let mut coils = draw_coils(design, winding, &geo, bands, !whole, lean_mm);
+            if !whole && coils.is_empty() {
+                coils = draw_coils(design, winding, &geo, bands, false, lean_mm);
+            }
+            let gap = least_dot_gap(&coils);
+            let better = best.as_ref().is_none_or(|b| gap > b.0 + 1e-9);
+            if better {
+                best = Some((gap, seam, coils));
+            }
+            if gap >= DOT_GAP {
+                break 'search;
+            }
+        }
+    }
+    let (_, seam, coils) = best.expect("at least one seam offset");
+    (seam, coils)
+}
+
+/// Every coil with anything to draw in `geo` (`whole_coils`: only those with both sides in
+/// view, for a window).
+fn draw_coils(
+    design: &Design,
+    winding: &Winding,
+    geo: &Geo,
+    bands: &Bands,
+    whole_coils: bool,
+    lean: f64,
+) -> Vec<CoilDrawing> {
+    let u = design.coils_per_slot;
+    let slot_deg = 360.0 / f64::from(design.slots);
+    let side_deg = |slot: u32, position: u32, bottom: bool| {
+        let j = 2 * (position - 1) + u32::from(bottom);
+        let frac = SIDE_SPREAD * ((f64::from(j) + 0.5) / f64::from(2 * u) - 0.5);
+        (f64::from(slot - 1) + frac) * slot_deg
+    };
+    winding
+        .connections
+        .iter()
+        .filter_map(|conn| {
+            let top_deg = side_deg(conn.top.slot, conn.top.position, false);
+            let forward = (conn.bottom.slot + design.slots - conn.top.slot) % design.slots;
+            let bottom_deg =
+                side_deg(conn.top.slot, conn.bottom.position, true) + f64::from(forward) * slot_deg;
+            coil_drawing(
+                conn,
+                winding,
+                geo,
+                bands,
+                (top_deg, bottom_deg),
+                whole_coils,
+                lean,
+            )
+        })
+        .collect()
+}
+
+/// The developed diagram with `gutter` mm either side of the strip.
+fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutter: f64) -> Diagram {
     let s = f64::from(design.slots);
     let c = f64::from(winding.active_coils);
     let slot_deg = 360.0 / s;
     let seg_deg = 360.0 / c;
-    let strip = (GUTTER, options.width - GUTTER);
+    let strip = (gutter, options.width - gutter);
     let strip_w = strip.1 - strip.0;
     let fit = options
         .floor
         .then(|| (strip_w / min_slot_pitch(design, winding)).floor() as u32);
-    let view = resolve_view(design, winding, options.window, fit);
-    let start_deg = f64::from(view.first_slot - 1) * slot_deg - slot_deg / 2.0;
-    let scale = strip_w / (f64::from(view.slots) * slot_deg);
-    let turn = 360.0 * scale;
-    let geo = Geo {
-        start_deg,
-        scale,
-        turn,
-        strip,
-        whole: view.whole,
-    };
-
     let bands = bands::bands(design, winding, options.height);
+    let room = (bands.pole.0 + 2.0, bands.commutator.1);
+    let geo_at = |view: &View, seam: f64| {
+        let scale = strip_w / (f64::from(view.slots) * slot_deg);
+        Geo {
+            start_deg: (f64::from(view.first_slot - 1) - seam) * slot_deg,
+            scale,
+            turn: 360.0 * scale,
+            strip,
+            whole: view.whole,
+        }
+    };
+    let mut view = resolve_view(design, winding, options.window, fit);
+    let (mut seam, mut coils) =
+        seam_and_coils(design, winding, &bands, view.whole, &|f| geo_at(&view, f));
+    if !place_edge_labels(&mut coils, EDGE_LABEL_GAP, room, view.whole) && view.whole {
+        // The whole view has more lines at its seam than the gutter can label at the floor:
+        // show the coils that lie wholly in a window instead, which leave no edge but by
+        // their leads.
+        view = View {
+            whole: false,
+            slots: view.slots.min(design.slots - 1).max(1),
+            pole_pairs: None,
+            crowded: true,
+            ..view
+        };
+        (seam, coils) = seam_and_coils(design, winding, &bands, false, &|f| geo_at(&view, f));
+        place_edge_labels(&mut coils, EDGE_LABEL_GAP, room, false);
+    }
+    let geo = geo_at(&view, seam);
+    let scale = geo.scale;
+
     let slot_pitch = slot_deg * scale;
     let segment_pitch = seg_deg * scale;
     let label_size = TEXT_FLOOR;
@@ -189,7 +354,7 @@ pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOpt
     let slots = (0..view.slots)
         .map(|i| {
             let slot = (view.first_slot - 1 + i) % design.slots + 1;
-            (slot, strip.0 + (f64::from(i) + 0.5) * slot_pitch)
+            (slot, strip.0 + (f64::from(i) + seam) * slot_pitch)
         })
         .collect();
 
@@ -210,25 +375,6 @@ pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOpt
         })
         .collect();
 
-    let u = design.coils_per_slot;
-    let side_deg = |slot: u32, position: u32, bottom: bool| {
-        let j = 2 * (position - 1) + u32::from(bottom);
-        let frac = SIDE_SPREAD * ((f64::from(j) + 0.5) / f64::from(2 * u) - 0.5);
-        (f64::from(slot - 1) + frac) * slot_deg
-    };
-    let mut coils: Vec<CoilDrawing> = winding
-        .connections
-        .iter()
-        .filter_map(|conn| {
-            let top_deg = side_deg(conn.top.slot, conn.top.position, false);
-            let forward = (conn.bottom.slot + design.slots - conn.top.slot) % design.slots;
-            let bottom_deg =
-                side_deg(conn.top.slot, conn.bottom.position, true) + f64::from(forward) * slot_deg;
-            coil_drawing(conn, winding, &geo, &bands, top_deg, bottom_deg)
-        })
-        .collect();
-
-    space_edge_labels(&mut coils, EDGE_LABEL_GAP);
     thin_tags(&mut coils, label_size, 0.6);
     let seg_w = segment_pitch * 0.84;
     let segments = (1..=winding.active_coils)

@@ -67,6 +67,10 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
                 pairs,
                 if pairs == 1 { "" } else { "s" }
             ),
+            None if v.crowded => format!(
+                "slots {}\u{2013}{} of {} shown: the whole view has more lines at its edges than the print can label",
+                v.first_slot, last, v.total_slots
+            ),
             None => format!(
                 "slots {}\u{2013}{} of {} shown, at a scale the print can hold",
                 v.first_slot, last, v.total_slots
@@ -81,7 +85,7 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
         None => {}
     }
     if !v.whole {
-        note.push_str(" \u{b7} coils whose top side is in view are drawn");
+        note.push_str(" \u{b7} coils lying wholly in view are drawn");
     }
     // One line when both fit at the floor, else the window note on a second line, wrapped
     // no further than the strip (it is kept short enough to fit at the floor).
@@ -225,17 +229,28 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
             }
         }
         for cut in &c.cuts {
-            cg.push(Circle::new("cutdot", cut.at.0, cut.at.1, 0.35));
+            // Dot at the edge, a leader out into the gutter, the label at the leader's end.
+            let side = if cut.right { 1.0 } else { -1.0 };
+            let (ex, ey) = cut.at;
+            let mid = cut.label_y - 0.9;
+            let leader = [
+                (ex, ey),
+                (ex + side * 0.9, ey),
+                (ex + side * (super::LEADER - 0.9), mid),
+                (ex + side * (super::LEADER - 0.3), mid),
+            ];
+            cg.push(Path::polyline("leader", &leader));
+            cg.push(Circle::new("cutdot", ex, ey, 0.35));
             if cut.label.is_empty() {
                 continue;
             }
-            let (tx, cls) = if cut.right {
-                (cut.at.0 + 1.0, "cut-label")
+            let cls = if cut.right {
+                "cut-label"
             } else {
-                (cut.at.0 - 1.0, "cut-label end")
+                "cut-label end"
             };
             cg.push(Text::new(
-                tx,
+                ex + side * super::LEADER,
                 cut.label_y,
                 TEXT_FLOOR,
                 cls,
@@ -379,7 +394,7 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
         ((b.back_apex + b.core.0) / 2.0, "back"),
         ((b.core.1 + b.commutator.0) / 2.0, "front"),
     ] {
-        let mut t = Text::new(x0 - 13.4, yy, TEXT_FLOOR, "mid", name).rotated(-90.0);
+        let mut t = Text::new(2.8, yy, TEXT_FLOOR, "mid", name).rotated(-90.0);
         t.fill = Some("#666");
         g.push(t);
     }

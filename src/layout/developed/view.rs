@@ -47,6 +47,9 @@ pub struct View {
     /// Slots after which the pattern repeats (S/p) when that is whole and the segments
     /// (C/p) are whole too.
     pub repeat_slots: Option<u32>,
+    /// A window shown because the whole view has more lines at its seam than the gutters can
+    /// label at the floor.
+    pub crowded: bool,
 }
 
 /// Resolves the window into a [`View`]; `fit_slots` (a sheet's legibility limit) caps the
@@ -82,6 +85,7 @@ fn requested_view(design: &Design, winding: &Winding, window: Window) -> View {
         total_slots: s,
         pole_pairs: None,
         repeat_slots,
+        crowded: false,
     };
     let (pairs, first) = match window {
         Window::Whole => return whole,
@@ -108,6 +112,7 @@ fn requested_view(design: &Design, winding: &Winding, window: Window) -> View {
         total_slots: s,
         pole_pairs: Some(pairs),
         repeat_slots,
+        crowded: false,
     }
 }
 

@@ -9,7 +9,9 @@ use crate::layout::style::{
 use crate::layout::tree::{self, Circle, Group, Line, Path, Text};
 use crate::winding::EqualizerPlan;
 
-use super::{Input, Rect, hline, text_fit};
+use super::{Input, Rect, hline};
+use crate::layout::font::wrap_text;
+use crate::layout::style::text_face;
 
 /// The legend in `r`; `whole` says whether the diagram shows the whole armature.
 pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
@@ -20,8 +22,20 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
     let size = TEXT_FLOOR;
     let line_h = 3.3;
     let room = r.right() - xs - 1.5;
-    let text = |g: &mut Group, x: f64, y: f64, class: &str, s: &str| {
-        g.push(text_fit(x, y, size, room - (x - xs), class, s));
+    // Words wrap at the floor rather than being cut; each call returns the height it took.
+    let text = |g: &mut Group, x: f64, y: f64, class: &str, s: &str| -> f64 {
+        let (weight, _) = text_face(class);
+        let lines = wrap_text(s, size, weight, room - (x - xs));
+        for (i, line) in lines.iter().enumerate() {
+            g.push(Text::new(
+                x,
+                y + i as f64 * line_h,
+                size,
+                class,
+                line.clone(),
+            ));
+        }
+        lines.len().max(1) as f64 * line_h
     };
     let mut y = r.y + 9.6;
     let sample =
@@ -32,11 +46,9 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
             g.push(line);
         };
     sample(&mut g, y, INK, "side-top", &[]);
-    text(&mut g, xs, y, "", "top-layer coil side (start lead)");
-    y += line_h;
+    y += text(&mut g, xs, y, "", "top-layer coil side (start lead)");
     sample(&mut g, y, INK, "side-bot", &[]);
-    text(&mut g, xs, y, "", "bottom-layer coil side (end lead)");
-    y += line_h;
+    y += text(&mut g, xs, y, "", "bottom-layer coil side (end lead)");
     let (ax, ay) = (x0 + 4.2, y - 0.9);
     let mut arrow = Path::triangle(
         None,
@@ -44,15 +56,14 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
     );
     arrow.fill = Some(INK);
     g.push(arrow);
-    text(&mut g, xs, y, "", "current at the drawn instant");
-    y += line_h;
+    y += text(&mut g, xs, y, "", "current at the drawn instant");
     let a = input.winding.paths.len();
     if a <= 4 {
         for p in &input.winding.paths {
             let k = colour_class(p.index);
             let dash = PATH_DASHES[dash_class(p.index) - 1];
             sample(&mut g, y, PATH_COLOURS[k - 1], "conn", dash);
-            text(
+            y += text(
                 &mut g,
                 xs + 1.5,
                 y,
@@ -66,7 +77,6 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
                     if p.coils.len() == 1 { "" } else { "s" }
                 ),
             );
-            y += line_h;
         }
     } else {
         // Every path's own colour and dash, in a grid of samples each named by its number.
@@ -90,34 +100,31 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
             ));
         }
         y += a.div_ceil(across) as f64 * line_h;
-        text(
+        y += text(
             &mut g,
             x0,
             y,
             "",
             "paths as above; the number at each back end names the path",
         );
-        y += line_h;
     }
     sample(&mut g, y, SHORTED_GREY, "conn", &[]);
-    text(
+    y += text(
         &mut g,
         xs,
         y,
         "",
         "grey, tag sc: shorted by a brush now (no current)",
     );
-    y += line_h;
     if !input.winding.dummy_coils.is_empty() {
         sample(&mut g, y, DUMMY_GREY, "conn", DUMMY_DASH);
-        text(
+        y += text(
             &mut g,
             xs,
             y,
             "",
             "dummy coil: dead, ends cut and taped (\u{d7})",
         );
-        y += line_h;
     }
     g.push(tree::Rect::new("brushbox brush-pos", x0, y - 2.6, 3.6, 2.6));
     g.push(tree::Rect::new(
@@ -127,23 +134,21 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
         3.6,
         2.6,
     ));
-    text(
+    y += text(
         &mut g,
         xs,
         y,
         "",
         "brush: filled positive (+), open negative (\u{2212})",
     );
-    y += line_h;
     g.push(Circle::new("cutdot", x0 + 7.5, y - 0.8, 0.4));
     g.push(hline(x0, x0 + 7.5, y - 0.8, "rule"));
     let cut = if whole {
-        "edge: goes on at the other edge, same number"
+        "edge: the line goes on at the other edge; its label, coil\u{2192}s slot or b bar, is the same at both"
     } else {
-        "edge: leaves the window; label names its end"
+        "edge: the line leaves the window; its label names the coil\u{2192}s slot or b bar it goes to"
     };
-    text(&mut g, xs, y, "", cut);
-    y += line_h;
+    y += text(&mut g, xs, y, "", cut);
     if matches!(&input.winding.equalizers, EqualizerPlan::Possible(e) if !e.groups.is_empty()) {
         g.push(hline(x0, x0 + 8.5, y - 0.8, "eqline"));
         g.push(Circle::new("eqdot", x0 + 4.2, y - 0.8, 0.45));
