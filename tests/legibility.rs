@@ -7,7 +7,7 @@
 //!   page or crosses the drawing frame;
 //! - neighbouring coil-side lines of the developed diagram at least 1.0 mm apart on paper;
 //! - every line cut at an edge of the developed diagram ends in one dot with one label
-//!   (coil→slot or bar), dots on an edge at least 1.0 mm apart, and in the whole view both
+//!   (coil→slot or bar), dots on an edge with at least 0.2 mm of paper between them, and in the whole view both
 //!   edges carry the same labels in the same order.
 
 mod support;
@@ -186,8 +186,9 @@ fn breaches(page: &Page) -> Vec<String> {
     out
 }
 
-/// Least distance between two dots on one edge, mm.
-const DOT_GAP: f64 = 1.0;
+/// Least distance between two dots on one edge, mm: at least 0.2 mm of paper shows between
+/// two dots (the layout aims for 1.2 mm and reaches at least this).
+const DOT_GAP: f64 = 2.0 * armsheet::layout::developed::nodes::CUT_DOT_R + 0.2;
 
 /// The edge-label breaches of a developed diagram: a dot without its own label, two dots
 /// closer than [`DOT_GAP`], and in the whole view edges that read differently.
@@ -221,7 +222,7 @@ fn edge_breaches(texts: &[Placed<'_>], dots: &[(f64, f64)]) -> Vec<String> {
             .iter()
             .filter(|p| {
                 p.text.class.split(' ').any(|c| c == "cut-label")
-                    && ((p.bbox.0 - x).abs() < 3.5 || (p.bbox.2 - x).abs() < 3.5)
+                    && ((p.bbox.0 - x).abs() < 5.0 || (p.bbox.2 - x).abs() < 5.0)
             })
             .map(|p| (p.bbox.3, p.text.content.as_str()))
             .collect();
@@ -299,7 +300,10 @@ fn the_floor_check_finds_small_overlapping_and_outside_text() {
     page.children
         .push(Text::new(295.0, 5.0, 3.0, "", "outside").into());
     // An extra edge dot beside the first one, with no label of its own.
-    let first_dot = page.children.iter().find_map(|n| first_cut_dot(n, 0.0, 0.0));
+    let first_dot = page
+        .children
+        .iter()
+        .find_map(|n| first_cut_dot(n, 0.0, 0.0));
     let (dx, dy) = first_dot.expect("hoist-lap's whole view has edge dots");
     let mut coils = Group::id("coils");
     coils.push(Circle::new("cutdot", dx, dy + 0.5, 0.35));

@@ -185,16 +185,23 @@ fn a_large_armature_is_drawn_as_a_window_the_print_can_hold() {
     let (d, _) = load("big.toml", BIG_LAP);
     let svg = &sheets_for(&d, Paper::A4, Window::Auto)[0];
     // 1,056 segments, u = 4: eight coil sides a slot at least 1 mm apart over 85 % of the
-    // slot pitch need 9.41 mm a slot, so the 245 mm strip of A4 holds 26 slots; the note
-    // says which are shown and where the pattern repeats.
+    // slot pitch need 9.41 mm a slot, so the 241 mm strip of A4 (its gutters widened to hold
+    // labels such as "16→b17") holds 25 slots; the note says which are shown and where the
+    // pattern repeats. A coil spans 33 slots, more than the window: the coils of the first
+    // slots are drawn, as many as leave no more lines at the right edge than its gutter can
+    // label (derived: 4 slots, 16 coils, each leaving by its back end and its end lead).
     assert!(svg.contains(
-        "slots 1\u{2013}26 of 264 shown, at a scale the print can hold \u{b7} pattern repeats every 66 slots"
+        "slots 1\u{2013}25 of 264 shown, at a scale the print can hold \u{b7} pattern repeats every 66 slots \u{b7} the coils of slots 1\u{2013}4 are drawn"
     ));
     let tops = svg.matches("class=\"side-top\" data-slot").count();
-    assert_eq!(tops, 26 * 4);
-    // A3 shows more slots at the same scale (368 mm of strip).
+    assert_eq!(tops, 4 * 4);
+    // A3 shows more slots at the same scale, enough to hold whole coils (34 slots and more).
     let a3 = &sheets_for(&d, Paper::A3, Window::Auto)[0];
     assert!(a3.contains("slots 1\u{2013}39 of 264 shown"));
+    assert!(a3.contains("coils lying wholly in view are drawn"));
+    // Every coil drawn on A3 lies wholly in view: its top side in slots 1–6 (39 − 33).
+    assert_eq!(a3.matches("class=\"side-top\" data-slot").count(), 6 * 4);
+    assert_eq!(a3.matches("class=\"side-bot\" data-slot").count(), 6 * 4);
     // A requested window or the whole armature is cut to what the print can hold as well.
     for window in [
         Window::PolePairs {
@@ -204,7 +211,8 @@ fn a_large_armature_is_drawn_as_a_window_the_print_can_hold() {
         Window::Whole,
     ] {
         let s = &sheets_for(&d, Paper::A4, window)[0];
-        assert_eq!(s.matches("class=\"side-top\" data-slot").count(), 26 * 4);
+        assert!(s.contains("slots 1\u{2013}25 of 264 shown"));
+        assert_eq!(s.matches("class=\"side-top\" data-slot").count(), 4 * 4);
     }
 }
 

@@ -21,15 +21,31 @@ pub const BODY_TEXT: f64 = 3.5;
 /// Least distance between neighbouring coil-side lines of the developed diagram on paper, mm.
 pub const SIDE_GAP: f64 = 1.0;
 
-/// Path colours (Okabe–Ito, without yellow and black, which print poorly or clash with the
-/// drawing's black); path k takes `PATH_COLOURS[(k − 1) % 6]`.
+/// Path colours, path k taking `PATH_COLOURS[(k − 1) % 6]`: the Okabe–Ito palette without
+/// yellow and black (which print poorly or clash with the drawing's black) and with its
+/// reddish purple swapped for Tol's wine, so that the three colours at even places and the
+/// three at odd places each lie at least 10 apart in CIE L* (46, 58, 71 and 54, 32, 70)
+/// [src: Okabe & Ito, *Color Universal Design*, 2002/2008; P. Tol, *Colour schemes*, SRON
+/// technical note, 2021, from memory; L* of each colour derived with the CIE 1976 formula].
+/// Paths that share a dash pattern are 8, 16 apart, so two places apart in this list: a
+/// greyscale print tells every pair of the first 24 paths apart by dash or by grey.
 pub const PATH_COLOURS: [&str; 6] = [
-    "#0072B2", "#D55E00", "#009E73", "#CC79A7", "#E69F00", "#56B4E9",
+    "#0072B2", "#D55E00", "#009E73", "#882255", "#E69F00", "#56B4E9",
 ];
 
 /// Dash patterns of the end connections, mm (empty: solid); path k takes
-/// `PATH_DASHES[(k − 1) % 4]`.
-pub const PATH_DASHES: [&[f64]; 4] = [&[], &[2.4, 0.9], &[0.7, 0.7], &[2.4, 0.7, 0.7, 0.7]];
+/// `PATH_DASHES[(k − 1) % 8]`: solid, long dash, dots, dash-dot, short dash, dash-dot-dot,
+/// long gaps, long-short.
+pub const PATH_DASHES: [&[f64]; 8] = [
+    &[],
+    &[2.4, 0.9],
+    &[0.6, 0.7],
+    &[2.4, 0.7, 0.7, 0.7],
+    &[1.2, 0.8],
+    &[2.4, 0.6, 0.6, 0.6, 0.6, 0.6],
+    &[3.6, 1.8],
+    &[2.4, 0.7, 1.2, 0.7],
+];
 
 /// Dash pattern of a dummy coil's connections, mm.
 pub const DUMMY_DASH: &[f64] = &[0.4, 0.6];
@@ -50,7 +66,7 @@ pub fn colour_class(path: u32) -> usize {
     }
 }
 
-/// The dash class number (1…4) of path `path` (1-based).
+/// The dash class number (1…8) of path `path` (1-based).
 pub fn dash_class(path: u32) -> usize {
     if path == 0 {
         1
@@ -171,6 +187,10 @@ fn build_table() -> Vec<Rule> {
         rule(&["dead conn", "dead stub"], vec![Dash(DUMMY_DASH)]),
         rule(&["pole-n"], vec![Fill(Some("#f2dcd3"))]),
         rule(&["pole-s"], vec![Fill(Some("#d8e4ef"))]),
+        rule(
+            &["pole-hatch"],
+            vec![none(Fill), Stroke(Some("#8da2b8")), StrokeWidth(0.2)],
+        ),
         rule(&["shade-n"], vec![Fill(Some("#f9efeb"))]),
         rule(&["shade-s"], vec![Fill(Some("#edf3f8"))]),
         rule(
@@ -376,5 +396,60 @@ mod tests {
         assert_eq!(t.anchor, Anchor::Middle);
         assert_eq!(text_face("b end"), (Weight::Bold, Anchor::End));
         assert_eq!(text_face(""), (Weight::Regular, Anchor::Start));
+    }
+
+    /// CIE 1976 L* of an sRGB colour "#rrggbb" [src: IEC 61966-2-1 (sRGB transfer) and the
+    /// CIE 1976 L* formula, from memory; the check's own arithmetic, not the palette's].
+    fn lightness(hex: &str) -> f64 {
+        let channel = |i: usize| {
+            let c = f64::from(u8::from_str_radix(&hex[i..i + 2], 16).unwrap()) / 255.0;
+            if c <= 0.04045 {
+                c / 12.92
+            } else {
+                ((c + 0.055) / 1.055).powf(2.4)
+            }
+        };
+        let y = 0.2126 * channel(1) + 0.7152 * channel(3) + 0.0722 * channel(5);
+        let f = if y > 216.0 / 24389.0 {
+            y.cbrt()
+        } else {
+            (24389.0 / 27.0 * y + 16.0) / 116.0
+        };
+        116.0 * f - 16.0
+    }
+
+    /// Whether paths `a` and `b` look alike in a greyscale print: the same dash and greys
+    /// less than 10 L* apart.
+    fn alike_in_grey(a: u32, b: u32) -> bool {
+        dash_class(a) == dash_class(b)
+            && (lightness(PATH_COLOURS[colour_class(a) - 1])
+                - lightness(PATH_COLOURS[colour_class(b) - 1]))
+            .abs()
+                < 10.0
+    }
+
+    #[test]
+    fn every_pair_of_the_first_24_paths_stays_apart_in_greyscale() {
+        // Okabe–Ito blue is L* 46 and sky blue 70 (derived here, from memory as to the
+        // published values); the check is on the formula above.
+        assert!((lightness("#0072B2") - 46.0).abs() < 1.0);
+        assert!((lightness("#56B4E9") - 69.8).abs() < 1.0);
+        for a in 1..=24 {
+            for b in a + 1..=24 {
+                assert!(!alike_in_grey(a, b), "paths {a} and {b} look alike in grey");
+            }
+        }
+        // Colour and dash both come round again after 24 paths; the path number at each
+        // coil's back end tells those apart.
+        assert_eq!(colour_class(1), colour_class(25));
+        assert_eq!(dash_class(1), dash_class(25));
+    }
+
+    #[test]
+    fn the_old_four_dash_cycle_fails_the_grey_check() {
+        // Paths 4 and 8 shared a dash under the four-pattern cycle, in the reddish purple
+        // and the vermillion of Okabe–Ito: L* 61 and 54.
+        assert!((lightness("#CC79A7") - lightness("#D55E00")).abs() < 10.0);
+        assert_ne!(dash_class(4), dash_class(8));
     }
 }

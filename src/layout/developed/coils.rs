@@ -182,7 +182,7 @@ pub(super) fn coil_drawing(
     d.end_lead = add_pieces(geo, &end, &label, &mut d.cuts);
 
     // A window shows the coils lying wholly in it (both sides in view; `whole_coils`), or
-    // when none does, those whose top side lies in it, each whole or cut at an edge.
+    // else those whose top side lies in it, each whole or cut at an edge.
     let anything = if geo.whole {
         d.top.is_some()
             || d.bottom.is_some()

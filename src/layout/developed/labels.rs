@@ -12,7 +12,7 @@ pub(super) const EDGE_LABEL_GAP: f64 = 2.6;
 
 /// How far a label may stand above or below its dot, mm; the leader between them stays
 /// short enough to follow.
-pub(super) const EDGE_LABEL_SHIFT: f64 = 4.0;
+pub(super) const EDGE_LABEL_SHIFT: f64 = 7.0;
 
 /// Where an edge's labels stand: each cut's label baseline in `[lo, hi]`, at least `gap`
 /// apart and in the order of the dots, as near its dot (`at.1 + 0.65`) as those allow (least

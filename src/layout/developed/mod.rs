@@ -132,12 +132,14 @@ pub struct Diagram {
     pub turn_segment_labels: bool,
     /// Font size for labels inside the diagram, mm.
     pub label_size: f64,
+    /// Which coils are drawn.
+    pub drawn: Drawn,
 }
 
 /// Least gutter either side of the strip, mm: the band names and the edge labels.
 const GUTTER: f64 = 16.0;
 /// From an edge dot to its label, mm (the leader).
-pub(super) const LEADER: f64 = 3.0;
+pub(super) const LEADER: f64 = 4.5;
 /// Room the band names ("back", "front") take at the outer side of the left gutter, mm.
 const BAND_NAMES: f64 = 4.0;
 
@@ -186,7 +188,10 @@ const DOT_GAP: f64 = 1.2;
 /// How far the back apex may lean off the coil's centre, in slot pitches, tried in order
 /// when the seam alone cannot keep the dots apart: lines crossing each other on the seam
 /// then cross beside it.
-const APEX_LEANS: [f64; 5] = [0.0, 0.2, -0.2, 0.35, -0.35];
+const APEX_LEANS: [f64; 11] = [0.0, 0.1, -0.1, 0.2, -0.2, 0.3, -0.3, 0.4, -0.4, 0.5, -0.5];
+
+/// The most coils a whole view searches seams and leans for.
+const SEARCHED_COILS: usize = 480;
 
 /// Where the whole view's seam may fall, as the share of a slot pitch between the left edge
 /// and the first slot's centre: 0.5 first, then steps either side while the slot box (0.8 of
@@ -224,27 +229,50 @@ fn least_dot_gap(coils: &[CoilDrawing]) -> f64 {
     least
 }
 
+/// Which coils a diagram draws.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Drawn {
+    /// The whole view: every coil, cut at the seam and re-entering.
+    Every,
+    /// A window: the coils lying wholly in it.
+    Wholly,
+    /// A window too narrow to hold a whole coil: the coils whose top sides lie in the first
+    /// slots shown, up to this slot, as many as leave no more lines at an edge than its
+    /// gutter can label.
+    TopsThrough(u32),
+}
+
 /// The coils drawn, at the first seam offset that keeps every pair of dots on an edge
 /// [`DOT_GAP`] apart (else the one that comes nearest): two lines meeting an edge at one
 /// point would put two labels on one dot. A window draws the coils lying wholly in it, or
-/// when none does those whose top side lies in it.
+/// when none does those whose top sides lie in its first slots ([`Drawn::TopsThrough`]).
 fn seam_and_coils(
     design: &Design,
     winding: &Winding,
     bands: &Bands,
     whole: bool,
     geo_at: &dyn Fn(f64) -> Geo,
-) -> (f64, Vec<CoilDrawing>) {
+) -> (f64, Vec<CoilDrawing>, Drawn) {
+    if !whole {
+        let geo = geo_at(0.5);
+        let coils = draw_coils(design, winding, &geo, bands, true, 0.0);
+        if !coils.is_empty() {
+            return (0.5, coils, Drawn::Wholly);
+        }
+        let all = draw_coils(design, winding, &geo, bands, false, 0.0);
+        let (coils, last) = first_slots_labelled(all, bands);
+        return (0.5, coils, Drawn::TopsThrough(last));
+    }
     let mut best: Option<(f64, f64, Vec<CoilDrawing>)> = None;
-    let leans: &[f64] = if whole { &APEX_LEANS } else { &[0.0] };
+    // A whole view of many hundred coils cannot be labelled at its seam anyway (it falls back
+    // to a window), so it is not searched.
+    let search = winding.connections.len() <= SEARCHED_COILS;
+    let leans: &[f64] = if search { &APEX_LEANS } else { &[0.0] };
     'search: for &lean in leans {
-        for seam in seam_offsets(design.coils_per_slot, whole) {
+        for seam in seam_offsets(design.coils_per_slot, search) {
             let geo = geo_at(seam);
             let lean_mm = lean * geo.scale * 360.0 / f64::from(design.slots);
-            let mut coils = draw_coils(design, winding, &geo, bands, !whole, lean_mm);
-            if !whole && coils.is_empty() {
-                coils = draw_coils(design, winding, &geo, bands, false, lean_mm);
-            }
+            let coils = draw_coils(design, winding, &geo, bands, false, lean_mm);
             let gap = least_dot_gap(&coils);
             let better = best.as_ref().is_none_or(|b| gap > b.0 + 1e-9);
             if better {
@@ -256,7 +284,46 @@ fn seam_and_coils(
         }
     }
     let (_, seam, coils) = best.expect("at least one seam offset");
-    (seam, coils)
+    (seam, coils, Drawn::Every)
+}
+
+/// The coils of `all` whose top sides lie in the first slots shown, slot by slot for as
+/// long as neither edge has more lines than its gutter can label (at least the first slot's
+/// coils), and the last such slot.
+fn first_slots_labelled(mut all: Vec<CoilDrawing>, bands: &Bands) -> (Vec<CoilDrawing>, u32) {
+    all.sort_by(|a, b| {
+        let x = |c: &CoilDrawing| c.top.map_or(f64::INFINITY, |t| t.x);
+        x(a).total_cmp(&x(b)).then(a.coil.cmp(&b.coil))
+    });
+    let capacity =
+        ((bands.commutator.1 - bands.pole.0 - 2.0) / EDGE_LABEL_GAP).floor() as usize + 1;
+    let mut counts = [0usize; 2];
+    let mut keep = 0;
+    let mut last = all.first().and_then(|c| c.top).map_or(0, |t| t.slot);
+    let mut i = 0;
+    while i < all.len() {
+        let slot = all[i].top.map_or(0, |t| t.slot);
+        let group = all[i..]
+            .iter()
+            .take_while(|c| c.top.map_or(0, |t| t.slot) == slot)
+            .count();
+        let mut more = counts;
+        for c in &all[i..i + group] {
+            for cut in &c.cuts {
+                more[usize::from(cut.right)] += 1;
+            }
+        }
+        if keep > 0 && more.iter().any(|&n| n > capacity) {
+            break;
+        }
+        counts = more;
+        keep = i + group;
+        last = slot;
+        i += group;
+    }
+    all.truncate(keep);
+    all.sort_by_key(|c| c.coil);
+    (all, last)
 }
 
 /// Every coil with anything to draw in `geo` (`whole_coils`: only those with both sides in
@@ -321,7 +388,7 @@ fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutte
         }
     };
     let mut view = resolve_view(design, winding, options.window, fit);
-    let (mut seam, mut coils) =
+    let (mut seam, mut coils, mut drawn) =
         seam_and_coils(design, winding, &bands, view.whole, &|f| geo_at(&view, f));
     if !place_edge_labels(&mut coils, EDGE_LABEL_GAP, room, view.whole) && view.whole {
         // The whole view has more lines at its seam than the gutter can label at the floor:
@@ -334,7 +401,8 @@ fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutte
             crowded: true,
             ..view
         };
-        (seam, coils) = seam_and_coils(design, winding, &bands, false, &|f| geo_at(&view, f));
+        (seam, coils, drawn) =
+            seam_and_coils(design, winding, &bands, false, &|f| geo_at(&view, f));
         place_edge_labels(&mut coils, EDGE_LABEL_GAP, room, false);
     }
     let geo = geo_at(&view, seam);
@@ -429,5 +497,6 @@ fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutte
         rotation: design.rotation,
         turn_segment_labels,
         label_size,
+        drawn,
     }
 }

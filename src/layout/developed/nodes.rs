@@ -21,6 +21,30 @@ fn header_size(head: &str, note: &str, room: f64, max: f64) -> f64 {
     max.min(room / em)
 }
 
+/// Radius of the dot where a line meets an edge, mm.
+pub const CUT_DOT_R: f64 = 0.2;
+
+/// Hatching of the box x0…x1 × y0…y1: lines rising at 45° to the right, `step` mm apart.
+fn hatch(x0: f64, x1: f64, y0: f64, y1: f64, step: f64) -> Vec<Line> {
+    let h = y1 - y0;
+    let mut out = Vec::new();
+    let mut t = x0 - h + step / 2.0;
+    while t < x1 {
+        // The line (t + s, y1 − s) for s in 0…h, kept within x0…x1.
+        let s0 = (x0 - t).max(0.0);
+        let s1 = (x1 - t).min(h);
+        if s1 - s0 > 0.05 {
+            out.push(Line::new(
+                "pole-hatch",
+                (t + s0, y1 - s0),
+                (t + s1, y1 - s1),
+            ));
+        }
+        t += step;
+    }
+    out
+}
+
 /// `s` at (x, y) in `class`, cut to `width` mm.
 fn text_cut(x: f64, y: f64, size: f64, width: f64, class: &str, s: &str) -> Text {
     let (weight, _) = crate::layout::style::text_face(class);
@@ -84,8 +108,16 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
         }
         None => {}
     }
-    if !v.whole {
-        note.push_str(" \u{b7} coils lying wholly in view are drawn");
+    match d.drawn {
+        super::Drawn::Every => {}
+        super::Drawn::Wholly => note.push_str(" \u{b7} coils lying wholly in view are drawn"),
+        super::Drawn::TopsThrough(last) if last == v.first_slot => {
+            note.push_str(&format!(" \u{b7} the coils of slot {last} are drawn"))
+        }
+        super::Drawn::TopsThrough(last) => note.push_str(&format!(
+            " \u{b7} the coils of slots {}\u{2013}{last} are drawn",
+            v.first_slot
+        )),
     }
     // One line when both fit at the floor, else the window note on a second line, wrapped
     // no further than the strip (it is kept short enough to fit at the floor).
@@ -110,12 +142,19 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
         let mut pg = Group::id(format!("pole-{}", p.index)).with_data("data-pole", p.index);
         for &(a, bb) in &p.pieces {
             pg.push(rect(cls, a, b.pole.0, bb - a, b.pole.1 - b.pole.0));
+            if !p.north {
+                // South shoes are hatched too, so that a greyscale print tells them from
+                // the north ones by more than the letter.
+                for l in hatch(a, bb, b.pole.0, b.pole.1, 1.6) {
+                    pg.push(l);
+                }
+            }
             pg.push(rect("pole-edge", a, b.pole.0, bb - a, b.pole.1 - b.pole.0));
             pg.push(rect(shade, a, b.core.0, bb - a, b.core.1 - b.core.0));
         }
         if let Some(ax) = p.axis_x {
             let label = format!("{}{}", if p.north { "N" } else { "S" }, p.index);
-            pg.push(Text::new(ax, b.pole.1 - 1.4, 3.2, "mid b", label));
+            pg.push(Text::new(ax, b.pole.1 - 1.4, 3.2, "mid b halo", label));
         }
         poles.push(pg);
     }
@@ -240,7 +279,7 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
                 (ex + side * (super::LEADER - 0.3), mid),
             ];
             cg.push(Path::polyline("leader", &leader));
-            cg.push(Circle::new("cutdot", ex, ey, 0.35));
+            cg.push(Circle::new("cutdot", ex, ey, CUT_DOT_R));
             if cut.label.is_empty() {
                 continue;
             }
