@@ -107,23 +107,25 @@ pub fn tag_text(c: &CoilDrawing) -> String {
     }
 }
 
-/// Drops path tags that would come within `gap` mm of a tag already placed to their left
-/// (coils of one slot share an apex), measured at `size` mm in bold; the colour and dash
-/// pattern still name the path.
+/// Drops path tags that would come within `gap` mm of a tag already kept (coils of one slot
+/// share an apex), measured at `size` mm in bold. Tags of shorted coils (`sc`) and dummies
+/// are kept first, so every coil under a brush stays tagged; path tags then fill in from the
+/// left, and where one gives way the colour and dash pattern still name the path.
 pub(super) fn thin_tags(coils: &mut [CoilDrawing], size: f64, gap: f64) {
-    let mut order: Vec<(f64, usize)> = coils
+    let mut order: Vec<(bool, f64, usize)> = coils
         .iter()
         .enumerate()
-        .filter_map(|(i, c)| c.tag.map(|t| (t.0, i)))
+        .filter_map(|(i, c)| c.tag.map(|t| (c.path != 0 && !c.dummy, t.0, i)))
         .collect();
-    order.sort_by(|a, b| a.0.total_cmp(&b.0).then(a.1.cmp(&b.1)));
-    let mut last_right = f64::NEG_INFINITY;
-    for (x, i) in order {
+    order.sort_by(|a, b| a.0.cmp(&b.0).then(a.1.total_cmp(&b.1)).then(a.2.cmp(&b.2)));
+    let mut kept: Vec<(f64, f64)> = Vec::new();
+    for (_, x, i) in order {
         let half = text_width(&tag_text(&coils[i]), size, Weight::Bold) / 2.0;
-        if x - half < last_right + gap {
+        let (a, b) = (x - half, x + half);
+        if kept.iter().any(|&(l, r)| a < r + gap && b > l - gap) {
             coils[i].tag = None;
         } else {
-            last_right = x + half;
+            kept.push((a, b));
         }
     }
 }
