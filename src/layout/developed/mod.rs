@@ -390,10 +390,11 @@ fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutte
     let mut view = resolve_view(design, winding, options.window, fit);
     let (mut seam, mut coils, mut drawn) =
         seam_and_coils(design, winding, &bands, view.whole, &|f| geo_at(&view, f));
-    if !place_edge_labels(&mut coils, EDGE_LABEL_GAP, room, view.whole) && view.whole {
+    let labelled = place_edge_labels(&mut coils, EDGE_LABEL_GAP, room, view.whole);
+    if !labelled && view.whole && options.floor {
         // The whole view has more lines at its seam than the gutter can label at the floor:
-        // show the coils that lie wholly in a window instead, which leave no edge but by
-        // their leads.
+        // a printed sheet shows the coils that lie wholly in a window instead, which leave no
+        // edge but by their leads (a screen, which zooms, keeps the whole view).
         view = View {
             whole: false,
             slots: view.slots.min(design.slots - 1).max(1),
