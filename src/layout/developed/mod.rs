@@ -11,11 +11,21 @@
 //! front end connections and leads · commutator segments · brushes · equalizer rings.
 //!
 //! ## Horizontal placement
-//! The strip starts half a slot pitch before the centre of the first slot shown, so slot k sits
-//! at ((k − first) + ½) slot pitches. Every angle comes from the engine (slot centres, segment
-//! centres, brush centres, pole axes). An element that runs past an edge is cut there: in the
-//! whole view its remainder re-enters at the other edge and both cuts carry the coil number;
-//! in a window the cut carries the slot or segment number it leads to.
+//! The strip starts a share of a slot pitch (the seam offset, ½ unless moved) before the
+//! centre of the first slot shown, so slot k sits at ((k − first) + offset) slot pitches.
+//! Every angle comes from the engine (slot centres, segment centres, brush centres, pole
+//! axes). An element that runs past an edge is cut there and ends in a dot with one label,
+//! the coil and the slot or bar its line goes to ("12→s4", "12→b13"), set off by a leader;
+//! the labels of an edge keep the order of their dots and stand at least a line apart.
+//!
+//! ## What is shown
+//! - The whole view: every coil; a line cut at one edge re-enters at the other with the same
+//!   label, so both edges read alike. The seam offset and a slight lean of the back apexes
+//!   are chosen so that no two lines meet an edge at one point.
+//! - A window (a large armature, a requested window, or a printed whole view with more lines
+//!   at its seam than its gutters can label at the floor): the coils lying wholly in it, or,
+//!   when the window is narrower than a coil, the coils of its first slots, as many as the
+//!   gutters can label ([`Drawn`]).
 
 mod bands;
 mod coils;
