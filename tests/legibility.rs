@@ -122,7 +122,7 @@ fn breaches(page: &Page) -> Vec<String> {
         let body = p
             .context
             .iter()
-            .any(|c| c == "row" || c == "datum" || c == "order-row");
+            .any(|c| c == "row" || c == "datum" || c == "order-row" || c == "reading-row");
         let floor = if body { BODY_FLOOR } else { FLOOR };
         if t.size_mm < floor - 1e-9 {
             out.push(format!(

@@ -19,9 +19,13 @@ use crate::theory::words::reading_unit_words;
 use super::table::{page_heading, table_area};
 use super::{Input, PageFrame, Rect, TABLE_GAP, TABLE_HEADER, TablePage, hline};
 
-/// The readings columns: heading and width, mm; the last is the empty measured box. The
-/// bars column holds "1055–1056" at the body size (19.6 mm).
-const COLUMNS: [(&str, f64); 3] = [("bars", 22.0), ("expected", 19.0), ("measured", 21.0)];
+/// The readings columns: heading and width, mm; the last is the empty measured box. At the
+/// body size the bars column holds "1055–1056" (19.6 mm) and the expected one "0.0001234"
+/// (18.9 mm); four groups (60 mm each) fit across A4.
+const COLUMNS: [(&str, f64); 3] = [("bars", 21.0), ("expected", 20.5), ("measured", 18.5)];
+/// Room a cell's text takes of its column, mm: all but the 1.5 mm right margin, and the bars
+/// reach 0.5 mm into the gap before the group.
+const CELL_ROOM: [f64; 2] = [COLUMNS[0].1 - 1.0, COLUMNS[1].1 - 1.5];
 /// Significant digits of an expected reading on the sheet: a shop meter shows about four;
 /// `armsheet test` gives six.
 const SHEET_DIGITS: i32 = 4;
@@ -106,11 +110,17 @@ fn readings_table(input: &Input<'_>, page: &TablePage) -> Group {
     let mut g = Group::id(format!("readings-{}", page.rows.start + 1)).with_class("readings");
     for (gx, rows) in &page.groups {
         let mut cx = *gx;
-        for (head, width) in COLUMNS {
-            let hx = cx + width - 1.5;
-            g.push(Text::new(hx, page.top + 3.6, 3.0, "b end", head));
-            if head != "bars" {
-                g.push(Text::new(hx, page.top + 7.3, 3.0, "b end", unit));
+        for (j, (head, width)) in COLUMNS.into_iter().enumerate() {
+            // Numbers are right-aligned under their heads; the measured head is centred on
+            // its box.
+            let (hx, cls) = if j == 2 {
+                (cx + 1.5 + (width - 2.0) / 2.0, "b mid")
+            } else {
+                (cx + width - 1.5, "b end")
+            };
+            g.push(Text::new(hx, page.top + 3.6, 3.0, cls, head));
+            if j > 0 {
+                g.push(Text::new(hx, page.top + 7.3, 3.0, cls, unit));
             }
             cx += width;
         }
@@ -135,10 +145,10 @@ fn readings_table(input: &Input<'_>, page: &TablePage) -> Group {
                 .expected
                 .map_or_else(|| "open".to_string(), |v| fmt_sig(v, SHEET_DIGITS));
             let mut cx = *gx;
-            for (j, (cell, cls)) in [(bars, "b end"), (expected, "end")].iter().enumerate() {
+            for (j, (cell, cls)) in [(bars, "end"), (expected, "end")].iter().enumerate() {
                 let width = COLUMNS[j].1;
                 let (weight, _) = crate::layout::style::text_face(cls);
-                let text = cut_to_width(cell, BODY_TEXT, weight, width - 2.5);
+                let text = cut_to_width(cell, BODY_TEXT, weight, CELL_ROOM[j]);
                 row.push(Text::new(cx + width - 1.5, y, BODY_TEXT, cls, text));
                 cx += width;
             }
@@ -305,7 +315,9 @@ fn blocks(input: &Input<'_>, r: &Rect) -> Group {
             ("passed", 0.0, ""),
         ]);
         c.y += 0.4;
-        c.words(TEST_VOLTAGE_CAUTION, TEXT_FLOOR);
+        let mut caution = TEST_VOLTAGE_CAUTION.to_string();
+        caution[..1].make_ascii_uppercase();
+        c.words(&format!("{caution}."), TEXT_FLOOR);
     });
     // What is left, shared by the two notes boxes above the sign-off block.
     let heading = BLOCK_HEAD + 2.0;
