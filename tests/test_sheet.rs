@@ -299,3 +299,20 @@ fn the_blocks_stay_above_the_title_block_on_every_paper_with_and_without_the_ban
         }
     }
 }
+
+#[test]
+fn a_multiplex_winding_says_where_the_within_winding_readings_start() {
+    // press-duplex-lap: 48 bars, duplex, doubly re-entrant; the neighbours read open and the
+    // bars 2 apart are read within each winding.
+    let (_, test, pages) = set(&support::demo("press-duplex-lap"), Paper::A4);
+    assert_eq!(
+        test.readings_within_winding.as_ref().map(Vec::len),
+        Some(48)
+    );
+    let first = pages.iter().find(|p| p.kind == PageKind::Tests).unwrap();
+    let words = group_text(first, "readings-unit");
+    assert!(
+        words.contains("Readings 49\u{2013}96 are between bars 2 apart, within one winding."),
+        "{words}"
+    );
+}

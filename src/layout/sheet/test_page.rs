@@ -287,11 +287,24 @@ fn blocks(input: &Input<'_>, r: &Rect) -> Group {
         y: r.y - 1.2,
     };
     let t = input.test;
+    // A multiplex winding: say where the readings within one winding start.
+    let within = t
+        .readings_within_winding
+        .as_ref()
+        .map_or(String::new(), |w| {
+            let n = t.readings.len();
+            format!(
+                " Readings {}\u{2013}{} are between bars {} apart, within one winding.",
+                n + 1,
+                n + w.len(),
+                t.multiplicity
+            )
+        });
     c.section("readings-unit", |c| {
         c.head("Bar-to-bar readings");
         c.words(
             &format!(
-                "Unit: {}. Write each reading in its box; armsheet test --readings ranks the faults they show.",
+                "Unit: {}.{within} Write each reading in its box; armsheet test --readings ranks the faults they show.",
                 reading_unit_words(t.coil_resistance_ohm, t.temperature_c)
             ),
             TEXT_FLOOR,
