@@ -7,6 +7,7 @@
 
 use armsheet::design::parse_design;
 use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
+use armsheet::rating::bar_test::{TestOptions, expected};
 use armsheet::render::csv::connections_csv;
 use armsheet::render::json::report_json;
 use armsheet::render::pdf::sheets_pdf;
@@ -42,7 +43,11 @@ fn sheet_bytes(text: &str, pdf: bool) -> usize {
         window: Window::Auto,
         version: "bench".into(),
     };
-    let pages = sheet_pages(&checked, &options);
+    let pages = sheet_pages(
+        &checked,
+        &expected(&checked.design, &checked.winding, &TestOptions::default()),
+        &options,
+    );
     let mut n: usize = pages.iter().map(|p| page_svg(p).len()).sum();
     n += connections_csv(&checked.winding).len();
     n += report_json(&checked).len();
@@ -83,6 +88,10 @@ fn mill_pdf_only(bencher: divan::Bencher) {
         window: Window::Auto,
         version: "bench".into(),
     };
-    let pages = sheet_pages(&checked, &options);
+    let pages = sheet_pages(
+        &checked,
+        &expected(&checked.design, &checked.winding, &TestOptions::default()),
+        &options,
+    );
     bencher.bench(|| sheets_pdf(divan::black_box(&pages)).unwrap().len());
 }

@@ -214,14 +214,18 @@ fn only_the_cli_touches_files_clock_terminal_or_environment() {
 
 /// Compute once: the engine, the rating and the rule families are entered only from
 /// `checks::check`, so a command that renders a `Checked` never runs them again. The one other
-/// caller is the rewind, which re-rates the old winding with a measured resistance.
+/// caller is the rewind, which re-rates the old winding with a measured resistance. The
+/// armature test is solved once by the command that prints it (`test`, and `sheet` for the
+/// test sheets), never by a layout or a renderer.
 #[test]
 fn the_engine_rating_and_checks_are_entered_in_one_place() {
-    const ENTRIES: [(&str, &[&str]); 4] = [
+    const ENTRIES: [(&str, &[&str]); 6] = [
         ("trace_winding(", &["checks/mod.rs", "winding/mod.rs"]),
         ("rate(", &["checks/mod.rs", "rating/mod.rs"]),
         ("rate_with(", &["rating/mod.rs", "rating/rewind.rs"]),
         ("run_checks(", &["checks/mod.rs"]),
+        ("armature_test(", &["rating/bar_test/mod.rs", "cli/test.rs"]),
+        ("expected(", &["rating/bar_test/mod.rs", "cli/sheet.rs"]),
     ];
     for (rel, text) in all_sources() {
         // A unit-test file (`mod tests;` under `#[cfg(test)]`) may drive the stages freely.

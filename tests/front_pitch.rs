@@ -274,7 +274,11 @@ fn sheet_table_shows_the_column_only_where_it_varies() {
                     .collect::<Vec<_>>()
             })
             .collect();
-        let heading = svgs[1].contains(">pitch<");
+        let heading = svgs
+            .iter()
+            .find(|s| s.contains("data-page=\"connections\""))
+            .unwrap()
+            .contains(">pitch<");
         (w, coils, pitches, heading)
     };
 

@@ -15,6 +15,7 @@ mod support;
 use armsheet::layout::font::ink_extent;
 use armsheet::layout::tree::{Circle, Group, Node, Page, Text};
 use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
+use armsheet::rating::bar_test::{TestOptions, expected};
 use proptest::prelude::*;
 
 /// Smallest font size anywhere, mm.
@@ -130,7 +131,7 @@ fn breaches(page: &Page) -> Vec<String> {
         let body = p
             .context
             .iter()
-            .any(|c| c == "row" || c == "datum" || c == "order-row");
+            .any(|c| c == "row" || c == "datum" || c == "order-row" || c == "reading-row");
         let floor = if body { BODY_FLOOR } else { FLOOR };
         if t.size_mm < floor - 1e-9 {
             out.push(format!(
@@ -260,7 +261,14 @@ fn sheet_breaches(name: &str, toml: &str) -> Vec<String> {
             window: Window::Auto,
             version: "0.0.0".into(),
         };
-        for (i, page) in sheet_pages(&checked, &options).iter().enumerate() {
+        for (i, page) in sheet_pages(
+            &checked,
+            &expected(&checked.design, &checked.winding, &TestOptions::default()),
+            &options,
+        )
+        .iter()
+        .enumerate()
+        {
             for b in breaches(page) {
                 out.push(format!("{name} {} sheet {}: {b}", paper.as_str(), i + 1));
             }
@@ -291,7 +299,12 @@ fn the_floor_check_finds_small_overlapping_and_outside_text() {
         window: Window::Auto,
         version: "0.0.0".into(),
     };
-    let mut page = sheet_pages(&checked, &options).remove(0);
+    let mut page = sheet_pages(
+        &checked,
+        &expected(&checked.design, &checked.winding, &TestOptions::default()),
+        &options,
+    )
+    .remove(0);
     assert!(breaches(&page).is_empty(), "{}", report(&breaches(&page)));
     page.children
         .push(Text::new(100.0, 100.0, 2.0, "", "small").into());

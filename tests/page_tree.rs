@@ -4,6 +4,7 @@
 use armsheet::design::parse_design;
 use armsheet::layout::tree::Page;
 use armsheet::layout::{Paper, SheetOptions, Window, draw_page, sheet_pages};
+use armsheet::rating::bar_test::{TestOptions, expected};
 
 /// The designs in `designs/` and the sheet fixtures, in name order.
 fn designs() -> Vec<(String, String)> {
@@ -68,7 +69,14 @@ fn every_text_is_measured_and_on_its_page() {
                 window: Window::Auto,
                 version: "test".into(),
             };
-            for (i, page) in sheet_pages(&checked, &options).iter().enumerate() {
+            for (i, page) in sheet_pages(
+                &checked,
+                &expected(&checked.design, &checked.winding, &TestOptions::default()),
+                &options,
+            )
+            .iter()
+            .enumerate()
+            {
                 total += check_texts(page, &format!("{name} {paper} sheet {}", i + 1));
             }
         }

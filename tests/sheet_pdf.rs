@@ -5,6 +5,7 @@ mod support;
 
 use std::io::Read;
 
+use armsheet::layout::tree::PageKind;
 use armsheet::layout::{Paper, Window};
 use armsheet::render::pdf::sheets_pdf;
 use support::sheets::*;
@@ -197,13 +198,19 @@ fn text_is_real_text_in_embedded_fonts() {
 #[test]
 fn pdftotext_reads_the_connection_table() {
     let (d, w) = load("sheet_lap.toml", &fixture("sheet_lap.toml"));
-    let pdf = sheets_pdf(&pages_for(&d, Paper::A4, Window::Auto)).unwrap();
+    let pages = pages_for(&d, Paper::A4, Window::Auto);
+    let pdf = sheets_pdf(&pages).unwrap();
+    let sheet = (1 + pages
+        .iter()
+        .position(|p| p.kind == PageKind::Connections)
+        .unwrap())
+    .to_string();
     let dir = std::env::temp_dir().join(format!("armsheet-pdftotext-{}", std::process::id()));
     std::fs::create_dir_all(&dir).unwrap();
     let file = dir.join("sheets.pdf");
     std::fs::write(&file, &pdf).unwrap();
     let out = std::process::Command::new("pdftotext")
-        .args(["-layout", "-f", "2", "-l", "2"])
+        .args(["-layout", "-f", &sheet, "-l", &sheet])
         .arg(&file)
         .arg("-")
         .output();

@@ -92,10 +92,10 @@ fn fmt(x: f64) -> String {
 fn fixture_sheets_render_on_every_paper() {
     for paper in Paper::ALL {
         assert_eq!(
-            // Diagram, connection table, equalizer table, commutator end view, winding
-            // order, winding data in full.
+            // Diagram, commutator end view, winding order, connection table, equalizer
+            // table, tests and sign-off, winding data in full.
             check_design("sheet_lap.toml", &fixture("sheet_lap.toml"), paper),
-            6,
+            7,
             "{paper}"
         );
         assert_eq!(
@@ -104,7 +104,7 @@ fn fixture_sheets_render_on_every_paper() {
                 &fixture("sheet_wave_dummy.toml"),
                 paper
             ),
-            5,
+            6,
             "{paper}"
         );
     }
@@ -154,7 +154,7 @@ fn demo_sheets_render() {
             &fixture("sheet_hostile.toml"),
             Paper::A4
         ),
-        5
+        6
     );
 }
 

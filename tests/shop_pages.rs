@@ -6,12 +6,14 @@ mod support;
 
 use armsheet::layout::tree::{Node, Page, PageKind};
 use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
+use armsheet::rating::bar_test::{TestOptions, expected};
 use armsheet::render::svg::page_svg;
 
 fn pages(name: &str) -> Vec<Page> {
     let checked = armsheet::check(support::design(&support::demo(name)));
     sheet_pages(
         &checked,
+        &expected(&checked.design, &checked.winding, &TestOptions::default()),
         &SheetOptions {
             paper: Paper::A4,
             window: Window::Auto,

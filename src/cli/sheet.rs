@@ -18,6 +18,7 @@ use super::error::{CliError, shown};
 use super::load::load_design;
 use super::output::{print_stdout, replace_folder, write_atomic};
 use crate::layout::{Paper, SheetOptions, Window, draw_page, sheet_pages};
+use crate::rating::bar_test::{TestOptions, expected};
 use crate::render::json::report_json;
 use crate::render::{csv, pdf, svg};
 
@@ -111,10 +112,11 @@ pub struct DrawArgs {
 
 pub(crate) const SHEET_HELP: &str = "\
 Writes into DIR/<design-stem>/: sheet-1.svg (developed diagram, title block, winding data,
-legend, caution), sheet-2.svg … (connection table with the winding sequence, the
-equalizer table, the commutator end view, the winding order with check-off boxes and, when
-sheet 1 cannot hold it all, the winding data in full; each page's root <svg> names itself in
-data-page), connections.csv (one record per coil position), job.csv (the job they
+legend, caution), sheet-2.svg … (the commutator end view, the winding order with check-off
+boxes, the connection table with the winding sequence, the equalizer table, the test and
+sign-off sheets with the expected bar-to-bar readings of `armsheet test` and boxes for the
+measured ones and, when sheet 1 cannot hold it all, the winding data in full; each page's
+root <svg> names itself in data-page), connections.csv (one record per coil position), job.csv (the job they
 belong to, once), report.json (the `check --json` object) and, with --pdf, sheets.pdf.
 Sheets are sized in mm and print at true scale. A design that fails a check is still drawn,
 under a NOT FOR WINDING band.
@@ -133,8 +135,12 @@ pub(crate) fn stem(path: &Path) -> String {
 /// Runs `armsheet sheet`.
 pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
     let checked = load_design(&a.design)?;
+    // The expected readings of the test sheets, computed once (as `armsheet test` does with
+    // its default options).
+    let test = expected(&checked.design, &checked.winding, &TestOptions::default());
     let pages = sheet_pages(
         &checked,
+        &test,
         &SheetOptions {
             paper: a.paper,
             window: a.window.window(),

@@ -16,7 +16,8 @@
 //! - [`developed`]: the developed winding diagram: view and strip mapping, bands, coils,
 //!   labels, equalizers, then [`developed::nodes`] turns that geometry into tree nodes.
 //! - [`sheet`]: the printed sheets ([`sheet_pages`]): page frame and pagination, title block,
-//!   data block, legend, caution box, tables. [`paper`] holds the paper sizes.
+//!   data block, legend, caution box, tables, the commutator end view, the winding order and
+//!   the test and sign-off sheets (which print an armature test computed before layout). [`paper`] holds the paper sizes.
 //! - [`screen`]: the diagram alone for a screen ([`draw_page`]).
 //!
 //! ## Adding a drawing

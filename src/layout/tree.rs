@@ -30,13 +30,16 @@ pub enum PageKind {
     Connections,
     /// A page of the equalizer table.
     Equalizers,
+    /// A test and sign-off sheet: the expected bar-to-bar readings with boxes for the measured
+    /// ones; the first also the insulation and withstand tests, notes and signatures.
+    Tests,
     /// `armsheet test`: the readings round the commutator.
     TestPlot,
 }
 
 impl PageKind {
     /// The page's name in the root `data-page` attribute: `developed`, `commutator-end`, `winding-order`, `winding-data`,
-    /// `connections`, `equalizers` or `test-readings`.
+    /// `connections`, `equalizers`, `tests` or `test-readings`.
     pub fn data_page(self) -> &'static str {
         match self {
             PageKind::Screen | PageKind::Diagram => "developed",
@@ -45,6 +48,7 @@ impl PageKind {
             PageKind::WindingData => "winding-data",
             PageKind::Connections => "connections",
             PageKind::Equalizers => "equalizers",
+            PageKind::Tests => "tests",
             PageKind::TestPlot => "test-readings",
         }
     }

@@ -1,5 +1,5 @@
 //! `rating`: the winding against its nameplate: resistance, EMF, segment voltage, currents,
-//! commutator, losses, test voltage, and the rewind to a new voltage or speed.
+//! commutator, losses, test voltage, insulation resistance, and the rewind to a new voltage or speed.
 //!
 //! Pure stage after `winding` and before `checks`: a resolved [`Design`] and its traced
 //! [`Winding`] in, a [`RatingReport`] out (or `None` when the design has no rating inputs:
@@ -16,6 +16,7 @@ pub mod conductor;
 pub mod design_toml;
 pub mod emf;
 pub mod findings;
+pub mod insulation;
 pub mod limits;
 pub mod losses;
 pub mod note;
@@ -29,6 +30,7 @@ pub use commutator::{CommutatorData, SegmentVoltage};
 pub use conductor::{MeanTurn, MeanTurnEstimate, MeanTurnSource};
 pub use emf::{Emf, EmfBasis};
 pub use findings::findings_of;
+pub use insulation::InsulationTest;
 pub use limits::{Bound, RatingCheck, Rule, rules};
 pub use losses::Losses;
 pub use note::RatingNote;
@@ -95,6 +97,9 @@ pub struct RatingReport {
     pub losses: Option<Losses>,
     /// Withstand test voltages.
     pub test_voltage: Option<TestVoltage>,
+    /// The insulation-resistance test (test voltage, minimum reading and PI), when the rated
+    /// voltage is known.
+    pub insulation: Option<InsulationTest>,
     /// The checks, in [`rules::ALL`] order, only those whose inputs are present. A failed
     /// check's `advice` holds its remedy in words.
     pub checks: Vec<RatingCheck>,
@@ -240,6 +245,8 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
         notes.push(RatingNote::TestVoltageGeneralRow);
     }
 
+    let insulation = voltage.map(|u| insulation::insulation_test(u, class));
+
     let mut report = RatingReport {
         paths: a,
         conductors: z,
@@ -253,6 +260,7 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
         commutator,
         losses,
         test_voltage,
+        insulation,
         checks: Vec::new(),
         advice: Vec::new(),
         notes,

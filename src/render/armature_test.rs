@@ -13,9 +13,9 @@ use crate::base::number::{fmt_fixed, fmt_sig, round_sig};
 use crate::rating::bar_test::{
     ArmatureTest, DropFeed, Fault, Location, Pattern, Reading, ReadingValue, Unit,
 };
-use crate::theory::words::multiplicity_word;
+use crate::theory::words::{READING_DIGITS, multiplicity_word, reading_unit_words};
 
-const DIGITS: i32 = 6;
+const DIGITS: i32 = READING_DIGITS;
 
 /// The faults a resistance reading cannot show, and the test that does.
 pub const UNSEEN: [&str; 3] = [
@@ -36,14 +36,7 @@ pub fn pattern_words(p: Pattern) -> String {
 }
 
 fn unit_words(t: &ArmatureTest) -> String {
-    match t.coil_resistance_ohm {
-        Some(r) => format!(
-            "ohm (one coil {} ohm at {} C, IEC 60028 copper corrected by the 234.5 C rule)",
-            fmt_sig(r, DIGITS),
-            fmt_fixed(t.temperature_c, 1)
-        ),
-        None => "coil (no [conductor] data with a mean turn: readings are in units of one coil's resistance)".into(),
-    }
+    reading_unit_words(t.coil_resistance_ohm, t.temperature_c)
 }
 
 fn value(x: Option<f64>) -> String {

@@ -1,7 +1,26 @@
 //! The trade's words for winding facts, written once: multiplicity names, the shop form of
-//! a span and the lead swing.
+//! a span, the lead swing and the unit of the bar-to-bar readings.
 //!
 //! Part of the `theory` stage; used by every report, sheet and message.
+
+use crate::base::number::{fmt_fixed, fmt_sig};
+
+/// Significant digits of a bar-to-bar reading (readings run from micro-ohms to ohms).
+pub const READING_DIGITS: i32 = 6;
+
+/// The unit of the bar-to-bar readings in words: ohms at `temperature_c` when one coil's
+/// resistance is known (`coil_ohm`), else units of one coil's resistance. The test report and
+/// the test sheet both print it.
+pub fn reading_unit_words(coil_ohm: Option<f64>, temperature_c: f64) -> String {
+    match coil_ohm {
+        Some(r) => format!(
+            "ohm (one coil {} ohm at {} C, IEC 60028 copper corrected by the 234.5 C rule)",
+            fmt_sig(r, READING_DIGITS),
+            fmt_fixed(temperature_c, 1)
+        ),
+        None => "coil (no [conductor] data with a mean turn: readings are in units of one coil's resistance)".into(),
+    }
+}
 
 /// "simplex", "duplex", "triplex", "quadruplex", then "5-plex", … for a multiplicity.
 pub fn multiplicity_word(m: u32) -> String {

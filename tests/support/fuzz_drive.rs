@@ -10,6 +10,7 @@
 use armsheet::check;
 use armsheet::design::{WindingType, parse_design};
 use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
+use armsheet::rating::bar_test::{TestOptions, expected};
 use armsheet::rating::{RewindRequest, rewind_rated};
 use armsheet::render::csv::{connections_csv, job_csv};
 use armsheet::render::json::report_json;
@@ -92,7 +93,11 @@ pub fn drive(text: &str, rng: &mut Rng, parsed: &mut u64, every: Every) -> Reach
             },
             version: "fuzz".to_string(),
         };
-        let pages = sheet_pages(&checked, &options);
+        let pages = sheet_pages(
+            &checked,
+            &expected(&checked.design, &checked.winding, &TestOptions::default()),
+            &options,
+        );
         for page in &pages {
             let _ = page_svg(page);
         }

@@ -5,6 +5,7 @@ use std::sync::Arc;
 
 use armsheet::design::{Design, parse_design};
 use armsheet::layout::{Page, Paper, SheetOptions, Window, draw_page, sheet_pages};
+use armsheet::rating::bar_test::{TestOptions, expected};
 use armsheet::render::svg::page_svg;
 use armsheet::winding::{Winding, trace_winding};
 
@@ -25,7 +26,9 @@ pub fn pages_for(d: &Design, paper: Paper, window: Window) -> Vec<Page> {
         window,
         version: "test".into(),
     };
-    sheet_pages(&armsheet::check(d.clone()), &options)
+    let checked = armsheet::check(d.clone());
+    let test = expected(&checked.design, &checked.winding, &TestOptions::default());
+    sheet_pages(&checked, &test, &options)
 }
 
 /// Every sheet of `d` as SVG.

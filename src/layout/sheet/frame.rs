@@ -172,30 +172,62 @@ pub struct TablePage {
     pub groups: Vec<(f64, Range<usize>)>,
     /// Top of the header.
     pub top: f64,
+    /// Row pitch, mm.
+    pub row: f64,
 }
 
-/// Splits `total` rows of a table whose columns take `width` mm into pages that fit `area`,
-/// the fewest pages that hold them; a table of several pages shares its rows evenly between
-/// the pages and their column groups (so no last sheet carries a handful of rows). Always
-/// returns at least one page.
+/// Splits `total` rows of a table whose columns take `width` mm into pages that fit `area`
+/// at the [`TABLE_ROW`] pitch (see [`paginate_rows`]).
 pub fn paginate(total: usize, width: f64, area: &Rect) -> Vec<TablePage> {
-    let fit_group = (((area.h - TABLE_HEADER) / TABLE_ROW).floor() as usize).max(1);
-    let groups = (((area.w + TABLE_GAP) / (width + TABLE_GAP)).floor() as usize).max(1);
-    let pages = total.div_ceil(fit_group * groups).max(1);
-    let per_page = total.div_ceil(pages).max(1);
-    // A table that fits one page fills its column groups in turn, as before.
-    let per_group = if pages == 1 {
-        fit_group
+    paginate_rows(total, width, area, area, TABLE_ROW)
+}
+
+/// Splits `total` rows of a table whose columns take `width` mm into pages at `row` mm a row:
+/// the first page's table in `first` (narrower or lower when the page carries blocks of its
+/// own), every other page's in `rest`; the fewest pages that hold them. A table of several
+/// pages shares its rows evenly between the pages (they differ by one row at most, the first
+/// page holding no more than it can) and their column groups, so no last sheet carries a
+/// handful of rows. Always returns at least one page.
+pub fn paginate_rows(
+    total: usize,
+    width: f64,
+    first: &Rect,
+    rest: &Rect,
+    row: f64,
+) -> Vec<TablePage> {
+    let fit = |a: &Rect| (((a.h - TABLE_HEADER) / row).floor() as usize).max(1);
+    let groups = |a: &Rect| (((a.w + TABLE_GAP) / (width + TABLE_GAP)).floor() as usize).max(1);
+    let cap_first = fit(first) * groups(first);
+    let cap_rest = fit(rest) * groups(rest);
+    let pages = if total <= cap_first {
+        1
     } else {
-        per_page.div_ceil(groups).max(1)
+        1 + (total - cap_first).div_ceil(cap_rest)
     };
-    let mut pages = Vec::new();
-    let mut first = 0;
-    loop {
-        let end = (first + per_page).min(total);
+    let sizes: Vec<usize> = if pages == 1 {
+        vec![total]
+    } else {
+        let head = cap_first.min(total.div_ceil(pages));
+        let (left, others) = (total - head, pages - 1);
+        std::iter::once(head)
+            .chain((0..others).map(|i| left / others + usize::from(i < left % others)))
+            .collect()
+    };
+    let mut out = Vec::new();
+    let mut start = 0;
+    for (k, size) in sizes.into_iter().enumerate() {
+        let area = if k == 0 { first } else { rest };
+        let (fit_group, n_groups) = (fit(area), groups(area));
+        let end = start + size;
+        // A table that fits one page fills its column groups in turn.
+        let per_group = if pages == 1 {
+            fit_group
+        } else {
+            size.div_ceil(n_groups).max(1)
+        };
         let mut gs = Vec::new();
-        let mut r = first;
-        for g in 0..groups {
+        let mut r = start;
+        for g in 0..n_groups {
             if r >= end && g > 0 {
                 break;
             }
@@ -203,17 +235,15 @@ pub fn paginate(total: usize, width: f64, area: &Rect) -> Vec<TablePage> {
             gs.push((area.x + g as f64 * (width + TABLE_GAP), r..e));
             r = e;
         }
-        pages.push(TablePage {
-            rows: first..end,
+        out.push(TablePage {
+            rows: start..end,
             groups: gs,
             top: area.y,
+            row,
         });
-        first = end;
-        if first >= total {
-            break;
-        }
+        start = end;
     }
-    pages
+    out
 }
 
 #[cfg(test)]
@@ -244,6 +274,53 @@ mod tests {
             .map(|p| p.rows.len())
             .collect();
         assert_eq!(sizes, [29, 28]);
+        // 1,056 rows of 56 a page: 19 pages of 55 or 56, never a short last one.
+        let sizes: Vec<usize> = paginate(1056, 130.0, &area)
+            .iter()
+            .map(|p| p.rows.len())
+            .collect();
+        assert_eq!(sizes.iter().sum::<usize>(), 1056);
+        assert!(sizes.iter().all(|&n| n == 55 || n == 56), "{sizes:?}");
+    }
+
+    #[test]
+    fn a_first_page_with_words_holds_fewer_rows() {
+        let area = Rect {
+            x: 10.0,
+            y: 20.0,
+            w: 277.0,
+            h: 150.0,
+        };
+        let lower = Rect {
+            y: 40.0,
+            h: 130.0,
+            ..area
+        };
+        // (150 − 9)/4.5 = 31 rows, (130 − 9)/4.5 = 26 on the first page; one group.
+        let pages = paginate_rows(57, 250.0, &lower, &area, 4.5);
+        let sizes: Vec<usize> = pages.iter().map(|p| p.rows.len()).collect();
+        assert_eq!(sizes, [26, 31]);
+        assert_eq!((pages[0].top, pages[1].top), (40.0, 20.0));
+        // 40 rows: two pages of 20, not 26 and 14.
+        let sizes: Vec<usize> = paginate_rows(40, 250.0, &lower, &area, 4.5)
+            .iter()
+            .map(|p| p.rows.len())
+            .collect();
+        assert_eq!(sizes, [20, 20]);
+        for total in [0usize, 1, 26, 27, 58, 1056] {
+            let rows: Vec<usize> = paginate_rows(total, 250.0, &lower, &area, 4.5)
+                .iter()
+                .flat_map(|p| p.groups.iter().flat_map(|g| g.1.clone()))
+                .collect();
+            assert_eq!(rows, (0..total).collect::<Vec<_>>(), "total {total}");
+        }
+        // A narrow first page (one 120 mm group of two) then two groups a page.
+        let narrow = Rect { w: 120.0, ..area };
+        let pages = paginate_rows(100, 120.0, &narrow, &area, 5.0);
+        let groups: Vec<usize> = pages.iter().map(|p| p.groups.len()).collect();
+        assert_eq!(pages[0].rows.len(), 28);
+        assert_eq!(groups[0], 1);
+        assert!(groups[1..].iter().all(|&g| g == 2), "{groups:?}");
     }
 
     #[test]

@@ -1,12 +1,14 @@
 //! Printable winding sheets as page trees: sheet 1 is the developed diagram with the title
 //! block, the winding-data block, the legend, the numbering convention and the caution box;
-//! the sheets after it carry the connection table (with the winding sequence) and the
-//! equalizer table.
+//! the sheets after it carry, in order, the commutator end view, the winding order with
+//! check-off boxes, the connection table (with the winding sequence), the equalizer table, the
+//! test and sign-off sheets and, when sheet 1 cannot hold it, the winding data in full.
 //!
-//! Part of the `layout` stage: [`Checked`] in, one [`Page`] a sheet out. [`frame`] holds the
-//! page geometry and pagination; [`title`] the title block and the failure band; [`data`] the
-//! winding-data block; [`legend`] the legend; [`caution`] the caution box; [`table`] the
-//! tables. Pages are landscape and sized in millimetres. The date printed is the design's
+//! Part of the `layout` stage: [`Checked`] and the armature test in, one [`Page`] a sheet out.
+//! [`frame`] holds the page geometry and pagination; [`title`] the title block and the failure
+//! band; [`data`] the winding-data block; [`legend`] the legend; [`caution`] the caution box;
+//! [`table`] the tables; [`ring`] the end view; [`order`] the winding order; [`test_page`] the
+//! test and sign-off sheets. Pages are landscape and sized in millimetres. The date printed is the design's
 //! `[job] date`; the clock is never read.
 
 pub mod caution;
@@ -17,12 +19,15 @@ pub mod order;
 pub mod ring;
 pub mod rows;
 pub mod table;
+pub mod test_page;
 pub mod title;
 
 pub use frame::*;
 
 use crate::checks::Checked;
 use crate::design::Design;
+use crate::rating::RatingReport;
+use crate::rating::bar_test::ArmatureTest;
 use crate::winding::{EqualizerPlan, Winding};
 
 use super::developed::{DiagramOptions, Window, layout_developed, nodes::diagram_group};
@@ -46,6 +51,10 @@ pub struct SheetOptions {
 struct Input<'a> {
     design: &'a Design,
     winding: &'a Winding,
+    /// The rating, when the design has rating inputs.
+    rating: Option<&'a RatingReport>,
+    /// The expected armature-test readings, computed once by the caller.
+    test: &'a ArmatureTest,
     options: &'a SheetOptions,
     /// Failed error-level checks, `id: message`; when any, every sheet carries the band.
     failures: Vec<String>,
@@ -61,13 +70,19 @@ enum Content {
     Equalizers(TablePage),
     WindingOrder(TablePage),
     CommutatorEnd,
+    /// A test sheet; the first carries the test and sign-off blocks.
+    Tests(TablePage, bool),
 }
 
-/// Lays out every sheet of `checked`, in order; `result[0]` is sheet 1.
-pub fn sheet_pages(checked: &Checked, options: &SheetOptions) -> Vec<Page> {
+/// Lays out every sheet of `checked`, in order; `result[0]` is sheet 1. `test` is the
+/// design's expected armature test (`rating::bar_test::expected` with the default options),
+/// which the test sheets print.
+pub fn sheet_pages(checked: &Checked, test: &ArmatureTest, options: &SheetOptions) -> Vec<Page> {
     let input = Input {
         design: &checked.design,
         winding: &checked.winding,
+        rating: checked.rating.as_ref(),
+        test,
         options,
         failures: checked
             .findings
@@ -85,6 +100,22 @@ pub fn sheet_pages(checked: &Checked, options: &SheetOptions) -> Vec<Page> {
     let mut contents = vec![Content::Diagram];
     let sheet1 = diagram_sheet(&frame);
     let data_on_own_sheet = data::rows_held(&input, &sheet1.data) < data::data_rows(&input).len();
+    contents.push(Content::CommutatorEnd);
+    let drop = order::first_page_drop(&input, &area);
+    let order_first = Rect {
+        y: area.y + drop,
+        h: area.h - drop,
+        ..area
+    };
+    for p in paginate_rows(
+        input.winding.connections.len(),
+        order::order_width(),
+        &order_first,
+        &area,
+        order::ORDER_ROW,
+    ) {
+        contents.push(Content::WindingOrder(p));
+    }
     let conn_w = table::connection_width(&input);
     for p in paginate(input.winding.connections.len(), conn_w, &area) {
         contents.push(Content::Connections(p));
@@ -99,21 +130,20 @@ pub fn sheet_pages(checked: &Checked, options: &SheetOptions) -> Vec<Page> {
             contents.push(Content::Equalizers(p));
         }
     }
-    contents.push(Content::CommutatorEnd);
-    let drop = order::first_page_drop(&input, &area);
-    let order_area = Rect {
-        y: area.y + drop,
-        h: area.h - drop,
-        ..area
-    };
-    for p in paginate(
-        input.winding.connections.len(),
-        order::order_width(),
-        &order_area,
-    ) {
-        contents.push(Content::WindingOrder(p));
+    let (tests_first, tests_rest) = test_page::readings_areas(&frame);
+    for (k, p) in paginate_rows(
+        test_page::reading_count(&input),
+        test_page::readings_width(),
+        &tests_first,
+        &tests_rest,
+        TABLE_ROW,
+    )
+    .into_iter()
+    .enumerate()
+    {
+        contents.push(Content::Tests(p, k == 0));
     }
-    // The winding data in full closes the set, so the tables keep their sheet numbers.
+    // The winding data in full closes the set; sheet 1 names the sheet it is on.
     if data_on_own_sheet {
         contents.push(Content::WindingData);
     }
@@ -151,6 +181,10 @@ pub fn sheet_pages(checked: &Checked, options: &SheetOptions) -> Vec<Page> {
                 Content::Equalizers(p) => {
                     table::equalizer_page(&mut page.children, &input, &frame, p, groups);
                     (PageKind::Equalizers, "equalizer table")
+                }
+                Content::Tests(p, first) => {
+                    test_page::tests_page(&mut page.children, &input, &frame, p, *first);
+                    (PageKind::Tests, "tests and sign-off")
                 }
             };
             if !matches!(content, Content::Diagram) {

@@ -12,7 +12,7 @@ use crate::layout::style::{BODY_TEXT, TEXT_FLOOR};
 use crate::layout::tree::{self, Group, Node, Text};
 
 use super::table::page_heading;
-use super::{Input, PageFrame, Rect, TABLE_HEADER, TABLE_ROW, TablePage, hline};
+use super::{Input, PageFrame, Rect, TABLE_HEADER, TablePage, hline};
 
 /// The columns: heading lines and width, mm. The last four are left empty for the shop.
 const COLUMNS: [([&str; 2], f64); 11] = [
@@ -30,6 +30,11 @@ const COLUMNS: [([&str; 2], f64); 11] = [
 ];
 /// How many columns carry text; the rest are check-off boxes and the initials.
 const TEXT_COLUMNS: usize = 7;
+/// Row pitch, mm: the body text (3.5 mm) with a clear millimetre between rows, so that an A4
+/// sheet holds 30 steps.
+pub(super) const ORDER_ROW: f64 = 4.5;
+/// A check-off box, mm: 5 wide and 3.8 high, inside its row with a margin above and below.
+const BOX: (f64, f64) = (5.0, 3.8);
 
 /// Width of the winding-order table, mm.
 pub(super) fn order_width() -> f64 {
@@ -161,7 +166,7 @@ pub(super) fn order_page(
         ));
         for (i, r) in rows.clone().enumerate() {
             let conn = &conns[r];
-            let y = page.top + TABLE_HEADER + (i as f64 + 1.0) * TABLE_ROW - 1.4;
+            let y = page.top + TABLE_HEADER + (i as f64 + 1.0) * page.row - 1.4;
             let bar = |s: Option<u32>| s.map_or_else(|| "cut".to_string(), |s| s.to_string());
             let note = if conn.dummy {
                 "dummy: ends cut and taped".to_string()
@@ -194,13 +199,13 @@ pub(super) fn order_page(
                     let text = cut_to_width(&cells[j], BODY_TEXT, weight, width - 3.0);
                     row.push(Text::new(x, y, BODY_TEXT, cls, text));
                 } else if head[0] != "initials" {
-                    let side = 3.6;
+                    let (bw, bh) = BOX;
                     row.push(tree::Rect::new(
                         "checkbox",
-                        cx + width - 1.5 - side,
-                        y - side + 0.3,
-                        side,
-                        side,
+                        cx + (width - bw) / 2.0,
+                        y + 1.4 - (page.row + bh) / 2.0,
+                        bw,
+                        bh,
                     ));
                 }
                 cx += width;
