@@ -152,12 +152,13 @@ fn coil_counts(
             }
             continue;
         }
-        let fits = match kind {
-            WindingType::Lap => n == c,
-            WindingType::Wave => match &card.dead_coils {
+        let fits = if kind.kind().uses_every_coil() {
+            n == c
+        } else {
+            match &card.dead_coils {
                 Some(dead) => n - c == dead.len() as u32,
                 None => kind.kind().default_segments(n, m, p, dir) == Some(c),
-            },
+            }
         };
         if fits {
             out.push(u);
@@ -345,6 +346,7 @@ fn design(
         span: card.coil_span,
         span_source: SpanSource::Given,
         turns: card.turns,
+        wave_coils: None,
         lead_offset: HalfBars::ZERO,
         equalizers,
         dummy_coils,
@@ -373,13 +375,14 @@ fn explain(card: &Card, k: &Checked, yc: i64, dummies: u32, named: &Option<Vec<u
     } else {
         "-"
     };
-    let pitch = match d.winding_type {
-        WindingType::Lap => format!("the throw 1-{} is y_c = {sign}{m}", card.throw_end),
-        WindingType::Wave => format!(
+    let pitch = if d.winding_type != WindingType::Wave {
+        format!("the throw 1-{} is y_c = {sign}{m}", card.throw_end)
+    } else {
+        format!(
             "the throw 1-{} is y_c = {yc}, and p·y_c = {p}·{yc} = {} = C {sign} {m}",
             card.throw_end,
             i64::from(p) * yc
-        ),
+        )
     };
     let coils = match (dummies, named) {
         (0, _) => format!(

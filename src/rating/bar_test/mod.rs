@@ -337,6 +337,8 @@ fn feed_bars(t: &ArmatureTest) -> Vec<(u32, u32)> {
     let pitch = match t.winding_type {
         WindingType::Lap => c / 2,
         WindingType::Wave => (c + t.poles / 2) / t.poles,
+        // The lap element sets the pattern: bar 1 and the bar opposite.
+        WindingType::FrogLeg => c / 2,
     };
     (1..=r)
         .map(|w| {
