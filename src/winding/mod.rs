@@ -209,6 +209,7 @@ pub fn trace_winding(design: &Design) -> Winding {
         shorted_coils: shorted,
         coil_current,
         coil_path,
+        coil_emf: emf0,
         paths_formula,
         reentrancy_formula,
         equalizers,

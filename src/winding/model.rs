@@ -307,6 +307,9 @@ pub struct Winding {
     pub coil_current: Vec<i8>,
     /// Path index (1-based) per coil position, 0 when in no path.
     pub coil_path: Vec<u32>,
+    /// EMF of each coil (index coil − 1) at the reference position, start→end sense, in
+    /// conductor-EMF units of the flat-topped field (0 for a coil in the interpolar gap).
+    pub coil_emf: Vec<i64>,
     /// Formula value of the parallel paths: lap m·P, wave 2m, frog-leg 2·m·P.
     pub paths_formula: u32,
     /// Formula value of the reentrancy: gcd(C, |y_c|), summed over the elements.

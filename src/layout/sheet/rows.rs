@@ -134,7 +134,7 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
 /// "2.17" (closed winding 2, step 17) when there is more than one closed winding; empty for
 /// a dummy.
 pub fn sequence_labels(w: &Winding) -> Vec<String> {
-    let mut out = vec![String::new(); w.coils as usize];
+    let mut out = vec![String::new(); w.connections.len()];
     let many = w.closed_windings.len() > 1;
     for (i, cw) in w.closed_windings.iter().enumerate() {
         for (k, step) in cw.steps.iter().enumerate() {
