@@ -64,6 +64,9 @@ pub struct CoilDrawing {
     pub cuts: Vec<EdgeCut>,
     /// Where the path tag goes (above the back apex), when the apex is inside.
     pub tag: Option<Point>,
+    /// The coil's element (`"lap"`, `"wave"`) on a winding of several elements (frog-leg);
+    /// `None` on a lap or wave winding.
+    pub element: Option<&'static str>,
 }
 
 /// What the far end of a cut line is, for the window labels.
@@ -97,6 +100,7 @@ pub(super) fn coil_drawing(
         end_lead: Vec::new(),
         cuts: Vec::new(),
         tag: None,
+        element: winding.is_multi_element().then(|| conn.element.as_str()),
     };
     for x in [xt, xt - geo.turn] {
         if geo.inside(x) {
@@ -123,15 +127,33 @@ pub(super) fn coil_drawing(
     }
     let (ct, cb) = bands.core;
     let xm = (xt + xb) / 2.0;
+    // A frog-leg's wave coils are told from its lap coils by the back end: square-shouldered
+    // and lower, where the lap coils' come to a point at the apex.
+    let wave = winding.is_multi_element() && conn.element != winding.elements[0].kind;
+    let apex = if wave {
+        bands.back_apex + (ct - bands.back_apex) * 0.4
+    } else {
+        bands.back_apex
+    };
     d.tag = [xm, xm - geo.turn, xm + geo.turn]
         .into_iter()
         .find(|&x| geo.inside(x))
-        .map(|x| (x, bands.back_apex - 0.6));
+        .map(|x| (x, apex - 0.6));
     let coil_label = coil.to_string();
     let top_slot = format!("slot {}", conn.top.slot);
     let bottom_slot = format!("slot {}", conn.bottom.slot);
 
-    let back = [(xt, ct), (xm, bands.back_apex), (xb, ct)];
+    let shoulder = (xb - xt) * 0.2;
+    let back = if wave {
+        vec![
+            (xt, ct),
+            (xt + shoulder, apex),
+            (xb - shoulder, apex),
+            (xb, ct),
+        ]
+    } else {
+        vec![(xt, ct), (xm, apex), (xb, ct)]
+    };
     let ends = Ends {
         origin: top_slot.clone(),
         destination: bottom_slot.clone(),

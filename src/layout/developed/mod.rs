@@ -144,7 +144,7 @@ pub(crate) const SIDE_SPREAD: f64 = 0.85;
 /// slot, spread over [`SIDE_SPREAD`] of the pitch) [`SIDE_GAP`] apart, and every segment
 /// number (turned, its digits' cap height across) beside the next.
 fn min_slot_pitch(design: &Design, winding: &Winding) -> f64 {
-    let u = f64::from(design.coils_per_slot);
+    let u = f64::from(design.coils_per_slot * winding.elements.len() as u32);
     let sides = SIDE_GAP * 2.0 * u / SIDE_SPREAD;
     let per_slot = f64::from(winding.active_coils) / f64::from(design.slots);
     let numbers = (TEXT_FLOOR * 0.73 + 0.5) * per_slot;
@@ -210,7 +210,17 @@ pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOpt
         })
         .collect();
 
-    let u = design.coils_per_slot;
+    // A frog-leg's slot holds u sides of each element a layer: the wave element's beside the
+    // lap element's.
+    let per_element = design.coils_per_slot;
+    let u = per_element * winding.elements.len() as u32;
+    let element_index = |coil: u32| {
+        winding
+            .elements
+            .iter()
+            .position(|e| e.holds(coil))
+            .unwrap_or(0) as u32
+    };
     let side_deg = |slot: u32, position: u32, bottom: bool| {
         let j = 2 * (position - 1) + u32::from(bottom);
         let frac = SIDE_SPREAD * ((f64::from(j) + 0.5) / f64::from(2 * u) - 0.5);
@@ -220,10 +230,11 @@ pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOpt
         .connections
         .iter()
         .filter_map(|conn| {
-            let top_deg = side_deg(conn.top.slot, conn.top.position, false);
+            let shift = per_element * element_index(conn.coil);
+            let top_deg = side_deg(conn.top.slot, conn.top.position + shift, false);
             let forward = (conn.bottom.slot + design.slots - conn.top.slot) % design.slots;
-            let bottom_deg =
-                side_deg(conn.top.slot, conn.bottom.position, true) + f64::from(forward) * slot_deg;
+            let bottom_deg = side_deg(conn.top.slot, conn.bottom.position + shift, true)
+                + f64::from(forward) * slot_deg;
             coil_drawing(conn, winding, &geo, &bands, top_deg, bottom_deg)
         })
         .collect();

@@ -161,6 +161,9 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
                 .with_data("data-end-seg", e);
         }
         cg = cg.with_data("data-path", c.path);
+        if let Some(e) = c.element {
+            cg = cg.with_data("data-element", e);
+        }
         if c.dummy {
             cg = cg.with_data("data-dummy", "true");
         }

@@ -293,9 +293,8 @@ impl Network {
                 .map(|b| b.contacts.clone()),
         );
         let net = Network::new(winding.active_coils, base.coils, &ties);
-        let positive = |b: &&crate::winding::BrushSet| {
-            b.polarity == crate::winding::Polarity::Positive
-        };
+        let positive =
+            |b: &&crate::winding::BrushSet| b.polarity == crate::winding::Polarity::Positive;
         let plus = winding.brushes.iter().filter(positive).count().max(1) as f64;
         let minus = (winding.brushes.len() as f64 - plus).max(1.0);
         let mut rhs: BTreeMap<usize, f64> = BTreeMap::new();
