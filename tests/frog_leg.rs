@@ -265,3 +265,45 @@ fn frog_leg_equalizes_an_eccentric_gap() {
     assert!(lap > 1.0, "the plain lap is unequalized: {lap}");
     assert!(frog < lap / 10.0, "frog-leg {frog} against lap {lap}");
 }
+
+/// The rating's armature resistance is the combined network's: with the brushes on single
+/// bars (no coil shorted), the network solved between the brush terminals gives the value the
+/// rating states, in coil resistances (r = rho·T·L_mt/A, IEC 60028 copper 1/58 ohm mm2/m).
+#[test]
+fn armature_resistance_is_the_combined_networks() {
+    let toml = frog(
+        4,
+        30,
+        2,
+        7,
+        "wave_span = 8\n[conductor]\ndiameter_mm = 2.0\nmean_turn_mm = 800\n[rating]\nvoltage = 220\ncurrent = 40\n",
+    );
+    let c = checked(&toml);
+    let w = &c.winding;
+    assert!(w.shorted_coils.is_empty(), "{:?}", w.shorted_coils);
+    assert_eq!(w.parallel_paths(), 8);
+    let v = Network::under_load(w, &vec![0.0; w.connections.len()], 1.0);
+    let at = |pol: armsheet::winding::Polarity| {
+        let b = w.brushes.iter().find(|b| b.polarity == pol).unwrap();
+        v[(b.contacts[0] - 1) as usize]
+    };
+    let r_net =
+        at(armsheet::winding::Polarity::Positive) - at(armsheet::winding::Polarity::Negative);
+    // By hand: each element C/a_e^2 = 60/16 coil resistances, two in parallel: 1.875.
+    assert!((r_net - 1.875).abs() < 1e-9, "{r_net}");
+    let area = std::f64::consts::PI; // 2 mm round wire: pi mm2
+    let coil = (1.0 / 58.0) * 0.8 / area;
+    let r20 = c
+        .rating
+        .as_ref()
+        .unwrap()
+        .resistance
+        .as_ref()
+        .unwrap()
+        .r20_ohm;
+    assert!(
+        (r20 / coil - r_net).abs() < 1e-9,
+        "{} against {r_net}",
+        r20 / coil
+    );
+}
