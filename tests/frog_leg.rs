@@ -307,3 +307,23 @@ fn armature_resistance_is_the_combined_networks() {
         r20 / coil
     );
 }
+
+/// `armsheet test` on a frog-leg solves the combined network and says how it reads: about half
+/// of the lap element alone, every reading equal on this symmetric winding.
+#[test]
+fn armature_test_describes_the_frog_leg_pattern() {
+    let out = support::armsheet(&["test", "designs/hoist-frog-leg.toml", "--json"]);
+    assert_eq!(out.status.code(), Some(0));
+    let j: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let words = j["elements_pattern"].as_str().unwrap();
+    assert!(
+        words.starts_with("frog-leg: each pair of neighbouring bars"),
+        "{words}"
+    );
+    // Two equal elements: the combined reading is half the lap element's alone [derived; the
+    // network's own figures, printed as "(50.0 % of it)"].
+    assert!(words.contains("(50.0 % of it)"), "{words}");
+    let lap = support::armsheet(&["test", "designs/hoist-lap.toml", "--json"]);
+    let j: serde_json::Value = serde_json::from_slice(&lap.stdout).unwrap();
+    assert!(j.get("elements_pattern").is_none());
+}
