@@ -130,6 +130,24 @@ fn json_lists_elements_and_marks_every_row() {
     assert_eq!(rows.len(), 2 * 58);
     assert_eq!(rows.iter().filter(|r| r["element"] == "lap").count(), 58);
     assert_eq!(rows.iter().filter(|r| r["element"] == "wave").count(), 58);
+    // The demo's lists whole: 2·u·S rows, each element's rows in coil order with one start
+    // and one end lead on every bar.
+    let demo = checked(&support::demo("mill-frog-leg"));
+    let j: serde_json::Value =
+        serde_json::from_str(&armsheet::render::json::report_json(&demo)).unwrap();
+    let rows = j["connections"].as_array().unwrap();
+    assert_eq!(rows.len(), 2 * 2 * 75);
+    for (k, kind) in ["lap", "wave"].into_iter().enumerate() {
+        let mine: Vec<_> = rows.iter().filter(|r| r["element"] == kind).collect();
+        assert_eq!(mine.len(), 150);
+        let (mut starts, mut ends) = (vec![0; 150], vec![0; 150]);
+        for (i, r) in mine.iter().enumerate() {
+            assert_eq!(r["coil"].as_u64().unwrap() as usize, k * 150 + i + 1);
+            starts[r["start_segment"].as_u64().unwrap() as usize - 1] += 1;
+            ends[r["end_segment"].as_u64().unwrap() as usize - 1] += 1;
+        }
+        assert!(starts.iter().chain(&ends).all(|&x| x == 1), "{kind}");
+    }
     // A plain lap keeps its rows as they were: no element key.
     let lap = checked("[armature]\npoles = 4\nslots = 36\n[winding]\ntype = \"lap\"\nturns = 2\n");
     let j: serde_json::Value =
@@ -168,7 +186,7 @@ fn checks_fail_where_the_winding_does() {
 /// coils between them say; and each such pair of coils carries opposite EMFs.
 #[test]
 fn combined_network_under_load_holds_pairs_equipotential() {
-    let c = checked(&support::demo("hoist-frog-leg"));
+    let c = checked(&support::demo("mill-frog-leg"));
     let w = &c.winding;
     let v = Network::under_load(w, &emfs(w), 16.0);
     let (worst, scale) = pair_spread(w, &v, c.design.pole_pairs());
@@ -312,7 +330,7 @@ fn armature_resistance_is_the_combined_networks() {
 /// of the lap element alone, every reading equal on this symmetric winding.
 #[test]
 fn armature_test_describes_the_frog_leg_pattern() {
-    let out = support::armsheet(&["test", "designs/hoist-frog-leg.toml", "--json"]);
+    let out = support::armsheet(&["test", "designs/mill-frog-leg.toml", "--json"]);
     assert_eq!(out.status.code(), Some(0));
     let j: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
     let words = j["elements_pattern"].as_str().unwrap();

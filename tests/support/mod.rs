@@ -22,7 +22,7 @@ pub const DEMOS: [&str; 6] = [
     "pump-wave",
     "conveyor-wave-dummy",
     "mill-lap-12p",
-    "hoist-frog-leg",
+    "mill-frog-leg",
 ];
 
 /// The text of `tests/fixtures/NAME`.
