@@ -208,8 +208,7 @@ fn combined_network_under_load_holds_pairs_equipotential() {
         }
         by
     };
-    for s in 0..w.active_coils as usize {
-        let l = lap_from[s];
+    for (s, &l) in lap_from.iter().enumerate() {
         let mid = (w.connections[l].end_segment.unwrap() - 1) as usize;
         let wv = wave_from[mid];
         assert_eq!(w.coil_emf[l] + w.coil_emf[wv], 0, "bar {}", s + 1);
@@ -344,4 +343,34 @@ fn armature_test_describes_the_frog_leg_pattern() {
     let lap = support::armsheet(&["test", "designs/hoist-lap.toml", "--json"]);
     let j: serde_json::Value = serde_json::from_slice(&lap.stdout).unwrap();
     assert!(j.get("elements_pattern").is_none());
+}
+
+/// The sheets tell the elements apart: the developed diagram marks every coil with its
+/// element and draws both; the connection table and the winding order carry an element
+/// column; the end view names the four leads a bar; the CSV ends each row with the element.
+#[test]
+fn sheets_show_both_elements() {
+    let dir = support::scratch("sheets");
+    let out = support::armsheet(&[
+        "sheet",
+        "designs/mill-frog-leg.toml",
+        "-o",
+        dir.to_str().unwrap(),
+    ]);
+    assert_eq!(out.status.code(), Some(0), "{}", support::text(&out.stderr));
+    let set = dir.join("mill-frog-leg");
+    let all: String = support::files_in(&set)
+        .into_iter()
+        .filter(|(n, _)| n.ends_with(".svg"))
+        .map(|(_, b)| String::from_utf8(b).unwrap())
+        .collect();
+    assert!(all.contains(r#"data-element="lap""#));
+    assert!(all.contains(r#"data-element="wave""#));
+    assert!(all.contains(">elem.<"), "an element column heading");
+    assert!(all.contains("Every bar takes four leads"));
+    let csv = std::fs::read_to_string(set.join("connections.csv")).unwrap();
+    let mut lines = csv.lines();
+    assert!(lines.next().unwrap().ends_with(",element"));
+    assert_eq!(csv.lines().filter(|l| l.ends_with(",wave")).count(), 150);
+    assert_eq!(csv.lines().filter(|l| l.ends_with(",lap")).count(), 150);
 }
