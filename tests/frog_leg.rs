@@ -374,3 +374,29 @@ fn sheets_show_both_elements() {
     assert_eq!(csv.lines().filter(|l| l.ends_with(",wave")).count(), 150);
     assert_eq!(csv.lines().filter(|l| l.ends_with(",lap")).count(), 150);
 }
+
+/// A rewind keeps the frog-leg whole: the wave coils' span is written back, both elements
+/// take the new turns, and the turns come from each element's share of the paths
+/// (conductors per path 2·C·T/(a/2)), so the EMF lands near the new voltage.
+#[test]
+fn rewind_keeps_both_elements() {
+    let dir = support::scratch("rewind");
+    let file = dir.join("new.toml");
+    let out = support::armsheet(&[
+        "rewind",
+        "designs/mill-frog-leg.toml",
+        "--voltage",
+        "480",
+        "-o",
+        file.to_str().unwrap(),
+    ]);
+    assert_eq!(out.status.code(), Some(0), "{}", support::text(&out.stderr));
+    let c = checked(&std::fs::read_to_string(&file).unwrap());
+    let d = &c.design;
+    assert_eq!(d.winding_type, WindingType::FrogLeg);
+    let wave = d.wave_coils.unwrap();
+    assert_eq!((wave.span, wave.turns, d.turns), (13, 2, 2));
+    // 240 V at 1 turn; 480 V wants about twice the conductors per path.
+    let e = c.winding.constants.emf_v.unwrap();
+    assert!((e - 2.0 * 228.0).abs() < 1.0, "{e}");
+}

@@ -152,6 +152,12 @@ pub trait WindingKind: Sync {
     /// The winding elements on the commutator, from the design's multiplicity `m` and
     /// direction (the first element's): one for lap or wave, two for frog-leg.
     fn elements(&self, m: u32, p: u32, dir: Direction) -> Vec<ElementSpec>;
+
+    /// How many elements [`WindingKind::elements`] gives: each holds C coils and a share
+    /// 1/element_count of the paths.
+    fn element_count(&self) -> u32 {
+        self.elements(1, 2, Direction::Progressive).len() as u32
+    }
 }
 
 /// Lap winding: y_c = ±m, a = m·P, uses every coil.

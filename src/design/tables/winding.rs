@@ -224,7 +224,7 @@ fn read_wave_coils(
     span: u32,
     turns: i64,
 ) -> Result<Option<WaveCoils>, Diagnostic> {
-    let frog = wtype.kind().elements(1, 2, Direction::Progressive).len() > 1;
+    let frog = wtype.kind().element_count() > 1;
     if !frog {
         for key in ["wave_span", "wave_turns"] {
             if let Some(v) = win.raw(key) {
