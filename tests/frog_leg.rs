@@ -400,3 +400,43 @@ fn rewind_keeps_both_elements() {
     let e = c.winding.constants.emf_v.unwrap();
     assert!((e - 2.0 * 228.0).abs() < 1.0, "{e}");
 }
+
+/// A card with four leads a bar and the wave coil's throw identifies the frog-leg it was taken
+/// on: one candidate, traced to the demo's very connections; the same card with a wave throw
+/// one bar off fits nothing and says why.
+#[test]
+fn identify_finds_the_frog_leg_from_its_card() {
+    let text = support::fixture("frog-leg-card.toml");
+    let card = armsheet::design::parse_card(&text, "card.toml").unwrap();
+    let found = armsheet::checks::identify::identify(&card);
+    assert_eq!(found.candidates.len(), 1, "{:?}", found.conflicts);
+    let got = &found.candidates[0].checked;
+    assert_eq!(got.design.winding_type, WindingType::FrogLeg);
+    let demo = checked(&support::demo("mill-frog-leg"));
+    assert_eq!(got.winding.connections, demo.winding.connections);
+    let off = text.replace("wave_throw = \"28-77\"", "wave_throw = \"29-78\"");
+    let card = armsheet::design::parse_card(&off, "card.toml").unwrap();
+    let found = armsheet::checks::identify::identify(&card);
+    assert!(found.candidates.is_empty());
+    assert!(
+        found
+            .conflicts
+            .iter()
+            .any(|c| c.contains("not the 29-78 seen")),
+        "{:?}",
+        found.conflicts
+    );
+    // Without the four leads, the same bars read as a plain lap.
+    let two = text
+        .replace("leads_per_bar = 4\n", "")
+        .replace("wave_throw = \"28-77\"\n", "")
+        .replace("wave_coil_span = \"1-14\"\n", "");
+    let card = armsheet::design::parse_card(&two, "card.toml").unwrap();
+    let found = armsheet::checks::identify::identify(&card);
+    assert!(
+        found
+            .candidates
+            .iter()
+            .all(|k| k.checked.design.winding_type == WindingType::Lap)
+    );
+}
