@@ -108,6 +108,30 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
         "grey, tag sc: shorted by a brush now (no current)",
     );
     y += line_h;
+    if input.winding.is_multi_element() {
+        // A frog-leg's two elements: the back-end shapes the diagram draws.
+        let (b, t) = (y - 0.1, y - 2.1);
+        let lap = [(x0, b), (x0 + 2.0, t), (x0 + 4.0, b)];
+        let wave = [
+            (x0 + 4.8, b),
+            (x0 + 5.6, t + 0.8),
+            (x0 + 7.7, t + 0.8),
+            (x0 + 8.5, b),
+        ];
+        for piece in lap.windows(2).chain(wave.windows(2)) {
+            let mut line = Line::new("conn", piece[0], piece[1]);
+            line.stroke = Some(INK);
+            g.push(line);
+        }
+        text(
+            &mut g,
+            xs,
+            y,
+            "",
+            "back ends: lap coils pointed, wave square",
+        );
+        y += line_h;
+    }
     if !input.winding.dummy_coils.is_empty() {
         sample(&mut g, y, DUMMY_GREY, "conn", DUMMY_DASH);
         text(
