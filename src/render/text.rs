@@ -421,6 +421,8 @@ fn connections(s: &mut String, w: &Winding) {
         let seg = |x: Option<u32>| x.map_or_else(|| "-".to_string(), |v| v.to_string());
         let note = if c.dummy {
             "DUMMY: cut back and tape"
+        } else if w.is_multi_element() {
+            c.element.as_str()
         } else {
             ""
         };
@@ -445,7 +447,18 @@ fn sequence(s: &mut String, w: &Winding) {
         "WINDING SEQUENCE (segment -coil- segment, in trace order)",
     );
     for (i, cw) in w.closed_windings.iter().enumerate() {
-        let _ = writeln!(s, "  closed winding {} ({} coils):", i + 1, cw.steps.len());
+        let element = match cw.steps.first() {
+            Some(st) if w.is_multi_element() => {
+                format!("{} element, ", w.element_of(st.coil).kind.as_str())
+            }
+            _ => String::new(),
+        };
+        let _ = writeln!(
+            s,
+            "  closed winding {} ({element}{} coils):",
+            i + 1,
+            cw.steps.len()
+        );
         let mut line = String::from("   ");
         for (k, st) in cw.steps.iter().enumerate() {
             let piece = if k == 0 {
