@@ -53,24 +53,25 @@ pub fn identify(card: &Card) -> Identified {
     let mut rejected = Vec::new();
     let p = card.poles / 2;
     let c = card.bars;
-    // Four leads a bar is a frog-leg: a lap and a wave coil end on every bar [src: a trade
-    // association's technical note on frog-leg windings, read in a public copy].
-    let kinds: &[WindingType] = if card.leads_per_bar == 4 {
-        &[WindingType::FrogLeg]
-    } else if p >= 2 {
-        &[WindingType::Lap, WindingType::Wave]
-    } else {
-        &[WindingType::Lap]
-    };
-    for &kind in kinds {
+    // Each element puts two leads on every bar, so four leads a bar is a frog-leg: a lap and a
+    // wave coil end on every bar [src: a trade association's technical note on frog-leg
+    // windings, read in a public copy]. A kind also needs its least poles.
+    let kinds: Vec<WindingType> = WindingType::ALL
+        .into_iter()
+        .filter(|k| {
+            2 * k.kind().element_count() == card.leads_per_bar && card.poles >= k.kind().min_poles()
+        })
+        .collect();
+    for kind in kinds {
         for m in 1..=bounds::MAX_MULTIPLICITY as u32 {
             for dir in [Direction::Progressive, Direction::Retrogressive] {
                 if kind == WindingType::Wave && !wave_pitch_whole(c, m, p, dir) {
                     continue;
                 }
-                if kind == WindingType::FrogLeg && !kind.kind().workable(c, c, m, p, dir) {
+                if kind.kind().uses_every_coil() && !kind.kind().workable(c, c, m, p, dir) {
                     rejected.push(format!(
-                        "a frog-leg: {}",
+                        "a {}: {}",
+                        kind.as_str(),
                         kind.kind().segment_rule(c, c, m, p, dir)
                     ));
                     continue;
