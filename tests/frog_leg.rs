@@ -440,3 +440,20 @@ fn identify_finds_the_frog_leg_from_its_card() {
             .all(|k| k.checked.design.winding_type == WindingType::Lap)
     );
 }
+
+/// The drop test feeds a frog-leg as its lap element: once, at bar 1 and the bar opposite,
+/// although the wave element adds closed windings of its own (4 poles, 58 bars: 1 + 2).
+#[test]
+fn drop_test_feeds_a_frog_leg_once_across_the_commutator() {
+    let dir = support::scratch("drop");
+    let file = dir.join("f.toml");
+    std::fs::write(&file, frog(4, 58, 1, 14, "")).unwrap();
+    let out = support::armsheet(&["test", file.to_str().unwrap(), "--json"]);
+    let j: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let feeds = j["drop_test"]["feeds"].as_array().unwrap();
+    assert_eq!(feeds.len(), 1);
+    assert_eq!(
+        (feeds[0]["from_bar"].as_u64(), feeds[0]["to_bar"].as_u64()),
+        (Some(1), Some(30))
+    );
+}

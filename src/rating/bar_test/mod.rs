@@ -148,6 +148,9 @@ pub struct ArmatureTest {
     pub winding_type: WindingType,
     /// Closed windings.
     pub reentrancy: u32,
+    /// Closed windings the drop test feeds each on its own: the first element's (a frog-leg's
+    /// lap element ties every bar, so its wave element is fed through it).
+    pub feed_windings: u32,
     /// Whether equalizers are fitted.
     pub equalized: bool,
     /// The unit of every reading.
@@ -281,6 +284,7 @@ pub fn expected(design: &Design, winding: &Winding, options: &TestOptions) -> Ar
         multiplicity: m,
         winding_type: design.winding_type,
         reentrancy: winding.reentrancy(),
+        feed_windings: winding.elements[0].reentrancy,
         equalized: matches!(&winding.equalizers, crate::winding::EqualizerPlan::Possible(e) if !e.groups.is_empty()),
         unit: if r_coil.is_some() {
             Unit::Ohm
@@ -399,7 +403,7 @@ pub fn spread_pct(values: &[f64]) -> f64 {
 /// winding, each closed winding on its own, from its first bar to its bar opposite.
 fn feed_bars(t: &ArmatureTest) -> Vec<(u32, u32)> {
     let c = t.bars;
-    let r = t.reentrancy.max(1);
+    let r = t.feed_windings.max(1);
     if t.multiplicity > 1 && r == 1 {
         return vec![(1, 2)];
     }
@@ -425,7 +429,7 @@ fn drop_test(t: &ArmatureTest, current_a: f64, scale: f64) -> DropTest {
         .into_iter()
         .map(|(a, wanted)| {
             // Never two bars an equalizer ties: move on within the same winding.
-            let step = t.reentrancy.max(1);
+            let step = t.feed_windings.max(1);
             let mut b = wanted;
             let mut tries = 0;
             while net.node(a) == net.node(b) && tries < c {
@@ -433,7 +437,7 @@ fn drop_test(t: &ArmatureTest, current_a: f64, scale: f64) -> DropTest {
                 tries += 1;
             }
             let phi = net.potentials(a, b);
-            let pairs = if t.reentrancy > 1 {
+            let pairs = if t.feed_windings > 1 {
                 pairs_apart(c, t.multiplicity)
             } else {
                 neighbour_pairs(c)
