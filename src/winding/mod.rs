@@ -10,6 +10,11 @@
 //!   y_s slots on, same position. Top coil sides are odd (2n−1), bottom sides even.
 //! - The active coils, in position order, start at segments 1, 2, … C; coil i's end lead is on
 //!   segment i + y_c (mod C). Dummy coils are spread evenly and left unconnected.
+//! - A winding of several elements (frog-leg: lap, then wave) numbers each element's coils
+//!   after the previous element's: coil N·k + j lies in coil j's slot and position, with
+//!   element k's span; element k's i-th active coil starts on segment i + 1 + shift_k, the
+//!   shift that puts it on the first element's neutral (`element_start_shift`). Each element
+//!   is traced on its own; brushes, paths, shorted coils and balance use all of them.
 //! - Each active coil's front pitch is read off the connections ([`Connection::front_pitch`]):
 //!   the nominal y_f, plus 2 for each dummy coil the step to the next coil passes on a wave.
 //! - Reference position: the centre line of coil 1 lies on the axis of pole 1 (a north pole).
