@@ -84,6 +84,22 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
         "back / front",
         format!("{} / {}", w.pitches.back, w.pitches.front),
     );
+    // A frog-leg's wave element: its own pitches and span (the rows above are the lap's).
+    for e in w.elements.iter().skip(1) {
+        let name = e.kind.as_str();
+        row(
+            &format!("{name} pitch / span"),
+            format!(
+                "{} / {}",
+                signed(e.pitches.commutator),
+                span_shop_dash(e.pitches.span)
+            ),
+        );
+        row(
+            &format!("{name} back / front"),
+            format!("{} / {}", e.pitches.back, e.pitches.front),
+        );
+    }
     row("parallel paths", w.parallel_paths().to_string());
     row(
         "brush sets",
