@@ -97,7 +97,8 @@ fn mean_offset_bars(w: &Winding, d: &Design) -> (f64, usize) {
         for coil in shorted_at(w, d, phi) {
             let conn = &w.connections[(coil - 1) as usize];
             let top = f64::from(conn.top.slot - 1) * slot_pitch;
-            let centre = top + f64::from(d.span) * slot_pitch / 2.0 + rot * phi;
+            let centre =
+                top + f64::from(w.element_of(coil).pitches.span) * slot_pitch / 2.0 + rot * phi;
             let nearest = w
                 .pole_axes_deg
                 .iter()
@@ -355,6 +356,7 @@ fn every_demo_commutates_on_neutral() {
         "pump-wave",
         "conveyor-wave-dummy",
         "mill-lap-12p",
+        "mill-frog-leg",
     ] {
         let d = design(&support::demo(name));
         let w = trace_winding(&d);

@@ -12,6 +12,7 @@ fn demos_pass_and_an_unsymmetric_lap_fails_with_exit_1() {
         "pump-wave",
         "conveyor-wave-dummy",
         "mill-lap-12p",
+        "mill-frog-leg",
     ] {
         let out = armsheet(&["check", &format!("designs/{demo}.toml")]);
         assert_eq!(

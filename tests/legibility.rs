@@ -189,7 +189,7 @@ fn breaches(page: &Page) -> Vec<String> {
 
 /// Least distance between two dots on one edge, mm: at least 0.2 mm of paper shows between
 /// two dots (the layout aims for 1.2 mm and reaches at least this).
-const DOT_GAP: f64 = 2.0 * armsheet::layout::developed::nodes::CUT_DOT_R + 0.2;
+const DOT_GAP: f64 = armsheet::layout::developed::nodes::CUT_DOT_FLOOR;
 
 /// The edge-label breaches of a developed diagram: a dot without its own label, two dots
 /// closer than [`DOT_GAP`], and in the whole view edges that read differently.

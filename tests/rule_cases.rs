@@ -338,3 +338,52 @@ fn every_rule_id_has_its_rows() {
         );
     }
 }
+
+fn frog_leg(poles: u32, slots: u32, span: u32, extra: &str) -> String {
+    format!(
+        "[armature]\npoles = {poles}\nslots = {slots}\n\n[winding]\ntype = \"frog-leg\"\nspan = {span}\nturns = 1\n{extra}"
+    )
+}
+
+/// Frog-leg rules: passing on the worked example; failing on a winding tampered where it can
+/// be (the rules read the traced connections and paths), on unequal turns, and absent on a
+/// plain lap. C/p not whole is refused by the design stage (tests/broken/).
+#[test]
+fn frog_leg_rules() {
+    // Source: frog-leg windings, a trade association's technical note (DOMAIN.md); derived.
+    let toml = frog_leg(4, 58, 14, "");
+    for id in [
+        "frogleg.self-equalizing",
+        "frogleg.element-paths",
+        "frogleg.pole-pairs-whole",
+        "frogleg.equal-coils",
+    ] {
+        case(id, Pass, &toml);
+    }
+    case("frogleg.wave-reentrancy", Pass, &toml);
+    case("frogleg.wave-reentrancy", Absent, &lap(4, 36, 1, 9, 1, ""));
+    case("frogleg.pole-pairs-whole", Absent, &lap(4, 36, 1, 9, 1, ""));
+    case(
+        "frogleg.equal-coils",
+        Fail,
+        &frog_leg(4, 58, 14, "wave_turns = 2\n"),
+    );
+    let c = checked(&toml);
+    let run = |w: &armsheet::winding::Winding, id: &str| {
+        run_checks(&c.design, w)
+            .into_iter()
+            .find(|f| f.id == id)
+            .unwrap()
+            .passed
+    };
+    // A wave coil's end lead one bar on: the lap and wave coils in series miss the bar two
+    // pole pitches on.
+    let mut w = c.winding.clone();
+    let k = &mut w.connections[58];
+    k.end_segment = Some(k.end_segment.unwrap() % 58 + 1);
+    assert!(!run(&w, "frogleg.self-equalizing"));
+    // One wave path lost: the elements no longer have equal paths.
+    let mut w = c.winding.clone();
+    w.elements[1].paths -= 1;
+    assert!(!run(&w, "frogleg.element-paths"));
+}

@@ -53,15 +53,27 @@ pub fn identify(card: &Card) -> Identified {
     let mut rejected = Vec::new();
     let p = card.poles / 2;
     let c = card.bars;
-    let kinds: &[WindingType] = if p >= 2 {
-        &[WindingType::Lap, WindingType::Wave]
-    } else {
-        &[WindingType::Lap]
-    };
-    for &kind in kinds {
+    // Each element puts two leads on every bar, so four leads a bar is a frog-leg: a lap and a
+    // wave coil end on every bar [src: a trade association's technical note on frog-leg
+    // windings, read in a public copy]. A kind also needs its least poles.
+    let kinds: Vec<WindingType> = WindingType::ALL
+        .into_iter()
+        .filter(|k| {
+            2 * k.kind().element_count() == card.leads_per_bar && card.poles >= k.kind().min_poles()
+        })
+        .collect();
+    for kind in kinds {
         for m in 1..=bounds::MAX_MULTIPLICITY as u32 {
             for dir in [Direction::Progressive, Direction::Retrogressive] {
                 if kind == WindingType::Wave && !wave_pitch_whole(c, m, p, dir) {
+                    continue;
+                }
+                if kind.kind().uses_every_coil() && !kind.kind().workable(c, c, m, p, dir) {
+                    rejected.push(format!(
+                        "a {}: {}",
+                        kind.as_str(),
+                        kind.kind().segment_rule(c, c, m, p, dir)
+                    ));
                     continue;
                 }
                 let yc = commutator_pitch(kind, dir, c, m, p);
@@ -152,18 +164,19 @@ fn coil_counts(
             }
             continue;
         }
-        let fits = match kind {
-            WindingType::Lap => n == c,
-            WindingType::Wave => match &card.dead_coils {
+        let fits = if kind.kind().uses_every_coil() {
+            n == c
+        } else {
+            match &card.dead_coils {
                 Some(dead) => n - c == dead.len() as u32,
                 None => kind.kind().default_segments(n, m, p, dir) == Some(c),
-            },
+            }
         };
         if fits {
             out.push(u);
-        } else if card.coils_per_slot.is_some() || (kind == WindingType::Lap && n > c) {
+        } else if card.coils_per_slot.is_some() || (kind.kind().uses_every_coil() && n > c) {
             rejected.push(match (kind, &card.dead_coils) {
-                (WindingType::Lap, _) => format!(
+                (k, _) if k.kind().uses_every_coil() => format!(
                     "a {name} uses every coil: {u} coil(s) per slot in {s} slots needs {n} bars, you counted {c}"
                 ),
                 (_, Some(dead)) => format!(
@@ -178,7 +191,7 @@ fn coil_counts(
                 ),
             });
         }
-        if kind == WindingType::Lap && n >= c {
+        if kind.kind().uses_every_coil() && n >= c {
             break;
         }
     }
@@ -204,7 +217,7 @@ fn candidate(
     let n = u * card.slots;
     let dummies = dummy_coils(card, u, n - c).map_err(|e| format!("a {name}: {e}"))?;
     let equalizers = equalizer_choice(card, kind).map_err(|e| format!("a {name}: {e}"))?;
-    if kind == WindingType::Lap
+    if kind != WindingType::Wave
         && let Some(b) = card.brush_sets
         && b != card.poles
     {
@@ -242,6 +255,17 @@ fn candidate(
             half_bars_words(swing),
             half_bars_words(i64::from(card.lead_swing.0))
         ));
+    }
+    if let (Some(e), Some((a, b))) = (w.elements.get(1), card.wave_throw) {
+        let k = &w.connections[(e.first_coil - 1) as usize];
+        if (k.start_segment, k.end_segment) != (Some(a), Some(b)) {
+            return Err(format!(
+                "a {name}: its wave coils, traced, throw {}-{} (y_c = {}), not the {a}-{b} seen",
+                k.start_segment.unwrap_or(0),
+                k.end_segment.unwrap_or(0),
+                e.pitches.commutator
+            ));
+        }
     }
     if let EqualizerPlan::Impossible(why) = &w.equalizers
         && !card.equalizer_taps.is_empty()
@@ -289,8 +313,11 @@ fn equalizer_choice(card: &Card, kind: WindingType) -> Result<EqualizerChoice, S
     if card.equalizer_taps.is_empty() {
         return Ok(EqualizerChoice::None);
     }
-    if kind == WindingType::Wave {
-        return Err("equalizer taps are seen on lap windings; a wave winding needs none".into());
+    if !kind.kind().takes_equalizers() {
+        return Err(format!(
+            "equalizer taps are seen on lap windings; {}",
+            kind.kind().no_equalizers_reason()
+        ));
     }
     let (c, p) = (card.bars, card.poles / 2);
     if p < 2 || !c.is_multiple_of(p) {
@@ -345,6 +372,10 @@ fn design(
         span: card.coil_span,
         span_source: SpanSource::Given,
         turns: card.turns,
+        wave_coils: (kind.kind().element_count() > 1).then(|| crate::design::WaveCoils {
+            span: card.wave_coil_span.unwrap_or(card.coil_span),
+            turns: card.turns,
+        }),
         lead_offset: HalfBars::ZERO,
         equalizers,
         dummy_coils,
@@ -373,13 +404,22 @@ fn explain(card: &Card, k: &Checked, yc: i64, dummies: u32, named: &Option<Vec<u
     } else {
         "-"
     };
-    let pitch = match d.winding_type {
-        WindingType::Lap => format!("the throw 1-{} is y_c = {sign}{m}", card.throw_end),
-        WindingType::Wave => format!(
+    let wave = k.winding.elements.get(1).map_or(String::new(), |e| {
+        format!(
+            "; four leads a bar: a frog-leg, whose wave coils' throw {}-{} is y_c = {} = C/p - ({sign}{m}) = {c}/{p} - ({sign}{m}), so y_c(lap) + |y_c(wave)| = C/p (self-equalizing)",
+            card.wave_throw.map_or(0, |t| t.0),
+            card.wave_throw.map_or(0, |t| t.1),
+            e.pitches.commutator
+        )
+    });
+    let pitch = if d.winding_type != WindingType::Wave {
+        format!("the throw 1-{} is y_c = {sign}{m}{wave}", card.throw_end)
+    } else {
+        format!(
             "the throw 1-{} is y_c = {yc}, and p·y_c = {p}·{yc} = {} = C {sign} {m}",
             card.throw_end,
             i64::from(p) * yc
-        ),
+        )
     };
     let coils = match (dummies, named) {
         (0, _) => format!(

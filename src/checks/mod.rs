@@ -9,6 +9,7 @@
 //! [`identify`] is no rule family: it builds the designs a data card allows and runs each
 //! through [`check`], keeping those whose trace reproduces the observations.
 
+mod frog_leg;
 pub mod identify;
 mod lap;
 mod shop;
@@ -75,6 +76,7 @@ pub fn run_checks(design: &Design, winding: &Winding) -> Vec<Finding> {
     match design.winding_type {
         WindingType::Lap => lap::check(design, winding, &mut out),
         WindingType::Wave => wave::check(design, winding, &mut out),
+        WindingType::FrogLeg => frog_leg::check(design, winding, &mut out),
     }
     trace::check(design, winding, &mut out);
     shop::check(design, winding, &mut out);

@@ -25,3 +25,7 @@ pub const TRACE: &str =
 pub const SIMULATION: &str = "armsheet simulation: flat-topped field under the pole arcs, rotor turned through one period of lcm(u, m) segment pitches in 8 steps each";
 /// The exact symmetry test.
 pub const EXACT_SYMMETRY: &str = "armsheet exact test: rotations of the armature through whole pole pitches that carry each path onto another [derived]";
+/// Frog-leg windings.
+pub const FROG_LEG: &str = "a trade association's technical note on frog-leg windings, read in a public copy; same wire and turns in both elements [common practice]";
+/// Frog-leg rules that are our own derivation.
+pub const FROG_LEG_DERIVED: &str = "frog-leg windings (a trade association's technical note, read in a public copy); the rule as read off the traced connections [derived]";

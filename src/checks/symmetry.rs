@@ -34,7 +34,7 @@ use super::sources::{EXACT_SYMMETRY as EXACT_SOURCE, SIMULATION, SYMMETRY};
 use super::{Finding, Severity};
 use crate::base::number::fmt_fixed;
 use crate::design::Design;
-use crate::winding::Winding;
+use crate::winding::{Winding, WindingElement};
 
 /// The ids of the classical symmetry conditions.
 const IDS: [&str; 3] = [
@@ -46,9 +46,10 @@ const IDS: [&str; 3] = [
 /// The id of the exact symmetry test.
 pub const EXACT: &str = "symmetry.exact";
 
-/// True when the exact symmetry test passed.
+/// True when the exact symmetry test passed (for every element of a frog-leg winding).
 pub fn is_symmetric(findings: &[Finding]) -> bool {
-    findings.iter().any(|f| f.id == EXACT && f.passed)
+    let mut exact = findings.iter().filter(|f| f.id == EXACT).peekable();
+    exact.peek().is_some() && exact.all(|f| f.passed)
 }
 
 /// The paths sorted into classes by the exact test: each class lists path indices (0-based)
@@ -108,11 +109,26 @@ impl PathClasses {
     }
 }
 
-/// Sorts the traced paths of `w` into classes carried onto one another (see the module doc).
+/// Sorts the traced paths of `w` into classes carried onto one another (see the module doc);
+/// for a frog-leg winding, the lap element's.
 pub fn path_classes(d: &Design, w: &Winding) -> PathClasses {
+    path_classes_of(d, w, &w.elements[0])
+}
+
+/// [`path_classes`] for the paths of one element `e` of `w` (path indices in the classes count
+/// the element's paths only, in order).
+pub fn path_classes_of(d: &Design, w: &Winding, e: &WindingElement) -> PathClasses {
     let c = w.active_coils;
     let s = d.slots;
-    let paths = &w.paths;
+    let mut local_of = vec![usize::MAX; w.paths.len()];
+    let paths: Vec<&crate::winding::ParallelPath> = w
+        .paths
+        .iter()
+        .filter(|p| p.coils.first().is_some_and(|&k| e.holds(k)))
+        .collect();
+    for (i, p) in paths.iter().enumerate() {
+        local_of[(p.index - 1) as usize] = i;
+    }
     let mut parent: Vec<usize> = (0..paths.len()).collect();
     let mut rigid = true;
     fn root(parent: &mut [usize], mut x: usize) -> usize {
@@ -124,7 +140,7 @@ pub fn path_classes(d: &Design, w: &Winding) -> PathClasses {
     }
     // Segment (0-based) -> coil whose start lead is on it; coil -> closed winding.
     let mut out = vec![0u32; c as usize];
-    for conn in &w.connections {
+    for conn in w.connections.iter().filter(|k| e.holds(k.coil)) {
         if let Some(st) = conn.start_segment {
             out[(st - 1) as usize] = conn.coil;
         }
@@ -150,7 +166,7 @@ pub fn path_classes(d: &Design, w: &Winding) -> PathClasses {
         .filter(|k| (u64::from(*k) * u64::from(d.poles)).is_multiple_of(u64::from(s)))
         .collect();
     for cw in &w.closed_windings {
-        let Some(first) = cw.steps.first().map(|st| st.coil) else {
+        let Some(first) = cw.steps.first().map(|st| st.coil).filter(|&k| e.holds(k)) else {
             continue;
         };
         for &k in &shifts {
@@ -158,7 +174,7 @@ pub fn path_classes(d: &Design, w: &Winding) -> PathClasses {
             for cand in w
                 .connections
                 .iter()
-                .filter(|cn| cn.top.slot == target_slot && !cn.dummy)
+                .filter(|cn| cn.top.slot == target_slot && !cn.dummy && e.holds(cn.coil))
             {
                 let j = i64::from(start_of(cand.coil)) - i64::from(start_of(first));
                 let onto = winding_of[(cand.coil - 1) as usize];
@@ -173,11 +189,11 @@ pub fn path_classes(d: &Design, w: &Winding) -> PathClasses {
                 if !carried {
                     continue;
                 }
-                let n = w.coils;
+                let (n, f) = (e.coils, e.first_coil);
                 let rigid_map = cw
                     .steps
                     .iter()
-                    .all(|st| image(st.coil, j) == (st.coil - 1 + k * d.coils_per_slot) % n + 1);
+                    .all(|st| image(st.coil, j) == (st.coil - f + k * d.coils_per_slot) % n + f);
                 // The rotated winding lies on `onto` under the same field: each path goes where
                 // its middle coil goes (the ends of a path move with the brush cut).
                 for (x, path) in paths.iter().enumerate() {
@@ -188,8 +204,13 @@ pub fn path_classes(d: &Design, w: &Winding) -> PathClasses {
                         continue;
                     }
                     let y = w.coil_path[(image(mid, j) - 1) as usize];
-                    if y != 0 && y as usize <= paths.len() {
-                        let (a, b) = (root(&mut parent, x), root(&mut parent, y as usize - 1));
+                    let y = if y == 0 {
+                        usize::MAX
+                    } else {
+                        local_of.get(y as usize - 1).copied().unwrap_or(usize::MAX)
+                    };
+                    if y < paths.len() {
+                        let (a, b) = (root(&mut parent, x), root(&mut parent, y));
                         if a != b {
                             rigid &= rigid_map;
                         }
@@ -235,13 +256,30 @@ fn ratio(num: u32, den: u32) -> String {
 }
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
-    let a = w.parallel_paths();
+    for e in &w.elements {
+        check_element(d, w, e, out);
+    }
+    balance(w, out);
+}
+
+/// Arnold's conditions and the exact test for element `e` (the whole winding when it has one
+/// element; each element of a frog-leg winding on its own, its messages naming it).
+fn check_element(d: &Design, w: &Winding, e: &WindingElement, out: &mut Vec<Finding>) {
+    let multi = w.is_multi_element();
+    let label = |m: String| {
+        if multi {
+            format!("{} element: {m}", e.kind.as_str())
+        } else {
+            m
+        }
+    };
+    let a = if multi { e.paths } else { w.parallel_paths() };
     let pairs = a / 2;
     let c = w.active_coils;
     let p = d.pole_pairs();
-    let classes = path_classes(d, w);
-    let congruence = classes.congruence(w.paths.len());
-    let exact = classes.symmetric(w.paths.len(), w.balance.balanced);
+    let classes = path_classes_of(d, w, e);
+    let congruence = classes.congruence(a as usize);
+    let exact = classes.symmetric(a as usize, w.balance.balanced);
     let mut rule = Vec::new();
     rule.push((
         IDS[0],
@@ -260,7 +298,12 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             ratio(d.slots, pairs)
         ),
     ));
-    if d.winding_type.kind().symmetry_counts_pole_pairs() {
+    let counts_pole_pairs = if multi {
+        e.kind.kind().symmetry_counts_pole_pairs()
+    } else {
+        d.winding_type.kind().symmetry_counts_pole_pairs()
+    };
+    if counts_pole_pairs {
         rule.push((
             IDS[2],
             whole(p, pairs),
@@ -284,7 +327,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         } else {
             (Severity::Error, message)
         };
-        out.push(Finding::new(id, severity, ok, message, SYMMETRY));
+        out.push(Finding::new(id, severity, ok, label(message), SYMMETRY));
     }
 
     let sizes: Vec<String> = classes
@@ -324,10 +367,14 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         EXACT,
         Severity::Error,
         exact,
-        format!("exact symmetry of the {a} paths: {why}; {agree}"),
+        label(format!("exact symmetry of the {a} paths: {why}; {agree}")),
         EXACT_SOURCE,
     ));
+}
 
+/// The simulated balance over every path.
+fn balance(w: &Winding, out: &mut Vec<Finding>) {
+    let exact = out.iter().filter(|f| f.id == EXACT).all(|f| f.passed);
     let b = &w.balance;
     let sim = format!(
         "simulated path EMFs differ by {} coil EMFs on average ({} at worst) over {} rotor positions",

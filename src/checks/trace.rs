@@ -35,10 +35,10 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     out.push(Finding::new(
         "trace.every-coil",
         Severity::Error,
-        visited == w.active_coils as usize,
+        visited == w.active_coils_all() as usize,
         format!(
             "the trace visits {visited} of {} active coils",
-            w.active_coils
+            w.active_coils_all()
         ),
         TRACE,
     ));

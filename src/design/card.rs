@@ -21,7 +21,13 @@
 //! - `dead_coils`: slots (1 to `slots`, counted from the marked slot) whose coil was found with
 //!   its leads cut and taped; a slot is listed once for each such coil in it;
 //! - `equalizer_taps`: pairs of bars seen joined by one equalizer ring, `[[1, 13], [4, 16]]`;
-//! - `rotation`: `"cw"` or `"ccw"`, as in `[armature]`.
+//! - `rotation`: `"cw"` or `"ccw"`, as in `[armature]`;
+//! - `leads_per_bar`: the leads counted on one bar, 2 (lap or wave; default) or 4 (frog-leg:
+//!   a lap and a wave coil end on every bar);
+//! - `wave_throw` (with four leads a bar, required): the bars of the marked slot's first wave
+//!   coil's start and end leads, counted from bar 1 like the rest, e.g. `"16-44"`;
+//! - `wave_coil_span` (with four leads a bar): the wave coil's slots, as `coil_span`; default
+//!   `coil_span`.
 
 use toml::de::{DeTable, DeValue};
 
@@ -50,6 +56,9 @@ pub const OBSERVED_KEYS: &[&str] = &[
     "dead_coils",
     "equalizer_taps",
     "rotation",
+    "leads_per_bar",
+    "wave_throw",
+    "wave_coil_span",
 ];
 
 /// The tables of a card.
@@ -88,6 +97,13 @@ pub struct Card {
     pub equalizer_taps: Vec<(u32, u32)>,
     /// `rotation`, when recorded.
     pub rotation: Option<Rotation>,
+    /// `leads_per_bar`: 2, or 4 for a frog-leg.
+    pub leads_per_bar: u32,
+    /// `wave_throw`: the start and end bars of the marked slot's first wave coil (four leads a
+    /// bar only).
+    pub wave_throw: Option<(u32, u32)>,
+    /// `wave_coil_span`, slots (four leads a bar only; default `coil_span`).
+    pub wave_coil_span: Option<u32>,
 }
 
 impl Card {
@@ -267,6 +283,7 @@ fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diag
         );
     }
     let span = o.keep(read_coil_span(o, s, p));
+    let frog = o.keep(read_frog_leg(o, s, p, c));
     let throw = o.keep(read_throw(o, c));
     let swing = o.keep(read_swing(o, c));
     let brush_sets = o.keep(read_brush_sets(o, p));
@@ -280,7 +297,8 @@ fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diag
     else {
         return Ok(None);
     };
-    let (Some(brush_sets), Some(dead), Some(taps)) = (brush_sets, dead, taps) else {
+    let (Some(brush_sets), Some(dead), Some(taps), Some(frog)) = (brush_sets, dead, taps, frog)
+    else {
         return Ok(None);
     };
     Ok(Some(Card {
@@ -299,7 +317,100 @@ fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diag
         dead_coils: dead,
         equalizer_taps: taps,
         rotation,
+        leads_per_bar: frog.leads,
+        wave_throw: frog.throw,
+        wave_coil_span: frog.span,
     }))
+}
+
+/// What a card says of a frog-leg: the leads a bar, and the wave coil's throw and span.
+struct FrogLegSeen {
+    leads: u32,
+    throw: Option<(u32, u32)>,
+    span: Option<u32>,
+}
+
+/// `leads_per_bar`, `wave_throw` and `wave_coil_span`: the wave keys only with four leads a
+/// bar, and the throw then required.
+fn read_frog_leg(
+    o: &TableReader<'_, '_>,
+    slots: i64,
+    poles: i64,
+    bars: i64,
+) -> Result<FrogLegSeen, Diagnostic> {
+    let leads = o.int(
+        "leads_per_bar",
+        2..=4,
+        "the leads on one bar: 2, or 4 for a frog-leg",
+        "count the leads soldered into one bar's riser",
+    )?;
+    if let Some(l) = &leads
+        && l.value == 3
+    {
+        return Err(o
+            .src
+            .error(
+                l.span.clone(),
+                o.dotted("leads_per_bar"),
+                "3 leads on a bar fits no winding: expected 2 (lap or wave) or 4 (frog-leg)",
+            )
+            .with_hint("count the leads in one bar's riser again"));
+    }
+    let leads = leads.map_or(2, |l| l.value as u32);
+    if leads == 2 {
+        for key in ["wave_throw", "wave_coil_span"] {
+            if let Some(v) = o.raw(key) {
+                return Err(o
+                    .src
+                    .error(
+                        v.span(),
+                        o.dotted(key),
+                        format!("{key} belongs to a frog-leg, which has four leads a bar"),
+                    )
+                    .with_hint("set leads_per_bar = 4, or remove the key"));
+            }
+        }
+        return Ok(FrogLegSeen {
+            leads,
+            throw: None,
+            span: None,
+        });
+    }
+    let key = "wave_throw";
+    let hint = "the marked slot's first wave coil: its start lead's bar, then its end lead's bar, counted from bar 1 the way the slots are numbered";
+    let Some(v) = o.raw(key) else {
+        return Err(o.missing(
+            key,
+            "the bars of the marked slot's wave coil, e.g. \"16-44\"",
+            "wave_throw = \"16-44\"",
+        ));
+    };
+    let pair = match v.get_ref() {
+        DeValue::String(s) => winding::shop_pair(s),
+        _ => None,
+    };
+    let Some((a, b)) =
+        pair.filter(|&(a, b)| (1..=bars).contains(&a) && (1..=bars).contains(&b) && a != b)
+    else {
+        return Err(o
+            .src
+            .error(
+                v.span(),
+                o.dotted(key),
+                format!("expected two different bars of 1 to {bars} such as \"16-44\""),
+            )
+            .with_hint(hint));
+    };
+    let span = if o.raw("wave_coil_span").is_some() {
+        Some(read_coil_span_key(o, "wave_coil_span", slots, poles)?)
+    } else {
+        None
+    };
+    Ok(FrogLegSeen {
+        leads,
+        throw: Some((a as u32, b as u32)),
+        span,
+    })
 }
 
 /// A required key: its value, or the located "missing key" error.
@@ -315,7 +426,16 @@ fn required<T>(
 
 /// `coil_span`: `"1-8"` or a number of slots, 1 to slots − 1.
 fn read_coil_span(o: &TableReader<'_, '_>, slots: i64, poles: i64) -> Result<u32, Diagnostic> {
-    let key = "coil_span";
+    read_coil_span_key(o, "coil_span", slots, poles)
+}
+
+/// A coil's slots under `key` (`coil_span`, `wave_coil_span`), as `coil_span`.
+fn read_coil_span_key(
+    o: &TableReader<'_, '_>,
+    key: &str,
+    slots: i64,
+    poles: i64,
+) -> Result<u32, Diagnostic> {
     let Some(v) = o.raw(key) else {
         return Err(o.missing(
             key,

@@ -3,7 +3,7 @@
 //! Part of the `design` stage. Later stages take a `Design` and never see TOML. Units are in
 //! the field names or docs; design-file keys are named in each doc comment.
 
-pub use crate::theory::{Direction, WindingType};
+pub use crate::theory::{Direction, ElementSpec, WindingType};
 
 /// Sense of rotation seen from the commutator end (`[armature] rotation`, default `"cw"`).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -62,6 +62,27 @@ pub enum SpanSource {
     Given,
     /// Defaulted to floor(slots / poles).
     Default,
+}
+
+/// The wave element's coils of a frog-leg winding (`[winding] wave_span`, `wave_turns`).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct WaveCoils {
+    /// `wave_span`, slots (default `span`).
+    pub span: u32,
+    /// `wave_turns` per coil (default `turns`).
+    pub turns: u32,
+}
+
+/// One winding element as the design gives it: the kind's element ([`ElementSpec`]) with its
+/// coils' span and turns.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct DesignElement {
+    /// Kind, multiplicity and direction.
+    pub spec: ElementSpec,
+    /// Span in slots.
+    pub span: u32,
+    /// Turns per coil.
+    pub turns: u32,
 }
 
 /// Optional text that identifies the job (`[job]`).
@@ -290,6 +311,9 @@ pub struct Design {
     pub span_source: SpanSource,
     /// `[winding] turns` per coil.
     pub turns: u32,
+    /// The wave element of a frog-leg winding (`[winding] wave_span`, `wave_turns`); `None`
+    /// for lap and wave.
+    pub wave_coils: Option<WaveCoils>,
     /// `[winding] lead_offset`, in half bars (default 0; `0.5`, `-1.5` allowed). See `winding`
     /// for the convention.
     pub lead_offset: HalfBars,
@@ -325,6 +349,24 @@ impl Design {
     /// Coil positions N = u·S.
     pub fn coil_positions(&self) -> u32 {
         self.coils_per_slot * self.slots
+    }
+
+    /// The winding elements on the commutator, in order (the lap element first): the kind's
+    /// elements ([`crate::theory::WindingKind::elements`]) with their spans and turns.
+    pub fn elements(&self) -> Vec<DesignElement> {
+        let kind = self.winding_type.kind();
+        kind.elements(self.multiplicity, self.pole_pairs(), self.direction)
+            .into_iter()
+            .enumerate()
+            .map(|(i, spec)| {
+                let wave = self.wave_coils.filter(|_| i > 0);
+                DesignElement {
+                    spec,
+                    span: wave.map_or(self.span, |w| w.span),
+                    turns: wave.map_or(self.turns, |w| w.turns),
+                }
+            })
+            .collect()
     }
 
     /// Brush sets fitted: `[commutator] brush_sets`, default P (one by each pole).

@@ -33,14 +33,15 @@ impl Machine<'_> {
     }
 
     /// Turns per coil on `paths` paths and `segments` segments for the same EMF, before
-    /// rounding.
-    fn turns_for(&self, paths: u32, segments: u32) -> f64 {
-        self.per_path() * f64::from(paths) / (2.0 * f64::from(segments))
+    /// rounding; each of the kind's elements holds `segments` coils and its share of the paths.
+    fn turns_for(&self, kind: WindingType, paths: u32, segments: u32) -> f64 {
+        let elements = kind.kind().element_count().max(1);
+        self.per_path() * f64::from(paths / elements) / (2.0 * f64::from(segments))
     }
 
     /// One reconnection option with its current, turns and conductor.
     fn path_option(&self, route: PathRoute, k: Scheme, current: f64) -> PathOption {
-        let exact = self.turns_for(k.paths, k.segments);
+        let exact = self.turns_for(k.kind, k.paths, k.segments);
         PathOption {
             route,
             scheme: k,
@@ -258,7 +259,7 @@ pub fn more_segments(m: &Machine<'_>, c_min: Option<u32>) -> Advice {
         })
     });
     let option = found.map(|(u, k)| {
-        let t = m.turns_for(k.paths, k.segments);
+        let t = m.turns_for(k.kind, k.paths, k.segments);
         let whole = t.round();
         let emf_shift_pct =
             (whole >= 1.0 && (whole - t).abs() > 0.1 * t).then(|| (whole / t - 1.0) * 100.0);

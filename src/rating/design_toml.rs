@@ -54,6 +54,10 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
     let _ = writeln!(s, "direction = \"{}\"", d.direction.as_str());
     let _ = writeln!(s, "span = \"{}\"", span_shop(d.span));
     let _ = writeln!(s, "turns = {}", d.turns);
+    if let Some(w) = d.wave_coils {
+        let _ = writeln!(s, "wave_span = \"{}\"", span_shop(w.span));
+        let _ = writeln!(s, "wave_turns = {}", w.turns);
+    }
     let _ = writeln!(s, "lead_offset = {}", d.lead_offset);
     match d.equalizers {
         EqualizerChoice::None => s.push_str("equalizers = \"none\"\n"),

@@ -152,13 +152,30 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
         notes.push(RatingNote::MeanTurnEstimated(*t));
     }
     let calc_r20 = conductor.as_ref().and_then(|k| {
-        k.mean_turn
-            .as_ref()
-            .map(|t| resistance::armature_resistance_20(z, a, t.mm, k.area_mm2))
+        k.mean_turn.as_ref().map(|t| {
+            if w.is_multi_element() {
+                let elements: Vec<(u64, u32)> = w
+                    .elements
+                    .iter()
+                    .map(|e| {
+                        (
+                            2 * u64::from(c) * u64::from(e.turns),
+                            e.paths_formula.max(1),
+                        )
+                    })
+                    .collect();
+                resistance::elements_resistance_20(&elements, t.mm, k.area_mm2)
+            } else {
+                resistance::armature_resistance_20(z, a, t.mm, k.area_mm2)
+            }
+        })
     });
     let resistance = match (measured_r20, calc_r20) {
         (Some(r), _) => Some(Resistance::new(r, class, true)),
-        (None, Some(r)) => Some(Resistance::new(r, class, false)),
+        (None, Some(r)) => Some(Resistance {
+            elements: w.elements.len() as u32,
+            ..Resistance::new(r, class, false)
+        }),
         (None, None) => None,
     };
     if resistance.is_none() {

@@ -57,6 +57,19 @@ pub fn armature_resistance_20(z: u64, paths: u32, mean_turn_mm: f64, area_mm2: f
     COPPER_RHO_20 * z as f64 * (mean_turn_mm / 1000.0) / (2.0 * a * a * area_mm2)
 }
 
+/// Armature resistance at 20 °C of several winding elements on one commutator (a frog-leg's
+/// lap and wave elements), Ω: each element `(z, a)` is R_e = ρ·Z_e·L_mt/(2·a_e²·A_c) between
+/// the brushes, and the elements are in parallel there, so 1/R_a = Σ 1/R_e [derived: the
+/// elements meet only at the bars, and the brushes tie each polarity's bars]. With equal turns
+/// this is [`armature_resistance_20`] with the total Z and a.
+pub fn elements_resistance_20(elements: &[(u64, u32)], mean_turn_mm: f64, area_mm2: f64) -> f64 {
+    let g: f64 = elements
+        .iter()
+        .map(|&(z, a)| 1.0 / armature_resistance_20(z, a, mean_turn_mm, area_mm2))
+        .sum();
+    1.0 / g
+}
+
 /// The armature resistance, cold and hot.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Resistance {
@@ -70,6 +83,8 @@ pub struct Resistance {
     pub from_class: bool,
     /// True when the 20 °C value is a measurement (`rewind --ra`), not a calculation.
     pub measured: bool,
+    /// Winding elements in parallel behind the calculated value (2 for frog-leg, else 1).
+    pub elements: u32,
 }
 
 impl Resistance {
@@ -82,6 +97,7 @@ impl Resistance {
             hot_ohm: correct_temperature(r20_ohm, 20.0, reference_c),
             from_class: class.is_some(),
             measured,
+            elements: 1,
         }
     }
 }
@@ -94,6 +110,16 @@ mod tests {
     fn alpha_matches_the_inferred_zero() {
         // 1/(234.5 + 20) = 0.003929 /K, the IEC 60028 α20 of 0.00393 to its published places.
         assert!((1.0 / (COPPER_T0 + 20.0) - COPPER_ALPHA_20).abs() < 5e-6);
+    }
+
+    #[test]
+    fn equal_elements_in_parallel_halve() {
+        // Two equal elements of Z = 200, a = 2 in parallel: half of one, which is the total
+        // Z = 400, a = 4 in the one-element formula.
+        let one = armature_resistance_20(200, 2, 500.0, 1.0);
+        let two = elements_resistance_20(&[(200, 2), (200, 2)], 500.0, 1.0);
+        assert!((two - one / 2.0).abs() < 1e-15);
+        assert!((two - armature_resistance_20(400, 4, 500.0, 1.0)).abs() < 1e-15);
     }
 
     #[test]

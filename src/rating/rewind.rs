@@ -402,7 +402,10 @@ pub fn rewind_rated(
     }
     let a1 = conn.paths;
     let c1 = conn.segments;
-    let exact_turns = x * f64::from(a1) / (2.0 * f64::from(c1));
+    // Each element carries its own paths: a frog-leg's a is shared by its two elements, each
+    // of C coils, so a path holds x = 2·C·T/(a/2) conductors.
+    let elements = kind.kind().element_count().max(1);
+    let exact_turns = x * f64::from(a1 / elements) / (2.0 * f64::from(c1));
     let turns = exact_turns.round();
     if turns < 1.0 {
         return Err(RewindError::TurnsRoundToZero {
@@ -417,7 +420,7 @@ pub fn rewind_rated(
         });
     }
     let turns = turns as u32;
-    let z1 = 2 * u64::from(c1) * u64::from(turns);
+    let z1 = 2 * u64::from(c1) * u64::from(turns) * u64::from(elements);
     let x1 = z1 as f64 / f64::from(a1);
     let ir1 = ir0 * x1 / x0;
     let speed_whole = match d.mode {
@@ -549,6 +552,11 @@ pub fn rewind_rated(
     nd.winding_type = kind;
     nd.multiplicity = m;
     nd.turns = turns;
+    // A frog-leg keeps its wave coils' span and takes the new turns in both elements.
+    nd.wave_coils = (elements > 1).then(|| crate::design::WaveCoils {
+        span: d.wave_coils.map_or(d.span, |w| w.span),
+        turns,
+    });
     nd.segments = c1;
     nd.segments_derived = false;
     if nd.dummy_coils.is_some() && (c1 != c0 || kind != WindingType::Wave) {

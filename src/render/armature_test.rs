@@ -11,7 +11,7 @@ use serde::Serialize;
 use crate::base::caution::TEST_CAUTIONS;
 use crate::base::number::{fmt_fixed, fmt_sig, round_sig};
 use crate::rating::bar_test::{
-    ArmatureTest, DropFeed, Fault, Location, Pattern, Reading, ReadingValue, Unit,
+    ArmatureTest, DropFeed, ElementsPattern, Fault, Location, Pattern, Reading, ReadingValue, Unit,
 };
 use crate::theory::words::{READING_DIGITS, multiplicity_word, reading_unit_words};
 
@@ -71,6 +71,23 @@ fn feed_words(f: &DropFeed, current: f64) -> String {
     )
 }
 
+/// A frog-leg's bar-to-bar pattern in words, from the network's figures.
+pub fn elements_words(e: &ElementsPattern, t: &ArmatureTest) -> String {
+    let unit = if t.coil_resistance_ohm.is_some() {
+        "ohm"
+    } else {
+        "coil"
+    };
+    format!(
+        "frog-leg: each pair of neighbouring bars has a lap coil across it, in parallel with the rest of the lap element and with the wave element, so the readings are about {} {unit}, against {} {unit} for the lap element alone ({} % of it); an open lap coil moves {} reading(s) by more than 5 %, an open wave coil {}: lift the wave leads to test the lap element as a plain lap",
+        fmt_sig(e.combined, DIGITS),
+        fmt_sig(e.lap_alone, DIGITS),
+        fmt_fixed(100.0 * e.combined / e.lap_alone.max(1e-300), 1),
+        e.open_lap_moves,
+        e.open_wave_moves
+    )
+}
+
 /// The text report.
 pub fn render_test_text(t: &ArmatureTest, design_name: &str) -> String {
     let mut out = String::new();
@@ -99,6 +116,9 @@ pub fn render_test_text(t: &ArmatureTest, design_name: &str) -> String {
         "  spread to expect: {} % (largest - smallest, of the mean); judge the measured spread against it",
         fmt_fixed(t.spread_pct, 2)
     );
+    if let Some(e) = &t.elements {
+        let _ = writeln!(out, "  {}", elements_words(e, t));
+    }
     if open > 0 {
         let _ = writeln!(
             out,
@@ -323,6 +343,9 @@ struct TestJson {
     cautions: [&'static str; 4],
     coil_resistance_ohm: Option<f64>,
     drop_test: DropJson,
+    /// A frog-leg's bar-to-bar pattern in words; absent for lap and wave.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    elements_pattern: Option<String>,
     #[serde(flatten)]
     location: Option<LocationJson>,
     open_pairs: usize,
@@ -340,6 +363,7 @@ fn test_json(t: &ArmatureTest) -> TestJson {
         cannot_see: UNSEEN,
         cautions: TEST_CAUTIONS,
         coil_resistance_ohm: t.coil_resistance_ohm.map(|r| round_sig(r, DIGITS)),
+        elements_pattern: t.elements.as_ref().map(|e| elements_words(e, t)),
         drop_test: DropJson {
             current_a: t.drop_test.current_a,
             feeds: t

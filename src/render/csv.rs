@@ -106,11 +106,22 @@ pub fn job_csv(design: &Design) -> String {
     out
 }
 
+/// The column a winding of several elements (frog-leg) adds last: each row's element, `lap`
+/// or `wave`.
+pub const ELEMENT_COLUMN: &str = "element";
+
 /// The connection table, one record per coil position, with a header record. The job is in
-/// [`job_csv`], once, not on every row.
+/// [`job_csv`], once, not on every row. A frog-leg winding's table lists both elements' coils
+/// and ends each record with [`ELEMENT_COLUMN`].
 pub fn connections_csv(winding: &Winding) -> String {
     let mut out = String::with_capacity(48 * (winding.connections.len() + 1));
-    record(&mut out, &CSV_COLUMNS.map(|c| Cell::Text(c.to_string())));
+    let multi = winding.is_multi_element();
+    let header: Vec<Cell> = CSV_COLUMNS
+        .iter()
+        .chain(multi.then_some(&ELEMENT_COLUMN))
+        .map(|c| Cell::Text(c.to_string()))
+        .collect();
+    record(&mut out, &header);
     let seq = sequence_labels(winding);
     let n = |x: u32| Cell::Num(x.to_string());
     let opt = |x: Option<u32>| x.map_or(Cell::Text(String::new()), |x| Cell::Num(x.to_string()));
@@ -134,7 +145,10 @@ pub fn connections_csv(winding: &Winding) -> String {
                 Cell::Text(seq[i].clone()),
                 n(winding.coil_path[i]),
                 Cell::Num(winding.coil_current[i].to_string()),
-            ],
+            ]
+            .into_iter()
+            .chain(multi.then(|| Cell::Text(c.element.as_str().to_string())))
+            .collect::<Vec<_>>(),
         );
     }
     out

@@ -49,6 +49,13 @@ pub fn observations(card: &Card) -> Vec<String> {
     }
     out.push(coil);
     let mut more = Vec::new();
+    if let Some((a, b)) = card.wave_throw {
+        more.push(format!(
+            "{} leads a bar, wave coil throw {a}-{b}, wave coil span {}",
+            card.leads_per_bar,
+            span_shop(card.wave_coil_span.unwrap_or(card.coil_span))
+        ));
+    }
     if let Some(b) = card.brush_sets {
         more.push(format!("brush sets {b}"));
     }

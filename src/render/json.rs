@@ -50,10 +50,12 @@ struct ReportJson<'a> {
     coils_per_slot: u32,
     commutator_pitch: i64,
     conductors: u64,
-    #[serde(serialize_with = "connections")]
-    connections: &'a [Connection],
+    connections: ConnectionsJson<'a>,
     dummy_coils: usize,
     dummy_positions: &'a [u32],
+    /// The winding elements, on a winding of several elements (frog-leg) only.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    elements: Option<Vec<ElementJson>>,
     /// Present only when the flux per pole is known.
     #[serde(skip_serializing_if = "Option::is_none")]
     emf_constant_v_per_rad_s: Option<f64>,
@@ -130,7 +132,11 @@ impl<'a> ReportJson<'a> {
             EqualizerPlan::NotNeeded => (
                 None,
                 EqualizerStatus {
-                    reason: Some("wave windings need none"),
+                    reason: Some(if w.is_multi_element() {
+                        d.winding_type.kind().no_equalizers_reason()
+                    } else {
+                        "wave windings need none"
+                    }),
                     status: "not needed",
                 },
             ),
@@ -146,9 +152,29 @@ impl<'a> ReportJson<'a> {
             coils_per_slot: d.coils_per_slot,
             commutator_pitch: p.commutator,
             conductors: w.conductors,
-            connections: &w.connections,
+            connections: ConnectionsJson {
+                rows: &w.connections,
+                multi: w.is_multi_element(),
+            },
             dummy_coils: w.dummy_coils.len(),
             dummy_positions: &w.dummy_coils,
+            elements: w.is_multi_element().then(|| {
+                w.elements
+                    .iter()
+                    .map(|e| ElementJson {
+                        back_pitch: e.pitches.back,
+                        commutator_pitch: e.pitches.commutator,
+                        direction: e.direction.as_str(),
+                        front_pitch: e.pitches.front,
+                        kind: e.kind.as_str(),
+                        multiplicity: e.multiplicity,
+                        parallel_paths: e.paths,
+                        reentrancy: e.reentrancy,
+                        span: e.pitches.span,
+                        turns: e.turns,
+                    })
+                    .collect()
+            }),
             emf_constant_v_per_rad_s: round(k.emf_constant_v_per_rad_s, 6),
             emf_v: round(k.emf_v, 4),
             emf_v_per_1000_rpm: with_flux(round(k.emf_v_per_1000_rpm, 4)),
@@ -214,6 +240,21 @@ impl<'a> From<&'a Job> for JobJson<'a> {
             title: j.title.as_deref(),
         }
     }
+}
+
+/// One entry of `elements`: a winding element's kind, pitches, turns, reentrancy and paths.
+#[derive(Serialize)]
+struct ElementJson {
+    back_pitch: i64,
+    commutator_pitch: i64,
+    direction: &'static str,
+    front_pitch: i64,
+    kind: &'static str,
+    multiplicity: u32,
+    parallel_paths: u32,
+    reentrancy: u32,
+    span: u32,
+    turns: u32,
 }
 
 /// `winding`: kind, multiplicity and direction.
@@ -352,6 +393,9 @@ struct ConnectionJson {
     bottom_slot: u32,
     coil: u32,
     dummy: bool,
+    /// The row's element (`"lap"`, `"wave"`), on a winding of several elements only.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    element: Option<&'static str>,
     end_segment: Option<u32>,
     front_pitch: Option<i64>,
     start_segment: Option<u32>,
@@ -359,12 +403,25 @@ struct ConnectionJson {
     top_slot: u32,
 }
 
-fn connections<S: Serializer>(c: &&[Connection], s: S) -> Result<S::Ok, S::Error> {
+/// `connections`: the rows, and whether the winding has several elements.
+struct ConnectionsJson<'a> {
+    rows: &'a [Connection],
+    multi: bool,
+}
+
+impl Serialize for ConnectionsJson<'_> {
+    fn serialize<S: Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        connections(self.rows, self.multi, s)
+    }
+}
+
+fn connections<S: Serializer>(c: &[Connection], multi: bool, s: S) -> Result<S::Ok, S::Error> {
     s.collect_seq(c.iter().map(|c| ConnectionJson {
         bottom_position: c.bottom.position,
         bottom_slot: c.bottom.slot,
         coil: c.coil,
         dummy: c.dummy,
+        element: multi.then(|| c.element.as_str()),
         end_segment: c.end_segment,
         front_pitch: c.front_pitch,
         start_segment: c.start_segment,

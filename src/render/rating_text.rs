@@ -53,6 +53,8 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
     if let Some(x) = &r.resistance {
         let what = if x.measured {
             "measured"
+        } else if x.elements > 1 {
+            "each element rho*Z_e*L_mt/(2*a_e^2*A_c), the elements in parallel, copper per IEC 60028"
         } else {
             "R_a = rho*Z*L_mt/(2*a^2*A_c), copper per IEC 60028"
         };

@@ -119,7 +119,11 @@ fn summary(s: &mut String, d: &Design, w: &Winding) {
     row(
         s,
         "conductors Z",
-        format!("{} (2 x C x turns)", w.conductors),
+        if w.is_multi_element() {
+            format!("{} (2 x C x turns, both elements)", w.conductors)
+        } else {
+            format!("{} (2 x C x turns)", w.conductors)
+        },
     );
     row(
         s,
@@ -164,6 +168,45 @@ fn pitches(s: &mut String, d: &Design, w: &Winding) {
         "commutator pitch y_c",
         format!("{:+} segments", p.commutator),
     );
+    if w.is_multi_element() {
+        elements(s, d, w);
+    }
+}
+
+/// The elements of a frog-leg winding, one row each: the design's multiplicity and direction
+/// are the lap element's; the wave element's follow from them.
+fn elements(s: &mut String, d: &Design, w: &Winding) {
+    section(s, "ELEMENTS (one commutator, four leads a bar)");
+    for e in &w.elements {
+        let p = &e.pitches;
+        row(
+            s,
+            &format!("{} element", e.kind.as_str()),
+            format!(
+                "{} {}, y_c {:+}, span {} (\"{}\"), y_b {}, y_f {}, {} turn(s), {} closed winding(s), {} paths traced (formula {})",
+                multiplicity_word(e.multiplicity),
+                e.direction.as_str(),
+                p.commutator,
+                p.span,
+                span_shop(p.span),
+                p.back,
+                p.front,
+                e.turns,
+                e.reentrancy,
+                e.paths,
+                e.paths_formula
+            ),
+        );
+    }
+    row(
+        s,
+        "rule",
+        format!(
+            "multiplicity and direction are the lap element's; the wave element takes m_w = m x p = {} x {} and the other direction",
+            d.multiplicity,
+            d.pole_pairs()
+        ),
+    );
 }
 
 fn paths(s: &mut String, d: &Design, w: &Winding) {
@@ -181,8 +224,13 @@ fn paths(s: &mut String, d: &Design, w: &Winding) {
         s,
         "closed windings",
         format!(
-            "{} traced (formula gcd(C, |y_c|) = {})",
+            "{} traced (formula gcd(C, |y_c|){} = {})",
             w.reentrancy(),
+            if w.is_multi_element() {
+                ", summed over the elements"
+            } else {
+                ""
+            },
             w.reentrancy_formula
         ),
     );
@@ -373,6 +421,8 @@ fn connections(s: &mut String, w: &Winding) {
         let seg = |x: Option<u32>| x.map_or_else(|| "-".to_string(), |v| v.to_string());
         let note = if c.dummy {
             "DUMMY: cut back and tape"
+        } else if w.is_multi_element() {
+            c.element.as_str()
         } else {
             ""
         };
@@ -397,7 +447,18 @@ fn sequence(s: &mut String, w: &Winding) {
         "WINDING SEQUENCE (segment -coil- segment, in trace order)",
     );
     for (i, cw) in w.closed_windings.iter().enumerate() {
-        let _ = writeln!(s, "  closed winding {} ({} coils):", i + 1, cw.steps.len());
+        let element = match cw.steps.first() {
+            Some(st) if w.is_multi_element() => {
+                format!("{} element, ", w.element_of(st.coil).kind.as_str())
+            }
+            _ => String::new(),
+        };
+        let _ = writeln!(
+            s,
+            "  closed winding {} ({element}{} coils):",
+            i + 1,
+            cw.steps.len()
+        );
         let mut line = String::from("   ");
         for (k, st) in cw.steps.iter().enumerate() {
             let piece = if k == 0 {

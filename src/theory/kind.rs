@@ -3,30 +3,40 @@
 //! Part of the `theory` stage. Each kind is a type implementing [`WindingKind`];
 //! [`WindingType::kind`] is the only place that matches on the kind. Sources: the standard
 //! textbook relations (DOMAIN.md "Lap windings", "Wave windings"; Theraja, *Electrical
-//! Technology* vol. 2, ch. 26, from memory as to chapter).
+//! Technology* vol. 2, ch. 26, from memory as to chapter). Frog-leg: a trade association's
+//! technical note on frog-leg windings, read in a public copy (DOMAIN.md "Frog-leg windings");
+//! the self-equalizing condition is derived.
 
-/// Lap or wave (`[winding] type`).
+/// Lap, wave or frog-leg (`[winding] type`).
 #[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
 pub enum WindingType {
     /// Coil ends go to neighbouring segments; a = m·P.
     Lap,
     /// Coil ends go about two pole pitches apart; a = 2m.
     Wave,
+    /// A lap element and a wave element in the same slots on one commutator; a = 2·m·P.
+    FrogLeg,
 }
 
 impl WindingType {
     /// Every kind, in design-file order.
-    pub const ALL: [WindingType; 2] = [WindingType::Lap, WindingType::Wave];
+    pub const ALL: [WindingType; 3] = [WindingType::Lap, WindingType::Wave, WindingType::FrogLeg];
 
     /// The facts of this kind.
     pub fn kind(self) -> &'static dyn WindingKind {
         match self {
             WindingType::Lap => &Lap,
             WindingType::Wave => &Wave,
+            WindingType::FrogLeg => &FrogLeg,
         }
     }
 
-    /// The design-file word (`"lap"`, `"wave"`).
+    /// The kind whose design-file word is `word`.
+    pub fn from_word(word: &str) -> Option<WindingType> {
+        WindingType::ALL.into_iter().find(|t| t.as_str() == word)
+    }
+
+    /// The design-file word (`"lap"`, `"wave"`, `"frog-leg"`).
     pub fn as_str(self) -> &'static str {
         self.kind().word()
     }
@@ -65,6 +75,19 @@ impl Direction {
             Direction::Retrogressive => Direction::Progressive,
         }
     }
+}
+
+/// One winding element: a plain lap or wave coil set on the commutator. A lap or a wave
+/// winding is one element; a frog-leg winding is two, a lap and a wave, each with its own
+/// coils, pitches and trace.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct ElementSpec {
+    /// [`WindingType::Lap`] or [`WindingType::Wave`].
+    pub kind: WindingType,
+    /// The element's multiplicity.
+    pub multiplicity: u32,
+    /// The element's direction.
+    pub direction: Direction,
 }
 
 /// What one winding kind decides. `n` is the coil positions u·S, `c` the segments, `m` the
@@ -119,6 +142,22 @@ pub trait WindingKind: Sync {
     /// Why `c` segments do not suit this kind, in words (for a rewind that needs a new
     /// commutator).
     fn segment_rule(&self, c: u32, n: u32, m: u32, p: u32, dir: Direction) -> String;
+
+    /// Whether the kind uses every coil position (no dummy coils): C = u·S.
+    fn uses_every_coil(&self) -> bool;
+
+    /// Why the kind takes no equalizer rings, in words (empty for a lap, which takes them).
+    fn no_equalizers_reason(&self) -> &'static str;
+
+    /// The winding elements on the commutator, from the design's multiplicity `m` and
+    /// direction (the first element's): one for lap or wave, two for frog-leg.
+    fn elements(&self, m: u32, p: u32, dir: Direction) -> Vec<ElementSpec>;
+
+    /// How many elements [`WindingKind::elements`] gives: each holds C coils and a share
+    /// 1/element_count of the paths.
+    fn element_count(&self) -> u32 {
+        self.elements(1, 2, Direction::Progressive).len() as u32
+    }
 }
 
 /// Lap winding: y_c = ±m, a = m·P, uses every coil.
@@ -175,6 +214,19 @@ impl WindingKind for Lap {
     fn segment_rule(&self, _c: u32, n: u32, _m: u32, _p: u32, _dir: Direction) -> String {
         format!("a lap winding uses all {n} coils")
     }
+    fn uses_every_coil(&self) -> bool {
+        true
+    }
+    fn no_equalizers_reason(&self) -> &'static str {
+        ""
+    }
+    fn elements(&self, m: u32, _p: u32, dir: Direction) -> Vec<ElementSpec> {
+        vec![ElementSpec {
+            kind: WindingType::Lap,
+            multiplicity: m,
+            direction: dir,
+        }]
+    }
 }
 
 impl WindingKind for Wave {
@@ -227,6 +279,102 @@ impl WindingKind for Wave {
             dir.as_str()
         )
     }
+    fn uses_every_coil(&self) -> bool {
+        false
+    }
+    fn no_equalizers_reason(&self) -> &'static str {
+        "a wave winding needs none"
+    }
+    fn elements(&self, m: u32, _p: u32, dir: Direction) -> Vec<ElementSpec> {
+        vec![ElementSpec {
+            kind: WindingType::Wave,
+            multiplicity: m,
+            direction: dir,
+        }]
+    }
+}
+
+/// Frog-leg winding: a lap element (multiplicity m, the design's direction) and a wave element
+/// (m_w = m·p, the other direction) in the same slots on one commutator; every bar takes four
+/// leads, a = 2·m·P, and it needs no equalizers [src: a trade association's technical note on
+/// frog-leg windings, read in a public copy; DOMAIN.md "Frog-leg windings"].
+///
+/// The lap element's y_c = ±m and the wave element's y_c = (C ∓ m·p)/p = C/p ∓ m, so
+/// y_c(lap) + |y_c(wave)| = C/p: a lap coil and a wave coil in series span two pole pitches
+/// [derived]. Both are whole exactly when C/p is.
+#[derive(Clone, Copy, Debug)]
+pub struct FrogLeg;
+
+impl WindingKind for FrogLeg {
+    fn word(&self) -> &'static str {
+        "frog-leg"
+    }
+    fn workable(&self, c: u32, n: u32, _m: u32, p: u32, _dir: Direction) -> bool {
+        c == n && p >= 2 && c.is_multiple_of(p)
+    }
+    fn default_segments(&self, n: u32, _m: u32, _p: u32, _dir: Direction) -> Option<u32> {
+        Some(n)
+    }
+    fn commutator_pitch(&self, c: u32, m: u32, p: u32, dir: Direction) -> i64 {
+        Lap.commutator_pitch(c, m, p, dir)
+    }
+    fn front_pitch(&self, back: i64, yc: i64) -> i64 {
+        Lap.front_pitch(back, yc)
+    }
+    fn parallel_paths(&self, m: u32, poles: u32) -> u32 {
+        2 * m * poles
+    }
+    fn paths_formula(&self, m: u32, poles: u32) -> String {
+        format!("2 x m x P = 2 x {m} x {poles}")
+    }
+    fn fewest_brush_sets(&self, poles: u32) -> u32 {
+        Lap.fewest_brush_sets(poles)
+    }
+    fn takes_equalizers(&self) -> bool {
+        false
+    }
+    fn coils_per_gap(&self, p: u32) -> u32 {
+        Lap.coils_per_gap(p) + Wave.coils_per_gap(p)
+    }
+    fn shorting_rule(&self, m: u32, p: u32) -> String {
+        format!(
+            "frog-leg: each bridged gap shorts one lap coil and p = {p} wave coils in series (k - m gaps, m = {m})"
+        )
+    }
+    fn min_poles(&self) -> u32 {
+        Wave.min_poles()
+    }
+    fn fewer_paths_remedy(&self, _m: u32) -> &'static str {
+        "a plain lap or wave connection, "
+    }
+    fn symmetry_counts_pole_pairs(&self) -> bool {
+        false
+    }
+    fn segment_rule(&self, c: u32, n: u32, _m: u32, p: u32, _dir: Direction) -> String {
+        format!(
+            "a frog-leg winding uses all {n} coils in each element and needs C/p whole, which {c}/{p} is not"
+        )
+    }
+    fn uses_every_coil(&self) -> bool {
+        true
+    }
+    fn no_equalizers_reason(&self) -> &'static str {
+        "a frog-leg winding needs none, its wave element equalizes the lap element"
+    }
+    fn elements(&self, m: u32, p: u32, dir: Direction) -> Vec<ElementSpec> {
+        vec![
+            ElementSpec {
+                kind: WindingType::Lap,
+                multiplicity: m,
+                direction: dir,
+            },
+            ElementSpec {
+                kind: WindingType::Wave,
+                multiplicity: m * p,
+                direction: dir.other(),
+            },
+        ]
+    }
 }
 
 /// Whether (C ± m)/p is whole: the wave commutator pitch [src: standard textbook relation].
@@ -258,5 +406,31 @@ mod tests {
         assert_eq!(Lap.commutator_pitch(36, 2, 2, Retrogressive), -2);
         assert_eq!(Wave.commutator_pitch(35, 1, 3, Progressive), 12);
         assert_eq!(WindingType::Wave.as_str(), "wave");
+    }
+
+    #[test]
+    fn frog_leg_elements() {
+        // 4 poles, 58 bars: lap 1-2, wave y_c = (58 - 2)/2 = 28, 8 paths [derived; DOMAIN.md
+        // "Frog-leg windings"].
+        let k = WindingType::FrogLeg.kind();
+        let e = k.elements(1, 2, Progressive);
+        assert_eq!(e.len(), 2);
+        let yc: Vec<i64> = e
+            .iter()
+            .map(|x| {
+                x.kind
+                    .kind()
+                    .commutator_pitch(58, x.multiplicity, 2, x.direction)
+            })
+            .collect();
+        assert_eq!(yc, vec![1, 28]);
+        assert_eq!(yc[0] + yc[1].abs(), 58 / 2);
+        assert_eq!(k.parallel_paths(1, 4), 8);
+        assert!(k.workable(58, 58, 1, 2, Progressive));
+        assert!(!k.workable(57, 57, 1, 2, Progressive));
+        assert_eq!(
+            WindingType::from_word("frog-leg"),
+            Some(WindingType::FrogLeg)
+        );
     }
 }

@@ -13,5 +13,7 @@ mod kind;
 pub mod pitch;
 pub mod words;
 
-pub use kind::{Direction, Lap, Wave, WindingKind, WindingType, wave_pitch_whole};
+pub use kind::{
+    Direction, ElementSpec, FrogLeg, Lap, Wave, WindingKind, WindingType, wave_pitch_whole,
+};
 pub use pitch::gcd;

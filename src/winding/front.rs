@@ -25,7 +25,7 @@ pub(crate) fn set_front_pitches(
 ) {
     let sides = 2 * connections.len() as i64;
     let starts = out_coils(connections, segments);
-    let top_side = |coil: u32| i64::from(connections[(coil - 1) as usize].top.side);
+    let top_side = |i: usize| i64::from(connections[i].top.side);
     let pitches: Vec<Option<i64>> = connections
         .iter()
         .map(|c| {

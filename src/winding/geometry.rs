@@ -15,8 +15,11 @@ pub(crate) struct Geometry {
     pub turn: i64,
     /// Ticks per coil position (T/N).
     pub per_coil: i64,
-    /// Ticks across one coil span (y_s slots).
-    pub span: i64,
+    /// Ticks across one coil span, element by element (coil numbers N·k + 1 … N·(k+1) are
+    /// element k's).
+    pub element_spans: Vec<i64>,
+    /// Coil positions N of one element.
+    pub positions: i64,
     /// Angle of pole 1's axis: the centre line of coil 1 at the reference position.
     pub pole1: i64,
     /// Ticks per pole pitch.
@@ -47,7 +50,12 @@ impl Geometry {
         Geometry {
             turn,
             per_coil,
-            span,
+            element_spans: d
+                .elements()
+                .iter()
+                .map(|e| i64::from(e.span) * i64::from(d.coils_per_slot) * per_coil)
+                .collect(),
+            positions: n,
             pole1: span / 2,
             pole_pitch,
             half_arc: d.pole_arc * pole_pitch as f64 / 2.0,
@@ -83,10 +91,17 @@ impl Geometry {
     /// the armature under a north pole). The start→end sense runs up the top side and down the
     /// bottom side, so the coil EMF is e(top) − e(bottom). Both sides sit at their slot's centre:
     /// the u coils of a slot share its angle, so slot-level asymmetry shows in the simulation.
+    ///
+    /// Coil N·k + j of element k lies where coil j does, with element k's span.
     pub fn coil_emf(&self, coil: u32, shift: i64) -> i64 {
         let u = self.coils_per_slot;
-        let top = (i64::from(coil - 1) / u) * u * self.per_coil + shift;
-        self.rotation * (self.field(top) - self.field(top + self.span))
+        let (element, position) = (
+            i64::from(coil - 1) / self.positions,
+            i64::from(coil - 1) % self.positions,
+        );
+        let span = self.element_spans[element as usize];
+        let top = (position / u) * u * self.per_coil + shift;
+        self.rotation * (self.field(top) - self.field(top + span))
     }
 
     /// Converts ticks to degrees.

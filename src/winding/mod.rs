@@ -10,6 +10,11 @@
 //!   y_s slots on, same position. Top coil sides are odd (2n−1), bottom sides even.
 //! - The active coils, in position order, start at segments 1, 2, … C; coil i's end lead is on
 //!   segment i + y_c (mod C). Dummy coils are spread evenly and left unconnected.
+//! - A winding of several elements (frog-leg: lap, then wave) numbers each element's coils
+//!   after the previous element's: coil N·k + j lies in coil j's slot and position, with
+//!   element k's span; element k's i-th active coil starts on segment i + 1 + shift_k, the
+//!   shift that puts it on the first element's neutral (`element_start_shift`). Each element
+//!   is traced on its own; brushes, paths, shorted coils and balance use all of them.
 //! - Each active coil's front pitch is read off the connections ([`Connection::front_pitch`]):
 //!   the nominal y_f, plus 2 for each dummy coil the step to the next coil passes on a wave.
 //! - Reference position: the centre line of coil 1 lies on the axis of pole 1 (a north pole).
@@ -56,28 +61,65 @@ pub fn trace_winding(design: &Design) -> Winding {
     let p = d.pole_pairs();
     let c = d.segments;
     let kind = d.winding_type.kind();
-    let yc = pitch::commutator_pitch(d.winding_type, d.direction, c, m, p);
-    let pitches = pitch::pitches(d.winding_type, d.span, d.coils_per_slot, yc);
     let dummy_coils = d
         .dummy_coils
         .clone()
         .unwrap_or_else(|| place_dummies(n, n - c));
-    let mut connections = connect(d, c, yc, &dummy_coils);
-    front::set_front_pitches(&mut connections, c, kind, pitches.back, yc);
-    let closed_windings = trace::trace_closed_windings(&connections, c);
+    // Each element is wound and traced on its own: its coils follow the previous element's.
+    let mut connections = Vec::new();
+    let mut closed_windings = Vec::new();
+    let mut elements = Vec::new();
+    let specs = d.elements();
+    let yc_of = |e: &crate::design::DesignElement| {
+        pitch::commutator_pitch(e.spec.kind, e.spec.direction, c, e.spec.multiplicity, p)
+    };
+    for (k, e) in specs.iter().enumerate() {
+        let yc = yc_of(e);
+        let pitches = pitch::pitches(e.spec.kind, e.span, d.coils_per_slot, yc);
+        let shift = element_start_shift(d, &specs[0], yc_of(&specs[0]), e, yc, c);
+        let dummies: &[u32] = if k == 0 { &dummy_coils } else { &[] };
+        let first = k as u32 * n + 1;
+        let mut conns = connect(d, e, first, c, yc, shift, dummies);
+        front::set_front_pitches(&mut conns, c, e.spec.kind.kind(), pitches.back, yc);
+        let cycles = trace::trace_closed_windings(&conns, c);
+        elements.push(WindingElement {
+            kind: e.spec.kind,
+            multiplicity: e.spec.multiplicity,
+            direction: e.spec.direction,
+            pitches,
+            turns: e.turns,
+            first_coil: first,
+            coils: n,
+            start_shift: shift as u32,
+            reentrancy: cycles.len() as u32,
+            reentrancy_formula: pitch::reentrancy(c, yc),
+            paths: 0,
+            paths_formula: e
+                .spec
+                .kind
+                .kind()
+                .parallel_paths(e.spec.multiplicity, d.poles),
+        });
+        connections.extend(conns);
+        closed_windings.extend(cycles);
+    }
+    let pitches = elements[0].pitches;
+    let yc = pitches.commutator;
     let geo = Geometry::new(d, c);
 
     // Brushes, one per pole at adjacent poles (`brush_sets` of them, default P), at the
     // reference position, on neutral for the slot's coil group.
     let units = geo.per_segment_units;
-    let neutral = yc * units / 2 + neutral_shift_units(d, &connections, c, units);
+    let neutral = yc * units / 2 + neutral_shift_units(d, &connections[..n as usize], c, units);
     let spots: Vec<BrushSpot> = (0..d.brush_sets() as usize)
         .map(|k| BrushSpot {
             pole: k,
             centre: neutral + k as i64 * 16 * i64::from(c),
         })
         .collect();
-    let emf0: Vec<i64> = (1..=n).map(|coil| geo.coil_emf(coil, 0)).collect();
+    let emf0: Vec<i64> = (1..=connections.len() as u32)
+        .map(|coil| geo.coil_emf(coil, 0))
+        .collect();
     let width = brush_width(d, c, units);
     let mark = paths::contacts_units(&spots, c, width.units, units, 0);
     let runs = paths::runs(&closed_windings, &mark, &emf0);
@@ -93,8 +135,9 @@ pub fn trace_winding(design: &Design) -> Winding {
     };
     let mut path_list = Vec::new();
     let mut shorted = Vec::new();
-    let mut coil_current = vec![0i8; n as usize];
-    let mut coil_path = vec![0u32; n as usize];
+    let all = connections.len();
+    let mut coil_current = vec![0i8; all];
+    let mut coil_path = vec![0u32; all];
     for r in &runs {
         if paths::is_path(r, &spots) {
             let to_positive = (if spots[r.to].pole.is_multiple_of(2) {
@@ -108,6 +151,9 @@ pub fn trace_winding(design: &Design) -> Winding {
                 -current_sign
             } as i8;
             let index = path_list.len() as u32 + 1;
+            if let Some(e) = elements.iter_mut().find(|e| e.holds(r.coils[0])) {
+                e.paths += 1;
+            }
             for &coil in &r.coils {
                 coil_current[(coil - 1) as usize] = current;
                 coil_path[(coil - 1) as usize] = index;
@@ -127,10 +173,13 @@ pub fn trace_winding(design: &Design) -> Winding {
     shorted.sort_unstable();
 
     let equalizers = plan_equalizers(d, c, &connections);
-    let balance = simulate_balance(d, &geo, &closed_windings, &spots, c, n);
+    let balance = simulate_balance(d, &geo, &closed_windings, &spots, c, all as u32);
     let paths_formula = kind.parallel_paths(m, d.poles);
-    let reentrancy_formula = pitch::reentrancy(c, yc);
-    let conductors = 2 * u64::from(c) * u64::from(d.turns);
+    let reentrancy_formula = elements.iter().map(|e| e.reentrancy_formula).sum();
+    let conductors = elements
+        .iter()
+        .map(|e| 2 * u64::from(c) * u64::from(e.turns))
+        .sum();
     let a = path_list.len() as u32;
     let constants = machine_constants(d, conductors, a);
     // Segment 1's centre in ticks: the brush centre (`neutral` units on from segment 1) sits
@@ -155,6 +204,7 @@ pub fn trace_winding(design: &Design) -> Winding {
         segments_derived: d.segments_derived,
         conductors,
         pitches,
+        elements,
         connections,
         closed_windings,
         brushes,
@@ -164,6 +214,7 @@ pub fn trace_winding(design: &Design) -> Winding {
         shorted_coils: shorted,
         coil_current,
         coil_path,
+        coil_emf: emf0,
         paths_formula,
         reentrancy_formula,
         equalizers,
@@ -212,33 +263,67 @@ pub fn place_dummies(n: u32, count: u32) -> Vec<u32> {
         .collect()
 }
 
-fn connect(d: &Design, c: u32, yc: i64, dummies: &[u32]) -> Vec<Connection> {
+/// Bars from segment 1 to the start lead of element `e`'s first coil, so that it is
+/// commutated under the same brushes as the first element `e0`, on the same neutral and with
+/// the same polarity: a coil is commutated with the brush at the midpoint of its bars, and the
+/// u coils of a slot share a centre line, so the element's midpoints sit where the first
+/// element's do, moved by half the span difference. In half bars,
+/// 2·shift = (y_c0 − y_c) + (y_s − y_s0)·u, taken modulo two pole pitches C/p (the field and
+/// the brushes repeat every pole pair) and rounded down to a whole bar [derived]. For a
+/// frog-leg winding the lap coil in one slot and the wave coil one pole pitch on then join, in
+/// series, bars two pole pitches apart with opposite EMFs (DOMAIN.md "Frog-leg windings").
+fn element_start_shift(
+    d: &Design,
+    e0: &crate::design::DesignElement,
+    yc0: i64,
+    e: &crate::design::DesignElement,
+    yc: i64,
+    c: u32,
+) -> i64 {
+    let u = i64::from(d.coils_per_slot);
+    let halves = (yc0 - yc) + (i64::from(e.span) - i64::from(e0.span)) * u;
+    let pair = 2 * i64::from(c) / i64::from(d.pole_pairs().max(1));
+    halves.rem_euclid(pair.max(1)).div_euclid(2)
+}
+
+/// Connects element `e`'s coils (coil numbers `first`…, one per coil position) to the
+/// segments: the i-th active coil starts on segment i + 1 + `shift` and ends y_c on.
+fn connect(
+    d: &Design,
+    e: &crate::design::DesignElement,
+    first: u32,
+    c: u32,
+    yc: i64,
+    shift: i64,
+    dummies: &[u32],
+) -> Vec<Connection> {
     let u = d.coils_per_slot;
     let n = d.coil_positions();
+    let offset = first - 1;
     let mut next_active = 0i64;
     (1..=n)
         .map(|coil| {
             let slot = (coil - 1) / u + 1;
             let position = (coil - 1) % u + 1;
-            let bottom_slot = (slot - 1 + d.span) % d.slots + 1;
-            let bottom_side = 2 * ((coil - 1 + u * d.span) % n + 1);
+            let bottom_slot = (slot - 1 + e.span) % d.slots + 1;
+            let bottom_side = 2 * ((coil - 1 + u * e.span) % n + 1 + offset);
             let dummy = dummies.binary_search(&coil).is_ok();
             let (start, end) = if dummy {
                 (None, None)
             } else {
-                let i = next_active;
+                let i = next_active + shift;
                 next_active += 1;
                 (
-                    Some(i as u32 + 1),
+                    Some(i.rem_euclid(i64::from(c)) as u32 + 1),
                     Some((i + yc).rem_euclid(i64::from(c)) as u32 + 1),
                 )
             };
             Connection {
-                coil,
+                coil: coil + offset,
                 top: SlotPlace {
                     slot,
                     position,
-                    side: 2 * coil - 1,
+                    side: 2 * (coil + offset) - 1,
                 },
                 bottom: SlotPlace {
                     slot: bottom_slot,
@@ -249,6 +334,7 @@ fn connect(d: &Design, c: u32, yc: i64, dummies: &[u32]) -> Vec<Connection> {
                 end_segment: end,
                 front_pitch: None,
                 dummy,
+                element: e.spec.kind,
             }
         })
         .collect()

@@ -5,6 +5,7 @@
 //! the centre of slot 1 towards rising slot numbers (clockwise seen from the commutator end).
 
 use super::Pitches;
+use crate::theory::{Direction, WindingType};
 
 /// Where a coil side lies.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -38,6 +39,50 @@ pub struct Connection {
     pub front_pitch: Option<i64>,
     /// A dummy coil: wound for balance, ends cut back and taped, not connected.
     pub dummy: bool,
+    /// The winding element the coil belongs to: [`WindingType::Lap`] or [`WindingType::Wave`]
+    /// (a frog-leg winding has both; a lap or wave winding, its own kind).
+    pub element: WindingType,
+}
+
+/// One winding element as traced: a lap or wave coil set on the commutator. A lap or wave
+/// winding has one; a frog-leg winding two (the lap element first), each with its own coils,
+/// pitches, connections and trace, on one commutator.
+#[derive(Clone, Debug, PartialEq)]
+pub struct WindingElement {
+    /// [`WindingType::Lap`] or [`WindingType::Wave`].
+    pub kind: WindingType,
+    /// The element's multiplicity (a frog-leg's wave element: m·p).
+    pub multiplicity: u32,
+    /// The element's direction.
+    pub direction: Direction,
+    /// The element's pitches.
+    pub pitches: Pitches,
+    /// Turns per coil.
+    pub turns: u32,
+    /// The element's coils are `first_coil … first_coil + coils − 1` of
+    /// [`Winding::connections`] (coil numbers, 1-based).
+    pub first_coil: u32,
+    /// Coil positions of the element, N = u·S.
+    pub coils: u32,
+    /// Bars from segment 1 to the start lead of the element's first active coil (0 for a
+    /// lap or wave winding and a frog-leg's lap element).
+    pub start_shift: u32,
+    /// Closed windings of the element, as traced (the element's entries of
+    /// [`Winding::closed_windings`], which lists the elements in order).
+    pub reentrancy: u32,
+    /// Reentrancy by the formula gcd(C, |y_c|).
+    pub reentrancy_formula: u32,
+    /// Parallel paths of the element, as traced.
+    pub paths: u32,
+    /// Parallel paths of the element by the formula (lap m·P, wave 2m).
+    pub paths_formula: u32,
+}
+
+impl WindingElement {
+    /// Whether coil number `coil` belongs to this element.
+    pub fn holds(&self, coil: u32) -> bool {
+        coil >= self.first_coil && coil < self.first_coil + self.coils
+    }
 }
 
 /// One step of the trace: a coil and the segments it joins.
@@ -235,11 +280,16 @@ pub struct Winding {
     pub dummy_coils: Vec<u32>,
     /// Whether the segment count was worked out (not given).
     pub segments_derived: bool,
-    /// Active conductors Z = 2·C·turns.
+    /// Active conductors Z = 2·C·turns, summed over the elements.
     pub conductors: u64,
-    /// The pitches.
+    /// The pitches (of the first element: a frog-leg's lap element).
     pub pitches: Pitches,
-    /// One row per coil position, 1…N.
+    /// The winding elements on the commutator, in order: one for lap or wave, two for
+    /// frog-leg (lap, then wave).
+    pub elements: Vec<WindingElement>,
+    /// One row per coil, element by element: coil positions 1…N of the first element, then
+    /// N+1…2N of a frog-leg's wave element (coil N + k lies where coil k does, in the wave
+    /// element's places).
     pub connections: Vec<Connection>,
     /// Closed windings found by the trace.
     pub closed_windings: Vec<ClosedWinding>,
@@ -257,9 +307,12 @@ pub struct Winding {
     pub coil_current: Vec<i8>,
     /// Path index (1-based) per coil position, 0 when in no path.
     pub coil_path: Vec<u32>,
-    /// Formula value of the parallel paths: lap m·P, wave 2m.
+    /// EMF of each coil (index coil − 1) at the reference position, start→end sense, in
+    /// conductor-EMF units of the flat-topped field (0 for a coil in the interpolar gap).
+    pub coil_emf: Vec<i64>,
+    /// Formula value of the parallel paths: lap m·P, wave 2m, frog-leg 2·m·P.
     pub paths_formula: u32,
-    /// Formula value of the reentrancy: gcd(C, |y_c|).
+    /// Formula value of the reentrancy: gcd(C, |y_c|), summed over the elements.
     pub reentrancy_formula: u32,
     /// Equalizers.
     pub equalizers: EqualizerPlan,
@@ -284,6 +337,24 @@ impl Winding {
     /// Reentrancy: the number of closed windings, as traced.
     pub fn reentrancy(&self) -> u32 {
         self.closed_windings.len() as u32
+    }
+
+    /// Whether the winding has more than one element (frog-leg).
+    pub fn is_multi_element(&self) -> bool {
+        self.elements.len() > 1
+    }
+
+    /// The element coil number `coil` belongs to.
+    pub fn element_of(&self, coil: u32) -> &WindingElement {
+        self.elements
+            .iter()
+            .find(|e| e.holds(coil))
+            .unwrap_or(&self.elements[0])
+    }
+
+    /// Active coils over every element (C per element).
+    pub fn active_coils_all(&self) -> u32 {
+        self.active_coils * self.elements.len() as u32
     }
 
     /// Brush sets fitted (`[commutator] brush_sets`, default P).

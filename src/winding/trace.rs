@@ -5,18 +5,20 @@
 
 use super::{ClosedWinding, Connection, TraceStep};
 
-/// For each segment (0-based), the coil position whose start lead is on it.
-pub(crate) fn out_coils(connections: &[Connection], segments: u32) -> Vec<u32> {
-    let mut out = vec![0u32; segments as usize];
-    for c in connections {
+/// For each segment (0-based), the index into `connections` of the coil whose start lead is
+/// on it (one element's connections: one start lead a segment).
+pub(crate) fn out_coils(connections: &[Connection], segments: u32) -> Vec<usize> {
+    let mut out = vec![0usize; segments as usize];
+    for (i, c) in connections.iter().enumerate() {
         if let Some(s) = c.start_segment {
-            out[(s - 1) as usize] = c.coil;
+            out[(s - 1) as usize] = i;
         }
     }
     out
 }
 
-/// Follows start → end leads from the lowest unvisited segment until the trace closes.
+/// Follows start → end leads from the lowest unvisited segment until the trace closes, over
+/// one element's `connections`.
 pub(crate) fn trace_closed_windings(
     connections: &[Connection],
     segments: u32,
@@ -32,7 +34,7 @@ pub(crate) fn trace_closed_windings(
         let mut seg = first;
         while !visited[seg] {
             visited[seg] = true;
-            let conn = &connections[(out[seg] - 1) as usize];
+            let conn = &connections[out[seg]];
             let to = conn.end_segment.unwrap_or(0);
             steps.push(TraceStep {
                 coil: conn.coil,

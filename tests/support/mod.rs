@@ -16,12 +16,13 @@ use armsheet::design::{Design, parse_design};
 pub const ROOT: &str = env!("CARGO_MANIFEST_DIR");
 
 /// The demo designs under `designs/`, by stem.
-pub const DEMOS: [&str; 5] = [
+pub const DEMOS: [&str; 6] = [
     "hoist-lap",
     "press-duplex-lap",
     "pump-wave",
     "conveyor-wave-dummy",
     "mill-lap-12p",
+    "mill-frog-leg",
 ];
 
 /// The text of `tests/fixtures/NAME`.

@@ -24,33 +24,61 @@ pub(crate) fn resolve(
     p: i64,
     given: Option<&At<i64>>,
 ) -> Result<i64, Diagnostic> {
-    match (wtype, given) {
-        (WindingType::Lap, None) => Ok(positions),
-        (WindingType::Lap, Some(c)) if c.value == positions => Ok(positions),
-        (WindingType::Lap, Some(c)) => Err(src
-            .error(
-                c.span.clone(),
-                arm.dotted("segments"),
-                format!(
-                    "a lap winding uses every coil: expected {positions} segments (slots × coils_per_slot), found {}",
-                    c.value
-                ),
-            )
-            .with_hint(format!(
-                "set segments = {positions}, or change coils_per_slot; dummy coils belong to wave windings"
-            ))),
-        (WindingType::Wave, None) => {
-            wtype
-                .kind()
-                .default_segments(positions as u32, m as u32, p as u32, direction)
-                .map(i64::from)
-                .ok_or_else(|| {
-                    let at = win.raw("type").map_or(win.span.clone(), |v| v.span());
-                    src.error(at, "winding.type", "no segment count up to the coil count gives a whole commutator pitch")
-                        .with_hint("check poles and multiplicity")
-                })
+    let kind = wtype.kind();
+    if kind.uses_every_coil() {
+        let c = match given {
+            Some(c) if c.value != positions => {
+                return Err(src
+                    .error(
+                        c.span.clone(),
+                        arm.dotted("segments"),
+                        format!(
+                            "a {} winding uses every coil: expected {positions} segments (slots × coils_per_slot), found {}",
+                            kind.word(),
+                            c.value
+                        ),
+                    )
+                    .with_hint(format!(
+                        "set segments = {positions}, or change coils_per_slot; dummy coils belong to wave windings"
+                    )));
+            }
+            _ => positions,
+        };
+        if !kind.workable(c as u32, positions as u32, m as u32, p as u32, direction) {
+            let at = given.map_or_else(
+                || win.raw("type").map_or(win.span.clone(), |v| v.span()),
+                |g| g.span.clone(),
+            );
+            let key = if given.is_some() {
+                arm.dotted("segments")
+            } else {
+                "winding.type".to_string()
+            };
+            return Err(src
+                .error(
+                    at,
+                    key,
+                    kind.segment_rule(c as u32, positions as u32, m as u32, p as u32, direction),
+                )
+                .with_hint(frog_leg_hint(positions, m, p)));
         }
-        (WindingType::Wave, Some(c)) => {
+        return Ok(c);
+    }
+    match (wtype, given) {
+        (_, None) => wtype
+            .kind()
+            .default_segments(positions as u32, m as u32, p as u32, direction)
+            .map(i64::from)
+            .ok_or_else(|| {
+                let at = win.raw("type").map_or(win.span.clone(), |v| v.span());
+                src.error(
+                    at,
+                    "winding.type",
+                    "no segment count up to the coil count gives a whole commutator pitch",
+                )
+                .with_hint("check poles and multiplicity")
+            }),
+        (_, Some(c)) => {
             let sign = direction.sign();
             let workable =
                 |n: i64| n >= 2 && wave_pitch_whole(n as u32, m as u32, p as u32, direction);
@@ -86,7 +114,10 @@ pub(crate) fn resolve(
                 };
                 if other {
                     let other_dir = direction.other().as_str();
-                    hint.push_str(&format!("; or keep {} and make the winding {other_dir}", c.value));
+                    hint.push_str(&format!(
+                        "; or keep {} and make the winding {other_dir}",
+                        c.value
+                    ));
                 }
                 let sym = if sign > 0 { "+" } else { "−" };
                 return Err(src
@@ -104,4 +135,15 @@ pub(crate) fn resolve(
             Ok(c.value)
         }
     }
+}
+
+/// The hint for a kind that uses every coil when the coil count does not suit it (a frog-leg
+/// with C/p not whole): the wave element's pitch C/p ∓ m must be whole; the nearest counts.
+fn frog_leg_hint(positions: i64, m: i64, p: i64) -> String {
+    let p = p.max(1);
+    let below = positions - positions.rem_euclid(p);
+    let above = below + p;
+    format!(
+        "the wave element's commutator pitch C/p - {m} must be whole: slots × coils_per_slot must divide by the {p} pole pairs (e.g. {below} or {above} coils)"
+    )
 }

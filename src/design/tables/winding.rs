@@ -1,7 +1,8 @@
 //! `[winding]`: the kind of winding, its span, turns, leads and equalizers.
 //!
 //! Part of the `design` stage (a table reader, see `tables/mod.rs`). Keys:
-//! - `type` (required): `"lap"` or `"wave"`; a wave winding needs at least 4 poles;
+//! - `type` (required): `"lap"`, `"wave"` or `"frog-leg"`; wave and frog-leg need at least 4
+//!   poles; a frog-leg winding needs C/p whole;
 //! - `multiplicity` (m, default 1): 1 to [`bounds::MAX_MULTIPLICITY`];
 //! - `direction`: `"progressive"` (default) or `"retrogressive"`;
 //! - `span`: slots, 1 to slots − 1, as a number or the shop form `"1-8"` (= 7); default
@@ -10,6 +11,9 @@
 //! - `lead_offset` (default 0): segments, a whole number of half bars (`1`, `0.5`, `-1.5`),
 //!   less than half a pole pitch either way;
 //! - `equalizers` (lap only, default `"none"`): `"none"`, `"full"` or every n-th connection;
+//! - `wave_span` (frog-leg only): the wave coils' span in slots, read like `span`; default
+//!   `span`;
+//! - `wave_turns` (frog-leg only): the wave coils' turns; default `turns`;
 //! - `dummy_coils` (wave only): the coils left unconnected, e.g. `[13, 26]`, exactly N − C of
 //!   them and never coil 1; default: spread evenly (⌊k·N/d⌋ for k = 1…d);
 //! - `flux_per_pole_mwb`, `speed_rpm`: also accepted in `[rating]`, and read with it
@@ -24,7 +28,9 @@ use super::armature::Armature;
 use super::segments;
 use crate::base::visible::{ECHO_WIDTH, clip};
 use crate::design::Diagnostic;
-use crate::design::model::{Direction, EqualizerChoice, HalfBars, SpanSource, WindingType, bounds};
+use crate::design::model::{
+    Direction, EqualizerChoice, HalfBars, SpanSource, WaveCoils, WindingType, bounds,
+};
 use crate::design::reader::{At, TableReader, fmt_num};
 
 /// The keys of `[winding]`.
@@ -37,6 +43,8 @@ pub(crate) const KEYS: &[&str] = &[
     "lead_offset",
     "equalizers",
     "dummy_coils",
+    "wave_span",
+    "wave_turns",
     "flux_per_pole_mwb",
     "speed_rpm",
 ];
@@ -63,6 +71,8 @@ pub(crate) struct Winding {
     pub equalizers: EqualizerChoice,
     /// `dummy_coils`, sorted.
     pub dummy_coils: Option<Vec<u32>>,
+    /// `wave_span` and `wave_turns`, resolved (frog-leg only).
+    pub wave_coils: Option<WaveCoils>,
 }
 
 /// Reads the values of `[winding]` (its keys were checked by the caller) against the
@@ -75,9 +85,9 @@ pub(crate) fn read(
     a: Option<&Armature>,
 ) -> Option<Winding> {
     let src = win.src;
-    let wtype = win.keep(win.choice("type", &["lap", "wave"]).and_then(|t| match t {
-        Some(At { value: "wave", .. }) => Ok(WindingType::Wave),
-        Some(_) => Ok(WindingType::Lap),
+    let words = WindingType::ALL.map(WindingType::as_str);
+    let wtype = win.keep(win.choice("type", &words).and_then(|t| match t {
+        Some(At { value, .. }) => Ok(WindingType::from_word(value).unwrap_or(WindingType::Lap)),
         None => Err(win.missing("type", "\"lap\" or \"wave\"", "type = \"lap\"")),
     }));
     let m = win.keep(win.int(
@@ -112,13 +122,18 @@ pub(crate) fn read(
         _ => Direction::Progressive,
     };
     let p = poles.value / 2;
-    if wtype == WindingType::Wave && p < 2 {
+    let kind = wtype.kind();
+    if poles.value < i64::from(kind.min_poles()) {
         let at = win.raw("type").map_or(win.span.clone(), |v| v.span());
         src.found.push(
             src.error(
                 at,
                 "winding.type",
-                "a wave winding needs at least 4 poles; with 2 poles it is a lap winding",
+                format!(
+                    "a {} winding needs at least {} poles; with 2 poles it is a lap winding",
+                    kind.word(),
+                    kind.min_poles()
+                ),
             )
             .with_hint("use type = \"lap\" for a 2-pole armature"),
         );
@@ -175,18 +190,75 @@ pub(crate) fn read(
     }
     let dummy_coils = win.keep(read_dummy_coils(win, wtype, a.positions, active))?;
     let (span, span_source) = span?;
+    let turns = turns?.value;
+    let wave_coils = win.keep(read_wave_coils(
+        win,
+        wtype,
+        a.slots.value,
+        poles.value,
+        span,
+        turns,
+    ))?;
     Some(Winding {
         winding_type: wtype,
         multiplicity: m,
         direction,
         span,
         span_source,
-        turns: turns?.value,
+        turns,
         segments: active,
         lead_offset: lead_offset.map_or(0, |l| l.value),
         equalizers: equalizers?,
         dummy_coils,
+        wave_coils,
     })
+}
+
+/// `wave_span` and `wave_turns`: the wave element's coils of a frog-leg winding, defaulting to
+/// `span` and `turns`; refused for lap and wave.
+fn read_wave_coils(
+    win: &TableReader<'_, '_>,
+    wtype: WindingType,
+    slots: i64,
+    poles: i64,
+    span: u32,
+    turns: i64,
+) -> Result<Option<WaveCoils>, Diagnostic> {
+    let frog = wtype.kind().element_count() > 1;
+    if !frog {
+        for key in ["wave_span", "wave_turns"] {
+            if let Some(v) = win.raw(key) {
+                return Err(win
+                    .src
+                    .error(
+                        v.span(),
+                        win.dotted(key),
+                        format!(
+                            "{key} belongs to frog-leg windings: a {} winding has one element",
+                            wtype.as_str()
+                        ),
+                    )
+                    .with_hint("remove the key, or set type = \"frog-leg\""));
+            }
+        }
+        return Ok(None);
+    }
+    let wave_span = match win.raw("wave_span") {
+        None => span,
+        Some(_) => read_span_key(win, "wave_span", slots, poles)?.0,
+    };
+    let wave_turns = win
+        .int(
+            "wave_turns",
+            1..=bounds::MAX_TURNS,
+            "the wave coils' turns",
+            "the trade winds both elements with the same turns",
+        )?
+        .map_or(turns, |t| t.value);
+    Ok(Some(WaveCoils {
+        span: wave_span,
+        turns: wave_turns as u32,
+    }))
 }
 
 /// `dummy_coils`: the coil positions left unconnected (wave only), distinct, 2 to N (coil 1
@@ -292,7 +364,17 @@ fn read_span(
     slots: i64,
     poles: i64,
 ) -> Result<(u32, SpanSource), Diagnostic> {
-    let Some(v) = t.raw("span") else {
+    read_span_key(t, "span", slots, poles)
+}
+
+/// A span in slots under `key` (`span`, `wave_span`): a number or the shop form.
+fn read_span_key(
+    t: &TableReader<'_, '_>,
+    key: &str,
+    slots: i64,
+    poles: i64,
+) -> Result<(u32, SpanSource), Diagnostic> {
+    let Some(v) = t.raw(key) else {
         return Ok(((slots / poles).max(1) as u32, SpanSource::Default));
     };
     let src = t.src;
@@ -300,7 +382,7 @@ fn read_span(
     let hint = format!("the span is in slots: 1 to {max}; near {slots}/{poles} = one pole pitch");
     let value = match v.get_ref() {
         DeValue::Integer(_) => t
-            .int("span", i64::MIN..=i64::MAX, "the coil span in slots", &hint)?
+            .int(key, i64::MIN..=i64::MAX, "the coil span in slots", &hint)?
             .map(|a| a.value),
         DeValue::String(s) => shop_pair(s)
             .filter(|&(a, b)| a >= 1 && b > a)
@@ -308,7 +390,7 @@ fn read_span(
             .ok_or_else(|| {
                 src.error(
                     v.span(),
-                    "winding.span",
+                    t.dotted(key),
                     format!(
                         "expected a span such as 7 or \"1-8\", found \"{}\"",
                         clip(s, ECHO_WIDTH)
@@ -323,7 +405,7 @@ fn read_span(
             return Err(src
                 .error(
                     v.span(),
-                    "winding.span",
+                    t.dotted(key),
                     format!(
                         "expected a span such as 7 or \"1-8\", found {}",
                         other.type_str()
@@ -337,9 +419,9 @@ fn read_span(
         return Err(src
             .error(
                 v.span(),
-                "winding.span",
+                t.dotted(key),
                 format!(
-                    "span {value} is out of range: expected 1 to {max} slots for {slots} slots"
+                    "{key} {value} is out of range: expected 1 to {max} slots for {slots} slots"
                 ),
             )
             .with_hint(hint));
@@ -388,13 +470,16 @@ fn read_equalizers(
                 .with_hint("equalizers = 3 fits every third possible connection"));
         }
     };
-    if wtype == WindingType::Wave && choice != EqualizerChoice::None {
+    if !wtype.kind().takes_equalizers() && choice != EqualizerChoice::None {
         return Err(t
             .src
             .error(
                 v.span(),
                 "winding.equalizers",
-                "equalizers belong to lap windings: a wave winding needs none",
+                format!(
+                    "equalizers belong to lap windings: {}",
+                    wtype.kind().no_equalizers_reason()
+                ),
             )
             .with_hint("remove the key or set equalizers = \"none\""));
     }

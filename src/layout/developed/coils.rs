@@ -65,6 +65,9 @@ pub struct CoilDrawing {
     pub cuts: Vec<EdgeCut>,
     /// Where the path tag goes (above the back apex), when the apex is inside.
     pub tag: Option<Point>,
+    /// The coil's element (`"lap"`, `"wave"`) on a winding of several elements (frog-leg);
+    /// `None` on a lap or wave winding.
+    pub element: Option<&'static str>,
 }
 
 /// What the far end of a line is: the slot of a back connection's bottom side, the bar of a
@@ -115,6 +118,7 @@ pub(super) fn coil_drawing(
         end_lead: Vec::new(),
         cuts: Vec::new(),
         tag: None,
+        element: winding.is_multi_element().then(|| conn.element.as_str()),
     };
     for x in [xt, xt - geo.turn] {
         if geo.inside(x) {
@@ -142,11 +146,29 @@ pub(super) fn coil_drawing(
     let (ct, cb) = bands.core;
     // The back apex, leant off the coil's centre by `lean` mm (the same for every coil).
     let xm = (xt + xb) / 2.0 + lean;
+    // A frog-leg's wave coils are told from its lap coils by the back end: square-shouldered
+    // and lower, where the lap coils' come to a point at the apex.
+    let wave = winding.is_multi_element() && conn.element != winding.elements[0].kind;
+    let apex = if wave {
+        bands.back_apex + (ct - bands.back_apex) * 0.4
+    } else {
+        bands.back_apex
+    };
     d.tag = [xm, xm - geo.turn, xm + geo.turn]
         .into_iter()
         .find(|&x| geo.inside(x))
-        .map(|x| (x, bands.back_apex - 0.6));
-    let back = [(xt, ct), (xm, bands.back_apex), (xb, ct)];
+        .map(|x| (x, apex - 0.6));
+    let shoulder = (xb - xt) * 0.2;
+    let back = if wave {
+        vec![
+            (xt, ct),
+            (xt + shoulder + lean, apex),
+            (xb - shoulder + lean, apex),
+            (xb, ct),
+        ]
+    } else {
+        vec![(xt, ct), (xm, apex), (xb, ct)]
+    };
     d.back = add_pieces(
         geo,
         &back,
@@ -181,8 +203,9 @@ pub(super) fn coil_drawing(
     let label = edge_label(coil, goes(conn.end_segment));
     d.end_lead = add_pieces(geo, &end, &label, &mut d.cuts);
 
-    // A window shows the coils lying wholly in it (both sides in view; `whole_coils`), or
-    // else those whose top side lies in it, each whole or cut at an edge.
+    // A window shows the coils lying wholly in it (both sides and both leads in view, no line
+    // cut; `whole_coils`), or else those whose top side lies in it, each whole or cut at an
+    // edge.
     let anything = if geo.whole {
         d.top.is_some()
             || d.bottom.is_some()
@@ -190,7 +213,7 @@ pub(super) fn coil_drawing(
             || !d.start_lead.is_empty()
             || !d.end_lead.is_empty()
     } else {
-        d.top.is_some() && (!whole_coils || d.bottom.is_some())
+        d.top.is_some() && (!whole_coils || (d.bottom.is_some() && d.cuts.is_empty()))
     };
     anything.then_some(d)
 }

@@ -185,7 +185,7 @@ pub(crate) const SIDE_SPREAD: f64 = 0.85;
 /// slot, spread over [`SIDE_SPREAD`] of the pitch) [`SIDE_GAP`] apart, and every segment
 /// number (turned, its digits' cap height across) beside the next.
 fn min_slot_pitch(design: &Design, winding: &Winding) -> f64 {
-    let u = f64::from(design.coils_per_slot);
+    let u = f64::from(design.coils_per_slot * winding.elements.len() as u32);
     let sides = SIDE_GAP * 2.0 * u / SIDE_SPREAD;
     let per_slot = f64::from(winding.active_coils) / f64::from(design.slots);
     let numbers = (TEXT_FLOOR * 0.73 + 0.5) * per_slot;
@@ -206,11 +206,11 @@ const SEARCHED_COILS: usize = 480;
 /// Where the whole view's seam may fall, as the share of a slot pitch between the left edge
 /// and the first slot's centre: 0.5 first, then steps either side while the slot box (0.8 of
 /// the pitch) and the outermost coil side stay clear of the edge.
-fn seam_offsets(u: u32, whole: bool) -> Vec<f64> {
+fn seam_offsets(u: u32, search: bool) -> Vec<f64> {
     let outermost = SIDE_SPREAD * (0.5 - 0.25 / f64::from(u));
     let lo = outermost.max(0.4) + 0.02;
     let mut out = vec![0.5];
-    if whole {
+    if search {
         for k in 1..=8 {
             let d = 0.01 * f64::from(k);
             if 0.5 - d >= lo {
@@ -265,42 +265,73 @@ fn seam_and_coils(
 ) -> (f64, Vec<CoilDrawing>, Drawn) {
     if !whole {
         let geo = geo_at(0.5);
-        let coils = draw_coils(design, winding, &geo, bands, true, 0.0);
+        let mut coils = draw_coils(design, winding, &geo, bands, true, 0.0);
         if !coils.is_empty() {
+            // An element of a frog-leg with no coil wholly in view (the wave element's end
+            // leads run two pole pitches on) shows the coils of its first slots whose sides
+            // both lie in view, their leads cut and labelled at the edge.
+            let missing: Vec<Option<&str>> = winding
+                .elements
+                .iter()
+                .map(|e| Some(e.kind.as_str()))
+                .filter(|&k| winding.is_multi_element() && !coils.iter().any(|c| c.element == k))
+                .collect();
+            for kind in missing {
+                let sides: Vec<CoilDrawing> = draw_coils(design, winding, &geo, bands, false, 0.0)
+                    .into_iter()
+                    .filter(|c| c.element == kind && c.bottom.is_some())
+                    .collect();
+                coils.extend(first_slots_labelled(sides, bands, |c| c.coil).0);
+            }
+            coils.sort_by_key(|c| c.coil);
             return (0.5, coils, Drawn::Wholly);
         }
-        let all = draw_coils(design, winding, &geo, bands, false, 0.0);
-        let (coils, last) = first_slots_labelled(all, bands);
-        return (0.5, coils, Drawn::TopsThrough(last));
     }
-    let mut best: Option<(f64, f64, Vec<CoilDrawing>)> = None;
-    // A whole view of many hundred coils cannot be labelled at its seam anyway (it falls back
-    // to a window), so it is not searched.
-    let search = winding.connections.len() <= SEARCHED_COILS;
+    let mut best: Option<(f64, f64, Vec<CoilDrawing>, Drawn)> = None;
+    // A view of many hundred coils is not searched: a whole one cannot be labelled at its
+    // seam anyway (it falls back to a window), a window draws a few slots' coils.
+    let search = winding.connections.len() <= SEARCHED_COILS || !whole;
+    let sides = design.coils_per_slot * winding.elements.len() as u32;
     let leans: &[f64] = if search { &APEX_LEANS } else { &[0.0] };
     'search: for &lean in leans {
-        for seam in seam_offsets(design.coils_per_slot, search) {
+        for seam in seam_offsets(sides, search) {
             let geo = geo_at(seam);
             let lean_mm = lean * geo.scale * 360.0 / f64::from(design.slots);
-            let coils = draw_coils(design, winding, &geo, bands, false, lean_mm);
+            let all = draw_coils(design, winding, &geo, bands, false, lean_mm);
+            let (coils, drawn) = if whole {
+                (all, Drawn::Every)
+            } else {
+                let (coils, last) = first_slots_labelled(all, bands, top_slot);
+                (coils, Drawn::TopsThrough(last))
+            };
             let gap = least_dot_gap(&coils);
             let better = best.as_ref().is_none_or(|b| gap > b.0 + 1e-9);
             if better {
-                best = Some((gap, seam, coils));
+                best = Some((gap, seam, coils, drawn));
             }
             if gap >= DOT_GAP {
                 break 'search;
             }
         }
     }
-    let (_, seam, coils) = best.expect("at least one seam offset");
-    (seam, coils, Drawn::Every)
+    let (_, seam, coils, drawn) = best.expect("at least one seam offset");
+    (seam, coils, drawn)
 }
 
-/// The coils of `all` whose top sides lie in the first slots shown, slot by slot for as
-/// long as neither edge has more lines than its gutter can label (at least the first slot's
-/// coils), and the last such slot.
-fn first_slots_labelled(mut all: Vec<CoilDrawing>, bands: &Bands) -> (Vec<CoilDrawing>, u32) {
+/// The top slot of a drawn coil (0 when its top side is out of view).
+fn top_slot(c: &CoilDrawing) -> u32 {
+    c.top.map_or(0, |t| t.slot)
+}
+
+/// The coils of `all` whose top sides lie in the first slots shown, taken a group at a time
+/// (`group`: the top slot, or the coil for one at a time) for as long as neither edge has
+/// more lines than its gutter can label nor two dots closer than the floor (at least the
+/// first group), and the group of the last one taken.
+fn first_slots_labelled(
+    mut all: Vec<CoilDrawing>,
+    bands: &Bands,
+    group: fn(&CoilDrawing) -> u32,
+) -> (Vec<CoilDrawing>, u32) {
     all.sort_by(|a, b| {
         let x = |c: &CoilDrawing| c.top.map_or(f64::INFINITY, |t| t.x);
         x(a).total_cmp(&x(b)).then(a.coil.cmp(&b.coil))
@@ -309,27 +340,27 @@ fn first_slots_labelled(mut all: Vec<CoilDrawing>, bands: &Bands) -> (Vec<CoilDr
         ((bands.commutator.1 - bands.pole.0 - 2.0) / EDGE_LABEL_GAP).floor() as usize + 1;
     let mut counts = [0usize; 2];
     let mut keep = 0;
-    let mut last = all.first().and_then(|c| c.top).map_or(0, |t| t.slot);
+    let mut last = all.first().map_or(0, group);
     let mut i = 0;
     while i < all.len() {
-        let slot = all[i].top.map_or(0, |t| t.slot);
-        let group = all[i..]
-            .iter()
-            .take_while(|c| c.top.map_or(0, |t| t.slot) == slot)
-            .count();
+        let slot = group(&all[i]);
+        let size = all[i..].iter().take_while(|c| group(c) == slot).count();
         let mut more = counts;
-        for c in &all[i..i + group] {
+        for c in &all[i..i + size] {
             for cut in &c.cuts {
                 more[usize::from(cut.right)] += 1;
             }
         }
-        if keep > 0 && more.iter().any(|&n| n > capacity) {
+        if keep > 0
+            && (more.iter().any(|&n| n > capacity)
+                || least_dot_gap(&all[..i + size]) < nodes::CUT_DOT_FLOOR)
+        {
             break;
         }
         counts = more;
-        keep = i + group;
+        keep = i + size;
         last = slot;
-        i += group;
+        i += size;
     }
     all.truncate(keep);
     all.sort_by_key(|c| c.coil);
@@ -346,7 +377,17 @@ fn draw_coils(
     whole_coils: bool,
     lean: f64,
 ) -> Vec<CoilDrawing> {
-    let u = design.coils_per_slot;
+    // A frog-leg's slot holds u sides of each element a layer: the wave element's beside the
+    // lap element's.
+    let per_element = design.coils_per_slot;
+    let u = per_element * winding.elements.len() as u32;
+    let element_index = |coil: u32| {
+        winding
+            .elements
+            .iter()
+            .position(|e| e.holds(coil))
+            .unwrap_or(0) as u32
+    };
     let slot_deg = 360.0 / f64::from(design.slots);
     let side_deg = |slot: u32, position: u32, bottom: bool| {
         let j = 2 * (position - 1) + u32::from(bottom);
@@ -357,10 +398,11 @@ fn draw_coils(
         .connections
         .iter()
         .filter_map(|conn| {
-            let top_deg = side_deg(conn.top.slot, conn.top.position, false);
+            let shift = per_element * element_index(conn.coil);
+            let top_deg = side_deg(conn.top.slot, conn.top.position + shift, false);
             let forward = (conn.bottom.slot + design.slots - conn.top.slot) % design.slots;
-            let bottom_deg =
-                side_deg(conn.top.slot, conn.bottom.position, true) + f64::from(forward) * slot_deg;
+            let bottom_deg = side_deg(conn.top.slot, conn.bottom.position + shift, true)
+                + f64::from(forward) * slot_deg;
             coil_drawing(
                 conn,
                 winding,
@@ -401,7 +443,8 @@ fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutte
     let (mut seam, mut coils, mut drawn) =
         seam_and_coils(design, winding, &bands, view.whole, &|f| geo_at(&view, f));
     let labelled = place_edge_labels(&mut coils, EDGE_LABEL_GAP, room, view.whole);
-    if !labelled && view.whole && options.floor {
+    let crowded = !labelled || least_dot_gap(&coils) < nodes::CUT_DOT_FLOOR;
+    if crowded && view.whole && options.floor {
         // The whole view has more lines at its seam than the gutter can label at the floor:
         // a printed sheet shows the coils that lie wholly in a window instead, which leave no
         // edge but by their leads (a screen, which zooms, keeps the whole view).

@@ -23,6 +23,9 @@ fn header_size(head: &str, note: &str, room: f64, max: f64) -> f64 {
 
 /// Radius of the dot where a line meets an edge, mm.
 pub const CUT_DOT_R: f64 = 0.2;
+/// Least distance between two dots on one edge of a printed diagram, mm: at least 0.2 mm
+/// of paper shows between them.
+pub const CUT_DOT_FLOOR: f64 = 2.0 * CUT_DOT_R + 0.2;
 
 /// Hatching of the box x0…x1 × y0…y1: lines rising at 45° to the right, `step` mm apart.
 fn hatch(x0: f64, x1: f64, y0: f64, y1: f64, step: f64) -> Vec<Line> {
@@ -204,6 +207,9 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
                 .with_data("data-end-seg", e);
         }
         cg = cg.with_data("data-path", c.path);
+        if let Some(e) = c.element {
+            cg = cg.with_data("data-element", e);
+        }
         if c.dummy {
             cg = cg.with_data("data-dummy", "true");
         }

@@ -2,6 +2,7 @@
 //!
 //! Part of the `layout` stage (the sheets).
 
+use crate::layout::developed::nodes::CUT_DOT_R;
 use crate::layout::style::{
     DUMMY_DASH, DUMMY_GREY, INK, PATH_COLOURS, PATH_DASHES, SHORTED_GREY, TEXT_FLOOR, colour_class,
     dash_class,
@@ -13,8 +14,9 @@ use super::{Input, Rect, hline};
 use crate::layout::font::wrap_text;
 use crate::layout::style::text_face;
 
-/// The legend in `r`; `whole` says whether the diagram shows the whole armature.
-pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
+/// The legend in `r`; `edge` is `None` when no line of the diagram meets an edge, else
+/// whether the diagram shows the whole armature (lines re-enter) or a window (lines leave).
+pub(super) fn legend_block(input: &Input<'_>, r: &Rect, edge: Option<bool>) -> Group {
     let mut g = Group::id("legend");
     g.push(Text::new(r.x + 2.0, r.y + 5.0, 3.2, "b", "Legend"));
     let x0 = r.x + 3.0;
@@ -116,6 +118,29 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
         "",
         "grey, tag sc: shorted by a brush now (no current)",
     );
+    if input.winding.is_multi_element() {
+        // A frog-leg's two elements: the back-end shapes the diagram draws.
+        let (b, t) = (y - 0.1, y - 2.1);
+        let lap = [(x0, b), (x0 + 2.0, t), (x0 + 4.0, b)];
+        let wave = [
+            (x0 + 4.8, b),
+            (x0 + 5.6, t + 0.8),
+            (x0 + 7.7, t + 0.8),
+            (x0 + 8.5, b),
+        ];
+        for piece in lap.windows(2).chain(wave.windows(2)) {
+            let mut line = Line::new("conn", piece[0], piece[1]);
+            line.stroke = Some(INK);
+            g.push(line);
+        }
+        y += text(
+            &mut g,
+            xs,
+            y,
+            "",
+            "back ends: lap coils pointed, wave square",
+        );
+    }
     if !input.winding.dummy_coils.is_empty() {
         sample(&mut g, y, DUMMY_GREY, "conn", DUMMY_DASH);
         y += text(
@@ -141,14 +166,16 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, whole: bool) -> Group {
         "",
         "brush: filled positive (+), open negative (\u{2212})",
     );
-    g.push(Circle::new("cutdot", x0 + 7.5, y - 0.8, 0.4));
-    g.push(hline(x0, x0 + 7.5, y - 0.8, "rule"));
-    let cut = if whole {
-        "edge: the line goes on at the other edge; its label, coil\u{2192}s slot or b bar, is the same at both"
-    } else {
-        "edge: the line leaves the window; its label names the coil\u{2192}s slot or b bar it goes to"
-    };
-    y += text(&mut g, xs, y, "", cut);
+    if let Some(whole) = edge {
+        g.push(Circle::new("cutdot", x0 + 7.5, y - 0.8, CUT_DOT_R));
+        g.push(hline(x0, x0 + 7.5, y - 0.8, "rule"));
+        let cut = if whole {
+            "edge: the line goes on at the other edge; its label, coil\u{2192}s slot or b bar, is the same at both"
+        } else {
+            "edge: the line leaves the window; its label names the coil\u{2192}s slot or b bar it goes to"
+        };
+        y += text(&mut g, xs, y, "", cut);
+    }
     if matches!(&input.winding.equalizers, EqualizerPlan::Possible(e) if !e.groups.is_empty()) {
         g.push(hline(x0, x0 + 8.5, y - 0.8, "eqline"));
         g.push(Circle::new("eqdot", x0 + 4.2, y - 0.8, 0.45));

@@ -246,7 +246,9 @@ fn diagram_sheet_blocks(
     out.push(hline(frame.frame.x, frame.frame.right(), s.data.y, "rule"));
     out.push(data::data_block(input, &s.data, data_more_on).0.into());
     out.push(vline(s.legend.x, s.legend.y, s.legend.bottom(), "rule"));
-    out.push(legend::legend_block(input, &s.legend, diagram.view.whole).into());
+    let cut = diagram.coils.iter().any(|c| !c.cuts.is_empty());
+    let edge = cut.then_some(diagram.view.whole);
+    out.push(legend::legend_block(input, &s.legend, edge).into());
     out.push(vline(s.notes.x, s.notes.y, frame.frame.bottom(), "rule"));
     let caution = Rect {
         x: s.notes.x + 1.5,

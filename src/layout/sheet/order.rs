@@ -36,14 +36,25 @@ pub(super) const ORDER_ROW: f64 = 4.5;
 /// A check-off box, mm: 5 wide and 3.8 high, inside its row with a margin above and below.
 const BOX: (f64, f64) = (5.0, 3.8);
 
+/// The columns for `winding`: on a winding of several elements (frog-leg) an element column
+/// after the coil, taken from the turns-and-wire column so the table keeps its width.
+fn columns(multi: bool) -> Vec<([&'static str; 2], f64)> {
+    let mut c = COLUMNS.to_vec();
+    if multi {
+        c[6].1 -= 12.0;
+        c.insert(2, (["elem.", ""], 12.0));
+    }
+    c
+}
+
 /// Width of the winding-order table, mm.
 pub(super) fn order_width() -> f64 {
     COLUMNS.iter().map(|c| c.1).sum()
 }
 
-/// The turns and the wire of one coil in shop words ("4 turns, 2 in hand, Ø1.60").
-fn turns_and_wire(input: &Input<'_>) -> String {
-    let turns = input.design.turns;
+/// The turns and the wire of one coil of `turns` turns in shop words ("4 turns, 2 in hand,
+/// Ø1.60").
+fn turns_and_wire(input: &Input<'_>, turns: u32) -> String {
     let mut s = format!("{turns} turn{}", if turns == 1 { "" } else { "s" });
     if let Some(c) = &input.design.conductor {
         let (wire, strands) = match c.shape {
@@ -144,13 +155,21 @@ pub(super) fn order_page(
             format!("{slot}/{pos}")
         }
     };
-    let wire = turns_and_wire(input);
+    let wires: Vec<String> = input
+        .winding
+        .elements
+        .iter()
+        .map(|e| turns_and_wire(input, e.turns))
+        .collect();
     let lift = lifted(input);
+    let multi = input.winding.is_multi_element();
+    let cols = columns(multi);
+    let text_columns = TEXT_COLUMNS + usize::from(multi);
     let mut g = Group::id(format!("order-{}", page.rows.start + 1)).with_class("winding-order");
     for (gx, rows) in &page.groups {
         let total = order_width();
         let mut cx = *gx;
-        for (head, width) in COLUMNS {
+        for &(head, width) in &cols {
             let hx = cx + width - 1.5;
             g.push(Text::new(hx, page.top + 3.6, 3.0, "b end", head[0]));
             if !head[1].is_empty() {
@@ -168,6 +187,13 @@ pub(super) fn order_page(
             let conn = &conns[r];
             let y = page.top + TABLE_HEADER + (i as f64 + 1.0) * page.row - 1.4;
             let bar = |s: Option<u32>| s.map_or_else(|| "cut".to_string(), |s| s.to_string());
+            let element = input
+                .winding
+                .elements
+                .iter()
+                .position(|e| e.holds(conn.coil))
+                .unwrap_or(0);
+            let wire = &wires[element];
             let note = if conn.dummy {
                 "dummy: ends cut and taped".to_string()
             } else if r < lift {
@@ -175,7 +201,7 @@ pub(super) fn order_page(
             } else {
                 wire.clone()
             };
-            let cells = [
+            let mut cells = vec![
                 (r + 1).to_string(),
                 conn.coil.to_string(),
                 place(conn.top.slot, conn.top.position),
@@ -184,13 +210,16 @@ pub(super) fn order_page(
                 bar(conn.end_segment),
                 note,
             ];
+            if multi {
+                cells.insert(2, conn.element.as_str().to_string());
+            }
             let mut row = Group::class("order-row")
                 .with_data("data-step", r + 1)
                 .with_data("data-coil", conn.coil);
             let mut cx = *gx;
-            for (j, (head, width)) in COLUMNS.iter().enumerate() {
-                if j < TEXT_COLUMNS {
-                    let (x, cls) = if j == TEXT_COLUMNS - 1 {
+            for (j, (head, width)) in cols.iter().enumerate() {
+                if j < text_columns {
+                    let (x, cls) = if j == text_columns - 1 {
                         (cx + 2.0, "")
                     } else {
                         (cx + width - 1.5, if j == 1 { "b end" } else { "end" })

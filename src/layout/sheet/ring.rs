@@ -239,7 +239,18 @@ pub(super) fn ring_page(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
         ),
         scale,
     ];
-    for l in lines {
+    // A frog-leg: four leads on every bar, and the wave element's throw beside the lap's.
+    let frog_leg = w.elements.get(1).map(|e| {
+        let k = &w.connections[(e.first_coil - 1) as usize];
+        format!(
+            "Every bar takes four leads: a start and an end lead of each element. The {} coils' throw is {}\u{2013}{} (y_c = {}); slot 1's group holds the coils of both.",
+            e.kind.as_str(),
+            k.start_segment.unwrap_or(0),
+            k.end_segment.unwrap_or(0),
+            signed(e.pitches.commutator)
+        )
+    });
+    for l in lines.into_iter().chain(frog_leg) {
         for part in wrap_text(&l, 3.0, Weight::Regular, words_w - 4.0) {
             out.push(Text::new(x, y, 3.0, "", part).into());
             y += 3.9;

@@ -84,6 +84,22 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
         "back / front",
         format!("{} / {}", w.pitches.back, w.pitches.front),
     );
+    // A frog-leg's wave element: its own pitches and span (the rows above are the lap's).
+    for e in w.elements.iter().skip(1) {
+        let name = e.kind.as_str();
+        row(
+            &format!("{name} pitch / span"),
+            format!(
+                "{} / {}",
+                signed(e.pitches.commutator),
+                span_shop_dash(e.pitches.span)
+            ),
+        );
+        row(
+            &format!("{name} back / front"),
+            format!("{} / {}", e.pitches.back, e.pitches.front),
+        );
+    }
     row("parallel paths", w.parallel_paths().to_string());
     row(
         "brush sets",
@@ -134,7 +150,7 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
 /// "2.17" (closed winding 2, step 17) when there is more than one closed winding; empty for
 /// a dummy.
 pub fn sequence_labels(w: &Winding) -> Vec<String> {
-    let mut out = vec![String::new(); w.coils as usize];
+    let mut out = vec![String::new(); w.connections.len()];
     let many = w.closed_windings.len() > 1;
     for (i, cw) in w.closed_windings.iter().enumerate() {
         for (k, step) in cw.steps.iter().enumerate() {

@@ -34,6 +34,8 @@ struct Shown {
     /// tabloid, so a winding whose every row would read the nominal value (printed in the
     /// winding-data block) leaves it out.
     front_pitch: bool,
+    /// The element column: only on a winding of several elements (frog-leg).
+    elements: bool,
 }
 
 impl Shown {
@@ -45,6 +47,7 @@ impl Shown {
                 .connections
                 .iter()
                 .any(|c| c.front_pitch.is_some_and(|y| y != w.pitches.front)),
+            elements: w.is_multi_element(),
         }
     }
 }
@@ -53,6 +56,7 @@ impl Shown {
 #[derive(Clone, Copy)]
 enum When {
     Always,
+    Elements,
     Positions,
     FrontPitch,
 }
@@ -61,8 +65,9 @@ enum When {
 fn connection_columns(shown: Shown) -> Vec<Column> {
     // (heading, width in mm, when shown). The front-pitch column is 10 mm: its heading is
     // 8.6 mm at the heading size, and up to four digits fit (8.9 mm at the table font).
-    const COLUMNS: [([&str; 2], f64, When); 11] = [
+    const COLUMNS: [([&str; 2], f64, When); 12] = [
         (["coil", ""], 13.0, When::Always),
+        (["elem.", ""], 12.0, When::Elements),
         (["top", "slot"], 12.0, When::Always),
         (["top", "pos"], 9.0, When::Positions),
         (["bottom", "slot"], 14.0, When::Always),
@@ -78,6 +83,7 @@ fn connection_columns(shown: Shown) -> Vec<Column> {
         .iter()
         .filter(|(_, _, when)| match when {
             When::Always => true,
+            When::Elements => shown.elements,
             When::Positions => shown.positions,
             When::FrontPitch => shown.front_pitch,
         })
@@ -203,7 +209,11 @@ pub(super) fn connection_page(
             }
             let seg = |s: Option<u32>| s.map_or_else(|| "\u{2014}".to_string(), |s| s.to_string());
             let path = input.winding.coil_path[(conn.coil - 1) as usize];
-            let mut cells = vec![conn.coil.to_string(), conn.top.slot.to_string()];
+            let mut cells = vec![conn.coil.to_string()];
+            if shown.elements {
+                cells.push(conn.element.as_str().to_string());
+            }
+            cells.push(conn.top.slot.to_string());
             if shown.positions {
                 cells.push(conn.top.position.to_string());
             }

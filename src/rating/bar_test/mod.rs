@@ -119,6 +119,23 @@ pub struct DropTest {
     pub feeds: Vec<DropFeed>,
 }
 
+/// How a winding of several elements (frog-leg) reads bar to bar, worked out on the network:
+/// the lap element alone against the combined winding, and how many neighbouring readings
+/// one open coil of each element moves.
+#[derive(Clone, Debug, PartialEq)]
+pub struct ElementsPattern {
+    /// Mean neighbouring reading of the combined winding, in the test's unit.
+    pub combined: f64,
+    /// Mean neighbouring reading of the lap element alone (the wave element's leads lifted),
+    /// in the test's unit.
+    pub lap_alone: f64,
+    /// Neighbouring readings that an open lap coil (coil 1) moves by more than 5 %.
+    pub open_lap_moves: u32,
+    /// Neighbouring readings that an open wave coil (the wave element's first) moves by more
+    /// than 5 %.
+    pub open_wave_moves: u32,
+}
+
 /// The armature test of one design.
 pub struct ArmatureTest {
     /// Bars C.
@@ -131,6 +148,9 @@ pub struct ArmatureTest {
     pub winding_type: WindingType,
     /// Closed windings.
     pub reentrancy: u32,
+    /// Closed windings the drop test feeds each on its own: the first element's (a frog-leg's
+    /// lap element ties every bar, so its wave element is fed through it).
+    pub feed_windings: u32,
     /// Whether equalizers are fitted.
     pub equalized: bool,
     /// The unit of every reading.
@@ -151,6 +171,8 @@ pub struct ArmatureTest {
     pub spread_pct: f64,
     /// The drop test.
     pub drop_test: DropTest,
+    /// The bar-to-bar pattern of a frog-leg winding's elements; `None` for lap and wave.
+    pub elements: Option<ElementsPattern>,
     /// The fault locator's result, with measured readings.
     pub location: Option<Location>,
     /// The solved network (kept for the locator and the plot).
@@ -262,6 +284,7 @@ pub fn expected(design: &Design, winding: &Winding, options: &TestOptions) -> Ar
         multiplicity: m,
         winding_type: design.winding_type,
         reentrancy: winding.reentrancy(),
+        feed_windings: winding.elements[0].reentrancy,
         equalized: matches!(&winding.equalizers, crate::winding::EqualizerPlan::Possible(e) if !e.groups.is_empty()),
         unit: if r_coil.is_some() {
             Unit::Ohm
@@ -278,6 +301,7 @@ pub fn expected(design: &Design, winding: &Winding, options: &TestOptions) -> Ar
             current_a: options.current_a,
             feeds: Vec::new(),
         },
+        elements: None,
         location: None,
         network,
     };
@@ -285,7 +309,56 @@ pub fn expected(design: &Design, winding: &Winding, options: &TestOptions) -> Ar
     test.pattern = pattern_of(&values);
     test.spread_pct = spread_pct(&values);
     test.drop_test = drop_test(&test, options.current_a, scale);
+    test.elements = winding
+        .is_multi_element()
+        .then(|| elements_pattern(winding, &test, scale));
     test
+}
+
+/// [`ElementsPattern`], from three more solves of the network: the lap element alone, and the
+/// winding with one lap coil and one wave coil opened (a resistance 10⁶ times a coil's).
+fn elements_pattern(w: &Winding, t: &ArmatureTest, scale: f64) -> ElementsPattern {
+    let pairs = neighbour_pairs(t.bars);
+    let mean = |v: &[Option<f64>]| {
+        let x: Vec<f64> = v.iter().flatten().copied().collect();
+        x.iter().sum::<f64>() / x.len().max(1) as f64
+    };
+    let base: Vec<Option<f64>> = t.readings.iter().map(|r| r.expected).collect();
+    let lap = &w.elements[0];
+    let lap_coils: Vec<NetCoil> = t
+        .network
+        .coils
+        .iter()
+        .filter(|c| lap.holds(c.coil))
+        .copied()
+        .collect();
+    let lap_alone = Network::new(t.bars, lap_coils, &[]).effective(&pairs);
+    let moved = |coil: u32| {
+        let coils: Vec<NetCoil> = t
+            .network
+            .coils
+            .iter()
+            .map(|c| NetCoil {
+                resistance: if c.coil == coil { 1e6 } else { c.resistance },
+                ..*c
+            })
+            .collect();
+        let open = Network::new(t.bars, coils, &[]).effective(&pairs);
+        open.iter()
+            .zip(&base)
+            .filter(|(o, b)| match (o, b) {
+                (Some(o), Some(b)) => (o * scale - b).abs() > 0.05 * b.abs(),
+                _ => o.is_some() != b.is_some(),
+            })
+            .count() as u32
+    };
+    let wave_first = w.elements.get(1).map_or(lap.first_coil, |e| e.first_coil);
+    ElementsPattern {
+        combined: mean(&base),
+        lap_alone: mean(&lap_alone) * scale,
+        open_lap_moves: moved(lap.first_coil),
+        open_wave_moves: moved(wave_first),
+    }
 }
 
 fn same(a: f64, b: f64) -> bool {
@@ -330,13 +403,15 @@ pub fn spread_pct(values: &[f64]) -> f64 {
 /// winding, each closed winding on its own, from its first bar to its bar opposite.
 fn feed_bars(t: &ArmatureTest) -> Vec<(u32, u32)> {
     let c = t.bars;
-    let r = t.reentrancy.max(1);
+    let r = t.feed_windings.max(1);
     if t.multiplicity > 1 && r == 1 {
         return vec![(1, 2)];
     }
     let pitch = match t.winding_type {
         WindingType::Lap => c / 2,
         WindingType::Wave => (c + t.poles / 2) / t.poles,
+        // The lap element sets the pattern: bar 1 and the bar opposite.
+        WindingType::FrogLeg => c / 2,
     };
     (1..=r)
         .map(|w| {
@@ -354,7 +429,7 @@ fn drop_test(t: &ArmatureTest, current_a: f64, scale: f64) -> DropTest {
         .into_iter()
         .map(|(a, wanted)| {
             // Never two bars an equalizer ties: move on within the same winding.
-            let step = t.reentrancy.max(1);
+            let step = t.feed_windings.max(1);
             let mut b = wanted;
             let mut tries = 0;
             while net.node(a) == net.node(b) && tries < c {
@@ -362,7 +437,7 @@ fn drop_test(t: &ArmatureTest, current_a: f64, scale: f64) -> DropTest {
                 tries += 1;
             }
             let phi = net.potentials(a, b);
-            let pairs = if t.reentrancy > 1 {
+            let pairs = if t.feed_windings > 1 {
                 pairs_apart(c, t.multiplicity)
             } else {
                 neighbour_pairs(c)

@@ -269,6 +269,59 @@ impl Network {
 }
 
 impl Network {
+    /// The armature under load: `winding`'s network with every brush set's contacts tied as
+    /// one node (an ideal brush), each coil an EMF `coil_emf` (index coil − 1, start→end) in
+    /// series with one coil resistance, and `current` fed in at the positive brush sets and
+    /// out at the negative ones, shared evenly between the sets of each polarity. Returns the
+    /// bar potentials (index bar − 1) relative to the grounded node, in units of one coil EMF
+    /// and one coil resistance (current × resistance and EMF in the same unit).
+    ///
+    /// Node equations: a coil from bar a to bar b carries (V_a − V_b + e)/r, so the EMF enters
+    /// the right-hand side as −e/r at a and +e/r at b (a Norton source) [derived, Kirchhoff's
+    /// current law].
+    pub fn under_load(winding: &Winding, coil_emf: &[f64], current: f64) -> Vec<f64> {
+        let base = Network::of_winding(winding);
+        let mut ties: Vec<Vec<u32>> = match &winding.equalizers {
+            EqualizerPlan::Possible(e) => e.groups.clone(),
+            _ => Vec::new(),
+        };
+        ties.extend(
+            winding
+                .brushes
+                .iter()
+                .filter(|b| b.contacts.len() > 1)
+                .map(|b| b.contacts.clone()),
+        );
+        let net = Network::new(winding.active_coils, base.coils, &ties);
+        let positive =
+            |b: &&crate::winding::BrushSet| b.polarity == crate::winding::Polarity::Positive;
+        let plus = winding.brushes.iter().filter(positive).count().max(1) as f64;
+        let minus = (winding.brushes.len() as f64 - plus).max(1.0);
+        let mut rhs: BTreeMap<usize, f64> = BTreeMap::new();
+        for c in &net.coils {
+            let g = 1.0 / c.resistance;
+            let e = coil_emf.get((c.coil - 1) as usize).copied().unwrap_or(0.0);
+            *rhs.entry(net.node(c.from_bar)).or_default() -= g * e;
+            *rhs.entry(net.node(c.to_bar)).or_default() += g * e;
+        }
+        for b in &winding.brushes {
+            let Some(&bar) = b.contacts.first().or(b.under.first()) else {
+                continue;
+            };
+            let i = if positive(&b) {
+                current / plus
+            } else {
+                -current / minus
+            };
+            *rhs.entry(net.node(bar)).or_default() += i;
+        }
+        let col: Vec<(usize, f64)> = rhs.into_iter().collect();
+        let x = net.solve_nodes(&[col]);
+        (1..=net.bars)
+            .map(|bar| net.potential(&x, net.node(bar), 0))
+            .collect()
+    }
+
     /// Bar potentials (index bar − 1) with a unit current fed in at `a` and out at `b`, in coil
     /// resistances, relative to the grounded node of each part; `None` for bars not joined to
     /// the feed.

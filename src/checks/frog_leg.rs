@@ -1,0 +1,162 @@
+//! Frog-leg rules: the self-equalizing condition read off the traced connections, C/p whole,
+//! the paths of each element, the wave element's reentrancy and equal coils in both elements.
+//!
+//! Part of the `checks` stage. Sources beside each rule: a trade association's technical note
+//! on frog-leg windings, read in a public copy (DOMAIN.md "Frog-leg windings"); the
+//! self-equalizing condition and its reading off the trace are derived.
+
+use super::sources::{FROG_LEG, FROG_LEG_DERIVED};
+use super::{Finding, Severity};
+use crate::design::Design;
+use crate::theory::WindingType;
+use crate::winding::{Connection, Winding, WindingElement};
+
+pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
+    let c = w.active_coils;
+    let p = d.pole_pairs();
+    let lap = w.elements.iter().find(|e| e.kind == WindingType::Lap);
+    let wave = w.elements.iter().find(|e| e.kind == WindingType::Wave);
+    let (Some(lap), Some(wave)) = (lap, wave) else {
+        return;
+    };
+    out.push(Finding::new(
+        "frogleg.pole-pairs-whole",
+        Severity::Error,
+        c.is_multiple_of(p),
+        format!(
+            "bars per pole pair C/p = {c}/{p}{}; must be whole so that bars two pole pitches apart exist",
+            if c.is_multiple_of(p) {
+                format!(" = {}", c / p)
+            } else {
+                " is not whole".to_string()
+            }
+        ),
+        FROG_LEG,
+    ));
+    out.push(self_equalizing(w, lap, wave, c, p));
+    out.push(element_paths(d, lap, wave));
+    let r = wave.reentrancy;
+    out.push(Finding::new(
+        "frogleg.wave-reentrancy",
+        Severity::Info,
+        true,
+        format!(
+            "the wave element (multiplicity m_w = m x p = {}, y_c = {}) is {}: {r} closed winding(s) traced, gcd(C, y_c) = gcd({c}, {}) = {}; each is tested on its own",
+            wave.multiplicity,
+            wave.pitches.commutator,
+            if r == 1 {
+                "singly re-entrant".to_string()
+            } else {
+                format!("{r}-fold re-entrant")
+            },
+            wave.pitches.commutator.abs(),
+            wave.reentrancy_formula
+        ),
+        FROG_LEG_DERIVED,
+    ));
+    let same = lap.turns == wave.turns;
+    out.push(Finding::new(
+        "frogleg.equal-coils",
+        Severity::Warning,
+        same,
+        format!(
+            "lap coils {} turn(s), wave coils {} turn(s), both of the one [conductor]{}",
+            lap.turns,
+            wave.turns,
+            if same {
+                ""
+            } else {
+                ": the trade winds both elements alike; unequal turns give the elements unequal EMFs and a circulating current between them"
+            }
+        ),
+        FROG_LEG,
+    ));
+}
+
+/// The element's coil rows of `w`.
+fn rows<'a>(w: &'a Winding, e: &WindingElement) -> &'a [Connection] {
+    let first = (e.first_coil - 1) as usize;
+    &w.connections[first..first + e.coils as usize]
+}
+
+/// y_c(lap) + |y_c(wave)| = C/p, read off the traced connections: from every bar, the lap coil
+/// that starts there and the wave coil that starts where it ends reach the bar two pole
+/// pitches on [derived; DOMAIN.md "Frog-leg windings"].
+fn self_equalizing(
+    w: &Winding,
+    lap: &WindingElement,
+    wave: &WindingElement,
+    c: u32,
+    p: u32,
+) -> Finding {
+    let starts = |e: &WindingElement| {
+        let mut by_bar = vec![None; c as usize];
+        for k in rows(w, e) {
+            if let (Some(a), Some(b)) = (k.start_segment, k.end_segment) {
+                by_bar[(a - 1) as usize] = Some(b);
+            }
+        }
+        by_bar
+    };
+    let (lap_to, wave_to) = (starts(lap), starts(wave));
+    let pair = c / p;
+    let reach = |bar: u32| {
+        let mid = lap_to[(bar - 1) as usize]?;
+        wave_to[(mid - 1) as usize]
+    };
+    let wrong: Vec<u32> = (1..=c)
+        .filter(|&b| reach(b) != Some((b - 1 + pair) % c + 1))
+        .collect();
+    let (yl, yw) = (lap.pitches.commutator, wave.pitches.commutator);
+    let first = reach(1).map_or("nowhere".to_string(), |b| format!("bar {b}"));
+    let message = if wrong.is_empty() {
+        format!(
+            "self-equalizing: y_c(lap) + |y_c(wave)| = {yl} + {} = {} = C/p; from every bar a lap coil and a wave coil in series reach the bar two pole pitches ({pair} bars) on (from bar 1: {first})",
+            yw.abs(),
+            yl + yw.abs()
+        )
+    } else {
+        format!(
+            "not self-equalizing: y_c(lap) + |y_c(wave)| = {yl} + {} = {}, but C/p = {pair}; from {} of {c} bars a lap coil and a wave coil in series miss the bar two pole pitches on (from bar 1: {first}, not bar {})",
+            yw.abs(),
+            yl + yw.abs(),
+            wrong.len(),
+            pair % c + 1
+        )
+    };
+    Finding::new(
+        "frogleg.self-equalizing",
+        Severity::Error,
+        wrong.is_empty(),
+        message,
+        FROG_LEG_DERIVED,
+    )
+}
+
+/// Both elements have the same number of paths, so m_wave = m_lap·p and a = 2·m·P, as traced.
+fn element_paths(d: &Design, lap: &WindingElement, wave: &WindingElement) -> Finding {
+    let ok = lap.paths == wave.paths
+        && lap.paths == lap.paths_formula
+        && wave.paths == wave.paths_formula;
+    Finding::new(
+        "frogleg.element-paths",
+        Severity::Error,
+        ok,
+        format!(
+            "traced paths: lap element {} (m x P = {} x {} = {}), wave element {} (2 m_w = 2 x {} = {}); {}",
+            lap.paths,
+            lap.multiplicity,
+            d.poles,
+            lap.paths_formula,
+            wave.paths,
+            wave.multiplicity,
+            wave.paths_formula,
+            if ok {
+                "equal, as a frog-leg winding needs"
+            } else {
+                "they must be equal and match their formulas"
+            }
+        ),
+        FROG_LEG,
+    )
+}
