@@ -36,12 +36,15 @@ fn every() -> Every {
 fn mutated_designs_never_panic() {
     let n = env_u64("ARMSHEET_FUZZ_N", 20_000);
     let seed = env_u64("ARMSHEET_FUZZ_SEED", 1);
-    // The small demos most of the time; the 1,056-bar one now and then.
-    let small: Vec<String> = support::DEMOS[..4]
+    // The small demos (the frog-leg one among them) most of the time; the 1,056-bar one now
+    // and then.
+    let large_name = "mill-lap-12p";
+    let small: Vec<String> = support::DEMOS
         .iter()
+        .filter(|&&d| d != large_name)
         .map(|d| support::demo(d))
         .collect();
-    let large = support::demo(support::DEMOS[4]);
+    let large = support::demo(large_name);
     let every = every();
     let mut rng = Rng::new(seed);
     let (mut parsed, mut sheets, mut pdfs) = (0u64, 0u64, 0u64);

@@ -1,6 +1,8 @@
 //! The one drive function of the fuzz harness: a design file's text through the library calls
 //! the CLI makes — parse, check, text and JSON reports, the CSV, a rewind whose new file is
-//! parsed back and, for a share of the inputs, the sheet layout with its SVG and PDF writers.
+//! parsed back and, for a share of the inputs, the armature test (its reports, and the fault
+//! locator on readings made from the expected ones, spoilt at random) and the sheet layout
+//! with its SVG and PDF writers.
 //!
 //! Shared by the stable driver (`tests/fuzz.rs`) and the cargo-fuzz target
 //! (`fuzz/fuzz_targets/design.rs`, which includes this file and `mutate.rs` by path), so both
@@ -8,10 +10,12 @@
 #![allow(dead_code)]
 
 use armsheet::check;
+use armsheet::checks::Checked;
 use armsheet::design::{WindingType, parse_design};
 use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
-use armsheet::rating::bar_test::{TestOptions, expected};
+use armsheet::rating::bar_test::{ArmatureTest, TestOptions, armature_test, expected};
 use armsheet::rating::{RewindRequest, rewind_rated};
+use armsheet::render::armature_test::{readings_csv, render_test_text, test_json_string};
 use armsheet::render::csv::{connections_csv, job_csv};
 use armsheet::render::json::report_json;
 use armsheet::render::pdf::sheets_pdf;
@@ -29,6 +33,9 @@ pub struct Every {
     /// Also write the PDF for every this many parsed inputs.
     pub pdf: u64,
 }
+
+/// The most coil positions of an input driven through the sheets and the armature test.
+pub const MAX_SHEET_COILS: usize = 1200;
 
 /// What one input reached.
 #[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
@@ -63,7 +70,12 @@ pub fn drive(text: &str, rng: &mut Rng, parsed: &mut u64, every: Every) -> Reach
     let req = RewindRequest {
         voltage: volts,
         speed_rpm: *rng.pick(&[None, Some(900.0), Some(1e-6), Some(1e7)]),
-        kind: *rng.pick(&[None, Some(WindingType::Lap), Some(WindingType::Wave)]),
+        kind: *rng.pick(&[
+            None,
+            Some(WindingType::Lap),
+            Some(WindingType::Wave),
+            Some(WindingType::FrogLeg),
+        ]),
         multiplicity: *rng.pick(&[None, Some(1), Some(2), Some(0), Some(7)]),
         from_test: *rng.pick(&[None, Some((200.0, 1000.0)), Some((1e308, 1e-308))]),
         measured_r20: *rng.pick(&[None, Some(0.5), Some(-1.0)]),
@@ -80,7 +92,11 @@ pub fn drive(text: &str, rng: &mut Rng, parsed: &mut u64, every: Every) -> Reach
         ..Reached::default()
     };
     let due = |n: u64| n > 0 && parsed.is_multiple_of(n);
-    if due(every.sheets) || due(every.pdf) {
+    // The sheets carry the armature test, whose network solves grow as the square of the bars
+    // in an unoptimised build: armatures above the largest demo's size are left to the
+    // engine and the reports (a mutation can make one of 12,000 bars).
+    let sheet_sized = checked.winding.connections.len() <= MAX_SHEET_COILS;
+    if sheet_sized && (due(every.sheets) || due(every.pdf)) {
         let options = SheetOptions {
             paper: *rng.pick(&[Paper::A4, Paper::A3, Paper::Letter, Paper::Tabloid]),
             window: match rng.below(8) {
@@ -93,11 +109,9 @@ pub fn drive(text: &str, rng: &mut Rng, parsed: &mut u64, every: Every) -> Reach
             },
             version: "fuzz".to_string(),
         };
-        let pages = sheet_pages(
-            &checked,
-            &expected(&checked.design, &checked.winding, &TestOptions::default()),
-            &options,
-        );
+        let test = expected(&checked.design, &checked.winding, &TestOptions::default());
+        drive_armature_test(&checked, &test, rng);
+        let pages = sheet_pages(&checked, &test, &options);
         for page in &pages {
             let _ = page_svg(page);
         }
@@ -109,4 +123,50 @@ pub fn drive(text: &str, rng: &mut Rng, parsed: &mut u64, every: Every) -> Reach
         }
     }
     reached
+}
+
+/// `armsheet test` on `checked`: the reports of the expected readings `test`, then the
+/// readings CSV filled in from them, some readings spoilt (open, scaled, garbled, a blank
+/// line), read back through the locator under random options, and its reports.
+fn drive_armature_test(checked: &Checked, test: &ArmatureTest, rng: &mut Rng) {
+    let _ = render_test_text(test, "fuzz");
+    let _ = test_json_string(test);
+    let mut filled = String::new();
+    for (i, line) in readings_csv(test).lines().enumerate() {
+        if i == 0 {
+            filled.push_str(line);
+        } else {
+            let expected = line
+                .split(',')
+                .nth(2)
+                .and_then(|v| v.parse::<f64>().ok())
+                .unwrap_or(1.0);
+            let measured = match rng.below(40) {
+                0 => "open".to_string(),
+                1 => format!("{}", expected * *rng.pick(&[0.0, 0.5, 2.0, -1.0, 1e300])),
+                2 => "1.2.3".to_string(),
+                3 => String::new(),
+                _ => format!("{expected}"),
+            };
+            filled.push_str(line);
+            filled.push_str(&measured);
+        }
+        filled.push('\n');
+        if rng.below(200) == 0 {
+            filled.push('\n');
+        }
+    }
+    // The locator's ranking grows with the bars; the large demo's is left to its benchmark.
+    if test.bars > 200 {
+        return;
+    }
+    let options = TestOptions {
+        current_a: *rng.pick(&[0.1, 10.0, 1000.0]),
+        temperature_c: *rng.pick(&[-50.0, 20.0, 250.0]),
+        tolerance: *rng.pick(&[1e-9, 0.02, 0.5, 10.0]),
+    };
+    if let Ok(t) = armature_test(&checked.design, &checked.winding, &options, Some(&filled)) {
+        let _ = render_test_text(&t, "fuzz");
+        let _ = test_json_string(&t);
+    }
 }

@@ -193,7 +193,7 @@ fn min_slot_pitch(design: &Design, winding: &Winding) -> f64 {
 }
 
 /// Dots closer than this on one edge, mm, read as one dot.
-const DOT_GAP: f64 = 1.2;
+const DOT_GAP: f64 = 0.9;
 
 /// How far the back apex may lean off the coil's centre, in slot pitches, tried in order
 /// when the seam alone cannot keep the dots apart: lines crossing each other on the seam
@@ -260,12 +260,13 @@ fn seam_and_coils(
     design: &Design,
     winding: &Winding,
     bands: &Bands,
-    whole: bool,
+    view: &View,
     geo_at: &dyn Fn(f64) -> Geo,
 ) -> (f64, Vec<CoilDrawing>, Drawn) {
+    let whole = view.whole;
     if !whole {
         let geo = geo_at(0.5);
-        let mut coils = draw_coils(design, winding, &geo, bands, true, 0.0);
+        let mut coils = draw_coils(design, winding, view, &geo, bands, true, 0.0);
         if !coils.is_empty() {
             // An element of a frog-leg with no coil wholly in view (the wave element's end
             // leads run two pole pitches on) shows the coils of its first slots whose sides
@@ -277,10 +278,11 @@ fn seam_and_coils(
                 .filter(|&k| winding.is_multi_element() && !coils.iter().any(|c| c.element == k))
                 .collect();
             for kind in missing {
-                let sides: Vec<CoilDrawing> = draw_coils(design, winding, &geo, bands, false, 0.0)
-                    .into_iter()
-                    .filter(|c| c.element == kind && c.bottom.is_some())
-                    .collect();
+                let sides: Vec<CoilDrawing> =
+                    draw_coils(design, winding, view, &geo, bands, false, 0.0)
+                        .into_iter()
+                        .filter(|c| c.element == kind && c.bottom.is_some())
+                        .collect();
                 coils.extend(first_slots_labelled(sides, bands, |c| c.coil).0);
             }
             coils.sort_by_key(|c| c.coil);
@@ -297,7 +299,7 @@ fn seam_and_coils(
         for seam in seam_offsets(sides, search) {
             let geo = geo_at(seam);
             let lean_mm = lean * geo.scale * 360.0 / f64::from(design.slots);
-            let all = draw_coils(design, winding, &geo, bands, false, lean_mm);
+            let all = draw_coils(design, winding, view, &geo, bands, false, lean_mm);
             let (coils, drawn) = if whole {
                 (all, Drawn::Every)
             } else {
@@ -372,6 +374,7 @@ fn first_slots_labelled(
 fn draw_coils(
     design: &Design,
     winding: &Winding,
+    view: &View,
     geo: &Geo,
     bands: &Bands,
     whole_coils: bool,
@@ -394,9 +397,14 @@ fn draw_coils(
         let frac = SIDE_SPREAD * ((f64::from(j) + 0.5) / f64::from(2 * u) - 0.5);
         (f64::from(slot - 1) + frac) * slot_deg
     };
+    // A window draws only coils whose top side lies in it.
+    let in_view = |slot: u32| {
+        view.whole || (slot + design.slots - view.first_slot) % design.slots < view.slots
+    };
     winding
         .connections
         .iter()
+        .filter(|conn| in_view(conn.top.slot))
         .filter_map(|conn| {
             let shift = per_element * element_index(conn.coil);
             let top_deg = side_deg(conn.top.slot, conn.top.position + shift, false);
@@ -441,7 +449,7 @@ fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutte
     };
     let mut view = resolve_view(design, winding, options.window, fit);
     let (mut seam, mut coils, mut drawn) =
-        seam_and_coils(design, winding, &bands, view.whole, &|f| geo_at(&view, f));
+        seam_and_coils(design, winding, &bands, &view, &|f| geo_at(&view, f));
     let labelled = place_edge_labels(&mut coils, EDGE_LABEL_GAP, room, view.whole);
     let crowded = !labelled || least_dot_gap(&coils) < nodes::CUT_DOT_FLOOR;
     if crowded && view.whole && options.floor {
@@ -456,7 +464,7 @@ fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutte
             ..view
         };
         (seam, coils, drawn) =
-            seam_and_coils(design, winding, &bands, false, &|f| geo_at(&view, f));
+            seam_and_coils(design, winding, &bands, &view, &|f| geo_at(&view, f));
         place_edge_labels(&mut coils, EDGE_LABEL_GAP, room, false);
     }
     let geo = geo_at(&view, seam);
