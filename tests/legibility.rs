@@ -14,9 +14,9 @@ mod support;
 
 use armsheet::layout::font::ink_extent;
 use armsheet::layout::tree::{Circle, Group, Node, Page, Text};
-use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
-use armsheet::rating::bar_test::{TestOptions, expected};
+use armsheet::layout::{Paper, Window};
 use proptest::prelude::*;
+use support::sheets::checked_pages;
 
 /// Smallest font size anywhere, mm.
 const FLOOR: f64 = 2.5;
@@ -256,18 +256,9 @@ fn sheet_breaches(name: &str, toml: &str) -> Vec<String> {
     let checked = armsheet::check(support::design(toml));
     let mut out = Vec::new();
     for paper in PAPERS {
-        let options = SheetOptions {
-            paper,
-            window: Window::Auto,
-            version: "0.0.0".into(),
-        };
-        for (i, page) in sheet_pages(
-            &checked,
-            &expected(&checked.design, &checked.winding, &TestOptions::default()),
-            &options,
-        )
-        .iter()
-        .enumerate()
+        for (i, page) in checked_pages(&checked, paper, Window::Auto)
+            .iter()
+            .enumerate()
         {
             for b in breaches(page) {
                 out.push(format!("{name} {} sheet {}: {b}", paper.as_str(), i + 1));
@@ -294,17 +285,7 @@ fn every_demo_sheet_meets_the_floor_on_every_paper() {
 #[test]
 fn the_floor_check_finds_small_overlapping_and_outside_text() {
     let checked = armsheet::check(support::design(&support::demo("hoist-lap")));
-    let options = SheetOptions {
-        paper: Paper::A4,
-        window: Window::Auto,
-        version: "0.0.0".into(),
-    };
-    let mut page = sheet_pages(
-        &checked,
-        &expected(&checked.design, &checked.winding, &TestOptions::default()),
-        &options,
-    )
-    .remove(0);
+    let mut page = checked_pages(&checked, Paper::A4, Window::Auto).remove(0);
     assert!(breaches(&page).is_empty(), "{}", report(&breaches(&page)));
     page.children
         .push(Text::new(100.0, 100.0, 2.0, "", "small").into());

@@ -1,10 +1,12 @@
 //! The page tree of every demo design (every sheet on every paper, and the screen page):
 //! every text has a measured width and lies inside its page.
 
+mod support;
+
 use armsheet::design::parse_design;
 use armsheet::layout::tree::Page;
-use armsheet::layout::{Paper, SheetOptions, Window, draw_page, sheet_pages};
-use armsheet::rating::bar_test::{TestOptions, expected};
+use armsheet::layout::{Paper, Window, draw_page};
+use support::sheets::checked_pages;
 
 /// The designs in `designs/` and the sheet fixtures, in name order.
 fn designs() -> Vec<(String, String)> {
@@ -64,18 +66,9 @@ fn every_text_is_measured_and_on_its_page() {
         };
         let checked = armsheet::check(design);
         for paper in Paper::ALL {
-            let options = SheetOptions {
-                paper,
-                window: Window::Auto,
-                version: "test".into(),
-            };
-            for (i, page) in sheet_pages(
-                &checked,
-                &expected(&checked.design, &checked.winding, &TestOptions::default()),
-                &options,
-            )
-            .iter()
-            .enumerate()
+            for (i, page) in checked_pages(&checked, paper, Window::Auto)
+                .iter()
+                .enumerate()
             {
                 total += check_texts(page, &format!("{name} {paper} sheet {}", i + 1));
             }

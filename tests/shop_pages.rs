@@ -5,21 +5,13 @@
 mod support;
 
 use armsheet::layout::tree::{Node, Page, PageKind};
-use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
-use armsheet::rating::bar_test::{TestOptions, expected};
+use armsheet::layout::{Paper, Window};
 use armsheet::render::svg::page_svg;
+use support::sheets::checked_pages;
 
 fn pages(name: &str) -> Vec<Page> {
     let checked = armsheet::check(support::design(&support::demo(name)));
-    sheet_pages(
-        &checked,
-        &expected(&checked.design, &checked.winding, &TestOptions::default()),
-        &SheetOptions {
-            paper: Paper::A4,
-            window: Window::Auto,
-            version: "0.0.0".into(),
-        },
-    )
+    checked_pages(&checked, Paper::A4, Window::Auto)
 }
 
 fn texts(page: &Page) -> Vec<String> {

@@ -3,6 +3,7 @@
 //! (`assets/fonts/`), so the tests do not depend on the fonts of the machine.
 use std::sync::Arc;
 
+use armsheet::checks::Checked;
 use armsheet::design::{Design, parse_design};
 use armsheet::layout::{Page, Paper, SheetOptions, Window, draw_page, sheet_pages};
 use armsheet::rating::bar_test::{TestOptions, expected};
@@ -21,14 +22,19 @@ pub fn load(name: &str, text: &str) -> (Design, Winding) {
 
 /// The page trees of every sheet of `d`.
 pub fn pages_for(d: &Design, paper: Paper, window: Window) -> Vec<Page> {
+    checked_pages(&armsheet::check(d.clone()), paper, window)
+}
+
+/// The page trees of every sheet of a checked design, with the armature test at its
+/// defaults, as `armsheet sheet` lays them out.
+pub fn checked_pages(checked: &Checked, paper: Paper, window: Window) -> Vec<Page> {
     let options = SheetOptions {
         paper,
         window,
         version: "test".into(),
     };
-    let checked = armsheet::check(d.clone());
     let test = expected(&checked.design, &checked.winding, &TestOptions::default());
-    sheet_pages(&checked, &test, &options)
+    sheet_pages(checked, &test, &options)
 }
 
 /// Every sheet of `d` as SVG.
