@@ -36,6 +36,9 @@ struct Shown {
     front_pitch: bool,
     /// The element column: only on a winding of several elements (frog-leg).
     elements: bool,
+    /// The dummy column: only when the winding has dummy coils (every other row would be
+    /// blank, and the column costs a frog-leg's table its second group a page).
+    dummies: bool,
 }
 
 impl Shown {
@@ -48,6 +51,7 @@ impl Shown {
                 .iter()
                 .any(|c| c.front_pitch.is_some_and(|y| y != w.pitches.front)),
             elements: w.is_multi_element(),
+            dummies: !w.dummy_coils.is_empty(),
         }
     }
 }
@@ -59,6 +63,7 @@ enum When {
     Elements,
     Positions,
     FrontPitch,
+    Dummies,
 }
 
 /// The connection-table columns the winding shows.
@@ -77,7 +82,7 @@ fn connection_columns(shown: Shown) -> Vec<Column> {
         (["front", "pitch"], 10.0, When::FrontPitch),
         (["seq", ""], 15.0, When::Always),
         (["path", ""], 11.0, When::Always),
-        (["dummy", ""], 15.0, When::Always),
+        (["dummy", ""], 15.0, When::Dummies),
     ];
     COLUMNS
         .iter()
@@ -86,6 +91,7 @@ fn connection_columns(shown: Shown) -> Vec<Column> {
             When::Elements => shown.elements,
             When::Positions => shown.positions,
             When::FrontPitch => shown.front_pitch,
+            When::Dummies => shown.dummies,
         })
         .map(|&(head, width, _)| Column { head, width })
         .collect()
@@ -235,11 +241,13 @@ pub(super) fn connection_page(
             } else {
                 path.to_string()
             });
-            cells.push(if conn.dummy {
-                "DEAD".into()
-            } else {
-                String::new()
-            });
+            if shown.dummies {
+                cells.push(if conn.dummy {
+                    "DEAD".into()
+                } else {
+                    String::new()
+                });
+            }
             let mut row = Group::class("row").with_data("data-coil", conn.coil);
             if let (Some(s), Some(e)) = (conn.start_segment, conn.end_segment) {
                 row = row
