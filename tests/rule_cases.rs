@@ -368,6 +368,16 @@ fn frog_leg_rules() {
         Fail,
         &frog_leg(4, 58, 14, "wave_turns = 2\n"),
     );
+    // One neutral (derived): with C/p = 29 odd and equal spans the wave coils' bar midpoints
+    // fall half a bar from the lap coils'; a wave span one slot longer (u = 1) moves the wave
+    // element half a bar onto the lap's neutral.
+    case("frogleg.one-neutral", Fail, &toml);
+    case(
+        "frogleg.one-neutral",
+        Pass,
+        &frog_leg(4, 58, 14, "wave_span = 15\n"),
+    );
+    case("frogleg.one-neutral", Absent, &lap(4, 36, 1, 9, 1, ""));
     let c = checked(&toml);
     let run = |w: &armsheet::winding::Winding, id: &str| {
         run_checks(&c.design, w)

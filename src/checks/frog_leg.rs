@@ -34,6 +34,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         FROG_LEG,
     ));
     out.push(self_equalizing(w, lap, wave, c, p));
+    out.push(one_neutral(d, w, lap, wave));
     out.push(element_paths(d, lap, wave));
     let r = wave.reentrancy;
     out.push(Finding::new(
@@ -71,6 +72,52 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         ),
         FROG_LEG,
     ));
+}
+
+/// Where element `e` is commutated, read off the traced winding: the first active coil's bar
+/// midpoint (its start bar plus half the element's y_c) less the coil's centre line (its top
+/// slot's centre plus half its span), in bars, modulo two pole pitches C/p, where the field
+/// and the brushes repeat [derived: a coil is commutated with the brush at the midpoint of its
+/// bars; DOMAIN.md "Frog-leg windings"].
+fn commutated_at(d: &Design, w: &Winding, e: &WindingElement) -> Option<f64> {
+    let c = f64::from(w.active_coils);
+    let s = f64::from(d.slots);
+    let k = rows(w, e).iter().find(|k| !k.dummy)?;
+    let start = f64::from(k.start_segment?);
+    let span = f64::from((k.bottom.slot + d.slots - k.top.slot) % d.slots);
+    let centre_deg = (f64::from(k.top.slot - 1) + span / 2.0) * 360.0 / s;
+    let centre_bars = (centre_deg - w.segment1_deg) * c / 360.0;
+    let mid_bars = start - 1.0 + e.pitches.commutator as f64 / 2.0;
+    Some((mid_bars - centre_bars).rem_euclid(c / f64::from(d.pole_pairs())))
+}
+
+/// Both elements are commutated on one neutral: the same brushes short the lap coils and the
+/// wave coils with their sides in the same place (within a quarter bar).
+fn one_neutral(d: &Design, w: &Winding, lap: &WindingElement, wave: &WindingElement) -> Finding {
+    let pair = f64::from(w.active_coils) / f64::from(d.pole_pairs());
+    let (a, b) = (commutated_at(d, w, lap), commutated_at(d, w, wave));
+    let apart = match (a, b) {
+        (Some(a), Some(b)) => {
+            let x = (b - a).rem_euclid(pair);
+            x.min(pair - x)
+        }
+        _ => 0.0,
+    };
+    let ok = apart < 0.25;
+    Finding::new(
+        "frogleg.one-neutral",
+        Severity::Warning,
+        ok,
+        if ok {
+            "the lap and the wave coils are commutated on one neutral: each element's first coil has its bar midpoint at the same place from its centre line".to_string()
+        } else {
+            format!(
+                "the wave coils are commutated {} bar(s) off the lap coils' neutral: brushes on the lap neutral short the wave coils off it; a wave_span one slot longer or shorter moves the wave element by u/2 bars",
+                crate::base::number::fmt_fixed(apart, 1)
+            )
+        },
+        FROG_LEG_DERIVED,
+    )
 }
 
 /// The element's coil rows of `w`.
