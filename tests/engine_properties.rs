@@ -68,10 +68,7 @@ fn case() -> impl Strategy<Value = Case> {
         .prop_flat_map(|(pp, u, wave, m, retro, span_delta, lo, ccw, generator)| {
             let pp = if wave { pp.max(2) } else { pp };
             let poles = 2 * pp;
-            // Enough segments per pole for the brushes of neighbouring poles not to touch.
-            // Wave windings may lose up to p − 1 coils as dummies.
-            let min_coils = (m + 1) * poles + if wave { pp } else { 0 };
-            let min_slots = min_coils.div_ceil(u).max(poles + 1);
+            let min_slots = support::least_slots(m + 1, pp, u, wave);
             (min_slots..=min_slots + 160).prop_map(move |slots| Case {
                 poles,
                 slots,

@@ -119,3 +119,13 @@ pub fn properties(cases: u32) -> proptest::test_runner::Config {
         ..base
     }
 }
+
+/// The fewest slots of a random feasible design for the property tests: `per_pole` segments
+/// a pole at least (m + 1, or m + 2 for more room), so that the brushes of neighbouring poles
+/// do not touch, plus p for a wave winding, which may lose up to p − 1 coils as dummies; and
+/// more slots than poles.
+pub fn least_slots(per_pole: u32, pole_pairs: u32, u: u32, wave: bool) -> u32 {
+    let poles = 2 * pole_pairs;
+    let coils = per_pole * poles + if wave { pole_pairs } else { 0 };
+    coils.div_ceil(u).max(poles + 1)
+}
