@@ -6,7 +6,7 @@
 
 use armsheet::check;
 use armsheet::design::parse_design;
-use armsheet::rating::bar_test::{Network, TestOptions, armature_test, expected};
+use armsheet::features::armature_test::{Network, TestOptions, armature_test, expected};
 use armsheet::winding::EqualizerPlan;
 
 fn main() {

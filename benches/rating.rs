@@ -9,7 +9,8 @@
 //! Run: `cargo bench --bench rating`.
 
 use armsheet::design::{Design, parse_design};
-use armsheet::rating::{RewindRequest, rate, rewind};
+use armsheet::features::rewind::{RewindRequest, rewind};
+use armsheet::rating::rate;
 use armsheet::render::json::report_json;
 use armsheet::render::text::{TextOptions, render_text};
 use armsheet::winding::trace_winding;

@@ -6,8 +6,8 @@
 //! the PDF at most doubling the time of the SVG sheets (`sheet --pdf` within 3× of `sheet`).
 
 use armsheet::design::parse_design;
+use armsheet::features::armature_test::{TestOptions, expected};
 use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
-use armsheet::rating::bar_test::{TestOptions, expected};
 use armsheet::render::csv::connections_csv;
 use armsheet::render::json::report_json;
 use armsheet::render::pdf::sheets_pdf;

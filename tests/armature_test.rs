@@ -5,7 +5,7 @@
 mod support;
 
 use armsheet::check;
-use armsheet::rating::bar_test::{
+use armsheet::features::armature_test::{
     ArmatureTest, Network, TestOptions, armature_test, neighbour_pairs,
 };
 use armsheet::winding::{EqualizerPlan, Winding};

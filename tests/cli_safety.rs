@@ -21,8 +21,8 @@ use std::time::{Duration, Instant};
 use armsheet::cli::error::NoOverwrite;
 use armsheet::cli::output::{replace_folder, write_atomic, write_new};
 use armsheet::design::parse_design;
-use armsheet::rating::design_toml::write_design;
-use armsheet::rating::rewind::{
+use armsheet::features::rewind::design_toml::write_design;
+use armsheet::features::rewind::{
     MAX_CURRENT_A, MAX_FLUX_MWB, MAX_SPEED_RPM, MAX_VOLTAGE, RewindRequest, no_load_test,
     rewind_rated,
 };

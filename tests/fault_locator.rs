@@ -5,8 +5,8 @@
 mod support;
 
 use armsheet::check;
-use armsheet::rating::bar_test::{
-    ArmatureTest, FaultKind, NetCoil, Network, TestOptions, armature_test, locate::crossed_leads,
+use armsheet::features::armature_test::{
+    ArmatureTest, FaultKind, NetCoil, Network, TestOptions, armature_test, locator::crossed_leads,
 };
 use armsheet::winding::EqualizerPlan;
 use proptest::prelude::*;
@@ -109,7 +109,7 @@ fn off_readings(t: &ArmatureTest) -> Vec<(u32, f64)> {
     l.measured
         .iter()
         .filter_map(|(r, m)| match m {
-            armsheet::rating::bar_test::ReadingValue::Value(v) => {
+            armsheet::features::armature_test::ReadingValue::Value(v) => {
                 let e = r.expected.unwrap() * l.healthy_scale;
                 ((v - e).abs() > l.tolerance * e).then_some((r.from_bar, v / e))
             }
@@ -255,7 +255,7 @@ fn names(
     kind: FaultKind,
     inject: Inject,
     t: &ArmatureTest,
-    f: &armsheet::rating::bar_test::Fault,
+    f: &armsheet::features::armature_test::Fault,
 ) -> bool {
     let net = &t.network;
     let n = net.coils.len();

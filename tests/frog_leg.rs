@@ -9,7 +9,7 @@
 mod support;
 
 use armsheet::checks::{Checked, check};
-use armsheet::rating::bar_test::Network;
+use armsheet::features::armature_test::Network;
 use armsheet::theory::WindingType;
 use armsheet::winding::Winding;
 use proptest::prelude::*;
@@ -408,7 +408,7 @@ fn rewind_keeps_both_elements() {
 fn identify_finds_the_frog_leg_from_its_card() {
     let text = support::fixture("frog-leg-card.toml");
     let card = armsheet::design::parse_card(&text, "card.toml").unwrap();
-    let found = armsheet::checks::identify::identify(&card);
+    let found = armsheet::features::identify::identify(&card);
     assert_eq!(found.candidates.len(), 1, "{:?}", found.conflicts);
     let got = &found.candidates[0].checked;
     assert_eq!(got.design.winding_type, WindingType::FrogLeg);
@@ -416,7 +416,7 @@ fn identify_finds_the_frog_leg_from_its_card() {
     assert_eq!(got.winding.connections, demo.winding.connections);
     let off = text.replace("wave_throw = \"28-77\"", "wave_throw = \"29-78\"");
     let card = armsheet::design::parse_card(&off, "card.toml").unwrap();
-    let found = armsheet::checks::identify::identify(&card);
+    let found = armsheet::features::identify::identify(&card);
     assert!(found.candidates.is_empty());
     assert!(
         found
@@ -432,7 +432,7 @@ fn identify_finds_the_frog_leg_from_its_card() {
         .replace("wave_throw = \"28-77\"\n", "")
         .replace("wave_coil_span = \"1-14\"\n", "");
     let card = armsheet::design::parse_card(&two, "card.toml").unwrap();
-    let found = armsheet::checks::identify::identify(&card);
+    let found = armsheet::features::identify::identify(&card);
     assert!(
         found
             .candidates

@@ -6,8 +6,8 @@
 
 mod support;
 
-use armsheet::checks::identify::identify;
 use armsheet::design::{parse_card, parse_design};
+use armsheet::features::identify::identify;
 use armsheet::{Checked, check};
 use proptest::prelude::*;
 
@@ -194,7 +194,7 @@ proptest! {
                 found.candidates.iter().map(|k| k.explanation.clone()).collect::<Vec<_>>());
         }
         // The design written for it reads back to the same winding.
-        let file = armsheet::rating::design_toml::write_design(&k.design, &["round trip".to_string()]);
+        let file = armsheet::features::rewind::design_toml::write_design(&k.design, &["round trip".to_string()]);
         let back = check(parse_design(&file, "back.toml").unwrap_or_else(|e| panic!("{file}\n{e}")));
         prop_assert_eq!(&back.winding.connections, &w.connections);
         prop_assert_eq!(centres(&back), centres(&original));

@@ -2,8 +2,9 @@
 //! a rewind report with the new design file it writes. Review a changed .snap before accepting.
 
 use armsheet::design::{WindingType, parse_design};
+use armsheet::features::rewind::{RewindRequest, rewind};
 use armsheet::layout::sheet::rows::rating_sheet_rows;
-use armsheet::rating::{RewindRequest, rate, rewind};
+use armsheet::rating::rate;
 use armsheet::render::rating_text::render_rating;
 use armsheet::render::rewind_text::render_rewind;
 use armsheet::winding::trace_winding;

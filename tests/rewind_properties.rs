@@ -5,7 +5,7 @@
 mod support;
 
 use armsheet::design::{Design, parse_design};
-use armsheet::rating::{RewindRequest, rewind};
+use armsheet::features::rewind::{RewindRequest, rewind};
 use armsheet::winding::trace_winding;
 use proptest::prelude::*;
 

@@ -7,9 +7,9 @@ mod support;
 
 use armsheet::base::number::fmt_sig;
 use armsheet::checks::Checked;
+use armsheet::features::armature_test::{ArmatureTest, TestOptions, expected};
 use armsheet::layout::tree::{Group, Node, Page, PageKind};
 use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
-use armsheet::rating::bar_test::{ArmatureTest, TestOptions, expected};
 
 fn set(toml: &str, paper: Paper) -> (Checked, ArmatureTest, Vec<Page>) {
     let checked = armsheet::check(support::design(toml));

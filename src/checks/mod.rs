@@ -10,7 +10,6 @@
 //! through [`check`], keeping those whose trace reproduces the observations.
 
 mod frog_leg;
-pub mod identify;
 mod lap;
 mod shop;
 mod sources;
@@ -20,6 +19,8 @@ mod trace;
 mod wave;
 
 pub use crate::base::{Finding, Severity, has_errors};
+pub use shop::bar_rule;
+pub use sources::BAR_RULE;
 pub use symmetry::{Congruence, PathClasses, path_classes};
 
 use crate::design::{Design, WindingType};

@@ -13,9 +13,11 @@ use super::output::{EntryKind, WrongKind};
 use crate::base::number::fmt_fixed;
 use crate::base::visible::visible;
 use crate::design::Diagnostics;
-use crate::rating::RewindError;
-use crate::rating::design_toml;
-use crate::rating::rewind::{FluxSource, MAX_CURRENT_A, MAX_FLUX_MWB, MAX_SPEED_RPM, MAX_VOLTAGE};
+use crate::features::rewind::RewindError;
+use crate::features::rewind::design_toml;
+use crate::features::rewind::{
+    FluxSource, MAX_CURRENT_A, MAX_FLUX_MWB, MAX_SPEED_RPM, MAX_VOLTAGE,
+};
 
 /// The exit code of bad input, or of output that could not be written.
 pub const EXIT_BAD_INPUT: u8 = 2;
@@ -116,7 +118,7 @@ pub enum CliError {
         /// The file.
         path: PathBuf,
         /// What and where.
-        error: crate::rating::bar_test::ReadingsError,
+        error: crate::features::armature_test::ReadingsError,
     },
     /// The PDF cannot be made from the sheets.
     Pdf {

@@ -2,7 +2,7 @@
 //! one that does (or the one picked) as a design file.
 //!
 //! Part of the `cli` stage: reads the card, calls the pure
-//! [`crate::checks::identify::identify`], words the result with [`crate::render::identify`],
+//! [`crate::features::identify::identify`], words the result with [`crate::render::identify`],
 //! parses the design file back with armsheet's own parser before writing it, and writes it
 //! with [`super::output::write_new`] (or [`super::output::write_atomic`] with `--force`).
 
@@ -13,9 +13,9 @@ use clap::Args;
 use super::Outcome;
 use super::error::{CliError, NoOverwrite, shown};
 use super::output::{print_stdout, write_atomic, write_new, write_stdout};
-use crate::checks::identify::identify as find;
 use crate::design::{parse_card_bytes, parse_design};
-use crate::rating::design_toml::write_design;
+use crate::features::identify::identify as find;
+use crate::features::rewind::design_toml::write_design;
 use crate::render::identify::{design_header, render_identify, write_identify_json};
 
 /// Help for `identify`.

@@ -12,13 +12,13 @@
 //! is written before its `wrote …` line. Any other failed write to standard output (a full
 //! disk, `/dev/full`) is `error: cannot write to standard output: …` with exit 2.
 
+pub mod armature_test;
 pub mod error;
 pub mod identify;
 mod load;
 pub mod output;
 pub mod rewind;
 pub mod sheet;
-pub mod test;
 
 use std::io::{IsTerminal, Write};
 use std::path::PathBuf;
@@ -79,8 +79,8 @@ pub enum Command {
     #[command(after_help = identify::IDENTIFY_HELP)]
     Identify(identify::IdentifyArgs),
     /// Expected bar-to-bar and drop-test readings from the winding solved as a network.
-    #[command(after_help = test::TEST_HELP)]
-    Test(test::TestArgs),
+    #[command(after_help = armature_test::TEST_HELP)]
+    Test(armature_test::TestArgs),
 }
 
 const CHECK_HELP: &str = "\
@@ -179,7 +179,7 @@ pub fn run(cli: Cli) -> Result<Outcome, CliError> {
         Command::Sheet(a) => sheet::sheet(&a),
         Command::Draw(a) => sheet::draw(&a),
         Command::Identify(a) => identify::identify(&a),
-        Command::Test(a) => test::test(&a),
+        Command::Test(a) => armature_test::test(&a),
     }
 }
 

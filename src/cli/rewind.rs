@@ -1,8 +1,8 @@
 //! `armsheet rewind`: works out a new winding for a new voltage, speed or connection, and
 //! writes it as a new design file; or back-solves the flux from a no-load test.
 //!
-//! Part of the `cli` stage: reads the design, calls the pure [`crate::rating::rewind()`] (or
-//! [`crate::rating::rewind::no_load_test`]), parses every new file back with armsheet's own
+//! Part of the `cli` stage: reads the design, calls the pure [`crate::features::rewind::rewind()`] (or
+//! [`crate::features::rewind::no_load_test`]), parses every new file back with armsheet's own
 //! parser and checks it before writing (a file `armsheet check` would refuse is never
 //! written), and writes it with [`super::output::write_new`] (or
 //! [`super::output::write_atomic`] with `--force`: only a regular file, or a symbolic link to
@@ -20,7 +20,7 @@ use super::load::load_design;
 use super::output::{print_stdout, write_atomic, write_new};
 use crate::checks::Checked;
 use crate::design::{WindingType, parse_design};
-use crate::rating::{self, RewindRequest, design_toml, rewind::no_load_test};
+use crate::features::rewind::{self, RewindRequest, design_toml, no_load_test};
 use crate::render::rewind_text::{no_load_header, render_no_load, render_rewind};
 
 /// Help shown after `armsheet rewind --help`.
@@ -119,7 +119,7 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
         from_test,
         measured_r20: a.ra,
     };
-    let plan = rating::rewind_rated(d, w, checked.rating.as_ref(), &req).map_err(refuse)?;
+    let plan = rewind::rewind_rated(d, w, checked.rating.as_ref(), &req).map_err(refuse)?;
     let out = a
         .output
         .clone()

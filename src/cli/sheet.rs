@@ -17,8 +17,8 @@ use super::Outcome;
 use super::error::{CliError, shown};
 use super::load::load_design;
 use super::output::{print_stdout, replace_folder, write_atomic};
+use crate::features::armature_test::{TestOptions, expected};
 use crate::layout::{Paper, SheetOptions, Window, draw_page, sheet_pages};
-use crate::rating::bar_test::{TestOptions, expected};
 use crate::render::json::report_json;
 use crate::render::{csv, pdf, svg};
 

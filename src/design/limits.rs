@@ -4,7 +4,7 @@
 //! unit, what it measures, whether it is an upper or a lower bound, the severity of a failure,
 //! the finding id and the rule's source. The `[limits]` reader (`tables/limits.rs`), the
 //! resolved [`Limits`] values, the rating checks (`rating::limits`) and the rewritten design
-//! file (`rating::design_toml`) all read this table; nothing else lists the limits.
+//! file (`features::rewind::design_toml`) all read this table; nothing else lists the limits.
 //!
 //! A shop may move a limit to anywhere from 1/[`LIMIT_RANGE_FACTOR`] to
 //! [`LIMIT_RANGE_FACTOR`] times its default ([`LimitSpec::accepted`]); the reader refuses any

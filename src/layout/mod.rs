@@ -29,10 +29,10 @@
 pub mod developed;
 pub mod font;
 pub mod paper;
+pub mod readings_plot;
 pub mod screen;
 pub mod sheet;
 pub mod style;
-pub mod test_plot;
 pub mod tree;
 
 pub use developed::{Diagram, DiagramOptions, Window, layout_developed};

@@ -10,10 +10,8 @@
 
 pub mod advice;
 mod advice_words;
-pub mod bar_test;
 pub mod commutator;
 pub mod conductor;
-pub mod design_toml;
 pub mod emf;
 pub mod findings;
 pub mod insulation;
@@ -21,7 +19,6 @@ pub mod limits;
 pub mod losses;
 pub mod note;
 pub mod resistance;
-pub mod rewind;
 pub mod scheme;
 pub mod test_voltage;
 
@@ -35,7 +32,6 @@ pub use limits::{Bound, RatingCheck, Rule, rules};
 pub use losses::Losses;
 pub use note::RatingNote;
 pub use resistance::Resistance;
-pub use rewind::{FluxSource, RewindError, RewindPlan, RewindRequest, rewind, rewind_rated};
 pub use test_voltage::TestVoltage;
 
 use std::f64::consts::PI;

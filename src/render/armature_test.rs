@@ -10,7 +10,7 @@ use serde::Serialize;
 
 use crate::base::caution::TEST_CAUTIONS;
 use crate::base::number::{fmt_fixed, fmt_sig, round_sig};
-use crate::rating::bar_test::{
+use crate::features::armature_test::{
     ArmatureTest, DropFeed, ElementsPattern, Fault, Location, Pattern, Reading, ReadingValue, Unit,
 };
 use crate::theory::words::{READING_DIGITS, multiplicity_word, reading_unit_words};

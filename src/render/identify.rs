@@ -1,7 +1,7 @@
 //! The words and JSON of `armsheet identify`: the candidates a data card leads to, what tells
 //! them apart, or why none fits; and the header of the design file it writes.
 //!
-//! Part of the `render` stage: it words what [`crate::checks::identify::identify`] found and
+//! Part of the `render` stage: it words what [`crate::features::identify::identify`] found and
 //! never traces or checks anything itself. Every text from the card is shown through
 //! `base::visible`.
 
@@ -11,8 +11,8 @@ use std::io::{self, Write};
 use serde::Serialize;
 
 use crate::base::visible::visible;
-use crate::checks::identify::{Candidate, Identified};
 use crate::design::{Card, ConductorShape, HalfBars, Rotation};
+use crate::features::identify::{Candidate, Identified};
 use crate::theory::words::{half_bars_words, multiplicity_word, span_shop};
 
 /// The observations of `card`, one per line, as the design file's header lists them.

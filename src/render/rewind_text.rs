@@ -8,9 +8,9 @@ use std::fmt::Write;
 use crate::base::caution::CAUTIONS;
 use crate::base::number::fmt_fixed;
 use crate::base::visible::visible;
+use crate::features::rewind::{NoLoadTest, RewindPlan, signed};
+use crate::rating::RatingReport;
 use crate::rating::conductor::{self, WireFamily};
-use crate::rating::rewind::{NoLoadTest, signed};
-use crate::rating::{RatingReport, RewindPlan};
 
 fn section(s: &mut String, title: &str) {
     let _ = writeln!(s, "\n{title}\n{}", "-".repeat(title.len()));

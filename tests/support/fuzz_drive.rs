@@ -12,9 +12,9 @@
 use armsheet::check;
 use armsheet::checks::Checked;
 use armsheet::design::{WindingType, parse_design};
+use armsheet::features::armature_test::{ArmatureTest, TestOptions, armature_test, expected};
+use armsheet::features::rewind::{RewindRequest, rewind_rated};
 use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
-use armsheet::rating::bar_test::{ArmatureTest, TestOptions, armature_test, expected};
-use armsheet::rating::{RewindRequest, rewind_rated};
 use armsheet::render::armature_test::{readings_csv, render_test_text, test_json_string};
 use armsheet::render::csv::{connections_csv, job_csv};
 use armsheet::render::json::report_json;

@@ -5,8 +5,8 @@ use std::sync::Arc;
 
 use armsheet::checks::Checked;
 use armsheet::design::{Design, parse_design};
+use armsheet::features::armature_test::{TestOptions, expected};
 use armsheet::layout::{Page, Paper, SheetOptions, Window, draw_page, sheet_pages};
-use armsheet::rating::bar_test::{TestOptions, expected};
 use armsheet::render::svg::page_svg;
 use armsheet::winding::{Winding, trace_winding};
 

@@ -7,7 +7,7 @@
 //! Part of the `layout` stage: [`Checked`] and the armature test in, one [`Page`] a sheet out.
 //! [`frame`] holds the page geometry and pagination; [`title`] the title block and the failure
 //! band; [`data`] the winding-data block; [`legend`] the legend; [`caution`] the caution box;
-//! [`table`] the tables; [`ring`] the end view; [`order`] the winding order; [`test_page`] the
+//! [`table`] the tables; [`ring`] the end view; [`order`] the winding order; [`test_sheet`] the
 //! test and sign-off sheets. Pages are landscape and sized in millimetres. The date printed is the design's
 //! `[job] date`; the clock is never read.
 
@@ -19,15 +19,15 @@ pub mod order;
 pub mod ring;
 pub mod rows;
 pub mod table;
-pub mod test_page;
+pub mod test_sheet;
 pub mod title;
 
 pub use frame::*;
 
 use crate::checks::Checked;
 use crate::design::Design;
+use crate::features::armature_test::ArmatureTest;
 use crate::rating::RatingReport;
-use crate::rating::bar_test::ArmatureTest;
 use crate::winding::{EqualizerPlan, Winding};
 
 use super::developed::{DiagramOptions, Window, layout_developed, nodes::diagram_group};
@@ -75,7 +75,7 @@ enum Content {
 }
 
 /// Lays out every sheet of `checked`, in order; `result[0]` is sheet 1. `test` is the
-/// design's expected armature test (`rating::bar_test::expected` with the default options),
+/// design's expected armature test (`features::armature_test::expected` with the default options),
 /// which the test sheets print.
 pub fn sheet_pages(checked: &Checked, test: &ArmatureTest, options: &SheetOptions) -> Vec<Page> {
     let input = Input {
@@ -130,10 +130,10 @@ pub fn sheet_pages(checked: &Checked, test: &ArmatureTest, options: &SheetOption
             contents.push(Content::Equalizers(p));
         }
     }
-    let (tests_first, tests_rest) = test_page::readings_areas(&frame);
+    let (tests_first, tests_rest) = test_sheet::readings_areas(&frame);
     for (k, p) in paginate_rows(
-        test_page::reading_count(&input),
-        test_page::readings_width(),
+        test_sheet::reading_count(&input),
+        test_sheet::readings_width(),
         &tests_first,
         &tests_rest,
         TABLE_ROW,
@@ -183,7 +183,7 @@ pub fn sheet_pages(checked: &Checked, test: &ArmatureTest, options: &SheetOption
                     (PageKind::Equalizers, "equalizer table")
                 }
                 Content::Tests(p, first) => {
-                    test_page::tests_page(&mut page.children, &input, &frame, p, *first);
+                    test_sheet::tests_page(&mut page.children, &input, &frame, p, *first);
                     (PageKind::Tests, "tests and sign-off")
                 }
             };

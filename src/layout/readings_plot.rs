@@ -12,7 +12,7 @@ use std::f64::consts::PI;
 use super::font::{Weight, wrap_text};
 use super::tree::{Circle, Group, Page, PageKind, PageUnit, Path, Rect, Text};
 use crate::base::caution::TEST_CAUTIONS;
-use crate::rating::bar_test::{ArmatureTest, ReadingValue};
+use crate::features::armature_test::{ArmatureTest, ReadingValue};
 
 const W: f64 = 297.0;
 const H: f64 = 210.0;
@@ -28,7 +28,7 @@ fn at(angle: f64, r: f64) -> (f64, f64) {
 }
 
 /// The plot page of `t`, titled `title`.
-pub fn test_plot_page(t: &ArmatureTest, title: &str) -> Page {
+pub fn readings_plot_page(t: &ArmatureTest, title: &str) -> Page {
     let rows = t.judged();
     let c = f64::from(t.bars);
     let angle = |from: u32| 2.0 * PI * (f64::from(from) - 0.5) / c;

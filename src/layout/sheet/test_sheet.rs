@@ -3,15 +3,15 @@
 //! space for the surge and run test notes, and the signature, date and revision block.
 //!
 //! Part of the `layout` stage (the sheets). It only reads what was computed before it: the
-//! armature test (`rating::bar_test::expected`, computed once by the CLI) and the rating's
+//! armature test (`features::armature_test::expected`, computed once by the CLI) and the rating's
 //! insulation and withstand values; it never solves or rates anything. The date boxes are
 //! left empty for the shop: the clock is never read.
 
 use crate::base::number::{fmt_fixed, fmt_sig};
+use crate::features::armature_test::Reading;
 use crate::layout::font::{Weight, cut_to_width, wrap_text};
 use crate::layout::style::{BODY_TEXT, TEXT_FLOOR};
 use crate::layout::tree::{self, Group, Node, Text};
-use crate::rating::bar_test::Reading;
 use crate::rating::insulation::{HALVING_STEP_C, PI_WAIVED_ABOVE_MOHM, REFERENCE_C};
 use crate::rating::test_voltage::TEST_VOLTAGE_CAUTION;
 use crate::theory::words::reading_unit_words;

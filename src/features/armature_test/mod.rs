@@ -3,20 +3,20 @@
 //!
 //! Part of the `rating` stage: a resolved [`Design`] and its traced [`Winding`] in, an inert
 //! [`ArmatureTest`] out; [`armature_test`] is the one entry point and the renderers only read
-//! its result. The network is in [`network`], the locator in [`locate`], the reader of the
+//! its result. The network is in [`network`], the fault locator in [`locator`], the reader of the
 //! shop's readings file in [`readings`].
 
-pub mod locate;
+pub mod locator;
 pub mod network;
 pub mod readings;
 
-pub use locate::{Fault, FaultKind, Location};
+pub use locator::{Fault, FaultKind, Location};
 pub use network::{NetCoil, Network};
 pub use readings::{MeasuredReadings, ReadingValue, ReadingsError, parse_readings};
 
-use super::conductor::{conductor_area_mm2, mean_turn};
-use super::resistance::{copper_resistance_20, correct_temperature};
 use crate::design::Design;
+use crate::rating::conductor::{conductor_area_mm2, mean_turn};
+use crate::rating::resistance::{copper_resistance_20, correct_temperature};
 use crate::theory::WindingType;
 use crate::winding::Winding;
 
@@ -41,7 +41,7 @@ impl Default for TestOptions {
         TestOptions {
             current_a: DEFAULT_CURRENT_A,
             temperature_c: DEFAULT_TEMPERATURE_C,
-            tolerance: locate::DEFAULT_TOLERANCE,
+            tolerance: locator::DEFAULT_TOLERANCE,
         }
     }
 }
@@ -229,13 +229,13 @@ pub fn armature_test(
 ) -> Result<ArmatureTest, ReadingsError> {
     let mut t = expected(design, winding, options);
     if let Some(text) = readings {
-        if t.network.nodes() > locate::MAX_NODES {
+        if t.network.nodes() > locator::MAX_NODES {
             return Err(ReadingsError {
                 line: 1,
                 column: 1,
                 message: format!(
                     "the locator works on armatures of up to {} bars (equalizer-tied bars counted once); this one has {}",
-                    locate::MAX_NODES,
+                    locator::MAX_NODES,
                     t.network.nodes()
                 ),
             });
@@ -252,7 +252,7 @@ pub fn armature_test(
             .iter()
             .map(|c| (c.top.slot, c.bottom.slot))
             .collect();
-        t.location = Some(locate::locate(&t, &measured, &slots, options.tolerance));
+        t.location = Some(locator::locate(&t, &measured, &slots, options.tolerance));
     }
     Ok(t)
 }

@@ -1,6 +1,6 @@
 //! The rewind: a new winding on the same core for a new voltage, speed or connection.
 //!
-//! Part of the `rating` stage: pure. The flux per pole and the slot space are kept. The new
+//! A feature above `checks`: pure. The flux per pole and the slot space are kept. The new
 //! conductors per path follow from the ratio of the EMFs; the turns per coil from the new
 //! connection's paths and segments, rounded to whole turns; the conductor from the same current
 //! density (so the same copper in the slot and the same power). A request that cannot be met is
@@ -9,11 +9,13 @@
 //! range-checked against what a design file holds, so a rewind never asks for a file armsheet
 //! would refuse; the CLI still parses the file back before writing it.
 
-use super::conductor::{self, WireFamily, WireOption};
-use super::scheme::{ConnectError, Scheme, connect};
-use super::{RatingReport, design_toml, emf, rate_with};
+use crate::rating::conductor::{self, WireFamily, WireOption};
+pub mod design_toml;
+
 use crate::base::number::fmt_fixed;
 use crate::design::{ConductorShape, Design, EqualizerChoice, Mode, Rating, WindingType, bounds};
+use crate::rating::scheme::{ConnectError, Scheme, connect};
+use crate::rating::{RatingReport, emf, rate_with};
 use crate::winding::Winding;
 
 /// What the rewinder asks for.
@@ -361,7 +363,7 @@ pub fn rewind_rated(
 
     // The old machine's EMF and speed at that flux.
     let old_emf_v = match old_emf {
-        Some(e) if e.basis == super::EmfBasis::Terminal => e.emf_v,
+        Some(e) if e.basis == crate::rating::EmfBasis::Terminal => e.emf_v,
         _ => d
             .speed_rpm
             .map_or(0.0, |n| emf::emf_v(d.poles, z0, a0, flux_wb, n)),
@@ -534,7 +536,7 @@ pub fn rewind_rated(
         notes.push(format!(
             "the new average segment voltage {} V is above the {} V limit: run `armsheet check` on the new file for the options",
             fmt_fixed(seg_avg, 2),
-            super::limits::fmt_limit(d.limits.get(crate::design::LimitId::SegmentVoltsAvgMax))
+            crate::rating::limits::fmt_limit(d.limits.get(crate::design::LimitId::SegmentVoltsAvgMax))
         ));
     }
 

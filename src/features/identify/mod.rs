@@ -12,9 +12,9 @@
 //! fixes the design's `lead_offset` (the engine's `LeadSwing` convention): the offset is the
 //! observed swing less the swing on neutral, then traced again to confirm.
 
-use super::shop::bar_rule;
-use super::sources::BAR_RULE;
-use super::{Checked, check};
+use crate::checks::BAR_RULE;
+use crate::checks::bar_rule;
+use crate::checks::{Checked, check};
 use crate::design::{
     Card, Commutator, Conductor, Design, Direction, EqualizerChoice, HalfBars, Limits, Mode,
     Rotation, SpanSource, WindingType, bounds,

@@ -15,11 +15,11 @@ use super::error::{CliError, shown};
 use super::load::load_design;
 use super::output::{print_stdout, replace_folder, write_stdout};
 use super::sheet::stem;
-use crate::layout::test_plot::test_plot_page;
-use crate::rating::bar_test::locate::DEFAULT_TOLERANCE;
-use crate::rating::bar_test::{
+use crate::features::armature_test::locator::DEFAULT_TOLERANCE;
+use crate::features::armature_test::{
     DEFAULT_CURRENT_A, DEFAULT_TEMPERATURE_C, TestOptions, armature_test,
 };
+use crate::layout::readings_plot::readings_plot_page;
 use crate::render::armature_test::{
     readings_csv, render_test_text, test_json_string, write_test_json,
 };
@@ -120,7 +120,7 @@ pub fn test(a: &TestArgs) -> Result<Outcome, CliError> {
                 ("readings.csv".to_string(), readings_csv(&t).into_bytes()),
                 (
                     "readings.svg".to_string(),
-                    page_svg(&test_plot_page(&t, &name)).into_bytes(),
+                    page_svg(&readings_plot_page(&t, &name)).into_bytes(),
                 ),
             ];
             replace_folder(&dir, &files, |_| false)?;
