@@ -10,7 +10,8 @@
 mod support;
 
 use armsheet::check;
-use armsheet::checks::{Checked, Congruence, path_classes};
+use armsheet::checks::Checked;
+use armsheet::winding::Congruence;
 use proptest::prelude::*;
 use support::{armsheet, design};
 
@@ -235,7 +236,7 @@ proptest! {
         let span = ((c.slots / c.poles) as i32 + c.span_delta).max(1) as u32;
         let text = toml(c.poles, c.slots, c.u, c.wave, c.m, span, "");
         let checked = check(design(&text));
-        let classes = path_classes(&checked.design, &checked.winding);
+        let classes = &checked.winding.elements[0].path_classes;
         let (mean, peak) = spread(&checked);
         let b = &checked.winding.balance;
         if classes.congruence(checked.winding.paths.len()) == Congruence::Proven {
@@ -279,7 +280,7 @@ fn a_segment_exactly_under_a_brush_centre_is_judged_alike_in_both_paths() {
     // one bar off, a tie that rounding used to settle differently under two brushes 180° apart.
     let c = check(design(&toml(6, 26, 2, true, 1, 4, "")));
     assert_eq!(c.winding.active_coils, 50);
-    let classes = path_classes(&c.design, &c.winding);
+    let classes = &c.winding.elements[0].path_classes;
     assert_eq!(
         classes.congruence(c.winding.paths.len()),
         Congruence::Proven

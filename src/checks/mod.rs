@@ -21,7 +21,6 @@ mod wave;
 pub use crate::base::{Finding, Severity, has_errors};
 pub use shop::bar_rule;
 pub use sources::BAR_RULE;
-pub use symmetry::{Congruence, PathClasses, path_classes};
 
 use crate::design::{Design, WindingType};
 use crate::rating::{RatingReport, findings_of, rate};
@@ -39,7 +38,7 @@ pub struct Checked {
     /// The rule findings in report order, rating findings last.
     pub findings: Vec<Finding>,
     /// Whether the paths are symmetric by the exact symmetry test (`symmetry.exact`): the
-    /// armature's rotations carry each path onto another (see [`path_classes`]).
+    /// armature's rotations carry each path onto another ([`Winding::exact_symmetric`]).
     pub symmetric: bool,
 }
 
@@ -55,7 +54,7 @@ pub fn check(design: Design) -> Checked {
     let winding = trace_winding(&design);
     let rating = rate(&design, &winding);
     let mut findings = run_checks(&design, &winding);
-    let symmetric = symmetry::is_symmetric(&findings);
+    let symmetric = winding.exact_symmetric();
     if let Some(r) = &rating {
         findings.extend(findings_of(r));
     }

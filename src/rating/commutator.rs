@@ -23,6 +23,12 @@ pub struct SegmentVoltage {
     pub c_min_peak: Option<u32>,
 }
 
+/// The average voltage between adjacent segments, E·P/C, V: the EMF of a path spread over the
+/// C/P segments between brushes of opposite polarity [textbook relation; docs/domain.md].
+pub fn average_segment_volts(e: f64, poles: u32, segments: u32) -> f64 {
+    e.abs() * f64::from(poles) / f64::from(segments)
+}
+
 /// Average and peak segment voltage for EMF `e`, `poles`, `segments`, and the limits.
 pub fn segment_voltage(
     e: f64,
@@ -33,7 +39,7 @@ pub fn segment_voltage(
     peak_max: f64,
 ) -> SegmentVoltage {
     let ep = e.abs() * f64::from(poles);
-    let average_v = ep / f64::from(segments);
+    let average_v = average_segment_volts(e, poles, segments);
     SegmentVoltage {
         average_v,
         peak_v: average_v / pole_arc,

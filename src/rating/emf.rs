@@ -28,7 +28,7 @@ pub fn induced_emf(mode: Mode, volts: f64, ir_drop: f64, brush_drop: f64) -> f64
     }
 }
 
-pub use crate::theory::emf::{emf_v, flux_for, machine_constant, speed_for};
+pub use crate::theory::emf::{emf_v, flux_for, machine_constant, speed_for, v_per_1000_rpm};
 
 /// Where the EMF came from.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]

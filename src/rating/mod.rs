@@ -190,8 +190,7 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
         .unwrap_or(BrushGrade::Carbon);
     let emf = emf_block(
         d,
-        z,
-        a,
+        w,
         voltage,
         current,
         resistance.as_ref(),
@@ -285,14 +284,19 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
 #[allow(clippy::too_many_arguments)]
 fn emf_block(
     d: &Design,
-    z: u64,
-    a: u32,
+    w: &Winding,
     voltage: Option<f64>,
     current: Option<f64>,
     r: Option<&Resistance>,
     grade: BrushGrade,
     notes: &mut Vec<RatingNote>,
 ) -> Option<Emf> {
+    // The engine's K = P·Z/(2π·a) and the same conductors and paths.
+    let (z, a, k) = (
+        w.conductors,
+        w.paths_formula.max(1),
+        w.constants.machine_constant,
+    );
     let flux_wb = d.flux_per_pole_mwb.map(|f| f / 1000.0);
     let (basis, e, ir, ir_known, drop) = match (voltage, flux_wb, d.speed_rpm) {
         (Some(v), _, _) => {
@@ -337,7 +341,6 @@ fn emf_block(
     let speed_at_flux = flux_wb
         .filter(|_| usable && basis == EmfBasis::Terminal)
         .map(|f| emf::speed_for(d.poles, z, a, e, f));
-    let k = emf::machine_constant(d.poles, z, a);
     let k_phi = flux_wb.or(flux_needed).map(|f| k * f);
     Some(Emf {
         mode: d.mode,
@@ -351,7 +354,7 @@ fn emf_block(
         flux_needed_mwb: flux_needed.map(|f| f * 1000.0),
         speed_at_flux_rpm: speed_at_flux,
         k_phi,
-        v_per_1000_rpm: k_phi.map(|x| x * 1000.0 * 2.0 * PI / 60.0),
+        v_per_1000_rpm: k_phi.map(emf::v_per_1000_rpm),
         torque_nm: k_phi.zip(current).map(|(x, i)| x * i),
         speed_rpm: d.speed_rpm.or(speed_at_flux),
     })

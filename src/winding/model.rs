@@ -76,6 +76,9 @@ pub struct WindingElement {
     pub paths: u32,
     /// Parallel paths of the element by the formula (lap m·P, wave 2m).
     pub paths_formula: u32,
+    /// The element's paths sorted into classes carried onto one another by rotations through
+    /// whole pole pitches (the exact symmetry test).
+    pub path_classes: super::PathClasses,
 }
 
 impl WindingElement {

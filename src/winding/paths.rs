@@ -5,7 +5,8 @@
 //! opposite polarity is a parallel path; a run between brushes of one polarity is shorted
 //! (under commutation). Brush polarity comes from the EMF the runs carry.
 
-use super::ClosedWinding;
+use super::{ClosedWinding, ParallelPath, WindingElement};
+use crate::design::Mode;
 
 /// A brush centre, in units of 1/`units` of a segment pitch from segment 1's centre.
 #[derive(Clone, Copy, Debug)]
@@ -156,4 +157,73 @@ pub(crate) fn first_brush_sign(runs: &[Run], spots: &[BrushSpot]) -> i64 {
 /// Whether a run joins brushes of opposite polarity (a parallel path).
 pub(crate) fn is_path(run: &Run, spots: &[BrushSpot]) -> bool {
     spots[run.from].pole % 2 != spots[run.to].pole % 2
+}
+
+/// The runs sorted into parallel paths (between brushes of opposite polarity) and shorted
+/// coils (between brushes of one polarity), with each coil's current sense and path.
+pub(crate) struct Cut {
+    /// The parallel paths, numbered from 1 in trace order.
+    pub paths: Vec<ParallelPath>,
+    /// The coils under commutation, ascending.
+    pub shorted: Vec<u32>,
+    /// Per coil, its current sense (+1, −1; 0 when shorted or a dummy).
+    pub coil_current: Vec<i8>,
+    /// Per coil, its path (0 when on none).
+    pub coil_path: Vec<u32>,
+}
+
+/// Cuts the runs into paths and shorted coils; counts each element's paths. The current flows
+/// with the EMF in a generator and against it in a motor.
+pub(crate) fn cut(
+    mode: Mode,
+    runs: &[Run],
+    spots: &[BrushSpot],
+    sign0: i64,
+    elements: &mut [WindingElement],
+    coils: usize,
+) -> Cut {
+    let current_sign = match mode {
+        Mode::Generator => 1,
+        Mode::Motor => -1,
+    };
+    let mut out = Cut {
+        paths: Vec::new(),
+        shorted: Vec::new(),
+        coil_current: vec![0i8; coils],
+        coil_path: vec![0u32; coils],
+    };
+    for r in runs {
+        if !is_path(r, spots) {
+            out.shorted.extend_from_slice(&r.coils);
+            continue;
+        }
+        let to_positive = (if spots[r.to].pole.is_multiple_of(2) {
+            sign0
+        } else {
+            -sign0
+        }) > 0;
+        let current = if to_positive {
+            current_sign
+        } else {
+            -current_sign
+        } as i8;
+        let index = out.paths.len() as u32 + 1;
+        if let Some(e) = elements.iter_mut().find(|e| e.holds(r.coils[0])) {
+            e.paths += 1;
+        }
+        for &coil in &r.coils {
+            out.coil_current[(coil - 1) as usize] = current;
+            out.coil_path[(coil - 1) as usize] = index;
+        }
+        out.paths.push(ParallelPath {
+            index,
+            from_brush: r.from as u32 + 1,
+            to_brush: r.to as u32 + 1,
+            coils: r.coils.clone(),
+            current,
+            emf_units: if to_positive { r.emf } else { -r.emf },
+        });
+    }
+    out.shorted.sort_unstable();
+    out
 }

@@ -1,6 +1,6 @@
 //! The fault locator: which single fault best explains the measured readings.
 //!
-//! Part of the `rating` stage (under [`super`]): the solved [`Network`] and the measured
+//! Part of the armature-test feature (under [`super`]): the solved [`Network`] and the measured
 //! readings in, ranked hypotheses out. Every position of every kind is tried. A hypothesis
 //! changes one coil or joins two bars, a rank-one change of the Laplacian, so by the
 //! Sherman–Morrison formula its readings follow from the healthy network's grounded inverse Z

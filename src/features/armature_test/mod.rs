@@ -1,7 +1,7 @@
 //! The armature test: expected bar-to-bar and drop-test readings from the traced winding solved
 //! as a resistor network, and the fault locator for measured readings.
 //!
-//! Part of the `rating` stage: a resolved [`Design`] and its traced [`Winding`] in, an inert
+//! A feature (`features` stage): a resolved [`Design`] and its traced [`Winding`] in, an inert
 //! [`ArmatureTest`] out; [`armature_test`] is the one entry point and the renderers only read
 //! its result. The network is in [`network`], the fault locator in [`locator`], the reader of the
 //! shop's readings file in [`readings`].

@@ -1,6 +1,6 @@
 //! The armature as a resistor network, solved with faer's sparse Cholesky factorisation.
 //!
-//! Part of the `rating` stage (under [`super`]): the traced [`Winding`] in, effective
+//! Part of the armature-test feature (under [`super`]): the traced [`Winding`] in, effective
 //! resistances between bars out. Each active coil is a resistor of one coil resistance between
 //! its start bar and its end bar; dummy coils are left out; an equalizer is an ideal connection,
 //! so the bars it ties are one node. Each connected part of the network has one node grounded

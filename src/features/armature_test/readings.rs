@@ -1,6 +1,6 @@
 //! The shop's measured readings: a CSV with the header `from_bar,to_bar,reading`.
 //!
-//! Part of the `rating` stage (under [`super`]): the file's text in (the CLI reads it), the
+//! Part of the armature-test feature (under [`super`]): the file's text in (the CLI reads it), the
 //! readings out, or the first problem with its line and column. Readings may be in any
 //! consistent unit (the locator fits the scale); a reading may be `0`, or `open` / `OL` for an
 //! open circuit; an empty reading is a missing pair. The readings CSV that `test -o` writes is

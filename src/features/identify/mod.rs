@@ -1,6 +1,6 @@
 //! `identify`: from a data card to every winding that fits it, each traced and checked.
 //!
-//! Part of the `checks` stage: it builds candidate [`Design`]s from a [`Card`] and runs each
+//! A feature (`features` stage): it builds candidate [`Design`]s from a [`Card`] and runs each
 //! through [`check`] (the one entry to the engine), so a candidate is kept only when its traced
 //! winding reproduces the observed throw, span and lead swing exactly. No I/O.
 //!

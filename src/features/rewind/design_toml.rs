@@ -1,6 +1,6 @@
 //! Writes a resolved [`Design`] back as a design file, with a comment header.
 //!
-//! Part of the `rating` stage (used by the rewind): pure text, deterministic. Every key is
+//! Part of the rewind feature: pure text, deterministic. Every key is
 //! written explicitly, in the order of the design-file reference, and only `[limits]` keys
 //! that differ from the defaults. The output parses back with [`crate::design::parse_design`].
 
