@@ -236,7 +236,7 @@ pub fn trace_winding(design: &Design) -> Winding {
 /// the brush is at i + y_c/2; its centre line is then θ_i/δ bars from the brush line, θ_i
 /// being its slot's angle from slot 1's and δ the bar pitch. Placing the brush at
 /// y_c/2 + mean(i − θ_i/δ) makes the mean offset zero. θ_i/δ = slot_i·C/S, so the shift is
-/// Σ(i·S − slot_i·C)/(C·S) bars [derived; DOMAIN.md "Brush neutral with several coils per
+/// Σ(i·S − slot_i·C)/(C·S) bars [derived; docs/domain.md, "Brush neutral with several coils per
 /// slot"].
 pub(crate) fn neutral_shift_units(
     d: &Design,
@@ -271,7 +271,7 @@ pub fn place_dummies(n: u32, count: u32) -> Vec<u32> {
 /// 2·shift = (y_c0 − y_c) + (y_s − y_s0)·u, taken modulo two pole pitches C/p (the field and
 /// the brushes repeat every pole pair) and rounded down to a whole bar [derived]. For a
 /// frog-leg winding the lap coil in one slot and the wave coil one pole pitch on then join, in
-/// series, bars two pole pitches apart with opposite EMFs (DOMAIN.md "Frog-leg windings").
+/// series, bars two pole pitches apart with opposite EMFs (docs/domain.md, "Frog-leg windings").
 fn element_start_shift(
     d: &Design,
     e0: &crate::design::DesignElement,
