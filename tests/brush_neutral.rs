@@ -7,8 +7,8 @@
 //! between brushes of one polarity are the shorted coils. Each shorted coil's centre line (the
 //! midpoint of its two slots, turned with the rotor) is compared with the nearest pole axis.
 //! Neutral is "the commutated coil's sides in the interpolar zone", i.e. its centre line on the
-//! pole axis (common practice; textbook treatments of brush position, DOMAIN.md "Brush neutral
-//! with several coils per slot").
+//! pole axis (common practice; textbook treatments of brush position, docs/domain.md,
+//! "Brush neutral with several coils per slot").
 
 mod support;
 

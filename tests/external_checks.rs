@@ -125,7 +125,8 @@ fn emf_six_pole_wave_664_conductors() {
 
 /// T = K·Φ·I_a with K = P·Z/(2π·a): P = 4, Z = 500, a = 2, Φ = 0.02 Wb, I = 10 A gives
 /// T = 31.83 N·m. [src: own arithmetic from the formula in any DC machine text (Chapman,
-/// DC machine chapters); the check value is DOMAIN.md's.] K·Φ in V·s/rad equals K·Φ in N·m/A.
+/// DC machine chapters); the check value is in docs/domain.md, "EMF and torque".] K·Φ in V·s/rad
+/// equals K·Φ in N·m/A.
 #[test]
 fn torque_constant_four_pole_wave_500_conductors() {
     // 125 coils of 2 turns: Z = 500; (125 + 1)/2 = 63.

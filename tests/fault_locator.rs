@@ -119,7 +119,8 @@ fn off_readings(t: &ArmatureTest) -> Vec<(u32, f64)> {
 }
 
 // Signatures [src: a published trade training text on growlers and armature testers; see
-// DOMAIN.md]: lap, a shorted coil gives one low reading and an open coil one high reading.
+// docs/domain.md, "Faults the armature tests find"]: lap, a shorted coil gives one low reading and
+// an open coil one high reading.
 #[test]
 fn lap_signatures_one_low_or_one_high_reading() {
     let design = toml(4, 36, "lap", 1, 9, "");

@@ -1,7 +1,7 @@
 //! Frog-leg windings: the worked examples, the elements traced on one commutator, the checks,
 //! and the combined network under load showing bars two pole pitches apart at one potential.
 //!
-//! The expected figures are derived by hand from the frog-leg rules (DOMAIN.md "Frog-leg
+//! The expected figures are derived by hand from the frog-leg rules (docs/domain.md, "Frog-leg
 //! windings": a trade association's technical note read in a public copy; the
 //! self-equalizing condition y_c(lap) + |y_c(wave)| = C/p is derived), never by calling the
 //! engine's own formulas.
@@ -51,7 +51,7 @@ fn emfs(w: &Winding) -> Vec<f64> {
 
 #[test]
 fn four_pole_58_bar_worked_example() {
-    // 4 poles, 58 bars [derived; DOMAIN.md "Frog-leg windings"]: lap throw 1-2; wave
+    // 4 poles, 58 bars [derived; docs/domain.md, "Frog-leg windings"]: lap throw 1-2; wave
     // y_c = (58 - 2)/2 = 28, throw 1-29; gcd(58, 28) = 2, doubly re-entrant; a = 2 x 1 x 4 = 8.
     let c = checked(&frog(4, 58, 1, 14, ""));
     let w = &c.winding;

@@ -25,7 +25,8 @@ fn json(args: &[&str]) -> serde_json::Value {
 }
 
 /// Published worked example, from memory: 4 poles, 25 coils, simplex wave, y_c = 13 (a
-/// textbook wave-winding example reproduced in several tutorials; DOMAIN.md). The throw
+/// textbook wave-winding example reproduced in several tutorials; docs/domain.md,
+/// "Published worked examples"). The throw
 /// 1-14 on 25 bars is therefore progressive simplex wave: p·y_c = 2·13 = 26 = C + 1.
 #[test]
 fn a_throw_of_1_14_on_4_poles_and_25_bars_is_progressive_simplex_wave() {
@@ -52,7 +53,7 @@ fn a_throw_of_1_14_on_4_poles_and_25_bars_is_progressive_simplex_wave() {
 
 /// 26 slots on 4 poles cannot take a simplex wave on 26 bars ((26 ± 1)/2 is not whole), so a
 /// wave leaves one dummy coil on 25 bars [src: textbook treatment of dummy coils, e.g. Theraja,
-/// *Electrical Technology* vol. 2 ch. 26, from memory; DOMAIN.md].
+/// *Electrical Technology* vol. 2 ch. 26, from memory; docs/domain.md, "Dummy coils"].
 #[test]
 fn twenty_six_slots_on_4_poles_is_a_wave_with_one_dummy() {
     let dir = scratch("dummy26");
@@ -88,7 +89,8 @@ fn twenty_six_slots_on_4_poles_is_a_wave_with_one_dummy() {
 }
 
 /// Published worked example, from memory: 6 poles, 36 slots, simplex wave: C = 35 (one
-/// dummy), y_c = 12 (a textbook dummy-coil example; DOMAIN.md). The throw is 1-13.
+/// dummy), y_c = 12 (a textbook dummy-coil example; docs/domain.md, "Published worked examples").
+/// The throw is 1-13.
 #[test]
 fn six_poles_36_slots_on_35_bars_is_simplex_wave_with_one_dummy() {
     let dir = scratch("wave36");

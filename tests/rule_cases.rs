@@ -60,7 +60,8 @@ use Want::*;
 
 #[test]
 fn symmetry_rules() {
-    // Source: Arnold's conditions as the trade states them (from memory; DOMAIN.md "Symmetry").
+    // Source: Arnold's conditions as the trade states them (from memory; docs/domain.md,
+    // "Symmetry").
     case(
         "symmetry.coils-per-path-pair",
         Pass,
@@ -350,7 +351,8 @@ fn frog_leg(poles: u32, slots: u32, span: u32, extra: &str) -> String {
 /// plain lap. C/p not whole is refused by the design stage (tests/broken/).
 #[test]
 fn frog_leg_rules() {
-    // Source: frog-leg windings, a trade association's technical note (DOMAIN.md); derived.
+    // Source: frog-leg windings, a trade association's technical note
+    // (docs/domain.md, "Frog-leg windings"); derived.
     let toml = frog_leg(4, 58, 14, "");
     for id in [
         "frogleg.self-equalizing",

@@ -2,7 +2,7 @@
 //! the paths of each element, the wave element's reentrancy and equal coils in both elements.
 //!
 //! Part of the `checks` stage. Sources beside each rule: a trade association's technical note
-//! on frog-leg windings, read in a public copy (DOMAIN.md "Frog-leg windings"); the
+//! on frog-leg windings, read in a public copy (docs/domain.md, "Frog-leg windings"); the
 //! self-equalizing condition and its reading off the trace are derived.
 
 use super::sources::{FROG_LEG, FROG_LEG_DERIVED};
@@ -78,7 +78,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
 /// midpoint (its start bar plus half the element's y_c) less the coil's centre line (its top
 /// slot's centre plus half its span), in bars, modulo two pole pitches C/p, where the field
 /// and the brushes repeat [derived: a coil is commutated with the brush at the midpoint of its
-/// bars; DOMAIN.md "Frog-leg windings"].
+/// bars; docs/domain.md, "Frog-leg windings"].
 fn commutated_at(d: &Design, w: &Winding, e: &WindingElement) -> Option<f64> {
     let c = f64::from(w.active_coils);
     let s = f64::from(d.slots);
@@ -128,7 +128,7 @@ fn rows<'a>(w: &'a Winding, e: &WindingElement) -> &'a [Connection] {
 
 /// y_c(lap) + |y_c(wave)| = C/p, read off the traced connections: from every bar, the lap coil
 /// that starts there and the wave coil that starts where it ends reach the bar two pole
-/// pitches on [derived; DOMAIN.md "Frog-leg windings"].
+/// pitches on [derived; docs/domain.md, "Frog-leg windings"].
 fn self_equalizing(
     w: &Winding,
     lap: &WindingElement,

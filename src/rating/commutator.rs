@@ -24,7 +24,7 @@ pub struct SegmentVoltage {
 }
 
 /// The average voltage between adjacent segments, E·P/C, V: the EMF of a path spread over the
-/// C/P segments between brushes of opposite polarity [textbook relation; docs/domain.md].
+/// C/P segments between brushes of opposite polarity [textbook relation; docs/domain.md, "Commutator and rating rules of thumb"].
 pub fn average_segment_volts(e: f64, poles: u32, segments: u32) -> f64 {
     e.abs() * f64::from(poles) / f64::from(segments)
 }

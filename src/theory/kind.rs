@@ -2,9 +2,10 @@
 //!
 //! Part of the `theory` stage. Each kind is a type implementing [`WindingKind`];
 //! [`WindingType::kind`] is the only place that matches on the kind. Sources: the standard
-//! textbook relations (DOMAIN.md "Lap windings", "Wave windings"; Theraja, *Electrical
+//! textbook relations (docs/domain.md, "Lap windings", "Wave windings"; Theraja, *Electrical
 //! Technology* vol. 2, ch. 26, from memory as to chapter). Frog-leg: a trade association's
-//! technical note on frog-leg windings, read in a public copy (DOMAIN.md "Frog-leg windings");
+//! technical note on frog-leg windings, read in a public copy
+//! (docs/domain.md, "Frog-leg windings");
 //! the self-equalizing condition is derived.
 
 /// Lap, wave or frog-leg (`[winding] type`).
@@ -136,7 +137,8 @@ pub trait WindingKind: Sync {
     fn fewer_paths_remedy(&self, m: u32) -> &'static str;
 
     /// Whether the symmetry rules also ask for whole pole pairs per pair of paths (a wave's
-    /// paths each run under every pole) [from memory: Arnold's conditions, DOMAIN.md "Symmetry"].
+    /// paths each run under every pole) [from memory: Arnold's conditions, docs/domain.md,
+    /// "Symmetry"].
     fn symmetry_counts_pole_pairs(&self) -> bool;
 
     /// Why `c` segments do not suit this kind, in words (for a rewind that needs a new
@@ -297,7 +299,7 @@ impl WindingKind for Wave {
 /// Frog-leg winding: a lap element (multiplicity m, the design's direction) and a wave element
 /// (m_w = m·p, the other direction) in the same slots on one commutator; every bar takes four
 /// leads, a = 2·m·P, and it needs no equalizers [src: a trade association's technical note on
-/// frog-leg windings, read in a public copy; DOMAIN.md "Frog-leg windings"].
+/// frog-leg windings, read in a public copy; docs/domain.md, "Frog-leg windings"].
 ///
 /// The lap element's y_c = ±m and the wave element's y_c = (C ∓ m·p)/p = C/p ∓ m, so
 /// y_c(lap) + |y_c(wave)| = C/p: a lap coil and a wave coil in series span two pole pitches
@@ -410,7 +412,7 @@ mod tests {
 
     #[test]
     fn frog_leg_elements() {
-        // 4 poles, 58 bars: lap 1-2, wave y_c = (58 - 2)/2 = 28, 8 paths [derived; DOMAIN.md
+        // 4 poles, 58 bars: lap 1-2, wave y_c = (58 - 2)/2 = 28, 8 paths [derived; docs/domain.md,
         // "Frog-leg windings"].
         let k = WindingType::FrogLeg.kind();
         let e = k.elements(1, 2, Progressive);

@@ -29,7 +29,7 @@ pub struct Pitches {
 /// Signed commutator pitch y_c in segments.
 ///
 /// Lap: ±m. Wave: (C ± m)/p with + progressive (always positive).
-/// [src: standard textbook relations; DOMAIN.md "Lap windings", "Wave windings".]
+/// [src: standard textbook relations; docs/domain.md, "Lap windings", "Wave windings".]
 pub fn commutator_pitch(kind: WindingType, dir: Direction, c: u32, m: u32, p: u32) -> i64 {
     kind.kind().commutator_pitch(c, m, p, dir)
 }

@@ -96,7 +96,7 @@ pub(crate) fn lead_swing(d: &Design, geo: &Geometry, neutral: i64) -> (f64, Lead
 /// the brush is at i + y_c/2; its centre line is then θ_i/δ bars from the brush line, θ_i
 /// being its slot's angle from slot 1's and δ the bar pitch. Placing the brush at
 /// y_c/2 + mean(i − θ_i/δ) makes the mean offset zero. θ_i/δ = slot_i·C/S, so the shift is
-/// Σ(i·S − slot_i·C)/(C·S) bars [derived; DOMAIN.md "Brush neutral with several coils per
+/// Σ(i·S − slot_i·C)/(C·S) bars [derived; docs/domain.md, "Brush neutral with several coils per
 /// slot"].
 pub(crate) fn neutral_shift_units(
     d: &Design,

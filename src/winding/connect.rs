@@ -81,7 +81,7 @@ pub fn place_dummies(n: u32, count: u32) -> Vec<u32> {
 /// 2·shift = (y_c0 − y_c) + (y_s − y_s0)·u, taken modulo two pole pitches C/p (the field and
 /// the brushes repeat every pole pair) and rounded down to a whole bar [derived]. For a
 /// frog-leg winding the lap coil in one slot and the wave coil one pole pitch on then join, in
-/// series, bars two pole pitches apart with opposite EMFs (DOMAIN.md "Frog-leg windings").
+/// series, bars two pole pitches apart with opposite EMFs (docs/domain.md, "Frog-leg windings").
 fn element_start_shift(
     d: &Design,
     e0: &DesignElement,

@@ -167,7 +167,8 @@ pub struct BrushWidthUsed {
 /// At `lead_offset = 0` the brushes sit on the pole axes, which is neutral for the slot's coil
 /// group (see the `winding` module doc). "Lead swing" in shop words: stretch a cord through
 /// the centre of slot 1; the bar (or mica) in line with it is where coil 1's start lead is
-/// counted from [src: a winding manual's data-taking page, read in an extract; DOMAIN.md].
+/// counted from [src: a winding manual's data-taking page, read in an extract; docs/domain.md,
+/// "Lead swing"].
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct LeadSwing {
     /// Brush centre from the pole axis, bars (= `lead_offset`), towards rising slot numbers.

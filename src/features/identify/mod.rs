@@ -7,7 +7,8 @@
 //! The reasoning, for each winding kind, multiplicity m (1 to the design bound) and direction:
 //! the kind's commutator pitch y_c on the counted bars C must land the marked coil's end lead
 //! on the observed bar (lap: ±m; wave: p·y_c = C ± m) [src: standard textbook relations;
-//! DOMAIN.md]. Coils per slot u: lap uses every coil, so C = u·S; a wave leaves d = u·S − C
+//! docs/domain.md, "Data taking before stripping"]. Coils per slot u: lap uses every coil,
+//! so C = u·S; a wave leaves d = u·S − C
 //! dummy coils, the fewest that work unless the card lists the dead coils. The lead swing
 //! fixes the design's `lead_offset` (the engine's `LeadSwing` convention): the offset is the
 //! observed swing less the swing on neutral, then traced again to confirm.
