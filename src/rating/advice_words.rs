@@ -18,63 +18,18 @@ impl Advice {
                 need,
                 poles,
                 options,
-            } => {
-                if options.is_empty() {
-                    let need = need.map_or_else(
-                        || "more than can be counted".to_string(),
-                        |n| format!("at least {n}"),
-                    );
-                    return vec![format!(
-                        "more paths: {need} are needed, which no lap or wave connection up to multiplicity {} gives on {poles} poles",
-                        bounds::MAX_MULTIPLICITY
-                    )];
-                }
-                options.iter().map(path_option).collect()
-            }
+            } => more_paths(*need, *poles, options),
             Advice::MoreSegments {
                 c_min,
                 now,
                 slots,
                 option,
-            } => vec![
-                match c_min {
-                    Some(c) => format!("more segments: at least {c} (now {now})"),
-                    None => format!("more segments: more than can be counted (now {now})"),
-                },
-                match (option, c_min) {
-                    (Some(o), _) => segment_option(o, *slots),
-                    (None, Some(c)) => format!(
-                        "no coils-per-slot count up to {} on {slots} slots reaches {c} segments",
-                        bounds::MAX_COILS_PER_SLOT
-                    ),
-                    (None, None) => format!(
-                        "no coils-per-slot count up to {} on {slots} slots comes near",
-                        bounds::MAX_COILS_PER_SLOT
-                    ),
-                },
-                "more paths do not help here: E*P/C does not depend on a".to_string(),
-            ],
+            } => more_segments(*c_min, *now, *slots, option.as_ref()),
             Advice::LargerConductor {
                 need_mm2,
                 picks,
                 copper_rise_pct,
-            } => {
-                let mut out = vec![format!(
-                    "a larger conductor: at least {} mm2",
-                    fmt_fixed(*need_mm2, 3)
-                )];
-                for family in picks {
-                    let line: Vec<String> = family.iter().map(wire_pick).collect();
-                    out.push(line.join(", "));
-                }
-                if let Some(pct) = copper_rise_pct {
-                    out.push(format!(
-                        "copper per slot rises by {} %: check that it fits the slot",
-                        fmt_fixed(*pct, 0)
-                    ));
-                }
-                out
-            }
+            } => larger_conductor(*need_mm2, picks, *copper_rise_pct),
             Advice::SmallerConductor { most_mm2 } => vec![format!(
                 "the conductor is generous: down to {} mm2 keeps the density at the lower limit and frees slot space",
                 fmt_fixed(*most_mm2, 3)
@@ -152,6 +107,71 @@ impl Advice {
             )],
         }
     }
+}
+
+/// More paths: each reconnection that gives them, or why none does.
+fn more_paths(need: Option<u32>, poles: u32, options: &[PathOption]) -> Vec<String> {
+    if options.is_empty() {
+        let need = need.map_or_else(
+            || "more than can be counted".to_string(),
+            |n| format!("at least {n}"),
+        );
+        return vec![format!(
+            "more paths: {need} are needed, which no lap or wave connection up to multiplicity {} gives on {poles} poles",
+            bounds::MAX_MULTIPLICITY
+        )];
+    }
+    options.iter().map(path_option).collect()
+}
+
+/// More segments: the fewest that do, and a coils-per-slot count that reaches them.
+fn more_segments(
+    c_min: Option<u32>,
+    now: u32,
+    slots: u32,
+    option: Option<&SegmentOption>,
+) -> Vec<String> {
+    vec![
+        match c_min {
+            Some(c) => format!("more segments: at least {c} (now {now})"),
+            None => format!("more segments: more than can be counted (now {now})"),
+        },
+        match (option, c_min) {
+            (Some(o), _) => segment_option(o, slots),
+            (None, Some(c)) => format!(
+                "no coils-per-slot count up to {} on {slots} slots reaches {c} segments",
+                bounds::MAX_COILS_PER_SLOT
+            ),
+            (None, None) => format!(
+                "no coils-per-slot count up to {} on {slots} slots comes near",
+                bounds::MAX_COILS_PER_SLOT
+            ),
+        },
+        "more paths do not help here: E*P/C does not depend on a".to_string(),
+    ]
+}
+
+/// A larger conductor: the least area, the wires that give it, and the copper's rise.
+fn larger_conductor(
+    need_mm2: f64,
+    picks: &[Vec<WirePick>],
+    copper_rise_pct: Option<f64>,
+) -> Vec<String> {
+    let mut out = vec![format!(
+        "a larger conductor: at least {} mm2",
+        fmt_fixed(need_mm2, 3)
+    )];
+    for family in picks {
+        let line: Vec<String> = family.iter().map(wire_pick).collect();
+        out.push(line.join(", "));
+    }
+    if let Some(pct) = copper_rise_pct {
+        out.push(format!(
+            "copper per slot rises by {} %: check that it fits the slot",
+            fmt_fixed(pct, 0)
+        ));
+    }
+    out
 }
 
 /// One reconnection: paths, current per path, turns and the conductor for the same density.

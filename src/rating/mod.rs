@@ -36,7 +36,7 @@ pub use test_voltage::TestVoltage;
 
 use std::f64::consts::PI;
 
-use crate::design::{BrushGrade, ConductorShape, Design};
+use crate::design::{BrushGrade, ConductorShape, Design, ThermalClass};
 use crate::winding::Winding;
 use advice::Machine;
 
@@ -136,52 +136,7 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
     let rating = d.rating.clone().unwrap_or_default();
     let (voltage, current, class) = (rating.voltage, rating.current, rating.thermal_class);
 
-    // Conductor and resistance.
-    let conductor = d.conductor.as_ref().map(|k| ConductorData {
-        shape: k.shape,
-        area_mm2: conductor::conductor_area_mm2(&k.shape),
-        mean_turn: conductor::mean_turn(d, k),
-    });
-    if let Some(t) = conductor.as_ref().and_then(|k| k.mean_turn.as_ref())
-        && let MeanTurnSource::Estimated(_) = t.source
-    {
-        notes.push(RatingNote::MeanTurnEstimated(*t));
-    }
-    let calc_r20 = conductor.as_ref().and_then(|k| {
-        k.mean_turn.as_ref().map(|t| {
-            if w.is_multi_element() {
-                let elements: Vec<(u64, u32)> = w
-                    .elements
-                    .iter()
-                    .map(|e| {
-                        (
-                            2 * u64::from(c) * u64::from(e.turns),
-                            e.paths_formula.max(1),
-                        )
-                    })
-                    .collect();
-                resistance::elements_resistance_20(&elements, t.mm, k.area_mm2)
-            } else {
-                resistance::armature_resistance_20(z, a, t.mm, k.area_mm2)
-            }
-        })
-    });
-    let resistance = match (measured_r20, calc_r20) {
-        (Some(r), _) => Some(Resistance::new(r, class, true)),
-        (None, Some(r)) => Some(Resistance {
-            elements: w.elements.len() as u32,
-            ..Resistance::new(r, class, false)
-        }),
-        (None, None) => None,
-    };
-    if resistance.is_none() {
-        notes.push(match &conductor {
-            None => RatingNote::NoConductor,
-            Some(_) => RatingNote::NoMeanTurn,
-        });
-    } else if class.is_none() {
-        notes.push(RatingNote::NoThermalClass);
-    }
+    let (conductor, resistance) = conductor_and_resistance(d, w, measured_r20, class, &mut notes);
 
     let grade = d
         .commutator
@@ -279,6 +234,65 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
     };
     (report.checks, report.advice) = check_limits(d, &report);
     report
+}
+
+/// The conductor as rated and the armature resistance (measured, or calculated from the
+/// conductor and the mean turn), with the notes on what is missing.
+fn conductor_and_resistance(
+    d: &Design,
+    w: &Winding,
+    measured_r20: Option<f64>,
+    class: Option<ThermalClass>,
+    notes: &mut Vec<RatingNote>,
+) -> (Option<ConductorData>, Option<Resistance>) {
+    let (z, a, c) = (w.conductors, w.paths_formula.max(1), w.active_coils);
+    let conductor = d.conductor.as_ref().map(|k| ConductorData {
+        shape: k.shape,
+        area_mm2: conductor::conductor_area_mm2(&k.shape),
+        mean_turn: conductor::mean_turn(d, k),
+    });
+    if let Some(t) = conductor.as_ref().and_then(|k| k.mean_turn.as_ref())
+        && let MeanTurnSource::Estimated(_) = t.source
+    {
+        notes.push(RatingNote::MeanTurnEstimated(*t));
+    }
+    let calc_r20 = conductor.as_ref().and_then(|k| {
+        k.mean_turn.as_ref().map(|t| {
+            if w.is_multi_element() {
+                let elements: Vec<(u64, u32)> = w
+                    .elements
+                    .iter()
+                    .map(|e| {
+                        (
+                            2 * u64::from(c) * u64::from(e.turns),
+                            e.paths_formula.max(1),
+                        )
+                    })
+                    .collect();
+                resistance::elements_resistance_20(&elements, t.mm, k.area_mm2)
+            } else {
+                resistance::armature_resistance_20(z, a, t.mm, k.area_mm2)
+            }
+        })
+    });
+    let resistance = match (measured_r20, calc_r20) {
+        (Some(r), _) => Some(Resistance::new(r, class, true)),
+        (None, Some(r)) => Some(Resistance {
+            elements: w.elements.len() as u32,
+            ..Resistance::new(r, class, false)
+        }),
+        (None, None) => None,
+    };
+    if resistance.is_none() {
+        notes.push(match &conductor {
+            None => RatingNote::NoConductor,
+            Some(_) => RatingNote::NoMeanTurn,
+        });
+    } else if class.is_none() {
+        notes.push(RatingNote::NoThermalClass);
+    }
+
+    (conductor, resistance)
 }
 
 #[allow(clippy::too_many_arguments)]

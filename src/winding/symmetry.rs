@@ -145,13 +145,6 @@ pub(crate) fn path_classes_of(d: &Design, w: &Winding, e: &WindingElement) -> Pa
     }
     let mut parent: Vec<usize> = (0..paths.len()).collect();
     let mut rigid = true;
-    fn root(parent: &mut [usize], mut x: usize) -> usize {
-        while parent[x] != x {
-            parent[x] = parent[parent[x]];
-            x = parent[x];
-        }
-        x
-    }
     // Segment (0-based) -> coil whose start lead is on it; coil -> closed winding.
     let mut out = vec![0u32; c as usize];
     for conn in w.connections.iter().filter(|k| e.holds(k.coil)) {
@@ -234,10 +227,16 @@ pub(crate) fn path_classes_of(d: &Design, w: &Winding, e: &WindingElement) -> Pa
             }
         }
     }
+    collect_classes(&mut parent, &paths, rigid)
+}
+
+/// The union-find forest `parent` over `paths` read off as classes, each with whether its
+/// paths carry current one way.
+fn collect_classes(parent: &mut [usize], paths: &[&ParallelPath], rigid: bool) -> PathClasses {
     let mut classes: Vec<Vec<usize>> = Vec::new();
     let mut index_of_root = vec![usize::MAX; paths.len()];
     for x in 0..paths.len() {
-        let r = root(&mut parent, x);
+        let r = root(parent, x);
         if index_of_root[r] == usize::MAX {
             index_of_root[r] = classes.len();
             classes.push(Vec::new());
@@ -256,6 +255,15 @@ pub(crate) fn path_classes_of(d: &Design, w: &Winding, e: &WindingElement) -> Pa
         one_sense: senses,
         rigid,
     }
+}
+
+/// The root of `x` in the union-find forest `parent`, halving the path on the way.
+fn root(parent: &mut [usize], mut x: usize) -> usize {
+    while parent[x] != x {
+        parent[x] = parent[parent[x]];
+        x = parent[x];
+    }
+    x
 }
 
 impl Winding {

@@ -245,6 +245,93 @@ fn slots_of(coils: &[u32], net_slots: &[(u32, u32)]) -> Vec<u32> {
     s
 }
 
+/// The readings the locator works on: the measured pairs, their network nodes, the healthy
+/// pattern in coil resistances and the healthy network's grounded inverse.
+struct Problem<'a> {
+    net: &'a Network,
+    z: Transfer<'a>,
+    meas: Vec<ReadingValue>,
+    pairs: Vec<(usize, usize)>,
+    base: Vec<Option<f64>>,
+}
+
+impl Problem<'_> {
+    /// w_q = c_qᵀ Z b for every reading q, with b the branch between nodes `e`.
+    fn transfer_to(&self, e: (usize, usize)) -> Vec<f64> {
+        self.pairs.iter().map(|&q| self.z.t(q, e)).collect()
+    }
+
+    /// The largest relative change a prediction makes to the healthy readings.
+    fn effect(&self, pred: &[Option<f64>]) -> f64 {
+        pred.iter()
+            .zip(&self.base)
+            .map(|(p, b)| match (p, b) {
+                (Some(p), Some(b)) if *b > 0.0 => (p - b).abs() / b,
+                (None, None) => 0.0,
+                (Some(_), Some(_)) => 0.0,
+                _ => f64::INFINITY,
+            })
+            .fold(0.0, f64::max)
+    }
+
+    /// A fit of a fixed prediction (no size to fit).
+    fn fixed(&self, predicted: Vec<Option<f64>>) -> Fit {
+        let (score, scale) = misfit(&self.meas, &predicted);
+        Fit {
+            score,
+            scale,
+            tau: 0.0,
+            predicted,
+        }
+    }
+}
+
+/// A rank-one change is seen by a reading only where w_q ≠ 0.
+fn seen(w: &[f64]) -> bool {
+    w.iter().any(|w| w.abs() > 1e-9)
+}
+
+/// The hypotheses as they are tried: the visible ones kept, the invisible ones counted.
+struct Ranking<'a> {
+    slots: &'a [(u32, u32)],
+    faults: Vec<Fault>,
+    invisible: Vec<usize>,
+}
+
+impl Ranking<'_> {
+    #[allow(clippy::too_many_arguments)]
+    fn push(
+        &mut self,
+        kind: FaultKind,
+        coils: Vec<u32>,
+        bars: Vec<u32>,
+        fit: Fit,
+        size: Option<f64>,
+        words: String,
+        visible: bool,
+    ) {
+        if !visible {
+            self.invisible[kind as usize] += 1;
+            return;
+        }
+        self.faults.push(Fault {
+            kind,
+            slots: slots_of(&coils, self.slots),
+            coils,
+            bars,
+            score: fit.score,
+            size,
+            scale: fit.scale,
+            predicted: fit
+                .predicted
+                .iter()
+                .map(|p| p.map(|p| p * fit.scale))
+                .collect(),
+            explanation: words,
+        });
+    }
+}
+
 /// Ranks every single-fault hypothesis against `measured`; `slots` gives each coil
 /// position's (top, bottom) slots.
 pub fn locate(
@@ -267,24 +354,81 @@ pub fn locate(
             None => missing += 1,
         }
     }
-    let meas: Vec<ReadingValue> = rows.iter().map(|(_, v)| *v).collect();
-    let pairs: Vec<(usize, usize)> = rows
-        .iter()
-        .map(|(r, _)| (net.node(r.from_bar), net.node(r.to_bar)))
-        .collect();
-    let base: Vec<Option<f64>> = rows
-        .iter()
-        .map(|(r, _)| r.expected.map(|e| e / scale0))
-        .collect();
     let zv = net.inverse();
-    let z = Transfer {
-        z: &zv,
-        n: net.nodes(),
+    let problem = Problem {
+        net,
+        z: Transfer {
+            z: &zv,
+            n: net.nodes(),
+        },
+        meas: rows.iter().map(|(_, v)| *v).collect(),
+        pairs: rows
+            .iter()
+            .map(|(r, _)| (net.node(r.from_bar), net.node(r.to_bar)))
+            .collect(),
+        base: rows
+            .iter()
+            .map(|(r, _)| r.expected.map(|e| e / scale0))
+            .collect(),
     };
-    // Healthy: a robust scale, every reading within tolerance.
-    let mut ratios: Vec<f64> = meas
+    let (healthy_scale, suspect_bars) = healthy_pattern(&problem, &rows, tolerance);
+    let (healthy_score, _) = misfit(&problem.meas, &problem.base);
+
+    let mut ranking = Ranking {
+        slots,
+        faults: Vec::new(),
+        invisible: vec![0usize; FaultKind::ALL.len()],
+    };
+    for c in &net.coils {
+        coil_faults(&problem, c, &mut ranking);
+    }
+    let c_bars = net.bars;
+    for j in 1..=c_bars {
+        let k = j % c_bars + 1;
+        shorted_bars(&problem, j, k, &mut ranking);
+        crossed_lead_fault(&problem, j, k, &mut ranking);
+    }
+    let Ranking {
+        mut faults,
+        invisible,
+        ..
+    } = ranking;
+    faults.sort_by(|a, b| {
+        a.score
+            .total_cmp(&b.score)
+            .then(a.kind.cmp(&b.kind))
+            .then(a.bars.cmp(&b.bars))
+    });
+    faults.truncate(KEPT);
+    Location {
+        measured: rows,
+        missing,
+        healthy: suspect_bars.is_empty(),
+        tolerance,
+        healthy_scale: healthy_scale / scale0,
+        suspect_bars,
+        healthy_score,
+        faults,
+        invisible: FaultKind::ALL
+            .iter()
+            .zip(invisible)
+            .filter(|(_, n)| *n > 0)
+            .map(|(k, n)| (*k, n))
+            .collect(),
+    }
+}
+
+/// Healthy: a robust scale (the median of measured over expected), and the bars of every
+/// reading outside tolerance of the healthy pattern at that scale.
+fn healthy_pattern(
+    pr: &Problem,
+    rows: &[(Reading, ReadingValue)],
+    tolerance: f64,
+) -> (f64, Vec<u32>) {
+    let mut ratios: Vec<f64> = pr
+        .meas
         .iter()
-        .zip(&base)
+        .zip(&pr.base)
         .filter_map(|(m, b)| match (m, b) {
             (ReadingValue::Value(m), Some(b)) if *b > 0.0 => Some(m / b),
             _ => None,
@@ -293,7 +437,7 @@ pub fn locate(
     ratios.sort_by(f64::total_cmp);
     let healthy_scale = ratios.get(ratios.len() / 2).copied().unwrap_or(1.0);
     let mut suspect_bars = Vec::new();
-    for ((r, m), b) in rows.iter().zip(&base) {
+    for ((r, m), b) in rows.iter().zip(&pr.base) {
         let ok = match (m, b) {
             (ReadingValue::Value(m), Some(b)) => {
                 (m - healthy_scale * b).abs() <= tolerance * healthy_scale * b.max(1e-300)
@@ -307,226 +451,158 @@ pub fn locate(
     }
     suspect_bars.sort_unstable();
     suspect_bars.dedup();
-    let healthy = suspect_bars.is_empty();
-    let (healthy_score, _) = misfit(&meas, &base);
+    (healthy_scale, suspect_bars)
+}
 
-    let mut faults: Vec<Fault> = Vec::new();
-    let mut invisible = vec![0usize; FaultKind::ALL.len()];
-    let effect = |pred: &[Option<f64>]| -> f64 {
-        pred.iter()
-            .zip(&base)
-            .map(|(p, b)| match (p, b) {
-                (Some(p), Some(b)) if *b > 0.0 => (p - b).abs() / b,
-                (None, None) => 0.0,
-                (Some(_), Some(_)) => 0.0,
-                _ => f64::INFINITY,
-            })
-            .fold(0.0, f64::max)
-    };
-    // A rank-one change is seen by a reading only where w_q ≠ 0; a fixed change by its effect.
-    let seen = |w: &[f64]| w.iter().any(|w| w.abs() > 1e-9);
-    let mut push = |kind: FaultKind,
-                    coils: Vec<u32>,
-                    bars: Vec<u32>,
-                    fit: Fit,
-                    size: Option<f64>,
-                    words: String,
-                    visible: bool| {
-        if !visible {
-            invisible[kind as usize] += 1;
-            return;
-        }
-        faults.push(Fault {
-            kind,
-            slots: slots_of(&coils, slots),
-            coils,
-            bars,
-            score: fit.score,
-            size,
-            scale: fit.scale,
-            predicted: fit
-                .predicted
-                .iter()
-                .map(|p| p.map(|p| p * fit.scale))
-                .collect(),
-            explanation: words,
-        });
-    };
-    // One coil at a time.
-    for c in &net.coils {
-        let e = (net.node(c.from_bar), net.node(c.to_bar));
-        if e.0 == e.1 {
-            continue;
-        }
-        let d = z.t(e, e);
-        let w: Vec<f64> = pairs.iter().map(|&q| z.t(q, e)).collect();
-        let bars = vec![c.from_bar, c.to_bar];
-        // Open coil: Δg = −1.
-        let fit = if 1.0 - d < 1e-9 {
-            // The coil is a bridge: every reading through it opens.
-            let predicted: Vec<Option<f64>> = base
+/// The faults of one coil: open, shorted (a fitted fraction) and a high-resistance joint (a
+/// fitted extra resistance).
+fn coil_faults(pr: &Problem, c: &NetCoil, out: &mut Ranking) {
+    let e = (pr.net.node(c.from_bar), pr.net.node(c.to_bar));
+    if e.0 == e.1 {
+        return;
+    }
+    let d = pr.z.t(e, e);
+    let w = pr.transfer_to(e);
+    let bars = vec![c.from_bar, c.to_bar];
+    // Open coil: Δg = −1.
+    let fit = if 1.0 - d < 1e-9 {
+        // The coil is a bridge: every reading through it opens.
+        pr.fixed(
+            pr.base
                 .iter()
                 .zip(&w)
                 .map(|(r, w)| if w.abs() > 1e-9 { None } else { *r })
-                .collect();
-            let (score, scale) = misfit(&meas, &predicted);
-            Fit {
-                score,
-                scale,
-                tau: 0.0,
-                predicted,
-            }
-        } else {
-            let tau = -1.0 / (1.0 - d);
-            fit_rank_one(&meas, &base, &w, tau, tau)
-        };
-        push(
-            FaultKind::OpenCoil,
-            vec![c.coil],
-            bars.clone(),
-            fit,
-            None,
-            format!(
-                "coil {} open (broken or unsoldered) between bars {} and {}",
-                c.coil, c.from_bar, c.to_bar
-            ),
-            seen(&w),
-        );
-        // Shorted coil: fraction f in (0, 1], τ in [0, 1/d].
-        let fit = fit_rank_one(&meas, &base, &w, 0.0, 1.0 / d);
-        let dg = fit.tau / (1.0 - fit.tau * d).max(1e-300);
-        let f = (dg / (1.0 + dg)).clamp(0.0, 1.0);
-        push(
-            FaultKind::ShortedCoil,
-            vec![c.coil],
-            bars.clone(),
-            fit,
-            Some(f),
-            format!(
-                "coil {} shorted, about {:.0} % of it (fitted)",
-                c.coil,
-                100.0 * f
-            ),
-            seen(&w),
-        );
-        // High-resistance joint: extra x in [0, JOINT_MAX_COILS].
-        let dg_min = -JOINT_MAX_COILS / (1.0 + JOINT_MAX_COILS);
-        let lo = dg_min / (1.0 + dg_min * d);
-        let fit = fit_rank_one(&meas, &base, &w, lo, 0.0);
-        let dg = fit.tau / (1.0 - fit.tau * d);
-        let x = (-dg / (1.0 + dg)).max(0.0);
-        push(
-            FaultKind::HighResistanceJoint,
-            vec![c.coil],
-            bars,
-            fit,
-            Some(x),
-            format!(
-                "a poor riser joint of coil {} at bar {} or bar {} (the two read alike), about {:.2} coil resistances extra (fitted)",
-                c.coil, c.from_bar, c.to_bar, x
-            ),
-            seen(&w),
-        );
+                .collect(),
+        )
+    } else {
+        let tau = -1.0 / (1.0 - d);
+        fit_rank_one(&pr.meas, &pr.base, &w, tau, tau)
+    };
+    out.push(
+        FaultKind::OpenCoil,
+        vec![c.coil],
+        bars.clone(),
+        fit,
+        None,
+        format!(
+            "coil {} open (broken or unsoldered) between bars {} and {}",
+            c.coil, c.from_bar, c.to_bar
+        ),
+        seen(&w),
+    );
+    // Shorted coil: fraction f in (0, 1], τ in [0, 1/d].
+    let fit = fit_rank_one(&pr.meas, &pr.base, &w, 0.0, 1.0 / d);
+    let dg = fit.tau / (1.0 - fit.tau * d).max(1e-300);
+    let f = (dg / (1.0 + dg)).clamp(0.0, 1.0);
+    out.push(
+        FaultKind::ShortedCoil,
+        vec![c.coil],
+        bars.clone(),
+        fit,
+        Some(f),
+        format!(
+            "coil {} shorted, about {:.0} % of it (fitted)",
+            c.coil,
+            100.0 * f
+        ),
+        seen(&w),
+    );
+    // High-resistance joint: extra x in [0, JOINT_MAX_COILS].
+    let dg_min = -JOINT_MAX_COILS / (1.0 + JOINT_MAX_COILS);
+    let lo = dg_min / (1.0 + dg_min * d);
+    let fit = fit_rank_one(&pr.meas, &pr.base, &w, lo, 0.0);
+    let dg = fit.tau / (1.0 - fit.tau * d);
+    let x = (-dg / (1.0 + dg)).max(0.0);
+    out.push(
+        FaultKind::HighResistanceJoint,
+        vec![c.coil],
+        bars,
+        fit,
+        Some(x),
+        format!(
+            "a poor riser joint of coil {} at bar {} or bar {} (the two read alike), about {:.2} coil resistances extra (fitted)",
+            c.coil, c.from_bar, c.to_bar, x
+        ),
+        seen(&w),
+    );
+}
+
+/// Shorted bars: a track of fitted resistance between j and k = j + 1 (same part only: a
+/// track between two windings carries no current in any reading within one).
+fn shorted_bars(pr: &Problem, j: u32, k: u32, out: &mut Ranking) {
+    let e = (pr.net.node(j), pr.net.node(k));
+    if e.0 == e.1 || !pr.net.connected(j, k) {
+        return;
     }
-    let c_bars = net.bars;
-    for j in 1..=c_bars {
-        let k = j % c_bars + 1;
-        let e = (net.node(j), net.node(k));
-        // Shorted bars: a track of fitted resistance between j and j+1 (same part only: a
-        // track between two windings carries no current in any reading within one).
-        if e.0 != e.1 && net.connected(j, k) {
-            let d = z.t(e, e);
-            let w: Vec<f64> = pairs.iter().map(|&q| z.t(q, e)).collect();
-            let fit = fit_rank_one(&meas, &base, &w, 0.0, 1.0 / d);
-            let dg = fit.tau / (1.0 - fit.tau * d).max(1e-300);
-            let track = if dg > 0.0 { 1.0 / dg } else { f64::INFINITY };
-            push(
-                FaultKind::ShortedBars,
-                Vec::new(),
-                vec![j, k],
-                fit,
-                Some(track),
-                format!(
-                    "bars {j} and {k} joined by a mica or carbon track of about {:.3} coil resistances (fitted)",
-                    track
-                ),
-                seen(&w),
-            );
+    let d = pr.z.t(e, e);
+    let w = pr.transfer_to(e);
+    let fit = fit_rank_one(&pr.meas, &pr.base, &w, 0.0, 1.0 / d);
+    let dg = fit.tau / (1.0 - fit.tau * d).max(1e-300);
+    let track = if dg > 0.0 { 1.0 / dg } else { f64::INFINITY };
+    out.push(
+        FaultKind::ShortedBars,
+        Vec::new(),
+        vec![j, k],
+        fit,
+        Some(track),
+        format!(
+            "bars {j} and {k} joined by a mica or carbon track of about {:.3} coil resistances (fitted)",
+            track
+        ),
+        seen(&w),
+    );
+}
+
+/// Crossed leads: the lead ending at bar j and the lead starting at bar k exchanged (see
+/// [`crossed_leads`]); four terms change, through the Woodbury form.
+fn crossed_lead_fault(pr: &Problem, j: u32, k: u32, out: &mut Ranking) {
+    let net = pr.net;
+    let Some(moves) = crossed_leads(&net.coils, j, k) else {
+        return;
+    };
+    let (c1, c2) = (moves[0].1, moves[1].1);
+    let (o1, o2) = (net.coils[moves[0].0], net.coils[moves[1].0]);
+    let nodes = |c: NetCoil| (net.node(c.from_bar), net.node(c.to_bar));
+    let u = [nodes(c1), nodes(o1), nodes(c2), nodes(o2)];
+    let g = [1.0, -1.0, 1.0, -1.0];
+    let mut m = Mat::<f64>::zeros(4, 4);
+    for a in 0..4 {
+        for b in 0..4 {
+            m[(a, b)] = pr.z.t(u[a], u[b]) + if a == b { 1.0 / g[a] } else { 0.0 };
         }
-        // Crossed leads: the lead ending at bar j and the lead starting at bar k exchanged.
-        if let Some(moves) = crossed_leads(&net.coils, j, k) {
-            let (c1, c2) = (moves[0].1, moves[1].1);
-            let (o1, o2) = (net.coils[moves[0].0], net.coils[moves[1].0]);
-            let nodes = |c: NetCoil| (net.node(c.from_bar), net.node(c.to_bar));
-            let u = [nodes(c1), nodes(o1), nodes(c2), nodes(o2)];
-            let g = [1.0, -1.0, 1.0, -1.0];
-            let mut m = Mat::<f64>::zeros(4, 4);
-            for a in 0..4 {
-                for b in 0..4 {
-                    m[(a, b)] = z.t(u[a], u[b]) + if a == b { 1.0 / g[a] } else { 0.0 };
+    }
+    let inv = m.partial_piv_lu().solve(Mat::<f64>::identity(4, 4));
+    if !(0..4).all(|a| (0..4).all(|b| inv[(a, b)].abs() < 1e12)) {
+        return;
+    }
+    let predicted: Vec<Option<f64>> = pr
+        .pairs
+        .iter()
+        .zip(&pr.base)
+        .map(|(&q, r)| {
+            r.map(|r| {
+                let wq: Vec<f64> = u.iter().map(|&x| pr.z.t(q, x)).collect();
+                let mut quad = 0.0;
+                for a in 0..4 {
+                    for b in 0..4 {
+                        quad += wq[a] * inv[(a, b)] * wq[b];
+                    }
                 }
-            }
-            let inv = m.partial_piv_lu().solve(Mat::<f64>::identity(4, 4));
-            if (0..4).all(|a| (0..4).all(|b| inv[(a, b)].abs() < 1e12)) {
-                let predicted: Vec<Option<f64>> = pairs
-                    .iter()
-                    .zip(&base)
-                    .map(|(&q, r)| {
-                        r.map(|r| {
-                            let wq: Vec<f64> = u.iter().map(|&x| z.t(q, x)).collect();
-                            let mut quad = 0.0;
-                            for a in 0..4 {
-                                for b in 0..4 {
-                                    quad += wq[a] * inv[(a, b)] * wq[b];
-                                }
-                            }
-                            (r - quad).max(0.0)
-                        })
-                    })
-                    .collect();
-                let (score, scale) = misfit(&meas, &predicted);
-                let shown = effect(&predicted) > 1e-9;
-                push(
-                    FaultKind::CrossedLeads,
-                    vec![c1.coil, c2.coil],
-                    vec![j, k],
-                    Fit {
-                        score,
-                        scale,
-                        tau: 0.0,
-                        predicted,
-                    },
-                    None,
-                    format!(
-                        "the leads of coils {} and {} exchanged at bars {j} and {k}",
-                        c1.coil, c2.coil
-                    ),
-                    shown,
-                );
-            }
-        }
-    }
-    faults.sort_by(|a, b| {
-        a.score
-            .total_cmp(&b.score)
-            .then(a.kind.cmp(&b.kind))
-            .then(a.bars.cmp(&b.bars))
-    });
-    faults.truncate(KEPT);
-    Location {
-        measured: rows,
-        missing,
-        healthy,
-        tolerance,
-        healthy_scale: healthy_scale / scale0,
-        suspect_bars,
-        healthy_score,
-        faults,
-        invisible: FaultKind::ALL
-            .iter()
-            .zip(invisible)
-            .filter(|(_, n)| *n > 0)
-            .map(|(k, n)| (*k, n))
-            .collect(),
-    }
+                (r - quad).max(0.0)
+            })
+        })
+        .collect();
+    let shown = pr.effect(&predicted) > 1e-9;
+    out.push(
+        FaultKind::CrossedLeads,
+        vec![c1.coil, c2.coil],
+        vec![j, k],
+        pr.fixed(predicted),
+        None,
+        format!(
+            "the leads of coils {} and {} exchanged at bars {j} and {k}",
+            c1.coil, c2.coil
+        ),
+        shown,
+    );
 }
