@@ -164,7 +164,7 @@ fn checks_fail_where_the_winding_does() {
     let mut w = c.winding.clone();
     let k = &mut w.connections[58];
     k.end_segment = Some(k.end_segment.unwrap() % 58 + 1);
-    let f = armsheet::checks::run_checks(&c.design, &w)
+    let f = armsheet::checks::run_checks(&c.design, &w, None)
         .into_iter()
         .find(|f| f.id == "frogleg.self-equalizing")
         .unwrap();

@@ -251,7 +251,7 @@ fn trace_cross_checks() {
     }
     let c = checked(&toml);
     let run = |w: &armsheet::winding::Winding, id: &str| {
-        run_checks(&c.design, w)
+        run_checks(&c.design, w, None)
             .into_iter()
             .find(|f| f.id == id)
             .unwrap()
@@ -382,7 +382,7 @@ fn frog_leg_rules() {
     case("frogleg.one-neutral", Absent, &lap(4, 36, 1, 9, 1, ""));
     let c = checked(&toml);
     let run = |w: &armsheet::winding::Winding, id: &str| {
-        run_checks(&c.design, w)
+        run_checks(&c.design, w, None)
             .into_iter()
             .find(|f| f.id == id)
             .unwrap()

@@ -37,8 +37,8 @@ pub struct Checked {
     pub rating: Option<RatingReport>,
     /// The rule findings in report order, rating findings last.
     pub findings: Vec<Finding>,
-    /// Whether the paths are symmetric by the exact symmetry test (`symmetry.exact`): the
-    /// armature's rotations carry each path onto another ([`Winding::exact_symmetric`]).
+    /// Whether the paths are symmetric: the textbook rule passes, or the exact structural test
+    /// (`symmetry.exact`, [`Winding::exact_symmetric`]) rescues a winding the rule refuses.
     pub symmetric: bool,
 }
 
@@ -53,8 +53,8 @@ impl Checked {
 pub fn check(design: Design) -> Checked {
     let winding = trace_winding(&design);
     let rating = rate(&design, &winding);
-    let mut findings = run_checks(&design, &winding);
-    let symmetric = winding.exact_symmetric();
+    let mut findings = run_checks(&design, &winding, rating.as_ref());
+    let symmetric = symmetry::symmetric(&design, &winding);
     if let Some(r) = &rating {
         findings.extend(findings_of(r));
     }
@@ -69,10 +69,14 @@ pub fn check(design: Design) -> Checked {
 
 /// Runs every winding rule family in a fixed order (the rating's findings are added by
 /// [`check`]).
-pub fn run_checks(design: &Design, winding: &Winding) -> Vec<Finding> {
+pub fn run_checks(
+    design: &Design,
+    winding: &Winding,
+    rating: Option<&RatingReport>,
+) -> Vec<Finding> {
     let mut out = Vec::new();
     span::check(design, winding, &mut out);
-    symmetry::check(design, winding, &mut out);
+    symmetry::check(design, winding, rating, &mut out);
     match design.winding_type {
         WindingType::Lap => lap::check(design, winding, &mut out),
         WindingType::Wave => wave::check(design, winding, &mut out),

@@ -3,37 +3,24 @@
 //!
 //! Part of the `checks` stage.
 //!
-//! ## The exact test [derived]
-//! The field and the brushes repeat, with the polarity reversed, every pole pitch. Turning the
-//! armature k slots keeps every coil under the same field (up to sign) when k·P ≡ 0 (mod S).
-//! A closed winding W is *carried onto* a closed winding W' by a segment shift j when, for every
-//! coil of W, the coil whose start lead is j segments on lies in W' exactly k slots on (one
-//! such k for all of W). Every path of W then goes where its middle coil goes, onto a path of
-//! W'; the relation sorts the paths into classes ([`path_classes`]).
+//! ## Who decides
+//! The textbook rule decides (Arnold's conditions: C, S and, for a wave, p per pair of paths
+//! whole). The exact structural test (the path classes the engine finds, see
+//! [`crate::winding::PathClasses`] and docs/domain.md, "Symmetry") may *rescue* a winding the
+//! rule refuses, when rotations through whole pole pitches carry every path onto another: the
+//! failed conditions are then warnings. It never condemns a winding the rule passes: there its
+//! finding is information, and what it sees (paths equal only up to the coils under
+//! commutation) is ripple, which `symmetry.simulated-balance` sizes as a share of the path
+//! EMF and, with a rating, as the current it would drive round two paths.
 //!
-//! - When every map used moves each coil n to n + k·u (a rigid rotation of the whole armature,
-//!   which then maps slots, coils and segments onto themselves and keeps every connection) and
-//!   joins all paths into one class, the paths carry one EMF at every rotor position, whatever
-//!   the brushes short: [`Congruence::Proven`].
-//! - Two looser congruences hold the paths equal only where the brushes cut them among coils
-//!   that carry no EMF: paths joined through the u coils of a slot, which share a centre line
-//!   (with m dividing u the m closed windings lie in the same slots, k = 0, j not a rigid
-//!   shift); and two classes of a/2 paths, one for each current sense, paired by the two layers
-//!   (a path with its top sides under the north poles and one with its top sides under the
-//!   south poles have the tops of one where the bottoms of the other are). These are
-//!   [`Congruence::UpToCommutation`] and pass only when the simulated balance over a whole
-//!   period confirms them: a short pitch, brushes off neutral or a dummy coil leave EMF in the
-//!   coils under commutation and the simulation sees it.
-//! - Otherwise some paths have no congruent partner and the winding is unsymmetrical.
-//!
-//! The test sets `Checked.symmetric` and the exit code (`symmetry.exact`, an error). Arnold's
-//! conditions stay in the report as the textbook rule: errors where the exact test fails too,
-//! warnings where it passes, and the exact finding says whether the two agree.
+//! [`symmetric`] is the verdict (`Checked.symmetric`); the exit code follows the rule's errors
+//! and, where the rule fails, the exact test's.
 
 use super::sources::{EXACT_SYMMETRY as EXACT_SOURCE, SIMULATION, SYMMETRY};
 use super::{Finding, Severity};
 use crate::base::number::fmt_fixed;
 use crate::design::Design;
+use crate::rating::RatingReport;
 use crate::winding::{Congruence, Winding, WindingElement};
 
 /// The ids of the classical symmetry conditions.
@@ -57,11 +44,68 @@ fn ratio(num: u32, den: u32) -> String {
     fmt_fixed(f64::from(num) / f64::from(den), 2)
 }
 
-pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
+pub(super) fn check(
+    d: &Design,
+    w: &Winding,
+    rating: Option<&RatingReport>,
+    out: &mut Vec<Finding>,
+) {
     for e in &w.elements {
         check_element(d, w, e, out);
     }
-    balance(w, out);
+    balance(d, w, rating, out);
+}
+
+/// The symmetry verdict: for every element, the textbook rule passes, or it fails and the
+/// exact structural test rescues it. The exact test never condemns a winding the rule passes.
+pub fn symmetric(d: &Design, w: &Winding) -> bool {
+    w.elements
+        .iter()
+        .all(|e| rule(d, w, e).iter().all(|(_, ok, _)| *ok) || exact_of(w, e))
+}
+
+/// The exact test's verdict for element `e`.
+fn exact_of(w: &Winding, e: &WindingElement) -> bool {
+    e.path_classes
+        .symmetric(w.element_paths(e) as usize, w.balance.balanced)
+}
+
+/// The textbook rule for element `e`: each condition's id, whether it holds, and its numbers.
+fn rule(d: &Design, w: &Winding, e: &WindingElement) -> Vec<(&'static str, bool, String)> {
+    let a = w.element_paths(e);
+    let pairs = a / 2;
+    let c = w.active_coils;
+    let p = d.pole_pairs();
+    let mut rule = vec![
+        (
+            IDS[0],
+            whole(c, pairs),
+            format!(
+                "coils per pair of paths C/(a/2) = {c}/{pairs} = {}; must be whole",
+                ratio(c, pairs)
+            ),
+        ),
+        (
+            IDS[1],
+            whole(d.slots, pairs),
+            format!(
+                "slots per pair of paths S/(a/2) = {}/{pairs} = {}; must be whole",
+                d.slots,
+                ratio(d.slots, pairs)
+            ),
+        ),
+    ];
+    if e.kind.kind().symmetry_counts_pole_pairs() {
+        rule.push((
+            IDS[2],
+            whole(p, pairs),
+            format!(
+                "pole pairs per pair of paths p/(a/2) = {p}/{pairs} = {}; must be whole",
+                ratio(p, pairs)
+            ),
+        ));
+    }
+    rule
 }
 
 /// Arnold's conditions and the exact test for element `e` (the whole winding when it has one
@@ -76,49 +120,14 @@ fn check_element(d: &Design, w: &Winding, e: &WindingElement, out: &mut Vec<Find
         }
     };
     let a = w.element_paths(e);
-    let pairs = a / 2;
-    let c = w.active_coils;
-    let p = d.pole_pairs();
     let classes = &e.path_classes;
     let congruence = classes.congruence(a as usize);
-    let exact = classes.symmetric(a as usize, w.balance.balanced);
-    let mut rule = Vec::new();
-    rule.push((
-        IDS[0],
-        whole(c, pairs),
-        format!(
-            "coils per pair of paths C/(a/2) = {c}/{pairs} = {}; must be whole",
-            ratio(c, pairs)
-        ),
-    ));
-    rule.push((
-        IDS[1],
-        whole(d.slots, pairs),
-        format!(
-            "slots per pair of paths S/(a/2) = {}/{pairs} = {}; must be whole",
-            d.slots,
-            ratio(d.slots, pairs)
-        ),
-    ));
-    let counts_pole_pairs = if multi {
-        e.kind.kind().symmetry_counts_pole_pairs()
-    } else {
-        d.winding_type.kind().symmetry_counts_pole_pairs()
-    };
-    if counts_pole_pairs {
-        rule.push((
-            IDS[2],
-            whole(p, pairs),
-            format!(
-                "pole pairs per pair of paths p/(a/2) = {p}/{pairs} = {}; must be whole",
-                ratio(p, pairs)
-            ),
-        ));
-    }
+    let exact = exact_of(w, e);
+    let rule = rule(d, w, e);
     let rule_ok = rule.iter().all(|(_, ok, _)| *ok);
     for (id, ok, message) in rule {
-        // The textbook rule sets the exit code only where the exact test agrees that it fails;
-        // where the exact test passes, a failed condition is a warning.
+        // The textbook rule decides; where it fails and the exact test finds the paths
+        // symmetric, the exact test rescues the winding and a failed condition is a warning.
         let (severity, message) = if !ok && exact {
             (
                 Severity::Warning,
@@ -140,9 +149,9 @@ fn check_element(d: &Design, w: &Winding, e: &WindingElement, out: &mut Vec<Find
     let agree = if exact == rule_ok {
         "agrees with the textbook rule"
     } else if exact {
-        "the textbook rule fails: the two disagree and the exact test decides"
+        "the textbook rule fails and the exact test rescues the winding"
     } else {
-        "the textbook rule passes: the two disagree and the exact test decides"
+        "the textbook rule passes and decides: what the exact test sees is ripple from the coils under commutation, not a fault of the connection (see symmetry.simulated-balance)"
     };
     let n_classes = classes.classes.len();
     let why = match congruence {
@@ -165,18 +174,26 @@ fn check_element(d: &Design, w: &Winding, e: &WindingElement, out: &mut Vec<Find
             sizes.join(" + ")
         ),
     };
+    // The exact test may rescue a winding the rule refuses; it never condemns one the rule
+    // passes, so it is only information there.
+    let severity = if rule_ok {
+        Severity::Info
+    } else {
+        Severity::Error
+    };
     out.push(Finding::new(
         EXACT,
-        Severity::Error,
+        severity,
         exact,
         label(format!("exact symmetry of the {a} paths: {why}; {agree}")),
         EXACT_SOURCE,
     ));
 }
 
-/// The simulated balance over every path.
-fn balance(w: &Winding, out: &mut Vec<Finding>) {
-    let exact = w.exact_symmetric();
+/// The simulated balance over every path, as a share of the path EMF and, when the rating
+/// gives the EMF and the resistance, as the current it would drive round two paths.
+fn balance(d: &Design, w: &Winding, rating: Option<&RatingReport>, out: &mut Vec<Finding>) {
+    let symmetric = symmetric(d, w);
     let b = &w.balance;
     let sim = format!(
         "simulated path EMFs differ by {} coil EMFs on average ({} at worst) over {} rotor positions",
@@ -184,20 +201,52 @@ fn balance(w: &Winding, out: &mut Vec<Finding>) {
         fmt_fixed(b.peak_spread_coils, 2),
         b.samples
     );
-    let verdict = match (exact, b.balanced) {
-        (true, true) => "balanced; agrees with the exact symmetry test".to_string(),
-        (false, false) => "unbalanced; agrees with the exact symmetry test".to_string(),
+    // The mean path EMF at the reference position, in coil EMFs (2 conductor units each).
+    let paths = w.paths.len().max(1) as f64;
+    let path_emf = w
+        .paths
+        .iter()
+        .map(|p| p.emf_units.abs() as f64)
+        .sum::<f64>()
+        / paths
+        / 2.0;
+    let share =
+        (path_emf > 0.0 && b.mean_spread_coils > 0.0).then(|| b.mean_spread_coils / path_emf);
+    let mut size = share.map_or(String::new(), |x| {
+        format!(" ({} % of the path EMF", fmt_fixed(100.0 * x, 1))
+    });
+    if let (Some(x), Some(r)) = (share, rating) {
+        let emf = r.emf.as_ref().map(|e| e.emf_v).filter(|e| *e > 0.0);
+        let path_r = r
+            .resistance
+            .as_ref()
+            .map(|k| k.hot_ohm * f64::from(r.paths));
+        if let (Some(e), Some(rp)) = (emf, path_r.filter(|v| *v > 0.0)) {
+            size.push_str(&format!(
+                "; at {} V and {} ohm a path it would drive about {} A round two paths",
+                fmt_fixed(e, 1),
+                fmt_fixed(rp, 4),
+                fmt_fixed(x * e / (2.0 * rp), 2)
+            ));
+        }
+    }
+    if !size.is_empty() {
+        size.push(')');
+    }
+    let verdict = match (symmetric, b.balanced) {
+        (true, true) => "balanced; agrees with the symmetry verdict".to_string(),
+        (false, false) => "unbalanced; agrees with the symmetry verdict".to_string(),
         (true, false) => format!(
-            "unbalanced by more than {} coil EMF, although the exact symmetry test passes: the two disagree; the brushes are probably off neutral",
+            "unbalanced by more than {} coil EMF on average although the winding is symmetric: ripple at bar frequency from the coils under commutation (a dummy coil, a short or long pitch, or brushes off neutral leave EMF in them)",
             crate::winding::BALANCE_TOLERANCE,
         ),
-        (false, true) => "balanced on average, although the exact symmetry test fails: the two disagree; the simulation sees only EMF, not the circulating currents an unsymmetrical winding carries, so follow the exact test".to_string(),
+        (false, true) => "balanced on average, although the winding is unsymmetrical: the simulation sees only EMF, not the circulating currents an unsymmetrical winding carries".to_string(),
     };
     out.push(Finding::new(
         "symmetry.simulated-balance",
         Severity::Warning,
         b.balanced,
-        format!("{sim}: {verdict}"),
+        format!("{sim}{size}: {verdict}"),
         SIMULATION,
     ));
 }
