@@ -136,6 +136,8 @@ fn span_rules() {
     // Source: the span is kept near one pole pitch (common practice; textbook winding chapters).
     case("span.pole-pitch", Pass, &lap(4, 36, 1, 9, 1, ""));
     case("span.pole-pitch", Fail, &lap(4, 36, 1, 5, 1, ""));
+    case("span.opposite-poles", Pass, &lap(4, 36, 1, 9, 1, ""));
+    case("span.opposite-poles", Fail, &lap(4, 24, 1, 12, 1, ""));
     let no_span = "[armature]\npoles = 4\nslots = 36\n\n[winding]\ntype = \"lap\"\nturns = 2\n";
     case("span.default", Pass, no_span);
     case("span.default", Absent, &lap(4, 36, 1, 9, 1, ""));

@@ -7,6 +7,8 @@ pub const PITCH_TEXTS: &str = "standard textbook relations (e.g. Theraja, Electr
 /// Arnold's symmetry conditions.
 pub const SYMMETRY: &str =
     "classical symmetry conditions, usually credited to Arnold [from memory, not verified]";
+/// The span's electrical angle between 90 and 270 degrees.
+pub const SPAN_OPPOSITE: &str = "coil sides under poles of opposite polarity, pitch factor sin(y*90/tau) [textbook relation; the half and one and a half pole-pitch limits derived]";
 /// The span rule.
 pub const SPAN: &str = "full-pitch or slightly short-pitched coils [common practice]";
 /// Type-A equalizers.

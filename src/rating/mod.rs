@@ -311,7 +311,9 @@ fn emf_block(
         w.paths_formula.max(1),
         w.constants.machine_constant,
     );
-    let flux_wb = d.flux_per_pole_mwb.map(|f| f / 1000.0);
+    // The coils link only `linkage` of the pole flux: the flux that counts is linkage·Φ.
+    let linkage = w.constants.flux_linkage;
+    let flux_wb = d.flux_per_pole_mwb.map(|f| f / 1000.0 * linkage);
     let (basis, e, ir, ir_known, drop) = match (voltage, flux_wb, d.speed_rpm) {
         (Some(v), _, _) => {
             let ir = current.zip(r).map(|(i, r)| i * r.hot_ohm);
@@ -353,7 +355,7 @@ fn emf_block(
         .filter(|_| usable && basis == EmfBasis::Terminal)
         .map(|n| emf::flux_for(d.poles, z, a, e, n));
     let speed_at_flux = flux_wb
-        .filter(|_| usable && basis == EmfBasis::Terminal)
+        .filter(|f| usable && basis == EmfBasis::Terminal && *f > 0.0)
         .map(|f| emf::speed_for(d.poles, z, a, e, f));
     let k_phi = flux_wb.or(flux_needed).map(|f| k * f);
     Some(Emf {
@@ -365,7 +367,10 @@ fn emf_block(
         brush_drop_v: drop,
         brush_grade: grade,
         emf_v: e,
-        flux_needed_mwb: flux_needed.map(|f| f * 1000.0),
+        // The pole flux that gives the linked flux needed.
+        flux_needed_mwb: flux_needed
+            .filter(|_| linkage > 0.0)
+            .map(|f| f / linkage * 1000.0),
         speed_at_flux_rpm: speed_at_flux,
         k_phi,
         v_per_1000_rpm: k_phi.map(emf::v_per_1000_rpm),

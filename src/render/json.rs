@@ -67,6 +67,7 @@ struct ReportJson<'a> {
     equalizer_status: EqualizerStatus<'a>,
     equalizers: Option<EqualizersJson<'a>>,
     file: &'a str,
+    flux_linkage: f64,
     #[serde(skip_serializing_if = "Option::is_none")]
     flux_per_pole_mwb: Option<Option<f64>>,
     front_pitch: i64,
@@ -181,6 +182,7 @@ impl<'a> ReportJson<'a> {
             equalizer_status,
             equalizers,
             file: &d.file_name,
+            flux_linkage: round_to(k.flux_linkage, 6),
             flux_per_pole_mwb: with_flux(round(d.flux_per_pole_mwb, 6)),
             front_pitch: p.front,
             job: JobJson::from(&d.job),

@@ -336,6 +336,22 @@ fn constants(s: &mut String, d: &Design, w: &Winding) {
             fmt_fixed(k.machine_constant, 4)
         ),
     );
+    if k.flux_linkage < 1.0 {
+        row(
+            s,
+            "flux linked",
+            format!(
+                "{} of the pole flux: the span ({} slots, {} pole pitches) against a pole arc of {}; the constants and E below use it",
+                fmt_fixed(k.flux_linkage, 3),
+                d.span,
+                fmt_fixed(
+                    f64::from(d.span) * f64::from(d.poles) / f64::from(d.slots),
+                    3
+                ),
+                fmt_fixed(d.pole_arc, 2)
+            ),
+        );
+    }
     match (k.emf_constant_v_per_rad_s, d.flux_per_pole_mwb) {
         (Some(kphi), Some(flux)) => {
             row(s, "flux per pole", format!("{} mWb", fmt_fixed(flux, 3)));

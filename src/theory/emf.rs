@@ -36,3 +36,15 @@ pub const RAD_S_PER_RPM: f64 = 2.0 * PI / 60.0;
 pub fn v_per_1000_rpm(k_phi: f64) -> f64 {
     k_phi * 1000.0 * RAD_S_PER_RPM
 }
+
+/// The share of a pole's flux a coil of span `span_pole_pitches` (its sides' distance in pole
+/// pitches, reduced to 0…2) links at most, under a flat-topped field over `pole_arc` of each
+/// pole pitch: centred on a pole axis it takes in min(y, ψ) of its own pole's arc and, once
+/// y > 2 − ψ, reaches y − (2 − ψ) into the two neighbours' arcs of the other polarity, so
+/// k = (min(y, ψ) − max(0, y − 2 + ψ))/ψ, 0 to 1 [derived; docs/domain.md, "Coil span limits"].
+/// A commutated coil's mean EMF is proportional to the flux it links at most, so E = k·K·Φ·ω.
+pub fn flux_linkage(span_pole_pitches: f64, pole_arc: f64) -> f64 {
+    let y = span_pole_pitches.rem_euclid(2.0);
+    let psi = pole_arc.clamp(1e-9, 1.0);
+    ((y.min(psi) - (y - 2.0 + psi).max(0.0)) / psi).clamp(0.0, 1.0)
+}

@@ -89,7 +89,8 @@ pub fn trace_winding(design: &Design) -> Winding {
         .iter()
         .map(|e| 2 * u64::from(c) * u64::from(e.turns))
         .sum();
-    let constants = constants::machine_constants(d, conductors, cut.paths.len() as u32);
+    let linkage = constants::flux_linkage_of(d, &connections[0]);
+    let constants = constants::machine_constants(d, conductors, cut.paths.len() as u32, linkage);
     let (segment1_deg, lead_swing) = brushes::lead_swing(d, &geo, placed.neutral);
     let mut w = Winding {
         coils: d.coil_positions(),

@@ -263,6 +263,9 @@ pub struct PathBalance {
 pub struct Constants {
     /// K = P·Z/(2π·a), per rad/s per Wb.
     pub machine_constant: f64,
+    /// The share of the pole flux the coils link at most, 0 to 1 (1 unless the span falls
+    /// short of the pole arc or reaches into the next poles); the constants below use it.
+    pub flux_linkage: f64,
     /// K·Φ, V per rad/s (needs a flux).
     pub emf_constant_v_per_rad_s: Option<f64>,
     /// K·Φ·2π·1000/60, V per 1000 rpm (needs a flux).
