@@ -53,7 +53,9 @@ fn emfs(w: &Winding) -> Vec<f64> {
 fn four_pole_58_bar_worked_example() {
     // 4 poles, 58 bars [derived; docs/domain.md, "Frog-leg windings"]: lap throw 1-2; wave
     // y_c = (58 - 2)/2 = 28, throw 1-29; gcd(58, 28) = 2, doubly re-entrant; a = 2 x 1 x 4 = 8.
-    let c = checked(&frog(4, 58, 1, 14, ""));
+    // The pole pitch is 14.5 slots: lap span 14 and wave span 15 make two pole pitches, so the
+    // loop of a lap and a wave coil between bars two pole pitches apart holds no EMF.
+    let c = checked(&frog(4, 58, 1, 14, "wave_span = 15\n"));
     let w = &c.winding;
     assert_eq!(c.design.winding_type, WindingType::FrogLeg);
     assert_eq!(w.active_coils, 58);
@@ -78,6 +80,14 @@ fn four_pole_58_bar_worked_example() {
         let f = c.findings.iter().find(|f| f.id == id).unwrap();
         assert!(f.passed, "{id}: {}", f.message);
     }
+    // Equal spans on a pole pitch of 14.5 slots leave EMF in that loop: not self-equalizing.
+    let c = checked(&frog(4, 58, 1, 14, ""));
+    let f = c
+        .findings
+        .iter()
+        .find(|f| f.id == "frogleg.self-equalizing")
+        .unwrap();
+    assert!(!f.passed && c.has_errors(), "{}", f.message);
 }
 
 #[test]

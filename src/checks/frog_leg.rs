@@ -7,6 +7,7 @@
 
 use super::sources::{FROG_LEG, FROG_LEG_DERIVED};
 use super::{Finding, Severity};
+use crate::base::number::fmt_fixed;
 use crate::design::Design;
 use crate::theory::WindingType;
 use crate::winding::{Connection, Winding, WindingElement};
@@ -33,7 +34,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         ),
         FROG_LEG,
     ));
-    out.push(self_equalizing(w, lap, wave, c, p));
+    out.push(self_equalizing(d, w, lap, wave, c, p));
     out.push(one_neutral(d, w, lap, wave));
     out.push(element_paths(d, lap, wave));
     let r = wave.reentrancy;
@@ -126,58 +127,181 @@ fn rows<'a>(w: &'a Winding, e: &WindingElement) -> &'a [Connection] {
     &w.connections[first..first + e.coils as usize]
 }
 
-/// y_c(lap) + |y_c(wave)| = C/p, read off the traced connections: from every bar, the lap coil
-/// that starts there and the wave coil that starts where it ends reach the bar two pole
-/// pitches on [derived; docs/domain.md, "Frog-leg windings"].
+/// Self-equalizing, read off the traced winding in two steps [derived; docs/domain.md,
+/// "Frog-leg equalizing"]:
+/// - y_c(lap) + |y_c(wave)| = C/p: from every bar, the lap coil that starts there and the wave
+///   coil that starts where it ends reach the bar two pole pitches on;
+/// - that lap coil and wave coil, in series between bars two pole pitches apart (which the lap
+///   element holds at one potential), enclose no EMF at any rotor angle, worked from their
+///   traced slot positions under a flat-topped field over the pole arc and under a sinusoidal
+///   field ([`loop_emf`]).
 fn self_equalizing(
+    d: &Design,
     w: &Winding,
     lap: &WindingElement,
     wave: &WindingElement,
     c: u32,
     p: u32,
 ) -> Finding {
-    let starts = |e: &WindingElement| {
+    let coil_from = |e: &WindingElement| {
         let mut by_bar = vec![None; c as usize];
         for k in rows(w, e) {
-            if let (Some(a), Some(b)) = (k.start_segment, k.end_segment) {
-                by_bar[(a - 1) as usize] = Some(b);
+            if let (Some(a), Some(_)) = (k.start_segment, k.end_segment) {
+                by_bar[(a - 1) as usize] = Some(k);
             }
         }
         by_bar
     };
-    let (lap_to, wave_to) = (starts(lap), starts(wave));
+    let (lap_from, wave_from) = (coil_from(lap), coil_from(wave));
     let pair = c / p;
-    let reach = |bar: u32| {
-        let mid = lap_to[(bar - 1) as usize]?;
-        wave_to[(mid - 1) as usize]
+    // The lap coil from `bar` and the wave coil from where it ends.
+    let series = |bar: u32| {
+        let l = lap_from[(bar - 1) as usize]?;
+        let wv = wave_from[(l.end_segment? - 1) as usize]?;
+        Some((l, wv))
     };
+    let reach = |bar: u32| series(bar).and_then(|(_, wv)| wv.end_segment);
     let wrong: Vec<u32> = (1..=c)
         .filter(|&b| reach(b) != Some((b - 1 + pair) % c + 1))
         .collect();
     let (yl, yw) = (lap.pitches.commutator, wave.pitches.commutator);
     let first = reach(1).map_or("nowhere".to_string(), |b| format!("bar {b}"));
-    let message = if wrong.is_empty() {
+    if !wrong.is_empty() {
+        return Finding::new(
+            "frogleg.self-equalizing",
+            Severity::Error,
+            false,
+            format!(
+                "not self-equalizing: y_c(lap) + |y_c(wave)| = {yl} + {} = {}, but C/p = {pair}; from {} of {c} bars a lap coil and a wave coil in series miss the bar two pole pitches on (from bar 1: {first}, not bar {})",
+                yw.abs(),
+                yl + yw.abs(),
+                wrong.len(),
+                pair % c + 1
+            ),
+            FROG_LEG_DERIVED,
+        );
+    }
+    // The worst loop over every bar, as a share of one lap coil's peak EMF.
+    let (mut worst, mut at) = ((0.0f64, 0.0f64), 1u32);
+    for bar in 1..=c {
+        if let Some((l, wv)) = series(bar) {
+            let x = loop_emf(d, w, (l, lap.turns), (wv, wave.turns));
+            if x.0.max(x.1) > worst.0.max(worst.1) + 1e-12 {
+                (worst, at) = (x, bar);
+            }
+        }
+    }
+    let ok = worst.0.max(worst.1) < 1e-6;
+    let tau = f64::from(d.slots) / f64::from(d.poles);
+    let spans = format!(
+        "spans {} + {} slots on a pole pitch of {} slots",
+        lap.pitches.span,
+        wave.pitches.span,
+        fmt_fixed(tau, 2)
+    );
+    let message = if ok {
         format!(
-            "self-equalizing: y_c(lap) + |y_c(wave)| = {yl} + {} = {} = C/p; from every bar a lap coil and a wave coil in series reach the bar two pole pitches ({pair} bars) on (from bar 1: {first})",
+            "self-equalizing: y_c(lap) + |y_c(wave)| = {yl} + {} = {} = C/p; from every bar a lap coil and a wave coil in series reach the bar two pole pitches ({pair} bars) on (from bar 1: {first}), and their loop encloses no EMF at any rotor angle ({spans})",
             yw.abs(),
             yl + yw.abs()
         )
     } else {
+        let (l, wv) = series(at).expect("the worst loop was found on a traced series");
         format!(
-            "not self-equalizing: y_c(lap) + |y_c(wave)| = {yl} + {} = {}, but C/p = {pair}; from {} of {c} bars a lap coil and a wave coil in series miss the bar two pole pitches on (from bar 1: {first}, not bar {})",
-            yw.abs(),
-            yl + yw.abs(),
-            wrong.len(),
-            pair % c + 1
+            "not self-equalizing: the lap coil {} (slots {}-{}, {} turn(s)) and the wave coil {} (slots {}-{}, {} turn(s)) in series from bar {at} to the bar two pole pitches on enclose up to {} % of a lap coil's EMF (flat-topped field; {} % sinusoidal), which circulates current through the brushes; the loop is free of EMF when lap span + wave span = two pole pitches with whole slots per pole pair, or the spans are equal with whole slots per pole ({spans}), and equal turns",
+            l.coil,
+            l.top.slot,
+            l.bottom.slot,
+            lap.turns,
+            wv.coil,
+            wv.top.slot,
+            wv.bottom.slot,
+            wave.turns,
+            fmt_fixed(100.0 * worst.0, 1),
+            fmt_fixed(100.0 * worst.1, 1)
         )
     };
     Finding::new(
         "frogleg.self-equalizing",
         Severity::Error,
-        wrong.is_empty(),
+        ok,
         message,
         FROG_LEG_DERIVED,
     )
+}
+
+/// The largest EMF round the loop of two coils in series, each traversed from its start lead
+/// to its end lead, as a share of the first coil's peak EMF: (flat-topped field over the pole
+/// arc, sinusoidal field). A side at angle θ_s sees B(θ_s + φ) at rotor angle φ; a coil's EMF
+/// is N·(B(top) − B(bottom)). Under the flat field the loop EMF changes only where a side
+/// crosses a pole tip, so it is evaluated once between each pair of neighbouring crossings over
+/// two pole pitches (exact); under the sinusoidal field it is one sinusoid, whose amplitude is
+/// the length of the sum of the sides' phasors.
+fn loop_emf(d: &Design, w: &Winding, a: (&Connection, u32), b: (&Connection, u32)) -> (f64, f64) {
+    let s = f64::from(d.slots);
+    let poles = f64::from(d.poles);
+    let pitch = 360.0 / poles;
+    let axis = w.pole_axes_deg[0];
+    let angle = |slot: u32| f64::from(slot - 1) * 360.0 / s;
+    // (angle, signed turns) of each side: + for a top side, − for a bottom side.
+    let sides = [
+        (angle(a.0.top.slot), f64::from(a.1)),
+        (angle(a.0.bottom.slot), -f64::from(a.1)),
+        (angle(b.0.top.slot), f64::from(b.1)),
+        (angle(b.0.bottom.slot), -f64::from(b.1)),
+    ];
+    let half_arc = d.pole_arc * pitch / 2.0;
+    let flat = |x: f64| {
+        let rel = (x - axis).rem_euclid(360.0);
+        let j = ((rel + pitch / 2.0) / pitch).floor();
+        if (rel - j * pitch).abs() < half_arc {
+            if (j as i64).rem_euclid(2) == 0 {
+                1.0
+            } else {
+                -1.0
+            }
+        } else {
+            0.0
+        }
+    };
+    // Rotor angles where some side meets some pole tip, over two pole pitches.
+    let period = 2.0 * pitch;
+    let mut cuts: Vec<f64> = Vec::new();
+    for (theta, _) in sides {
+        for k in 0..2 {
+            let centre = axis + f64::from(k) * pitch;
+            for tip in [centre - half_arc, centre + half_arc] {
+                cuts.push((tip - theta).rem_euclid(period));
+            }
+        }
+    }
+    cuts.sort_by(f64::total_cmp);
+    cuts.push(cuts[0] + period);
+    let peak_a = 2.0 * f64::from(a.1);
+    // Crossings closer than a rounding error are one crossing: a zero-width interval between
+    // them would sit on a pole tip, where rounding alone decides which side of it a side is.
+    let flat_max = cuts
+        .windows(2)
+        .filter(|x| x[1] - x[0] > 1e-9)
+        .map(|x| {
+            let phi = (x[0] + x[1]) / 2.0;
+            sides
+                .iter()
+                .map(|(t, n)| n * flat(t + phi))
+                .sum::<f64>()
+                .abs()
+        })
+        .fold(0.0, f64::max)
+        / peak_a;
+    let (re, im) = sides.iter().fold((0.0, 0.0), |(re, im), (t, n)| {
+        let e = (t - axis).to_radians() * poles / 2.0;
+        (re + n * e.cos(), im + n * e.sin())
+    });
+    let sine_peak = {
+        // One coil at full pitch: amplitude 2·N.
+        (re * re + im * im).sqrt() / peak_a
+    };
+    (flat_max, sine_peak)
 }
 
 /// Both elements have the same number of paths, so m_wave = m_lap·p and a = 2·m·P, as traced.
