@@ -34,7 +34,7 @@ fn engine_and_checks(bencher: divan::Bencher, segments: u32) {
     let d = lap_design(segments);
     bencher.bench(|| {
         let w = trace_winding(divan::black_box(&d));
-        run_checks(&d, &w)
+        run_checks(&d, &w, None)
     });
 }
 
