@@ -72,8 +72,7 @@ fn sampled_loop(c: &Checked) -> (f64, f64) {
     }
     let angle = |slot: u32| f64::from(slot - 1) * 360.0 / s;
     let (mut worst_sine, mut worst_flat) = (0.0f64, 0.0f64);
-    for bar in 0..bars {
-        let Some(l) = lap_from[bar] else { continue };
+    for l in lap_from.iter().flatten() {
         let Some(v) = wave_from[(l.end_segment.unwrap() - 1) as usize] else {
             continue;
         };
