@@ -222,7 +222,7 @@ fn finding<'a>(c: &'a Checked, id: &str) -> &'a armsheet::checks::Finding {
 fn classical_rule(c: &Checked) -> bool {
     let w = &c.winding;
     let pairs = (w.paths.len() / 2) as u32;
-    let whole = |x: u32| pairs > 0 && x % pairs == 0;
+    let whole = |x: u32| pairs > 0 && x.is_multiple_of(pairs);
     let wave = w.elements[0].pitches.commutator.unsigned_abs() as u32 > c.design.multiplicity;
     whole(w.active_coils) && whole(c.design.slots) && (!wave || whole(c.design.poles / 2))
 }

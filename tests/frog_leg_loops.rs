@@ -151,7 +151,7 @@ proptest! {
         prop_assert_eq!(passes, sine < 1e-6 && flat < 1e-6, "{}\nsine {} flat {}", text, sine, flat);
         // The rule agrees.
         let two_pitches = u64::from(span + wave_span) * u64::from(poles) == 2 * u64::from(slots);
-        let rule = (two_pitches && slots % p == 0) || (span == wave_span && slots % poles == 0);
+        let rule = (two_pitches && slots.is_multiple_of(p)) || (span == wave_span && slots.is_multiple_of(poles));
         prop_assert_eq!(passes, rule, "{}", text);
     }
 }
