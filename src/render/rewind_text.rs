@@ -6,9 +6,9 @@
 use std::fmt::Write;
 
 use crate::base::caution::CAUTIONS;
-use crate::base::number::fmt_fixed;
+use crate::base::number::{fmt_fixed, fmt_signed};
 use crate::base::visible::visible;
-use crate::features::rewind::{NoLoadTest, RewindPlan, signed};
+use crate::features::rewind::{NoLoadTest, RewindPlan};
 use crate::rating::RatingReport;
 use crate::rating::conductor::{self, WireFamily};
 
@@ -101,7 +101,7 @@ pub fn render_rewind(
             "{} rpm at {}: {} % against the speed asked",
             fmt_fixed(p.speed_at_whole_turns, 1),
             v(n.voltage),
-            signed(p.speed_error * 100.0, 2)
+            fmt_signed(p.speed_error * 100.0, 2)
         ),
     );
     if let (Some(i0), Some(i1)) = (o.current, n.current) {
@@ -171,7 +171,7 @@ pub fn render_rewind(
                         "    {tag} {:<28}{:>9} mm2  {:>7} %",
                         opt.label(),
                         fmt_fixed(opt.area_mm2, 3),
-                        signed(opt.error * 100.0, 1)
+                        fmt_signed(opt.error * 100.0, 1)
                     );
                 }
             }
@@ -259,7 +259,7 @@ pub fn render_no_load(t: &NoLoadTest, file: &str, version: &str) -> String {
             s,
             "  design flux           {} mWb ({} % against the test)",
             fmt_fixed(f, 4),
-            signed((f / t.flux_mwb - 1.0) * 100.0, 2)
+            fmt_signed((f / t.flux_mwb - 1.0) * 100.0, 2)
         );
     }
     if let Some(n) = t.rated.emf.as_ref().and_then(|e| e.speed_at_flux_rpm) {
