@@ -21,6 +21,17 @@ use crate::features::rewind::{
 /// The exit code of bad input, or of output that could not be written.
 pub const EXIT_BAD_INPUT: u8 = 2;
 
+/// The exit codes of the commands that check a design (`check`, `sheet`, `test`), as their
+/// help words them: written once here, after the README's table of exit codes. A macro, so
+/// that the help texts, which clap takes as constants, can be put together with `concat!`.
+macro_rules! exit_codes_help {
+    () => {
+        "Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
+written."
+    };
+}
+pub(crate) use exit_codes_help;
+
 /// The command that refuses to replace an existing file.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum NoOverwrite {
