@@ -2,8 +2,7 @@
 //!
 //! Part of the `checks` stage.
 
-use super::sources::BAR_RULE;
-use super::{Finding, Severity};
+use super::{Finding, rules};
 use crate::design::{Design, WindingType};
 use crate::winding::Winding;
 
@@ -12,9 +11,8 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let suggests = bar_rule(d.poles, c);
     if let Some(kind) = suggests {
         let matches = kind == d.winding_type;
-        out.push(Finding::new(
-            "shop.bar-count",
-            Severity::Info,
+        out.push(Finding::of(
+            &rules::SHOP_BAR_COUNT,
             matches,
             format!(
                 "{c} bars on {} poles suggests {}; the design is {}{}",
@@ -27,7 +25,6 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
                     ": look twice at the old winding before choosing"
                 }
             ),
-            BAR_RULE,
         ));
     }
 }
