@@ -30,7 +30,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
 }
 
 /// The winding kind the shop's bar-count rule of thumb suggests for `c` bars on `poles` poles,
-/// when the rule speaks for that pole count ([`BAR_RULE`], common practice).
+/// when the rule speaks for that pole count ([`BAR_RULE`](super::sources::BAR_RULE), common practice).
 pub fn bar_rule(poles: u32, c: u32) -> Option<WindingType> {
     match poles {
         4 | 8 => Some(if c.is_multiple_of(2) {
