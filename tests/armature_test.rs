@@ -273,6 +273,8 @@ fn test_command_writes_json_text_and_csv() {
     ]);
     assert!(o.status.success(), "{}", text(&o.stderr));
     let csv = std::fs::read_to_string(dir.join("pump-wave").join("readings.csv")).unwrap();
-    assert!(csv.starts_with("from_bar,to_bar,expected,measured\n1,2,"));
+    // RFC 4180, as every CSV armsheet writes: CRLF after every record.
+    assert!(csv.starts_with("from_bar,to_bar,expected,measured\r\n1,2,"));
+    assert!(csv.ends_with(",\r\n"));
     assert!(csv.lines().nth(1).unwrap().ends_with(','));
 }

@@ -70,3 +70,56 @@ fn negative_numbers_the_writer_makes_stay_numbers() {
     assert!(rows.lines().skip(1).any(|l| l.ends_with(",-1")), "{rows}");
     assert!(!rows.contains('\''));
 }
+
+#[test]
+fn the_readings_file_is_rfc_4180_and_reads_back_in_any_common_form() {
+    use armsheet::features::armature_test::{ReadingValue, TestOptions, expected, parse_readings};
+    use armsheet::render::armature_test::readings_csv;
+    let checked = armsheet::check(support::design(&support::demo("hoist-lap")));
+    let t = expected(&checked.design, &checked.winding, &TestOptions::default());
+    let written = readings_csv(&t);
+    // Written: CRLF after every record, as every CSV armsheet writes.
+    assert!(written.starts_with("from_bar,to_bar,expected,measured\r\n"));
+    assert_eq!(
+        written.matches("\r\n").count(),
+        written.matches('\n').count()
+    );
+    let bars = checked.design.segments;
+    let pairs: Vec<(u32, u32)> = t.readings.iter().map(|r| (r.from_bar, r.to_bar)).collect();
+    // The shop fills in the measured column: read back as written (CRLF) ...
+    let filled = written
+        .replace(",\r\n", ",1.5\r\n")
+        .replacen(",1.5\r\n", ",\r\n", 1);
+    let back = parse_readings(&filled, bars, &pairs).unwrap();
+    assert_eq!(
+        back.values.len(),
+        pairs.len() - 1,
+        "the first pair left empty is missing"
+    );
+    // ... with LF line ends, a byte-order mark, quoted fields and blank lines alike.
+    let lf = format!(
+        "\u{feff}{}\n\n",
+        filled.replace("\r\n", "\n").replace("1,2,", "\"1\",\"2\",")
+    );
+    assert_eq!(parse_readings(&lf, bars, &pairs).unwrap(), back);
+    let quoted = "from_bar,to_bar,reading\n\"1\",2,\"open\"\n2,3,\" 1.5 \"\n3,4,OL\n";
+    let r = parse_readings(quoted, bars, &pairs).unwrap();
+    assert_eq!(r.values[&(1, 2)], ReadingValue::Open);
+    assert_eq!(r.values[&(2, 3)], ReadingValue::Value(1.5));
+    // Errors stay located: line and column of the field, a quoted line break counted.
+    let e = parse_readings(
+        "from_bar,to_bar,reading\r\n\"1\",2,\"a\nb\"\r\n",
+        bars,
+        &pairs,
+    )
+    .unwrap_err();
+    assert_eq!((e.line, e.column), (2, 3), "{e:?}");
+    let e = parse_readings(
+        "\u{feff}from_bar,to_bar,reading\r\n1,2,1\r\n\"x\ny\",3,1\r\n2,99,1\r\n",
+        bars,
+        &pairs,
+    )
+    .unwrap_err();
+    assert_eq!((e.line, e.column), (3, 1), "{e:?}");
+    assert!(e.message.contains("expected a bar number"), "{e:?}");
+}

@@ -5,8 +5,7 @@
 //! on frog-leg windings, read in a public copy (docs/domain.md, "Frog-leg windings"); the
 //! self-equalizing condition and its reading off the trace are derived.
 
-use super::sources::{FROG_LEG, FROG_LEG_DERIVED};
-use super::{Finding, Severity};
+use super::{Finding, rules};
 use crate::design::Design;
 use crate::theory::WindingType;
 use crate::winding::{Connection, Winding, WindingElement};
@@ -19,29 +18,19 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let (Some(lap), Some(wave)) = (lap, wave) else {
         return;
     };
-    out.push(Finding::new(
-        "frogleg.pole-pairs-whole",
-        Severity::Error,
-        c.is_multiple_of(p),
-        format!(
+    out.push(Finding::of(&rules::FROGLEG_POLE_PAIRS_WHOLE, c.is_multiple_of(p), format!(
             "bars per pole pair C/p = {c}/{p}{}; must be whole so that bars two pole pitches apart exist",
             if c.is_multiple_of(p) {
                 format!(" = {}", c / p)
             } else {
                 " is not whole".to_string()
             }
-        ),
-        FROG_LEG,
-    ));
+        )));
     out.push(self_equalizing(w, lap, wave, c, p));
     out.push(one_neutral(d, w, lap, wave));
     out.push(element_paths(d, lap, wave));
     let r = wave.reentrancy;
-    out.push(Finding::new(
-        "frogleg.wave-reentrancy",
-        Severity::Info,
-        true,
-        format!(
+    out.push(Finding::of(&rules::FROGLEG_WAVE_REENTRANCY, true, format!(
             "the wave element (multiplicity m_w = m x p = {}, y_c = {}) is {}: {r} closed winding(s) traced, gcd(C, y_c) = gcd({c}, {}) = {}; each is tested on its own",
             wave.multiplicity,
             wave.pitches.commutator,
@@ -52,15 +41,9 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             },
             wave.pitches.commutator.abs(),
             wave.reentrancy_formula
-        ),
-        FROG_LEG_DERIVED,
-    ));
+        )));
     let same = lap.turns == wave.turns;
-    out.push(Finding::new(
-        "frogleg.equal-coils",
-        Severity::Warning,
-        same,
-        format!(
+    out.push(Finding::of(&rules::FROGLEG_EQUAL_COILS, same, format!(
             "lap coils {} turn(s), wave coils {} turn(s), both of the one [conductor]{}",
             lap.turns,
             wave.turns,
@@ -69,9 +52,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             } else {
                 ": the trade winds both elements alike; unequal turns give the elements unequal EMFs and a circulating current between them"
             }
-        ),
-        FROG_LEG,
-    ));
+        )));
 }
 
 /// Where element `e` is commutated, read off the traced winding: the first active coil's bar
@@ -104,9 +85,8 @@ fn one_neutral(d: &Design, w: &Winding, lap: &WindingElement, wave: &WindingElem
         _ => 0.0,
     };
     let ok = apart < 0.25;
-    Finding::new(
-        "frogleg.one-neutral",
-        Severity::Warning,
+    Finding::of(
+        &rules::FROGLEG_ONE_NEUTRAL,
         ok,
         if ok {
             "the lap and the wave coils are commutated on one neutral: each element's first coil has its bar midpoint at the same place from its centre line".to_string()
@@ -116,7 +96,6 @@ fn one_neutral(d: &Design, w: &Winding, lap: &WindingElement, wave: &WindingElem
                 crate::base::number::fmt_fixed(apart, 1)
             )
         },
-        FROG_LEG_DERIVED,
     )
 }
 
@@ -171,13 +150,7 @@ fn self_equalizing(
             pair % c + 1
         )
     };
-    Finding::new(
-        "frogleg.self-equalizing",
-        Severity::Error,
-        wrong.is_empty(),
-        message,
-        FROG_LEG_DERIVED,
-    )
+    Finding::of(&rules::FROGLEG_SELF_EQUALIZING, wrong.is_empty(), message)
 }
 
 /// Both elements have the same number of paths, so m_wave = m_lap·p and a = 2·m·P, as traced.
@@ -185,9 +158,8 @@ fn element_paths(d: &Design, lap: &WindingElement, wave: &WindingElement) -> Fin
     let ok = lap.paths == wave.paths
         && lap.paths == lap.paths_formula
         && wave.paths == wave.paths_formula;
-    Finding::new(
-        "frogleg.element-paths",
-        Severity::Error,
+    Finding::of(
+        &rules::FROGLEG_ELEMENT_PATHS,
         ok,
         format!(
             "traced paths: lap element {} (m x P = {} x {} = {}), wave element {} (2 m_w = 2 x {} = {}); {}",
@@ -204,6 +176,5 @@ fn element_paths(d: &Design, lap: &WindingElement, wave: &WindingElement) -> Fin
                 "they must be equal and match their formulas"
             }
         ),
-        FROG_LEG,
     )
 }

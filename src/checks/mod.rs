@@ -11,6 +11,7 @@
 
 mod frog_leg;
 mod lap;
+pub mod rules;
 mod shop;
 mod sources;
 mod span;

@@ -2,8 +2,7 @@
 //!
 //! Part of the `checks` stage.
 
-use super::sources::SPAN;
-use super::{Finding, Severity};
+use super::{Finding, rules};
 use crate::base::number::fmt_fixed;
 use crate::design::{Design, SpanSource};
 use crate::theory::words::span_shop;
@@ -22,30 +21,18 @@ pub(super) fn check(d: &Design, _w: &Winding, out: &mut Vec<Finding>) {
     } else {
         format!("long by {} slots", fmt_fixed(off, 2))
     };
-    out.push(Finding::new(
-        "span.pole-pitch",
-        Severity::Warning,
-        within,
-        format!(
+    out.push(Finding::of(&rules::SPAN_POLE_PITCH, within, format!(
             "span {} slots against a pole pitch S/P = {} slots ({how}); keep within 1 slot of the pole pitch",
             d.span,
             fmt_fixed(pole_pitch, 2)
-        ),
-        SPAN,
-    ));
+        )));
     if d.span_source == SpanSource::Default {
-        out.push(Finding::new(
-            "span.default",
-            Severity::Info,
-            true,
-            format!(
+        out.push(Finding::of(&rules::SPAN_DEFAULT, true, format!(
                 "no span given: used floor(S/P) = floor({}/{}) = {} slots (\"{}\"); give `span` to match the old coils",
                 d.slots,
                 d.poles,
                 d.span,
                 span_shop(d.span)
-            ),
-            SPAN,
-        ));
+            )));
     }
 }

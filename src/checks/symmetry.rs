@@ -30,21 +30,21 @@
 //! conditions stay in the report as the textbook rule: errors where the exact test fails too,
 //! warnings where it passes, and the exact finding says whether the two agree.
 
-use super::sources::{EXACT_SYMMETRY as EXACT_SOURCE, SIMULATION, SYMMETRY};
-use super::{Finding, Severity};
+use super::{Finding, Severity, rules};
+use crate::base::RuleSpec;
 use crate::base::number::fmt_fixed;
 use crate::design::Design;
 use crate::winding::{Congruence, Winding, WindingElement};
 
-/// The ids of the classical symmetry conditions.
-const IDS: [&str; 3] = [
-    "symmetry.coils-per-path-pair",
-    "symmetry.slots-per-path-pair",
-    "symmetry.pole-pairs-per-path-pair",
+/// The rules of the classical symmetry conditions.
+const IDS: [&RuleSpec; 3] = [
+    &rules::SYMMETRY_COILS_PER_PATH_PAIR,
+    &rules::SYMMETRY_SLOTS_PER_PATH_PAIR,
+    &rules::SYMMETRY_POLE_PAIRS_PER_PATH_PAIR,
 ];
 
 /// The id of the exact symmetry test.
-pub const EXACT: &str = "symmetry.exact";
+pub const EXACT: &str = rules::SYMMETRY_EXACT.id;
 
 fn whole(num: u32, den: u32) -> bool {
     den != 0 && num.is_multiple_of(den)
@@ -129,7 +129,7 @@ fn check_element(d: &Design, w: &Winding, e: &WindingElement, out: &mut Vec<Find
         } else {
             (Severity::Error, message)
         };
-        out.push(Finding::new(id, severity, ok, label(message), SYMMETRY));
+        out.push(Finding::of(id, ok, label(message)).lowered_to(severity));
     }
 
     let sizes: Vec<String> = classes
@@ -165,12 +165,10 @@ fn check_element(d: &Design, w: &Winding, e: &WindingElement, out: &mut Vec<Find
             sizes.join(" + ")
         ),
     };
-    out.push(Finding::new(
-        EXACT,
-        Severity::Error,
+    out.push(Finding::of(
+        &rules::SYMMETRY_EXACT,
         exact,
         label(format!("exact symmetry of the {a} paths: {why}; {agree}")),
-        EXACT_SOURCE,
     ));
 }
 
@@ -193,11 +191,9 @@ fn balance(w: &Winding, out: &mut Vec<Finding>) {
         ),
         (false, true) => "balanced on average, although the exact symmetry test fails: the two disagree; the simulation sees only EMF, not the circulating currents an unsymmetrical winding carries, so follow the exact test".to_string(),
     };
-    out.push(Finding::new(
-        "symmetry.simulated-balance",
-        Severity::Warning,
+    out.push(Finding::of(
+        &rules::SYMMETRY_SIMULATED_BALANCE,
         b.balanced,
         format!("{sim}: {verdict}"),
-        SIMULATION,
     ));
 }

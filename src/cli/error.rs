@@ -10,17 +10,27 @@ use std::io::{self, Write};
 use std::path::PathBuf;
 
 use super::output::{EntryKind, WrongKind};
-use crate::base::number::fmt_fixed;
+use crate::base::number::{fmt_fixed, fmt_toml};
 use crate::base::visible::visible;
 use crate::design::Diagnostics;
 use crate::features::rewind::RewindError;
-use crate::features::rewind::design_toml;
 use crate::features::rewind::{
     FluxSource, MAX_CURRENT_A, MAX_FLUX_MWB, MAX_SPEED_RPM, MAX_VOLTAGE,
 };
 
 /// The exit code of bad input, or of output that could not be written.
 pub const EXIT_BAD_INPUT: u8 = 2;
+
+/// The exit codes of the commands that check a design (`check`, `sheet`, `test`), as their
+/// help words them: written once here, after the README's table of exit codes. A macro, so
+/// that the help texts, which clap takes as constants, can be put together with `concat!`.
+macro_rules! exit_codes_help {
+    () => {
+        "Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
+written."
+    };
+}
+pub(crate) use exit_codes_help;
 
 /// The command that refuses to replace an existing file.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -346,7 +356,7 @@ pub fn rewind_message(e: &RewindError) -> String {
         RewindError::FluxUnknown => "the flux per pole is unknown: give [rating] flux_per_pole_mwb, or [rating] voltage with speed_rpm, or measure the old machine with --from-test V0 N0".to_string(),
         RewindError::FluxOutOfRange { flux_mwb, source } => {
             let flux = if flux_mwb.is_finite() {
-                format!("a flux per pole of {} mWb", design_toml::num(*flux_mwb, 4))
+                format!("a flux per pole of {} mWb", fmt_toml(*flux_mwb, 4))
             } else {
                 "no finite flux per pole".to_string()
             };
@@ -354,8 +364,8 @@ pub fn rewind_message(e: &RewindError) -> String {
             match source {
                 FluxSource::Test(v, n) => format!(
                     "--from-test {} V at {} rpm gives {flux}; {range}: check the readings (open-circuit volts first, then rpm)",
-                    design_toml::num(*v, 3),
-                    design_toml::num(*n, 3)
+                    fmt_toml(*v, 3),
+                    fmt_toml(*n, 3)
                 ),
                 FluxSource::Rating => format!(
                     "[rating] voltage and speed_rpm give {flux}; {range}: check them, or give flux_per_pole_mwb or --from-test V0 N0"
@@ -367,11 +377,11 @@ pub fn rewind_message(e: &RewindError) -> String {
         }
         RewindError::WorkedSpeedOutOfRange { rpm } => format!(
             "the old machine's speed works out to {} rpm from its EMF and the flux; a design file holds above 0 and at most {MAX_SPEED_RPM} rpm: give --speed N",
-            design_toml::num(*rpm, 3)
+            fmt_toml(*rpm, 3)
         ),
         RewindError::CurrentOutOfRange { amps } => format!(
             "the new armature current works out to {} A (the rated current scaled by the old/new conductors per path); a design file holds above 0 and at most {MAX_CURRENT_A} A: check [rating] current, or ask for another --voltage",
-            design_toml::num(*amps, 4)
+            fmt_toml(*amps, 4)
         ),
         RewindError::SpeedUnknown => "no speed to rewind for: give --speed N, or [rating] speed_rpm or voltage in the design".to_string(),
         RewindError::Connect(e) => format!("cannot connect the coils as asked: {e}"),

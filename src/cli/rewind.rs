@@ -18,6 +18,7 @@ use super::Outcome;
 use super::error::{CliError, NoOverwrite};
 use super::load::load_design;
 use super::output::{print_stdout, write_atomic, write_new};
+use crate::base::number::fmt_toml;
 use crate::checks::Checked;
 use crate::design::{WindingType, parse_design};
 use crate::features::rewind::{self, RewindRequest, design_toml, no_load_test};
@@ -169,7 +170,7 @@ fn default_output(design: &Path, volts: f64) -> PathBuf {
         || "design".to_string(),
         |s| s.to_string_lossy().into_owned(),
     );
-    let v = design_toml::num(volts, 2).replace('.', "_");
+    let v = fmt_toml(volts, 2).replace('.', "_");
     design.with_file_name(format!("{stem}-{v}V.toml"))
 }
 
@@ -177,10 +178,10 @@ fn default_output(design: &Path, volts: f64) -> PathBuf {
 fn asked_line(a: &RewindArgs) -> String {
     let mut s = format!("armsheet rewind {}", a.design.display());
     if let Some(v) = a.voltage {
-        s.push_str(&format!(" --voltage {}", design_toml::num(v, 3)));
+        s.push_str(&format!(" --voltage {}", fmt_toml(v, 3)));
     }
     if let Some(n) = a.speed {
-        s.push_str(&format!(" --speed {}", design_toml::num(n, 3)));
+        s.push_str(&format!(" --speed {}", fmt_toml(n, 3)));
     }
     if let Some(k) = a.kind {
         s.push_str(match k {
@@ -194,12 +195,12 @@ fn asked_line(a: &RewindArgs) -> String {
     if let Some(t) = &a.from_test {
         s.push_str(&format!(
             " --from-test {} {}",
-            design_toml::num(t[0], 3),
-            design_toml::num(t[1], 3)
+            fmt_toml(t[0], 3),
+            fmt_toml(t[1], 3)
         ));
     }
     if let Some(r) = a.ra {
-        s.push_str(&format!(" --ra {}", design_toml::num(r, 6)));
+        s.push_str(&format!(" --ra {}", fmt_toml(r, 6)));
     }
     // Control characters in the file name stay: the design file's header escapes them visibly
     // (`design_toml::comment_text`).

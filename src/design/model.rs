@@ -116,15 +116,44 @@ pub enum ThermalClass {
 }
 
 impl ThermalClass {
-    /// The class temperature in °C and the letter.
-    pub fn label(self) -> &'static str {
-        match self {
-            ThermalClass::A => "105 (A)",
-            ThermalClass::E => "120 (E)",
-            ThermalClass::B => "130 (B)",
-            ThermalClass::F => "155 (F)",
-            ThermalClass::H => "180 (H)",
-        }
+    /// Every class with its temperature in °C and its letter, coolest first: the one place the
+    /// class and its number meet (the design reader, the design writer and the words use it).
+    pub const TABLE: [(ThermalClass, u32, &'static str); 5] = [
+        (ThermalClass::A, 105, "A"),
+        (ThermalClass::E, 120, "E"),
+        (ThermalClass::B, 130, "B"),
+        (ThermalClass::F, 155, "F"),
+        (ThermalClass::H, 180, "H"),
+    ];
+
+    fn row(self) -> (ThermalClass, u32, &'static str) {
+        Self::TABLE
+            .into_iter()
+            .find(|r| r.0 == self)
+            .unwrap_or(Self::TABLE[0])
+    }
+
+    /// The class temperature in °C (`thermal_class = 155`).
+    pub fn celsius(self) -> u32 {
+        self.row().1
+    }
+
+    /// The class letter (`thermal_class = "F"`).
+    pub fn letter(self) -> &'static str {
+        self.row().2
+    }
+
+    /// The class named by its temperature ("155") or its letter ("F", upper case).
+    pub fn from_word(word: &str) -> Option<ThermalClass> {
+        Self::TABLE
+            .into_iter()
+            .find(|&(_, c, l)| word == l || word == c.to_string())
+            .map(|r| r.0)
+    }
+
+    /// The class temperature in °C and the letter: "155 (F)".
+    pub fn label(self) -> String {
+        format!("{} ({})", self.celsius(), self.letter())
     }
 }
 

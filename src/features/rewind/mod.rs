@@ -12,7 +12,7 @@
 use crate::rating::conductor::{self, WireFamily, WireOption};
 pub mod design_toml;
 
-use crate::base::number::fmt_fixed;
+use crate::base::number::{fmt_fixed, fmt_signed, round_sig};
 use crate::design::{ConductorShape, Design, EqualizerChoice, Mode, Rating, WindingType, bounds};
 use crate::rating::scheme::{ConnectError, Scheme, connect};
 use crate::rating::{RatingReport, emf, rate_with};
@@ -638,16 +638,6 @@ pub fn rewind_rated(
     })
 }
 
-/// Rounds to `n` (at least 1) significant figures (for the current written to the new file),
-/// through the decimal exponent form, so no power of ten overflows: the smallest subnormal stays
-/// itself, never NaN, and nothing non-zero becomes 0.
-fn round_sig(x: f64, n: usize) -> f64 {
-    if !x.is_finite() || x == 0.0 {
-        return x;
-    }
-    format!("{x:.*e}", n.max(1) - 1).parse().unwrap_or(x)
-}
-
 impl RewindPlan {
     /// The comment header of the new design file: what changed and why.
     pub fn header(&self, old_file: &str, command: &str) -> Vec<String> {
@@ -684,7 +674,7 @@ impl RewindPlan {
             "whole turns give {} rpm at {}: {} % against {} rpm",
             fmt_fixed(self.speed_at_whole_turns, 0),
             v(n.voltage),
-            signed(self.speed_error * 100.0, 2),
+            fmt_signed(self.speed_error * 100.0, 2),
             fmt_fixed(n.speed_rpm, 0)
         ));
         if let (Some(oc), Some(nc), Some(need)) = (&o.conductor, &n.conductor, self.area_needed_mm2)
@@ -721,15 +711,5 @@ impl RewindPlan {
     /// The new design file: the header as comments, then the design.
     pub fn design_file(&self, old_file: &str, command: &str) -> String {
         design_toml::write_design(&self.design, &self.header(old_file, command))
-    }
-}
-
-/// A number with its sign: "+1.25", "-0.80", "0.00".
-pub fn signed(x: f64, decimals: usize) -> String {
-    let s = fmt_fixed(x, decimals);
-    if s.starts_with('-') || s.chars().all(|c| c == '0' || c == '.') {
-        s
-    } else {
-        format!("+{s}")
     }
 }
