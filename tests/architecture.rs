@@ -224,8 +224,14 @@ fn the_engine_rating_and_checks_are_entered_in_one_place() {
         ("rate(", &["checks/mod.rs", "rating/mod.rs"]),
         ("rate_with(", &["rating/mod.rs", "features/rewind/mod.rs"]),
         ("run_checks(", &["checks/mod.rs"]),
-        ("armature_test(", &["features/armature_test/mod.rs", "cli/armature_test.rs"]),
-        ("expected(", &["features/armature_test/mod.rs", "cli/sheet.rs"]),
+        (
+            "armature_test(",
+            &["features/armature_test/mod.rs", "cli/armature_test.rs"],
+        ),
+        (
+            "expected(",
+            &["features/armature_test/mod.rs", "cli/sheet.rs"],
+        ),
     ];
     for (rel, text) in all_sources() {
         // A unit-test file (`mod tests;` under `#[cfg(test)]`) may drive the stages freely.

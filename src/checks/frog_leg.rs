@@ -8,15 +8,13 @@
 use super::sources::{FROG_LEG, FROG_LEG_DERIVED};
 use super::{Finding, Severity};
 use crate::design::Design;
-use crate::theory::WindingType;
 use crate::winding::{Connection, Winding, WindingElement};
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let c = w.active_coils;
     let p = d.pole_pairs();
-    let lap = w.elements.iter().find(|e| e.kind == WindingType::Lap);
-    let wave = w.elements.iter().find(|e| e.kind == WindingType::Wave);
-    let (Some(lap), Some(wave)) = (lap, wave) else {
+    // The kind gives the lap element first, then the wave element.
+    let [lap, wave] = &w.elements[..] else {
         return;
     };
     out.push(Finding::new(

@@ -19,11 +19,10 @@ mod trace;
 mod wave;
 
 pub use crate::base::{Finding, Severity, has_errors};
-pub use shop::bar_rule;
 pub use sources::BAR_RULE;
 pub use symmetry::{Congruence, PathClasses, path_classes};
 
-use crate::design::{Design, WindingType};
+use crate::design::Design;
 use crate::rating::{RatingReport, findings_of, rate};
 use crate::winding::{Winding, trace_winding};
 
@@ -74,10 +73,18 @@ pub fn run_checks(design: &Design, winding: &Winding) -> Vec<Finding> {
     let mut out = Vec::new();
     span::check(design, winding, &mut out);
     symmetry::check(design, winding, &mut out);
-    match design.winding_type {
-        WindingType::Lap => lap::check(design, winding, &mut out),
-        WindingType::Wave => wave::check(design, winding, &mut out),
-        WindingType::FrogLeg => frog_leg::check(design, winding, &mut out),
+    // Each kind-specific family runs when the kind asks its question: the equalizer rules for
+    // a kind that takes equalizers (lap), the dummy-coil rules for one that may leave dummies
+    // (wave), the element rules for one of several elements (frog-leg).
+    let kind = design.winding_type.kind();
+    if kind.takes_equalizers() {
+        lap::check(design, winding, &mut out);
+    }
+    if !kind.uses_every_coil() {
+        wave::check(design, winding, &mut out);
+    }
+    if kind.element_count() > 1 {
+        frog_leg::check(design, winding, &mut out);
     }
     trace::check(design, winding, &mut out);
     shop::check(design, winding, &mut out);

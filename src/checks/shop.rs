@@ -4,7 +4,8 @@
 
 use super::sources::BAR_RULE;
 use super::{Finding, Severity};
-use crate::design::{Design, WindingType};
+use crate::design::Design;
+use crate::theory::bar_rule;
 use crate::winding::Winding;
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
@@ -29,23 +30,5 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             ),
             BAR_RULE,
         ));
-    }
-}
-
-/// The winding kind the shop's bar-count rule of thumb suggests for `c` bars on `poles` poles,
-/// when the rule speaks for that pole count ([`BAR_RULE`], common practice).
-pub fn bar_rule(poles: u32, c: u32) -> Option<WindingType> {
-    match poles {
-        4 | 8 => Some(if c.is_multiple_of(2) {
-            WindingType::Lap
-        } else {
-            WindingType::Wave
-        }),
-        6 => Some(if c.is_multiple_of(3) {
-            WindingType::Lap
-        } else {
-            WindingType::Wave
-        }),
-        _ => None,
     }
 }

@@ -9,7 +9,7 @@ use std::collections::BTreeMap;
 use super::lap::{multiplex_brush, narrow_multiplex_brush};
 use super::sources::{DUMMY, PITCH_TEXTS};
 use super::{Finding, Severity};
-use crate::design::{Design, WindingType};
+use crate::design::Design;
 use crate::winding::Winding;
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
@@ -36,7 +36,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         out.extend(narrow_multiplex_brush(m, w));
     }
     let dummies = w.dummy_coils.len() as u32;
-    let wave = WindingType::Wave.kind();
+    let wave = d.winding_type.kind();
     let best = wave
         .default_segments(w.coils, m, p, d.direction)
         .unwrap_or(c);

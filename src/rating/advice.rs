@@ -224,9 +224,9 @@ pub fn more_paths(m: &Machine<'_>, current: f64, limit: f64) -> Advice {
             options,
         };
     };
-    if d.winding_type == WindingType::Wave
+    if let Some(more) = d.winding_type.kind().more_paths_kind()
         && let Some(k) = (d.multiplicity..=bounds::MAX_MULTIPLICITY as u32)
-            .filter_map(|mm| connect(d, m.segments, WindingType::Lap, mm).ok())
+            .filter_map(|mm| connect(d, m.segments, more, mm).ok())
             .find(|k| k.paths >= need_n)
     {
         options.push(m.path_option(PathRoute::LapInsteadOfWave, k, current));

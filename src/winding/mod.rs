@@ -71,7 +71,10 @@ pub fn trace_winding(design: &Design) -> Winding {
     let mut elements = Vec::new();
     let specs = d.elements();
     let yc_of = |e: &crate::design::DesignElement| {
-        pitch::commutator_pitch(e.spec.kind, e.spec.direction, c, e.spec.multiplicity, p)
+        e.spec
+            .kind
+            .kind()
+            .commutator_pitch(c, e.spec.multiplicity, p, e.spec.direction)
     };
     for (k, e) in specs.iter().enumerate() {
         let yc = yc_of(e);

@@ -87,7 +87,10 @@ pub(crate) fn read(
     let src = win.src;
     let words = WindingType::ALL.map(WindingType::as_str);
     let wtype = win.keep(win.choice("type", &words).and_then(|t| match t {
-        Some(At { value, .. }) => Ok(WindingType::from_word(value).unwrap_or(WindingType::Lap)),
+        // `choice` answers with one of `words`, which are the kinds' words in order.
+        Some(At { value, .. }) => {
+            Ok(WindingType::ALL[words.iter().position(|w| *w == value).unwrap_or_default()])
+        }
         None => Err(win.missing("type", "\"lap\" or \"wave\"", "type = \"lap\"")),
     }));
     let m = win.keep(win.int(
@@ -278,9 +281,12 @@ fn read_dummy_coils(
             .error(v.span(), win.dotted(key), msg)
             .with_hint(hint)
     };
-    if wtype == WindingType::Lap {
+    if wtype.kind().uses_every_coil() {
         return Err(err(
-            "dummy coils belong to wave windings: a lap winding uses every coil".into(),
+            format!(
+                "dummy coils belong to wave windings: a {} winding uses every coil",
+                wtype.as_str()
+            ),
             "remove the key".into(),
         ));
     }

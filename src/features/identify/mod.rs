@@ -13,15 +13,14 @@
 //! observed swing less the swing on neutral, then traced again to confirm.
 
 use crate::checks::BAR_RULE;
-use crate::checks::bar_rule;
 use crate::checks::{Checked, check};
 use crate::design::{
     Card, Commutator, Conductor, Design, Direction, EqualizerChoice, HalfBars, Limits, Mode,
     Rotation, SpanSource, WindingType, bounds,
 };
-use crate::theory::pitch::{commutator_pitch, gcd};
-use crate::theory::wave_pitch_whole;
+use crate::theory::pitch::gcd;
 use crate::theory::words::{half_bars_words, multiplicity_word, span_shop};
+use crate::theory::{Wave, WindingKind, bar_rule, wave_pitch_whole};
 use crate::winding::{EqualizerPlan, place_dummies};
 
 /// One winding that reproduces the card.
@@ -65,18 +64,19 @@ pub fn identify(card: &Card) -> Identified {
     for kind in kinds {
         for m in 1..=bounds::MAX_MULTIPLICITY as u32 {
             for dir in [Direction::Progressive, Direction::Retrogressive] {
-                if kind == WindingType::Wave && !wave_pitch_whole(c, m, p, dir) {
+                let k = kind.kind();
+                // A kind that may leave dummy coils is only skipped: more coils may suit it.
+                if !k.workable(c, c, m, p, dir) {
+                    if k.uses_every_coil() {
+                        rejected.push(format!(
+                            "a {}: {}",
+                            kind.as_str(),
+                            k.segment_rule(c, c, m, p, dir)
+                        ));
+                    }
                     continue;
                 }
-                if kind.kind().uses_every_coil() && !kind.kind().workable(c, c, m, p, dir) {
-                    rejected.push(format!(
-                        "a {}: {}",
-                        kind.as_str(),
-                        kind.kind().segment_rule(c, c, m, p, dir)
-                    ));
-                    continue;
-                }
-                let yc = commutator_pitch(kind, dir, c, m, p);
+                let yc = k.commutator_pitch(c, m, p, dir);
                 if yc.rem_euclid(i64::from(c)) != i64::from(card.throw_bars()) {
                     continue;
                 }
@@ -217,7 +217,7 @@ fn candidate(
     let n = u * card.slots;
     let dummies = dummy_coils(card, u, n - c).map_err(|e| format!("a {name}: {e}"))?;
     let equalizers = equalizer_choice(card, kind).map_err(|e| format!("a {name}: {e}"))?;
-    if kind != WindingType::Wave
+    if kind.kind().brush_at_every_pole()
         && let Some(b) = card.brush_sets
         && b != card.poles
     {
@@ -412,7 +412,7 @@ fn explain(card: &Card, k: &Checked, yc: i64, dummies: u32, named: &Option<Vec<u
             e.pitches.commutator
         )
     });
-    let pitch = if d.winding_type != WindingType::Wave {
+    let pitch = if !d.winding_type.kind().pitch_from_bar_count() {
         format!("the throw 1-{} is y_c = {sign}{m}{wave}", card.throw_end)
     } else {
         format!(
@@ -517,12 +517,7 @@ fn throw_conflict(card: &Card) -> String {
     let waves: Vec<String> = [Direction::Progressive, Direction::Retrogressive]
         .into_iter()
         .filter(|&dir| p >= 2 && wave_pitch_whole(c, 1, p, dir))
-        .map(|dir| {
-            format!(
-                "1-{}",
-                commutator_pitch(WindingType::Wave, dir, c, 1, p) + 1
-            )
-        })
+        .map(|dir| format!("1-{}", Wave.commutator_pitch(c, 1, p, dir) + 1))
         .collect();
     let on_bars = if waves.is_empty() {
         format!("on {c} bars a simplex lap throws 1-2 or 1-{c}")

@@ -521,7 +521,10 @@ pub fn rewind_rated(
     }
     let mut nd = d.clone();
     if !kind.kind().takes_equalizers() && d.equalizers != EqualizerChoice::None {
-        notes.push("equalizers removed: a wave winding needs none".to_string());
+        notes.push(format!(
+            "equalizers removed: {}",
+            kind.kind().no_equalizers_reason()
+        ));
         nd.equalizers = EqualizerChoice::None;
     }
     if i64::from(d.poles) * i64::from(d.lead_offset.0).abs() >= i64::from(c1) {
@@ -561,13 +564,13 @@ pub fn rewind_rated(
     });
     nd.segments = c1;
     nd.segments_derived = false;
-    if nd.dummy_coils.is_some() && (c1 != c0 || kind != WindingType::Wave) {
+    if nd.dummy_coils.is_some() && (c1 != c0 || kind.kind().uses_every_coil()) {
         notes.push(format!(
             "dummy coils: the positions the old design names are dropped; {}",
-            if kind == WindingType::Wave {
-                "the new count is spread evenly"
+            if kind.kind().uses_every_coil() {
+                format!("a {} winding uses every coil", kind.as_str())
             } else {
-                "a lap winding uses every coil"
+                "the new count is spread evenly".to_string()
             }
         ));
         nd.dummy_coils = None;
