@@ -14,6 +14,7 @@ use toml::de::DeTable;
 
 use crate::base::visible::{ECHO_WIDTH, clip};
 
+use super::build::DesignSpec;
 use super::Diagnostic;
 use super::diagnostic::Diagnostics;
 use super::model::*;
@@ -202,14 +203,16 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
     let commutator = commutator.flatten();
     let limits = limits.flatten().unwrap_or_default();
 
-    Ok(Some(Design {
+    // The readers have checked every value where it stands in the file; the constructor
+    // checks them again as a whole (a second guard) and fills in the defaults.
+    Design::new(DesignSpec {
         file_name: file.to_string(),
         job,
         poles: a.poles.value as u32,
         slots: a.slots.value as u32,
         coils_per_slot: a.coils_per_slot as u32,
-        segments: w.segments as u32,
-        segments_derived: a.segments.is_none(),
+        // Given, or worked out again by the constructor as `segments::resolve` did.
+        segments: a.segments.map(|_| w.segments as u32),
         rotation: a.rotation,
         pole_arc: a.pole_arc,
         winding_type: w.winding_type,
@@ -218,7 +221,8 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
         span: w.span,
         span_source: w.span_source,
         turns: w.turns as u32,
-        wave_coils: w.wave_coils,
+        wave_span: w.wave_coils.0,
+        wave_turns: w.wave_coils.1,
         lead_offset: HalfBars(w.lead_offset as i32),
         equalizers: w.equalizers,
         dummy_coils: w.dummy_coils,
@@ -230,7 +234,9 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
         core,
         commutator,
         limits,
-    }))
+    })
+    .map(Some)
+    .map_err(|e| Diagnostic::new(file, text, 0..0, e.key, e.message))
 }
 
 fn tables_list() -> String {

@@ -28,8 +28,9 @@ use super::armature::Armature;
 use super::segments;
 use crate::base::visible::{ECHO_WIDTH, clip};
 use crate::design::Diagnostic;
+use crate::design::build::{MAX_EQUALIZER_STEP, MAX_LEAD_OFFSET_HALF_BARS};
 use crate::design::model::{
-    Direction, EqualizerChoice, HalfBars, SpanSource, WaveCoils, WindingType, bounds,
+    Direction, EqualizerChoice, HalfBars, SpanSource, WindingType, bounds,
 };
 use crate::design::reader::{At, TableReader, fmt_num};
 
@@ -71,8 +72,9 @@ pub(crate) struct Winding {
     pub equalizers: EqualizerChoice,
     /// `dummy_coils`, sorted.
     pub dummy_coils: Option<Vec<u32>>,
-    /// `wave_span` and `wave_turns`, resolved (frog-leg only).
-    pub wave_coils: Option<WaveCoils>,
+    /// `wave_span` and `wave_turns` as given (frog-leg only; the defaults are filled in by
+    /// [`crate::design::Design::new`]).
+    pub wave_coils: (Option<u32>, Option<u32>),
 }
 
 /// Reads the values of `[winding]` (its keys were checked by the caller) against the
@@ -194,14 +196,7 @@ pub(crate) fn read(
     let dummy_coils = win.keep(read_dummy_coils(win, wtype, a.positions, active))?;
     let (span, span_source) = span?;
     let turns = turns?.value;
-    let wave_coils = win.keep(read_wave_coils(
-        win,
-        wtype,
-        a.slots.value,
-        poles.value,
-        span,
-        turns,
-    ))?;
+    let wave_coils = win.keep(read_wave_coils(win, wtype, a.slots.value, poles.value))?;
     Some(Winding {
         winding_type: wtype,
         multiplicity: m,
@@ -217,16 +212,14 @@ pub(crate) fn read(
     })
 }
 
-/// `wave_span` and `wave_turns`: the wave element's coils of a frog-leg winding, defaulting to
-/// `span` and `turns`; refused for lap and wave.
+/// `wave_span` and `wave_turns`, when given: the wave element's coils of a frog-leg winding;
+/// refused for lap and wave.
 fn read_wave_coils(
     win: &TableReader<'_, '_>,
     wtype: WindingType,
     slots: i64,
     poles: i64,
-    span: u32,
-    turns: i64,
-) -> Result<Option<WaveCoils>, Diagnostic> {
+) -> Result<(Option<u32>, Option<u32>), Diagnostic> {
     let frog = wtype.kind().element_count() > 1;
     if !frog {
         for key in ["wave_span", "wave_turns"] {
@@ -244,11 +237,11 @@ fn read_wave_coils(
                     .with_hint("remove the key, or set type = \"frog-leg\""));
             }
         }
-        return Ok(None);
+        return Ok((None, None));
     }
     let wave_span = match win.raw("wave_span") {
-        None => span,
-        Some(_) => read_span_key(win, "wave_span", slots, poles)?.0,
+        None => None,
+        Some(_) => Some(read_span_key(win, "wave_span", slots, poles)?.0),
     };
     let wave_turns = win
         .int(
@@ -257,11 +250,8 @@ fn read_wave_coils(
             "the wave coils' turns",
             "the trade winds both elements with the same turns",
         )?
-        .map_or(turns, |t| t.value);
-    Ok(Some(WaveCoils {
-        span: wave_span,
-        turns: wave_turns as u32,
-    }))
+        .map(|t| t.value as u32);
+    Ok((wave_span, wave_turns))
 }
 
 /// `dummy_coils`: the coil positions left unconnected (wave only), distinct, 2 to N (coil 1
@@ -322,11 +312,12 @@ fn read_dummy_coils(
 /// `lead_offset` in half bars: a number from −1000 to 1000 segments that is a whole number of
 /// half segment pitches.
 fn read_lead_offset(win: &TableReader<'_, '_>) -> Result<Option<At<i64>>, Diagnostic> {
+    let most = f64::from(MAX_LEAD_OFFSET_HALF_BARS) / 2.0;
     let Some(lo) = win.number(
         "lead_offset",
-        -1000.0,
+        -most,
         false,
-        1000.0,
+        most,
         "the lead offset in segments",
     )?
     else {
@@ -451,7 +442,7 @@ fn read_equalizers(
             let n = t
                 .int(
                     "equalizers",
-                    1..=10_000,
+                    1..=i64::from(MAX_EQUALIZER_STEP),
                     "\"none\", \"full\" or every n-th possible connection",
                     "2 fits every second connection",
                 )?

@@ -15,8 +15,8 @@
 use crate::checks::BAR_RULE;
 use crate::checks::{Checked, check};
 use crate::design::{
-    Card, Commutator, Conductor, Design, Direction, EqualizerChoice, HalfBars, Limits, Mode,
-    Rotation, SpanSource, WindingType, bounds,
+    Card, Commutator, Conductor, Design, DesignSpec, Direction, EqualizerChoice, HalfBars,
+    Limits, Mode, SpanSource, WindingType, bounds,
 };
 use crate::theory::pitch::gcd;
 use crate::theory::words::{half_bars_words, multiplicity_word, span_shop};
@@ -226,8 +226,12 @@ fn candidate(
             card.poles
         ));
     }
-    let mut d = design(card, kind, m, dir, u, dummies.clone(), equalizers);
-    let neutral = check(d.clone()).winding.lead_swing.swing_half_bars(c);
+    let mut spec = design_spec(card, kind, m, dir, u, dummies.clone(), equalizers);
+    let build = |spec: DesignSpec| Design::new(spec).map_err(|e| format!("a {name}: {e}"));
+    let neutral = check(build(spec.clone())?)
+        .winding
+        .lead_swing
+        .swing_half_bars(c);
     let offset = i64::from(card.lead_swing.0) - neutral;
     let offset = (offset + i64::from(c)).rem_euclid(2 * i64::from(c)) - i64::from(c);
     if i64::from(card.poles) * offset.abs() >= i64::from(c) {
@@ -238,8 +242,8 @@ fn candidate(
             half_bars_words(neutral)
         ));
     }
-    d.lead_offset = HalfBars(offset as i32);
-    let checked = check(d);
+    spec.lead_offset = HalfBars(offset as i32);
+    let checked = check(build(spec)?);
     let w = &checked.winding;
     let first = &w.connections[0];
     let swing = w.lead_swing.swing_half_bars(c);
@@ -345,7 +349,9 @@ fn equalizer_choice(card: &Card, kind: WindingType) -> Result<EqualizerChoice, S
     })
 }
 
-fn design(
+/// The design a reading of the card gives, for [`Design::new`]; what the card does not say
+/// takes the design file's defaults.
+fn design_spec(
     card: &Card,
     kind: WindingType,
     m: u32,
@@ -353,29 +359,29 @@ fn design(
     u: u32,
     dummy_coils: Option<Vec<u32>>,
     equalizers: EqualizerChoice,
-) -> Design {
+) -> DesignSpec {
     let n = u * card.slots;
-    Design {
+    DesignSpec {
         file_name: card.file_name.clone(),
         job: card.job.clone(),
         poles: card.poles,
         slots: card.slots,
         coils_per_slot: u,
-        segments: card.bars,
-        // The count is written when it leaves dummies or names them, so a reader sees it.
-        segments_derived: n == card.bars,
-        rotation: card.rotation.unwrap_or(Rotation::Clockwise),
-        pole_arc: 0.7,
+        // The count is written when it leaves dummies or names them, so a reader sees it;
+        // otherwise it is the kind's own count for every coil.
+        segments: (n != card.bars).then_some(card.bars),
+        rotation: card.rotation,
+        pole_arc: None,
         winding_type: kind,
         multiplicity: m,
         direction: dir,
         span: card.coil_span,
         span_source: SpanSource::Given,
         turns: card.turns,
-        wave_coils: (kind.kind().element_count() > 1).then(|| crate::design::WaveCoils {
-            span: card.wave_coil_span.unwrap_or(card.coil_span),
-            turns: card.turns,
-        }),
+        wave_span: card
+            .wave_coil_span
+            .filter(|_| kind.kind().element_count() > 1),
+        wave_turns: None,
         lead_offset: HalfBars::ZERO,
         equalizers,
         dummy_coils,
