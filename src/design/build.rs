@@ -104,7 +104,11 @@ impl std::fmt::Display for DesignError {
 impl std::error::Error for DesignError {}
 
 /// `Err` with `key` and `message` unless `ok`.
-fn ensure(ok: bool, key: &'static str, message: impl FnOnce() -> String) -> Result<(), DesignError> {
+fn ensure(
+    ok: bool,
+    key: &'static str,
+    message: impl FnOnce() -> String,
+) -> Result<(), DesignError> {
     if ok {
         Ok(())
     } else {
@@ -209,11 +213,25 @@ fn check_armature(s: &DesignSpec) -> Result<(), DesignError> {
     ensure(
         s.poles.is_multiple_of(2) && within(s.poles, 2, bounds::MAX_POLES),
         "armature.poles",
-        || format!("expected an even pole count, 2 to {}, found {}", bounds::MAX_POLES, s.poles),
+        || {
+            format!(
+                "expected an even pole count, 2 to {}, found {}",
+                bounds::MAX_POLES,
+                s.poles
+            )
+        },
     )?;
-    ensure(within(s.slots, 2, bounds::MAX_SLOTS), "armature.slots", || {
-        format!("expected 2 to {} slots, found {}", bounds::MAX_SLOTS, s.slots)
-    })?;
+    ensure(
+        within(s.slots, 2, bounds::MAX_SLOTS),
+        "armature.slots",
+        || {
+            format!(
+                "expected 2 to {} slots, found {}",
+                bounds::MAX_SLOTS,
+                s.slots
+            )
+        },
+    )?;
     ensure(
         within(s.coils_per_slot, 1, bounds::MAX_COILS_PER_SLOT),
         "armature.coils_per_slot",
@@ -229,7 +247,12 @@ fn check_armature(s: &DesignSpec) -> Result<(), DesignError> {
     ensure(
         positions <= bounds::MAX_COILS as u64,
         "armature.coils_per_slot",
-        || format!("{positions} coils is beyond any real machine: at most {}", bounds::MAX_COILS),
+        || {
+            format!(
+                "{positions} coils is beyond any real machine: at most {}",
+                bounds::MAX_COILS
+            )
+        },
     )?;
     ensure(
         s.pole_arc.is_none_or(|a| POLE_ARC_RANGE.contains(&a)),
@@ -245,7 +268,13 @@ fn resolve_segments(s: &DesignSpec) -> Result<u32, DesignError> {
     ensure(
         within(s.multiplicity, 1, bounds::MAX_MULTIPLICITY),
         "winding.multiplicity",
-        || format!("expected 1 to {}, found {}", bounds::MAX_MULTIPLICITY, s.multiplicity),
+        || {
+            format!(
+                "expected 1 to {}, found {}",
+                bounds::MAX_MULTIPLICITY,
+                s.multiplicity
+            )
+        },
     )?;
     ensure(s.poles >= kind.min_poles(), "winding.type", || {
         format!(
@@ -265,9 +294,11 @@ fn resolve_segments(s: &DesignSpec) -> Result<u32, DesignError> {
                     .to_string(),
             })?,
     };
-    ensure(kind.workable(c, n, m, p, s.direction), "armature.segments", || {
-        kind.segment_rule(c, n, m, p, s.direction)
-    })?;
+    ensure(
+        kind.workable(c, n, m, p, s.direction),
+        "armature.segments",
+        || kind.segment_rule(c, n, m, p, s.direction),
+    )?;
     ensure(
         u64::from(c) >= u64::from(m + 1) * u64::from(s.poles),
         "armature.segments",
@@ -287,15 +318,31 @@ fn check_winding(s: &DesignSpec, segments: u32) -> Result<(), DesignError> {
     let span_ok = |span: u32| span >= 1 && span < s.slots;
     let turns_ok = |t: u32| within(t, 1, bounds::MAX_TURNS);
     ensure(span_ok(s.span), "winding.span", || {
-        format!("expected a span of 1 to {} slots, found {}", s.slots - 1, s.span)
+        format!(
+            "expected a span of 1 to {} slots, found {}",
+            s.slots - 1,
+            s.span
+        )
     })?;
     ensure(turns_ok(s.turns), "winding.turns", || {
-        format!("expected 1 to {} turns, found {}", bounds::MAX_TURNS, s.turns)
+        format!(
+            "expected 1 to {} turns, found {}",
+            bounds::MAX_TURNS,
+            s.turns
+        )
     })?;
     let several = kind.element_count() > 1;
     for (key, given, ok) in [
-        ("winding.wave_span", s.wave_span, s.wave_span.is_none_or(span_ok)),
-        ("winding.wave_turns", s.wave_turns, s.wave_turns.is_none_or(turns_ok)),
+        (
+            "winding.wave_span",
+            s.wave_span,
+            s.wave_span.is_none_or(span_ok),
+        ),
+        (
+            "winding.wave_turns",
+            s.wave_turns,
+            s.wave_turns.is_none_or(turns_ok),
+        ),
     ] {
         ensure(given.is_none() || several, key, || {
             format!(
@@ -307,7 +354,8 @@ fn check_winding(s: &DesignSpec, segments: u32) -> Result<(), DesignError> {
     }
     let lo = s.lead_offset.0.unsigned_abs();
     ensure(
-        lo <= MAX_LEAD_OFFSET_HALF_BARS as u32 && u64::from(s.poles) * u64::from(lo) < u64::from(segments),
+        lo <= MAX_LEAD_OFFSET_HALF_BARS as u32
+            && u64::from(s.poles) * u64::from(lo) < u64::from(segments),
         "winding.lead_offset",
         || format!("lead offset {} is half a pole pitch or more", s.lead_offset),
     )?;
@@ -323,9 +371,7 @@ fn check_winding(s: &DesignSpec, segments: u32) -> Result<(), DesignError> {
     )?;
     if let Some(sets) = s.commutator.as_ref().and_then(|k| k.brush_sets) {
         ensure(
-            sets.is_multiple_of(2)
-                && sets <= s.poles
-                && sets >= kind.fewest_brush_sets(s.poles),
+            sets.is_multiple_of(2) && sets <= s.poles && sets >= kind.fewest_brush_sets(s.poles),
             "commutator.brush_sets",
             || {
                 format!(
@@ -397,4 +443,62 @@ fn check_ratings(s: &DesignSpec) -> Result<(), DesignError> {
         "rating.current",
         || format!("expected above 0 and at most {} A", bounds::MAX_CURRENT_A),
     )
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::design::parse_design;
+
+    const FROG: &str = "[armature]\npoles = 6\nslots = 75\ncoils_per_slot = 2\n\n[winding]\ntype = \"frog-leg\"\nspan = 12\nwave_span = 13\nturns = 1\n";
+    const WAVE: &str = "[armature]\npoles = 4\nslots = 26\n\n[winding]\ntype = \"wave\"\nturns = 2\ndummy_coils = [13]\n";
+
+    #[test]
+    fn a_design_builds_again_from_its_spec() {
+        for text in [FROG, WAVE] {
+            let d = parse_design(text, "t.toml").unwrap();
+            assert_eq!(Design::new(d.spec()), Ok(d));
+        }
+    }
+
+    #[test]
+    fn defaults_are_filled_in_once() {
+        let mut s = parse_design(FROG, "t.toml").unwrap().spec();
+        (s.pole_arc, s.rotation, s.wave_turns) = (None, None, None);
+        let d = Design::new(s).unwrap();
+        assert_eq!(d.pole_arc, DEFAULT_POLE_ARC);
+        assert_eq!(d.rotation, Rotation::Clockwise);
+        assert_eq!(d.wave_coils, Some(WaveCoils { span: 13, turns: 1 }));
+    }
+
+    #[test]
+    fn the_constructor_refuses_what_the_parser_refuses() {
+        let frog = parse_design(FROG, "t.toml").unwrap();
+        let wave = parse_design(WAVE, "t.toml").unwrap();
+        let refused = |s: DesignSpec| Design::new(s).unwrap_err().key;
+        let mut s = frog.spec();
+        s.dummy_coils = Some(vec![26]);
+        assert_eq!(refused(s), "winding.dummy_coils");
+        let mut s = wave.spec();
+        s.dummy_coils = Some(vec![13, 14]);
+        assert_eq!(refused(s), "winding.dummy_coils");
+        let mut s = wave.spec();
+        s.segments = Some(24);
+        assert_eq!(refused(s), "armature.segments");
+        let mut s = wave.spec();
+        s.equalizers = EqualizerChoice::Full;
+        assert_eq!(refused(s), "winding.equalizers");
+        let mut s = wave.spec();
+        s.wave_span = Some(6);
+        assert_eq!(refused(s), "winding.wave_span");
+        let mut s = frog.spec();
+        s.lead_offset = HalfBars(50);
+        assert_eq!(refused(s), "winding.lead_offset");
+        let mut s = frog.spec();
+        s.poles = 5;
+        assert_eq!(refused(s), "armature.poles");
+        let mut s = frog.spec();
+        s.speed_rpm = Some(0.0);
+        assert_eq!(refused(s), "rating.speed_rpm");
+    }
 }

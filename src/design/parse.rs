@@ -14,8 +14,8 @@ use toml::de::DeTable;
 
 use crate::base::visible::{ECHO_WIDTH, clip};
 
-use super::build::DesignSpec;
 use super::Diagnostic;
+use super::build::DesignSpec;
 use super::diagnostic::Diagnostics;
 use super::model::*;
 use super::reader::{Found, Source, TableReader, nearest};
@@ -116,37 +116,7 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
     }
     let root = DeTable::parse(text).map_err(|e| toml_error(&src, &e))?;
     let root_table = root.get_ref();
-    for (k, v) in root_table.iter() {
-        let word: &str = k.get_ref();
-        if !TABLES.contains(&word) {
-            let d = src.error(
-                k.span(),
-                word,
-                format!(
-                    "unknown table or key `{}` at the top level",
-                    clip(word, ECHO_WIDTH)
-                ),
-            );
-            return Err(match nearest(word, TABLES) {
-                Some(n) => d.with_hint(format!("did you mean [{n}]?")),
-                None => d.with_hint(format!("a design holds the tables {}", tables_list())),
-            });
-        }
-        if !v.get_ref().is_table() {
-            return Err(src
-                .error(
-                    v.span(),
-                    word,
-                    format!(
-                        "expected a table [{word}], found {}",
-                        v.get_ref().type_str()
-                    ),
-                )
-                .with_hint(format!(
-                    "write `[{word}]` on a line of its own and the keys under it"
-                )));
-        }
-    }
+    check_tables(&src, root_table)?;
     let empty = DeTable::default();
     let table = |name: &'static str| -> Option<TableReader<'_, '_>> {
         root_table.get(name).map(|v| TableReader {
@@ -237,6 +207,42 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
     })
     .map(Some)
     .map_err(|e| Diagnostic::new(file, text, 0..0, e.key, e.message))
+}
+
+/// The top level of a design: only the tables of [`TABLES`], each a table.
+fn check_tables(src: &Source<'_>, root_table: &DeTable<'_>) -> Result<(), Diagnostic> {
+    for (k, v) in root_table.iter() {
+        let word: &str = k.get_ref();
+        if !TABLES.contains(&word) {
+            let d = src.error(
+                k.span(),
+                word,
+                format!(
+                    "unknown table or key `{}` at the top level",
+                    clip(word, ECHO_WIDTH)
+                ),
+            );
+            return Err(match nearest(word, TABLES) {
+                Some(n) => d.with_hint(format!("did you mean [{n}]?")),
+                None => d.with_hint(format!("a design holds the tables {}", tables_list())),
+            });
+        }
+        if !v.get_ref().is_table() {
+            return Err(src
+                .error(
+                    v.span(),
+                    word,
+                    format!(
+                        "expected a table [{word}], found {}",
+                        v.get_ref().type_str()
+                    ),
+                )
+                .with_hint(format!(
+                    "write `[{word}]` on a line of its own and the keys under it"
+                )));
+        }
+    }
+    Ok(())
 }
 
 fn tables_list() -> String {

@@ -11,8 +11,8 @@
 //!
 //! The defaults are filled in by [`crate::design::Design::new`].
 
-use crate::design::build::POLE_ARC_RANGE;
 use crate::design::Diagnostic;
+use crate::design::build::POLE_ARC_RANGE;
 use crate::design::model::{Rotation, bounds};
 use crate::design::reader::{At, TableReader};
 

@@ -29,9 +29,7 @@ use super::segments;
 use crate::base::visible::{ECHO_WIDTH, clip};
 use crate::design::Diagnostic;
 use crate::design::build::{MAX_EQUALIZER_STEP, MAX_LEAD_OFFSET_HALF_BARS};
-use crate::design::model::{
-    Direction, EqualizerChoice, HalfBars, SpanSource, WindingType, bounds,
-};
+use crate::design::model::{Direction, EqualizerChoice, HalfBars, SpanSource, WindingType, bounds};
 use crate::design::reader::{At, TableReader, fmt_num};
 
 /// The keys of `[winding]`.
@@ -157,42 +155,14 @@ pub(crate) fn read(
         p,
         a.segments.as_ref(),
     ))?;
-    if active < (m + 1) * poles.value {
-        let at = a
-            .segments
-            .as_ref()
-            .map_or(a.slots.span.clone(), |s| s.span.clone());
-        src.found.push(src
-            .error(
-                at,
-                "armature.segments",
-                format!(
-                    "{active} segments is too few for {} poles and multiplicity {m}: expected at least {} ((m + 1) segments per pole)",
-                    poles.value,
-                    (m + 1) * poles.value
-                ),
-            )
-            .with_hint("the brushes of neighbouring poles would touch; check the poles, slots and coils per slot"));
-        return None;
-    }
+    win.keep(enough_segments(win, a, active, m))?;
     let lead_offset = lead_offset?;
-    if let Some(lo) = &lead_offset
-        && poles.value * lo.value.abs() >= active
-    {
-        src.found.push(src
-                .error(
-                    lo.span.clone(),
-                    "winding.lead_offset",
-                    format!(
-                        "lead offset {} is half a pole pitch or more: expected |lead_offset| < {} segments ({active} segments, {} poles)",
-                        HalfBars(lo.value as i32),
-                        fmt_half_pitch(active, poles.value),
-                        poles.value
-                    ),
-                )
-                .with_hint("the offset swings the leads a few segments from the symmetric position; measure it on the old winding"));
-        return None;
-    }
+    win.keep(lead_offset_within(
+        win,
+        lead_offset.as_ref(),
+        active,
+        poles.value,
+    ))?;
     let dummy_coils = win.keep(read_dummy_coils(win, wtype, a.positions, active))?;
     let (span, span_source) = span?;
     let turns = turns?.value;
@@ -210,6 +180,56 @@ pub(crate) fn read(
         dummy_coils,
         wave_coils,
     })
+}
+
+/// At least (m + 1) segments a pole, so the brushes of neighbouring poles do not touch.
+fn enough_segments(
+    win: &TableReader<'_, '_>,
+    a: &Armature,
+    active: i64,
+    m: i64,
+) -> Result<(), Diagnostic> {
+    let poles = a.poles.value;
+    if active >= (m + 1) * poles {
+        return Ok(());
+    }
+    let at = a
+        .segments
+        .as_ref()
+        .map_or(a.slots.span.clone(), |s| s.span.clone());
+    Err(win.src
+        .error(
+            at,
+            "armature.segments",
+            format!(
+                "{active} segments is too few for {poles} poles and multiplicity {m}: expected at least {} ((m + 1) segments per pole)",
+                (m + 1) * poles
+            ),
+        )
+        .with_hint("the brushes of neighbouring poles would touch; check the poles, slots and coils per slot"))
+}
+
+/// The lead offset less than half a pole pitch either way.
+fn lead_offset_within(
+    win: &TableReader<'_, '_>,
+    lead_offset: Option<&At<i64>>,
+    active: i64,
+    poles: i64,
+) -> Result<(), Diagnostic> {
+    let Some(lo) = lead_offset.filter(|lo| poles * lo.value.abs() >= active) else {
+        return Ok(());
+    };
+    Err(win.src
+        .error(
+            lo.span.clone(),
+            "winding.lead_offset",
+            format!(
+                "lead offset {} is half a pole pitch or more: expected |lead_offset| < {} segments ({active} segments, {poles} poles)",
+                HalfBars(lo.value as i32),
+                fmt_half_pitch(active, poles),
+            ),
+        )
+        .with_hint("the offset swings the leads a few segments from the symmetric position; measure it on the old winding"))
 }
 
 /// `wave_span` and `wave_turns`, when given: the wave element's coils of a frog-leg winding;

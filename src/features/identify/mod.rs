@@ -15,8 +15,8 @@
 use crate::checks::BAR_RULE;
 use crate::checks::{Checked, check};
 use crate::design::{
-    Card, Commutator, Conductor, Design, DesignSpec, Direction, EqualizerChoice, HalfBars,
-    Limits, Mode, SpanSource, WindingType, bounds,
+    Card, Commutator, Conductor, Design, DesignSpec, Direction, EqualizerChoice, HalfBars, Limits,
+    Mode, SpanSource, WindingType, bounds,
 };
 use crate::theory::pitch::gcd;
 use crate::theory::words::{half_bars_words, multiplicity_word, span_shop};

@@ -634,10 +634,7 @@ fn new_conductor(
     };
     let area_new = shape.as_ref().map(conductor::conductor_area_mm2);
     let (t0, turns) = (f64::from(d.turns), f64::from(new.turns));
-    let fill = |area: Option<f64>| {
-        area.zip(area_old)
-            .map(|(an, ao)| turns * an / (t0 * ao))
-    };
+    let fill = |area: Option<f64>| area.zip(area_old).map(|(an, ao)| turns * an / (t0 * ao));
     let (fill_exact, fill_chosen) = (fill(area_needed), fill(area_new));
     let density = new
         .current
@@ -676,8 +673,7 @@ fn new_strip(
     notes: &mut Vec<String>,
 ) -> Result<ConductorShape, RewindError> {
     let per = area / f64::from(strands);
-    let h = ((per + (4.0 - std::f64::consts::PI) * corner_radius_mm * corner_radius_mm)
-        / width_mm
+    let h = ((per + (4.0 - std::f64::consts::PI) * corner_radius_mm * corner_radius_mm) / width_mm
         * 100.0)
         .round()
         / 100.0;
