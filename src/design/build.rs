@@ -365,7 +365,7 @@ fn check_winding(s: &DesignSpec, segments: u32) -> Result<(), DesignError> {
         || kind.no_equalizers_reason().to_string(),
     )?;
     ensure(
-        !matches!(s.equalizers, EqualizerChoice::EveryNth(k) if k < 2 || k > MAX_EQUALIZER_STEP),
+        !matches!(s.equalizers, EqualizerChoice::EveryNth(k) if !(2..=MAX_EQUALIZER_STEP).contains(&k)),
         "winding.equalizers",
         || format!("expected every n-th connection, n = 2 to {MAX_EQUALIZER_STEP}"),
     )?;

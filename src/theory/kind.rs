@@ -149,6 +149,10 @@ pub trait WindingKind: Sync {
     /// commutator).
     fn segment_rule(&self, c: u32, n: u32, m: u32, p: u32, dir: Direction) -> String;
 
+    /// The hint when `n` coil positions do not suit a kind that uses every coil (a frog-leg
+    /// with C/p not whole): what must hold, and the nearest counts that work.
+    fn segment_hint(&self, n: u32, m: u32, p: u32) -> String;
+
     /// Whether the kind uses every coil position (no dummy coils): C = u·S. A kind that does
     /// not may leave dummy coils (`[winding] dummy_coils`).
     fn uses_every_coil(&self) -> bool;
@@ -241,6 +245,9 @@ impl WindingKind for Lap {
     fn segment_rule(&self, _c: u32, n: u32, _m: u32, _p: u32, _dir: Direction) -> String {
         format!("a lap winding uses all {n} coils")
     }
+    fn segment_hint(&self, n: u32, _m: u32, _p: u32) -> String {
+        format!("a lap winding takes {n} segments, one a coil")
+    }
     fn uses_every_coil(&self) -> bool {
         true
     }
@@ -317,6 +324,9 @@ impl WindingKind for Wave {
             "a {} wave needs (C {sign} {m})/{p} whole, which {c} does not give",
             dir.as_str()
         )
+    }
+    fn segment_hint(&self, _n: u32, _m: u32, _p: u32) -> String {
+        "a wave winding may leave dummy coils: give fewer segments".to_string()
     }
     fn uses_every_coil(&self) -> bool {
         false
@@ -408,6 +418,15 @@ impl WindingKind for FrogLeg {
     fn segment_rule(&self, c: u32, n: u32, _m: u32, p: u32, _dir: Direction) -> String {
         format!(
             "a frog-leg winding uses all {n} coils in each element and needs C/p whole, which {c}/{p} is not"
+        )
+    }
+    // The wave element's pitch C/p ∓ m must be whole: the nearest counts.
+    fn segment_hint(&self, n: u32, m: u32, p: u32) -> String {
+        let p = p.max(1);
+        let below = n - n % p;
+        let above = below + p;
+        format!(
+            "the wave element's commutator pitch C/p - {m} must be whole: slots × coils_per_slot must divide by the {p} pole pairs (e.g. {below} or {above} coils)"
         )
     }
     fn uses_every_coil(&self) -> bool {

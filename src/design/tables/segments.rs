@@ -59,7 +59,7 @@ pub(crate) fn resolve(
                     key,
                     kind.segment_rule(c as u32, positions as u32, m as u32, p as u32, direction),
                 )
-                .with_hint(frog_leg_hint(positions, m, p)));
+                .with_hint(kind.segment_hint(positions as u32, m as u32, p as u32)));
         }
         return Ok(c);
     }
@@ -129,15 +129,4 @@ pub(crate) fn resolve(
             Ok(c.value)
         }
     }
-}
-
-/// The hint for a kind that uses every coil when the coil count does not suit it (a frog-leg
-/// with C/p not whole): the wave element's pitch C/p ∓ m must be whole; the nearest counts.
-fn frog_leg_hint(positions: i64, m: i64, p: i64) -> String {
-    let p = p.max(1);
-    let below = positions - positions.rem_euclid(p);
-    let above = below + p;
-    format!(
-        "the wave element's commutator pitch C/p - {m} must be whole: slots × coils_per_slot must divide by the {p} pole pairs (e.g. {below} or {above} coils)"
-    )
 }
