@@ -14,6 +14,9 @@ const KIND_NAMES: [&str; 3] = [
     "WindingType::FrogLeg",
 ];
 
+/// Imports that would bring the kinds in under their bare names (`use WindingType::*`).
+const KIND_IMPORTS: [&str; 2] = ["WindingType::*", "WindingType::{"];
+
 /// The one folder that may name the kinds, relative to `src/`.
 const THEORY: &str = "theory";
 
@@ -72,6 +75,11 @@ fn violations(file: &str, text: &str) -> Vec<String> {
                 }
             }
         }
+        for import in KIND_IMPORTS {
+            if code.contains(import) {
+                out.push(format!("{file}:{}: {import}", n + 1));
+            }
+        }
     }
     out
 }
@@ -116,12 +124,14 @@ fn f(t: WindingType) -> bool {
     matches!(t, WindingType::FrogLeg) || bad // WindingType::Lap in a trailing comment
 }
 const NOT_A_KIND: &str = \"WindingType::Lapwing\";
+use crate::theory::WindingType::*;
 ";
     assert_eq!(
         violations("src/planted.rs", planted),
         vec![
             "src/planted.rs:6: WindingType::Wave".to_string(),
             "src/planted.rs:7: WindingType::FrogLeg".to_string(),
+            "src/planted.rs:10: WindingType::*".to_string(),
         ]
     );
     // And the walk finds a planted file in a folder that is not theory, but not in theory.

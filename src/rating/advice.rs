@@ -8,7 +8,7 @@
 use std::f64::consts::PI;
 
 use super::conductor::{WireFamily, WireOption};
-use super::scheme::{Scheme, connect};
+use super::scheme::{Scheme, connect, connect_with_coils};
 use crate::design::{Design, WindingType, bounds};
 
 /// What the advice needs to know about the machine as designed.
@@ -252,9 +252,7 @@ pub fn more_segments(m: &Machine<'_>, c_min: Option<u32>) -> Advice {
     let found = c_min.and_then(|c_min| {
         let first_u = c_min.div_ceil(s).max(d.coils_per_slot + 1);
         (first_u..=bounds::MAX_COILS_PER_SLOT as u32).find_map(|u| {
-            let mut dd = d.clone();
-            dd.coils_per_slot = u;
-            let k = connect(&dd, 0, d.winding_type, d.multiplicity).ok()?;
+            let k = connect_with_coils(d, u, 0, d.winding_type, d.multiplicity).ok()?;
             (k.segments >= c_min).then_some((u, k))
         })
     });

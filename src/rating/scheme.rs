@@ -107,7 +107,19 @@ pub fn connect(
     kind: WindingType,
     m: u32,
 ) -> Result<Scheme, ConnectError> {
-    let n = d.coil_positions();
+    connect_with_coils(d, d.coils_per_slot, current_segments, kind, m)
+}
+
+/// [`connect`] on `u` coils per slot instead of the design's (the advice's "more segments"
+/// asks what more coils would give).
+pub fn connect_with_coils(
+    d: &Design,
+    u: u32,
+    current_segments: u32,
+    kind: WindingType,
+    m: u32,
+) -> Result<Scheme, ConnectError> {
+    let n = u * d.slots;
     let p = d.pole_pairs();
     if !(1..=bounds::MAX_MULTIPLICITY as u32).contains(&m) {
         return Err(ConnectError::MultiplicityOutOfRange {
