@@ -512,6 +512,27 @@ mod tests {
     }
 
     #[test]
+    fn each_kind_answers_one_rule_family() {
+        // `checks::run_checks` runs the equalizer rules, the dummy-coil rules or the element
+        // rules on these answers: each kind must pick exactly one family.
+        for t in WindingType::ALL {
+            let k = t.kind();
+            let families = [
+                k.takes_equalizers(),
+                !k.uses_every_coil(),
+                k.element_count() > 1,
+            ];
+            assert_eq!(families.iter().filter(|&&f| f).count(), 1, "{}", t.as_str());
+        }
+        assert_eq!(bar_rule(4, 25), Some(WindingType::Wave));
+        assert_eq!(bar_rule(6, 36), Some(WindingType::Lap));
+        assert_eq!(bar_rule(2, 36), None);
+        assert_eq!(Wave.feed_pitch(25, 4), 6);
+        assert_eq!(FrogLeg.fewest_brush_sets(6), 6);
+        assert_eq!(Wave.more_paths_kind(), Some(WindingType::Lap));
+    }
+
+    #[test]
     fn frog_leg_elements() {
         // 4 poles, 58 bars: lap 1-2, wave y_c = (58 - 2)/2 = 28, 8 paths [derived; DOMAIN.md
         // "Frog-leg windings"].
