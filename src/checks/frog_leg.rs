@@ -7,15 +7,13 @@
 
 use super::{Finding, rules};
 use crate::design::Design;
-use crate::theory::WindingType;
 use crate::winding::{Connection, Winding, WindingElement};
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let c = w.active_coils;
     let p = d.pole_pairs();
-    let lap = w.elements.iter().find(|e| e.kind == WindingType::Lap);
-    let wave = w.elements.iter().find(|e| e.kind == WindingType::Wave);
-    let (Some(lap), Some(wave)) = (lap, wave) else {
+    // The kind gives the lap element first, then the wave element.
+    let [lap, wave] = &w.elements[..] else {
         return;
     };
     out.push(Finding::of(&rules::FROGLEG_POLE_PAIRS_WHOLE, c.is_multiple_of(p), format!(

@@ -3,7 +3,8 @@
 //! Part of the `checks` stage.
 
 use super::{Finding, rules};
-use crate::design::{Design, WindingType};
+use crate::design::Design;
+use crate::theory::bar_rule;
 use crate::winding::Winding;
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
@@ -26,23 +27,5 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
                 }
             ),
         ));
-    }
-}
-
-/// The winding kind the shop's bar-count rule of thumb suggests for `c` bars on `poles` poles,
-/// when the rule speaks for that pole count ([`BAR_RULE`](super::sources::BAR_RULE), common practice).
-pub fn bar_rule(poles: u32, c: u32) -> Option<WindingType> {
-    match poles {
-        4 | 8 => Some(if c.is_multiple_of(2) {
-            WindingType::Lap
-        } else {
-            WindingType::Wave
-        }),
-        6 => Some(if c.is_multiple_of(3) {
-            WindingType::Lap
-        } else {
-            WindingType::Wave
-        }),
-        _ => None,
     }
 }

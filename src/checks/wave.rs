@@ -8,7 +8,7 @@ use std::collections::BTreeMap;
 
 use super::lap::{multiplex_brush, narrow_multiplex_brush};
 use super::{Finding, Severity, rules};
-use crate::design::{Design, WindingType};
+use crate::design::Design;
 use crate::winding::Winding;
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
@@ -33,7 +33,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         out.extend(narrow_multiplex_brush(m, w));
     }
     let dummies = w.dummy_coils.len() as u32;
-    let wave = WindingType::Wave.kind();
+    let wave = d.winding_type.kind();
     let best = wave
         .default_segments(w.coils, m, p, d.direction)
         .unwrap_or(c);

@@ -385,6 +385,7 @@ pub fn rewind_message(e: &RewindError) -> String {
         ),
         RewindError::SpeedUnknown => "no speed to rewind for: give --speed N, or [rating] speed_rpm or voltage in the design".to_string(),
         RewindError::Connect(e) => format!("cannot connect the coils as asked: {e}"),
+        RewindError::Design(e) => format!("the new design would not be a valid design: {e}"),
         RewindError::DropExceedsEmf => "the resistive drop at this speed is larger than the EMF per conductor: no winding gives this voltage".to_string(),
         RewindError::BelowBrushDrop {
             volts,

@@ -39,8 +39,7 @@ pub const STARTER: &str = include_str!("starter.toml");
 /// The starter data card written by `armsheet new --card`.
 pub const STARTER_CARD: &str = include_str!("starter-card.toml");
 
-const ABOUT: &str =
-    "Designs, checks and prints DC armature windings (lap and wave, simplex and multiplex).";
+const ABOUT: &str = "Designs, checks and prints DC armature windings (lap, wave and frog-leg, simplex and multiplex).";
 
 const CONVENTIONS: &str = concat!(
     "\
@@ -90,8 +89,9 @@ const CHECK_HELP: &str = concat!(
     "\
 The design file is TOML with the tables [job], [armature] (poles, slots, coils_per_slot,
 segments, rotation, pole_arc), [winding] (type, multiplicity, direction, span, turns,
-lead_offset, equalizers, dummy_coils, flux_per_pole_mwb, speed_rpm) and, for rating checks, [rating],
-[conductor], [core], [commutator], [limits]. Unknown keys are errors.
+lead_offset, equalizers, dummy_coils, wave_span, wave_turns, flux_per_pole_mwb, speed_rpm)
+and, for rating checks, [rating], [conductor], [core], [commutator], [limits]. Unknown keys
+are errors.
 Span: 7 or the shop form \"1-8\". lead_offset 0 puts a coil's two segments either side of its
 centre line; + swings the leads towards rising segment numbers.
 ",

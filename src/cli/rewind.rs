@@ -12,7 +12,8 @@
 
 use std::path::{Path, PathBuf};
 
-use clap::{Args, ValueEnum};
+use clap::Args;
+use clap::builder::PossibleValue;
 
 use super::Outcome;
 use super::error::{CliError, NoOverwrite};
@@ -37,13 +38,14 @@ never a folder, a device, a FIFO or a link to nothing.
 Without -o the file is written beside the design as NAME-<V>V.toml.
 Exit codes: 0 written, 2 bad input, an impossible request or output that could not be written.";
 
-/// `--type`.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
-pub enum TypeArg {
-    /// Lap: a = m·P.
-    Lap,
-    /// Wave: a = 2m.
-    Wave,
+/// `--type` takes the kinds' design-file words, from `theory`.
+impl clap::ValueEnum for WindingType {
+    fn value_variants<'a>() -> &'a [Self] {
+        &WindingType::ALL
+    }
+    fn to_possible_value(&self) -> Option<PossibleValue> {
+        Some(PossibleValue::new(self.as_str()))
+    }
 }
 
 /// Arguments of `rewind`.
@@ -59,8 +61,8 @@ pub struct RewindArgs {
     #[arg(long, value_name = "N")]
     pub speed: Option<f64>,
     /// New connection (default: the design's).
-    #[arg(long = "type", value_enum, value_name = "lap|wave")]
-    pub kind: Option<TypeArg>,
+    #[arg(long = "type", value_enum, value_name = "KIND")]
+    pub kind: Option<WindingType>,
     /// New multiplicity, 1 to 6 (default: the design's).
     #[arg(long, value_name = "m")]
     pub multiplicity: Option<u32>,
@@ -112,10 +114,7 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
     let req = RewindRequest {
         voltage,
         speed_rpm: a.speed,
-        kind: a.kind.map(|k| match k {
-            TypeArg::Lap => WindingType::Lap,
-            TypeArg::Wave => WindingType::Wave,
-        }),
+        kind: a.kind,
         multiplicity: a.multiplicity,
         from_test,
         measured_r20: a.ra,
@@ -184,10 +183,7 @@ fn asked_line(a: &RewindArgs) -> String {
         s.push_str(&format!(" --speed {}", fmt_toml(n, 3)));
     }
     if let Some(k) = a.kind {
-        s.push_str(match k {
-            TypeArg::Lap => " --type lap",
-            TypeArg::Wave => " --type wave",
-        });
+        s.push_str(&format!(" --type {}", k.as_str()));
     }
     if let Some(m) = a.multiplicity {
         s.push_str(&format!(" --multiplicity {m}"));

@@ -306,7 +306,8 @@ impl std::fmt::Display for HalfBars {
     }
 }
 
-/// A fully resolved, validated armature design.
+/// A fully resolved, validated armature design, built by [`Design::new`] alone
+/// (`design/build.rs`).
 #[derive(Clone, Debug, PartialEq)]
 pub struct Design {
     /// The file name as given (shown on reports and sheets).
@@ -326,7 +327,7 @@ pub struct Design {
     pub segments_derived: bool,
     /// `[armature] rotation`.
     pub rotation: Rotation,
-    /// `[armature] pole_arc`: pole arc / pole pitch (default 0.7).
+    /// `[armature] pole_arc`: pole arc / pole pitch (default [`super::DEFAULT_POLE_ARC`]).
     pub pole_arc: f64,
     /// `[winding] type`.
     pub winding_type: WindingType,
@@ -367,7 +368,13 @@ pub struct Design {
     pub commutator: Option<Commutator>,
     /// `[limits]` with defaults filled in (see [`super::LIMITS`]).
     pub limits: super::Limits,
+    /// Only [`Design::new`] makes a design: no code outside `design` can write this field.
+    pub(super) sealed: Sealed,
 }
+
+/// The mark of a [`Design`] built by [`Design::new`], which alone checks it.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct Sealed(pub(super) ());
 
 impl Design {
     /// Pole pairs p = P/2.
