@@ -1,46 +1,19 @@
 //! Tidy tests: the invariants of the house, checked mechanically over `src/`.
 //!
 //! - Every import points down the pipeline: a module in stage k uses only stages 0…k
-//!   ([`armsheet::STAGES`] is the one list; DEVELOPERS.md shows the same order).
+//!   ([`armsheet::STAGES`] is the one list; DEVELOPERS.md shows the same order). The sources
+//!   are read as Rust (`support::source`): whole `use` items and every `crate::` path.
+//! - No feature (`src/features/NAME/`) imports another.
 //! - No production file includes anything from `tests/`.
 //! - Every source file opens with its `//!` paragraph.
 //! - Only `cli` touches files, the clock, the terminal or the environment.
 
-use std::path::{Path, PathBuf};
-
 use armsheet::STAGES;
 
-const SRC: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/src");
-
-fn sources(dir: &Path, out: &mut Vec<PathBuf>) {
-    let mut entries: Vec<_> = std::fs::read_dir(dir)
-        .unwrap()
-        .map(|e| e.unwrap().path())
-        .collect();
-    entries.sort();
-    for p in entries {
-        if p.is_dir() {
-            sources(&p, out);
-        } else if p.extension().is_some_and(|e| e == "rs") {
-            out.push(p);
-        }
-    }
-}
+use crate::support::source::{CratePath, SRC, crate_paths, rust_files};
 
 fn all_sources() -> Vec<(String, String)> {
-    let mut files = Vec::new();
-    sources(Path::new(SRC), &mut files);
-    files
-        .into_iter()
-        .map(|p| {
-            let rel = p
-                .strip_prefix(SRC)
-                .unwrap()
-                .to_string_lossy()
-                .replace('\\', "/");
-            (rel, std::fs::read_to_string(&p).unwrap())
-        })
-        .collect()
+    rust_files(SRC)
 }
 
 /// The stage a file belongs to: its first folder under `src/`, or `None` for the crate root.
@@ -57,52 +30,61 @@ fn code(line: &str) -> &str {
     }
 }
 
-/// Every crate-level module named after `crate::` on a line: `crate::a::b`, `crate::{a, b::c}`.
-fn crate_refs(line: &str) -> Vec<String> {
-    let mut out = Vec::new();
-    let mut rest = line;
-    while let Some(i) = rest.find("crate::") {
-        rest = &rest[i + "crate::".len()..];
-        if let Some(group) = rest.strip_prefix('{') {
-            let end = group.find('}').unwrap_or(group.len());
-            for part in group[..end].split(',') {
-                let name: String = part
-                    .trim()
-                    .chars()
-                    .take_while(|c| c.is_alphanumeric() || *c == '_')
-                    .collect();
-                if !name.is_empty() {
-                    out.push(name);
-                }
-            }
-        } else {
-            let name: String = rest
-                .chars()
-                .take_while(|c| c.is_alphanumeric() || *c == '_')
-                .collect();
-            out.push(name);
-        }
-    }
-    out
+/// The feature a file belongs to: `rewind` for `features/rewind/…`.
+fn feature_of(rel: &str) -> Option<&str> {
+    let rest = rel.strip_prefix("features/")?;
+    let (feature, _) = rest.split_once('/')?;
+    Some(feature)
 }
 
+/// What is wrong with the imports of the file `rel` (under `src/`) with the text `text`:
+/// a path into a later stage (a glob of the crate root counts as every stage), and from
+/// inside a feature a path into another feature.
+fn import_breaches(rel: &str, text: &str) -> Vec<String> {
+    let Some(own) = stage_of(rel) else {
+        return Vec::new();
+    };
+    let mut bad = Vec::new();
+    for CratePath { line, path } in crate_paths(rel, text) {
+        let Some(first) = path.first() else { continue };
+        let stage = if first == "*" {
+            Some(STAGES.len() - 1)
+        } else {
+            STAGES.iter().position(|s| s == first)
+        };
+        if let Some(k) = stage.filter(|&k| k > own) {
+            bad.push(format!(
+                "src/{rel}:{line}: stage `{}` uses the later stage `{}` (`crate::{}`)",
+                STAGES[own],
+                STAGES[k],
+                path.join("::")
+            ));
+        }
+        if let (Some(mine), ["features", other, ..]) = (
+            feature_of(rel),
+            path.iter()
+                .map(String::as_str)
+                .collect::<Vec<_>>()
+                .as_slice(),
+        ) && mine != *other
+        {
+            bad.push(format!(
+                "src/{rel}:{line}: the feature `{mine}` uses the feature `{other}` (`crate::{}`)",
+                path.join("::")
+            ));
+        }
+    }
+    bad
+}
+
+/// Imports point down the pipeline, read as Rust: every leaf of every `use` tree, multi-line
+/// groups included, and every `crate::`/`super::` path in code and in macro calls; and no
+/// feature imports another (a feature reads a `Checked`, never another feature's result).
 #[test]
-fn every_import_points_down_the_pipeline() {
+fn every_import_points_down_the_pipeline_and_no_feature_uses_another() {
     let mut bad = Vec::new();
     for (rel, text) in all_sources() {
-        let Some(own) = stage_of(&rel) else { continue };
-        for (n, line) in text.lines().enumerate() {
-            for name in crate_refs(code(line)) {
-                match STAGES.iter().position(|s| *s == name) {
-                    Some(k) if k > own => bad.push(format!(
-                        "src/{rel}:{}: stage `{}` uses the later stage `{name}`",
-                        n + 1,
-                        STAGES[own]
-                    )),
-                    _ => {}
-                }
-            }
-        }
+        bad.extend(import_breaches(&rel, &text));
     }
     assert!(
         bad.is_empty(),
@@ -224,8 +206,14 @@ fn the_engine_rating_and_checks_are_entered_in_one_place() {
         ("rate(", &["checks/mod.rs", "rating/mod.rs"]),
         ("rate_with(", &["rating/mod.rs", "features/rewind/mod.rs"]),
         ("run_checks(", &["checks/mod.rs"]),
-        ("armature_test(", &["features/armature_test/mod.rs", "cli/armature_test.rs"]),
-        ("expected(", &["features/armature_test/mod.rs", "cli/sheet.rs"]),
+        (
+            "armature_test(",
+            &["features/armature_test/mod.rs", "cli/armature_test.rs"],
+        ),
+        (
+            "expected(",
+            &["features/armature_test/mod.rs", "cli/sheet.rs"],
+        ),
     ];
     for (rel, text) in all_sources() {
         // A unit-test file (`mod tests;` under `#[cfg(test)]`) may drive the stages freely.
@@ -253,14 +241,82 @@ fn the_engine_rating_and_checks_are_entered_in_one_place() {
 }
 
 #[test]
-fn the_checker_sees_a_violation() {
-    // The scanner itself: an upward import is found, a comment is not, grouped paths count.
-    assert_eq!(crate_refs("use crate::render::number;"), ["render"]);
+fn the_import_guard_sees_a_planted_violation() {
+    // A grouped import over several lines in the engine, naming two later stages.
+    let planted = "//! x\nuse crate::{\n    cli::x,\n    render::y,\n};\n";
     assert_eq!(
-        crate_refs("use crate::{design::Design, winding};"),
-        ["design", "winding"]
+        import_breaches("winding/brushes.rs", planted),
+        [
+            "src/winding/brushes.rs:3: stage `winding` uses the later stage `cli` (`crate::cli::x`)",
+            "src/winding/brushes.rs:4: stage `winding` uses the later stage `render` (`crate::render::y`)",
+        ]
     );
-    assert!(crate_refs(code("let x = 1; // see crate::cli")).is_empty());
-    assert_eq!(stage_of("winding/mod.rs"), Some(3));
+    // A nested group, a path in code, a path reached through `super`, a path inside a macro,
+    // and a glob of the crate root.
+    for (planted, breaches) in [
+        ("use crate::{design::Design, layout::{Page, tree}};", 2),
+        ("fn f() { crate::layout::sheet_pages(); }", 1),
+        ("fn f() -> Option<crate::render::Text> { None }", 1),
+        ("use super::super::super::render::svg;", 1),
+        ("fn f() { let _ = format!(\"{}\", crate::cli::NAME); }", 1),
+        ("use crate::*;", 1),
+    ] {
+        assert_eq!(
+            import_breaches("winding/trace/deep.rs", planted).len(),
+            breaches,
+            "not caught: {planted}"
+        );
+    }
+    // The same paths where they point down, and comments, are not breaches.
+    for fine in [
+        "use crate::{\n    design::Design,\n    theory::WindingType,\n};",
+        "// use crate::cli::x;\n/// See [`crate::render`].\nfn f() {}",
+        "use super::brushes;",
+        "fn f() { let _ = format!(\"crate::cli\"); }",
+    ] {
+        assert!(
+            import_breaches("winding/trace/deep.rs", fine).is_empty(),
+            "caught: {fine}"
+        );
+    }
+    assert_eq!(
+        stage_of("winding/mod.rs"),
+        STAGES.iter().position(|s| *s == "winding")
+    );
     assert_eq!(stage_of("lib.rs"), None);
+}
+
+#[test]
+fn the_feature_guard_sees_a_planted_violation() {
+    // One feature naming another, grouped over lines, through `super`, and in code.
+    for planted in [
+        "use crate::features::{\n    identify::identify,\n};",
+        "use super::super::identify::identify;",
+        "fn f() { crate::features::armature_test::expected(); }",
+    ] {
+        let bad = import_breaches("features/rewind/design_toml.rs", planted);
+        assert_eq!(bad.len(), 1, "not caught: {planted}");
+        assert!(
+            bad[0].contains("the feature `rewind` uses the feature"),
+            "{bad:?}"
+        );
+    }
+    // Its own room, the stages below, and the feature stage's root are fine.
+    for fine in [
+        "use crate::features::rewind::design_toml;",
+        "use super::RewindRequest;",
+        "use crate::checks::Checked;",
+    ] {
+        assert!(
+            import_breaches("features/rewind/design_toml.rs", fine).is_empty(),
+            "caught: {fine}"
+        );
+    }
+    assert!(
+        import_breaches(
+            "features/mod.rs",
+            "pub use crate::features::rewind::rewind;"
+        )
+        .is_empty()
+    );
 }

@@ -2,8 +2,10 @@
 //! independent solver (petgraph's components and a dense Laplacian of our own), and the
 //! `test` command's outputs.
 
-mod support;
+use crate::support;
 
+use crate::support::random_design::{OFF, Space, designs, one_coil_a_slot as toml};
+use crate::support::{armsheet, design, scratch, text};
 use armsheet::check;
 use armsheet::features::armature_test::{
     ArmatureTest, Network, TestOptions, armature_test, neighbour_pairs,
@@ -12,13 +14,6 @@ use armsheet::winding::{EqualizerPlan, Winding};
 use petgraph::graph::UnGraph;
 use petgraph::unionfind::UnionFind;
 use proptest::prelude::*;
-use support::{armsheet, design, scratch, text};
-
-fn toml(poles: u32, slots: u32, kind: &str, m: u32, span: u32, eq: &str) -> String {
-    format!(
-        "[armature]\npoles = {poles}\nslots = {slots}\ncoils_per_slot = 1\n\n[winding]\ntype = \"{kind}\"\nmultiplicity = {m}\ndirection = \"progressive\"\nspan = {span}\nturns = 3\nlead_offset = 0\n{eq}\n"
-    )
-}
 
 fn tested(text: &str) -> (Winding, ArmatureTest) {
     let c = check(design(text));
@@ -204,19 +199,25 @@ proptest! {
 
     #[test]
     fn the_sparse_solver_agrees_with_a_dense_one(
-        pp in 1u32..=4,
-        per_pole in 3u32..=9,
-        wave in any::<bool>(),
-        m in 1u32..=3,
-        extra in 0u32..=3,
+        c in designs(Space {
+            pole_pairs: 1..=4,
+            coils_per_slot: 1..=1,
+            retrogressive: OFF,
+            ccw: OFF,
+            generator: OFF,
+            span_delta: 0..=0,
+            lead_offset: 0..=0,
+            room: 2,
+            more_slots: 24,
+            ..Space::default()
+        }),
         eq in 0u32..=2,
     ) {
-        let poles = 2 * pp;
-        let wave = wave && pp >= 2;
-        let slots = poles * per_pole + extra;
-        let eq = if wave { "" } else { ["", "equalizers = \"full\"", "equalizers = 2"][eq as usize] };
-        let text = toml(poles, slots, if wave { "wave" } else { "lap" }, m, per_pole, eq);
-        let Ok(d) = armsheet::design::parse_design(&text, "p.toml") else { return Ok(()) };
+        let eq = if c.wave { "" } else { ["", "equalizers = \"full\"", "equalizers = 2"][eq as usize] };
+        let text = c.toml_with(&format!("{eq}\n"));
+        let parsed = armsheet::design::parse_design(&text, "p.toml");
+        prop_assume!(parsed.is_ok(), "refused: {}", text);
+        let d = parsed.unwrap();
         let c = check(d);
         let w = &c.winding;
         let net = Network::of_winding(w);

@@ -10,7 +10,8 @@
 //! pole axis (common practice; textbook treatments of brush position, DOMAIN.md "Brush neutral
 //! with several coils per slot").
 
-mod support;
+use crate::support;
+use crate::support::random_design::{OFF, RandomDesign, Space, designs};
 
 use armsheet::design::{Design, parse_design};
 use armsheet::winding::{Winding, trace_winding};
@@ -113,68 +114,18 @@ fn mean_offset_bars(w: &Winding, d: &Design) -> (f64, usize) {
     (if count == 0 { 0.0 } else { sum / count as f64 }, count)
 }
 
-#[derive(Debug, Clone)]
-struct Case {
-    poles: u32,
-    slots: u32,
-    u: u32,
-    wave: bool,
-    m: u32,
-    retro: bool,
-    span_delta: i32,
-    lead_halves: i32,
-    ccw: bool,
-}
-
-impl Case {
-    fn toml(&self) -> String {
-        let pole_pitch = (self.slots / self.poles) as i32;
-        let span = (pole_pitch + self.span_delta).clamp(1, self.slots as i32 - 1);
-        format!(
-            "[armature]\npoles = {}\nslots = {}\ncoils_per_slot = {}\nrotation = \"{}\"\n\n[winding]\ntype = \"{}\"\nmultiplicity = {}\ndirection = \"{}\"\nspan = {span}\nturns = 3\nlead_offset = {}\n",
-            self.poles,
-            self.slots,
-            self.u,
-            if self.ccw { "ccw" } else { "cw" },
-            if self.wave { "wave" } else { "lap" },
-            self.m,
-            if self.retro {
-                "retrogressive"
-            } else {
-                "progressive"
-            },
-            f64::from(self.lead_halves) / 2.0,
-        )
-    }
-}
-
-fn case() -> impl Strategy<Value = Case> {
-    (
-        1u32..=5,
-        1u32..=4,
-        any::<bool>(),
-        1u32..=3,
-        any::<bool>(),
-        -1i32..=1,
-        -2i32..=2,
-        any::<bool>(),
-    )
-        .prop_flat_map(|(pp, u, wave, m, retro, span_delta, lead_halves, ccw)| {
-            let pp = if wave { pp.max(2) } else { pp };
-            let poles = 2 * pp;
-            let min_slots = support::least_slots(m + 2, pp, u, wave);
-            (min_slots..=min_slots + 60).prop_map(move |slots| Case {
-                poles,
-                slots,
-                u,
-                wave,
-                m,
-                retro,
-                span_delta,
-                lead_halves,
-                ccw,
-            })
-        })
+/// Brush-room designs: P 2-10, u 1-4, m 1-3, m + 2 segments a pole at least (room for the
+/// brushes), the lead offset within a bar in half bars, up to 60 slots above the fewest.
+fn case() -> impl Strategy<Value = RandomDesign> {
+    designs(Space {
+        pole_pairs: 1..=5,
+        generator: OFF,
+        lead_offset: -2..=2,
+        whole_bars: false,
+        room: 2,
+        more_slots: 60,
+        ..Space::default()
+    })
 }
 
 proptest! {
@@ -252,7 +203,7 @@ fn touched(w: &Winding, b: usize) -> Vec<u32> {
 
 #[derive(Debug, Clone)]
 struct WidthCase {
-    base: Case,
+    base: RandomDesign,
     /// Brush width in quarter segment pitches above m.
     extra_quarters: u32,
     /// Brush sets as a fraction of P for a wave (lap always P).

@@ -1,8 +1,6 @@
 //! The binary end to end: exit codes, `new`, `check --json`, help.
 
-mod support;
-
-use support::{armsheet, scratch};
+use crate::support::{armsheet, scratch};
 
 #[test]
 fn demos_pass_and_an_unsymmetric_lap_fails_with_exit_1() {

@@ -2,13 +2,11 @@
 //! one is an error naming standard output (exit 2), and `sheet` writes its whole set or leaves
 //! the previous one exactly as it was, with no temporary folder left behind.
 
-mod support;
-
 use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
 use std::process::{Command, Stdio};
 
-use support::{ROOT, files_in, names_in, scratch};
+use crate::support::{ROOT, files_in, names_in, scratch};
 
 const BIN: &str = env!("CARGO_BIN_EXE_armsheet");
 

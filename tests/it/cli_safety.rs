@@ -10,7 +10,7 @@
 //! written.
 #![cfg(unix)]
 
-mod support;
+use crate::support;
 
 use std::fs;
 use std::os::unix::fs::{FileTypeExt, symlink};
@@ -18,6 +18,7 @@ use std::path::{Path, PathBuf};
 use std::process::{Command, Output, Stdio};
 use std::time::{Duration, Instant};
 
+use crate::support::{ROOT, scratch, text};
 use armsheet::cli::error::NoOverwrite;
 use armsheet::cli::output::{replace_folder, write_atomic, write_new};
 use armsheet::design::parse_design;
@@ -26,7 +27,6 @@ use armsheet::features::rewind::{
     MAX_CURRENT_A, MAX_FLUX_MWB, MAX_SPEED_RPM, MAX_VOLTAGE, RewindRequest, no_load_test,
     rewind_rated,
 };
-use support::{ROOT, scratch, text};
 
 /// Runs armsheet in `cwd`, killed after 30 s: a write that opened a FIFO would block forever,
 /// and must fail the test rather than hang it.

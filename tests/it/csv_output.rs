@@ -2,7 +2,7 @@
 //! so `connections.csv` does not grow with it, and formula characters behind leading
 //! whitespace or control characters are neutralised.
 
-mod support;
+use crate::support;
 
 use armsheet::render::csv::{CSV_COLUMNS, JOB_COLUMNS, connections_csv, job_csv};
 

@@ -2,7 +2,7 @@
 //! the developed diagram, or stands next to one that does (the coils of one slot have
 //! their apexes within a tag's width), on every demo at sheet size.
 
-mod support;
+use crate::support;
 
 use armsheet::layout::developed::tag_text;
 use armsheet::layout::font::{Weight, text_width};

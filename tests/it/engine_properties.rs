@@ -5,86 +5,21 @@
 //! commutator pitch, every active coil traced once, and traced paths and reentrancy equal to
 //! the textbook formulas (lap a = m·P, wave a = 2m; reentrancy gcd(C, |y_c|)).
 
-mod support;
+use crate::support;
+use crate::support::random_design::{RandomDesign, Space, designs};
 
 use armsheet::design::parse_design;
 use armsheet::theory::pitch;
 use armsheet::winding::{Winding, trace_winding};
 use proptest::prelude::*;
 
-#[derive(Debug, Clone)]
-struct Case {
-    poles: u32,
-    slots: u32,
-    u: u32,
-    wave: bool,
-    m: u32,
-    retro: bool,
-    span_delta: i32,
-    lead_offset: i32,
-    ccw: bool,
-    generator: bool,
+/// The engine's space: P 2-16, u 1-4, m 1-3, every flag either way, the span within a slot of
+/// the pole pitch, the lead offset within a bar, up to 160 slots above the fewest.
+fn case() -> impl Strategy<Value = RandomDesign> {
+    designs(Space::default())
 }
 
-impl Case {
-    fn toml(&self) -> String {
-        let pole_pitch = (self.slots / self.poles) as i32;
-        let span = (pole_pitch + self.span_delta).clamp(1, self.slots as i32 - 1);
-        format!(
-            "[armature]\npoles = {}\nslots = {}\ncoils_per_slot = {}\nrotation = \"{}\"\n\n[winding]\ntype = \"{}\"\nmultiplicity = {}\ndirection = \"{}\"\nspan = {span}\nturns = 3\nlead_offset = {}\n\n[rating]\nmode = \"{}\"\n",
-            self.poles,
-            self.slots,
-            self.u,
-            if self.ccw { "ccw" } else { "cw" },
-            if self.wave { "wave" } else { "lap" },
-            self.m,
-            if self.retro {
-                "retrogressive"
-            } else {
-                "progressive"
-            },
-            if 2 * self.poles * self.lead_offset.unsigned_abs() < self.u * self.slots - self.poles {
-                self.lead_offset
-            } else {
-                0
-            },
-            if self.generator { "generator" } else { "motor" },
-        )
-    }
-}
-
-fn case() -> impl Strategy<Value = Case> {
-    (
-        1u32..=8,
-        1u32..=4,
-        any::<bool>(),
-        1u32..=3,
-        any::<bool>(),
-        -1i32..=1,
-        -1i32..=1,
-        any::<bool>(),
-        any::<bool>(),
-    )
-        .prop_flat_map(|(pp, u, wave, m, retro, span_delta, lo, ccw, generator)| {
-            let pp = if wave { pp.max(2) } else { pp };
-            let poles = 2 * pp;
-            let min_slots = support::least_slots(m + 1, pp, u, wave);
-            (min_slots..=min_slots + 160).prop_map(move |slots| Case {
-                poles,
-                slots,
-                u,
-                wave,
-                m,
-                retro,
-                span_delta,
-                lead_offset: lo,
-                ccw,
-                generator,
-            })
-        })
-}
-
-fn traced(c: &Case) -> Winding {
+fn traced(c: &RandomDesign) -> Winding {
     let text = c.toml();
     let d = parse_design(&text, "prop.toml")
         .unwrap_or_else(|e| panic!("valid design rejected:\n{text}\n{e}"));

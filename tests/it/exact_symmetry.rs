@@ -7,12 +7,13 @@
 //! turned through one whole period: one slot pitch, and at least lcm(u, m) segment pitches.
 //! Whenever the exact test passes, the spread between path EMFs must be (near) zero.
 
-mod support;
+use crate::support;
 
+use crate::support::random_design::{OFF, RandomDesign, Space, designs, fixed};
+use crate::support::{armsheet, design};
 use armsheet::check;
 use armsheet::checks::{Checked, Congruence, path_classes};
 use proptest::prelude::*;
-use support::{armsheet, design};
 
 /// Angles closer than this (degrees) are ties: a segment edge exactly at a brush edge, or a
 /// coil side exactly at a pole tip. A tie touches nothing, so a position and its rotated
@@ -128,11 +129,13 @@ fn spread(c: &Checked) -> (f64, f64) {
     (total / f64::from(steps), peak)
 }
 
+/// The design file of a fixed design, 2 turns a coil, `extra` lines added to `[winding]`.
 fn toml(poles: u32, slots: u32, u: u32, wave: bool, m: u32, span: u32, extra: &str) -> String {
-    format!(
-        "[armature]\npoles = {poles}\nslots = {slots}\ncoils_per_slot = {u}\n\n[winding]\ntype = \"{}\"\nmultiplicity = {m}\nspan = {span}\nturns = 2\n{extra}",
-        if wave { "wave" } else { "lap" }
-    )
+    RandomDesign {
+        turns: 2,
+        ..fixed(poles, slots, u, wave, m, span)
+    }
+    .toml_with(extra)
 }
 
 #[test]
@@ -199,32 +202,20 @@ fn the_balance_turns_through_a_whole_slot_pitch() {
     );
 }
 
-#[derive(Debug, Clone)]
-struct Case {
-    poles: u32,
-    slots: u32,
-    u: u32,
-    wave: bool,
-    m: u32,
-    span_delta: i32,
-}
-
-fn case() -> impl Strategy<Value = Case> {
-    (1u32..=4, 1u32..=4, any::<bool>(), 1u32..=3, -1i32..=0).prop_flat_map(
-        |(pp, u, wave, m, span_delta)| {
-            let pp = if wave { pp.max(2) } else { pp };
-            let poles = 2 * pp;
-            let min_slots = support::least_slots(m + 1, pp, u, wave);
-            (min_slots..=min_slots + 40).prop_map(move |slots| Case {
-                poles,
-                slots,
-                u,
-                wave,
-                m,
-                span_delta,
-            })
-        },
-    )
+/// P 2-8, u 1-4, m 1-3, the span the pole pitch or a slot short, progressive, clockwise,
+/// 2 turns, up to 40 slots above the fewest.
+fn case() -> impl Strategy<Value = RandomDesign> {
+    designs(Space {
+        pole_pairs: 1..=4,
+        retrogressive: OFF,
+        ccw: OFF,
+        generator: OFF,
+        span_delta: -1..=0,
+        lead_offset: 0..=0,
+        turns: 2..=2,
+        more_slots: 40,
+        ..Space::default()
+    })
 }
 
 proptest! {
@@ -232,8 +223,7 @@ proptest! {
 
     #[test]
     fn exact_symmetry_means_no_spread(c in case()) {
-        let span = ((c.slots / c.poles) as i32 + c.span_delta).max(1) as u32;
-        let text = toml(c.poles, c.slots, c.u, c.wave, c.m, span, "");
+        let text = c.toml();
         let checked = check(design(&text));
         let classes = path_classes(&checked.design, &checked.winding);
         let (mean, peak) = spread(&checked);

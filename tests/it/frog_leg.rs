@@ -6,14 +6,14 @@
 //! self-equalizing condition y_c(lap) + |y_c(wave)| = C/p is derived), never by calling the
 //! engine's own formulas.
 
-mod support;
+use crate::support;
 
+use crate::support::design;
 use armsheet::checks::{Checked, check};
 use armsheet::features::armature_test::Network;
 use armsheet::theory::WindingType;
 use armsheet::winding::Winding;
 use proptest::prelude::*;
-use support::design;
 
 fn frog(poles: u32, slots: u32, u: u32, span: u32, extra: &str) -> String {
     format!(

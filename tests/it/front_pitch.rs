@@ -9,8 +9,11 @@
 //! own front-pitch arithmetic. The other tests follow the values of a demo into the finding,
 //! the JSON, the CSV and the sheets' connection table.
 
-mod support;
+use crate::support;
 
+use crate::support::random_design::{OFF, RandomDesign, Space, designs};
+use crate::support::sheets::{attr_values, load, sheets_for};
+use crate::support::{demo, design};
 use armsheet::check;
 use armsheet::design::parse_design;
 use armsheet::layout::{Paper, Window};
@@ -19,91 +22,52 @@ use armsheet::render::json::report_json;
 use armsheet::theory::{Direction, WindingType};
 use armsheet::winding::{Winding, trace_winding};
 use proptest::prelude::*;
-use support::sheets::{attr_values, load, sheets_for};
-use support::{demo, design};
 
-#[derive(Debug, Clone)]
-struct Case {
-    poles: u32,
-    slots: u32,
-    u: u32,
-    wave: bool,
-    m: u32,
-    retro: bool,
-    span_delta: i32,
-    /// Wave only: take this many pole pairs' worth of segments fewer than the fewest-dummy
-    /// count (more dummy coils), while the design stays valid.
-    fewer: u32,
+/// P 2-12, u 1-4, m 1-3, either direction, the span within a slot of the pole pitch, up to
+/// 120 slots above the fewest; a wave takes 0-3 pole pairs' worth of segments fewer than the
+/// fewest-dummy count (more dummy coils), while the design stays valid.
+fn case() -> impl Strategy<Value = RandomDesign> {
+    let space = Space {
+        pole_pairs: 1..=6,
+        ccw: OFF,
+        generator: OFF,
+        lead_offset: 0..=0,
+        more_slots: 120,
+        ..Space::default()
+    };
+    (designs(space), 0u32..=3).prop_map(|(mut c, fewer)| {
+        if c.wave {
+            c.segments = Some(wave_segments(&c, fewer));
+        }
+        c
+    })
 }
 
-impl Case {
-    fn toml(&self) -> String {
-        let pole_pitch = (self.slots / self.poles) as i32;
-        let span = (pole_pitch + self.span_delta).clamp(1, self.slots as i32 - 1);
-        let dir = if self.retro {
-            Direction::Retrogressive
-        } else {
-            Direction::Progressive
-        };
-        let p = self.poles / 2;
-        let segments = if self.wave {
-            let n = self.u * self.slots;
-            let best = WindingType::Wave
-                .kind()
-                .default_segments(n, self.m, p, dir)
-                .expect("a wave count exists");
-            // (C ± m)/p stays whole when C drops by whole multiples of p.
-            let least = (self.m + 1) * self.poles;
-            let mut c = best;
-            for _ in 0..self.fewer {
-                if c >= least + p {
-                    c -= p;
-                }
-            }
-            format!("segments = {c}\n")
-        } else {
-            String::new()
-        };
-        format!(
-            "[armature]\npoles = {}\nslots = {}\ncoils_per_slot = {}\n{segments}\n[winding]\ntype = \"{}\"\nmultiplicity = {}\ndirection = \"{}\"\nspan = {span}\nturns = 3\n",
-            self.poles,
-            self.slots,
-            self.u,
-            if self.wave { "wave" } else { "lap" },
-            self.m,
-            dir.as_str(),
-        )
+/// A wave's segments: the fewest-dummy count, less `fewer` times p while at least (m + 1)·P
+/// remain.
+fn wave_segments(c: &RandomDesign, fewer: u32) -> u32 {
+    let dir = if c.retro {
+        Direction::Retrogressive
+    } else {
+        Direction::Progressive
+    };
+    let p = c.poles / 2;
+    let best = WindingType::Wave
+        .kind()
+        .default_segments(c.u * c.slots, c.m, p, dir)
+        .expect("a wave count exists");
+    // (C ± m)/p stays whole when C drops by whole multiples of p.
+    let least = (c.m + 1) * c.poles;
+    let mut segments = best;
+    for _ in 0..fewer {
+        if segments >= least + p {
+            segments -= p;
+        }
     }
+    segments
 }
 
-fn case() -> impl Strategy<Value = Case> {
-    (
-        1u32..=6,
-        1u32..=4,
-        any::<bool>(),
-        1u32..=3,
-        any::<bool>(),
-        -1i32..=1,
-        0u32..=3,
-    )
-        .prop_flat_map(|(pp, u, wave, m, retro, span_delta, fewer)| {
-            let pp = if wave { pp.max(2) } else { pp };
-            let poles = 2 * pp;
-            let min_slots = support::least_slots(m + 1, pp, u, wave);
-            (min_slots..=min_slots + 120).prop_map(move |slots| Case {
-                poles,
-                slots,
-                u,
-                wave,
-                m,
-                retro,
-                span_delta,
-                fewer: if wave { fewer } else { 0 },
-            })
-        })
-}
-
-fn traced(c: &Case) -> Winding {
+fn traced(c: &RandomDesign) -> Winding {
     let text = c.toml();
     let d = parse_design(&text, "prop.toml")
         .unwrap_or_else(|e| panic!("valid design rejected:\n{text}\n{e}"));

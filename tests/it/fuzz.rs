@@ -5,16 +5,17 @@
 //! checks on. A panic anywhere fails the test and prints the input that caused it. The calls
 //! are `support::fuzz_drive::drive`, shared with the cargo-fuzz target in `fuzz/`.
 //!
-//! `cargo test --test fuzz` runs the bounded CI count (`ARMSHEET_FUZZ_N`, default 20,000);
-//! `ARMSHEET_FUZZ_N=1000000 ARMSHEET_FUZZ_SEED=7 cargo test --release --test fuzz` runs a long
-//! one.
+//! `cargo test` runs 2,000 inputs; with `ARMSHEET_SLOW_TESTS=1` (set by `.ci/run`) it runs
+//! the CI count, 20,000. `ARMSHEET_FUZZ_N` sets the count outright:
+//! `ARMSHEET_FUZZ_N=1000000 ARMSHEET_FUZZ_SEED=7 cargo test --release --test it fuzz` runs a
+//! long one.
 
-mod support;
+use crate::support;
 
 use std::panic::{AssertUnwindSafe, catch_unwind};
 
-use support::fuzz_drive::{Every, drive};
-use support::mutate::{Rng, mutate};
+use crate::support::fuzz_drive::{Every, drive};
+use crate::support::mutate::{Rng, mutate};
 
 fn env_u64(key: &str, default: u64) -> u64 {
     std::env::var(key)
@@ -32,9 +33,16 @@ fn every() -> Every {
     }
 }
 
+/// The inputs of a run: `ARMSHEET_FUZZ_N`, else 20,000 with `ARMSHEET_SLOW_TESTS` set (CI),
+/// else 2,000.
+fn inputs() -> u64 {
+    let slow = std::env::var_os("ARMSHEET_SLOW_TESTS").is_some_and(|v| !v.is_empty() && v != "0");
+    env_u64("ARMSHEET_FUZZ_N", if slow { 20_000 } else { 2_000 })
+}
+
 #[test]
 fn mutated_designs_never_panic() {
-    let n = env_u64("ARMSHEET_FUZZ_N", 20_000);
+    let n = inputs();
     let seed = env_u64("ARMSHEET_FUZZ_SEED", 1);
     // The small demos (the frog-leg one among them) most of the time; the 1,056-bar one now
     // and then.

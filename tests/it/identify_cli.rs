@@ -3,11 +3,11 @@
 //! stdout, write nothing and print exactly `NAME.stderr`; ARMSHEET_BLESS=1 rewrites them), the
 //! no-overwrite rule, `--pick`, `--json` and `new --card`.
 
-mod support;
+use crate::support;
 
 use std::path::Path;
 
-use support::{armsheet, armsheet_in, scratch, text};
+use crate::support::{armsheet, armsheet_in, scratch, text};
 
 fn card(dir: &Path, name: &str, observed: &str) -> String {
     let path = dir.join(name);

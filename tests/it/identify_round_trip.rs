@@ -4,7 +4,8 @@
 //! and require the original among the candidates (alone when the card's data decide it), with
 //! the same connection table and brush positions once checked.
 
-mod support;
+use crate::support;
+use crate::support::random_design::{OFF, RandomDesign, Space, designs};
 
 use armsheet::design::{parse_card, parse_design};
 use armsheet::features::identify::identify;
@@ -13,16 +14,10 @@ use proptest::prelude::*;
 
 #[derive(Debug, Clone)]
 struct Case {
-    poles: u32,
-    slots: u32,
-    u: u32,
-    wave: bool,
-    m: u32,
-    retro: bool,
-    span_delta: i32,
-    lead_offset: i32,
-    ccw: bool,
+    design: RandomDesign,
+    /// The card counts the coils per slot.
     count_u: bool,
+    /// The card records the dead coils.
     record_dead: bool,
     /// Place a wave's dummies explicitly (`[winding] dummy_coils`), this many slots on from
     /// the even spread, each at its slot's last position; `None` keeps the default spread.
@@ -32,7 +27,7 @@ struct Case {
 impl Case {
     /// The design, with its dummies placed explicitly when the case asks for it.
     fn design(&self) -> String {
-        let plain = self.plain();
+        let plain = self.design.toml();
         let Some(shift) = self.dummy_shift else {
             return plain;
         };
@@ -41,46 +36,22 @@ impl Case {
         if d == 0 {
             return plain;
         }
-        let mut slots: Vec<u32> = (1..=d)
-            .map(|k| (k * self.slots / d + shift) % self.slots + 1)
-            .filter(|&s| s * self.u != 1)
+        let (slots, u) = (self.design.slots, self.design.u);
+        let mut dead: Vec<u32> = (1..=d)
+            .map(|k| (k * slots / d + shift) % slots + 1)
+            .filter(|&s| s * u != 1)
             .collect();
-        slots.sort_unstable();
-        slots.dedup();
-        if slots.len() as u32 != d {
+        dead.sort_unstable();
+        dead.dedup();
+        if dead.len() as u32 != d {
             return plain;
         }
-        let coils: Vec<String> = slots.iter().map(|s| (s * self.u).to_string()).collect();
-        format!("{plain}dummy_coils = [{}]\n", coils.join(", ")).replace(
-            "[winding]",
-            &format!("segments = {}\n\n[winding]", w.active_coils),
-        )
-    }
-
-    fn plain(&self) -> String {
-        let pole_pitch = (self.slots / self.poles) as i32;
-        let span = (pole_pitch + self.span_delta).clamp(1, self.slots as i32 - 1);
-        let lo = if 2 * self.poles * self.lead_offset.unsigned_abs()
-            < self.u * self.slots - self.poles
-        {
-            self.lead_offset
-        } else {
-            0
+        let coils: Vec<String> = dead.iter().map(|s| (s * u).to_string()).collect();
+        let placed = RandomDesign {
+            segments: Some(w.active_coils),
+            ..self.design.clone()
         };
-        format!(
-            "[armature]\npoles = {}\nslots = {}\ncoils_per_slot = {}\nrotation = \"{}\"\n\n[winding]\ntype = \"{}\"\nmultiplicity = {}\ndirection = \"{}\"\nspan = {span}\nturns = 3\nlead_offset = {lo}\n",
-            self.poles,
-            self.slots,
-            self.u,
-            if self.ccw { "ccw" } else { "cw" },
-            if self.wave { "wave" } else { "lap" },
-            self.m,
-            if self.retro {
-                "retrogressive"
-            } else {
-                "progressive"
-            },
-        )
+        placed.toml_with(&format!("dummy_coils = [{}]\n", coils.join(", ")))
     }
 }
 
@@ -114,41 +85,28 @@ fn card_of(c: &Case, k: &Checked) -> String {
     s
 }
 
+/// P 2-8, u 1-4, m 1-3, either direction and rotation, the span within a slot of the pole
+/// pitch, the lead offset within two bars, up to 30 slots above the fewest.
 fn case() -> impl Strategy<Value = Case> {
+    let space = Space {
+        pole_pairs: 1..=4,
+        generator: OFF,
+        lead_offset: -2..=2,
+        more_slots: 30,
+        ..Space::default()
+    };
     (
-        1u32..=4,
-        1u32..=4,
-        any::<bool>(),
-        1u32..=3,
-        any::<bool>(),
-        -1i32..=1,
-        -2i32..=2,
-        any::<bool>(),
+        designs(space),
         any::<bool>(),
         any::<bool>(),
         proptest::option::of(0u32..5),
     )
-        .prop_flat_map(
-            |(pp, u, wave, m, retro, span_delta, lo, ccw, count_u, record_dead, dummy_shift)| {
-                let pp = if wave { pp.max(2) } else { pp };
-                let poles = 2 * pp;
-                let min_slots = support::least_slots(m + 1, pp, u, wave);
-                (min_slots..=min_slots + 30).prop_map(move |slots| Case {
-                    poles,
-                    slots,
-                    u,
-                    wave,
-                    m,
-                    retro,
-                    span_delta,
-                    lead_offset: lo,
-                    ccw,
-                    count_u,
-                    record_dead,
-                    dummy_shift,
-                })
-            },
-        )
+        .prop_map(|(design, count_u, record_dead, dummy_shift)| Case {
+            design,
+            count_u,
+            record_dead,
+            dummy_shift,
+        })
 }
 
 proptest! {

@@ -11,7 +11,7 @@
 //! byte the old set or the new set, and nothing but `.mill-lap-12p.XXXXXX.new` or `.old`
 //! folders may lie beside it; a last uninterrupted run must leave nothing beside it.
 
-mod support;
+use crate::support;
 
 use std::collections::BTreeMap;
 use std::fs;
@@ -19,7 +19,7 @@ use std::path::{Path, PathBuf};
 use std::process::{Command, Stdio};
 use std::time::{Duration, Instant};
 
-use support::mutate::Rng;
+use crate::support::mutate::Rng;
 
 const BIN: &str = env!("CARGO_BIN_EXE_armsheet");
 const STEM: &str = "mill-lap-12p";

@@ -8,12 +8,10 @@
 //! connected, and the node equations (a hand-built Laplacian) are solved by Gaussian
 //! elimination. The joined bars must come out at one potential.
 
-mod support;
-
+use crate::support::design;
 use armsheet::check;
 use armsheet::checks::Checked;
 use armsheet::winding::EqualizerPlan;
-use support::design;
 
 /// Bar potentials (index 0 = bar 1) with the rotor turned `phi` degrees from the reference.
 fn bar_potentials(c: &Checked, phi: f64) -> Vec<f64> {

@@ -1,12 +1,10 @@
 //! The page tree of every demo design (every sheet on every paper, and the screen page):
 //! every text has a measured width and lies inside its page.
 
-mod support;
-
+use crate::support::sheets::checked_pages;
 use armsheet::design::parse_design;
 use armsheet::layout::tree::Page;
 use armsheet::layout::{Paper, Window, draw_page};
-use support::sheets::checked_pages;
 
 /// The designs in `designs/` and the sheet fixtures, in name order.
 fn designs() -> Vec<(String, String)> {

@@ -266,7 +266,7 @@ fn number_after(text: &str, prefix: &str) -> Option<f64> {
 
 #[test]
 fn the_readme_and_the_starter_name_every_limit_key_with_its_default() {
-    let readme = include_str!("../README.md");
+    let readme = include_str!("../../README.md");
     let row = readme
         .lines()
         .find(|l| l.starts_with("| `[limits]` |"))

@@ -8,10 +8,8 @@ use armsheet::design::parse_design;
 use armsheet::render::json::report_json;
 use armsheet::render::text::{TextOptions, render_text};
 
-mod support;
-
+use crate::support::DEMOS;
 use serde_json::Value;
-use support::DEMOS;
 
 /// The demo whose JSON is snapshotted redacted.
 const LARGEST: &str = "mill-lap-12p";

@@ -1,10 +1,10 @@
 //! `armsheet rewind` end to end: writes a new design that parses back, never overwrites
 //! without --force, refuses impossible requests with exit 2, back-solves the flux from a test.
 
-mod support;
+use crate::support;
 
+use crate::support::{armsheet as run, scratch as tmp, text};
 use armsheet::design::{WindingType, parse_design};
-use support::{armsheet as run, scratch as tmp, text};
 
 /// The absolute path of `designs/FILE`.
 fn demo(file: &str) -> String {

@@ -2,20 +2,18 @@
 //! area; twice the voltage on the same connection doubles the turns and halves the area; the
 //! written design parses back with armsheet's own parser.
 
-mod support;
+use crate::support;
+use crate::support::random_design::{OFF, RandomDesign, Space, designs};
 
 use armsheet::design::{Design, parse_design};
 use armsheet::features::rewind::{RewindRequest, rewind};
 use armsheet::winding::trace_winding;
 use proptest::prelude::*;
 
+/// A random design with the rating and conductor the rewind needs.
 #[derive(Debug, Clone)]
 struct Case {
-    poles: u32,
-    slots: u32,
-    u: u32,
-    wave: bool,
-    turns: u32,
+    design: RandomDesign,
     voltage: f64,
     current: Option<f64>,
     speed: f64,
@@ -26,14 +24,7 @@ struct Case {
 }
 
 fn toml(c: &Case) -> String {
-    let mut s = format!(
-        "[armature]\npoles = {}\nslots = {}\ncoils_per_slot = {}\n[winding]\ntype = \"{}\"\nturns = {}\n",
-        c.poles,
-        c.slots,
-        c.u,
-        if c.wave { "wave" } else { "lap" },
-        c.turns
-    );
+    let mut s = c.design.toml();
     s.push_str(&format!("[rating]\nvoltage = {}\n", c.voltage));
     if let Some(i) = c.current {
         s.push_str(&format!("current = {i}\n"));
@@ -54,13 +45,24 @@ fn toml(c: &Case) -> String {
     s
 }
 
+/// P 4-8, u 1-3, simplex lap or wave at the pole pitch, 1-10 turns, up to 48 slots above
+/// the fewest; 200-600 V, a current of 5-60 A or none, 600-3000 rpm or a flux, an R20 wire.
 fn case() -> impl Strategy<Value = Case> {
+    let space = Space {
+        pole_pairs: 2..=4,
+        coils_per_slot: 1..=3,
+        multiplicity: 1..=1,
+        retrogressive: OFF,
+        ccw: OFF,
+        generator: OFF,
+        span_delta: 0..=0,
+        lead_offset: 0..=0,
+        turns: 1..=10,
+        more_slots: 48,
+        ..Space::default()
+    };
     (
-        prop::sample::select(vec![4u32, 6, 8]),
-        12u32..=60,
-        1u32..=3,
-        any::<bool>(),
-        1u32..=10,
+        designs(space),
         200.0f64..600.0,
         prop::option::of(5.0f64..60.0),
         600.0f64..3000.0,
@@ -70,25 +72,8 @@ fn case() -> impl Strategy<Value = Case> {
         1u32..=2,
     )
         .prop_map(
-            |(
-                poles,
-                slots,
-                u,
-                wave,
-                turns,
-                voltage,
-                current,
-                speed,
-                flux_given,
-                generator,
-                diameter,
-                strands,
-            )| Case {
-                poles,
-                slots,
-                u,
-                wave,
-                turns,
+            |(design, voltage, current, speed, flux_given, generator, diameter, strands)| Case {
+                design,
                 voltage: (voltage * 10.0).round() / 10.0,
                 current: current.map(|i| (i * 10.0).round() / 10.0),
                 speed: speed.round(),

@@ -4,13 +4,13 @@
 //! Table-driven, one `case(...)` row each. `every_rule_id_has_its_rows` reads the ids out of
 //! `src/checks/` and the rating rules, so a new rule without rows fails the suite.
 
-mod support;
+use crate::support;
 
 use std::collections::BTreeSet;
 
+use crate::support::design;
 use armsheet::checks::run_checks;
 use armsheet::{Checked, check};
-use support::design;
 
 #[derive(Clone, Copy, Debug, PartialEq)]
 enum Want {

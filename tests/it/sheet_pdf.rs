@@ -1,14 +1,12 @@
 //! The PDF holds one page per sheet, each the paper's size, keeps its text as real text in
 //! embedded DejaVu fonts, and is byte-identical run to run.
 
-mod support;
-
 use std::io::Read;
 
+use crate::support::sheets::*;
 use armsheet::layout::tree::PageKind;
 use armsheet::layout::{Paper, Window};
 use armsheet::render::pdf::sheets_pdf;
-use support::sheets::*;
 
 /// Every `/Key` followed by optional whitespace: the index just past it.
 fn keys<'a>(text: &'a str, key: &'a str) -> impl Iterator<Item = usize> + 'a {

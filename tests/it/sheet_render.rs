@@ -2,10 +2,8 @@
 //! the paper's size, the rendering is not blank and its text found a font.
 //! Set SHEET_PNG_DIR to also write the renderings as PNG for a look by eye.
 
-mod support;
-
+use crate::support::sheets::*;
 use armsheet::layout::{Paper, Window};
-use support::sheets::*;
 
 fn check_design(name: &str, text: &str, paper: Paper) -> usize {
     let (d, _) = load(name, text);

@@ -1,10 +1,8 @@
 //! Snapshots of sheet 1 (developed diagram, title and data blocks) for two small fixtures:
 //! a simplex lap with equalizers and a simplex wave with a dummy coil.
 
-mod support;
-
+use crate::support::sheets::*;
 use armsheet::layout::{Paper, Window};
-use support::sheets::*;
 
 #[test]
 fn lap_sheet_1() {

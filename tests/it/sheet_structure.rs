@@ -2,13 +2,11 @@
 //! connection once (through the data attributes), pagination of a 1,056-segment design read
 //! back row by row, escaping of hostile job text, and byte-identical output.
 
-mod support;
-
 use std::collections::BTreeMap;
 
+use crate::support::sheets::*;
 use armsheet::layout::{Paper, Window};
 use armsheet::render::csv::{connections_csv, job_csv};
-use support::sheets::*;
 
 /// The text content of a one-line `<text …>content</text>` element.
 fn text_content(line: &str) -> Option<&str> {

@@ -2,12 +2,12 @@
 //! end view carries the lead swing and the throw in shop words, and the winding order lists
 //! every coil once, slot by slot, with its check-off boxes.
 
-mod support;
+use crate::support;
 
+use crate::support::sheets::checked_pages;
 use armsheet::layout::tree::{Node, Page, PageKind};
 use armsheet::layout::{Paper, Window};
 use armsheet::render::svg::page_svg;
-use support::sheets::checked_pages;
 
 fn pages(name: &str) -> Vec<Page> {
     let checked = armsheet::check(support::design(&support::demo(name)));

@@ -2,11 +2,11 @@
 //! diagnostics and the CLI's errors show control and bidi characters as `\u{…}`
 //! (`base::visible`), while the JSON report keeps the text exact.
 
-mod support;
+use crate::support;
 
 use std::path::Path;
 
-use support::{armsheet, armsheet_in, scratch, text};
+use crate::support::{armsheet, armsheet_in, scratch, text};
 
 /// Characters that must never reach a terminal raw.
 const RAW: [char; 18] = [

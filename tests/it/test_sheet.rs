@@ -3,7 +3,7 @@
 //! the notes and sign-off blocks; pages in shop order, the winding order filling its sheets,
 //! and no table ending on a sheet with a handful of rows.
 
-mod support;
+use crate::support;
 
 use armsheet::base::number::fmt_sig;
 use armsheet::checks::Checked;

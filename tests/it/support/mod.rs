@@ -1,10 +1,12 @@
 //! Helpers shared by the integration tests: fixtures, demo designs, parsing, and running the
-//! binary. Each test file that needs them says `mod support;`.
+//! binary. Every test module reaches them as `crate::support`.
 #![allow(dead_code, unused_imports)]
 
 pub mod fuzz_drive;
 pub mod mutate;
+pub mod random_design;
 pub mod sheets;
+pub mod source;
 
 use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
@@ -45,10 +47,15 @@ pub fn design(toml: &str) -> Design {
     parse_design(toml, "t.toml").unwrap_or_else(|e| panic!("{e}"))
 }
 
-/// A fresh, empty scratch folder under the target dir for one test, named after the test file
-/// and `name`.
+/// A fresh, empty scratch folder under the target dir for one test, named after the calling
+/// test file and `name` (the modules share one crate, so the file keeps their folders apart).
+#[track_caller]
 pub fn scratch(name: &str) -> PathBuf {
-    let file = module_path!().split("::").next().unwrap_or("test");
+    let caller = Path::new(std::panic::Location::caller().file());
+    let file = caller
+        .file_stem()
+        .and_then(|s| s.to_str())
+        .unwrap_or("test");
     let dir = Path::new(env!("CARGO_TARGET_TMPDIR")).join(format!("{file}-{name}"));
     let _ = std::fs::remove_dir_all(&dir);
     std::fs::create_dir_all(&dir).unwrap();
