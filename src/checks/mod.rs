@@ -6,7 +6,7 @@
 //! file) that pushes findings, call it from [`run_checks`], and give it an id, a severity and
 //! its source; then add a passing and a failing row to `tests/rule_cases.rs`.
 //!
-//! [`identify`] is no rule family: it builds the designs a data card allows and runs each
+//! [`identify`](crate::features::identify) is no rule family: it builds the designs a data card allows and runs each
 //! through [`check`], keeping those whose trace reproduces the observations.
 
 mod frog_leg;

@@ -301,7 +301,7 @@ impl WindingKind for Wave {
 ///
 /// The lap element's y_c = ±m and the wave element's y_c = (C ∓ m·p)/p = C/p ∓ m, so
 /// y_c(lap) + |y_c(wave)| = C/p: a lap coil and a wave coil in series span two pole pitches
-/// [derived]. Both are whole exactly when C/p is.
+/// \[derived\]. Both are whole exactly when C/p is.
 #[derive(Clone, Copy, Debug)]
 pub struct FrogLeg;
 

@@ -24,7 +24,7 @@
 //!   bars (y_c/2 on from its start bar); the u coils of a slot share one centre line but start
 //!   on u consecutive bars, and dummy coils skip bars, so the brush sits
 //!   y_c/2 + mean(i − θ_i/δ) bars on from segment 1, with i the active coil's bar index from 0,
-//!   θ_i its slot's angle from slot 1 and δ = 360/C (see [`neutral_shift_units`]). For
+//!   θ_i its slot's angle from slot 1 and δ = 360/C (see `neutral_shift_units`). For
 //!   u = 1 without dummies the mean is 0; for u coils a slot it is (u − 1)/2 bars.
 //!   A positive offset (half bars allowed) swings every lead that many segments towards rising
 //!   segment numbers; the brushes follow, so they sit on the pole axes shifted by
@@ -417,7 +417,7 @@ fn brush_width(d: &Design, c: u32, units: i64) -> TraceWidth {
 /// Segment pitches the balance simulation turns the rotor through: lcm(u, m), one slot pitch
 /// (u bars) at least and a whole number of brush widths (m bars). With u > 1 the u coils of a
 /// slot share one centre line, so the pattern of coils under the poles repeats only after a
-/// slot pitch; m bars alone miss part of it [derived].
+/// slot pitch; m bars alone miss part of it \[derived\].
 pub fn balance_period_segments(coils_per_slot: u32, multiplicity: u32) -> u32 {
     let (u, m) = (
         u64::from(coils_per_slot.max(1)),
