@@ -3,7 +3,7 @@
 //! and the next run clears that.
 //!
 //! The kill test is `#[ignore]`d (it runs the CLI a few hundred times):
-//! `cargo test --release --test kill_sheet -- --ignored --nocapture`. It makes an old set of
+//! `cargo test --release --test it kill_sheet -- --ignored --nocapture`. It makes an old set of
 //! the 1,056-bar mill demo on A3 and a new one on A4 (their sheets differ), measures how long
 //! an uninterrupted run takes, then `ARMSHEET_KILL_RUNS` times (default 240) restores the old
 //! set, starts the A4 run and kills it (SIGKILL, `Child::kill`) after a delay drawn from a
@@ -102,7 +102,7 @@ struct Tally {
 }
 
 #[test]
-#[ignore = "runs the CLI a few hundred times; cargo test --release --test kill_sheet -- --ignored"]
+#[ignore = "runs the CLI a few hundred times; cargo test --release --test it kill_sheet -- --ignored"]
 fn a_killed_sheet_run_leaves_the_old_set_or_the_new_one() {
     let root = support::scratch("kill_sheet");
     let (old_dir, new_dir, out) = (root.join("old"), root.join("new"), root.join("out"));

@@ -15,7 +15,7 @@ use serde_json::Value;
 const LARGEST: &str = "mill-lap-12p";
 
 /// The demos whose JSON is snapshotted redacted: the largest, and the frog-leg demo (two
-/// elements' rows; its lists are checked whole in tests/frog_leg.rs).
+/// elements' rows; its lists are checked whole in tests/it/frog_leg.rs).
 const REDACTED: [&str; 2] = [LARGEST, "mill-frog-leg"];
 
 /// Cuts every list longer than 8 entries to its first two, a `{"…": count}` marker and its last.

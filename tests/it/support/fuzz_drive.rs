@@ -4,7 +4,7 @@
 //! locator on readings made from the expected ones, spoilt at random) and the sheet layout
 //! with its SVG and PDF writers.
 //!
-//! Shared by the stable driver (`tests/fuzz.rs`) and the cargo-fuzz target
+//! Shared by the stable driver (`tests/it/fuzz.rs`) and the cargo-fuzz target
 //! (`fuzz/fuzz_targets/design.rs`, which includes this file and `mutate.rs` by path), so both
 //! exercise exactly the same calls. `super::mutate` is the generator in either crate.
 #![allow(dead_code)]
