@@ -4,9 +4,13 @@
 //! Stage 5 of the pipeline (see [`crate::STAGES`]). One file per rule family; each pushes
 //! [`Finding`]s and never prints. To add a rule, add a function to the family's file (or a new
 //! file) that pushes findings, call it from [`run_checks`], and give it an id, a severity and
-//! its source; then add a passing and a failing row to `tests/rule_cases.rs`. A family that
+//! its source; then add a passing and a failing row to `tests/it/rule_cases.rs`. A family that
 //! belongs to some winding kinds only runs when the kind's answer to a question says so (see
 //! [`run_checks`]); no family names a kind.
+//!
+//! [`identify`](crate::features::identify) is no rule family: it builds the designs a data card
+//! allows and runs each through [`check`], keeping those whose trace reproduces the
+//! observations.
 
 mod frog_leg;
 mod lap;

@@ -48,6 +48,8 @@ pub struct TestArgs {
     pub tolerance: f64,
     /// Write test.txt, test.json, readings.csv and the plot readings.svg into
     /// DIR/<design-stem>/ instead.
+    // The text is the `--help` line, kept as typed; not HTML.
+    #[allow(rustdoc::invalid_html_tags)]
     #[arg(short = 'o', long = "out", value_name = "DIR")]
     pub out: Option<PathBuf>,
 }

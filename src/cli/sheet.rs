@@ -84,6 +84,8 @@ pub struct SheetArgs {
     /// The design file (TOML).
     pub design: PathBuf,
     /// Output folder; files go to DIR/<design-stem>/.
+    // The text is the `--help` line, kept as typed; not HTML.
+    #[allow(rustdoc::invalid_html_tags)]
     #[arg(short = 'o', long = "out", default_value = "out", value_name = "DIR")]
     pub out: PathBuf,
     /// Paper size (landscape).
@@ -103,6 +105,8 @@ pub struct DrawArgs {
     /// The design file (TOML).
     pub design: PathBuf,
     /// The SVG to write (default out/<design-stem>/diagram.svg).
+    // The text is the `--help` line, kept as typed; not HTML.
+    #[allow(rustdoc::invalid_html_tags)]
     #[arg(short = 'o', long = "out", value_name = "FILE.svg")]
     pub out: Option<PathBuf>,
     /// The diagram window.
