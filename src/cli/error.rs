@@ -213,35 +213,7 @@ impl fmt::Display for CliError {
                     "check that the folder is writable"
                 }
             ),
-            CliError::WrongKind { path, why } => {
-                let (what, hint) = match why.want {
-                    EntryKind::Folder => (
-                        "cannot create the output folder",
-                        "give another folder with -o DIR",
-                    ),
-                    _ => ("cannot write", "give another path"),
-                };
-                let want = why.want.noun();
-                let path = shown(path);
-                match (&why.link, why.found) {
-                    (None, found) => writeln!(
-                        f,
-                        "error: {what} {path}: it is a {}, not a {want}; armsheet writes only where there is nothing or a {want} (or a symbolic link to one)\n  = hint: {hint}",
-                        found.map_or("", EntryKind::noun)
-                    ),
-                    (Some(to), None) => writeln!(
-                        f,
-                        "error: {what} {path}: it is a symbolic link to {}, which does not exist; armsheet follows a link only to an existing {want}\n  = hint: {hint}",
-                        shown(to)
-                    ),
-                    (Some(to), Some(found)) => writeln!(
-                        f,
-                        "error: {what} {path}: it is a symbolic link to {}, a {}, not a {want}; armsheet follows a link only to an existing {want}\n  = hint: {hint}",
-                        shown(to),
-                        found.noun()
-                    ),
-                }
-            }
+            CliError::WrongKind { path, why } => wrong_kind(f, path, why),
             CliError::Stdout(e) => writeln!(f, "error: cannot write to standard output: {e}"),
             CliError::ReadingsRead { path, source } => writeln!(
                 f,
@@ -256,30 +228,7 @@ impl fmt::Display for CliError {
                 error.column,
                 crate::base::visible::visible(&crate::base::visible::clip(&error.message, 200))
             ),
-            CliError::Exists {
-                path,
-                by: NoOverwrite::New,
-            } => writeln!(
-                f,
-                "error: {} already exists; armsheet new never overwrites a file\n  = hint: give another path, e.g. `armsheet new job-42.toml`",
-                shown(path)
-            ),
-            CliError::Exists {
-                path,
-                by: NoOverwrite::Rewind,
-            } => writeln!(
-                f,
-                "error: {} already exists; armsheet rewind does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
-                shown(path)
-            ),
-            CliError::Exists {
-                path,
-                by: NoOverwrite::Identify,
-            } => writeln!(
-                f,
-                "error: {} already exists; armsheet identify does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
-                shown(path)
-            ),
+            CliError::Exists { path, by } => exists(f, path, *by),
             CliError::Identify { card, message } => {
                 writeln!(f, "error: {}: {}", visible(card), visible(message))
             }
@@ -303,6 +252,56 @@ impl fmt::Display for CliError {
                 visible(message)
             ),
         }
+    }
+}
+
+/// Something other than a file (or a folder for a set) stands where armsheet would write.
+fn wrong_kind(f: &mut fmt::Formatter<'_>, path: &std::path::Path, why: &WrongKind) -> fmt::Result {
+    let (what, hint) = match why.want {
+        EntryKind::Folder => (
+            "cannot create the output folder",
+            "give another folder with -o DIR",
+        ),
+        _ => ("cannot write", "give another path"),
+    };
+    let want = why.want.noun();
+    let path = shown(path);
+    match (&why.link, why.found) {
+        (None, found) => writeln!(
+            f,
+            "error: {what} {path}: it is a {}, not a {want}; armsheet writes only where there is nothing or a {want} (or a symbolic link to one)\n  = hint: {hint}",
+            found.map_or("", EntryKind::noun)
+        ),
+        (Some(to), None) => writeln!(
+            f,
+            "error: {what} {path}: it is a symbolic link to {}, which does not exist; armsheet follows a link only to an existing {want}\n  = hint: {hint}",
+            shown(to)
+        ),
+        (Some(to), Some(found)) => writeln!(
+            f,
+            "error: {what} {path}: it is a symbolic link to {}, a {}, not a {want}; armsheet follows a link only to an existing {want}\n  = hint: {hint}",
+            shown(to),
+            found.noun()
+        ),
+    }
+}
+
+/// A file armsheet will not overwrite, with the command that refuses and the way round it.
+fn exists(f: &mut fmt::Formatter<'_>, path: &std::path::Path, by: NoOverwrite) -> fmt::Result {
+    let path = shown(path);
+    match by {
+        NoOverwrite::New => writeln!(
+            f,
+            "error: {path} already exists; armsheet new never overwrites a file\n  = hint: give another path, e.g. `armsheet new job-42.toml`"
+        ),
+        NoOverwrite::Rewind => writeln!(
+            f,
+            "error: {path} already exists; armsheet rewind does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it"
+        ),
+        NoOverwrite::Identify => writeln!(
+            f,
+            "error: {path} already exists; armsheet identify does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it"
+        ),
     }
 }
 

@@ -136,34 +136,37 @@ fn path_d(ops: &[PathOp]) -> String {
     d
 }
 
+/// A group: its id, class, data attributes and translation, then its children.
+fn group(w: &mut SvgWriter, g: &crate::layout::tree::Group) {
+    let mut attrs: Vec<(&str, Val<'_>)> = Vec::new();
+    if let Some(id) = &g.id {
+        attrs.push(("id", id.as_str().into()));
+    }
+    if let Some(c) = &g.class {
+        attrs.push(("class", c.as_str().into()));
+    }
+    data(&mut attrs, &g.data);
+    if let Some((x, y)) = g.translate {
+        attrs.push((
+            "transform",
+            format!(
+                "translate({} {})",
+                fmt_trimmed(x, MM_DECIMALS),
+                fmt_trimmed(y, MM_DECIMALS)
+            )
+            .into(),
+        ));
+    }
+    w.open("g", &attrs);
+    for c in &g.children {
+        node(w, c);
+    }
+    w.close("g");
+}
+
 fn node(w: &mut SvgWriter, n: &Node) {
     match n {
-        Node::Group(g) => {
-            let mut attrs: Vec<(&str, Val<'_>)> = Vec::new();
-            if let Some(id) = &g.id {
-                attrs.push(("id", id.as_str().into()));
-            }
-            if let Some(c) = &g.class {
-                attrs.push(("class", c.as_str().into()));
-            }
-            data(&mut attrs, &g.data);
-            if let Some((x, y)) = g.translate {
-                attrs.push((
-                    "transform",
-                    format!(
-                        "translate({} {})",
-                        fmt_trimmed(x, MM_DECIMALS),
-                        fmt_trimmed(y, MM_DECIMALS)
-                    )
-                    .into(),
-                ));
-            }
-            w.open("g", &attrs);
-            for c in &g.children {
-                node(w, c);
-            }
-            w.close("g");
-        }
+        Node::Group(g) => group(w, g),
         Node::Text(t) => {
             let mut attrs: Vec<(&str, Val<'_>)> = vec![("x", t.x.into()), ("y", t.y.into())];
             if t.class_first {

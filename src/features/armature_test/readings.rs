@@ -58,18 +58,7 @@ pub fn parse_readings(
         .from_reader(text.as_bytes())
         .into_records()
         .map(|r| {
-            // The line a record starts on, from 1, counted from its byte offset: the reader
-            // places a record after a CR at the LF that follows it, a line early.
-            let line = |p: Option<&csv::Position>| {
-                let at = p.map_or(0, |p| p.byte() as usize).min(text.len());
-                let start = text[at..]
-                    .find(|c| c != '\r' && c != '\n')
-                    .map_or(text.len(), |k| at + k);
-                1 + text.as_bytes()[..start]
-                    .iter()
-                    .filter(|&&b| b == b'\n')
-                    .count()
-            };
+            let line = |p: Option<&csv::Position>| record_line(text, p);
             match r {
                 Ok(rec) => Ok((line(rec.position()), rec)),
                 Err(e) => Err(err(line(e.position()), 1, format!("not a CSV record: {e}"))),
@@ -142,22 +131,8 @@ pub fn parse_readings(
                 ),
             ));
         };
-        let raw = field(cr);
-        let value = if raw.is_empty() {
+        let Some(value) = reading_value(field(cr)).map_err(|m| err(line, cr + 1, m))? else {
             continue;
-        } else if raw.eq_ignore_ascii_case("open") || raw.eq_ignore_ascii_case("ol") {
-            ReadingValue::Open
-        } else {
-            match raw.parse::<f64>() {
-                Ok(v) if v.is_finite() && v >= 0.0 => ReadingValue::Value(v),
-                _ => {
-                    return Err(err(
-                        line,
-                        cr + 1,
-                        format!("expected a reading (a number, `open` or `OL`), found \"{raw}\""),
-                    ));
-                }
-            }
         };
         if out.values.insert(pair, value).is_some() {
             return Err(err(
@@ -178,4 +153,34 @@ pub fn parse_readings(
         ));
     }
     Ok(out)
+}
+
+/// The line a record starts on, from 1, counted from its byte offset: the reader places a
+/// record after a CR at the LF that follows it, a line early.
+fn record_line(text: &str, p: Option<&csv::Position>) -> usize {
+    let at = p.map_or(0, |p| p.byte() as usize).min(text.len());
+    let start = text[at..]
+        .find(|c| c != '\r' && c != '\n')
+        .map_or(text.len(), |k| at + k);
+    1 + text.as_bytes()[..start]
+        .iter()
+        .filter(|&&b| b == b'\n')
+        .count()
+}
+
+/// A reading cell: `None` when empty (a pair not read), open for `open` or `OL`, else a
+/// number of zero or more; the message when it is none of these.
+fn reading_value(raw: &str) -> Result<Option<ReadingValue>, String> {
+    if raw.is_empty() {
+        Ok(None)
+    } else if raw.eq_ignore_ascii_case("open") || raw.eq_ignore_ascii_case("ol") {
+        Ok(Some(ReadingValue::Open))
+    } else {
+        match raw.parse::<f64>() {
+            Ok(v) if v.is_finite() && v >= 0.0 => Ok(Some(ReadingValue::Value(v))),
+            _ => Err(format!(
+                "expected a reading (a number, `open` or `OL`), found \"{raw}\""
+            )),
+        }
+    }
 }

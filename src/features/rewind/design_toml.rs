@@ -58,6 +58,18 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
         prefix.push('\n');
     }
     doc.decor_mut().set_prefix(prefix);
+    job_table(&mut doc, d);
+    armature_table(&mut doc, d);
+    winding_table(&mut doc, d);
+    rating_table(&mut doc, d);
+    conductor_table(&mut doc, d);
+    core_and_commutator_tables(&mut doc, d);
+    limits_table(&mut doc, d);
+    doc.to_string()
+}
+
+/// `[job]`: the text keys given, in the reference's order.
+fn job_table(doc: &mut DocumentMut, d: &Design) {
     let j = &d.job;
     let mut job = Table::new();
     for (k, v) in [
@@ -72,8 +84,12 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
         }
     }
     if !job.is_empty() {
-        section(&mut doc, "job", job);
+        section(doc, "job", job);
     }
+}
+
+/// `[armature]`: every key, the segment count only when the design gave it.
+fn armature_table(doc: &mut DocumentMut, d: &Design) {
     let mut t = Table::new();
     t.insert("poles", whole(d.poles).into());
     t.insert("slots", whole(d.slots).into());
@@ -83,8 +99,11 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
     }
     t.insert("rotation", Value::from(d.rotation.as_str()).into());
     t.insert("pole_arc", number(d.pole_arc, 4).into());
-    section(&mut doc, "armature", t);
+    section(doc, "armature", t);
+}
 
+/// `[winding]`: every key, span in shop form, the wave coils' keys on a frog-leg.
+fn winding_table(doc: &mut DocumentMut, d: &Design) {
     let mut t = Table::new();
     t.insert("type", Value::from(d.winding_type.as_str()).into());
     t.insert("multiplicity", whole(d.multiplicity).into());
@@ -106,8 +125,11 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
         let coils: Array = list.iter().map(|&c| i64::from(c)).collect();
         t.insert("dummy_coils", Value::Array(coils).into());
     }
-    section(&mut doc, "winding", t);
+    section(doc, "winding", t);
+}
 
+/// `[rating]`, with the flux and speed, when the design has any of them.
+fn rating_table(doc: &mut DocumentMut, d: &Design) {
     let has_rating = d.rating.is_some() || d.flux_per_pole_mwb.is_some() || d.speed_rpm.is_some();
     if has_rating {
         let mut t = Table::new();
@@ -128,8 +150,12 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
         if let Some(f) = d.flux_per_pole_mwb {
             t.insert("flux_per_pole_mwb", number(f, 4).into());
         }
-        section(&mut doc, "rating", t);
+        section(doc, "rating", t);
     }
+}
+
+/// `[conductor]`: round (by gauge or diameter) or rectangular, and the mean turn.
+fn conductor_table(doc: &mut DocumentMut, d: &Design) {
     if let Some(k) = &d.conductor {
         let mut t = Table::new();
         match k.shape {
@@ -159,8 +185,12 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
         if let Some(l) = k.mean_turn_mm {
             t.insert("mean_turn_mm", number(l, 2).into());
         }
-        section(&mut doc, "conductor", t);
+        section(doc, "conductor", t);
     }
+}
+
+/// `[core]` and `[commutator]`, the keys given.
+fn core_and_commutator_tables(doc: &mut DocumentMut, d: &Design) {
     if let Some(c) = &d.core {
         let mut t = Table::new();
         if let Some(x) = c.diameter_mm {
@@ -169,7 +199,7 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
         if let Some(x) = c.length_mm {
             t.insert("length_mm", number(x, 3).into());
         }
-        section(&mut doc, "core", t);
+        section(doc, "core", t);
     }
     if let Some(c) = &d.commutator {
         let mut t = Table::new();
@@ -191,17 +221,19 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
         if let Some(n) = c.brush_sets {
             t.insert("brush_sets", whole(n).into());
         }
-        section(&mut doc, "commutator", t);
+        section(doc, "commutator", t);
     }
-    // `[limits]` keys whose values differ from the defaults, in key order.
+}
+
+/// `[limits]`: the keys whose values differ from the defaults, in key order.
+fn limits_table(doc: &mut DocumentMut, d: &Design) {
     if d.limits.overrides().next().is_some() {
         let mut t = Table::new();
         for (spec, v) in d.limits.overrides() {
             t.insert(spec.key, number(v, 6).into());
         }
-        section(&mut doc, "limits", t);
+        section(doc, "limits", t);
     }
-    doc.to_string()
 }
 
 /// `line` made safe to follow `# ` on one comment line: every control character (newline,
