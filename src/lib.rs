@@ -1,7 +1,7 @@
 //! armsheet designs, checks and prints DC machine armature windings.
 //!
 //! The pipeline, one folder a stage, every import pointing down this list ([`STAGES`]; the
-//! architecture test in `tests/architecture.rs` enforces it):
+//! architecture test in `tests/it/architecture.rs` enforces it):
 //! 0. [`base`]: findings with their severity, and the one number writer;
 //! 1. [`theory`]: the winding kinds and the formulas of the trade, written once;
 //! 2. [`design`] parses, validates and resolves a TOML design into a [`design::Design`];

@@ -1,5 +1,5 @@
 //! libFuzzer target: arbitrary bytes as a design file, through the same drive function as the
-//! stable driver (`tests/fuzz.rs`): parse, check, text, JSON, CSV, rewind with parse-back, the
+//! stable driver (`tests/it/fuzz.rs`): parse, check, text, JSON, CSV, rewind with parse-back, the
 //! sheets with SVG for every input and the PDF for one in 16.
 //!
 //! Run with `cargo +nightly fuzz run design` from the repository root (cargo-fuzz). The
@@ -9,10 +9,10 @@
 
 // Only its generator is used here; the mutations are the stable driver's.
 #[allow(dead_code)]
-#[path = "../../tests/support/mutate.rs"]
+#[path = "../../tests/it/support/mutate.rs"]
 mod mutate;
 
-#[path = "../../tests/support/fuzz_drive.rs"]
+#[path = "../../tests/it/support/fuzz_drive.rs"]
 mod fuzz_drive;
 
 use fuzz_drive::{Every, drive};

@@ -9,4 +9,4 @@ pub mod finding;
 pub mod number;
 pub mod visible;
 
-pub use finding::{Finding, Severity, has_errors};
+pub use finding::{Finding, RuleSpec, Severity, has_errors};

@@ -5,44 +5,31 @@
 //! on frog-leg windings, read in a public copy (docs/domain.md, "Frog-leg windings"); the
 //! self-equalizing condition and its reading off the trace are derived.
 
-use super::sources::{FROG_LEG, FROG_LEG_DERIVED};
-use super::{Finding, Severity};
+use super::{Finding, rules};
 use crate::base::number::fmt_fixed;
 use crate::design::Design;
-use crate::theory::WindingType;
 use crate::winding::{Connection, Winding, WindingElement};
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let c = w.active_coils;
     let p = d.pole_pairs();
-    let lap = w.elements.iter().find(|e| e.kind == WindingType::Lap);
-    let wave = w.elements.iter().find(|e| e.kind == WindingType::Wave);
-    let (Some(lap), Some(wave)) = (lap, wave) else {
+    // The kind gives the lap element first, then the wave element.
+    let [lap, wave] = &w.elements[..] else {
         return;
     };
-    out.push(Finding::new(
-        "frogleg.pole-pairs-whole",
-        Severity::Error,
-        c.is_multiple_of(p),
-        format!(
+    out.push(Finding::of(&rules::FROGLEG_POLE_PAIRS_WHOLE, c.is_multiple_of(p), format!(
             "bars per pole pair C/p = {c}/{p}{}; must be whole so that bars two pole pitches apart exist",
             if c.is_multiple_of(p) {
                 format!(" = {}", c / p)
             } else {
                 " is not whole".to_string()
             }
-        ),
-        FROG_LEG,
-    ));
+        )));
     out.push(self_equalizing(d, w, lap, wave, c, p));
     out.push(one_neutral(d, w, lap, wave));
     out.push(element_paths(d, lap, wave));
     let r = wave.reentrancy;
-    out.push(Finding::new(
-        "frogleg.wave-reentrancy",
-        Severity::Info,
-        true,
-        format!(
+    out.push(Finding::of(&rules::FROGLEG_WAVE_REENTRANCY, true, format!(
             "the wave element (multiplicity m_w = m x p = {}, y_c = {}) is {}: {r} closed winding(s) traced, gcd(C, y_c) = gcd({c}, {}) = {}; each is tested on its own",
             wave.multiplicity,
             wave.pitches.commutator,
@@ -53,15 +40,9 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             },
             wave.pitches.commutator.abs(),
             wave.reentrancy_formula
-        ),
-        FROG_LEG_DERIVED,
-    ));
+        )));
     let same = lap.turns == wave.turns;
-    out.push(Finding::new(
-        "frogleg.equal-coils",
-        Severity::Warning,
-        same,
-        format!(
+    out.push(Finding::of(&rules::FROGLEG_EQUAL_COILS, same, format!(
             "lap coils {} turn(s), wave coils {} turn(s), both of the one [conductor]{}",
             lap.turns,
             wave.turns,
@@ -70,9 +51,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             } else {
                 ": the trade winds both elements alike; unequal turns give the elements unequal EMFs and a circulating current between them"
             }
-        ),
-        FROG_LEG,
-    ));
+        )));
 }
 
 /// Where element `e` is commutated, read off the traced winding: the first active coil's bar
@@ -105,9 +84,8 @@ fn one_neutral(d: &Design, w: &Winding, lap: &WindingElement, wave: &WindingElem
         _ => 0.0,
     };
     let ok = apart < 0.25;
-    Finding::new(
-        "frogleg.one-neutral",
-        Severity::Warning,
+    Finding::of(
+        &rules::FROGLEG_ONE_NEUTRAL,
         ok,
         if ok {
             "the lap and the wave coils are commutated on one neutral: each element's first coil has its bar midpoint at the same place from its centre line".to_string()
@@ -117,7 +95,6 @@ fn one_neutral(d: &Design, w: &Winding, lap: &WindingElement, wave: &WindingElem
                 crate::base::number::fmt_fixed(apart, 1)
             )
         },
-        FROG_LEG_DERIVED,
     )
 }
 
@@ -167,9 +144,8 @@ fn self_equalizing(
     let (yl, yw) = (lap.pitches.commutator, wave.pitches.commutator);
     let first = reach(1).map_or("nowhere".to_string(), |b| format!("bar {b}"));
     if !wrong.is_empty() {
-        return Finding::new(
-            "frogleg.self-equalizing",
-            Severity::Error,
+        return Finding::of(
+            &rules::FROGLEG_SELF_EQUALIZING,
             false,
             format!(
                 "not self-equalizing: y_c(lap) + |y_c(wave)| = {yl} + {} = {}, but C/p = {pair}; from {} of {c} bars a lap coil and a wave coil in series miss the bar two pole pitches on (from bar 1: {first}, not bar {})",
@@ -178,7 +154,6 @@ fn self_equalizing(
                 wrong.len(),
                 pair % c + 1
             ),
-            FROG_LEG_DERIVED,
         );
     }
     // The worst loop over every bar, as a share of one lap coil's peak EMF.
@@ -221,13 +196,7 @@ fn self_equalizing(
             fmt_fixed(100.0 * worst.1, 1)
         )
     };
-    Finding::new(
-        "frogleg.self-equalizing",
-        Severity::Error,
-        ok,
-        message,
-        FROG_LEG_DERIVED,
-    )
+    Finding::of(&rules::FROGLEG_SELF_EQUALIZING, ok, message)
 }
 
 /// The largest EMF round the loop of two coils in series, each traversed from its start lead
@@ -309,9 +278,8 @@ fn element_paths(d: &Design, lap: &WindingElement, wave: &WindingElement) -> Fin
     let ok = lap.paths == wave.paths
         && lap.paths == lap.paths_formula
         && wave.paths == wave.paths_formula;
-    Finding::new(
-        "frogleg.element-paths",
-        Severity::Error,
+    Finding::of(
+        &rules::FROGLEG_ELEMENT_PATHS,
         ok,
         format!(
             "traced paths: lap element {} (m x P = {} x {} = {}), wave element {} (2 m_w = 2 x {} = {}); {}",
@@ -328,6 +296,5 @@ fn element_paths(d: &Design, lap: &WindingElement, wave: &WindingElement) -> Fin
                 "they must be equal and match their formulas"
             }
         ),
-        FROG_LEG,
     )
 }

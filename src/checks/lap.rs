@@ -2,8 +2,7 @@
 //!
 //! Part of the `checks` stage.
 
-use super::sources::{EQUALIZERS, MULTIPLEX_BRUSH, PITCH_TEXTS};
-use super::{Finding, Severity};
+use super::{Finding, Severity, rules};
 use crate::base::number::fmt_fixed;
 use crate::design::{Design, EqualizerChoice};
 use crate::winding::{EqualizerPlan, Winding};
@@ -12,9 +11,8 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let m = d.multiplicity;
     if m > 1 {
         let r = w.reentrancy();
-        out.push(Finding::new(
-            "lap.reentrancy",
-            Severity::Info,
+        out.push(Finding::of(
+            &rules::LAP_REENTRANCY,
             true,
             format!(
                 "{} closed winding(s): gcd(C, m) = gcd({}, {m}) = {}; {}",
@@ -27,7 +25,6 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
                     "multiply re-entrant: each closed winding is wound and tested on its own"
                 }
             ),
-            PITCH_TEXTS,
         ));
         out.push(multiplex_brush(m));
         out.extend(narrow_multiplex_brush(m, w));
@@ -53,25 +50,20 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
                     d.pole_pairs()
                 )
             };
-            out.push(Finding::new(
-                "lap.equalizers",
-                Severity::Info,
-                true,
-                msg,
-                EQUALIZERS,
-            ));
+            out.push(Finding::of(&rules::LAP_EQUALIZERS, true, msg).lowered_to(Severity::Info));
         }
-        EqualizerPlan::Impossible(why) => out.push(Finding::new(
-            "lap.equalizers",
-            if asked {
+        EqualizerPlan::Impossible(why) => out.push(
+            Finding::of(
+                &rules::LAP_EQUALIZERS,
+                !asked,
+                format!("equalizing is impossible: {why}"),
+            )
+            .lowered_to(if asked {
                 Severity::Error
             } else {
                 Severity::Info
-            },
-            !asked,
-            format!("equalizing is impossible: {why}"),
-            EQUALIZERS,
-        )),
+            }),
+        ),
         EqualizerPlan::NotNeeded => {}
     }
 }
@@ -84,29 +76,21 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
 pub(super) fn narrow_multiplex_brush(m: u32, w: &Winding) -> Option<Finding> {
     let b = w.brush_width.segments;
     (m > 1 && b < f64::from(m) - 1e-9).then(|| {
-        Finding::new(
-            "multiplex.brush-too-narrow",
-            Severity::Error,
-            false,
-            format!(
+        Finding::of(&rules::MULTIPLEX_BRUSH_TOO_NARROW, false, format!(
                 "the brush is {} segment pitches wide on a multiplicity-{m} winding: a coil joining bars s and s+{m} is shorted only while the brush spans more than {} bar pitch(es), so it must be at least {m} segment pitches wide to commutate and collect from every winding",
                 fmt_fixed(b, 2),
                 m - 1
-            ),
-            MULTIPLEX_BRUSH,
-        )
+            ))
     })
 }
 
 /// The brush-width note for multiplex windings.
 pub(super) fn multiplex_brush(m: u32) -> Finding {
-    Finding::new(
-        "multiplex.brush-width",
-        Severity::Info,
+    Finding::of(
+        &rules::MULTIPLEX_BRUSH_WIDTH,
         true,
         format!(
             "multiplicity {m}: each brush must cover at least {m} segments to collect from every winding"
         ),
-        MULTIPLEX_BRUSH,
     )
 }

@@ -4,13 +4,17 @@
 //! Stage 5 of the pipeline (see [`crate::STAGES`]). One file per rule family; each pushes
 //! [`Finding`]s and never prints. To add a rule, add a function to the family's file (or a new
 //! file) that pushes findings, call it from [`run_checks`], and give it an id, a severity and
-//! its source; then add a passing and a failing row to `tests/rule_cases.rs`.
+//! its source; then add a passing and a failing row to `tests/it/rule_cases.rs`. A family that
+//! belongs to some winding kinds only runs when the kind's answer to a question says so (see
+//! [`run_checks`]); no family names a kind.
 //!
-//! [`identify`] is no rule family: it builds the designs a data card allows and runs each
-//! through [`check`], keeping those whose trace reproduces the observations.
+//! [`identify`](crate::features::identify) is no rule family: it builds the designs a data card
+//! allows and runs each through [`check`], keeping those whose trace reproduces the
+//! observations.
 
 mod frog_leg;
 mod lap;
+pub mod rules;
 mod shop;
 mod sources;
 mod span;
@@ -19,10 +23,9 @@ mod trace;
 mod wave;
 
 pub use crate::base::{Finding, Severity, has_errors};
-pub use shop::bar_rule;
 pub use sources::BAR_RULE;
 
-use crate::design::{Design, WindingType};
+use crate::design::Design;
 use crate::rating::{RatingReport, findings_of, rate};
 use crate::winding::{Winding, trace_winding};
 
@@ -77,10 +80,18 @@ pub fn run_checks(
     let mut out = Vec::new();
     span::check(design, winding, &mut out);
     symmetry::check(design, winding, rating, &mut out);
-    match design.winding_type {
-        WindingType::Lap => lap::check(design, winding, &mut out),
-        WindingType::Wave => wave::check(design, winding, &mut out),
-        WindingType::FrogLeg => frog_leg::check(design, winding, &mut out),
+    // Each kind-specific family runs when the kind asks its question: the equalizer rules for
+    // a kind that takes equalizers (lap), the dummy-coil rules for one that may leave dummies
+    // (wave), the element rules for one of several elements (frog-leg).
+    let kind = design.winding_type.kind();
+    if kind.takes_equalizers() {
+        lap::check(design, winding, &mut out);
+    }
+    if !kind.uses_every_coil() {
+        wave::check(design, winding, &mut out);
+    }
+    if kind.element_count() > 1 {
+        frog_leg::check(design, winding, &mut out);
     }
     trace::check(design, winding, &mut out);
     shop::check(design, winding, &mut out);

@@ -2,9 +2,9 @@
 //!
 //! Part of the `checks` stage.
 
-use super::sources::BAR_RULE;
-use super::{Finding, Severity};
-use crate::design::{Design, WindingType};
+use super::{Finding, rules};
+use crate::design::Design;
+use crate::theory::bar_rule;
 use crate::winding::Winding;
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
@@ -12,9 +12,8 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let suggests = bar_rule(d.poles, c);
     if let Some(kind) = suggests {
         let matches = kind == d.winding_type;
-        out.push(Finding::new(
-            "shop.bar-count",
-            Severity::Info,
+        out.push(Finding::of(
+            &rules::SHOP_BAR_COUNT,
             matches,
             format!(
                 "{c} bars on {} poles suggests {}; the design is {}{}",
@@ -27,25 +26,6 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
                     ": look twice at the old winding before choosing"
                 }
             ),
-            BAR_RULE,
         ));
-    }
-}
-
-/// The winding kind the shop's bar-count rule of thumb suggests for `c` bars on `poles` poles,
-/// when the rule speaks for that pole count ([`BAR_RULE`], common practice).
-pub fn bar_rule(poles: u32, c: u32) -> Option<WindingType> {
-    match poles {
-        4 | 8 => Some(if c.is_multiple_of(2) {
-            WindingType::Lap
-        } else {
-            WindingType::Wave
-        }),
-        6 => Some(if c.is_multiple_of(3) {
-            WindingType::Lap
-        } else {
-            WindingType::Wave
-        }),
-        _ => None,
     }
 }

@@ -31,3 +31,5 @@ pub const EXACT_SYMMETRY: &str = "armsheet exact test: rotations of the armature
 pub const FROG_LEG: &str = "a trade association's technical note on frog-leg windings, read in a public copy; same wire and turns in both elements [common practice]";
 /// Frog-leg rules that are our own derivation.
 pub const FROG_LEG_DERIVED: &str = "frog-leg windings (a trade association's technical note, read in a public copy); the rule as read off the traced connections [derived]";
+/// The front pitch over a dummy coil, read off the trace.
+pub const DUMMY_FRONT_PITCH: &str = "armsheet trace: coil-side numbers with the dummy coils counted, front connection from a coil's bottom side to the top side of the coil that starts at its end segment [derived]";

@@ -2,8 +2,7 @@
 //!
 //! Part of the `checks` stage.
 
-use super::sources::{SPAN, SPAN_OPPOSITE};
-use super::{Finding, Severity};
+use super::{Finding, rules};
 use crate::base::number::fmt_fixed;
 use crate::design::{Design, SpanSource};
 use crate::theory::words::span_shop;
@@ -23,31 +22,19 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     } else {
         format!("long by {} slots", fmt_fixed(off, 2))
     };
-    out.push(Finding::new(
-        "span.pole-pitch",
-        Severity::Warning,
-        within,
-        format!(
+    out.push(Finding::of(&rules::SPAN_POLE_PITCH, within, format!(
             "span {} slots against a pole pitch S/P = {} slots ({how}); keep within 1 slot of the pole pitch",
             d.span,
             fmt_fixed(pole_pitch, 2)
-        ),
-        SPAN,
-    ));
+        )));
     if d.span_source == SpanSource::Default {
-        out.push(Finding::new(
-            "span.default",
-            Severity::Info,
-            true,
-            format!(
+        out.push(Finding::of(&rules::SPAN_DEFAULT, true, format!(
                 "no span given: used floor(S/P) = floor({}/{}) = {} slots (\"{}\"); give `span` to match the old coils",
                 d.slots,
                 d.poles,
                 d.span,
                 span_shop(d.span)
-            ),
-            SPAN,
-        ));
+            )));
     }
 }
 
@@ -70,9 +57,8 @@ fn opposite_poles(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         } else {
             String::new()
         };
-        out.push(Finding::new(
-            "span.opposite-poles",
-            Severity::Error,
+        out.push(Finding::of(
+            &rules::SPAN_OPPOSITE_POLES,
             works,
             format!(
                 "{label}coil {} spans slots {} to {}: {} pole pitches apart ({} electrical degrees, modulo 360); its sides must lie under poles of opposite polarity, half to one and a half pole pitches apart (90 to 270 degrees), or the coil makes little or no EMF",
@@ -82,7 +68,6 @@ fn opposite_poles(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
                 fmt_fixed(pole_pitches, 2),
                 fmt_fixed(electrical, 1),
             ),
-            SPAN_OPPOSITE,
         ));
     }
 }

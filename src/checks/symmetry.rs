@@ -16,22 +16,22 @@
 //! [`symmetric`] is the verdict (`Checked.symmetric`); the exit code follows the rule's errors
 //! and, where the rule fails, the exact test's.
 
-use super::sources::{EXACT_SYMMETRY as EXACT_SOURCE, SIMULATION, SYMMETRY};
-use super::{Finding, Severity};
+use super::{Finding, Severity, rules};
+use crate::base::RuleSpec;
 use crate::base::number::fmt_fixed;
 use crate::design::Design;
 use crate::rating::RatingReport;
 use crate::winding::{Congruence, Winding, WindingElement};
 
-/// The ids of the classical symmetry conditions.
-const IDS: [&str; 3] = [
-    "symmetry.coils-per-path-pair",
-    "symmetry.slots-per-path-pair",
-    "symmetry.pole-pairs-per-path-pair",
+/// The rules of the classical symmetry conditions.
+const IDS: [&RuleSpec; 3] = [
+    &rules::SYMMETRY_COILS_PER_PATH_PAIR,
+    &rules::SYMMETRY_SLOTS_PER_PATH_PAIR,
+    &rules::SYMMETRY_POLE_PAIRS_PER_PATH_PAIR,
 ];
 
 /// The id of the exact symmetry test.
-pub const EXACT: &str = "symmetry.exact";
+pub const EXACT: &str = rules::SYMMETRY_EXACT.id;
 
 fn whole(num: u32, den: u32) -> bool {
     den != 0 && num.is_multiple_of(den)
@@ -71,7 +71,7 @@ fn exact_of(w: &Winding, e: &WindingElement) -> bool {
 }
 
 /// The textbook rule for element `e`: each condition's id, whether it holds, and its numbers.
-fn rule(d: &Design, w: &Winding, e: &WindingElement) -> Vec<(&'static str, bool, String)> {
+fn rule(d: &Design, w: &Winding, e: &WindingElement) -> Vec<(&'static RuleSpec, bool, String)> {
     let a = w.element_paths(e);
     let pairs = a / 2;
     let c = w.active_coils;
@@ -138,7 +138,7 @@ fn check_element(d: &Design, w: &Winding, e: &WindingElement, out: &mut Vec<Find
         } else {
             (Severity::Error, message)
         };
-        out.push(Finding::new(id, severity, ok, label(message), SYMMETRY));
+        out.push(Finding::of(id, ok, label(message)).lowered_to(severity));
     }
 
     let sizes: Vec<String> = classes
@@ -176,18 +176,16 @@ fn check_element(d: &Design, w: &Winding, e: &WindingElement, out: &mut Vec<Find
     };
     // The exact test may rescue a winding the rule refuses; it never condemns one the rule
     // passes, so it is only information there.
-    let severity = if rule_ok {
-        Severity::Info
-    } else {
-        Severity::Error
-    };
-    out.push(Finding::new(
-        EXACT,
-        severity,
+    let finding = Finding::of(
+        &rules::SYMMETRY_EXACT,
         exact,
         label(format!("exact symmetry of the {a} paths: {why}; {agree}")),
-        EXACT_SOURCE,
-    ));
+    );
+    out.push(if rule_ok {
+        finding.lowered_to(Severity::Info)
+    } else {
+        finding
+    });
 }
 
 /// The simulated balance over every path, as a share of the path EMF and, when the rating
@@ -242,11 +240,9 @@ fn balance(d: &Design, w: &Winding, rating: Option<&RatingReport>, out: &mut Vec
         ),
         (false, true) => "balanced on average, although the winding is unsymmetrical: the simulation sees only EMF, not the circulating currents an unsymmetrical winding carries".to_string(),
     };
-    out.push(Finding::new(
-        "symmetry.simulated-balance",
-        Severity::Warning,
+    out.push(Finding::of(
+        &rules::SYMMETRY_SIMULATED_BALANCE,
         b.balanced,
         format!("{sim}{size}: {verdict}"),
-        SIMULATION,
     ));
 }

@@ -7,17 +7,15 @@
 use std::collections::BTreeMap;
 
 use super::lap::{multiplex_brush, narrow_multiplex_brush};
-use super::sources::{DUMMY, PITCH_TEXTS};
-use super::{Finding, Severity};
-use crate::design::{Design, WindingType};
+use super::{Finding, Severity, rules};
+use crate::design::Design;
 use crate::winding::Winding;
 
 pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     let (c, m, p) = (w.active_coils, d.multiplicity, d.pole_pairs());
     let r = w.reentrancy();
-    out.push(Finding::new(
-        "wave.reentrancy",
-        Severity::Info,
+    out.push(Finding::of(
+        &rules::WAVE_REENTRANCY,
         true,
         format!(
             "{r} closed winding(s): gcd(C, y_c) = gcd({c}, {}) = {}; {}",
@@ -29,14 +27,13 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
                 "multiply re-entrant"
             }
         ),
-        PITCH_TEXTS,
     ));
     if m > 1 {
         out.push(multiplex_brush(m));
         out.extend(narrow_multiplex_brush(m, w));
     }
     let dummies = w.dummy_coils.len() as u32;
-    let wave = WindingType::Wave.kind();
+    let wave = d.winding_type.kind();
     let best = wave
         .default_segments(w.coils, m, p, d.direction)
         .unwrap_or(c);
@@ -59,15 +56,9 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         } else {
             (true, Severity::Info, String::new())
         };
-        out.push(Finding::new(
-            "wave.dummy-coils",
-            sev,
-            passed,
-            format!(
+        out.push(Finding::of(&rules::WAVE_DUMMY_COILS, passed, format!(
                 "{dummies} dummy coil(s) at position(s) {list}: wind them for balance, cut the ends back and tape them{extra}"
-            ),
-            DUMMY,
-        ));
+            )).lowered_to(sev));
     }
     dummy_front_pitch(w, out);
     if w.segments_derived {
@@ -75,9 +66,8 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         if let Some(alt) = wave.default_segments(w.coils, m, p, other)
             && alt > c
         {
-            out.push(Finding::new(
-                "wave.direction-hint",
-                Severity::Info,
+            out.push(Finding::of(
+                &rules::WAVE_DIRECTION_HINT,
                 true,
                 format!(
                     "a {} winding would use {alt} segments with {} dummy coil(s) instead of {}",
@@ -85,7 +75,6 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
                     w.coils - alt,
                     dummies
                 ),
-                DUMMY,
             ));
         }
     }
@@ -120,16 +109,10 @@ fn dummy_front_pitch(w: &Winding, out: &mut Vec<Finding>) {
         })
         .collect::<Vec<_>>()
         .join("; ");
-    out.push(Finding::new(
-        "wave.dummy-front-pitch",
-        Severity::Info,
-        true,
-        format!(
+    out.push(Finding::of(&rules::WAVE_DUMMY_FRONT_PITCH, true, format!(
             "{stepping} of {} front connections step over a dummy coil and differ from the nominal y_f = {nominal} by 2 coil sides per dummy: {groups}",
             w.active_coils
-        ),
-        "armsheet trace: coil-side numbers with the dummy coils counted, front connection from a coil's bottom side to the top side of the coil that starts at its end segment [derived]",
-    ));
+        )));
 }
 
 /// Ascending coil numbers as runs (`24-35, 40`), at most [`LISTED_RUNS`] of them, then how

@@ -48,6 +48,8 @@ pub struct TestArgs {
     pub tolerance: f64,
     /// Write test.txt, test.json, readings.csv and the plot readings.svg into
     /// DIR/<design-stem>/ instead.
+    // The text is the `--help` line, kept as typed; not HTML.
+    #[allow(rustdoc::invalid_html_tags)]
     #[arg(short = 'o', long = "out", value_name = "DIR")]
     pub out: Option<PathBuf>,
 }
@@ -70,7 +72,8 @@ fn temperature(s: &str) -> Result<f64, String> {
     }
 }
 
-pub(crate) const TEST_HELP: &str = "\
+pub(crate) const TEST_HELP: &str = concat!(
+    "\
 Solves the traced winding as a resistor network (each active coil one resistor between its
 bars, dummy coils left out, equalizers ideal) and gives the expected reading between every
 pair of neighbouring bars, the bars m apart within one winding for multiplex windings, and
@@ -81,8 +84,9 @@ readings.csv has an empty `measured` column for the shop to fill in; give it bac
 for an open circuit; any consistent unit) and the locator ranks the single faults that
 explain the readings (open coil, shorted coil, high-resistance joint, shorted bars, crossed
 leads). readings.svg plots the readings round the commutator.
-Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
-written.";
+",
+    super::error::exit_codes_help!()
+);
 
 /// Runs `test`.
 pub fn test(a: &TestArgs) -> Result<Outcome, CliError> {

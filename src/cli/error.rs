@@ -10,17 +10,27 @@ use std::io::{self, Write};
 use std::path::PathBuf;
 
 use super::output::{EntryKind, WrongKind};
-use crate::base::number::fmt_fixed;
+use crate::base::number::{fmt_fixed, fmt_toml};
 use crate::base::visible::visible;
 use crate::design::Diagnostics;
 use crate::features::rewind::RewindError;
-use crate::features::rewind::design_toml;
 use crate::features::rewind::{
     FluxSource, MAX_CURRENT_A, MAX_FLUX_MWB, MAX_SPEED_RPM, MAX_VOLTAGE,
 };
 
 /// The exit code of bad input, or of output that could not be written.
 pub const EXIT_BAD_INPUT: u8 = 2;
+
+/// The exit codes of the commands that check a design (`check`, `sheet`, `test`), as their
+/// help words them: written once here, after the README's table of exit codes. A macro, so
+/// that the help texts, which clap takes as constants, can be put together with `concat!`.
+macro_rules! exit_codes_help {
+    () => {
+        "Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
+written."
+    };
+}
+pub(crate) use exit_codes_help;
 
 /// The command that refuses to replace an existing file.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -203,35 +213,7 @@ impl fmt::Display for CliError {
                     "check that the folder is writable"
                 }
             ),
-            CliError::WrongKind { path, why } => {
-                let (what, hint) = match why.want {
-                    EntryKind::Folder => (
-                        "cannot create the output folder",
-                        "give another folder with -o DIR",
-                    ),
-                    _ => ("cannot write", "give another path"),
-                };
-                let want = why.want.noun();
-                let path = shown(path);
-                match (&why.link, why.found) {
-                    (None, found) => writeln!(
-                        f,
-                        "error: {what} {path}: it is a {}, not a {want}; armsheet writes only where there is nothing or a {want} (or a symbolic link to one)\n  = hint: {hint}",
-                        found.map_or("", EntryKind::noun)
-                    ),
-                    (Some(to), None) => writeln!(
-                        f,
-                        "error: {what} {path}: it is a symbolic link to {}, which does not exist; armsheet follows a link only to an existing {want}\n  = hint: {hint}",
-                        shown(to)
-                    ),
-                    (Some(to), Some(found)) => writeln!(
-                        f,
-                        "error: {what} {path}: it is a symbolic link to {}, a {}, not a {want}; armsheet follows a link only to an existing {want}\n  = hint: {hint}",
-                        shown(to),
-                        found.noun()
-                    ),
-                }
-            }
+            CliError::WrongKind { path, why } => wrong_kind(f, path, why),
             CliError::Stdout(e) => writeln!(f, "error: cannot write to standard output: {e}"),
             CliError::ReadingsRead { path, source } => writeln!(
                 f,
@@ -246,30 +228,7 @@ impl fmt::Display for CliError {
                 error.column,
                 crate::base::visible::visible(&crate::base::visible::clip(&error.message, 200))
             ),
-            CliError::Exists {
-                path,
-                by: NoOverwrite::New,
-            } => writeln!(
-                f,
-                "error: {} already exists; armsheet new never overwrites a file\n  = hint: give another path, e.g. `armsheet new job-42.toml`",
-                shown(path)
-            ),
-            CliError::Exists {
-                path,
-                by: NoOverwrite::Rewind,
-            } => writeln!(
-                f,
-                "error: {} already exists; armsheet rewind does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
-                shown(path)
-            ),
-            CliError::Exists {
-                path,
-                by: NoOverwrite::Identify,
-            } => writeln!(
-                f,
-                "error: {} already exists; armsheet identify does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it",
-                shown(path)
-            ),
+            CliError::Exists { path, by } => exists(f, path, *by),
             CliError::Identify { card, message } => {
                 writeln!(f, "error: {}: {}", visible(card), visible(message))
             }
@@ -293,6 +252,56 @@ impl fmt::Display for CliError {
                 visible(message)
             ),
         }
+    }
+}
+
+/// Something other than a file (or a folder for a set) stands where armsheet would write.
+fn wrong_kind(f: &mut fmt::Formatter<'_>, path: &std::path::Path, why: &WrongKind) -> fmt::Result {
+    let (what, hint) = match why.want {
+        EntryKind::Folder => (
+            "cannot create the output folder",
+            "give another folder with -o DIR",
+        ),
+        _ => ("cannot write", "give another path"),
+    };
+    let want = why.want.noun();
+    let path = shown(path);
+    match (&why.link, why.found) {
+        (None, found) => writeln!(
+            f,
+            "error: {what} {path}: it is a {}, not a {want}; armsheet writes only where there is nothing or a {want} (or a symbolic link to one)\n  = hint: {hint}",
+            found.map_or("", EntryKind::noun)
+        ),
+        (Some(to), None) => writeln!(
+            f,
+            "error: {what} {path}: it is a symbolic link to {}, which does not exist; armsheet follows a link only to an existing {want}\n  = hint: {hint}",
+            shown(to)
+        ),
+        (Some(to), Some(found)) => writeln!(
+            f,
+            "error: {what} {path}: it is a symbolic link to {}, a {}, not a {want}; armsheet follows a link only to an existing {want}\n  = hint: {hint}",
+            shown(to),
+            found.noun()
+        ),
+    }
+}
+
+/// A file armsheet will not overwrite, with the command that refuses and the way round it.
+fn exists(f: &mut fmt::Formatter<'_>, path: &std::path::Path, by: NoOverwrite) -> fmt::Result {
+    let path = shown(path);
+    match by {
+        NoOverwrite::New => writeln!(
+            f,
+            "error: {path} already exists; armsheet new never overwrites a file\n  = hint: give another path, e.g. `armsheet new job-42.toml`"
+        ),
+        NoOverwrite::Rewind => writeln!(
+            f,
+            "error: {path} already exists; armsheet rewind does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it"
+        ),
+        NoOverwrite::Identify => writeln!(
+            f,
+            "error: {path} already exists; armsheet identify does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it"
+        ),
     }
 }
 
@@ -346,7 +355,7 @@ pub fn rewind_message(e: &RewindError) -> String {
         RewindError::FluxUnknown => "the flux per pole is unknown: give [rating] flux_per_pole_mwb, or [rating] voltage with speed_rpm, or measure the old machine with --from-test V0 N0".to_string(),
         RewindError::FluxOutOfRange { flux_mwb, source } => {
             let flux = if flux_mwb.is_finite() {
-                format!("a flux per pole of {} mWb", design_toml::num(*flux_mwb, 4))
+                format!("a flux per pole of {} mWb", fmt_toml(*flux_mwb, 4))
             } else {
                 "no finite flux per pole".to_string()
             };
@@ -354,8 +363,8 @@ pub fn rewind_message(e: &RewindError) -> String {
             match source {
                 FluxSource::Test(v, n) => format!(
                     "--from-test {} V at {} rpm gives {flux}; {range}: check the readings (open-circuit volts first, then rpm)",
-                    design_toml::num(*v, 3),
-                    design_toml::num(*n, 3)
+                    fmt_toml(*v, 3),
+                    fmt_toml(*n, 3)
                 ),
                 FluxSource::Rating => format!(
                     "[rating] voltage and speed_rpm give {flux}; {range}: check them, or give flux_per_pole_mwb or --from-test V0 N0"
@@ -367,14 +376,15 @@ pub fn rewind_message(e: &RewindError) -> String {
         }
         RewindError::WorkedSpeedOutOfRange { rpm } => format!(
             "the old machine's speed works out to {} rpm from its EMF and the flux; a design file holds above 0 and at most {MAX_SPEED_RPM} rpm: give --speed N",
-            design_toml::num(*rpm, 3)
+            fmt_toml(*rpm, 3)
         ),
         RewindError::CurrentOutOfRange { amps } => format!(
             "the new armature current works out to {} A (the rated current scaled by the old/new conductors per path); a design file holds above 0 and at most {MAX_CURRENT_A} A: check [rating] current, or ask for another --voltage",
-            design_toml::num(*amps, 4)
+            fmt_toml(*amps, 4)
         ),
         RewindError::SpeedUnknown => "no speed to rewind for: give --speed N, or [rating] speed_rpm or voltage in the design".to_string(),
         RewindError::Connect(e) => format!("cannot connect the coils as asked: {e}"),
+        RewindError::Design(e) => format!("the new design would not be a valid design: {e}"),
         RewindError::DropExceedsEmf => "the resistive drop at this speed is larger than the EMF per conductor: no winding gives this voltage".to_string(),
         RewindError::BelowBrushDrop {
             volts,

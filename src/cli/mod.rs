@@ -39,15 +39,17 @@ pub const STARTER: &str = include_str!("starter.toml");
 /// The starter data card written by `armsheet new --card`.
 pub const STARTER_CARD: &str = include_str!("starter-card.toml");
 
-const ABOUT: &str =
-    "Designs, checks and prints DC armature windings (lap and wave, simplex and multiplex).";
+const ABOUT: &str = "Designs, checks and prints DC armature windings (lap, wave and frog-leg, simplex and multiplex).";
 
-const CONVENTIONS: &str = "\
+const CONVENTIONS: &str = concat!(
+    "\
 Conventions: slots, coils and segments count from 1. Coil n lies in slot ceil(n/u), its bottom
 side `span` slots on; top coil sides are odd, bottom sides even, so y_b = 2u*span + 1.
 Segment 1 takes coil 1's start lead; y_c is signed, + towards rising segment numbers.
-Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
-written. A closed standard output (e.g. `| head`) ends armsheet quietly with exit 0.";
+",
+    error::exit_codes_help!(),
+    " A closed standard output (e.g. `| head`) ends armsheet quietly with exit 0."
+);
 
 /// armsheet's command line.
 #[derive(Debug, Parser)]
@@ -83,15 +85,18 @@ pub enum Command {
     Test(armature_test::TestArgs),
 }
 
-const CHECK_HELP: &str = "\
+const CHECK_HELP: &str = concat!(
+    "\
 The design file is TOML with the tables [job], [armature] (poles, slots, coils_per_slot,
 segments, rotation, pole_arc), [winding] (type, multiplicity, direction, span, turns,
-lead_offset, equalizers, dummy_coils, flux_per_pole_mwb, speed_rpm) and, for rating checks, [rating],
-[conductor], [core], [commutator], [limits]. Unknown keys are errors.
+lead_offset, equalizers, dummy_coils, wave_span, wave_turns, flux_per_pole_mwb, speed_rpm)
+and, for rating checks, [rating], [conductor], [core], [commutator], [limits]. Unknown keys
+are errors.
 Span: 7 or the shop form \"1-8\". lead_offset 0 puts a coil's two segments either side of its
 centre line; + swings the leads towards rising segment numbers.
-Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
-written.";
+",
+    error::exit_codes_help!()
+);
 
 const NEW_HELP: &str = "\
 Writes a starter design with every key commented. Edit it, then run

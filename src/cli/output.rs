@@ -235,7 +235,7 @@ fn still_a_file_or_absent(user: &Path, real: &Path) -> Result<(), CliError> {
 /// same folder, then renames it into place, so a reader never sees a half-written file and an
 /// error leaves the old file intact. `path` must be absent, a regular file or a symbolic link
 /// to one (then the file it leads to is replaced and the link kept); anything else is
-/// [`CliError::WrongKind`] and nothing is written (see [`resolve`]).
+/// [`CliError::WrongKind`] and nothing is written (see `resolve`).
 pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<(), CliError> {
     let (real, _) = resolve(path, EntryKind::File)?;
     let tmp = staged_file(&real, bytes).map_err(|e| CliError::write(path, e))?;
@@ -283,7 +283,7 @@ pub fn write_new(path: &Path, bytes: &[u8], by: NoOverwrite) -> Result<(), CliEr
 /// temporary folder is left.
 ///
 /// A killed run cannot clean up, so it may leave its staging or aside folder behind; the target
-/// still holds one whole set (see [`recover_stale`]), and the next run into the same folder
+/// still holds one whole set (see `recover_stale`), and the next run into the same folder
 /// first puts back what such a folder holds that belongs to the user and removes it. Two runs
 /// into the same folder at the same time are not supported.
 /// Returns the stale entries removed, as paths in `target`, sorted.

@@ -12,12 +12,14 @@
 
 use std::path::{Path, PathBuf};
 
-use clap::{Args, ValueEnum};
+use clap::Args;
+use clap::builder::PossibleValue;
 
 use super::Outcome;
 use super::error::{CliError, NoOverwrite};
 use super::load::load_design;
 use super::output::{print_stdout, write_atomic, write_new};
+use crate::base::number::fmt_toml;
 use crate::checks::Checked;
 use crate::design::{WindingType, parse_design};
 use crate::features::rewind::{self, RewindRequest, design_toml, no_load_test};
@@ -36,13 +38,14 @@ never a folder, a device, a FIFO or a link to nothing.
 Without -o the file is written beside the design as NAME-<V>V.toml.
 Exit codes: 0 written, 2 bad input, an impossible request or output that could not be written.";
 
-/// `--type`.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
-pub enum TypeArg {
-    /// Lap: a = m·P.
-    Lap,
-    /// Wave: a = 2m.
-    Wave,
+/// `--type` takes the kinds' design-file words, from `theory`.
+impl clap::ValueEnum for WindingType {
+    fn value_variants<'a>() -> &'a [Self] {
+        &WindingType::ALL
+    }
+    fn to_possible_value(&self) -> Option<PossibleValue> {
+        Some(PossibleValue::new(self.as_str()))
+    }
 }
 
 /// Arguments of `rewind`.
@@ -58,8 +61,8 @@ pub struct RewindArgs {
     #[arg(long, value_name = "N")]
     pub speed: Option<f64>,
     /// New connection (default: the design's).
-    #[arg(long = "type", value_enum, value_name = "lap|wave")]
-    pub kind: Option<TypeArg>,
+    #[arg(long = "type", value_enum, value_name = "KIND")]
+    pub kind: Option<WindingType>,
     /// New multiplicity, 1 to 6 (default: the design's).
     #[arg(long, value_name = "m")]
     pub multiplicity: Option<u32>,
@@ -111,10 +114,7 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
     let req = RewindRequest {
         voltage,
         speed_rpm: a.speed,
-        kind: a.kind.map(|k| match k {
-            TypeArg::Lap => WindingType::Lap,
-            TypeArg::Wave => WindingType::Wave,
-        }),
+        kind: a.kind,
         multiplicity: a.multiplicity,
         from_test,
         measured_r20: a.ra,
@@ -169,7 +169,7 @@ fn default_output(design: &Path, volts: f64) -> PathBuf {
         || "design".to_string(),
         |s| s.to_string_lossy().into_owned(),
     );
-    let v = design_toml::num(volts, 2).replace('.', "_");
+    let v = fmt_toml(volts, 2).replace('.', "_");
     design.with_file_name(format!("{stem}-{v}V.toml"))
 }
 
@@ -177,16 +177,13 @@ fn default_output(design: &Path, volts: f64) -> PathBuf {
 fn asked_line(a: &RewindArgs) -> String {
     let mut s = format!("armsheet rewind {}", a.design.display());
     if let Some(v) = a.voltage {
-        s.push_str(&format!(" --voltage {}", design_toml::num(v, 3)));
+        s.push_str(&format!(" --voltage {}", fmt_toml(v, 3)));
     }
     if let Some(n) = a.speed {
-        s.push_str(&format!(" --speed {}", design_toml::num(n, 3)));
+        s.push_str(&format!(" --speed {}", fmt_toml(n, 3)));
     }
     if let Some(k) = a.kind {
-        s.push_str(match k {
-            TypeArg::Lap => " --type lap",
-            TypeArg::Wave => " --type wave",
-        });
+        s.push_str(&format!(" --type {}", k.as_str()));
     }
     if let Some(m) = a.multiplicity {
         s.push_str(&format!(" --multiplicity {m}"));
@@ -194,12 +191,12 @@ fn asked_line(a: &RewindArgs) -> String {
     if let Some(t) = &a.from_test {
         s.push_str(&format!(
             " --from-test {} {}",
-            design_toml::num(t[0], 3),
-            design_toml::num(t[1], 3)
+            fmt_toml(t[0], 3),
+            fmt_toml(t[1], 3)
         ));
     }
     if let Some(r) = a.ra {
-        s.push_str(&format!(" --ra {}", design_toml::num(r, 6)));
+        s.push_str(&format!(" --ra {}", fmt_toml(r, 6)));
     }
     // Control characters in the file name stay: the design file's header escapes them visibly
     // (`design_toml::comment_text`).

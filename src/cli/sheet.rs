@@ -84,6 +84,8 @@ pub struct SheetArgs {
     /// The design file (TOML).
     pub design: PathBuf,
     /// Output folder; files go to DIR/<design-stem>/.
+    // The text is the `--help` line, kept as typed; not HTML.
+    #[allow(rustdoc::invalid_html_tags)]
     #[arg(short = 'o', long = "out", default_value = "out", value_name = "DIR")]
     pub out: PathBuf,
     /// Paper size (landscape).
@@ -103,6 +105,8 @@ pub struct DrawArgs {
     /// The design file (TOML).
     pub design: PathBuf,
     /// The SVG to write (default out/<design-stem>/diagram.svg).
+    // The text is the `--help` line, kept as typed; not HTML.
+    #[allow(rustdoc::invalid_html_tags)]
     #[arg(short = 'o', long = "out", value_name = "FILE.svg")]
     pub out: Option<PathBuf>,
     /// The diagram window.
@@ -110,7 +114,8 @@ pub struct DrawArgs {
     pub window: WindowArgs,
 }
 
-pub(crate) const SHEET_HELP: &str = "\
+pub(crate) const SHEET_HELP: &str = concat!(
+    "\
 Writes into DIR/<design-stem>/: sheet-1.svg (developed diagram, title block, winding data,
 legend, caution), sheet-2.svg … (the commutator end view, the winding order with check-off
 boxes, the connection table with the winding sequence, the equalizer table, the test and
@@ -122,8 +127,9 @@ Sheets are sized in mm and print at true scale. A design that fails a check is s
 under a NOT FOR WINDING band.
 The set is written whole or not at all: it is made in a temporary folder beside DIR/<design-stem>
 and then swapped into place; other files already in that folder are kept.
-Exit codes: 0 passes, 1 an error-level check fails, 2 bad input or output that could not be
-written.";
+",
+    super::error::exit_codes_help!()
+);
 
 pub(crate) fn stem(path: &Path) -> String {
     path.file_stem()

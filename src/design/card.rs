@@ -136,23 +136,7 @@ fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diag
     }
     let root = DeTable::parse(text).map_err(|e| toml_error(&src, &e))?;
     let root_table = root.get_ref();
-    for (k, v) in root_table.iter() {
-        let word: &str = k.get_ref();
-        if !CARD_TABLES.contains(&word) || !v.get_ref().is_table() {
-            let d = src.error(
-                k.span(),
-                word,
-                format!(
-                    "unknown table or key `{}` at the top level of a card",
-                    clip(word, ECHO_WIDTH)
-                ),
-            );
-            return Err(match nearest(word, CARD_TABLES) {
-                Some(n) if n != word => d.with_hint(format!("did you mean [{n}]?")),
-                _ => d.with_hint("a card holds the tables [job] and [observed]"),
-            });
-        }
-    }
+    check_tables(&src, root_table)?;
     let empty = DeTable::default();
     let table = |name: &'static str| -> Option<TableReader<'_, '_>> {
         root_table.get(name).map(|v| TableReader {
@@ -173,71 +157,14 @@ fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diag
     };
     obs.deny_unknown(OBSERVED_KEYS)?;
     let o = &obs;
-    let poles = o.keep(armature::read_poles(o));
-    let slots = o.keep(required(
-        o,
-        o.int(
-            "slots",
-            2..=bounds::MAX_SLOTS,
-            "the armature slots",
-            "count the slots",
-        ),
-        "the armature slots",
-        "slots = 25",
-    ));
-    let bars = o.keep(required(
-        o,
-        o.int(
-            "bars",
-            2..=bounds::MAX_COILS,
-            "the commutator bars",
-            "count the bars",
-        ),
-        "the commutator bars",
-        "bars = 25",
-    ));
-    let u = o.keep(o.int(
-        "coils_per_slot",
-        1..=bounds::MAX_COILS_PER_SLOT,
-        "coils per slot (leads counted in one slot, over two)",
-        "leave the key out when the leads cannot be counted",
-    ));
-    let turns = o.keep(required(
-        o,
-        o.int(
-            "turns",
-            1..=bounds::MAX_TURNS,
-            "turns per coil",
-            "count the turns of one coil",
-        ),
-        "turns per coil",
-        "turns = 3",
-    ));
-    let (d, awg, strands) = conductor::read_wire(o);
-    let wire = match (d, awg, strands) {
-        (Some(d), Some(awg), Some(strands)) => {
-            let given = strands.is_some();
-            let strands = strands.map_or(1, |a| a.value as u32);
-            if d.is_none() && awg.is_none() {
-                if given {
-                    o.src.found.push(
-                        o.src
-                            .error(
-                                o.raw("strands").map_or(o.span.clone(), |v| v.span()),
-                                o.dotted("strands"),
-                                "strands without a wire size",
-                            )
-                            .with_hint("add diameter_mm or awg, or remove strands"),
-                    );
-                }
-                Some(None)
-            } else {
-                o.keep(conductor::shape(o, d, awg, None, None, None, strands))
-                    .map(Some)
-            }
-        }
-        _ => None,
-    };
+    let Counts {
+        poles,
+        slots,
+        bars,
+        coils_per_slot: u,
+        turns,
+    } = read_counts(o);
+    let wire = read_card_wire(o);
     let rotation = o
         .keep(o.choice("rotation", &["cw", "ccw"]))
         .map(|r| match r {
@@ -249,39 +176,9 @@ fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diag
         return Ok(None);
     };
     let (p, s, c) = (poles.value, slots.value, bars.value);
-    if c < 2 * p {
-        o.src.found.push(
-            o.src
-                .error(
-                    bars.span.clone(),
-                    o.dotted("bars"),
-                    format!(
-                        "{c} bars is too few for {p} poles: every winding takes at least 2 bars a pole ({})",
-                        2 * p
-                    ),
-                )
-                .with_hint("count the bars again, and the poles on the field frame"),
-        );
-    }
     // A count in error is recorded; the rest of the card is still read.
     let u = u.flatten();
-    if let Some(u) = &u
-        && u.value * s > bounds::MAX_COILS
-    {
-        o.src.found.push(
-            o.src
-                .error(
-                    u.span.clone(),
-                    o.dotted("coils_per_slot"),
-                    format!(
-                        "{s} slots × {} coils per slot is beyond any real machine: at most {} coils",
-                        u.value,
-                        bounds::MAX_COILS
-                    ),
-                )
-                .with_hint("count the leads in one slot and halve it"),
-        );
-    }
+    check_counts(o, &bars, p, s, u.as_ref());
     let span = o.keep(read_coil_span(o, s, p));
     let frog = o.keep(read_frog_leg(o, s, p, c));
     let throw = o.keep(read_throw(o, c));
@@ -321,6 +218,157 @@ fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diag
         wave_throw: frog.throw,
         wave_coil_span: frog.span,
     }))
+}
+
+/// The top level of a card: only the tables [job] and [observed].
+fn check_tables(src: &Source<'_>, root_table: &DeTable<'_>) -> Result<(), Diagnostic> {
+    for (k, v) in root_table.iter() {
+        let word: &str = k.get_ref();
+        if !CARD_TABLES.contains(&word) || !v.get_ref().is_table() {
+            let d = src.error(
+                k.span(),
+                word,
+                format!(
+                    "unknown table or key `{}` at the top level of a card",
+                    clip(word, ECHO_WIDTH)
+                ),
+            );
+            return Err(match nearest(word, CARD_TABLES) {
+                Some(n) if n != word => d.with_hint(format!("did you mean [{n}]?")),
+                _ => d.with_hint("a card holds the tables [job] and [observed]"),
+            });
+        }
+    }
+    Ok(())
+}
+
+/// The counts on a card, each `None` when in error (and recorded).
+struct Counts {
+    /// `poles`.
+    poles: Option<At<i64>>,
+    /// `slots`.
+    slots: Option<At<i64>>,
+    /// `bars`.
+    bars: Option<At<i64>>,
+    /// `coils_per_slot`, `Some(None)` when not given.
+    coils_per_slot: Option<Option<At<i64>>>,
+    /// `turns`.
+    turns: Option<At<i64>>,
+}
+
+/// Reads poles, slots, bars, coils per slot and turns, recording every problem.
+fn read_counts(o: &TableReader<'_, '_>) -> Counts {
+    let poles = o.keep(armature::read_poles(o));
+    let slots = o.keep(required(
+        o,
+        o.int(
+            "slots",
+            2..=bounds::MAX_SLOTS,
+            "the armature slots",
+            "count the slots",
+        ),
+        "the armature slots",
+        "slots = 25",
+    ));
+    let bars = o.keep(required(
+        o,
+        o.int(
+            "bars",
+            2..=bounds::MAX_COILS,
+            "the commutator bars",
+            "count the bars",
+        ),
+        "the commutator bars",
+        "bars = 25",
+    ));
+    let coils_per_slot = o.keep(o.int(
+        "coils_per_slot",
+        1..=bounds::MAX_COILS_PER_SLOT,
+        "coils per slot (leads counted in one slot, over two)",
+        "leave the key out when the leads cannot be counted",
+    ));
+    let turns = o.keep(required(
+        o,
+        o.int(
+            "turns",
+            1..=bounds::MAX_TURNS,
+            "turns per coil",
+            "count the turns of one coil",
+        ),
+        "turns per coil",
+        "turns = 3",
+    ));
+    Counts {
+        poles,
+        slots,
+        bars,
+        coils_per_slot,
+        turns,
+    }
+}
+
+/// The wire on the card: `Some(None)` when no size is given, `None` when in error (and
+/// recorded).
+fn read_card_wire(o: &TableReader<'_, '_>) -> Option<Option<ConductorShape>> {
+    let (Some(d), Some(awg), Some(strands)) = conductor::read_wire(o) else {
+        return None;
+    };
+    let given = strands.is_some();
+    let strands = strands.map_or(1, |a| a.value as u32);
+    if d.is_none() && awg.is_none() {
+        if given {
+            o.src.found.push(
+                o.src
+                    .error(
+                        o.raw("strands").map_or(o.span.clone(), |v| v.span()),
+                        o.dotted("strands"),
+                        "strands without a wire size",
+                    )
+                    .with_hint("add diameter_mm or awg, or remove strands"),
+            );
+        }
+        Some(None)
+    } else {
+        o.keep(conductor::shape(o, d, awg, None, None, None, strands))
+            .map(Some)
+    }
+}
+
+/// Records the counts that do not go together: fewer than 2 bars a pole, or more coils than
+/// any real machine.
+fn check_counts(o: &TableReader<'_, '_>, bars: &At<i64>, p: i64, s: i64, u: Option<&At<i64>>) {
+    let c = bars.value;
+    if c < 2 * p {
+        o.src.found.push(
+            o.src
+                .error(
+                    bars.span.clone(),
+                    o.dotted("bars"),
+                    format!(
+                        "{c} bars is too few for {p} poles: every winding takes at least 2 bars a pole ({})",
+                        2 * p
+                    ),
+                )
+                .with_hint("count the bars again, and the poles on the field frame"),
+        );
+    }
+    if let Some(u) = u
+        && u.value * s > bounds::MAX_COILS
+    {
+        o.src.found.push(
+            o.src
+                .error(
+                    u.span.clone(),
+                    o.dotted("coils_per_slot"),
+                    format!(
+                        "{s} slots × {} coils per slot is beyond any real machine: at most {} coils",
+                        u.value,
+                        bounds::MAX_COILS
+                    ),
+                )
+                .with_hint("count the leads in one slot and halve it"),
+        );
+    }
 }
 
 /// What a card says of a frog-leg: the leads a bar, and the wave coil's throw and span.

@@ -61,7 +61,7 @@ pub const LIMIT_RANGE_FACTOR: f64 = 1000.0;
 
 impl LimitSpec {
     /// The values `[limits]` accepts for this key, inclusive: the default divided and
-    /// multiplied by [`LIMIT_RANGE_FACTOR`].
+    /// multiplied by `LIMIT_RANGE_FACTOR`.
     pub fn accepted(&self) -> (f64, f64) {
         (
             self.default / LIMIT_RANGE_FACTOR,

@@ -16,7 +16,9 @@
 //! - `card.rs`: a data card (what a rewinder records before stripping) → a validated
 //!   [`Card`], with the same readers and located errors;
 //! - `diagnostic.rs`: the error, the list of a file's errors and their rendering (every text
-//!   from the file shown through `base::visible`); `model.rs`: the resolved [`Design`].
+//!   from the file shown through `base::visible`); `model.rs`: the resolved [`Design`];
+//! - `build.rs`: [`Design::new`], the one constructor of a [`Design`] (the parser, identify
+//!   and the rewind all call it), with the defaults and the checks every design passes.
 //!
 //! To add a key: add it to the table reader's `KEYS`, read and validate it there, add the
 //! field (with its key and default in the doc) to [`Design`] or the table's type in
@@ -29,6 +31,7 @@
 // A diagnostic is built at most once per run, on the way out; boxing it would buy nothing.
 #![allow(clippy::result_large_err)]
 
+mod build;
 mod card;
 mod diagnostic;
 mod limits;
@@ -37,6 +40,10 @@ mod parse;
 mod reader;
 mod tables;
 
+pub use build::{
+    DEFAULT_POLE_ARC, DesignError, DesignSpec, MAX_EQUALIZER_STEP, MAX_LEAD_OFFSET_HALF_BARS,
+    POLE_ARC_RANGE,
+};
 pub use card::{Card, OBSERVED_KEYS, parse_card, parse_card_bytes};
 pub use diagnostic::{Diagnostic, Diagnostics, MAX_DIAGNOSTICS};
 pub use limits::{Bound, LIMIT_KEYS, LIMITS, LimitId, LimitSpec, Limits};

@@ -116,15 +116,44 @@ pub enum ThermalClass {
 }
 
 impl ThermalClass {
-    /// The class temperature in °C and the letter.
-    pub fn label(self) -> &'static str {
-        match self {
-            ThermalClass::A => "105 (A)",
-            ThermalClass::E => "120 (E)",
-            ThermalClass::B => "130 (B)",
-            ThermalClass::F => "155 (F)",
-            ThermalClass::H => "180 (H)",
-        }
+    /// Every class with its temperature in °C and its letter, coolest first: the one place the
+    /// class and its number meet (the design reader, the design writer and the words use it).
+    pub const TABLE: [(ThermalClass, u32, &'static str); 5] = [
+        (ThermalClass::A, 105, "A"),
+        (ThermalClass::E, 120, "E"),
+        (ThermalClass::B, 130, "B"),
+        (ThermalClass::F, 155, "F"),
+        (ThermalClass::H, 180, "H"),
+    ];
+
+    fn row(self) -> (ThermalClass, u32, &'static str) {
+        Self::TABLE
+            .into_iter()
+            .find(|r| r.0 == self)
+            .unwrap_or(Self::TABLE[0])
+    }
+
+    /// The class temperature in °C (`thermal_class = 155`).
+    pub fn celsius(self) -> u32 {
+        self.row().1
+    }
+
+    /// The class letter (`thermal_class = "F"`).
+    pub fn letter(self) -> &'static str {
+        self.row().2
+    }
+
+    /// The class named by its temperature ("155") or its letter ("F", upper case).
+    pub fn from_word(word: &str) -> Option<ThermalClass> {
+        Self::TABLE
+            .into_iter()
+            .find(|&(_, c, l)| word == l || word == c.to_string())
+            .map(|r| r.0)
+    }
+
+    /// The class temperature in °C and the letter: "155 (F)".
+    pub fn label(self) -> String {
+        format!("{} ({})", self.celsius(), self.letter())
     }
 }
 
@@ -277,7 +306,8 @@ impl std::fmt::Display for HalfBars {
     }
 }
 
-/// A fully resolved, validated armature design.
+/// A fully resolved, validated armature design, built by [`Design::new`] alone
+/// (`design/build.rs`).
 #[derive(Clone, Debug, PartialEq)]
 pub struct Design {
     /// The file name as given (shown on reports and sheets).
@@ -297,7 +327,7 @@ pub struct Design {
     pub segments_derived: bool,
     /// `[armature] rotation`.
     pub rotation: Rotation,
-    /// `[armature] pole_arc`: pole arc / pole pitch (default 0.7).
+    /// `[armature] pole_arc`: pole arc / pole pitch (default [`super::DEFAULT_POLE_ARC`]).
     pub pole_arc: f64,
     /// `[winding] type`.
     pub winding_type: WindingType,
@@ -338,7 +368,13 @@ pub struct Design {
     pub commutator: Option<Commutator>,
     /// `[limits]` with defaults filled in (see [`super::LIMITS`]).
     pub limits: super::Limits,
+    /// Only [`Design::new`] makes a design: no code outside `design` can write this field.
+    pub(super) sealed: Sealed,
 }
+
+/// The mark of a [`Design`] built by [`Design::new`], which alone checks it.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct Sealed(pub(super) ());
 
 impl Design {
     /// Pole pairs p = P/2.

@@ -15,6 +15,7 @@ use toml::de::DeTable;
 use crate::base::visible::{ECHO_WIDTH, clip};
 
 use super::Diagnostic;
+use super::build::DesignSpec;
 use super::diagnostic::Diagnostics;
 use super::model::*;
 use super::reader::{Found, Source, TableReader, nearest};
@@ -115,37 +116,7 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
     }
     let root = DeTable::parse(text).map_err(|e| toml_error(&src, &e))?;
     let root_table = root.get_ref();
-    for (k, v) in root_table.iter() {
-        let word: &str = k.get_ref();
-        if !TABLES.contains(&word) {
-            let d = src.error(
-                k.span(),
-                word,
-                format!(
-                    "unknown table or key `{}` at the top level",
-                    clip(word, ECHO_WIDTH)
-                ),
-            );
-            return Err(match nearest(word, TABLES) {
-                Some(n) => d.with_hint(format!("did you mean [{n}]?")),
-                None => d.with_hint(format!("a design holds the tables {}", tables_list())),
-            });
-        }
-        if !v.get_ref().is_table() {
-            return Err(src
-                .error(
-                    v.span(),
-                    word,
-                    format!(
-                        "expected a table [{word}], found {}",
-                        v.get_ref().type_str()
-                    ),
-                )
-                .with_hint(format!(
-                    "write `[{word}]` on a line of its own and the keys under it"
-                )));
-        }
-    }
+    check_tables(&src, root_table)?;
     let empty = DeTable::default();
     let table = |name: &'static str| -> Option<TableReader<'_, '_>> {
         root_table.get(name).map(|v| TableReader {
@@ -202,14 +173,16 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
     let commutator = commutator.flatten();
     let limits = limits.flatten().unwrap_or_default();
 
-    Ok(Some(Design {
+    // The readers have checked every value where it stands in the file; the constructor
+    // checks them again as a whole (a second guard) and fills in the defaults.
+    Design::new(DesignSpec {
         file_name: file.to_string(),
         job,
         poles: a.poles.value as u32,
         slots: a.slots.value as u32,
         coils_per_slot: a.coils_per_slot as u32,
-        segments: w.segments as u32,
-        segments_derived: a.segments.is_none(),
+        // Given, or worked out again by the constructor as `segments::resolve` did.
+        segments: a.segments.map(|_| w.segments as u32),
         rotation: a.rotation,
         pole_arc: a.pole_arc,
         winding_type: w.winding_type,
@@ -218,7 +191,8 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
         span: w.span,
         span_source: w.span_source,
         turns: w.turns as u32,
-        wave_coils: w.wave_coils,
+        wave_span: w.wave_coils.0,
+        wave_turns: w.wave_coils.1,
         lead_offset: HalfBars(w.lead_offset as i32),
         equalizers: w.equalizers,
         dummy_coils: w.dummy_coils,
@@ -230,7 +204,45 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
         core,
         commutator,
         limits,
-    }))
+    })
+    .map(Some)
+    .map_err(|e| Diagnostic::new(file, text, 0..0, e.key, e.message))
+}
+
+/// The top level of a design: only the tables of [`TABLES`], each a table.
+fn check_tables(src: &Source<'_>, root_table: &DeTable<'_>) -> Result<(), Diagnostic> {
+    for (k, v) in root_table.iter() {
+        let word: &str = k.get_ref();
+        if !TABLES.contains(&word) {
+            let d = src.error(
+                k.span(),
+                word,
+                format!(
+                    "unknown table or key `{}` at the top level",
+                    clip(word, ECHO_WIDTH)
+                ),
+            );
+            return Err(match nearest(word, TABLES) {
+                Some(n) => d.with_hint(format!("did you mean [{n}]?")),
+                None => d.with_hint(format!("a design holds the tables {}", tables_list())),
+            });
+        }
+        if !v.get_ref().is_table() {
+            return Err(src
+                .error(
+                    v.span(),
+                    word,
+                    format!(
+                        "expected a table [{word}], found {}",
+                        v.get_ref().type_str()
+                    ),
+                )
+                .with_hint(format!(
+                    "write `[{word}]` on a line of its own and the keys under it"
+                )));
+        }
+    }
+    Ok(())
 }
 
 fn tables_list() -> String {

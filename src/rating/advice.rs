@@ -8,7 +8,7 @@
 use std::f64::consts::PI;
 
 use super::conductor::{WireFamily, WireOption};
-use super::scheme::{Scheme, connect};
+use super::scheme::{Scheme, connect, connect_with_coils};
 use crate::design::{Design, WindingType, bounds};
 
 /// What the advice needs to know about the machine as designed.
@@ -224,9 +224,9 @@ pub fn more_paths(m: &Machine<'_>, current: f64, limit: f64) -> Advice {
             options,
         };
     };
-    if d.winding_type == WindingType::Wave
+    if let Some(more) = d.winding_type.kind().more_paths_kind()
         && let Some(k) = (d.multiplicity..=bounds::MAX_MULTIPLICITY as u32)
-            .filter_map(|mm| connect(d, m.segments, WindingType::Lap, mm).ok())
+            .filter_map(|mm| connect(d, m.segments, more, mm).ok())
             .find(|k| k.paths >= need_n)
     {
         options.push(m.path_option(PathRoute::LapInsteadOfWave, k, current));
@@ -252,9 +252,7 @@ pub fn more_segments(m: &Machine<'_>, c_min: Option<u32>) -> Advice {
     let found = c_min.and_then(|c_min| {
         let first_u = c_min.div_ceil(s).max(d.coils_per_slot + 1);
         (first_u..=bounds::MAX_COILS_PER_SLOT as u32).find_map(|u| {
-            let mut dd = d.clone();
-            dd.coils_per_slot = u;
-            let k = connect(&dd, 0, d.winding_type, d.multiplicity).ok()?;
+            let k = connect_with_coils(d, u, 0, d.winding_type, d.multiplicity).ok()?;
             (k.segments >= c_min).then_some((u, k))
         })
     });

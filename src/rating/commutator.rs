@@ -171,9 +171,11 @@ mod tests {
 
     #[test]
     fn shorted_coils() {
-        assert_eq!(coils_shorted(1.5, WindingType::Lap, 1, 2).0, 1);
-        assert_eq!(coils_shorted(1.5, WindingType::Lap, 1, 2).1, 2);
-        assert_eq!(coils_shorted(2.0, WindingType::Lap, 2, 2).1, 1);
-        assert_eq!(coils_shorted(1.0, WindingType::Wave, 1, 3).1, 3);
+        // The kinds as a design file names them.
+        let kind = |word| WindingType::from_word(word).unwrap();
+        assert_eq!(coils_shorted(1.5, kind("lap"), 1, 2).0, 1);
+        assert_eq!(coils_shorted(1.5, kind("lap"), 1, 2).1, 2);
+        assert_eq!(coils_shorted(2.0, kind("lap"), 2, 2).1, 1);
+        assert_eq!(coils_shorted(1.0, kind("wave"), 1, 3).1, 3);
     }
 }

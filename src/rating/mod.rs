@@ -5,7 +5,7 @@
 //! [`Winding`] in, a [`RatingReport`] out (or `None` when the design has no rating inputs:
 //! no `[rating]`, `[conductor]`, `[core]` or `[commutator]`). Each quantity is computed only
 //! when its inputs are present; what is missing is said in [`RatingReport::notes`]. Every
-//! threshold comes from `[limits]`. [`rewind()`] works out a new winding for a new voltage,
+//! threshold comes from `[limits]`. [`rewind()`](crate::features::rewind::rewind) works out a new winding for a new voltage,
 //! speed or connection. Nothing here touches files.
 
 pub mod advice;

@@ -1,4 +1,4 @@
-//! Winding schemes for the same coils: lap or wave, any multiplicity — what the trade calls
+//! Winding schemes for the same coils: any winding kind, any multiplicity — what the trade calls
 //! "the connection" of an armature. Named [`Scheme`] so it is never confused with a row of the
 //! connection table ([`crate::winding::Connection`]).
 //!
@@ -11,11 +11,11 @@ use crate::theory::words::multiplicity_word;
 /// paths and segments they give.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub struct Scheme {
-    /// Lap or wave.
+    /// The winding kind.
     pub kind: WindingType,
     /// Multiplicity m.
     pub multiplicity: u32,
-    /// Parallel paths: lap m·P, wave 2m.
+    /// Parallel paths, by the kind's formula.
     pub paths: u32,
     /// Segments C (active coils).
     pub segments: u32,
@@ -38,7 +38,7 @@ pub enum ConnectError {
     },
     /// The connection needs more poles than the armature has.
     TooFewPoles {
-        /// Lap or wave.
+        /// The winding kind.
         kind: WindingType,
         /// The fewest poles it needs.
         min_poles: u32,
@@ -77,7 +77,7 @@ impl std::fmt::Display for ConnectError {
             } => write!(
                 f,
                 "a {} winding needs at least {min_poles} poles; this armature has {poles}",
-                kind.kind().word()
+                kind.as_str()
             ),
             ConnectError::NoWholePitch { coil_positions } => write!(
                 f,
@@ -98,15 +98,28 @@ impl std::fmt::Display for ConnectError {
 
 /// The connection `kind`, `m` on the design's coils, or why it cannot be made.
 ///
-/// A wave keeps the design's segment count when that count works for the new multiplicity;
-/// otherwise it takes the largest workable count (fewest dummy coils). A lap uses every coil.
+/// The scheme keeps the design's segment count when the kind can wind it with the new
+/// multiplicity; otherwise it takes the kind's own count (a lap every coil, a wave the largest
+/// workable count, the fewest dummy coils).
 pub fn connect(
     d: &Design,
     current_segments: u32,
     kind: WindingType,
     m: u32,
 ) -> Result<Scheme, ConnectError> {
-    let n = d.coil_positions();
+    connect_with_coils(d, d.coils_per_slot, current_segments, kind, m)
+}
+
+/// [`connect`] on `u` coils per slot instead of the design's (the advice's "more segments"
+/// asks what more coils would give).
+pub fn connect_with_coils(
+    d: &Design,
+    u: u32,
+    current_segments: u32,
+    kind: WindingType,
+    m: u32,
+) -> Result<Scheme, ConnectError> {
+    let n = u * d.slots;
     let p = d.pole_pairs();
     if !(1..=bounds::MAX_MULTIPLICITY as u32).contains(&m) {
         return Err(ConnectError::MultiplicityOutOfRange {

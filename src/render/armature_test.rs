@@ -8,6 +8,7 @@ use std::io::{self, Write};
 
 use serde::Serialize;
 
+use super::csv::{Cell, csv_file};
 use crate::base::caution::TEST_CAUTIONS;
 use crate::base::number::{fmt_fixed, fmt_sig, round_sig};
 use crate::features::armature_test::{
@@ -404,12 +405,18 @@ pub fn test_json_string(t: &ArmatureTest) -> String {
 }
 
 /// The readings CSV the shop fills in: `from_bar,to_bar,expected,measured`, the neighbouring
-/// pairs then the within-winding pairs, `measured` empty.
+/// pairs then the within-winding pairs, `measured` empty; written by the one CSV writer
+/// ([`csv_file`]: RFC 4180, CRLF).
 pub fn readings_csv(t: &ArmatureTest) -> String {
-    let mut out = String::from("from_bar,to_bar,expected,measured\n");
+    let header = ["from_bar", "to_bar", "expected", "measured"].map(|c| Cell::Text(c.to_string()));
     let within = t.readings_within_winding.as_deref().unwrap_or(&[]);
-    for r in t.readings.iter().chain(within) {
-        let _ = writeln!(out, "{},{},{},", r.from_bar, r.to_bar, value(r.expected));
-    }
-    out
+    let rows = t.readings.iter().chain(within).map(|r| {
+        vec![
+            Cell::Num(r.from_bar.to_string()),
+            Cell::Num(r.to_bar.to_string()),
+            Cell::Num(value(r.expected)),
+            Cell::Text(String::new()),
+        ]
+    });
+    csv_file(std::iter::once(header.into()).chain(rows))
 }

@@ -1,12 +1,14 @@
 //! `connections.csv` and `job.csv`: the connection table and the job it belongs to, for a
 //! spreadsheet (RFC 4180).
 //!
-//! Part of the `render` stage. Records end in CRLF, fields holding a comma, a quote or a line
-//! break are quoted with inner quotes doubled [src: RFC 4180, *Common Format and MIME Type for
-//! CSV Files*, section 2]. A text cell that starts with `=`, `+`, `-` or `@`, also after any
-//! leading whitespace or control characters (space, no-break space, tab, CR, line feed …), or
-//! that starts with a tab or a carriage return, is prefixed with a single quote, so that a
-//! spreadsheet shows it instead of running it as a formula [src: OWASP, *CSV Injection*].
+//! Part of the `render` stage, and the one CSV writer of every CSV armsheet writes (the
+//! connection table, its job, and the readings file of `armsheet test`): the `csv` crate's
+//! writer, records ending in CRLF, fields holding a comma, a quote or a line break quoted with
+//! inner quotes doubled [src: RFC 4180, *Common Format and MIME Type for CSV Files*, section
+//! 2]. A text cell that starts with `=`, `+`, `-` or `@`, also after any leading whitespace or
+//! control characters (space, no-break space, tab, CR, line feed …), or that starts with a tab
+//! or a carriage return, is prefixed with a single quote, so that a spreadsheet shows it
+//! instead of running it as a formula [src: OWASP, *CSV Injection*].
 //! Numeric cells, the numbers the writer makes itself (a negative current, say), are written as
 //! numbers and never prefixed.
 //!
@@ -23,8 +25,10 @@ use crate::winding::Winding;
 use crate::layout::sheet::rows::sequence_labels;
 
 /// One CSV cell.
-enum Cell {
+pub enum Cell {
+    /// A number the writer makes itself, written as it is.
     Num(String),
+    /// Text, neutralised if a spreadsheet could run it ([`neutralised`]).
     Text(String),
 }
 
@@ -38,31 +42,35 @@ fn looks_like_formula(s: &str) -> bool {
             .starts_with(FORMULA)
 }
 
-/// Quotes and neutralises one text field.
-pub fn csv_text(s: &str) -> String {
-    let mut t = String::with_capacity(s.len() + 2);
+/// A text cell as it goes to the writer: a single quote first if a spreadsheet could run it.
+pub fn neutralised(s: &str) -> String {
     if looks_like_formula(s) {
-        t.push('\'');
-    }
-    t.push_str(s);
-    if t.contains([',', '"', '\n', '\r']) || t != t.trim() {
-        format!("\"{}\"", t.replace('"', "\"\""))
+        format!("'{s}")
     } else {
-        t
+        s.to_string()
     }
 }
 
-fn record(out: &mut String, cells: &[Cell]) {
-    for (i, c) in cells.iter().enumerate() {
-        if i > 0 {
-            out.push(',');
-        }
-        match c {
-            Cell::Num(n) => out.push_str(n),
-            Cell::Text(s) => out.push_str(&csv_text(s)),
-        }
+/// The records as one RFC 4180 file: the `csv` crate's writer, CRLF after every record, a
+/// field quoted only when it holds a comma, a quote or a line break, text cells
+/// [`neutralised`]. Every record must have as many fields as the first.
+pub fn csv_file(records: impl IntoIterator<Item = Vec<Cell>>) -> String {
+    let mut w = csv::WriterBuilder::new()
+        .terminator(csv::Terminator::CRLF)
+        .quote_style(csv::QuoteStyle::Necessary)
+        .from_writer(Vec::new());
+    for cells in records {
+        let fields = cells.into_iter().map(|c| match c {
+            Cell::Num(n) => n,
+            Cell::Text(s) => neutralised(&s),
+        });
+        // Writing to memory cannot fail, and every caller's records have equal lengths.
+        let _ = w.write_record(fields);
     }
-    out.push_str("\r\n");
+    let bytes = w
+        .into_inner()
+        .unwrap_or_else(|e| e.into_inner().get_ref().clone());
+    String::from_utf8(bytes).unwrap_or_default()
 }
 
 /// The column names of `connections.csv`, in order.
@@ -89,21 +97,18 @@ pub const JOB_COLUMNS: [&str; 5] = ["job", "title", "customer", "date", "design_
 /// The job the connection table belongs to: a header record and one record with the `[job]`
 /// id, title, customer and date (empty when absent) and the design file's name.
 pub fn job_csv(design: &Design) -> String {
-    let mut out = String::new();
-    record(&mut out, &JOB_COLUMNS.map(|c| Cell::Text(c.to_string())));
     let text = |x: &Option<String>| Cell::Text(x.clone().unwrap_or_default());
     let job = &design.job;
-    record(
-        &mut out,
-        &[
+    csv_file([
+        JOB_COLUMNS.map(|c| Cell::Text(c.to_string())).into(),
+        vec![
             text(&job.id),
             text(&job.title),
             text(&job.customer),
             text(&job.date),
             Cell::Text(design.file_name.clone()),
         ],
-    );
-    out
+    ])
 }
 
 /// The column a winding of several elements (frog-leg) adds last: each row's element, `lap`
@@ -114,49 +119,50 @@ pub const ELEMENT_COLUMN: &str = "element";
 /// [`job_csv`], once, not on every row. A frog-leg winding's table lists both elements' coils
 /// and ends each record with [`ELEMENT_COLUMN`].
 pub fn connections_csv(winding: &Winding) -> String {
-    let mut out = String::with_capacity(48 * (winding.connections.len() + 1));
     let multi = winding.is_multi_element();
     let header: Vec<Cell> = CSV_COLUMNS
         .iter()
         .chain(multi.then_some(&ELEMENT_COLUMN))
         .map(|c| Cell::Text(c.to_string()))
         .collect();
-    record(&mut out, &header);
     let seq = sequence_labels(winding);
     let n = |x: u32| Cell::Num(x.to_string());
     let opt = |x: Option<u32>| x.map_or(Cell::Text(String::new()), |x| Cell::Num(x.to_string()));
-    for c in &winding.connections {
+    let rows = winding.connections.iter().map(|c| {
         let i = (c.coil - 1) as usize;
-        record(
-            &mut out,
-            &[
-                n(c.coil),
-                n(c.top.slot),
-                n(c.top.position),
-                n(c.top.side),
-                n(c.bottom.slot),
-                n(c.bottom.position),
-                n(c.bottom.side),
-                opt(c.start_segment),
-                opt(c.end_segment),
-                c.front_pitch
-                    .map_or(Cell::Text(String::new()), |y| Cell::Num(y.to_string())),
-                Cell::Text(if c.dummy { "yes" } else { "no" }.to_string()),
-                Cell::Text(seq[i].clone()),
-                n(winding.coil_path[i]),
-                Cell::Num(winding.coil_current[i].to_string()),
-            ]
-            .into_iter()
-            .chain(multi.then(|| Cell::Text(c.element.as_str().to_string())))
-            .collect::<Vec<_>>(),
-        );
-    }
-    out
+        [
+            n(c.coil),
+            n(c.top.slot),
+            n(c.top.position),
+            n(c.top.side),
+            n(c.bottom.slot),
+            n(c.bottom.position),
+            n(c.bottom.side),
+            opt(c.start_segment),
+            opt(c.end_segment),
+            c.front_pitch
+                .map_or(Cell::Text(String::new()), |y| Cell::Num(y.to_string())),
+            Cell::Text(if c.dummy { "yes" } else { "no" }.to_string()),
+            Cell::Text(seq[i].clone()),
+            n(winding.coil_path[i]),
+            Cell::Num(winding.coil_current[i].to_string()),
+        ]
+        .into_iter()
+        .chain(multi.then(|| Cell::Text(c.element.as_str().to_string())))
+        .collect::<Vec<_>>()
+    });
+    csv_file(std::iter::once(header).chain(rows))
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// One text cell as the writer writes it, without the record's CRLF.
+    fn csv_text(s: &str) -> String {
+        let out = csv_file([vec![Cell::Text(s.to_string()), Cell::Num("1".into())]]);
+        out.strip_suffix(",1\r\n").unwrap_or(&out).to_string()
+    }
 
     #[test]
     fn fields_are_quoted_and_neutralised() {
@@ -188,17 +194,16 @@ mod tests {
         assert_eq!(csv_text("\u{2028}=x"), "'\u{2028}=x");
         assert_eq!(csv_text(" \u{a0}\t\u{85} @x"), "' \u{a0}\t\u{85} @x");
         // A tab or CR alone at the start is neutralised as before; other text is left alone
-        // (a leading blank without a formula is only quoted, as RFC 4180 readers may trim).
+        // (RFC 4180: spaces are part of a field).
         assert_eq!(csv_text("\tplain"), "'\tplain");
-        assert_eq!(csv_text(" plain"), "\" plain\"");
+        assert_eq!(csv_text(" plain"), " plain");
         assert_eq!(csv_text("a-b"), "a-b");
         assert_eq!(csv_text(""), "");
     }
 
     #[test]
     fn numbers_the_writer_makes_stay_numbers() {
-        let mut out = String::new();
-        record(&mut out, &[Cell::Num("-1".into()), Cell::Text("-1".into())]);
+        let out = csv_file([vec![Cell::Num("-1".into()), Cell::Text("-1".into())]]);
         assert_eq!(out, "-1,'-1\r\n");
     }
 }

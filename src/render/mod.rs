@@ -2,8 +2,8 @@
 //!
 //! Stage 7 of the pipeline. Renderers hold no winding logic: they format what the engine,
 //! the rating, the checks and the layout resolved, and word the rating's typed values
-//! ([`rating_words`]). Every number goes through the one number writer (`base::number`, and
-//! [`svg_writer::num`] for coordinates).
+//! ([`rating_words`]). Every number goes through the one number writer (`base::number`;
+//! coordinates with [`svg_writer::MM_DECIMALS`]).
 //!
 //! The drawings are laid out by `layout` into a page tree (`layout::tree::Page`); the
 //! drawing renderers only walk that tree: [`svg`] writes each node as one element and the

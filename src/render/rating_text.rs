@@ -24,7 +24,8 @@ fn row(s: &mut String, label: &str, value: impl std::fmt::Display) {
     let _ = writeln!(s, "  {label:<22}{value}");
 }
 
-/// Writes the section for a computed report.
+/// Writes the section for a computed report: the figures in the order a winder reads them,
+/// then the advice and the notes.
 pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
     let _ = writeln!(s, "\nRATING\n------");
     row(
@@ -32,6 +33,16 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
         "paths, conductors",
         format!("{}, {} ({} segments)", r.paths, r.conductors, r.segments),
     );
+    copper(s, r);
+    emf(s, d, r);
+    loading(s, r);
+    commutator(s, d, r);
+    losses_and_tests(s, r);
+    advice_and_notes(s, r);
+}
+
+/// The conductor, the mean turn and the armature resistance.
+fn copper(s: &mut String, r: &RatingReport) {
     if let Some(k) = &r.conductor {
         row(
             s,
@@ -75,6 +86,10 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
             );
         }
     }
+}
+
+/// The mode, the induced EMF and what follows from it: flux, speed, K*Phi, torque.
+fn emf(s: &mut String, d: &Design, r: &RatingReport) {
     if let Some(e) = &r.emf {
         row(s, "mode", e.mode.as_str());
         match (e.basis, e.terminal_v) {
@@ -140,6 +155,10 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
             );
         }
     }
+}
+
+/// Segment voltage, currents and the electric loading.
+fn loading(s: &mut String, r: &RatingReport) {
     if let Some(v) = &r.segment_voltage {
         row(
             s,
@@ -195,6 +214,10 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
             format!("{} A/m (Z*I/(a*pi*D))", fmt_fixed(q, 0)),
         );
     }
+}
+
+/// The commutator: segment pitch, peripheral speed, brush width and coils shorted.
+fn commutator(s: &mut String, d: &Design, r: &RatingReport) {
     if let Some(k) = &r.commutator {
         if let Some(p) = k.segment_pitch_mm {
             row(
@@ -233,6 +256,10 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
             row(s, "coils shorted", format!("{n} per brush at once ({how})"));
         }
     }
+}
+
+/// The losses and the withstand test voltages with their source and caution.
+fn losses_and_tests(s: &mut String, r: &RatingReport) {
     if let Some(l) = &r.losses {
         if let Some(w) = l.copper_w {
             row(
@@ -281,6 +308,10 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
         row(s, "", format!("source: {TEST_VOLTAGE_SOURCE}"));
         row(s, "", format!("CAUTION: {TEST_VOLTAGE_CAUTION}"));
     }
+}
+
+/// Advice for the limits not met, then the notes.
+fn advice_and_notes(s: &mut String, r: &RatingReport) {
     let failed: Vec<_> = r
         .checks
         .iter()

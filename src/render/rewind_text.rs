@@ -6,9 +6,9 @@
 use std::fmt::Write;
 
 use crate::base::caution::CAUTIONS;
-use crate::base::number::fmt_fixed;
+use crate::base::number::{fmt_fixed, fmt_signed};
 use crate::base::visible::visible;
-use crate::features::rewind::{NoLoadTest, RewindPlan, signed};
+use crate::features::rewind::{NoLoadTest, RewindPlan};
 use crate::rating::RatingReport;
 use crate::rating::conductor::{self, WireFamily};
 
@@ -32,10 +32,21 @@ pub fn render_rewind(
     let mut s = String::new();
     let _ = writeln!(s, "armsheet {version} - rewind of {}", visible(file));
     row(&mut s, "asked", visible(asked));
+    flux_and_speed(&mut s, p);
+    winding(&mut s, p);
+    conductor_sizes(&mut s, p);
+    plan_notes(&mut s, p);
+    new_rating_checks(&mut s, new_rating);
+    caution(&mut s);
+    s
+}
+
+/// The flux kept, the voltages, the EMFs and the speed asked.
+fn flux_and_speed(s: &mut String, p: &RewindPlan) {
     let (o, n) = (&p.old, &p.new);
-    section(&mut s, "FLUX AND SPEED");
+    section(s, "FLUX AND SPEED");
     row(
-        &mut s,
+        s,
         "flux per pole kept",
         format!(
             "{} mWb ({})",
@@ -43,23 +54,18 @@ pub fn render_rewind(
             p.flux_source.describe()
         ),
     );
-    let v = |x: Option<f64>| {
-        x.map_or("(not given)".to_string(), |v| {
-            format!("{} V", fmt_fixed(v, 1))
-        })
-    };
     row(
-        &mut s,
+        s,
         "voltage",
-        format!("{} -> {}", v(o.voltage), v(n.voltage)),
+        format!("{} -> {}", volts(o.voltage), volts(n.voltage)),
     );
     row(
-        &mut s,
+        s,
         "EMF",
         format!("{} V -> {} V", fmt_fixed(o.emf_v, 2), fmt_fixed(n.emf_v, 2)),
     );
     row(
-        &mut s,
+        s,
         "speed asked",
         format!(
             "{} rpm (was {} rpm)",
@@ -67,14 +73,19 @@ pub fn render_rewind(
             fmt_fixed(o.speed_rpm, 0)
         ),
     );
-    section(&mut s, "WINDING");
+}
+
+/// The connection, conductors, turns, the speed the whole turns give, current and segment voltage.
+fn winding(s: &mut String, p: &RewindPlan) {
+    let (o, n) = (&p.old, &p.new);
+    section(s, "WINDING");
     row(
-        &mut s,
+        s,
         "connection",
         format!("{} -> {}", o.scheme.label(), n.scheme.label()),
     );
     row(
-        &mut s,
+        s,
         "conductors Z",
         format!(
             "{} -> {} ({} -> {} per path)",
@@ -85,7 +96,7 @@ pub fn render_rewind(
         ),
     );
     row(
-        &mut s,
+        s,
         "turns per coil",
         format!(
             "{} -> {} ({} exact)",
@@ -95,18 +106,18 @@ pub fn render_rewind(
         ),
     );
     row(
-        &mut s,
+        s,
         "speed, whole turns",
         format!(
             "{} rpm at {}: {} % against the speed asked",
             fmt_fixed(p.speed_at_whole_turns, 1),
-            v(n.voltage),
-            signed(p.speed_error * 100.0, 2)
+            volts(n.voltage),
+            fmt_signed(p.speed_error * 100.0, 2)
         ),
     );
     if let (Some(i0), Some(i1)) = (o.current, n.current) {
         row(
-            &mut s,
+            s,
             "current",
             format!(
                 "{} A -> {} A (same power, same copper)",
@@ -116,15 +127,20 @@ pub fn render_rewind(
         );
     }
     row(
-        &mut s,
+        s,
         "segment voltage",
         format!("{} V average (E*P/C)", fmt_fixed(p.segment_volts_avg, 2)),
     );
-    section(&mut s, "CONDUCTOR");
+}
+
+/// The old conductor, the area needed, the size chosen, the standard sizes and the slot fill.
+fn conductor_sizes(s: &mut String, p: &RewindPlan) {
+    let (o, n) = (&p.old, &p.new);
+    section(s, "CONDUCTOR");
     match (p.area_needed_mm2, &o.conductor) {
         (Some(need), Some(oc)) => {
             row(
-                &mut s,
+                s,
                 "old",
                 format!(
                     "{}, {} mm2",
@@ -133,13 +149,13 @@ pub fn render_rewind(
                 ),
             );
             row(
-                &mut s,
+                s,
                 "needed",
                 format!("{} mm2 for the same current density", fmt_fixed(need, 3)),
             );
             if let Some(nc) = &n.conductor {
                 row(
-                    &mut s,
+                    s,
                     "chosen",
                     format!(
                         "{}, {} mm2",
@@ -150,7 +166,7 @@ pub fn render_rewind(
             }
             if let Some(j) = p.density_a_mm2 {
                 row(
-                    &mut s,
+                    s,
                     "current density",
                     format!("{} A/mm2 with the chosen size", fmt_fixed(j, 2)),
                 );
@@ -171,13 +187,13 @@ pub fn render_rewind(
                         "    {tag} {:<28}{:>9} mm2  {:>7} %",
                         opt.label(),
                         fmt_fixed(opt.area_mm2, 3),
-                        signed(opt.error * 100.0, 1)
+                        fmt_signed(opt.error * 100.0, 1)
                     );
                 }
             }
             if let Some(f) = p.fill_exact {
                 row(
-                    &mut s,
+                    s,
                     "slot fill",
                     format!(
                         "{} % of the original copper per slot at the exact area",
@@ -187,26 +203,34 @@ pub fn render_rewind(
             }
             if let Some(f) = p.fill_chosen {
                 row(
-                    &mut s,
+                    s,
                     "",
                     format!("{} % with the chosen size", fmt_fixed(f * 100.0, 1)),
                 );
             }
         }
         _ => row(
-            &mut s,
+            s,
             "conductor",
             "not given in the design: no size worked out",
         ),
     }
+}
+
+/// The segment and other notes of the plan.
+fn plan_notes(s: &mut String, p: &RewindPlan) {
     if !p.notes.is_empty() {
-        section(&mut s, "SEGMENTS AND NOTES");
+        section(s, "SEGMENTS AND NOTES");
         for note in &p.notes {
             let _ = writeln!(s, "  - {}", visible(note));
         }
     }
+}
+
+/// The new design's rating checks that fail, and its withstand test voltages.
+fn new_rating_checks(s: &mut String, new_rating: Option<&RatingReport>) {
     if let Some(r) = new_rating {
-        section(&mut s, "NEW DESIGN: RATING CHECKS");
+        section(s, "NEW DESIGN: RATING CHECKS");
         let failed: Vec<_> = r.checks.iter().filter(|c| !c.passed).collect();
         if failed.is_empty() {
             let _ = writeln!(s, "  all {} rating checks within limits", r.checks.len());
@@ -222,7 +246,7 @@ pub fn render_rewind(
         }
         if let Some(t) = &r.test_voltage {
             row(
-                &mut s,
+                s,
                 "withstand test, 1 min",
                 format!(
                     "new or fully rewound {} V; overhauled {} V (IEC 60034-1)",
@@ -232,11 +256,21 @@ pub fn render_rewind(
             );
         }
     }
-    section(&mut s, "CAUTION");
+}
+
+/// The cautions every output carries.
+fn caution(s: &mut String) {
+    section(s, "CAUTION");
     for c in CAUTIONS {
         let _ = writeln!(s, "  - {c}");
     }
-    s
+}
+
+/// A voltage, or "(not given)".
+fn volts(x: Option<f64>) -> String {
+    x.map_or("(not given)".to_string(), |v| {
+        format!("{} V", fmt_fixed(v, 1))
+    })
 }
 
 /// Renders the no-load test report of `rewind --from-test` without `--voltage`: the flux per
@@ -259,7 +293,7 @@ pub fn render_no_load(t: &NoLoadTest, file: &str, version: &str) -> String {
             s,
             "  design flux           {} mWb ({} % against the test)",
             fmt_fixed(f, 4),
-            signed((f / t.flux_mwb - 1.0) * 100.0, 2)
+            fmt_signed((f / t.flux_mwb - 1.0) * 100.0, 2)
         );
     }
     if let Some(n) = t.rated.emf.as_ref().and_then(|e| e.speed_at_flux_rpm) {

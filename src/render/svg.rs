@@ -8,7 +8,8 @@
 use crate::layout::style::{Anchor, Decl, Selector, style_table};
 use crate::layout::tree::{Node, Page, PageUnit, PathOp};
 
-use super::svg_writer::{SvgWriter, Val, num};
+use super::svg_writer::{MM_DECIMALS, SvgWriter, Val};
+use crate::base::number::fmt_trimmed;
 
 /// The style table as a CSS style sheet, rule by rule.
 pub fn style_sheet() -> String {
@@ -40,7 +41,10 @@ fn dash_css(d: &[f64]) -> String {
     if d.is_empty() {
         "none".to_string()
     } else {
-        d.iter().map(|&x| num(x)).collect::<Vec<_>>().join(" ")
+        d.iter()
+            .map(|&x| fmt_trimmed(x, MM_DECIMALS))
+            .collect::<Vec<_>>()
+            .join(" ")
     }
 }
 
@@ -49,7 +53,7 @@ fn decl_css(d: &Decl) -> String {
         Decl::FontFamily => "font-family:'DejaVu Sans',Verdana,sans-serif".to_string(),
         Decl::Fill(c) => format!("fill:{}", colour(*c)),
         Decl::Stroke(c) => format!("stroke:{}", colour(*c)),
-        Decl::StrokeWidth(w) => format!("stroke-width:{}", num(*w)),
+        Decl::StrokeWidth(w) => format!("stroke-width:{}", fmt_trimmed(*w, MM_DECIMALS)),
         Decl::Dash(a) => format!("stroke-dasharray:{}", dash_css(a)),
         Decl::RoundCap => "stroke-linecap:round".to_string(),
         Decl::RoundJoin => "stroke-linejoin:round".to_string(),
@@ -72,12 +76,12 @@ pub fn page_svg(page: &Page) -> String {
     w.raw("<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n");
     let (wd, ht) = match page.unit {
         PageUnit::Millimetres => (
-            format!("{}mm", num(page.width_mm)),
-            format!("{}mm", num(page.height_mm)),
+            format!("{}mm", fmt_trimmed(page.width_mm, MM_DECIMALS)),
+            format!("{}mm", fmt_trimmed(page.height_mm, MM_DECIMALS)),
         ),
         PageUnit::Pixels(k) => (
-            format!("{}px", num(page.width_mm * k)),
-            format!("{}px", num(page.height_mm * k)),
+            format!("{}px", fmt_trimmed(page.width_mm * k, MM_DECIMALS)),
+            format!("{}px", fmt_trimmed(page.height_mm * k, MM_DECIMALS)),
         ),
     };
     let mut attrs: Vec<(&str, Val<'_>)> = vec![
@@ -86,7 +90,12 @@ pub fn page_svg(page: &Page) -> String {
         ("height", ht.into()),
         (
             "viewBox",
-            format!("0 0 {} {}", num(page.width_mm), num(page.height_mm)).into(),
+            format!(
+                "0 0 {} {}",
+                fmt_trimmed(page.width_mm, MM_DECIMALS),
+                fmt_trimmed(page.height_mm, MM_DECIMALS)
+            )
+            .into(),
         ),
     ];
     for (k, v) in &page.data {
@@ -117,9 +126,9 @@ fn path_d(ops: &[PathOp]) -> String {
                 } else {
                     'L'
                 });
-                d.push_str(&num(x));
+                d.push_str(&fmt_trimmed(x, MM_DECIMALS));
                 d.push(' ');
-                d.push_str(&num(y));
+                d.push_str(&fmt_trimmed(y, MM_DECIMALS));
             }
             PathOp::Close => d.push('Z'),
         }
@@ -127,29 +136,37 @@ fn path_d(ops: &[PathOp]) -> String {
     d
 }
 
+/// A group: its id, class, data attributes and translation, then its children.
+fn group(w: &mut SvgWriter, g: &crate::layout::tree::Group) {
+    let mut attrs: Vec<(&str, Val<'_>)> = Vec::new();
+    if let Some(id) = &g.id {
+        attrs.push(("id", id.as_str().into()));
+    }
+    if let Some(c) = &g.class {
+        attrs.push(("class", c.as_str().into()));
+    }
+    data(&mut attrs, &g.data);
+    if let Some((x, y)) = g.translate {
+        attrs.push((
+            "transform",
+            format!(
+                "translate({} {})",
+                fmt_trimmed(x, MM_DECIMALS),
+                fmt_trimmed(y, MM_DECIMALS)
+            )
+            .into(),
+        ));
+    }
+    w.open("g", &attrs);
+    for c in &g.children {
+        node(w, c);
+    }
+    w.close("g");
+}
+
 fn node(w: &mut SvgWriter, n: &Node) {
     match n {
-        Node::Group(g) => {
-            let mut attrs: Vec<(&str, Val<'_>)> = Vec::new();
-            if let Some(id) = &g.id {
-                attrs.push(("id", id.as_str().into()));
-            }
-            if let Some(c) = &g.class {
-                attrs.push(("class", c.as_str().into()));
-            }
-            data(&mut attrs, &g.data);
-            if let Some((x, y)) = g.translate {
-                attrs.push((
-                    "transform",
-                    format!("translate({} {})", num(x), num(y)).into(),
-                ));
-            }
-            w.open("g", &attrs);
-            for c in &g.children {
-                node(w, c);
-            }
-            w.close("g");
-        }
+        Node::Group(g) => group(w, g),
         Node::Text(t) => {
             let mut attrs: Vec<(&str, Val<'_>)> = vec![("x", t.x.into()), ("y", t.y.into())];
             if t.class_first {
@@ -168,7 +185,13 @@ fn node(w: &mut SvgWriter, n: &Node) {
             if let Some(deg) = t.rotate {
                 attrs.push((
                     "transform",
-                    format!("rotate({} {} {})", num(deg), num(t.x), num(t.y)).into(),
+                    format!(
+                        "rotate({} {} {})",
+                        fmt_trimmed(deg, MM_DECIMALS),
+                        fmt_trimmed(t.x, MM_DECIMALS),
+                        fmt_trimmed(t.y, MM_DECIMALS)
+                    )
+                    .into(),
                 ));
             }
             w.text_elem("text", &attrs, &t.content);

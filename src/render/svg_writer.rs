@@ -6,18 +6,11 @@
 
 use std::fmt::Write as _;
 
-use crate::base::number::fmt_fixed;
+use crate::base::number::fmt_trimmed;
 
-/// Writes a coordinate or length: two decimals at most, trailing zeros dropped, never "-0".
-pub fn num(x: f64) -> String {
-    let s = fmt_fixed(x, 2);
-    let s = if s.contains('.') {
-        s.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
-        s
-    };
-    if s == "-0" { "0".to_string() } else { s }
-}
+/// Decimals of a coordinate or length in mm (written by [`fmt_trimmed`]: trailing zeros
+/// dropped, never "-0").
+pub const MM_DECIMALS: usize = 2;
 
 /// Escapes text content and attribute values (`&`, `<`, `>`, `"`, `'`), and drops control
 /// characters that XML 1.0 does not allow.
@@ -40,7 +33,7 @@ pub fn escape(s: &str) -> String {
 
 /// An attribute value.
 pub enum Val<'a> {
-    /// A number, written by [`num`].
+    /// A number, written by [`fmt_trimmed`] with [`MM_DECIMALS`].
     N(f64),
     /// Text, escaped.
     S(&'a str),
@@ -97,7 +90,7 @@ impl SvgWriter {
     fn attrs(&mut self, attrs: &[(&str, Val<'_>)]) {
         for (k, v) in attrs {
             let _ = match v {
-                Val::N(x) => write!(self.out, " {k}=\"{}\"", num(*x)),
+                Val::N(x) => write!(self.out, " {k}=\"{}\"", fmt_trimmed(*x, MM_DECIMALS)),
                 Val::S(s) => write!(self.out, " {k}=\"{}\"", escape(s)),
                 Val::O(s) => write!(self.out, " {k}=\"{}\"", escape(s)),
             };
@@ -167,13 +160,13 @@ mod tests {
 
     #[test]
     fn numbers_are_fixed_and_short() {
-        assert_eq!(num(0.1 + 0.2), "0.3");
-        assert_eq!(num(-0.001), "0");
-        assert_eq!(num(12.0), "12");
-        assert_eq!(num(297.0), "297");
-        assert_eq!(num(1.005), "1");
-        assert_eq!(num(-3.456), "-3.46");
-        assert_eq!(num(100.10), "100.1");
+        assert_eq!(fmt_trimmed(0.1 + 0.2, MM_DECIMALS), "0.3");
+        assert_eq!(fmt_trimmed(-0.001, MM_DECIMALS), "0");
+        assert_eq!(fmt_trimmed(12.0, MM_DECIMALS), "12");
+        assert_eq!(fmt_trimmed(297.0, MM_DECIMALS), "297");
+        assert_eq!(fmt_trimmed(1.005, MM_DECIMALS), "1");
+        assert_eq!(fmt_trimmed(-3.456, MM_DECIMALS), "-3.46");
+        assert_eq!(fmt_trimmed(100.10, MM_DECIMALS), "100.1");
     }
 
     #[test]

@@ -117,8 +117,14 @@ pub trait WindingKind: Sync {
     /// The path formula in words with its numbers, e.g. `"m x P = 2 x 4"`.
     fn paths_formula(&self, m: u32, poles: u32) -> String;
 
-    /// Fewest brush sets that collect every path.
-    fn fewest_brush_sets(&self, poles: u32) -> u32;
+    /// Whether the kind needs a brush set by every pole (a lap's paths lie under different
+    /// poles); otherwise two sets collect every path (a wave's paths each run under every pole).
+    fn brush_at_every_pole(&self) -> bool;
+
+    /// Fewest brush sets that collect every path: P by every pole, or 2.
+    fn fewest_brush_sets(&self, poles: u32) -> u32 {
+        if self.brush_at_every_pole() { poles } else { 2 }
+    }
 
     /// Whether type-A equalizer rings apply (a lap's paths lie under different poles).
     fn takes_equalizers(&self) -> bool;
@@ -145,14 +151,39 @@ pub trait WindingKind: Sync {
     /// commutator).
     fn segment_rule(&self, c: u32, n: u32, m: u32, p: u32, dir: Direction) -> String;
 
-    /// Whether the kind uses every coil position (no dummy coils): C = u·S.
+    /// The hint when `n` coil positions do not suit a kind that uses every coil (a frog-leg
+    /// with C/p not whole): what must hold, and the nearest counts that work.
+    fn segment_hint(&self, n: u32, m: u32, p: u32) -> String;
+
+    /// Whether the kind uses every coil position (no dummy coils): C = u·S. A kind that does
+    /// not may leave dummy coils (`[winding] dummy_coils`).
     fn uses_every_coil(&self) -> bool;
+
+    /// Why `c` segments give no whole commutator pitch, in the design file's words (the
+    /// parser's refusal of a given `[armature] segments` for a kind that may leave dummy
+    /// coils).
+    fn pitch_rule(&self, c: u32, m: u32, p: u32, dir: Direction) -> String;
+
+    /// Whether the commutator pitch is worked out from the bar count, y_c = (C ± m)/p (a
+    /// wave), rather than from the multiplicity alone, y_c = ±m (a lap, and a frog-leg's
+    /// first element).
+    fn pitch_from_bar_count(&self) -> bool;
+
+    /// The kind the same coils can be reconnected as for more parallel paths (lap instead of
+    /// wave); `None` when no plain reconnection gives more.
+    fn more_paths_kind(&self) -> Option<WindingType>;
+
+    /// How many bars on the armature test feeds a simplex singly re-entrant winding of `c`
+    /// bars on `poles` poles: a lap, the bar opposite; a wave, the bar one pole pitch away
+    /// [src: a published trade training text on growlers and armature testers].
+    fn feed_pitch(&self, c: u32, poles: u32) -> u32;
 
     /// Why the kind takes no equalizer rings, in words (empty for a lap, which takes them).
     fn no_equalizers_reason(&self) -> &'static str;
 
     /// The winding elements on the commutator, from the design's multiplicity `m` and
-    /// direction (the first element's): one for lap or wave, two for frog-leg.
+    /// direction (the first element's): one for lap or wave, two for frog-leg (the lap
+    /// element first, then the wave element).
     fn elements(&self, m: u32, p: u32, dir: Direction) -> Vec<ElementSpec>;
 
     /// How many elements [`WindingKind::elements`] gives: each holds C coils and a share
@@ -192,8 +223,8 @@ impl WindingKind for Lap {
     fn paths_formula(&self, m: u32, poles: u32) -> String {
         format!("m x P = {m} x {poles}")
     }
-    fn fewest_brush_sets(&self, poles: u32) -> u32 {
-        poles
+    fn brush_at_every_pole(&self) -> bool {
+        true
     }
     fn takes_equalizers(&self) -> bool {
         true
@@ -216,8 +247,23 @@ impl WindingKind for Lap {
     fn segment_rule(&self, _c: u32, n: u32, _m: u32, _p: u32, _dir: Direction) -> String {
         format!("a lap winding uses all {n} coils")
     }
+    fn segment_hint(&self, n: u32, _m: u32, _p: u32) -> String {
+        format!("a lap winding takes {n} segments, one a coil")
+    }
     fn uses_every_coil(&self) -> bool {
         true
+    }
+    fn pitch_rule(&self, _c: u32, m: u32, _p: u32, _dir: Direction) -> String {
+        format!("a lap winding's commutator pitch ±{m} is whole for every count")
+    }
+    fn pitch_from_bar_count(&self) -> bool {
+        false
+    }
+    fn more_paths_kind(&self) -> Option<WindingType> {
+        None
+    }
+    fn feed_pitch(&self, c: u32, _poles: u32) -> u32 {
+        c / 2
     }
     fn no_equalizers_reason(&self) -> &'static str {
         ""
@@ -253,8 +299,8 @@ impl WindingKind for Wave {
     fn paths_formula(&self, m: u32, _poles: u32) -> String {
         format!("2m = 2 x {m}")
     }
-    fn fewest_brush_sets(&self, _poles: u32) -> u32 {
-        2
+    fn brush_at_every_pole(&self) -> bool {
+        false
     }
     fn takes_equalizers(&self) -> bool {
         false
@@ -281,8 +327,27 @@ impl WindingKind for Wave {
             dir.as_str()
         )
     }
+    fn segment_hint(&self, _n: u32, _m: u32, _p: u32) -> String {
+        "a wave winding may leave dummy coils: give fewer segments".to_string()
+    }
     fn uses_every_coil(&self) -> bool {
         false
+    }
+    fn pitch_rule(&self, c: u32, m: u32, p: u32, dir: Direction) -> String {
+        let sym = if dir.sign() > 0 { "+" } else { "−" };
+        format!(
+            "a {} wave winding needs (C {sym} m)/p to be a whole number: ({c} {sym} {m})/{p} is not",
+            dir.as_str()
+        )
+    }
+    fn pitch_from_bar_count(&self) -> bool {
+        true
+    }
+    fn more_paths_kind(&self) -> Option<WindingType> {
+        Some(WindingType::Lap)
+    }
+    fn feed_pitch(&self, c: u32, poles: u32) -> u32 {
+        (c + poles / 2) / poles
     }
     fn no_equalizers_reason(&self) -> &'static str {
         "a wave winding needs none"
@@ -303,7 +368,7 @@ impl WindingKind for Wave {
 ///
 /// The lap element's y_c = ±m and the wave element's y_c = (C ∓ m·p)/p = C/p ∓ m, so
 /// y_c(lap) + |y_c(wave)| = C/p: a lap coil and a wave coil in series span two pole pitches
-/// [derived]. Both are whole exactly when C/p is.
+/// \[derived\]. Both are whole exactly when C/p is.
 #[derive(Clone, Copy, Debug)]
 pub struct FrogLeg;
 
@@ -329,8 +394,8 @@ impl WindingKind for FrogLeg {
     fn paths_formula(&self, m: u32, poles: u32) -> String {
         format!("2 x m x P = 2 x {m} x {poles}")
     }
-    fn fewest_brush_sets(&self, poles: u32) -> u32 {
-        Lap.fewest_brush_sets(poles)
+    fn brush_at_every_pole(&self) -> bool {
+        Lap.brush_at_every_pole()
     }
     fn takes_equalizers(&self) -> bool {
         false
@@ -357,8 +422,30 @@ impl WindingKind for FrogLeg {
             "a frog-leg winding uses all {n} coils in each element and needs C/p whole, which {c}/{p} is not"
         )
     }
+    // The wave element's pitch C/p ∓ m must be whole: the nearest counts.
+    fn segment_hint(&self, n: u32, m: u32, p: u32) -> String {
+        let p = p.max(1);
+        let below = n - n % p;
+        let above = below + p;
+        format!(
+            "the wave element's commutator pitch C/p - {m} must be whole: slots × coils_per_slot must divide by the {p} pole pairs (e.g. {below} or {above} coils)"
+        )
+    }
     fn uses_every_coil(&self) -> bool {
         true
+    }
+    fn pitch_rule(&self, c: u32, _m: u32, p: u32, _dir: Direction) -> String {
+        format!("a frog-leg winding needs C/p to be a whole number: {c}/{p} is not")
+    }
+    fn pitch_from_bar_count(&self) -> bool {
+        Lap.pitch_from_bar_count()
+    }
+    fn more_paths_kind(&self) -> Option<WindingType> {
+        None
+    }
+    // The lap element sets the pattern: bar 1 and the bar opposite.
+    fn feed_pitch(&self, c: u32, poles: u32) -> u32 {
+        Lap.feed_pitch(c, poles)
     }
     fn no_equalizers_reason(&self) -> &'static str {
         "a frog-leg winding needs none, its wave element equalizes the lap element"
@@ -377,6 +464,22 @@ impl WindingKind for FrogLeg {
             },
         ]
     }
+}
+
+/// The kind the shop's bar-count rule of thumb suggests for `c` bars on `poles` poles, when
+/// the rule speaks for that pole count: on 4 and 8 poles an even count is lap and an odd one
+/// wave, on 6 poles a count divisible by 3 is lap [common practice; `checks` names the source].
+pub fn bar_rule(poles: u32, c: u32) -> Option<WindingType> {
+    let lap_divisor = match poles {
+        4 | 8 => 2,
+        6 => 3,
+        _ => return None,
+    };
+    Some(if c.is_multiple_of(lap_divisor) {
+        WindingType::Lap
+    } else {
+        WindingType::Wave
+    })
 }
 
 /// Whether (C ± m)/p is whole: the wave commutator pitch [src: standard textbook relation].
@@ -408,6 +511,27 @@ mod tests {
         assert_eq!(Lap.commutator_pitch(36, 2, 2, Retrogressive), -2);
         assert_eq!(Wave.commutator_pitch(35, 1, 3, Progressive), 12);
         assert_eq!(WindingType::Wave.as_str(), "wave");
+    }
+
+    #[test]
+    fn each_kind_answers_one_rule_family() {
+        // `checks::run_checks` runs the equalizer rules, the dummy-coil rules or the element
+        // rules on these answers: each kind must pick exactly one family.
+        for t in WindingType::ALL {
+            let k = t.kind();
+            let families = [
+                k.takes_equalizers(),
+                !k.uses_every_coil(),
+                k.element_count() > 1,
+            ];
+            assert_eq!(families.iter().filter(|&&f| f).count(), 1, "{}", t.as_str());
+        }
+        assert_eq!(bar_rule(4, 25), Some(WindingType::Wave));
+        assert_eq!(bar_rule(6, 36), Some(WindingType::Lap));
+        assert_eq!(bar_rule(2, 36), None);
+        assert_eq!(Wave.feed_pitch(25, 4), 6);
+        assert_eq!(FrogLeg.fewest_brush_sets(6), 6);
+        assert_eq!(Wave.more_paths_kind(), Some(WindingType::Lap));
     }
 
     #[test]

@@ -14,6 +14,7 @@ pub mod pitch;
 pub mod words;
 
 pub use kind::{
-    Direction, ElementSpec, FrogLeg, Lap, Wave, WindingKind, WindingType, wave_pitch_whole,
+    Direction, ElementSpec, FrogLeg, Lap, Wave, WindingKind, WindingType, bar_rule,
+    wave_pitch_whole,
 };
 pub use pitch::gcd;

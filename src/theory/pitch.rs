@@ -3,7 +3,7 @@
 //! Part of the `theory` stage; pure integer arithmetic, used by `design` validation, the
 //! engine, the checks and the rating.
 
-use super::kind::{Direction, WindingType};
+use super::kind::WindingType;
 
 /// Greatest common divisor.
 pub fn gcd(a: u64, b: u64) -> u64 {
@@ -24,14 +24,6 @@ pub struct Pitches {
     /// Commutator pitch y_c in segments, signed: + towards rising segment numbers.
     /// Lap ±m; wave (C ± m)/p, which is positive for both directions.
     pub commutator: i64,
-}
-
-/// Signed commutator pitch y_c in segments.
-///
-/// Lap: ±m. Wave: (C ± m)/p with + progressive (always positive).
-/// [src: standard textbook relations; docs/domain.md, "Lap windings", "Wave windings".]
-pub fn commutator_pitch(kind: WindingType, dir: Direction, c: u32, m: u32, p: u32) -> i64 {
-    kind.kind().commutator_pitch(c, m, p, dir)
 }
 
 /// All pitches for a winding with `u` coils per slot and span `span` slots.
@@ -57,8 +49,7 @@ pub fn reentrancy(c: u32, yc: i64) -> u32 {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use Direction::*;
-    use WindingType::*;
+    use crate::theory::kind::{Direction::*, Lap, Wave, WindingKind};
 
     #[test]
     fn gcd_cases() {
@@ -71,17 +62,27 @@ mod tests {
     #[test]
     fn lap_pitches() {
         // Simplex progressive lap, u = 1, span 3: y_b = 7, y_f = 5.
-        let p = pitches(Lap, 3, 1, commutator_pitch(Lap, Progressive, 6, 1, 1));
+        let p = pitches(
+            WindingType::Lap,
+            3,
+            1,
+            Lap.commutator_pitch(6, 1, 1, Progressive),
+        );
         assert_eq!((p.back, p.front, p.commutator, p.resultant), (7, 5, 1, 2));
         // Retrogressive: y_f = y_b + 2.
-        let p = pitches(Lap, 3, 1, commutator_pitch(Lap, Retrogressive, 6, 1, 1));
+        let p = pitches(
+            WindingType::Lap,
+            3,
+            1,
+            Lap.commutator_pitch(6, 1, 1, Retrogressive),
+        );
         assert_eq!((p.back, p.front, p.commutator), (7, 9, -1));
     }
 
     #[test]
     fn wave_pitches() {
-        let yc = commutator_pitch(Wave, Progressive, 35, 1, 3);
-        let p = pitches(Wave, 6, 1, yc);
+        let yc = Wave.commutator_pitch(35, 1, 3, Progressive);
+        let p = pitches(WindingType::Wave, 6, 1, yc);
         assert_eq!((p.back, p.front, p.commutator), (13, 11, 12));
     }
 }

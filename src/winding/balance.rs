@@ -15,7 +15,7 @@ pub const BALANCE_TOLERANCE: f64 = 0.5;
 /// Segment pitches the balance simulation turns the rotor through: lcm(u, m), one slot pitch
 /// (u bars) at least and a whole number of brush widths (m bars). With u > 1 the u coils of a
 /// slot share one centre line, so the pattern of coils under the poles repeats only after a
-/// slot pitch; m bars alone miss part of it [derived].
+/// slot pitch; m bars alone miss part of it \[derived\].
 pub fn balance_period_segments(coils_per_slot: u32, multiplicity: u32) -> u32 {
     let (u, m) = (
         u64::from(coils_per_slot.max(1)),

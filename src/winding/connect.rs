@@ -29,7 +29,10 @@ pub(crate) fn wind_elements(d: &Design, dummy_coils: &[u32]) -> Wound {
     };
     let specs = d.elements();
     let yc_of = |e: &DesignElement| {
-        pitch::commutator_pitch(e.spec.kind, e.spec.direction, c, e.spec.multiplicity, p)
+        e.spec
+            .kind
+            .kind()
+            .commutator_pitch(c, e.spec.multiplicity, p, e.spec.direction)
     };
     for (k, e) in specs.iter().enumerate() {
         let yc = yc_of(e);

@@ -8,8 +8,11 @@
 //! - `segments` (default: worked out for the winding kind, see `tables/segments.rs`);
 //! - `rotation` (`"cw"` or `"ccw"`, default `"cw"`);
 //! - `pole_arc` (pole arc / pole pitch, 0.3 to 1, default 0.7).
+//!
+//! The defaults are filled in by [`crate::design::Design::new`].
 
 use crate::design::Diagnostic;
+use crate::design::build::POLE_ARC_RANGE;
 use crate::design::model::{Rotation, bounds};
 use crate::design::reader::{At, TableReader};
 
@@ -35,10 +38,10 @@ pub(crate) struct Armature {
     pub positions: i64,
     /// `segments` as given, not yet checked against the winding.
     pub segments: Option<At<i64>>,
-    /// `rotation`.
-    pub rotation: Rotation,
-    /// `pole_arc`.
-    pub pole_arc: f64,
+    /// `rotation`, when given.
+    pub rotation: Option<Rotation>,
+    /// `pole_arc`, when given.
+    pub pole_arc: Option<f64>,
 }
 
 /// Reads the values of `[armature]` (its keys were checked by the caller), recording every
@@ -69,19 +72,20 @@ pub(crate) fn read(arm: &TableReader<'_, '_>) -> Option<Armature> {
         "count the bars; leave the key out to let armsheet work it out",
     ));
     let rotation = match arm.keep(arm.choice("rotation", &["cw", "ccw"])).flatten() {
-        Some(At { value: "ccw", .. }) => Rotation::CounterClockwise,
-        _ => Rotation::Clockwise,
+        Some(At { value: "ccw", .. }) => Some(Rotation::CounterClockwise),
+        Some(_) => Some(Rotation::Clockwise),
+        None => None,
     };
     let pole_arc = arm
         .keep(arm.number(
             "pole_arc",
-            0.3,
+            *POLE_ARC_RANGE.start(),
             false,
-            1.0,
+            *POLE_ARC_RANGE.end(),
             "the pole arc as a fraction of the pole pitch",
         ))
         .flatten()
-        .map_or(0.7, |a| a.value);
+        .map(|a| a.value);
     let (slots, u, segments) = (slots?, u?.map_or(1, |a| a.value), segments?);
     let positions = slots.value * u;
     if positions > bounds::MAX_COILS {

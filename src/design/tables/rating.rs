@@ -162,19 +162,19 @@ fn thermal_class(t: &TableReader<'_, '_>) -> Result<Option<ThermalClass>, Diagno
                 DeValue::String(s) => s.trim().to_ascii_uppercase(),
                 other => other.type_str().to_string(),
             };
-            Some(match word.as_str() {
-                "105" | "A" => ThermalClass::A,
-                "120" | "E" => ThermalClass::E,
-                "130" | "B" => ThermalClass::B,
-                "155" | "F" => ThermalClass::F,
-                "180" | "H" => ThermalClass::H,
-                _ => {
+            match ThermalClass::from_word(&word) {
+                Some(class) => Some(class),
+                None => {
+                    let (numbers, letters): (Vec<String>, Vec<&str>) = ThermalClass::TABLE
+                        .iter()
+                        .map(|&(_, c, l)| (c.to_string(), l))
+                        .unzip();
                     return Err(t
                         .src
-                        .error(v.span(), "rating.thermal_class", format!("expected a thermal class 105, 120, 130, 155 or 180 (A, E, B, F, H), found {}", clip(&word, ECHO_WIDTH)))
+                        .error(v.span(), "rating.thermal_class", format!("expected a thermal class {} or {} ({}), found {}", numbers[..numbers.len() - 1].join(", "), numbers[numbers.len() - 1], letters.join(", "), clip(&word, ECHO_WIDTH)))
                         .with_hint("the class is on the nameplate or the insulation system's data, e.g. thermal_class = 155 or \"F\""));
                 }
-            })
+            }
         }
     })
 }

@@ -9,7 +9,6 @@
 use crate::design::Diagnostic;
 use crate::design::model::{Direction, WindingType};
 use crate::design::reader::{At, Source, TableReader};
-use crate::theory::wave_pitch_whole;
 
 /// The active coil (= segment) count; `given` is `[armature] segments` when present.
 #[allow(clippy::too_many_arguments)]
@@ -60,13 +59,12 @@ pub(crate) fn resolve(
                     key,
                     kind.segment_rule(c as u32, positions as u32, m as u32, p as u32, direction),
                 )
-                .with_hint(frog_leg_hint(positions, m, p)));
+                .with_hint(kind.segment_hint(positions as u32, m as u32, p as u32)));
         }
         return Ok(c);
     }
-    match (wtype, given) {
-        (_, None) => wtype
-            .kind()
+    match given {
+        None => kind
             .default_segments(positions as u32, m as u32, p as u32, direction)
             .map(i64::from)
             .ok_or_else(|| {
@@ -78,10 +76,11 @@ pub(crate) fn resolve(
                 )
                 .with_hint("check poles and multiplicity")
             }),
-        (_, Some(c)) => {
-            let sign = direction.sign();
-            let workable =
-                |n: i64| n >= 2 && wave_pitch_whole(n as u32, m as u32, p as u32, direction);
+        Some(c) => {
+            let works = |n: i64, dir: Direction| {
+                kind.workable(n as u32, positions as u32, m as u32, p as u32, dir)
+            };
+            let workable = |n: i64| works(n, direction);
             if c.value > positions {
                 let below = (2..=positions).rev().find(|&n| workable(n));
                 return Err(src
@@ -106,7 +105,7 @@ pub(crate) fn resolve(
                     .chain(above)
                     .map(|n| format!("{n} ({} dummy coil(s))", positions - n))
                     .collect();
-                let other = wave_pitch_whole(c.value as u32, m as u32, p as u32, direction.other());
+                let other = works(c.value, direction.other());
                 let mut hint = if near.is_empty() {
                     "no count up to the coil count works".to_string()
                 } else {
@@ -119,31 +118,15 @@ pub(crate) fn resolve(
                         c.value
                     ));
                 }
-                let sym = if sign > 0 { "+" } else { "−" };
                 return Err(src
                     .error(
                         c.span.clone(),
                         arm.dotted("segments"),
-                        format!(
-                            "a {} wave winding needs (C {sym} m)/p to be a whole number: ({} {sym} {m})/{p} is not",
-                            direction.as_str(),
-                            c.value
-                        ),
+                        kind.pitch_rule(c.value as u32, m as u32, p as u32, direction),
                     )
                     .with_hint(hint));
             }
             Ok(c.value)
         }
     }
-}
-
-/// The hint for a kind that uses every coil when the coil count does not suit it (a frog-leg
-/// with C/p not whole): the wave element's pitch C/p ∓ m must be whole; the nearest counts.
-fn frog_leg_hint(positions: i64, m: i64, p: i64) -> String {
-    let p = p.max(1);
-    let below = positions - positions.rem_euclid(p);
-    let above = below + p;
-    format!(
-        "the wave element's commutator pitch C/p - {m} must be whole: slots × coils_per_slot must divide by the {p} pole pairs (e.g. {below} or {above} coils)"
-    )
 }

@@ -28,9 +28,8 @@ use super::armature::Armature;
 use super::segments;
 use crate::base::visible::{ECHO_WIDTH, clip};
 use crate::design::Diagnostic;
-use crate::design::model::{
-    Direction, EqualizerChoice, HalfBars, SpanSource, WaveCoils, WindingType, bounds,
-};
+use crate::design::build::{MAX_EQUALIZER_STEP, MAX_LEAD_OFFSET_HALF_BARS};
+use crate::design::model::{Direction, EqualizerChoice, HalfBars, SpanSource, WindingType, bounds};
 use crate::design::reader::{At, TableReader, fmt_num};
 
 /// The keys of `[winding]`.
@@ -71,8 +70,9 @@ pub(crate) struct Winding {
     pub equalizers: EqualizerChoice,
     /// `dummy_coils`, sorted.
     pub dummy_coils: Option<Vec<u32>>,
-    /// `wave_span` and `wave_turns`, resolved (frog-leg only).
-    pub wave_coils: Option<WaveCoils>,
+    /// `wave_span` and `wave_turns` as given (frog-leg only; the defaults are filled in by
+    /// [`crate::design::Design::new`]).
+    pub wave_coils: (Option<u32>, Option<u32>),
 }
 
 /// Reads the values of `[winding]` (its keys were checked by the caller) against the
@@ -87,7 +87,10 @@ pub(crate) fn read(
     let src = win.src;
     let words = WindingType::ALL.map(WindingType::as_str);
     let wtype = win.keep(win.choice("type", &words).and_then(|t| match t {
-        Some(At { value, .. }) => Ok(WindingType::from_word(value).unwrap_or(WindingType::Lap)),
+        // `choice` answers with one of `words`, which are the kinds' words in order.
+        Some(At { value, .. }) => {
+            Ok(WindingType::ALL[words.iter().position(|w| *w == value).unwrap_or_default()])
+        }
         None => Err(win.missing("type", "\"lap\" or \"wave\"", "type = \"lap\"")),
     }));
     let m = win.keep(win.int(
@@ -152,53 +155,18 @@ pub(crate) fn read(
         p,
         a.segments.as_ref(),
     ))?;
-    if active < (m + 1) * poles.value {
-        let at = a
-            .segments
-            .as_ref()
-            .map_or(a.slots.span.clone(), |s| s.span.clone());
-        src.found.push(src
-            .error(
-                at,
-                "armature.segments",
-                format!(
-                    "{active} segments is too few for {} poles and multiplicity {m}: expected at least {} ((m + 1) segments per pole)",
-                    poles.value,
-                    (m + 1) * poles.value
-                ),
-            )
-            .with_hint("the brushes of neighbouring poles would touch; check the poles, slots and coils per slot"));
-        return None;
-    }
+    win.keep(enough_segments(win, a, active, m))?;
     let lead_offset = lead_offset?;
-    if let Some(lo) = &lead_offset
-        && poles.value * lo.value.abs() >= active
-    {
-        src.found.push(src
-                .error(
-                    lo.span.clone(),
-                    "winding.lead_offset",
-                    format!(
-                        "lead offset {} is half a pole pitch or more: expected |lead_offset| < {} segments ({active} segments, {} poles)",
-                        HalfBars(lo.value as i32),
-                        fmt_half_pitch(active, poles.value),
-                        poles.value
-                    ),
-                )
-                .with_hint("the offset swings the leads a few segments from the symmetric position; measure it on the old winding"));
-        return None;
-    }
+    win.keep(lead_offset_within(
+        win,
+        lead_offset.as_ref(),
+        active,
+        poles.value,
+    ))?;
     let dummy_coils = win.keep(read_dummy_coils(win, wtype, a.positions, active))?;
     let (span, span_source) = span?;
     let turns = turns?.value;
-    let wave_coils = win.keep(read_wave_coils(
-        win,
-        wtype,
-        a.slots.value,
-        poles.value,
-        span,
-        turns,
-    ))?;
+    let wave_coils = win.keep(read_wave_coils(win, wtype, a.slots.value, poles.value))?;
     Some(Winding {
         winding_type: wtype,
         multiplicity: m,
@@ -214,16 +182,64 @@ pub(crate) fn read(
     })
 }
 
-/// `wave_span` and `wave_turns`: the wave element's coils of a frog-leg winding, defaulting to
-/// `span` and `turns`; refused for lap and wave.
+/// At least (m + 1) segments a pole, so the brushes of neighbouring poles do not touch.
+fn enough_segments(
+    win: &TableReader<'_, '_>,
+    a: &Armature,
+    active: i64,
+    m: i64,
+) -> Result<(), Diagnostic> {
+    let poles = a.poles.value;
+    if active >= (m + 1) * poles {
+        return Ok(());
+    }
+    let at = a
+        .segments
+        .as_ref()
+        .map_or(a.slots.span.clone(), |s| s.span.clone());
+    Err(win.src
+        .error(
+            at,
+            "armature.segments",
+            format!(
+                "{active} segments is too few for {poles} poles and multiplicity {m}: expected at least {} ((m + 1) segments per pole)",
+                (m + 1) * poles
+            ),
+        )
+        .with_hint("the brushes of neighbouring poles would touch; check the poles, slots and coils per slot"))
+}
+
+/// The lead offset less than half a pole pitch either way.
+fn lead_offset_within(
+    win: &TableReader<'_, '_>,
+    lead_offset: Option<&At<i64>>,
+    active: i64,
+    poles: i64,
+) -> Result<(), Diagnostic> {
+    let Some(lo) = lead_offset.filter(|lo| poles * lo.value.abs() >= active) else {
+        return Ok(());
+    };
+    Err(win.src
+        .error(
+            lo.span.clone(),
+            "winding.lead_offset",
+            format!(
+                "lead offset {} is half a pole pitch or more: expected |lead_offset| < {} segments ({active} segments, {poles} poles)",
+                HalfBars(lo.value as i32),
+                fmt_half_pitch(active, poles),
+            ),
+        )
+        .with_hint("the offset swings the leads a few segments from the symmetric position; measure it on the old winding"))
+}
+
+/// `wave_span` and `wave_turns`, when given: the wave element's coils of a frog-leg winding;
+/// refused for lap and wave.
 fn read_wave_coils(
     win: &TableReader<'_, '_>,
     wtype: WindingType,
     slots: i64,
     poles: i64,
-    span: u32,
-    turns: i64,
-) -> Result<Option<WaveCoils>, Diagnostic> {
+) -> Result<(Option<u32>, Option<u32>), Diagnostic> {
     let frog = wtype.kind().element_count() > 1;
     if !frog {
         for key in ["wave_span", "wave_turns"] {
@@ -241,11 +257,11 @@ fn read_wave_coils(
                     .with_hint("remove the key, or set type = \"frog-leg\""));
             }
         }
-        return Ok(None);
+        return Ok((None, None));
     }
     let wave_span = match win.raw("wave_span") {
-        None => span,
-        Some(_) => read_span_key(win, "wave_span", slots, poles)?.0,
+        None => None,
+        Some(_) => Some(read_span_key(win, "wave_span", slots, poles)?.0),
     };
     let wave_turns = win
         .int(
@@ -254,11 +270,8 @@ fn read_wave_coils(
             "the wave coils' turns",
             "the trade winds both elements with the same turns",
         )?
-        .map_or(turns, |t| t.value);
-    Ok(Some(WaveCoils {
-        span: wave_span,
-        turns: wave_turns as u32,
-    }))
+        .map(|t| t.value as u32);
+    Ok((wave_span, wave_turns))
 }
 
 /// `dummy_coils`: the coil positions left unconnected (wave only), distinct, 2 to N (coil 1
@@ -278,9 +291,12 @@ fn read_dummy_coils(
             .error(v.span(), win.dotted(key), msg)
             .with_hint(hint)
     };
-    if wtype == WindingType::Lap {
+    if wtype.kind().uses_every_coil() {
         return Err(err(
-            "dummy coils belong to wave windings: a lap winding uses every coil".into(),
+            format!(
+                "dummy coils belong to wave windings: a {} winding uses every coil",
+                wtype.as_str()
+            ),
             "remove the key".into(),
         ));
     }
@@ -316,11 +332,12 @@ fn read_dummy_coils(
 /// `lead_offset` in half bars: a number from −1000 to 1000 segments that is a whole number of
 /// half segment pitches.
 fn read_lead_offset(win: &TableReader<'_, '_>) -> Result<Option<At<i64>>, Diagnostic> {
+    let most = f64::from(MAX_LEAD_OFFSET_HALF_BARS) / 2.0;
     let Some(lo) = win.number(
         "lead_offset",
-        -1000.0,
+        -most,
         false,
-        1000.0,
+        most,
         "the lead offset in segments",
     )?
     else {
@@ -445,7 +462,7 @@ fn read_equalizers(
             let n = t
                 .int(
                     "equalizers",
-                    1..=10_000,
+                    1..=i64::from(MAX_EQUALIZER_STEP),
                     "\"none\", \"full\" or every n-th possible connection",
                     "2 fits every second connection",
                 )?

@@ -407,12 +407,7 @@ fn feed_bars(t: &ArmatureTest) -> Vec<(u32, u32)> {
     if t.multiplicity > 1 && r == 1 {
         return vec![(1, 2)];
     }
-    let pitch = match t.winding_type {
-        WindingType::Lap => c / 2,
-        WindingType::Wave => (c + t.poles / 2) / t.poles,
-        // The lap element sets the pattern: bar 1 and the bar opposite.
-        WindingType::FrogLeg => c / 2,
-    };
+    let pitch = t.winding_type.kind().feed_pitch(c, t.poles);
     (1..=r)
         .map(|w| {
             // The bar of winding w nearest `pitch` bars on.

@@ -1,7 +1,9 @@
 //! The shop's measured readings: a CSV with the header `from_bar,to_bar,reading`.
 //!
-//! Part of the armature-test feature (under [`super`]): the file's text in (the CLI reads it), the
-//! readings out, or the first problem with its line and column. Readings may be in any
+//! Part of the `features` stage (under [`super`]): the file's text in (the CLI reads it), the
+//! readings out, or the first problem with its line and column. Read with the `csv` crate:
+//! RFC 4180, quoted fields, LF or CRLF line ends, a UTF-8 byte-order mark; blank lines are
+//! skipped and every field is trimmed. Readings may be in any
 //! consistent unit (the locator fits the scale); a reading may be `0`, or `open` / `OL` for an
 //! open circuit; an empty reading is a missing pair. The readings CSV that `test -o` writes is
 //! accepted too: its `measured` column is the reading.
@@ -50,19 +52,32 @@ pub fn parse_readings(
         column,
         message,
     };
-    let mut lines = text
-        .lines()
-        .enumerate()
-        .filter(|(_, l)| !l.trim().is_empty());
-    let Some((h, header)) = lines.next() else {
+    let mut records = csv::ReaderBuilder::new()
+        .has_headers(false)
+        .flexible(true)
+        .from_reader(text.as_bytes())
+        .into_records()
+        .map(|r| {
+            let line = |p: Option<&csv::Position>| record_line(text, p);
+            match r {
+                Ok(rec) => Ok((line(rec.position()), rec)),
+                Err(e) => Err(err(line(e.position()), 1, format!("not a CSV record: {e}"))),
+            }
+        })
+        .filter(|r| {
+            r.as_ref()
+                .map_or(true, |(_, rec)| rec.iter().any(|f| !f.trim().is_empty()))
+        });
+    let Some(first) = records.next() else {
         return Err(err(
             1,
             1,
             "empty file: expected the header `from_bar,to_bar,reading`".into(),
         ));
     };
+    let (h, header) = first?;
     let names: Vec<String> = header
-        .split(',')
+        .iter()
         .map(|s| s.trim().to_ascii_lowercase())
         .collect();
     let col = |n: &str| names.iter().position(|x| x == n);
@@ -72,11 +87,11 @@ pub fn parse_readings(
         col("reading").or_else(|| col("measured")),
     ) else {
         return Err(err(
-            h + 1,
+            h,
             1,
             format!(
                 "the header is `{}`: expected `from_bar,to_bar,reading`",
-                header.trim()
+                header.iter().collect::<Vec<_>>().join(",").trim()
             ),
         ));
     };
@@ -85,21 +100,22 @@ pub fn parse_readings(
         .flat_map(|&(a, b)| [((a, b), (a, b)), ((b, a), (a, b))])
         .collect();
     let mut out = MeasuredReadings::default();
-    let mut last = h + 1;
-    for (i, line) in lines {
-        last = i + 1;
-        let fields: Vec<&str> = line.split(',').map(str::trim).collect();
+    let mut last = h;
+    for record in records {
+        let (line, record) = record?;
+        last = line;
+        let fields: Vec<&str> = record.iter().map(str::trim).collect();
         let field = |c: usize| fields.get(c).copied().unwrap_or("");
         let bar = |c: usize| -> Result<u32, ReadingsError> {
             match field(c).parse::<u32>() {
                 Ok(b) if (1..=bars).contains(&b) => Ok(b),
                 Ok(b) => Err(err(
-                    i + 1,
+                    line,
                     c + 1,
                     format!("bar {b} is out of range: the commutator has bars 1 to {bars}"),
                 )),
                 Err(_) => Err(err(
-                    i + 1,
+                    line,
                     c + 1,
                     format!("expected a bar number, found \"{}\"", field(c)),
                 )),
@@ -108,33 +124,19 @@ pub fn parse_readings(
         let (a, b) = (bar(cf)?, bar(ct)?);
         let Some(&pair) = known.get(&(a, b)) else {
             return Err(err(
-                i + 1,
+                line,
                 cf + 1,
                 format!(
                     "bars {a} and {b} are not a pair the test reads (neighbouring bars, or bars m apart within one winding)"
                 ),
             ));
         };
-        let raw = field(cr);
-        let value = if raw.is_empty() {
+        let Some(value) = reading_value(field(cr)).map_err(|m| err(line, cr + 1, m))? else {
             continue;
-        } else if raw.eq_ignore_ascii_case("open") || raw.eq_ignore_ascii_case("ol") {
-            ReadingValue::Open
-        } else {
-            match raw.parse::<f64>() {
-                Ok(v) if v.is_finite() && v >= 0.0 => ReadingValue::Value(v),
-                _ => {
-                    return Err(err(
-                        i + 1,
-                        cr + 1,
-                        format!("expected a reading (a number, `open` or `OL`), found \"{raw}\""),
-                    ));
-                }
-            }
         };
         if out.values.insert(pair, value).is_some() {
             return Err(err(
-                i + 1,
+                line,
                 cf + 1,
                 format!("bars {a} and {b} are read twice"),
             ));
@@ -151,4 +153,34 @@ pub fn parse_readings(
         ));
     }
     Ok(out)
+}
+
+/// The line a record starts on, from 1, counted from its byte offset: the reader places a
+/// record after a CR at the LF that follows it, a line early.
+fn record_line(text: &str, p: Option<&csv::Position>) -> usize {
+    let at = p.map_or(0, |p| p.byte() as usize).min(text.len());
+    let start = text[at..]
+        .find(|c| c != '\r' && c != '\n')
+        .map_or(text.len(), |k| at + k);
+    1 + text.as_bytes()[..start]
+        .iter()
+        .filter(|&&b| b == b'\n')
+        .count()
+}
+
+/// A reading cell: `None` when empty (a pair not read), open for `open` or `OL`, else a
+/// number of zero or more; the message when it is none of these.
+fn reading_value(raw: &str) -> Result<Option<ReadingValue>, String> {
+    if raw.is_empty() {
+        Ok(None)
+    } else if raw.eq_ignore_ascii_case("open") || raw.eq_ignore_ascii_case("ol") {
+        Ok(Some(ReadingValue::Open))
+    } else {
+        match raw.parse::<f64>() {
+            Ok(v) if v.is_finite() && v >= 0.0 => Ok(Some(ReadingValue::Value(v))),
+            _ => Err(format!(
+                "expected a reading (a number, `open` or `OL`), found \"{raw}\""
+            )),
+        }
+    }
 }

@@ -14,15 +14,14 @@
 //! observed swing less the swing on neutral, then traced again to confirm.
 
 use crate::checks::BAR_RULE;
-use crate::checks::bar_rule;
 use crate::checks::{Checked, check};
 use crate::design::{
-    Card, Commutator, Conductor, Design, Direction, EqualizerChoice, HalfBars, Limits, Mode,
-    Rotation, SpanSource, WindingType, bounds,
+    Card, Commutator, Conductor, Design, DesignSpec, Direction, EqualizerChoice, HalfBars, Limits,
+    Mode, SpanSource, WindingType, bounds,
 };
-use crate::theory::pitch::{commutator_pitch, gcd};
-use crate::theory::wave_pitch_whole;
+use crate::theory::pitch::gcd;
 use crate::theory::words::{half_bars_words, multiplicity_word, span_shop};
+use crate::theory::{Wave, WindingKind, bar_rule, wave_pitch_whole};
 use crate::winding::{EqualizerPlan, place_dummies};
 
 /// One winding that reproduces the card.
@@ -66,18 +65,19 @@ pub fn identify(card: &Card) -> Identified {
     for kind in kinds {
         for m in 1..=bounds::MAX_MULTIPLICITY as u32 {
             for dir in [Direction::Progressive, Direction::Retrogressive] {
-                if kind == WindingType::Wave && !wave_pitch_whole(c, m, p, dir) {
+                let k = kind.kind();
+                // A kind that may leave dummy coils is only skipped: more coils may suit it.
+                if !k.workable(c, c, m, p, dir) {
+                    if k.uses_every_coil() {
+                        rejected.push(format!(
+                            "a {}: {}",
+                            kind.as_str(),
+                            k.segment_rule(c, c, m, p, dir)
+                        ));
+                    }
                     continue;
                 }
-                if kind.kind().uses_every_coil() && !kind.kind().workable(c, c, m, p, dir) {
-                    rejected.push(format!(
-                        "a {}: {}",
-                        kind.as_str(),
-                        kind.kind().segment_rule(c, c, m, p, dir)
-                    ));
-                    continue;
-                }
-                let yc = commutator_pitch(kind, dir, c, m, p);
+                let yc = k.commutator_pitch(c, m, p, dir);
                 if yc.rem_euclid(i64::from(c)) != i64::from(card.throw_bars()) {
                     continue;
                 }
@@ -218,7 +218,7 @@ fn candidate(
     let n = u * card.slots;
     let dummies = dummy_coils(card, u, n - c).map_err(|e| format!("a {name}: {e}"))?;
     let equalizers = equalizer_choice(card, kind).map_err(|e| format!("a {name}: {e}"))?;
-    if kind != WindingType::Wave
+    if kind.kind().brush_at_every_pole()
         && let Some(b) = card.brush_sets
         && b != card.poles
     {
@@ -227,8 +227,12 @@ fn candidate(
             card.poles
         ));
     }
-    let mut d = design(card, kind, m, dir, u, dummies.clone(), equalizers);
-    let neutral = check(d.clone()).winding.lead_swing.swing_half_bars(c);
+    let mut spec = design_spec(card, kind, m, dir, u, dummies.clone(), equalizers);
+    let build = |spec: DesignSpec| Design::new(spec).map_err(|e| format!("a {name}: {e}"));
+    let neutral = check(build(spec.clone())?)
+        .winding
+        .lead_swing
+        .swing_half_bars(c);
     let offset = i64::from(card.lead_swing.0) - neutral;
     let offset = (offset + i64::from(c)).rem_euclid(2 * i64::from(c)) - i64::from(c);
     if i64::from(card.poles) * offset.abs() >= i64::from(c) {
@@ -239,8 +243,8 @@ fn candidate(
             half_bars_words(neutral)
         ));
     }
-    d.lead_offset = HalfBars(offset as i32);
-    let checked = check(d);
+    spec.lead_offset = HalfBars(offset as i32);
+    let checked = check(build(spec)?);
     let w = &checked.winding;
     let first = &w.connections[0];
     let swing = w.lead_swing.swing_half_bars(c);
@@ -346,7 +350,9 @@ fn equalizer_choice(card: &Card, kind: WindingType) -> Result<EqualizerChoice, S
     })
 }
 
-fn design(
+/// The design a reading of the card gives, for [`Design::new`]; what the card does not say
+/// takes the design file's defaults.
+fn design_spec(
     card: &Card,
     kind: WindingType,
     m: u32,
@@ -354,29 +360,29 @@ fn design(
     u: u32,
     dummy_coils: Option<Vec<u32>>,
     equalizers: EqualizerChoice,
-) -> Design {
+) -> DesignSpec {
     let n = u * card.slots;
-    Design {
+    DesignSpec {
         file_name: card.file_name.clone(),
         job: card.job.clone(),
         poles: card.poles,
         slots: card.slots,
         coils_per_slot: u,
-        segments: card.bars,
-        // The count is written when it leaves dummies or names them, so a reader sees it.
-        segments_derived: n == card.bars,
-        rotation: card.rotation.unwrap_or(Rotation::Clockwise),
-        pole_arc: 0.7,
+        // The count is written when it leaves dummies or names them, so a reader sees it;
+        // otherwise it is the kind's own count for every coil.
+        segments: (n != card.bars).then_some(card.bars),
+        rotation: card.rotation,
+        pole_arc: None,
         winding_type: kind,
         multiplicity: m,
         direction: dir,
         span: card.coil_span,
         span_source: SpanSource::Given,
         turns: card.turns,
-        wave_coils: (kind.kind().element_count() > 1).then(|| crate::design::WaveCoils {
-            span: card.wave_coil_span.unwrap_or(card.coil_span),
-            turns: card.turns,
-        }),
+        wave_span: card
+            .wave_coil_span
+            .filter(|_| kind.kind().element_count() > 1),
+        wave_turns: None,
         lead_offset: HalfBars::ZERO,
         equalizers,
         dummy_coils,
@@ -413,7 +419,7 @@ fn explain(card: &Card, k: &Checked, yc: i64, dummies: u32, named: &Option<Vec<u
             e.pitches.commutator
         )
     });
-    let pitch = if d.winding_type != WindingType::Wave {
+    let pitch = if !d.winding_type.kind().pitch_from_bar_count() {
         format!("the throw 1-{} is y_c = {sign}{m}{wave}", card.throw_end)
     } else {
         format!(
@@ -518,12 +524,7 @@ fn throw_conflict(card: &Card) -> String {
     let waves: Vec<String> = [Direction::Progressive, Direction::Retrogressive]
         .into_iter()
         .filter(|&dir| p >= 2 && wave_pitch_whole(c, 1, p, dir))
-        .map(|dir| {
-            format!(
-                "1-{}",
-                commutator_pitch(WindingType::Wave, dir, c, 1, p) + 1
-            )
-        })
+        .map(|dir| format!("1-{}", Wave.commutator_pitch(c, 1, p, dir) + 1))
         .collect();
     let on_bars = if waves.is_empty() {
         format!("on {c} bars a simplex lap throws 1-2 or 1-{c}")

@@ -1,98 +1,163 @@
 //! Writes a resolved [`Design`] back as a design file, with a comment header.
 //!
-//! Part of the rewind feature: pure text, deterministic. Every key is
-//! written explicitly, in the order of the design-file reference, and only `[limits]` keys
-//! that differ from the defaults. The output parses back with [`crate::design::parse_design`].
+//! Part of the `features` stage (used by the rewind): pure text, deterministic. The file is
+//! built as a `toml_edit` document, which does the TOML quoting and keeps the comment header
+//! as the document's prefix. Every key is written explicitly, in the order of the design-file
+//! reference, and only `[limits]` keys that differ from the defaults. Numbers are written by
+//! [`fmt_toml`] (the one number writer). The output parses back with
+//! [`crate::design::parse_design`].
 
 use std::fmt::Write;
 
+use toml_edit::{Array, DocumentMut, Item, Table, Value};
+use toml_writer::{ToTomlValue, TomlStringBuilder};
+
+use crate::base::number::fmt_toml;
 use crate::theory::words::span_shop;
 
-use crate::design::{BrushWidth, ConductorShape, Design, EqualizerChoice, ThermalClass};
+use crate::design::{BrushWidth, ConductorShape, Design, EqualizerChoice};
+
+/// A number rounded to `decimals` places as TOML, its text exactly as [`fmt_toml`] writes it.
+fn number(x: f64, decimals: usize) -> Value {
+    let text = fmt_toml(x, decimals);
+    // `fmt_toml` writes a TOML integer, float, `nan` or `inf`; read as a TOML value, the
+    // number keeps that text (and a text that would not read stays the value itself).
+    text.parse::<Value>().unwrap_or_else(|_| Value::from(x))
+}
+
+/// Free text (the `[job]` keys) as a one-line TOML basic string, `"` and `\\` and control
+/// characters escaped, as every design file has always written it (`toml_edit` on its own
+/// would pick a literal or a multi-line string for some texts).
+fn text(v: &str) -> Value {
+    let quoted = TomlStringBuilder::new(v).as_basic().to_toml_value();
+    quoted.parse::<Value>().unwrap_or_else(|_| Value::from(v))
+}
+
+/// A whole number (a count, a bar, a number of turns).
+fn whole(n: impl Into<i64>) -> Value {
+    Value::from(n.into())
+}
+
+/// Adds `table` under `name`, a blank line before it unless it is the document's first.
+fn section(doc: &mut DocumentMut, name: &str, mut table: Table) {
+    if doc.iter().next().is_some() {
+        table.decor_mut().set_prefix("\n");
+    }
+    doc.insert(name, Item::Table(table));
+}
 
 /// The design as TOML, `header` lines first as `# ` comments (each made safe by
 /// [`comment_text`], so a header can never start a line of TOML).
 pub fn write_design(d: &Design, header: &[String]) -> String {
-    let mut s = String::new();
+    let mut doc = DocumentMut::new();
+    let mut prefix = String::new();
     for line in header {
-        let _ = writeln!(s, "# {}", comment_text(line));
+        let _ = writeln!(prefix, "# {}", comment_text(line));
     }
     if !header.is_empty() {
-        s.push('\n');
+        prefix.push('\n');
     }
+    doc.decor_mut().set_prefix(prefix);
+    job_table(&mut doc, d);
+    armature_table(&mut doc, d);
+    winding_table(&mut doc, d);
+    rating_table(&mut doc, d);
+    conductor_table(&mut doc, d);
+    core_and_commutator_tables(&mut doc, d);
+    limits_table(&mut doc, d);
+    doc.to_string()
+}
+
+/// `[job]`: the text keys given, in the reference's order.
+fn job_table(doc: &mut DocumentMut, d: &Design) {
     let j = &d.job;
-    if [&j.id, &j.title, &j.customer, &j.date, &j.notes]
-        .iter()
-        .any(|v| v.is_some())
-    {
-        s.push_str("[job]\n");
-        for (k, v) in [
-            ("id", &j.id),
-            ("title", &j.title),
-            ("customer", &j.customer),
-            ("date", &j.date),
-            ("notes", &j.notes),
-        ] {
-            if let Some(v) = v {
-                let _ = writeln!(s, "{k} = {}", quote(v));
-            }
+    let mut job = Table::new();
+    for (k, v) in [
+        ("id", &j.id),
+        ("title", &j.title),
+        ("customer", &j.customer),
+        ("date", &j.date),
+        ("notes", &j.notes),
+    ] {
+        if let Some(v) = v {
+            job.insert(k, text(v).into());
         }
-        s.push('\n');
     }
-    s.push_str("[armature]\n");
-    let _ = writeln!(s, "poles = {}", d.poles);
-    let _ = writeln!(s, "slots = {}", d.slots);
-    let _ = writeln!(s, "coils_per_slot = {}", d.coils_per_slot);
+    if !job.is_empty() {
+        section(doc, "job", job);
+    }
+}
+
+/// `[armature]`: every key, the segment count only when the design gave it.
+fn armature_table(doc: &mut DocumentMut, d: &Design) {
+    let mut t = Table::new();
+    t.insert("poles", whole(d.poles).into());
+    t.insert("slots", whole(d.slots).into());
+    t.insert("coils_per_slot", whole(d.coils_per_slot).into());
     if !d.segments_derived {
-        let _ = writeln!(s, "segments = {}", d.segments);
+        t.insert("segments", whole(d.segments).into());
     }
-    let _ = writeln!(s, "rotation = \"{}\"", d.rotation.as_str());
-    let _ = writeln!(s, "pole_arc = {}", num(d.pole_arc, 4));
-    s.push_str("\n[winding]\n");
-    let _ = writeln!(s, "type = \"{}\"", d.winding_type.as_str());
-    let _ = writeln!(s, "multiplicity = {}", d.multiplicity);
-    let _ = writeln!(s, "direction = \"{}\"", d.direction.as_str());
-    let _ = writeln!(s, "span = \"{}\"", span_shop(d.span));
-    let _ = writeln!(s, "turns = {}", d.turns);
+    t.insert("rotation", Value::from(d.rotation.as_str()).into());
+    t.insert("pole_arc", number(d.pole_arc, 4).into());
+    section(doc, "armature", t);
+}
+
+/// `[winding]`: every key, span in shop form, the wave coils' keys on a frog-leg.
+fn winding_table(doc: &mut DocumentMut, d: &Design) {
+    let mut t = Table::new();
+    t.insert("type", Value::from(d.winding_type.as_str()).into());
+    t.insert("multiplicity", whole(d.multiplicity).into());
+    t.insert("direction", Value::from(d.direction.as_str()).into());
+    t.insert("span", Value::from(span_shop(d.span)).into());
+    t.insert("turns", whole(d.turns).into());
     if let Some(w) = d.wave_coils {
-        let _ = writeln!(s, "wave_span = \"{}\"", span_shop(w.span));
-        let _ = writeln!(s, "wave_turns = {}", w.turns);
+        t.insert("wave_span", Value::from(span_shop(w.span)).into());
+        t.insert("wave_turns", whole(w.turns).into());
     }
-    let _ = writeln!(s, "lead_offset = {}", d.lead_offset);
-    match d.equalizers {
-        EqualizerChoice::None => s.push_str("equalizers = \"none\"\n"),
-        EqualizerChoice::Full => s.push_str("equalizers = \"full\"\n"),
-        EqualizerChoice::EveryNth(n) => {
-            let _ = writeln!(s, "equalizers = {n}");
-        }
-    }
+    t.insert("lead_offset", number(d.lead_offset.bars(), 1).into());
+    let equalizers = match d.equalizers {
+        EqualizerChoice::None => Value::from("none"),
+        EqualizerChoice::Full => Value::from("full"),
+        EqualizerChoice::EveryNth(n) => whole(n),
+    };
+    t.insert("equalizers", equalizers.into());
     if let Some(list) = &d.dummy_coils {
-        let coils: Vec<String> = list.iter().map(u32::to_string).collect();
-        let _ = writeln!(s, "dummy_coils = [{}]", coils.join(", "));
+        let coils: Array = list.iter().map(|&c| i64::from(c)).collect();
+        t.insert("dummy_coils", Value::Array(coils).into());
     }
+    section(doc, "winding", t);
+}
+
+/// `[rating]`, with the flux and speed, when the design has any of them.
+fn rating_table(doc: &mut DocumentMut, d: &Design) {
     let has_rating = d.rating.is_some() || d.flux_per_pole_mwb.is_some() || d.speed_rpm.is_some();
     if has_rating {
-        s.push_str("\n[rating]\n");
+        let mut t = Table::new();
         let r = d.rating.clone().unwrap_or_default();
         if let Some(v) = r.voltage {
-            let _ = writeln!(s, "voltage = {}", num(v, 3));
+            t.insert("voltage", number(v, 3).into());
         }
         if let Some(i) = r.current {
-            let _ = writeln!(s, "current = {}", num(i, 4));
+            t.insert("current", number(i, 4).into());
         }
         if let Some(n) = d.speed_rpm {
-            let _ = writeln!(s, "speed_rpm = {}", num(n, 3));
+            t.insert("speed_rpm", number(n, 3).into());
         }
-        let _ = writeln!(s, "mode = \"{}\"", d.mode.as_str());
+        t.insert("mode", Value::from(d.mode.as_str()).into());
         if let Some(c) = r.thermal_class {
-            let _ = writeln!(s, "thermal_class = {}", class_number(c));
+            t.insert("thermal_class", whole(c.celsius()).into());
         }
         if let Some(f) = d.flux_per_pole_mwb {
-            let _ = writeln!(s, "flux_per_pole_mwb = {}", num(f, 4));
+            t.insert("flux_per_pole_mwb", number(f, 4).into());
         }
+        section(doc, "rating", t);
     }
+}
+
+/// `[conductor]`: round (by gauge or diameter) or rectangular, and the mean turn.
+fn conductor_table(doc: &mut DocumentMut, d: &Design) {
     if let Some(k) = &d.conductor {
-        s.push_str("\n[conductor]\n");
+        let mut t = Table::new();
         match k.shape {
             ConductorShape::Round {
                 diameter_mm,
@@ -100,14 +165,10 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
                 strands,
             } => {
                 match awg {
-                    Some(g) => {
-                        let _ = writeln!(s, "awg = {g}");
-                    }
-                    None => {
-                        let _ = writeln!(s, "diameter_mm = {}", num(diameter_mm, 4));
-                    }
-                }
-                let _ = writeln!(s, "strands = {strands}");
+                    Some(g) => t.insert("awg", whole(g).into()),
+                    None => t.insert("diameter_mm", number(diameter_mm, 4).into()),
+                };
+                t.insert("strands", whole(strands).into());
             }
             ConductorShape::Rectangular {
                 width_mm,
@@ -115,100 +176,63 @@ pub fn write_design(d: &Design, header: &[String]) -> String {
                 corner_radius_mm,
                 strands,
             } => {
-                let _ = writeln!(s, "width_mm = {}", num(width_mm, 3));
-                let _ = writeln!(s, "height_mm = {}", num(height_mm, 3));
-                let _ = writeln!(s, "corner_radius_mm = {}", num(corner_radius_mm, 3));
-                let _ = writeln!(s, "strands = {strands}");
+                t.insert("width_mm", number(width_mm, 3).into());
+                t.insert("height_mm", number(height_mm, 3).into());
+                t.insert("corner_radius_mm", number(corner_radius_mm, 3).into());
+                t.insert("strands", whole(strands).into());
             }
         }
         if let Some(l) = k.mean_turn_mm {
-            let _ = writeln!(s, "mean_turn_mm = {}", num(l, 2));
+            t.insert("mean_turn_mm", number(l, 2).into());
         }
+        section(doc, "conductor", t);
     }
+}
+
+/// `[core]` and `[commutator]`, the keys given.
+fn core_and_commutator_tables(doc: &mut DocumentMut, d: &Design) {
     if let Some(c) = &d.core {
-        s.push_str("\n[core]\n");
+        let mut t = Table::new();
         if let Some(x) = c.diameter_mm {
-            let _ = writeln!(s, "diameter_mm = {}", num(x, 3));
+            t.insert("diameter_mm", number(x, 3).into());
         }
         if let Some(x) = c.length_mm {
-            let _ = writeln!(s, "length_mm = {}", num(x, 3));
+            t.insert("length_mm", number(x, 3).into());
         }
+        section(doc, "core", t);
     }
     if let Some(c) = &d.commutator {
-        s.push_str("\n[commutator]\n");
+        let mut t = Table::new();
         if let Some(x) = c.diameter_mm {
-            let _ = writeln!(s, "diameter_mm = {}", num(x, 3));
+            t.insert("diameter_mm", number(x, 3).into());
         }
         match c.brush_width {
             Some(BrushWidth::Millimetres(x)) => {
-                let _ = writeln!(s, "brush_width_mm = {}", num(x, 3));
+                t.insert("brush_width_mm", number(x, 3).into());
             }
             Some(BrushWidth::Segments(x)) => {
-                let _ = writeln!(s, "brush_width_segments = {}", num(x, 3));
+                t.insert("brush_width_segments", number(x, 3).into());
             }
             None => {}
         }
         if let Some(g) = c.brush_grade {
-            let _ = writeln!(s, "brush_grade = \"{}\"", g.as_str());
+            t.insert("brush_grade", Value::from(g.as_str()).into());
         }
         if let Some(n) = c.brush_sets {
-            let _ = writeln!(s, "brush_sets = {n}");
+            t.insert("brush_sets", whole(n).into());
         }
+        section(doc, "commutator", t);
     }
-    // `[limits]` keys whose values differ from the defaults, in key order.
+}
+
+/// `[limits]`: the keys whose values differ from the defaults, in key order.
+fn limits_table(doc: &mut DocumentMut, d: &Design) {
     if d.limits.overrides().next().is_some() {
-        s.push_str("\n[limits]\n");
+        let mut t = Table::new();
         for (spec, v) in d.limits.overrides() {
-            let _ = writeln!(s, "{} = {}", spec.key, num(v, 6));
+            t.insert(spec.key, number(v, 6).into());
         }
-    }
-    s
-}
-
-fn class_number(c: ThermalClass) -> u32 {
-    match c {
-        ThermalClass::A => 105,
-        ThermalClass::E => 120,
-        ThermalClass::B => 130,
-        ThermalClass::F => 155,
-        ThermalClass::H => 180,
-    }
-}
-
-/// A number rounded to `decimals` places, trailing zeros dropped ("230", "1.25"), as TOML.
-///
-/// A number the fixed form would lose (a non-zero value rounding to 0, or one off by more
-/// than 0.1 %, or one of 10^15 and more, which TOML would read as an out-of-range integer) is
-/// written in exponent form with `decimals` significant figures, at least 4 ("5e-324",
-/// "1.2346e-2"); never 0 for a non-zero number. Not-a-number and the infinities are written in
-/// TOML's words (`nan`, `inf`, `-inf`), which the design parser refuses by name.
-pub fn num(x: f64, decimals: usize) -> String {
-    if x.is_nan() {
-        return "nan".to_string();
-    }
-    if x.is_infinite() {
-        return if x > 0.0 { "inf" } else { "-inf" }.to_string();
-    }
-    let fixed = trim_zeros(format!("{x:.decimals$}"));
-    let back: f64 = fixed.parse().unwrap_or(0.0);
-    let lost = x != 0.0 && (back == 0.0 || ((back - x) / x).abs() > 1e-3);
-    if lost || x.abs() >= 1e15 {
-        let e = format!("{x:.*e}", decimals.max(4) - 1);
-        let (mantissa, exp) = e.split_once('e').unwrap_or((&e, "0"));
-        format!("{}e{exp}", trim_zeros(mantissa.to_string()))
-    } else if fixed == "-0" {
-        "0".to_string()
-    } else {
-        fixed
-    }
-}
-
-/// "1.2500" → "1.25", "2.000" → "2"; a number without a point is kept.
-fn trim_zeros(s: String) -> String {
-    if s.contains('.') {
-        s.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
-        s
+        section(doc, "limits", t);
     }
 }
 
@@ -240,60 +264,9 @@ fn is_invisible_format(c: char) -> bool {
     matches!(c, '\u{200B}'..='\u{200F}' | '\u{2028}'..='\u{202E}' | '\u{2060}'..='\u{2069}' | '\u{FEFF}')
 }
 
-/// A TOML basic string.
-fn quote(v: &str) -> String {
-    let mut out = String::from("\"");
-    for c in v.chars() {
-        match c {
-            '"' => out.push_str("\\\""),
-            '\\' => out.push_str("\\\\"),
-            '\n' => out.push_str("\\n"),
-            '\t' => out.push_str("\\t"),
-            '\r' => out.push_str("\\r"),
-            c if c.is_control() => {
-                let _ = write!(out, "\\u{:04X}", c as u32);
-            }
-            c => out.push(c),
-        }
-    }
-    out.push('"');
-    out
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[track_caller]
-    fn case(x: f64, decimals: usize, want: &str) {
-        assert_eq!(num(x, decimals), want, "num({x:e}, {decimals})");
-        if x.is_finite() {
-            let back: f64 = want.parse().unwrap();
-            assert!(x == 0.0 || back != 0.0, "{x:e} became 0");
-        }
-    }
-
-    #[test]
-    fn numbers_keep_their_fixed_form_and_never_round_to_nothing() {
-        // As before: fixed places, trailing zeros dropped.
-        case(230.0, 3, "230");
-        case(1.25, 4, "1.25");
-        case(19.033_456, 4, "19.0335");
-        case(0.7, 4, "0.7");
-        case(-0.000_01, 2, "-1e-5");
-        case(0.0, 3, "0");
-        case(-0.0, 3, "0");
-        // Lost in the fixed form: exponent form, at least 4 significant figures.
-        case(5e-324, 4, "4.941e-324");
-        case(0.000_123_46, 4, "1.235e-4");
-        case(0.012_345_6, 4, "1.235e-2");
-        case(1e308, 4, "1e308");
-        case(4.2e15, 2, "4.2e15");
-        // Not numbers: TOML's words, which the parser refuses by name.
-        case(f64::NAN, 4, "nan");
-        case(f64::INFINITY, 4, "inf");
-        case(f64::NEG_INFINITY, 4, "-inf");
-    }
 
     #[test]
     fn comment_text_escapes_everything_that_could_end_or_hide_a_line() {

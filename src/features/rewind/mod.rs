@@ -12,8 +12,10 @@
 use crate::rating::conductor::{self, WireFamily, WireOption};
 pub mod design_toml;
 
-use crate::base::number::fmt_fixed;
-use crate::design::{ConductorShape, Design, EqualizerChoice, Mode, Rating, WindingType, bounds};
+use crate::base::number::{fmt_fixed, fmt_signed, round_sig};
+use crate::design::{
+    ConductorShape, Design, DesignError, EqualizerChoice, Mode, Rating, WindingType, bounds,
+};
 use crate::rating::scheme::{ConnectError, Scheme, connect};
 use crate::rating::{RatingReport, emf, rate_with};
 use crate::winding::Winding;
@@ -150,6 +152,8 @@ pub enum RewindError {
     },
     /// With whole turns the drops take the whole voltage.
     NoSpeedAtWholeTurns,
+    /// The new design fails the checks every design passes ([`Design::new`]).
+    Design(DesignError),
     /// A strip of the old width would be lower than twice its corner radius.
     StripTooThin {
         /// The kept strip width, mm.
@@ -246,10 +250,10 @@ fn check_flux(flux_wb: f64, source: FluxSource) -> Result<f64, RewindError> {
 }
 
 /// The design with its flux per pole set to `flux_mwb` (for `--from-test` without `--voltage`).
-pub fn with_flux(d: &Design, flux_mwb: f64) -> Design {
-    let mut n = d.clone();
+pub fn with_flux(d: &Design, flux_mwb: f64) -> Result<Design, RewindError> {
+    let mut n = d.spec();
     n.flux_per_pole_mwb = Some(flux_mwb);
-    n
+    Design::new(n).map_err(RewindError::Design)
 }
 
 /// What a no-load (open-circuit) test of the old machine tells: the flux per pole, and the
@@ -284,7 +288,7 @@ pub fn no_load_test(
     measured_r20: Option<f64>,
 ) -> Result<NoLoadTest, RewindError> {
     let flux_mwb = flux_from_test(d, w, volts, rpm)? * 1000.0;
-    let design = with_flux(d, flux_mwb);
+    let design = with_flux(d, flux_mwb)?;
     let rated = rate_with(&design, w, measured_r20);
     Ok(NoLoadTest {
         volts,
@@ -312,6 +316,75 @@ pub fn rewind_rated(
     rated: Option<&RatingReport>,
     req: &RewindRequest,
 ) -> Result<RewindPlan, RewindError> {
+    check_request(req)?;
+    let fresh;
+    let rated: &RatingReport = match (rated, req.measured_r20) {
+        (Some(r), None) => r,
+        _ => {
+            fresh = rate_with(d, w, req.measured_r20);
+            &fresh
+        }
+    };
+    let old = old_machine(d, w, rated, req)?;
+
+    // The new connection.
+    let kind = req.kind.unwrap_or(d.winding_type);
+    let m = req.multiplicity.unwrap_or(d.multiplicity);
+    let conn = connect(d, old.c0, kind, m)?;
+    let new = new_turns(d, &old, &conn, req.voltage)?;
+    let mut notes = Vec::new();
+    let copper = new_conductor(d, rated, &old, &conn, &new, &mut notes)?;
+    let design = new_design(d, &old, &conn, &new, copper.shape, req, &mut notes)?;
+
+    let old_conn = Scheme {
+        kind: d.winding_type,
+        multiplicity: d.multiplicity,
+        paths: old.a0,
+        segments: old.c0,
+        dummies: d.coil_positions() - old.c0,
+        keeps_commutator: true,
+    };
+    Ok(RewindPlan {
+        flux_mwb: old.flux_wb * 1000.0,
+        flux_source: old.flux_source,
+        old: WindingFigures {
+            scheme: old_conn,
+            turns: d.turns,
+            conductors: old.z0,
+            voltage: old.rating.voltage,
+            speed_rpm: old.speed_rpm.unwrap_or(old.speed),
+            current: old.rating.current,
+            emf_v: old.emf_v,
+            area_mm2: copper.area_old,
+            conductor: d.conductor.as_ref().map(|k| k.shape),
+        },
+        new: WindingFigures {
+            scheme: conn,
+            turns: new.turns,
+            conductors: new.z1,
+            voltage: Some(req.voltage),
+            speed_rpm: old.speed,
+            current: new.current,
+            emf_v: new.emf_v,
+            area_mm2: copper.area_new,
+            conductor: copper.shape,
+        },
+        exact_turns: new.exact_turns,
+        speed_at_whole_turns: new.speed_whole,
+        speed_error: new.speed_whole / old.speed - 1.0,
+        area_needed_mm2: copper.area_needed,
+        options: copper.options,
+        fill_exact: copper.fill_exact,
+        fill_chosen: copper.fill_chosen,
+        density_a_mm2: copper.density,
+        segment_volts_avg: new.segment_volts_avg,
+        notes,
+        design,
+    })
+}
+
+/// The request's own numbers in range: the voltage, the speed and a measured resistance.
+fn check_request(req: &RewindRequest) -> Result<(), RewindError> {
     if !(req.voltage > 0.0 && req.voltage.is_finite() && req.voltage <= MAX_VOLTAGE) {
         return Err(RewindError::VoltageOutOfRange { volts: req.voltage });
     }
@@ -325,23 +398,51 @@ pub fn rewind_rated(
     {
         return Err(RewindError::ResistanceNotPositive { ohms });
     }
-    let fresh;
-    let rated: &RatingReport = match (rated, req.measured_r20) {
-        (Some(r), None) => r,
-        _ => {
-            fresh = rate_with(d, w, req.measured_r20);
-            &fresh
-        }
-    };
+    Ok(())
+}
+
+/// The old machine as the rewind keeps it: its paths, conductors and drops, the flux, and the
+/// speed to rewind for.
+struct OldMachine {
+    /// Parallel paths a0.
+    a0: u32,
+    /// Active conductors Z0.
+    z0: u64,
+    /// Conductors per path x0 = Z0/a0.
+    x0: f64,
+    /// Active coils (segments) C0.
+    c0: u32,
+    /// `[rating]`, or all `None`.
+    rating: Rating,
+    /// I·R drop at the rated current, hot, V.
+    ir: f64,
+    /// Brush drop, V.
+    brush_drop_v: f64,
+    /// The flux per pole kept, Wb, and where it came from.
+    flux_wb: f64,
+    /// Where the flux came from.
+    flux_source: FluxSource,
+    /// The old EMF at that flux, V.
+    emf_v: f64,
+    /// The old speed, rpm, when known.
+    speed_rpm: Option<f64>,
+    /// The speed to rewind for, rpm.
+    speed: f64,
+}
+
+/// The flux to keep, and the old machine's EMF and speed at that flux.
+fn old_machine(
+    d: &Design,
+    w: &Winding,
+    rated: &RatingReport,
+    req: &RewindRequest,
+) -> Result<OldMachine, RewindError> {
     let a0 = w.paths_formula.max(1);
     let z0 = w.conductors;
-    let x0 = z0 as f64 / f64::from(a0);
-    let c0 = w.active_coils;
     let rating = d.rating.clone().unwrap_or_default();
-    let i0 = rating.current;
     let r_hot = rated.resistance.as_ref().map(|r| r.hot_ohm);
-    let ir0 = i0.zip(r_hot).map_or(0.0, |(i, r)| i * r);
-    let vb = rated.emf.as_ref().map_or(0.0, |e| e.brush_drop_v);
+    let ir = rating.current.zip(r_hot).map_or(0.0, |(i, r)| i * r);
+    let brush_drop_v = rated.emf.as_ref().map_or(0.0, |e| e.brush_drop_v);
     let old_emf = rated.emf.as_ref();
 
     // The flux to keep.
@@ -362,43 +463,78 @@ pub fn rewind_rated(
     };
 
     // The old machine's EMF and speed at that flux.
-    let old_emf_v = match old_emf {
+    let emf_v = match old_emf {
         Some(e) if e.basis == crate::rating::EmfBasis::Terminal => e.emf_v,
         _ => d
             .speed_rpm
             .map_or(0.0, |n| emf::emf_v(d.poles, z0, a0, flux_wb, n)),
     };
-    let old_speed = d
+    let speed_rpm = d
         .speed_rpm
-        .or_else(|| (old_emf_v > 0.0).then(|| emf::speed_for(d.poles, z0, a0, old_emf_v, flux_wb)));
-    let speed = match (req.speed_rpm, d.speed_rpm, old_speed) {
+        .or_else(|| (emf_v > 0.0).then(|| emf::speed_for(d.poles, z0, a0, emf_v, flux_wb)));
+    let speed = match (req.speed_rpm, d.speed_rpm, speed_rpm) {
         (Some(n), _, _) | (None, Some(n), _) => n,
         (None, None, Some(n)) if in_file_range(n, MAX_SPEED_RPM) => n,
         (None, None, Some(rpm)) => return Err(RewindError::WorkedSpeedOutOfRange { rpm }),
         (None, None, None) => return Err(RewindError::SpeedUnknown),
     };
+    Ok(OldMachine {
+        a0,
+        z0,
+        x0: z0 as f64 / f64::from(a0),
+        c0: w.active_coils,
+        rating,
+        ir,
+        brush_drop_v,
+        flux_wb,
+        flux_source,
+        emf_v,
+        speed_rpm,
+        speed,
+    })
+}
 
-    // The new connection.
-    let kind = req.kind.unwrap_or(d.winding_type);
-    let m = req.multiplicity.unwrap_or(d.multiplicity);
-    let conn = connect(d, c0, kind, m)?;
+/// The new winding's turns and what they give.
+struct NewTurns {
+    /// Turns per coil before rounding.
+    exact_turns: f64,
+    /// Whole turns per coil.
+    turns: u32,
+    /// Active conductors Z1.
+    z1: u64,
+    /// The speed the whole turns give at the new voltage, rpm.
+    speed_whole: f64,
+    /// The new current, A, when the old one is known.
+    current: Option<f64>,
+    /// The new EMF at that speed, V.
+    emf_v: f64,
+    /// The new average segment voltage E·P/C, V.
+    segment_volts_avg: f64,
+}
 
-    // Conductors per path x: V = x·(P·Φ·N/60) ± IR0·x/x0 ± Vb, the I·R drop scaling with x at
-    // the same current density.
-    let ke = f64::from(d.poles) * flux_wb * speed / 60.0;
+/// Conductors per path x: V = x·(P·Φ·N/60) ± IR0·x/x0 ± Vb, the I·R drop scaling with x at
+/// the same current density; then whole turns per coil and the speed they give.
+fn new_turns(
+    d: &Design,
+    old: &OldMachine,
+    conn: &Scheme,
+    voltage: f64,
+) -> Result<NewTurns, RewindError> {
+    let (vb, ir0, x0, flux_wb) = (old.brush_drop_v, old.ir, old.x0, old.flux_wb);
+    let ke = f64::from(d.poles) * flux_wb * old.speed / 60.0;
     let x = match d.mode {
-        Mode::Motor => (req.voltage - vb) / (ke + ir0 / x0),
+        Mode::Motor => (voltage - vb) / (ke + ir0 / x0),
         Mode::Generator => {
             let den = ke - ir0 / x0;
             if den <= 0.0 {
                 return Err(RewindError::DropExceedsEmf);
             }
-            (req.voltage + vb) / den
+            (voltage + vb) / den
         }
     };
     if !(x > 0.0 && x.is_finite()) {
         return Err(RewindError::BelowBrushDrop {
-            volts: req.voltage,
+            volts: voltage,
             brush_drop_v: vb,
         });
     }
@@ -406,13 +542,13 @@ pub fn rewind_rated(
     let c1 = conn.segments;
     // Each element carries its own paths: a frog-leg's a is shared by its two elements, each
     // of C coils, so a path holds x = 2·C·T/(a/2) conductors.
-    let elements = kind.kind().element_count().max(1);
+    let elements = conn.kind.kind().element_count().max(1);
     let exact_turns = x * f64::from(a1 / elements) / (2.0 * f64::from(c1));
     let turns = exact_turns.round();
     if turns < 1.0 {
         return Err(RewindError::TurnsRoundToZero {
             exact_turns,
-            scheme: conn,
+            scheme: *conn,
         });
     }
     if turns > bounds::MAX_TURNS as f64 {
@@ -426,22 +562,57 @@ pub fn rewind_rated(
     let x1 = z1 as f64 / f64::from(a1);
     let ir1 = ir0 * x1 / x0;
     let speed_whole = match d.mode {
-        Mode::Motor => 60.0 * (req.voltage - vb - ir1) / (f64::from(d.poles) * flux_wb * x1),
-        Mode::Generator => 60.0 * (req.voltage + vb + ir1) / (f64::from(d.poles) * flux_wb * x1),
+        Mode::Motor => 60.0 * (voltage - vb - ir1) / (f64::from(d.poles) * flux_wb * x1),
+        Mode::Generator => 60.0 * (voltage + vb + ir1) / (f64::from(d.poles) * flux_wb * x1),
     };
     if speed_whole <= 0.0 {
         return Err(RewindError::NoSpeedAtWholeTurns);
     }
-    let speed_error = speed_whole / speed - 1.0;
-    let i1 = i0.map(|i| i * x0 / x1);
-    let emf1 = emf::emf_v(d.poles, z1, a1, flux_wb, speed_whole);
+    let emf_v = emf::emf_v(d.poles, z1, a1, flux_wb, speed_whole);
+    Ok(NewTurns {
+        exact_turns,
+        turns,
+        z1,
+        speed_whole,
+        current: old.rating.current.map(|i| i * x0 / x1),
+        emf_v,
+        segment_volts_avg: crate::rating::commutator::average_segment_volts(emf_v, d.poles, c1),
+    })
+}
 
-    // Conductor: same current density, so A1·Z1 = A0·Z0.
-    let a_old = rated.conductor.as_ref().map(|k| k.area_mm2);
-    let area_needed = a_old.map(|a| a * z0 as f64 / z1 as f64);
+/// The new conductor and the copper it puts in a slot.
+struct NewConductor {
+    /// The old conductor's area, mm².
+    area_old: Option<f64>,
+    /// The area for the same current density, mm².
+    area_needed: Option<f64>,
+    /// Standard round sizes near it.
+    options: Vec<WireOption>,
+    /// The conductor chosen.
+    shape: Option<ConductorShape>,
+    /// Its area, mm².
+    area_new: Option<f64>,
+    /// Copper per slot against the original, with the exact area.
+    fill_exact: Option<f64>,
+    /// Copper per slot against the original, with the chosen conductor.
+    fill_chosen: Option<f64>,
+    /// Current density with the chosen conductor, A/mm².
+    density: Option<f64>,
+}
+
+/// Conductor: same current density, so A1·Z1 = A0·Z0.
+fn new_conductor(
+    d: &Design,
+    rated: &RatingReport,
+    old: &OldMachine,
+    conn: &Scheme,
+    new: &NewTurns,
+    notes: &mut Vec<String>,
+) -> Result<NewConductor, RewindError> {
+    let area_old = rated.conductor.as_ref().map(|k| k.area_mm2);
+    let area_needed = area_old.map(|a| a * old.z0 as f64 / new.z1 as f64);
     let options = area_needed.map_or_else(Vec::new, |a| conductor::nearest_sizes(a, 4));
-    let mut notes = Vec::new();
-    let new_shape = match (d.conductor.as_ref().map(|k| k.shape), area_needed) {
+    let shape = match (d.conductor.as_ref().map(|k| k.shape), area_needed) {
         (
             Some(ConductorShape::Rectangular {
                 width_mm,
@@ -450,31 +621,7 @@ pub fn rewind_rated(
                 ..
             }),
             Some(a),
-        ) => {
-            let per = a / f64::from(strands);
-            let h = ((per + (4.0 - std::f64::consts::PI) * corner_radius_mm * corner_radius_mm)
-                / width_mm
-                * 100.0)
-                .round()
-                / 100.0;
-            if h < 2.0 * corner_radius_mm || h <= 0.0 {
-                return Err(RewindError::StripTooThin {
-                    width_mm,
-                    height_mm: h,
-                });
-            }
-            notes.push(format!(
-                "strip: width {} mm kept, height {} mm for the same current density; round-wire equivalents are listed too",
-                fmt_fixed(width_mm, 2),
-                fmt_fixed(h, 2)
-            ));
-            Some(ConductorShape::Rectangular {
-                width_mm,
-                height_mm: h,
-                corner_radius_mm,
-                strands,
-            })
-        }
+        ) => Some(new_strip(width_mm, corner_radius_mm, strands, a, notes)?),
         (Some(ConductorShape::Round { awg, strands, .. }), Some(_)) => {
             let family = if awg.is_some() {
                 WireFamily::Awg
@@ -485,15 +632,14 @@ pub fn rewind_rated(
         }
         _ => None,
     };
-    let a_new = new_shape.as_ref().map(conductor::conductor_area_mm2);
-    let t0 = f64::from(d.turns);
-    let fill_exact = area_needed
-        .zip(a_old)
-        .map(|(an, ao)| f64::from(turns) * an / (t0 * ao));
-    let fill_chosen = a_new
-        .zip(a_old)
-        .map(|(an, ao)| f64::from(turns) * an / (t0 * ao));
-    let density = i1.zip(a_new).map(|(i, a)| i / f64::from(a1) / a);
+    let area_new = shape.as_ref().map(conductor::conductor_area_mm2);
+    let (t0, turns) = (f64::from(d.turns), f64::from(new.turns));
+    let fill = |area: Option<f64>| area.zip(area_old).map(|(an, ao)| turns * an / (t0 * ao));
+    let (fill_exact, fill_chosen) = (fill(area_needed), fill(area_new));
+    let density = new
+        .current
+        .zip(area_new)
+        .map(|(i, a)| i / f64::from(conn.paths) / a);
     if let Some(f) = fill_chosen
         && f > 1.02
     {
@@ -505,12 +651,73 @@ pub fn rewind_rated(
     if d.conductor.is_none() {
         notes.push("no [conductor] in the design: the conductor size cannot be worked out; scale the old area by the old/new conductor ratio Z0/Z1".to_string());
     }
+    Ok(NewConductor {
+        area_old,
+        area_needed,
+        options,
+        shape,
+        area_new,
+        fill_exact,
+        fill_chosen,
+        density,
+    })
+}
 
+/// A strip of the old width `width_mm` with the height for `area` mm² (the same current
+/// density), rounded to 0.01 mm; refused when lower than twice its corner radius.
+fn new_strip(
+    width_mm: f64,
+    corner_radius_mm: f64,
+    strands: u32,
+    area: f64,
+    notes: &mut Vec<String>,
+) -> Result<ConductorShape, RewindError> {
+    let per = area / f64::from(strands);
+    let h = ((per + (4.0 - std::f64::consts::PI) * corner_radius_mm * corner_radius_mm) / width_mm
+        * 100.0)
+        .round()
+        / 100.0;
+    if h < 2.0 * corner_radius_mm || h <= 0.0 {
+        return Err(RewindError::StripTooThin {
+            width_mm,
+            height_mm: h,
+        });
+    }
+    notes.push(format!(
+        "strip: width {} mm kept, height {} mm for the same current density; round-wire equivalents are listed too",
+        fmt_fixed(width_mm, 2),
+        fmt_fixed(h, 2)
+    ));
+    Ok(ConductorShape::Rectangular {
+        width_mm,
+        height_mm: h,
+        corner_radius_mm,
+        strands,
+    })
+}
+
+/// The new design: the old one with the new connection, turns, flux, speed, rating and
+/// conductor, built again by [`Design::new`]; the notes say what else had to change
+/// (segments, dummy coils, equalizers, lead offset, brush sets).
+fn new_design(
+    d: &Design,
+    old: &OldMachine,
+    conn: &Scheme,
+    new: &NewTurns,
+    shape: Option<ConductorShape>,
+    req: &RewindRequest,
+    notes: &mut Vec<String>,
+) -> Result<Design, RewindError> {
+    let (kind, c0, c1) = (conn.kind, old.c0, conn.segments);
     // Segments and dummy coils.
     if !conn.keeps_commutator {
-        let why = kind
-            .kind()
-            .segment_rule(c0, d.coil_positions(), m, d.pole_pairs(), d.direction);
+        let why = kind.kind().segment_rule(
+            c0,
+            d.coil_positions(),
+            conn.multiplicity,
+            d.pole_pairs(),
+            d.direction,
+        );
         notes.push(format!("segments: the commutator has {c0} segments, the new winding needs {c1} ({why}): fit a new commutator"));
     }
     if conn.dummies > 0 {
@@ -519,9 +726,12 @@ pub fn rewind_rated(
             conn.dummies
         ));
     }
-    let mut nd = d.clone();
+    let mut nd = d.spec();
     if !kind.kind().takes_equalizers() && d.equalizers != EqualizerChoice::None {
-        notes.push("equalizers removed: a wave winding needs none".to_string());
+        notes.push(format!(
+            "equalizers removed: {}",
+            kind.kind().no_equalizers_reason()
+        ));
         nd.equalizers = EqualizerChoice::None;
     }
     if i64::from(d.poles) * i64::from(d.lead_offset.0).abs() >= i64::from(c1) {
@@ -531,15 +741,14 @@ pub fn rewind_rated(
         ));
         nd.lead_offset = crate::design::HalfBars::ZERO;
     }
-    let seg_avg = emf1 * f64::from(d.poles) / f64::from(c1);
-    if seg_avg > d.limits.get(crate::design::LimitId::SegmentVoltsAvgMax) {
+    let limit = d.limits.get(crate::design::LimitId::SegmentVoltsAvgMax);
+    if new.segment_volts_avg > limit {
         notes.push(format!(
             "the new average segment voltage {} V is above the {} V limit: run `armsheet check` on the new file for the options",
-            fmt_fixed(seg_avg, 2),
-            crate::rating::limits::fmt_limit(d.limits.get(crate::design::LimitId::SegmentVoltsAvgMax))
+            fmt_fixed(new.segment_volts_avg, 2),
+            crate::rating::limits::fmt_limit(limit)
         ));
     }
-
     if let Some(k) = nd.commutator.as_mut()
         && let Some(sets) = k.brush_sets
         && sets < kind.kind().fewest_brush_sets(d.poles)
@@ -552,100 +761,45 @@ pub fn rewind_rated(
         k.brush_sets = None;
     }
     nd.winding_type = kind;
-    nd.multiplicity = m;
-    nd.turns = turns;
+    nd.multiplicity = conn.multiplicity;
+    nd.turns = new.turns;
     // A frog-leg keeps its wave coils' span and takes the new turns in both elements.
-    nd.wave_coils = (elements > 1).then(|| crate::design::WaveCoils {
-        span: d.wave_coils.map_or(d.span, |w| w.span),
-        turns,
-    });
-    nd.segments = c1;
-    nd.segments_derived = false;
-    if nd.dummy_coils.is_some() && (c1 != c0 || kind != WindingType::Wave) {
+    nd.wave_span = d
+        .wave_coils
+        .map(|w| w.span)
+        .filter(|_| kind.kind().element_count() > 1);
+    nd.wave_turns = None;
+    nd.segments = Some(c1);
+    if nd.dummy_coils.is_some() && (c1 != c0 || kind.kind().uses_every_coil()) {
         notes.push(format!(
             "dummy coils: the positions the old design names are dropped; {}",
-            if kind == WindingType::Wave {
-                "the new count is spread evenly"
+            if kind.kind().uses_every_coil() {
+                format!("a {} winding uses every coil", kind.as_str())
             } else {
-                "a lap winding uses every coil"
+                "the new count is spread evenly".to_string()
             }
         ));
         nd.dummy_coils = None;
     }
-    nd.flux_per_pole_mwb = Some(flux_wb * 1000.0);
-    nd.speed_rpm = Some(speed);
+    nd.flux_per_pole_mwb = Some(old.flux_wb * 1000.0);
+    nd.speed_rpm = Some(old.speed);
     let mut r = d.rating.clone().unwrap_or(Rating {
         voltage: None,
         current: None,
         thermal_class: None,
     });
     r.voltage = Some(req.voltage);
-    r.current = i1.map(|i| round_sig(i, 4));
+    r.current = new.current.map(|i| round_sig(i, 4));
     if let Some(amps) = r.current
         && !in_file_range(amps, MAX_CURRENT_A)
     {
         return Err(RewindError::CurrentOutOfRange { amps });
     }
     nd.rating = Some(r);
-    if let (Some(k), Some(shape)) = (nd.conductor.as_mut(), new_shape) {
+    if let (Some(k), Some(shape)) = (nd.conductor.as_mut(), shape) {
         k.shape = shape;
     }
-
-    let old_conn = Scheme {
-        kind: d.winding_type,
-        multiplicity: d.multiplicity,
-        paths: a0,
-        segments: c0,
-        dummies: d.coil_positions() - c0,
-        keeps_commutator: true,
-    };
-    Ok(RewindPlan {
-        flux_mwb: flux_wb * 1000.0,
-        flux_source,
-        old: WindingFigures {
-            scheme: old_conn,
-            turns: d.turns,
-            conductors: z0,
-            voltage: rating.voltage,
-            speed_rpm: old_speed.unwrap_or(speed),
-            current: i0,
-            emf_v: old_emf_v,
-            area_mm2: a_old,
-            conductor: d.conductor.as_ref().map(|k| k.shape),
-        },
-        new: WindingFigures {
-            scheme: conn,
-            turns,
-            conductors: z1,
-            voltage: Some(req.voltage),
-            speed_rpm: speed,
-            current: i1,
-            emf_v: emf1,
-            area_mm2: a_new,
-            conductor: new_shape,
-        },
-        exact_turns,
-        speed_at_whole_turns: speed_whole,
-        speed_error,
-        area_needed_mm2: area_needed,
-        options,
-        fill_exact,
-        fill_chosen,
-        density_a_mm2: density,
-        segment_volts_avg: seg_avg,
-        notes,
-        design: nd,
-    })
-}
-
-/// Rounds to `n` (at least 1) significant figures (for the current written to the new file),
-/// through the decimal exponent form, so no power of ten overflows: the smallest subnormal stays
-/// itself, never NaN, and nothing non-zero becomes 0.
-fn round_sig(x: f64, n: usize) -> f64 {
-    if !x.is_finite() || x == 0.0 {
-        return x;
-    }
-    format!("{x:.*e}", n.max(1) - 1).parse().unwrap_or(x)
+    Design::new(nd).map_err(RewindError::Design)
 }
 
 impl RewindPlan {
@@ -684,7 +838,7 @@ impl RewindPlan {
             "whole turns give {} rpm at {}: {} % against {} rpm",
             fmt_fixed(self.speed_at_whole_turns, 0),
             v(n.voltage),
-            signed(self.speed_error * 100.0, 2),
+            fmt_signed(self.speed_error * 100.0, 2),
             fmt_fixed(n.speed_rpm, 0)
         ));
         if let (Some(oc), Some(nc), Some(need)) = (&o.conductor, &n.conductor, self.area_needed_mm2)
@@ -721,15 +875,5 @@ impl RewindPlan {
     /// The new design file: the header as comments, then the design.
     pub fn design_file(&self, old_file: &str, command: &str) -> String {
         design_toml::write_design(&self.design, &self.header(old_file, command))
-    }
-}
-
-/// A number with its sign: "+1.25", "-0.80", "0.00".
-pub fn signed(x: f64, decimals: usize) -> String {
-    let s = fmt_fixed(x, decimals);
-    if s.starts_with('-') || s.chars().all(|c| c == '0' || c == '.') {
-        s
-    } else {
-        format!("+{s}")
     }
 }

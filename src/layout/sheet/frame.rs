@@ -14,7 +14,7 @@ pub const BAND_HEIGHT: f64 = 9.0;
 /// Title block size, mm.
 pub const TITLE_BLOCK: (f64, f64) = (124.0, 31.0);
 /// Connection-table font size, mm: 3.5 mm gives a cap height of 2.55 mm in DejaVu Sans (the
-/// outline of "H" is 0.729 em tall; measured in `tests/sheet_render.rs`), above the 2.5 mm
+/// outline of "H" is 0.729 em tall; measured in `tests/it/sheet_render.rs`), above the 2.5 mm
 /// asked for on A4.
 pub const TABLE_FONT: f64 = 3.5;
 /// Table row pitch, mm.

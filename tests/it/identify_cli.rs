@@ -1,0 +1,308 @@
+//! `armsheet identify` from the command line: the worked examples of the published sources,
+//! the broken cards in tests/broken_cards/ (each `NAME.toml` must exit 2, print nothing on
+//! stdout, write nothing and print exactly `NAME.stderr`; ARMSHEET_BLESS=1 rewrites them), the
+//! no-overwrite rule, `--pick`, `--json` and `new --card`.
+
+use crate::support;
+
+use std::path::Path;
+
+use crate::support::{armsheet, armsheet_in, scratch, text};
+
+fn card(dir: &Path, name: &str, observed: &str) -> String {
+    let path = dir.join(name);
+    std::fs::write(
+        &path,
+        format!("[job]\nid = \"T-1\"\n\n[observed]\n{observed}"),
+    )
+    .unwrap();
+    path.display().to_string()
+}
+
+fn json(args: &[&str]) -> serde_json::Value {
+    let out = armsheet(args);
+    serde_json::from_slice(&out.stdout).unwrap_or_else(|e| panic!("{e}: {}", text(&out.stdout)))
+}
+
+/// Published worked example, from memory: 4 poles, 25 coils, simplex wave, y_c = 13 (a
+/// textbook wave-winding example reproduced in several tutorials; docs/domain.md,
+/// "Published worked examples"). The throw
+/// 1-14 on 25 bars is therefore progressive simplex wave: p·y_c = 2·13 = 26 = C + 1.
+#[test]
+fn a_throw_of_1_14_on_4_poles_and_25_bars_is_progressive_simplex_wave() {
+    let dir = scratch("wave25");
+    let c = card(
+        &dir,
+        "c.toml",
+        "poles = 4\nslots = 25\nbars = 25\ncoil_span = \"1-7\"\nlead_throw = \"1-14\"\nlead_swing = -3.5\nturns = 2\n",
+    );
+    let v = json(&["identify", &c, "--json"]);
+    let list = v["candidates"].as_array().unwrap();
+    assert_eq!(list.len(), 1, "{v}");
+    let k = &list[0];
+    assert_eq!(k["type"], "wave");
+    assert_eq!(k["multiplicity"], 1);
+    assert_eq!(k["direction"], "progressive");
+    assert_eq!(k["commutator_pitch"], 13);
+    assert_eq!(k["segments"], 25);
+    assert_eq!(k["coils_per_slot"], 1);
+    assert_eq!(k["dummy_coils"], 0);
+    assert_eq!(k["span"], 6);
+    assert!(k["explanation"].as_str().unwrap().contains("C + 1"));
+}
+
+/// 26 slots on 4 poles cannot take a simplex wave on 26 bars ((26 ± 1)/2 is not whole), so a
+/// wave leaves one dummy coil on 25 bars [src: textbook treatment of dummy coils, e.g. Theraja,
+/// *Electrical Technology* vol. 2 ch. 26, from memory; docs/domain.md, "Dummy coils"].
+#[test]
+fn twenty_six_slots_on_4_poles_is_a_wave_with_one_dummy() {
+    let dir = scratch("dummy26");
+    let c = card(
+        &dir,
+        "c.toml",
+        "poles = 4\nslots = 26\nbars = 25\ncoil_span = \"1-7\"\nlead_throw = \"1-14\"\nlead_swing = -4\nturns = 2\n",
+    );
+    let v = json(&["identify", &c, "--json"]);
+    let list = v["candidates"].as_array().unwrap();
+    assert_eq!(list.len(), 1, "{v}");
+    assert_eq!(list[0]["type"], "wave");
+    assert_eq!(list[0]["dummy_coils"], 1);
+    assert_eq!(list[0]["dummy_positions"], serde_json::json!([26]));
+    // With the dead coil found elsewhere, the design places it there.
+    let c2 = card(
+        &dir,
+        "c2.toml",
+        "poles = 4\nslots = 26\nbars = 25\ncoil_span = \"1-7\"\nlead_throw = \"1-14\"\nlead_swing = -4\nturns = 2\ndead_coils = [13]\n",
+    );
+    let v = json(&["identify", &c2, "--json"]);
+    assert_eq!(
+        v["candidates"][0]["dummy_positions"],
+        serde_json::json!([13]),
+        "{v}"
+    );
+    let out = dir.join("d.toml");
+    let o = armsheet(&["identify", &c2, "-o", out.to_str().unwrap()]);
+    assert_eq!(o.status.code(), Some(0), "{}", text(&o.stderr));
+    let file = std::fs::read_to_string(&out).unwrap();
+    assert!(file.contains("dummy_coils = [13]"), "{file}");
+    assert!(file.contains("segments = 25"), "{file}");
+}
+
+/// Published worked example, from memory: 6 poles, 36 slots, simplex wave: C = 35 (one
+/// dummy), y_c = 12 (a textbook dummy-coil example; docs/domain.md, "Published worked examples").
+/// The throw is 1-13.
+#[test]
+fn six_poles_36_slots_on_35_bars_is_simplex_wave_with_one_dummy() {
+    let dir = scratch("wave36");
+    let c = card(
+        &dir,
+        "c.toml",
+        "poles = 6\nslots = 36\nbars = 35\ncoil_span = \"1-7\"\nlead_throw = \"1-13\"\nlead_swing = -3.5\nturns = 2\ncoils_per_slot = 1\n",
+    );
+    let v = json(&["identify", &c, "--json"]);
+    let list = v["candidates"].as_array().unwrap();
+    assert_eq!(list.len(), 1, "{v}");
+    // 3·12 = 36 = C + 1: progressive in this project's sign (+ lands one bar ahead).
+    assert_eq!(list[0]["direction"], "progressive");
+    assert_eq!(list[0]["commutator_pitch"], 12);
+    assert_eq!(list[0]["dummy_coils"], 1);
+}
+
+#[test]
+fn a_throw_that_fits_no_bar_count_names_the_nearest_readings() {
+    let dir = scratch("conflict");
+    let c = card(
+        &dir,
+        "c.toml",
+        "poles = 4\nslots = 26\nbars = 26\ncoil_span = \"1-7\"\nlead_throw = \"1-14\"\nlead_swing = 0\nturns = 2\n",
+    );
+    let out = dir.join("d.toml");
+    let o = armsheet(&["identify", &c, "-o", out.to_str().unwrap()]);
+    let said = text(&o.stdout);
+    assert_eq!(o.status.code(), Some(1), "{said}");
+    assert!(
+        said.contains(
+            "a throw of 1-14 on 4 poles needs 25 or 27 bars (simplex wave); you counted 26"
+        ),
+        "{said}"
+    );
+    assert!(said.contains("(common practice)"), "{said}");
+    assert!(!out.exists());
+}
+
+#[test]
+fn the_written_design_is_checked_and_sheeted_as_is_and_never_overwritten() {
+    let dir = scratch("write");
+    let c = card(
+        &dir,
+        "c.toml",
+        "poles = 4\nslots = 24\nbars = 48\ncoils_per_slot = 2\ncoil_span = \"1-7\"\nlead_throw = \"1-2\"\nlead_swing = 1.5\nturns = 2\nawg = 16\nstrands = 2\nequalizer_taps = [[1, 25], [5, 29]]\n",
+    );
+    let o = armsheet_in(&["identify", &c, "-o", "d.toml"], &dir);
+    assert_eq!(
+        o.status.code(),
+        Some(0),
+        "{}{}",
+        text(&o.stdout),
+        text(&o.stderr)
+    );
+    let file = std::fs::read_to_string(dir.join("d.toml")).unwrap();
+    assert!(file.starts_with("# Identified by armsheet"), "{file}");
+    assert!(file.contains("#   poles 4, slots 24, bars 48"), "{file}");
+    assert!(file.contains("equalizers = 4"), "{file}");
+    let chk = armsheet_in(&["check", "d.toml", "--json"], &dir);
+    let v: serde_json::Value = serde_json::from_slice(&chk.stdout).unwrap();
+    assert_eq!(v["lead_swing"]["swing_bars"], 1.5, "{v}");
+    assert_eq!(v["parallel_paths"], 4);
+    let sheet = armsheet_in(&["sheet", "d.toml", "-o", "sheets"], &dir);
+    assert_eq!(sheet.status.code(), Some(0), "{}", text(&sheet.stderr));
+    // Again: refused, the file kept; with --force, replaced.
+    std::fs::write(dir.join("d.toml"), "keep").unwrap();
+    let again = armsheet_in(&["identify", &c, "-o", "d.toml"], &dir);
+    assert_eq!(again.status.code(), Some(2));
+    assert!(text(&again.stderr).contains("does not overwrite"));
+    assert_eq!(std::fs::read_to_string(dir.join("d.toml")).unwrap(), "keep");
+    let forced = armsheet_in(&["identify", &c, "-o", "d.toml", "--force"], &dir);
+    assert_eq!(forced.status.code(), Some(0));
+    assert_eq!(std::fs::read_to_string(dir.join("d.toml")).unwrap(), file);
+}
+
+#[test]
+fn a_pick_beyond_the_candidates_is_refused() {
+    let dir = scratch("pick");
+    let c = card(
+        &dir,
+        "c.toml",
+        "poles = 4\nslots = 25\nbars = 25\ncoil_span = \"1-7\"\nlead_throw = \"1-14\"\nlead_swing = -3.5\nturns = 2\n",
+    );
+    let o = armsheet_in(&["identify", &c, "--pick", "2", "-o", "d.toml"], &dir);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(
+        text(&o.stderr).contains("--pick 2: there is 1 candidate(s)"),
+        "{}",
+        text(&o.stderr)
+    );
+    assert!(!dir.join("d.toml").exists());
+    let o = armsheet_in(&["identify", &c, "--pick", "1", "-o", "d.toml"], &dir);
+    assert_eq!(o.status.code(), Some(0));
+    assert!(text(&o.stdout).contains("picked candidate 1"));
+}
+
+#[test]
+fn new_card_writes_a_starter_card_that_identifies() {
+    let dir = scratch("starter");
+    let o = armsheet_in(&["new", "--card"], &dir);
+    assert_eq!(o.status.code(), Some(0));
+    assert_eq!(text(&o.stdout), "wrote card.toml\n");
+    let o = armsheet_in(&["identify", "card.toml"], &dir);
+    assert_eq!(o.status.code(), Some(0), "{}", text(&o.stderr));
+    assert!(text(&o.stdout).contains("one winding fits: progressive simplex wave"));
+    let again = armsheet_in(&["new", "--card"], &dir);
+    assert_eq!(again.status.code(), Some(2));
+}
+
+#[test]
+fn every_broken_card_gets_its_expected_message() {
+    let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/broken_cards");
+    let bless = std::env::var_os("ARMSHEET_BLESS").is_some();
+    let mut names: Vec<_> = std::fs::read_dir(&dir)
+        .unwrap()
+        .filter_map(|e| e.ok().map(|e| e.path()))
+        .filter(|p| p.extension().is_some_and(|x| x == "toml"))
+        .collect();
+    names.sort();
+    assert!(names.len() >= 6, "the corpus has {} files", names.len());
+    let out_dir = scratch("broken");
+    let out = out_dir.join("never.toml");
+    let mut failures = Vec::new();
+    for path in names {
+        let rel = format!(
+            "tests/broken_cards/{}",
+            path.file_name().unwrap().to_string_lossy()
+        );
+        let o = armsheet(&["identify", &rel, "-o", out.to_str().unwrap()]);
+        let stderr = text(&o.stderr);
+        let expected_path = path.with_extension("stderr");
+        if bless {
+            std::fs::write(&expected_path, &stderr).unwrap();
+        }
+        let expected = std::fs::read_to_string(&expected_path).unwrap_or_default();
+        if o.status.code() != Some(2) {
+            failures.push(format!("{rel}: exit {:?}, expected 2", o.status.code()));
+        }
+        if !o.stdout.is_empty() {
+            failures.push(format!("{rel}: wrote to stdout"));
+        }
+        if out.exists() {
+            failures.push(format!("{rel}: wrote a design"));
+        }
+        if stderr != expected {
+            failures.push(format!(
+                "{rel}: stderr differs\n--- expected\n{expected}--- got\n{stderr}"
+            ));
+        }
+    }
+    assert!(failures.is_empty(), "{}", failures.join("\n"));
+}
+
+/// The demo card yields the demo design, byte for byte, and that design checks as is.
+#[test]
+fn the_demo_card_yields_the_demo_design() {
+    let dir = scratch("demo");
+    let out = dir.join("d.toml");
+    let o = armsheet(&[
+        "identify",
+        "designs/cards/sawmill-card.toml",
+        "-o",
+        out.to_str().unwrap(),
+    ]);
+    assert_eq!(o.status.code(), Some(0), "{}", text(&o.stderr));
+    assert_eq!(
+        std::fs::read_to_string(&out).unwrap(),
+        support::demo("sawmill-identified")
+    );
+    let chk = armsheet(&["check", "designs/sawmill-identified.toml", "--json"]);
+    assert_eq!(chk.status.code(), Some(0));
+    let v: serde_json::Value = serde_json::from_slice(&chk.stdout).unwrap();
+    assert_eq!(v["lead_swing"]["swing_bars"], -6.5);
+    assert_eq!(v["dummy_positions"], serde_json::json!([30]));
+}
+
+#[test]
+fn a_card_that_cannot_be_read_says_so() {
+    let o = armsheet(&["identify", "designs/cards/no-such-card.toml"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(
+        text(&o.stderr).starts_with("error: cannot read data card designs/cards/no-such-card.toml"),
+        "{}",
+        text(&o.stderr)
+    );
+}
+
+/// A rewind that changes the segment count drops the named dummy positions, and says so.
+#[test]
+fn a_rewind_to_lap_drops_the_named_dummies() {
+    let dir = scratch("rewind");
+    let mut design = support::demo("sawmill-identified");
+    design.push_str("\n[rating]\nvoltage = 220\ncurrent = 10\nspeed_rpm = 1500\n");
+    std::fs::write(dir.join("s.toml"), design).unwrap();
+    let o = armsheet_in(
+        &[
+            "rewind",
+            "s.toml",
+            "--voltage",
+            "110",
+            "--type",
+            "lap",
+            "-o",
+            "r.toml",
+        ],
+        &dir,
+    );
+    assert_eq!(o.status.code(), Some(0), "{}", text(&o.stderr));
+    assert!(
+        text(&o.stdout).contains("dummy coils: the positions the old design names are dropped")
+    );
+    let new = std::fs::read_to_string(dir.join("r.toml")).unwrap();
+    assert!(!new.contains("dummy_coils = ["), "{new}");
+}

@@ -1,0 +1,50 @@
+//! The integration tests, one crate (one link) with a module per concern. Run one module with
+//! `cargo test --test it NAME` (a name filter: `cargo test --test it architecture`). The shared
+//! helpers are in `support/`; the data they read stay in `tests/broken/`, `tests/broken_cards/`
+//! and `tests/fixtures/`, the insta snapshots in `tests/it/snapshots/`.
+
+mod support;
+
+mod architecture;
+mod armature_test;
+mod broken_files;
+mod brush_neutral;
+mod cli;
+mod cli_errors;
+mod cli_safety;
+mod csv_output;
+mod diagram_tags;
+mod domain_notes;
+mod engine_properties;
+mod exact_symmetry;
+mod external_checks;
+mod fault_locator;
+mod frog_leg;
+mod frog_leg_loops;
+mod front_pitch;
+mod fuzz;
+mod identify_cli;
+mod identify_round_trip;
+mod kill_sheet;
+mod kind_in_one_place;
+mod legibility;
+mod multiplex_equalizers;
+mod page_tree;
+mod rating_external;
+mod rating_limits;
+mod rating_sheet;
+mod rating_snapshots;
+mod render_only_formats;
+mod report_snapshots;
+mod rewind_cli;
+mod rewind_properties;
+mod rule_cases;
+mod sheet_cli;
+mod sheet_pdf;
+mod sheet_render;
+mod sheet_snapshots;
+mod sheet_structure;
+mod shop_pages;
+mod span_limits;
+mod terminal_escapes;
+mod test_sheet;
