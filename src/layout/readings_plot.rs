@@ -27,75 +27,136 @@ fn at(angle: f64, r: f64) -> (f64, f64) {
     (CX + r * angle.sin(), CY - r * angle.cos())
 }
 
+/// The scale of a plot: the angle of each pair of bars and the radius of each reading.
+struct Plot {
+    /// Bars round the commutator.
+    c: f64,
+    /// The largest expected reading.
+    top: f64,
+}
+
+impl Plot {
+    /// The angle of the mica between bar `from` and the next, radians from the top.
+    fn angle(&self, from: u32) -> f64 {
+        2.0 * PI * (f64::from(from) - 0.5) / self.c
+    }
+
+    /// The radius of a reading `v`. Up to twice the largest expected reading fits; beyond,
+    /// the spike is cut at the edge.
+    fn radius(&self, v: f64) -> f64 {
+        R0 + SPAN * (v / (2.0 * self.top)).clamp(0.0, 1.0)
+    }
+}
+
 /// The plot page of `t`, titled `title`.
 pub fn readings_plot_page(t: &ArmatureTest, title: &str) -> Page {
     let rows = t.judged();
-    let c = f64::from(t.bars);
-    let angle = |from: u32| 2.0 * PI * (f64::from(from) - 0.5) / c;
-    let top = rows
-        .iter()
-        .filter_map(|r| r.expected)
-        .fold(0.0_f64, f64::max)
-        .max(1e-300);
-    // Up to twice the largest expected reading fits; beyond, the spike is cut at the edge.
-    let radius = |v: f64| R0 + SPAN * (v / (2.0 * top)).clamp(0.0, 1.0);
+    let plot = Plot {
+        c: f64::from(t.bars),
+        top: rows
+            .iter()
+            .filter_map(|r| r.expected)
+            .fold(0.0_f64, f64::max)
+            .max(1e-300),
+    };
     let mut g = Group::id("readings");
     g.push(Circle::new("thin", CX, CY, R0));
-    g.push(Circle::new("thin", CX, CY, radius(top)));
+    g.push(Circle::new("thin", CX, CY, plot.radius(plot.top)));
     g.push(Circle::new("thin", CX, CY, R0 + SPAN));
     let step = (t.bars / 24).max(1);
     for r in rows.iter().filter(|r| (r.from_bar - 1) % step == 0) {
-        let (x, y) = at(angle(r.from_bar), R0 + SPAN + 4.0);
+        let (x, y) = at(plot.angle(r.from_bar), R0 + SPAN + 4.0);
         g.push(Text::new(x, y + 1.0, 2.5, "mid", r.from_bar.to_string()));
     }
     let expected: Vec<(f64, f64)> = rows
         .iter()
-        .map(|r| at(angle(r.from_bar), radius(r.expected.unwrap_or(0.0))))
-        .chain(
-            rows.first()
-                .map(|r| at(angle(r.from_bar), radius(r.expected.unwrap_or(0.0)))),
-        )
+        .map(|r| {
+            at(
+                plot.angle(r.from_bar),
+                plot.radius(r.expected.unwrap_or(0.0)),
+            )
+        })
+        .chain(rows.first().map(|r| {
+            at(
+                plot.angle(r.from_bar),
+                plot.radius(r.expected.unwrap_or(0.0)),
+            )
+        }))
         .collect();
     g.push(Path::polyline("conn k1", &expected));
     let mut legend = vec![("conn k1", "expected", "")];
-    if let Some(l) = &t.location {
-        let by_pair: std::collections::BTreeMap<(u32, u32), ReadingValue> = l
-            .measured
-            .iter()
-            .map(|(r, m)| ((r.from_bar, r.to_bar), *m))
-            .collect();
-        let scale = l.healthy_scale.max(1e-300);
-        // Dashed as well as coloured, so the two lines part in greyscale.
-        let mut measured = Group::class("d2");
-        let mut run: Vec<(f64, f64)> = Vec::new();
-        for r in rows {
-            match by_pair.get(&(r.from_bar, r.to_bar)) {
-                Some(ReadingValue::Value(v)) => {
-                    run.push(at(angle(r.from_bar), radius(v / scale)));
-                }
-                Some(ReadingValue::Open) => run.push(at(angle(r.from_bar), R0 + SPAN)),
-                None => {
-                    if run.len() > 1 {
-                        measured.push(Path::polyline("conn k2", &run));
-                    }
-                    run.clear();
-                }
-            }
-        }
-        if run.len() > 1 {
-            measured.push(Path::polyline("conn k2", &run));
-        }
-        g.push(measured);
-        for &b in &l.suspect_bars {
-            let (x, y) = at(2.0 * PI * (f64::from(b) - 1.0) / c, R0 - 3.0);
-            g.push(Circle::new("f2", x, y, 1.2));
-        }
+    if t.location.is_some() {
+        measured_and_suspects(&mut g, t, &plot);
         legend.push(("conn k2", "measured (fitted scale)", "d2"));
     }
+    Page {
+        kind: PageKind::TestPlot,
+        title: title.to_string(),
+        document: title.to_string(),
+        width_mm: W,
+        height_mm: H,
+        unit: PageUnit::Millimetres,
+        data: Vec::new(),
+        children: vec![
+            Rect::filled("#fff", 0.0, 0.0, W, H).into(),
+            Text::new(
+                12.0,
+                14.0,
+                4.0,
+                "b",
+                format!("Bar-to-bar readings: {title}"),
+            )
+            .into(),
+            g.into(),
+            side_notes(t, &legend).into(),
+        ],
+    }
+}
+
+/// The measured readings at the locator's fitted scale, a line broken where a pair was not
+/// read, and a dot at each suspect bar.
+fn measured_and_suspects(g: &mut Group, t: &ArmatureTest, plot: &Plot) {
+    let Some(l) = &t.location else { return };
+    let by_pair: std::collections::BTreeMap<(u32, u32), ReadingValue> = l
+        .measured
+        .iter()
+        .map(|(r, m)| ((r.from_bar, r.to_bar), *m))
+        .collect();
+    let scale = l.healthy_scale.max(1e-300);
+    // Dashed as well as coloured, so the two lines part in greyscale.
+    let mut measured = Group::class("d2");
+    let mut run: Vec<(f64, f64)> = Vec::new();
+    for r in t.judged() {
+        match by_pair.get(&(r.from_bar, r.to_bar)) {
+            Some(ReadingValue::Value(v)) => {
+                run.push(at(plot.angle(r.from_bar), plot.radius(v / scale)));
+            }
+            Some(ReadingValue::Open) => run.push(at(plot.angle(r.from_bar), R0 + SPAN)),
+            None => {
+                if run.len() > 1 {
+                    measured.push(Path::polyline("conn k2", &run));
+                }
+                run.clear();
+            }
+        }
+    }
+    if run.len() > 1 {
+        measured.push(Path::polyline("conn k2", &run));
+    }
+    g.push(measured);
+    for &b in &l.suspect_bars {
+        let (x, y) = at(2.0 * PI * (f64::from(b) - 1.0) / plot.c, R0 - 3.0);
+        g.push(Circle::new("f2", x, y, 1.2));
+    }
+}
+
+/// The side column: the legend of the lines (class, words, dash class), the unit, and the
+/// cautions.
+fn side_notes(t: &ArmatureTest, legend: &[(&str, &str, &str)]) -> Group {
     let mut side = Group::id("notes");
     let x0 = 200.0;
     let mut y = 30.0;
-    for (class, words, dash) in &legend {
+    for (class, words, dash) in legend {
         let line = Path::polyline(class, &[(x0, y - 1.0), (x0 + 8.0, y - 1.0)]);
         if dash.is_empty() {
             side.push(line);
@@ -130,26 +191,5 @@ pub fn readings_plot_page(t: &ArmatureTest, title: &str) -> Page {
             side.push(Text::new(x0, cy, CAUTION_SIZE, "", line));
         }
     }
-    Page {
-        kind: PageKind::TestPlot,
-        title: title.to_string(),
-        document: title.to_string(),
-        width_mm: W,
-        height_mm: H,
-        unit: PageUnit::Millimetres,
-        data: Vec::new(),
-        children: vec![
-            Rect::filled("#fff", 0.0, 0.0, W, H).into(),
-            Text::new(
-                12.0,
-                14.0,
-                4.0,
-                "b",
-                format!("Bar-to-bar readings: {title}"),
-            )
-            .into(),
-            g.into(),
-            side.into(),
-        ],
-    }
+    side
 }

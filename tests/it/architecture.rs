@@ -10,7 +10,7 @@
 
 use armsheet::STAGES;
 
-use crate::support::source::{CratePath, SRC, crate_paths, rust_files};
+use crate::support::source::{self, CratePath, SRC, crate_paths, rust_files};
 
 fn all_sources() -> Vec<(String, String)> {
     rust_files(SRC)
@@ -318,5 +318,50 @@ fn the_feature_guard_sees_a_planted_violation() {
             "pub use crate::features::rewind::rewind;"
         )
         .is_empty()
+    );
+}
+
+/// The most lines a function may take, from its `fn` line to its closing brace.
+const MAX_FN_LINES: usize = 120;
+
+/// Every function in `src/` longer than [`MAX_FN_LINES`], as `src/file:line: name (n lines)`.
+fn long_functions(files: &[(String, String)]) -> Vec<String> {
+    files
+        .iter()
+        .flat_map(|(rel, text)| {
+            source::fn_lengths(rel, text)
+                .into_iter()
+                .filter(|f| f.lines > MAX_FN_LINES)
+                .map(move |f| format!("src/{rel}:{}: {} ({} lines)", f.line, f.name, f.lines))
+        })
+        .collect()
+}
+
+/// Short functions: none in `src/` over 120 lines; a long one is split along its own comments.
+#[test]
+fn no_function_is_over_120_lines() {
+    let long = long_functions(&source::rust_files(source::SRC));
+    assert!(
+        long.is_empty(),
+        "functions over {MAX_FN_LINES} lines:\n{}",
+        long.join("\n")
+    );
+}
+
+#[test]
+fn the_length_guard_sees_a_long_method_and_passes_a_short_one() {
+    let body = "    let x = 1;\n".repeat(MAX_FN_LINES);
+    let long = format!("//! doc\nstruct S;\nimpl S {{\n    fn long(&self) {{\n{body}    }}\n}}\n");
+    let short = "//! doc\nfn short() {\n    let x = 1;\n}\n".to_string();
+    let files = vec![
+        ("planted/long.rs".to_string(), long),
+        ("planted/short.rs".to_string(), short),
+    ];
+    assert_eq!(
+        long_functions(&files),
+        vec![format!(
+            "src/planted/long.rs:4: long ({} lines)",
+            MAX_FN_LINES + 2
+        )]
     );
 }

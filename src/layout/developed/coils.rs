@@ -120,6 +120,28 @@ pub(super) fn coil_drawing(
         tag: None,
         element: winding.is_multi_element().then(|| conn.element.as_str()),
     };
+    place_sides(&mut d, conn, geo, (xt, xb));
+    place_back(&mut d, conn, winding, geo, bands, (xt, xb), lean);
+    place_leads(&mut d, conn, winding, geo, bands, (xt, xb));
+
+    // A window shows the coils lying wholly in it (both sides and both leads in view, no line
+    // cut; `whole_coils`), or else those whose top side lies in it, each whole or cut at an
+    // edge.
+    let anything = if geo.whole {
+        d.top.is_some()
+            || d.bottom.is_some()
+            || !d.back.is_empty()
+            || !d.start_lead.is_empty()
+            || !d.end_lead.is_empty()
+    } else {
+        d.top.is_some() && (!whole_coils || (d.bottom.is_some() && d.cuts.is_empty()))
+    };
+    anything.then_some(d)
+}
+
+/// The coil's top and bottom sides, where they lie inside the strip (a whole view also
+/// looks one turn back for the bottom side).
+fn place_sides(d: &mut CoilDrawing, conn: &Connection, geo: &Geo, (xt, xb): (f64, f64)) {
     for x in [xt, xt - geo.turn] {
         if geo.inside(x) {
             d.top = Some(SideLine {
@@ -143,7 +165,20 @@ pub(super) fn coil_drawing(
             });
         }
     }
-    let (ct, cb) = bands.core;
+}
+
+/// The coil's back connection and the spot for its path tag.
+fn place_back(
+    d: &mut CoilDrawing,
+    conn: &Connection,
+    winding: &Winding,
+    geo: &Geo,
+    bands: &Bands,
+    (xt, xb): (f64, f64),
+    lean: f64,
+) {
+    let (ct, _) = bands.core;
+    let coil = conn.coil;
     // The back apex, leant off the coil's centre by `lean` mm (the same for every coil).
     let xm = (xt + xb) / 2.0 + lean;
     // A frog-leg's wave coils are told from its lap coils by the back end: square-shouldered
@@ -175,7 +210,20 @@ pub(super) fn coil_drawing(
         &edge_label(coil, Goes::Slot(conn.bottom.slot)),
         &mut d.cuts,
     );
+}
 
+/// The coil's start and end leads, from its sides down to their bars (a dummy's: a short
+/// cut stub).
+fn place_leads(
+    d: &mut CoilDrawing,
+    conn: &Connection,
+    winding: &Winding,
+    geo: &Geo,
+    bands: &Bands,
+    (xt, xb): (f64, f64),
+) {
+    let cb = bands.core.1;
+    let coil = conn.coil;
     let lead = |x_side: f64, seg: Option<u32>| -> Vec<Point> {
         match seg {
             Some(s) => {
@@ -202,20 +250,6 @@ pub(super) fn coil_drawing(
     let end = lead(xb, conn.end_segment);
     let label = edge_label(coil, goes(conn.end_segment));
     d.end_lead = add_pieces(geo, &end, &label, &mut d.cuts);
-
-    // A window shows the coils lying wholly in it (both sides and both leads in view, no line
-    // cut; `whole_coils`), or else those whose top side lies in it, each whole or cut at an
-    // edge.
-    let anything = if geo.whole {
-        d.top.is_some()
-            || d.bottom.is_some()
-            || !d.back.is_empty()
-            || !d.start_lead.is_empty()
-            || !d.end_lead.is_empty()
-    } else {
-        d.top.is_some() && (!whole_coils || (d.bottom.is_some() && d.cuts.is_empty()))
-    };
-    anything.then_some(d)
 }
 
 pub(super) fn add_pieces(

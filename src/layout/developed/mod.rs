@@ -488,57 +488,11 @@ fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutte
         })
         .collect();
 
-    let half_arc = design.pole_arc * 180.0 / f64::from(design.poles);
-    let poles = winding
-        .pole_axes_deg
-        .iter()
-        .enumerate()
-        .filter_map(|(k, &axis)| {
-            let x = geo.x(axis);
-            let pieces = geo.interval(x - half_arc * scale, x + half_arc * scale);
-            (!pieces.is_empty()).then(|| PoleBand {
-                index: k as u32 + 1,
-                north: k % 2 == 0,
-                pieces,
-                axis_x: geo.inside(x).then_some(x),
-            })
-        })
-        .collect();
+    let poles = pole_bands(design, winding, &geo);
 
     thin_tags(&mut coils, label_size, 0.6);
-    let seg_w = segment_pitch * 0.84;
-    let segments = (1..=winding.active_coils)
-        .filter_map(|seg| {
-            let x = geo.x(winding.segment_deg(seg));
-            if !geo.whole && !geo.inside(x) {
-                return None;
-            }
-            let pieces = geo.interval(x - seg_w / 2.0, x + seg_w / 2.0);
-            Some(SegmentBox {
-                segment: seg,
-                label_x: label_spot(&pieces, x),
-                pieces,
-            })
-        })
-        .collect();
-
-    let brushes = winding
-        .brushes
-        .iter()
-        .filter_map(|b| {
-            let deg = winding.segment1_deg + (b.centre_segment - 1.0) * seg_deg;
-            let x = geo.x(deg);
-            let half = (b.width_segments * segment_pitch * 0.5).max(0.9);
-            let pieces = geo.interval(x - half, x + half);
-            (!pieces.is_empty()).then(|| BrushBox {
-                index: b.index,
-                polarity: b.polarity,
-                label_x: label_spot(&pieces, x),
-                pieces,
-                under: b.under.clone(),
-            })
-        })
-        .collect();
+    let segments = segment_boxes(winding, &geo, segment_pitch);
+    let brushes = brush_boxes(winding, &geo, segment_pitch);
 
     let equalizers = equalizer_band(winding, &geo, &bands);
 
@@ -561,4 +515,66 @@ fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutte
         label_size,
         drawn,
     }
+}
+
+/// The pole shoes that show in the strip, each by its arc on the surface.
+fn pole_bands(design: &Design, winding: &Winding, geo: &Geo) -> Vec<PoleBand> {
+    let scale = geo.scale;
+    let half_arc = design.pole_arc * 180.0 / f64::from(design.poles);
+    winding
+        .pole_axes_deg
+        .iter()
+        .enumerate()
+        .filter_map(|(k, &axis)| {
+            let x = geo.x(axis);
+            let pieces = geo.interval(x - half_arc * scale, x + half_arc * scale);
+            (!pieces.is_empty()).then(|| PoleBand {
+                index: k as u32 + 1,
+                north: k % 2 == 0,
+                pieces,
+                axis_x: geo.inside(x).then_some(x),
+            })
+        })
+        .collect()
+}
+
+/// The segments inside the strip (a whole view: every one), each a box of 0.84 of its pitch.
+fn segment_boxes(winding: &Winding, geo: &Geo, segment_pitch: f64) -> Vec<SegmentBox> {
+    let seg_w = segment_pitch * 0.84;
+    (1..=winding.active_coils)
+        .filter_map(|seg| {
+            let x = geo.x(winding.segment_deg(seg));
+            if !geo.whole && !geo.inside(x) {
+                return None;
+            }
+            let pieces = geo.interval(x - seg_w / 2.0, x + seg_w / 2.0);
+            Some(SegmentBox {
+                segment: seg,
+                label_x: label_spot(&pieces, x),
+                pieces,
+            })
+        })
+        .collect()
+}
+
+/// The brush sets inside the strip, each at its real width (at least 1.8 mm).
+fn brush_boxes(winding: &Winding, geo: &Geo, segment_pitch: f64) -> Vec<BrushBox> {
+    let seg_deg = 360.0 / f64::from(winding.active_coils);
+    winding
+        .brushes
+        .iter()
+        .filter_map(|b| {
+            let deg = winding.segment1_deg + (b.centre_segment - 1.0) * seg_deg;
+            let x = geo.x(deg);
+            let half = (b.width_segments * segment_pitch * 0.5).max(0.9);
+            let pieces = geo.interval(x - half, x + half);
+            (!pieces.is_empty()).then(|| BrushBox {
+                index: b.index,
+                polarity: b.polarity,
+                label_x: label_spot(&pieces, x),
+                pieces,
+                under: b.under.clone(),
+            })
+        })
+        .collect()
 }

@@ -10,7 +10,7 @@ use crate::layout::style::{TEXT_FLOOR, colour_class, dash_class};
 use crate::layout::tree::{Circle, Group, Line, Node, Path, PathOp, Rect, Text};
 use crate::winding::Polarity;
 
-use super::{Diagram, EqualizerBand};
+use super::{CoilDrawing, Diagram, EqualizerBand};
 
 /// The size at most `max` mm at which the header's two texts, with four spaces between
 /// them, fill the strip.
@@ -66,19 +66,36 @@ fn join(v: &[u32]) -> String {
 pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
     let mut g = Group::id("diagram");
     g.translate = Some((x, y));
-    let (x0, x1) = d.strip;
-    let b = &d.bands;
-    let ls = d.label_size;
+    header(d, &mut g);
+    g.push(poles_group(d));
+    g.push(slots_group(d));
+    g.push(coils_group(d));
+    g.push(slot_numbers_group(d));
+    g.push(commutator_group(d));
+    // Equalizers (drawn before the brushes so the brushes sit on top of the taps).
+    if let Some(eg) = equalizers_group(d) {
+        g.push(eg);
+    }
+    g.push(brushes_group(d));
+    band_names(d, &mut g);
+    g
+}
 
-    // Header: rotation and what is shown. Slots are numbered clockwise seen from the
-    // commutator end and rise to the right here (the surface seen from outside, commutator
-    // at the bottom), so a clockwise rotor carries the surface towards rising slot numbers.
+/// The header's first text: the way the armature surface moves. Slots are numbered
+/// clockwise seen from the commutator end and rise to the right here (the surface seen from
+/// outside, commutator at the bottom), so a clockwise rotor carries the surface towards
+/// rising slot numbers.
+fn header_head(d: &Diagram) -> String {
     let (arrow, words) = match d.rotation {
         Rotation::Clockwise => ("\u{2192}", "clockwise"),
         Rotation::CounterClockwise => ("\u{2190}", "counter-clockwise"),
     };
-    let head =
-        format!("armature surface moves {arrow}  (rotation {words}, seen from the commutator end)");
+    format!("armature surface moves {arrow}  (rotation {words}, seen from the commutator end)")
+}
+
+/// The header's second text: what is shown, whether the pattern repeats, which coils are
+/// drawn.
+fn header_note(d: &Diagram) -> String {
     let v = &d.view;
     let mut note = if v.whole {
         "whole armature shown".to_string()
@@ -122,8 +139,17 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
             v.first_slot
         )),
     }
-    // One line when both fit at the floor, else the window note on a second line, wrapped
-    // no further than the strip (it is kept short enough to fit at the floor).
+    note
+}
+
+/// Header: rotation and what is shown. One line when both fit at the floor, else the window
+/// note on a second line, wrapped no further than the strip (it is kept short enough to fit
+/// at the floor).
+fn header(d: &Diagram, g: &mut Group) {
+    let (x0, x1) = d.strip;
+    let b = &d.bands;
+    let head = header_head(d);
+    let note = header_note(d);
     let hs = header_size(&head, &note, x1 - x0, 2.8);
     if hs >= TEXT_FLOOR {
         g.push(Text::new(x0, b.header, hs, "", head));
@@ -133,8 +159,11 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
         g.push(Text::new(x0, b.header, s, "", head));
         g.push(text_cut(x0, b.header2, s, x1 - x0, "b", &note));
     }
+}
 
-    // Poles: shoes in their own row and a light shade over the slots.
+/// Poles: shoes in their own row and a light shade over the slots.
+fn poles_group(d: &Diagram) -> Group {
+    let b = &d.bands;
     let mut poles = Group::id("poles");
     for p in &d.poles {
         let (cls, shade) = if p.north {
@@ -161,21 +190,15 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
         }
         poles.push(pg);
     }
-    g.push(poles);
+    poles
+}
 
-    // Slots and their numbers.
+/// Slots: the core and a box for each slot.
+fn slots_group(d: &Diagram) -> Group {
+    let (x0, x1) = d.strip;
+    let b = &d.bands;
     let mut slots = Group::id("slots");
     slots.push(rect("core", x0, b.core.0, x1 - x0, b.core.1 - b.core.0));
-    // Slot numbers of up to three digits at about 0.6 em a digit.
-    // Slot numbers at the floor; where the pitch is narrower than the widest number, every
-    // k-th slot is numbered (slot 1 of the view always).
-    let slot_font = TEXT_FLOOR;
-    let widest = d
-        .slots
-        .iter()
-        .map(|&(s, _)| text_width(&s.to_string(), slot_font, Weight::Bold))
-        .fold(0.0, f64::max);
-    let slot_step = ((widest + 0.8) / d.slot_pitch).ceil().max(1.0) as usize;
     for &(_, sx) in &d.slots {
         slots.push(rect(
             "slot",
@@ -185,128 +208,170 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
             b.core.1 - b.core.0,
         ));
     }
-    g.push(slots);
+    slots
+}
 
-    // Coils.
+/// Coils, one group each.
+fn coils_group(d: &Diagram) -> Group {
     let mut coils = Group::id("coils");
+    for c in &d.coils {
+        coils.push(coil_group(d, c));
+    }
+    coils
+}
+
+/// One coil: its back connection, its leads, its sides with their current arrows, its tag
+/// and its edge cuts.
+fn coil_group(d: &Diagram, c: &CoilDrawing) -> Group {
+    let k = colour_class(c.path);
+    let cls = if c.dummy {
+        "coil dead".to_string()
+    } else {
+        format!("coil k{k} d{}", dash_class(c.path))
+    };
+    let mut cg = Group::id(format!("coil-{}", c.coil))
+        .with_class(cls)
+        .with_data("data-coil", c.coil);
+    if let (Some(s), Some(e)) = (c.start_segment, c.end_segment) {
+        cg = cg
+            .with_data("data-start-seg", s)
+            .with_data("data-end-seg", e);
+    }
+    cg = cg.with_data("data-path", c.path);
+    if let Some(e) = c.element {
+        cg = cg.with_data("data-element", e);
+    }
+    if c.dummy {
+        cg = cg.with_data("data-dummy", "true");
+    }
+    for piece in &c.back {
+        let mut p = Path::polyline("conn", piece);
+        p.data.push(("data-part", "back".into()));
+        cg.push(p);
+    }
+    coil_leads(c, &mut cg);
+    coil_sides(d, c, k, &mut cg);
+    coil_tag(d, c, k, &mut cg);
+    coil_cuts(c, &mut cg);
+    cg
+}
+
+/// A coil's start and end leads; a dummy's are stubs, a cross at each cut end.
+fn coil_leads(c: &CoilDrawing, cg: &mut Group) {
+    for (pieces, part) in [(&c.start_lead, "start"), (&c.end_lead, "end")] {
+        for piece in pieces {
+            let cls = if c.dummy { "stub" } else { "conn" };
+            let mut p = Path::polyline(cls, piece);
+            p.data.push(("data-part", part.into()));
+            cg.push(p);
+            if c.dummy
+                && let Some(&(px, py)) = piece.last()
+            {
+                // The cut end of a dummy's lead: a cross.
+                let r = 0.8;
+                let mut mark = Path::polyline("mark", &[]);
+                mark.ops = vec![
+                    PathOp::Move(px - r, py - r),
+                    PathOp::Line(px + r, py + r),
+                    PathOp::Move(px - r, py + r),
+                    PathOp::Line(px + r, py - r),
+                ];
+                cg.push(mark);
+            }
+        }
+    }
+}
+
+/// A coil's sides in the slots, each with an arrow for the sense of its current.
+fn coil_sides(d: &Diagram, c: &CoilDrawing, k: usize, cg: &mut Group) {
+    let b = &d.bands;
     let arrow_h = (d.slot_pitch * 0.16).clamp(0.6, 1.4);
     let ymid = (b.core.0 + b.core.1) / 2.0 + 1.0;
-    for c in &d.coils {
-        let k = colour_class(c.path);
-        let cls = if c.dummy {
-            "coil dead".to_string()
-        } else {
-            format!("coil k{k} d{}", dash_class(c.path))
-        };
-        let mut cg = Group::id(format!("coil-{}", c.coil))
-            .with_class(cls)
-            .with_data("data-coil", c.coil);
-        if let (Some(s), Some(e)) = (c.start_segment, c.end_segment) {
-            cg = cg
-                .with_data("data-start-seg", s)
-                .with_data("data-end-seg", e);
-        }
-        cg = cg.with_data("data-path", c.path);
-        if let Some(e) = c.element {
-            cg = cg.with_data("data-element", e);
-        }
-        if c.dummy {
-            cg = cg.with_data("data-dummy", "true");
-        }
-        for piece in &c.back {
-            let mut p = Path::polyline("conn", piece);
-            p.data.push(("data-part", "back".into()));
-            cg.push(p);
-        }
-        for (pieces, part) in [(&c.start_lead, "start"), (&c.end_lead, "end")] {
-            for piece in pieces {
-                let cls = if c.dummy { "stub" } else { "conn" };
-                let mut p = Path::polyline(cls, piece);
-                p.data.push(("data-part", part.into()));
-                cg.push(p);
-                if c.dummy
-                    && let Some(&(px, py)) = piece.last()
-                {
-                    // The cut end of a dummy's lead: a cross.
-                    let r = 0.8;
-                    let mut mark = Path::polyline("mark", &[]);
-                    mark.ops = vec![
-                        PathOp::Move(px - r, py - r),
-                        PathOp::Line(px + r, py + r),
-                        PathOp::Move(px - r, py + r),
-                        PathOp::Line(px + r, py - r),
-                    ];
-                    cg.push(mark);
-                }
-            }
-        }
-        for (side, cls, sense) in [(&c.top, "side-top", 1i8), (&c.bottom, "side-bot", -1i8)] {
-            let Some(s) = side else { continue };
-            let mut line = Line::new(cls, (s.x, b.core.0), (s.x, b.core.1));
-            line.data.push(("data-slot", s.slot.to_string()));
-            line.data.push(("data-pos", s.position.to_string()));
-            cg.push(line);
-            // Current: +1 runs up the top side (away from the commutator) and down the bottom.
-            let dir = i32::from(c.current) * i32::from(sense);
-            if dir != 0 && !c.dummy {
-                let (hx, hy) = (arrow_h * 0.75, arrow_h * f64::from(dir));
-                cg.push(Path::triangle(
-                    Some(&format!("arrow-head f{k}")),
-                    [
-                        (s.x, ymid - hy),
-                        (s.x - hx, ymid + hy),
-                        (s.x + hx, ymid + hy),
-                    ],
-                ));
-            }
-        }
-        if let Some((tx, ty)) = c.tag {
-            let text = super::tag_text(c);
-            let cls = if c.dummy || c.path == 0 {
-                "mid halo b".to_string()
-            } else {
-                format!("mid halo b f{k}")
-            };
-            // A tag that would reach the strip's edge gives way to the edge labels there.
-            let half = text_width(&text, ls, Weight::Bold) / 2.0 + 0.4;
-            if tx - half >= x0 && tx + half <= x1 {
-                cg.push(Text::new(tx, ty, ls, &cls, text));
-            }
-        }
-        for cut in &c.cuts {
-            // Dot at the edge, a leader out into the gutter, the label at the leader's end.
-            let side = if cut.right { 1.0 } else { -1.0 };
-            let (ex, ey) = cut.at;
-            let mid = cut.label_y - 0.9;
-            let leader = [
-                (ex, ey),
-                (ex + side * 0.9, ey),
-                (ex + side * (super::LEADER - 0.9), mid),
-                (ex + side * (super::LEADER - 0.3), mid),
-            ];
-            cg.push(Path::polyline("leader", &leader));
-            cg.push(Circle::new("cutdot", ex, ey, CUT_DOT_R));
-            if cut.label.is_empty() {
-                continue;
-            }
-            let cls = if cut.right {
-                "cut-label"
-            } else {
-                "cut-label end"
-            };
-            cg.push(Text::new(
-                ex + side * super::LEADER,
-                cut.label_y,
-                TEXT_FLOOR,
-                cls,
-                cut.label.clone(),
+    for (side, cls, sense) in [(&c.top, "side-top", 1i8), (&c.bottom, "side-bot", -1i8)] {
+        let Some(s) = side else { continue };
+        let mut line = Line::new(cls, (s.x, b.core.0), (s.x, b.core.1));
+        line.data.push(("data-slot", s.slot.to_string()));
+        line.data.push(("data-pos", s.position.to_string()));
+        cg.push(line);
+        // Current: +1 runs up the top side (away from the commutator) and down the bottom.
+        let dir = i32::from(c.current) * i32::from(sense);
+        if dir != 0 && !c.dummy {
+            let (hx, hy) = (arrow_h * 0.75, arrow_h * f64::from(dir));
+            cg.push(Path::triangle(
+                Some(&format!("arrow-head f{k}")),
+                [
+                    (s.x, ymid - hy),
+                    (s.x - hx, ymid + hy),
+                    (s.x + hx, ymid + hy),
+                ],
             ));
         }
-        coils.push(cg);
     }
-    g.push(coils);
+}
 
-    // Slot numbers, on top of the coil sides.
+/// A coil's tag, unless it would reach the strip's edge: there it gives way to the edge
+/// labels.
+fn coil_tag(d: &Diagram, c: &CoilDrawing, k: usize, cg: &mut Group) {
+    let (x0, x1) = d.strip;
+    let ls = d.label_size;
+    if let Some((tx, ty)) = c.tag {
+        let text = super::tag_text(c);
+        let cls = if c.dummy || c.path == 0 {
+            "mid halo b".to_string()
+        } else {
+            format!("mid halo b f{k}")
+        };
+        let half = text_width(&text, ls, Weight::Bold) / 2.0 + 0.4;
+        if tx - half >= x0 && tx + half <= x1 {
+            cg.push(Text::new(tx, ty, ls, &cls, text));
+        }
+    }
+}
+
+/// A coil's cuts at the strip's edges: dot at the edge, a leader out into the gutter, the
+/// label at the leader's end.
+fn coil_cuts(c: &CoilDrawing, cg: &mut Group) {
+    for cut in &c.cuts {
+        let side = if cut.right { 1.0 } else { -1.0 };
+        let (ex, ey) = cut.at;
+        let mid = cut.label_y - 0.9;
+        let leader = [
+            (ex, ey),
+            (ex + side * 0.9, ey),
+            (ex + side * (super::LEADER - 0.9), mid),
+            (ex + side * (super::LEADER - 0.3), mid),
+        ];
+        cg.push(Path::polyline("leader", &leader));
+        cg.push(Circle::new("cutdot", ex, ey, CUT_DOT_R));
+        if cut.label.is_empty() {
+            continue;
+        }
+        let cls = if cut.right {
+            "cut-label"
+        } else {
+            "cut-label end"
+        };
+        cg.push(Text::new(
+            ex + side * super::LEADER,
+            cut.label_y,
+            TEXT_FLOOR,
+            cls,
+            cut.label.clone(),
+        ));
+    }
+}
+
+/// Slot numbers, on top of the coil sides, at the floor. Where the pitch is narrower than
+/// the widest number, every k-th slot is numbered (slot 1 of the view always).
+fn slot_numbers_group(d: &Diagram) -> Group {
+    let b = &d.bands;
+    let slot_font = TEXT_FLOOR;
+    let widest = d
+        .slots
+        .iter()
+        .map(|&(s, _)| text_width(&s.to_string(), slot_font, Weight::Bold))
+        .fold(0.0, f64::max);
+    let slot_step = ((widest + 0.8) / d.slot_pitch).ceil().max(1.0) as usize;
     let mut numbers = Group::id("slot-numbers");
     for &(slot, sx) in d.slots.iter().step_by(slot_step) {
         numbers.push(
@@ -314,11 +379,13 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
                 .with_data("data-slot", slot),
         );
     }
-    g.push(numbers);
+    numbers
+}
 
-    // Commutator.
+/// Commutator: a box and a number for each segment.
+fn commutator_group(d: &Diagram) -> Group {
     let mut comm = Group::id("commutator");
-    let (ct, cb) = b.commutator;
+    let (ct, cb) = d.bands.commutator;
     let seg_font = TEXT_FLOOR;
     for s in &d.segments {
         let mut sg = Group::id(format!("seg-{}", s.segment))
@@ -342,11 +409,17 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
         }
         comm.push(sg);
     }
-    g.push(comm);
+    comm
+}
 
-    // Equalizers (drawn before the brushes so the brushes sit on top of the taps).
+/// Equalizers: rings drawn across the strip, or taps only with their numbers; none when
+/// the winding has none.
+fn equalizers_group(d: &Diagram) -> Option<Group> {
+    let (x0, x1) = d.strip;
+    let b = &d.bands;
+    let cb = b.commutator.1;
     match &d.equalizers {
-        EqualizerBand::None => {}
+        EqualizerBand::None => None,
         EqualizerBand::Rings(rings) => {
             let mut eg = Group::id("equalizers");
             for e in rings {
@@ -368,7 +441,7 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
                 ));
                 eg.push(rg);
             }
-            g.push(eg);
+            Some(eg)
         }
         EqualizerBand::Taps(taps) => {
             let mut eg = Group::id("equalizers");
@@ -389,13 +462,15 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
                 }
                 eg.push(rg);
             }
-            g.push(eg);
+            Some(eg)
         }
     }
+}
 
-    // Brushes.
+/// Brushes: a box for each piece of a brush set, its sign, and its name.
+fn brushes_group(d: &Diagram) -> Group {
     let mut brushes = Group::id("brushes");
-    let (bt, bb) = b.brush;
+    let (bt, bb) = d.bands.brush;
     for br in &d.brushes {
         let (cls, sign) = match br.polarity {
             Polarity::Positive => ("brushbox brush-pos", "+"),
@@ -432,9 +507,12 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
         }
         brushes.push(bg);
     }
-    g.push(brushes);
+    brushes
+}
 
-    // Band names in the left gutter.
+/// Band names in the left gutter.
+fn band_names(d: &Diagram, g: &mut Group) {
+    let b = &d.bands;
     for (yy, name) in [
         ((b.back_apex + b.core.0) / 2.0, "back"),
         ((b.core.1 + b.commutator.0) / 2.0, "front"),
@@ -443,5 +521,4 @@ pub fn diagram_group(d: &Diagram, x: f64, y: f64) -> Group {
         t.fill = Some("#666");
         g.push(t);
     }
-    g
 }

@@ -96,57 +96,11 @@ pub fn sheet_pages(checked: &Checked, test: &ArmatureTest, options: &SheetOption
             .map_or_else(Vec::new, rows::rating_sheet_rows),
     };
     let frame = page_frame(options.paper, !input.failures.is_empty());
-    let area = table::table_area(&frame);
-    let mut contents = vec![Content::Diagram];
-    let sheet1 = diagram_sheet(&frame);
-    let data_on_own_sheet = data::rows_held(&input, &sheet1.data) < data::data_rows(&input).len();
-    contents.push(Content::CommutatorEnd);
-    let drop = order::first_page_drop(&input, &area);
-    let order_first = Rect {
-        y: area.y + drop,
-        h: area.h - drop,
-        ..area
-    };
-    for p in paginate_rows(
-        input.winding.connections.len(),
-        order::order_width(),
-        &order_first,
-        &area,
-        order::ORDER_ROW,
-    ) {
-        contents.push(Content::WindingOrder(p));
-    }
-    let conn_w = table::connection_width(&input);
-    for p in paginate(input.winding.connections.len(), conn_w, &area) {
-        contents.push(Content::Connections(p));
-    }
-    let groups = match &input.winding.equalizers {
-        EqualizerPlan::Possible(e) => e.groups.len(),
-        _ => 0,
-    };
-    if groups > 0 {
-        let eq_w = table::equalizer_width(input.design.pole_pairs(), area.w);
-        for p in paginate(groups, eq_w, &area) {
-            contents.push(Content::Equalizers(p));
-        }
-    }
-    let (tests_first, tests_rest) = test_sheet::readings_areas(&frame);
-    for (k, p) in paginate_rows(
-        test_sheet::reading_count(&input),
-        test_sheet::readings_width(),
-        &tests_first,
-        &tests_rest,
-        TABLE_ROW,
-    )
-    .into_iter()
-    .enumerate()
-    {
-        contents.push(Content::Tests(p, k == 0));
-    }
-    // The winding data in full closes the set; sheet 1 names the sheet it is on.
-    if data_on_own_sheet {
-        contents.push(Content::WindingData);
-    }
+    let contents = sheet_contents(&input, &frame);
+    // The winding data in full closes the set when sheet 1 cannot hold it; sheet 1 names
+    // the sheet it is on.
+    let data_on_own_sheet = matches!(contents.last(), Some(Content::WindingData));
+    let groups = equalizer_groups(&input);
     let data_sheet = contents.len();
     let total = contents.len();
     let seq = rows::sequence_labels(input.winding);
@@ -204,6 +158,70 @@ pub fn sheet_pages(checked: &Checked, test: &ArmatureTest, options: &SheetOption
             page
         })
         .collect()
+}
+
+/// The number of equalizer groups the equalizer table lists (none when the winding takes
+/// no equalizers).
+fn equalizer_groups(input: &Input<'_>) -> usize {
+    match &input.winding.equalizers {
+        EqualizerPlan::Possible(e) => e.groups.len(),
+        _ => 0,
+    }
+}
+
+/// What each sheet holds, in order: the diagram, the commutator end view, the winding
+/// order, the connection and equalizer tables, the tests, and the winding data in full
+/// when sheet 1 cannot hold it.
+fn sheet_contents(input: &Input<'_>, frame: &PageFrame) -> Vec<Content> {
+    let area = table::table_area(frame);
+    let mut contents = vec![Content::Diagram];
+    let sheet1 = diagram_sheet(frame);
+    let data_on_own_sheet = data::rows_held(input, &sheet1.data) < data::data_rows(input).len();
+    contents.push(Content::CommutatorEnd);
+    let drop = order::first_page_drop(input, &area);
+    let order_first = Rect {
+        y: area.y + drop,
+        h: area.h - drop,
+        ..area
+    };
+    for p in paginate_rows(
+        input.winding.connections.len(),
+        order::order_width(),
+        &order_first,
+        &area,
+        order::ORDER_ROW,
+    ) {
+        contents.push(Content::WindingOrder(p));
+    }
+    let conn_w = table::connection_width(input);
+    for p in paginate(input.winding.connections.len(), conn_w, &area) {
+        contents.push(Content::Connections(p));
+    }
+    let groups = equalizer_groups(input);
+    if groups > 0 {
+        let eq_w = table::equalizer_width(input.design.pole_pairs(), area.w);
+        for p in paginate(groups, eq_w, &area) {
+            contents.push(Content::Equalizers(p));
+        }
+    }
+    let (tests_first, tests_rest) = test_sheet::readings_areas(frame);
+    for (k, p) in paginate_rows(
+        test_sheet::reading_count(input),
+        test_sheet::readings_width(),
+        &tests_first,
+        &tests_rest,
+        TABLE_ROW,
+    )
+    .into_iter()
+    .enumerate()
+    {
+        contents.push(Content::Tests(p, k == 0));
+    }
+    // The winding data in full closes the set; sheet 1 names the sheet it is on.
+    if data_on_own_sheet {
+        contents.push(Content::WindingData);
+    }
+    contents
 }
 
 /// An empty sheet: white paper and the drawing frame.

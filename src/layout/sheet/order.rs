@@ -127,121 +127,167 @@ pub(super) fn order_page(
         ),
     ));
     if page.rows.start == 0 {
-        let area = super::table::table_area(frame);
-        let lines = wrap_text(
-            &order_words(input),
-            TEXT_FLOOR,
-            Weight::Regular,
-            area.w - 4.0,
-        );
-        for (i, l) in lines.into_iter().enumerate() {
-            out.push(
-                Text::new(
-                    area.x,
-                    area.y + (i as f64 + 0.8) * TEXT_FLOOR * 1.3,
-                    TEXT_FLOOR,
-                    "",
-                    l,
-                )
-                .into(),
-            );
-        }
+        first_page_words(out, input, frame);
     }
-    let u = input.design.coils_per_slot;
-    let place = |slot: u32, pos: u32| {
-        if u == 1 {
-            slot.to_string()
-        } else {
-            format!("{slot}/{pos}")
-        }
-    };
-    let wires: Vec<String> = input
-        .winding
-        .elements
-        .iter()
-        .map(|e| turns_and_wire(input, e.turns))
-        .collect();
-    let lift = lifted(input);
-    let multi = input.winding.is_multi_element();
-    let cols = columns(multi);
-    let text_columns = TEXT_COLUMNS + usize::from(multi);
+    let order = Order::new(input);
     let mut g = Group::id(format!("order-{}", page.rows.start + 1)).with_class("winding-order");
     for (gx, rows) in &page.groups {
         let total = order_width();
-        let mut cx = *gx;
-        for &(head, width) in &cols {
-            let hx = cx + width - 1.5;
-            g.push(Text::new(hx, page.top + 3.6, 3.0, "b end", head[0]));
-            if !head[1].is_empty() {
-                g.push(Text::new(hx, page.top + 7.3, 3.0, "b end", head[1]));
-            }
-            cx += width;
-        }
-        g.push(hline(
-            *gx,
-            *gx + total,
-            page.top + TABLE_HEADER - 0.3,
-            "rule",
-        ));
+        order_heads(&mut g, &order.cols, *gx, page);
         for (i, r) in rows.clone().enumerate() {
-            let conn = &conns[r];
             let y = page.top + TABLE_HEADER + (i as f64 + 1.0) * page.row - 1.4;
-            let bar = |s: Option<u32>| s.map_or_else(|| "cut".to_string(), |s| s.to_string());
-            let element = input
-                .winding
-                .elements
-                .iter()
-                .position(|e| e.holds(conn.coil))
-                .unwrap_or(0);
-            let wire = &wires[element];
-            let note = if conn.dummy {
-                "dummy: ends cut and taped".to_string()
-            } else if r < lift {
-                format!("{wire}; top lifted")
-            } else {
-                wire.clone()
-            };
-            let mut cells = vec![
-                (r + 1).to_string(),
-                conn.coil.to_string(),
-                place(conn.top.slot, conn.top.position),
-                place(conn.bottom.slot, conn.bottom.position),
-                bar(conn.start_segment),
-                bar(conn.end_segment),
-                note,
-            ];
-            if multi {
-                cells.insert(2, conn.element.as_str().to_string());
-            }
-            let mut row = Group::class("order-row")
-                .with_data("data-step", r + 1)
-                .with_data("data-coil", conn.coil);
-            let mut cx = *gx;
-            for (j, (head, width)) in cols.iter().enumerate() {
-                if j < text_columns {
-                    let (x, cls) = if j == text_columns - 1 {
-                        (cx + 2.0, "")
-                    } else {
-                        (cx + width - 1.5, if j == 1 { "b end" } else { "end" })
-                    };
-                    let (weight, _) = crate::layout::style::text_face(cls);
-                    let text = cut_to_width(&cells[j], BODY_TEXT, weight, width - 3.0);
-                    row.push(Text::new(x, y, BODY_TEXT, cls, text));
-                } else if head[0] != "initials" {
-                    let (bw, bh) = BOX;
-                    row.push(tree::Rect::new(
-                        "checkbox",
-                        cx + (width - bw) / 2.0,
-                        y + 1.4 - (page.row + bh) / 2.0,
-                        bw,
-                        bh,
-                    ));
-                }
-                cx += width;
-            }
-            g.push(row);
+            g.push(order.row(r, *gx, y, page));
             g.push(hline(*gx, *gx + total, y + 1.4, "thin"));
         }
     }
     out.push(g.into());
+}
+
+/// The words above the table on the first page.
+fn first_page_words(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFrame) {
+    let area = super::table::table_area(frame);
+    let lines = wrap_text(
+        &order_words(input),
+        TEXT_FLOOR,
+        Weight::Regular,
+        area.w - 4.0,
+    );
+    for (i, l) in lines.into_iter().enumerate() {
+        out.push(
+            Text::new(
+                area.x,
+                area.y + (i as f64 + 0.8) * TEXT_FLOOR * 1.3,
+                TEXT_FLOOR,
+                "",
+                l,
+            )
+            .into(),
+        );
+    }
+}
+
+/// The column heads of one group of rows at `gx`, and the rule below them.
+fn order_heads(g: &mut Group, cols: &[([&'static str; 2], f64)], gx: f64, page: &TablePage) {
+    let mut cx = gx;
+    for &(head, width) in cols {
+        let hx = cx + width - 1.5;
+        g.push(Text::new(hx, page.top + 3.6, 3.0, "b end", head[0]));
+        if !head[1].is_empty() {
+            g.push(Text::new(hx, page.top + 7.3, 3.0, "b end", head[1]));
+        }
+        cx += width;
+    }
+    g.push(hline(
+        gx,
+        gx + order_width(),
+        page.top + TABLE_HEADER - 0.3,
+        "rule",
+    ));
+}
+
+/// What every row of the winding order reads: the wire of each element, how many steps
+/// are lifted, and the columns.
+struct Order<'a> {
+    input: &'a Input<'a>,
+    wires: Vec<String>,
+    lift: usize,
+    multi: bool,
+    cols: Vec<([&'static str; 2], f64)>,
+    text_columns: usize,
+}
+
+impl<'a> Order<'a> {
+    fn new(input: &'a Input<'a>) -> Order<'a> {
+        let multi = input.winding.is_multi_element();
+        Order {
+            input,
+            wires: input
+                .winding
+                .elements
+                .iter()
+                .map(|e| turns_and_wire(input, e.turns))
+                .collect(),
+            lift: lifted(input),
+            multi,
+            cols: columns(multi),
+            text_columns: TEXT_COLUMNS + usize::from(multi),
+        }
+    }
+
+    /// The text cells of step `r` (0-based).
+    fn cells(&self, r: usize) -> Vec<String> {
+        let input = self.input;
+        let conn = &input.winding.connections[r];
+        let u = input.design.coils_per_slot;
+        let place = |slot: u32, pos: u32| {
+            if u == 1 {
+                slot.to_string()
+            } else {
+                format!("{slot}/{pos}")
+            }
+        };
+        let bar = |s: Option<u32>| s.map_or_else(|| "cut".to_string(), |s| s.to_string());
+        let element = input
+            .winding
+            .elements
+            .iter()
+            .position(|e| e.holds(conn.coil))
+            .unwrap_or(0);
+        let wire = &self.wires[element];
+        let note = if conn.dummy {
+            "dummy: ends cut and taped".to_string()
+        } else if r < self.lift {
+            format!("{wire}; top lifted")
+        } else {
+            wire.clone()
+        };
+        let mut cells = vec![
+            (r + 1).to_string(),
+            conn.coil.to_string(),
+            place(conn.top.slot, conn.top.position),
+            place(conn.bottom.slot, conn.bottom.position),
+            bar(conn.start_segment),
+            bar(conn.end_segment),
+            note,
+        ];
+        if self.multi {
+            cells.insert(2, conn.element.as_str().to_string());
+        }
+        cells
+    }
+
+    /// Step `r` (0-based) as a row at `gx`, baseline `y`: its text cells, then a box to
+    /// tick for each check column.
+    fn row(&self, r: usize, gx: f64, y: f64, page: &TablePage) -> Group {
+        let conn = &self.input.winding.connections[r];
+        let cells = self.cells(r);
+        let text_columns = self.text_columns;
+        let mut row = Group::class("order-row")
+            .with_data("data-step", r + 1)
+            .with_data("data-coil", conn.coil);
+        let mut cx = gx;
+        for (j, (head, width)) in self.cols.iter().enumerate() {
+            if j < text_columns {
+                let (x, cls) = if j == text_columns - 1 {
+                    (cx + 2.0, "")
+                } else {
+                    (cx + width - 1.5, if j == 1 { "b end" } else { "end" })
+                };
+                let (weight, _) = crate::layout::style::text_face(cls);
+                let text = cut_to_width(&cells[j], BODY_TEXT, weight, width - 3.0);
+                row.push(Text::new(x, y, BODY_TEXT, cls, text));
+            } else if head[0] != "initials" {
+                let (bw, bh) = BOX;
+                row.push(tree::Rect::new(
+                    "checkbox",
+                    cx + (width - bw) / 2.0,
+                    y + 1.4 - (page.row + bh) / 2.0,
+                    bw,
+                    bh,
+                ));
+            }
+            cx += width;
+        }
+        row
+    }
 }

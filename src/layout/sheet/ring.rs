@@ -31,13 +31,22 @@ fn label_step(n: u32, width: f64, pitch: f64) -> u32 {
     (((width + 1.2) / pitch).ceil() as u32).clamp(1, n.max(1))
 }
 
+/// The ring's geometry on the page: its centre and radii, mm, and the angle of one bar and
+/// of one slot, degrees.
+struct Ring {
+    centre: (f64, f64),
+    /// Outer radius of the bars.
+    r_bar: f64,
+    /// Radius of the slot circle.
+    r_slot: f64,
+    seg_deg: f64,
+    slot_deg: f64,
+}
+
 /// The commutator end view on the content area of `frame`.
 pub(super) fn ring_page(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFrame) {
     let d = input.design;
-    let w = input.winding;
     let c = &frame.content;
-    let s_count = d.slots;
-    let bars = w.active_coils;
     out.push(page_heading(
         c,
         "Commutator end view: the armature seen from the commutator end",
@@ -47,20 +56,48 @@ pub(super) fn ring_page(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
     let room_w = c.w - words_w - 6.0;
     let room_h = frame.title_block.y - c.y - 12.0;
     let r_max = (room_w.min(room_h) / 2.0 - 15.0).max(20.0);
-    let centre = (c.x + 4.0 + room_w / 2.0, c.y + 10.0 + room_h / 2.0);
     let true_dc = d
         .commutator
         .as_ref()
         .and_then(|k| k.diameter_mm)
         .filter(|dc| dc / 2.0 + 9.0 <= r_max);
-    let r_bar = true_dc.map_or(r_max * 0.62, |dc| dc / 2.0);
-    let r_slot = r_max - 2.0;
+    let ring = Ring {
+        centre: (c.x + 4.0 + room_w / 2.0, c.y + 10.0 + room_h / 2.0),
+        r_bar: true_dc.map_or(r_max * 0.62, |dc| dc / 2.0),
+        r_slot: r_max - 2.0,
+        seg_deg: 360.0 / f64::from(input.winding.active_coils),
+        slot_deg: 360.0 / f64::from(d.slots),
+    };
     let mut g = Group::id("commutator-end");
+    ring_bars(&mut g, input, &ring);
+    ring_slots(&mut g, input, &ring);
+    // Pole axes.
+    for &axis in &input.winding.pole_axes_deg {
+        g.push(Line::new(
+            "pole-edge",
+            at(ring.centre, ring.r_bar - 5.0, axis),
+            at(ring.centre, ring.r_slot - 3.5, axis),
+        ));
+    }
+    ring_slot1_leads(&mut g, input, &ring);
+    ring_brushes(&mut g, input, &ring);
+    out.push(g.into());
+    ring_words(
+        out,
+        input,
+        (c.right() - words_w, c.y + 16.0),
+        words_w,
+        true_dc,
+    );
+}
 
-    // Bars: the ring, a tick at every mica, numbers where they fit.
+/// Bars: the ring, a tick at every mica, numbers where they fit.
+fn ring_bars(g: &mut Group, input: &Input<'_>, ring: &Ring) {
+    let w = input.winding;
+    let bars = w.active_coils;
+    let (centre, r_bar, seg_deg) = (ring.centre, ring.r_bar, ring.seg_deg);
     g.push(Circle::new("core", centre.0, centre.1, r_bar));
     g.push(Circle::new("core", centre.0, centre.1, r_bar - 5.0));
-    let seg_deg = 360.0 / f64::from(bars);
     for s in 1..=bars {
         let mica = w.segment_deg(s) + seg_deg / 2.0;
         g.push(Line::new(
@@ -85,9 +122,12 @@ pub(super) fn ring_page(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
         );
     }
     g.push(bar_numbers);
+}
 
-    // Slots round the core, numbered where they fit.
-    let slot_deg = 360.0 / f64::from(s_count);
+/// Slots round the core, numbered where they fit.
+fn ring_slots(g: &mut Group, input: &Input<'_>, ring: &Ring) {
+    let s_count = input.design.slots;
+    let (centre, r_slot, slot_deg) = (ring.centre, ring.r_slot, ring.slot_deg);
     g.push(Circle::new("core", centre.0, centre.1, r_slot));
     for k in 1..=s_count {
         let a = f64::from(k - 1) * slot_deg;
@@ -112,23 +152,27 @@ pub(super) fn ring_page(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
         );
     }
     g.push(slot_numbers);
+}
 
-    // Pole axes.
-    for &axis in &w.pole_axes_deg {
-        g.push(Line::new(
-            "pole-edge",
-            at(centre, r_bar - 5.0, axis),
-            at(centre, r_slot - 3.5, axis),
-        ));
-    }
+/// The coils of slot 1's coil group (those whose top side lies in slot 1).
+fn slot1_group<'a>(input: &Input<'a>) -> Vec<&'a crate::winding::Connection> {
+    input
+        .winding
+        .connections
+        .iter()
+        .filter(|k| k.top.slot == 1)
+        .collect()
+}
 
-    // Slot 1's coil group: from the slot to the start bar, from the bottom side's slot to
-    // the end bar.
-    let group: Vec<_> = w.connections.iter().filter(|k| k.top.slot == 1).collect();
-    for conn in &group {
+/// Slot 1's coil group: from the slot to the start bar, from the bottom side's slot to the
+/// end bar.
+fn ring_slot1_leads(g: &mut Group, input: &Input<'_>, ring: &Ring) {
+    let w = input.winding;
+    let (centre, r_slot, r_bar) = (ring.centre, ring.r_slot, ring.r_bar);
+    for conn in &slot1_group(input) {
         let k = crate::layout::style::colour_class(w.coil_path[(conn.coil - 1) as usize]).max(1);
-        let top = f64::from(conn.top.slot - 1) * slot_deg;
-        let bottom = f64::from(conn.bottom.slot - 1) * slot_deg;
+        let top = f64::from(conn.top.slot - 1) * ring.slot_deg;
+        let bottom = f64::from(conn.bottom.slot - 1) * ring.slot_deg;
         if let Some(sb) = conn.start_segment {
             g.push(lead(centre, r_slot - 3.0, top, r_bar, w.segment_deg(sb), k));
         }
@@ -143,8 +187,12 @@ pub(super) fn ring_page(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
             ));
         }
     }
+}
 
-    // Brushes at their real width: arcs on the bars' face, named outside the slot ring.
+/// Brushes at their real width: arcs on the bars' face, named outside the slot ring.
+fn ring_brushes(g: &mut Group, input: &Input<'_>, ring: &Ring) {
+    let w = input.winding;
+    let (centre, r_bar, seg_deg) = (ring.centre, ring.r_bar, ring.seg_deg);
     for b in &w.brushes {
         let centre_deg = w.segment1_deg + (b.centre_segment - 1.0) * seg_deg;
         let half = b.width_segments * seg_deg / 2.0;
@@ -180,7 +228,7 @@ pub(super) fn ring_page(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
             Polarity::Positive => "+",
             Polarity::Negative => "\u{2212}",
         };
-        let (x, y) = at(centre, r_slot + 12.5, centre_deg);
+        let (x, y) = at(centre, ring.r_slot + 12.5, centre_deg);
         bg.push(Text::new(
             x,
             y + TEXT_FLOOR * 0.36,
@@ -190,11 +238,21 @@ pub(super) fn ring_page(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
         ));
         g.push(bg);
     }
-    out.push(g.into());
+}
 
-    // The words.
-    let x = c.right() - words_w;
-    let mut y = c.y + 16.0;
+/// The words beside the ring, from (`x`, `y`) in a column `words_w` mm wide: lead swing,
+/// throw, slot 1's group, rotation, brushes, scale, and for a frog-leg its second throw.
+fn ring_words(
+    out: &mut Vec<Node>,
+    input: &Input<'_>,
+    (x, mut y): (f64, f64),
+    words_w: f64,
+    true_dc: Option<f64>,
+) {
+    let d = input.design;
+    let w = input.winding;
+    let bars = w.active_coils;
+    let group = slot1_group(input);
     let (in_bar, right) = w.lead_swing.in_line(bars);
     let in_line = match right {
         None => format!("bar {in_bar}"),

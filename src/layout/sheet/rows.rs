@@ -44,18 +44,7 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
         ),
     );
     row("coils per slot", d.coils_per_slot.to_string());
-    let dummies = match w.dummy_coils.len() {
-        0 => "none".to_string(),
-        n if n <= 3 => format!(
-            "{n}: coil {}",
-            w.dummy_coils
-                .iter()
-                .map(u32::to_string)
-                .collect::<Vec<_>>()
-                .join(", ")
-        ),
-        n => format!("{n}"),
-    };
+    let dummies = dummies_value(w);
     row("dummy coils", dummies);
     row(
         "span",
@@ -67,18 +56,7 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
     );
     row("turns per coil", d.turns.to_string());
     row("lead offset", format!("{} seg", d.lead_offset));
-    let (bar, right) = w.lead_swing.in_line(w.active_coils);
-    let in_line = match right {
-        None => format!("bar {bar}"),
-        Some(r) => format!("mica {bar}/{r}"),
-    };
-    row(
-        "lead swing",
-        format!(
-            "slot 1 at {in_line}, {}",
-            half_bars_words(w.lead_swing.swing_half_bars(w.active_coils))
-        ),
-    );
+    row("lead swing", lead_swing_value(w));
     row("comm. pitch", signed(w.pitches.commutator));
     row(
         "back / front",
@@ -105,13 +83,7 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
         "brush sets",
         format!("{} (min {})", w.brush_sets(), w.brush_sets_minimum),
     );
-    let eq = match &w.equalizers {
-        EqualizerPlan::NotNeeded => "not needed".to_string(),
-        EqualizerPlan::Impossible(_) => "not possible".to_string(),
-        EqualizerPlan::Possible(e) => {
-            format!("{}/{}, pitch {}", e.groups.len(), e.possible, e.pitch)
-        }
-    };
+    let eq = equalizers_value(w);
     row("equalizers", eq);
     row(
         "rotation",
@@ -119,31 +91,76 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
     );
     row("pole arc", fmt_fixed(d.pole_arc, 2));
     if let Some(c) = &d.conductor {
-        let v = match c.shape {
-            ConductorShape::Round {
-                diameter_mm,
-                awg,
-                strands,
-            } => {
-                let g = awg.map(|a| format!(" (AWG {a})")).unwrap_or_default();
-                format!("\u{d8}{} \u{d7}{strands}{g}", fmt_fixed(diameter_mm, 3))
-            }
-            ConductorShape::Rectangular {
-                width_mm,
-                height_mm,
-                strands,
-                ..
-            } => {
-                format!(
-                    "{}\u{d7}{} \u{d7}{strands}",
-                    fmt_fixed(width_mm, 2),
-                    fmt_fixed(height_mm, 2)
-                )
-            }
-        };
+        let v = conductor_value(&c.shape);
         row("conductor, mm", v);
     }
     rows
+}
+
+/// The dummy coils: none, up to three by number, else how many.
+fn dummies_value(w: &Winding) -> String {
+    match w.dummy_coils.len() {
+        0 => "none".to_string(),
+        n if n <= 3 => format!(
+            "{n}: coil {}",
+            w.dummy_coils
+                .iter()
+                .map(u32::to_string)
+                .collect::<Vec<_>>()
+                .join(", ")
+        ),
+        n => format!("{n}"),
+    }
+}
+
+/// Where slot 1's centre lies on the bars, and the lead swing in shop words.
+fn lead_swing_value(w: &Winding) -> String {
+    let (bar, right) = w.lead_swing.in_line(w.active_coils);
+    let in_line = match right {
+        None => format!("bar {bar}"),
+        Some(r) => format!("mica {bar}/{r}"),
+    };
+    format!(
+        "slot 1 at {in_line}, {}",
+        half_bars_words(w.lead_swing.swing_half_bars(w.active_coils))
+    )
+}
+
+/// The equalizers: how many of how many possible, and their pitch.
+fn equalizers_value(w: &Winding) -> String {
+    match &w.equalizers {
+        EqualizerPlan::NotNeeded => "not needed".to_string(),
+        EqualizerPlan::Impossible(_) => "not possible".to_string(),
+        EqualizerPlan::Possible(e) => {
+            format!("{}/{}, pitch {}", e.groups.len(), e.possible, e.pitch)
+        }
+    }
+}
+
+/// The conductor's size and strands, mm.
+fn conductor_value(shape: &ConductorShape) -> String {
+    match *shape {
+        ConductorShape::Round {
+            diameter_mm,
+            awg,
+            strands,
+        } => {
+            let g = awg.map(|a| format!(" (AWG {a})")).unwrap_or_default();
+            format!("\u{d8}{} \u{d7}{strands}{g}", fmt_fixed(diameter_mm, 3))
+        }
+        ConductorShape::Rectangular {
+            width_mm,
+            height_mm,
+            strands,
+            ..
+        } => {
+            format!(
+                "{}\u{d7}{} \u{d7}{strands}",
+                fmt_fixed(width_mm, 2),
+                fmt_fixed(height_mm, 2)
+            )
+        }
+    }
 }
 
 /// Sequence label per coil position (index coil − 1): the step in the trace, "17", or

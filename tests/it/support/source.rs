@@ -308,3 +308,58 @@ impl<'ast> Visit<'ast> for Calls {
         syn::visit::visit_macro(self, m);
     }
 }
+
+/// A function and its length: from its `fn` line to its closing brace, lines counted whole.
+#[derive(Debug, Clone, PartialEq)]
+pub struct FnLength {
+    pub name: String,
+    pub line: usize,
+    pub lines: usize,
+}
+
+/// Every function and method of the file `rel` (free functions, methods in `impl` and
+/// `trait` blocks, and functions nested in other functions), with its length in lines.
+pub fn fn_lengths(rel: &str, text: &str) -> Vec<FnLength> {
+    struct Lengths(Vec<FnLength>);
+    impl Lengths {
+        fn add(&mut self, name: &syn::Ident, sig: Span, body: Span) {
+            let (from, to) = (sig.start().line, body.end().line);
+            self.0.push(FnLength {
+                name: name.to_string(),
+                line: from,
+                lines: to + 1 - from,
+            });
+        }
+    }
+    impl<'ast> Visit<'ast> for Lengths {
+        fn visit_item_fn(&mut self, f: &'ast syn::ItemFn) {
+            self.add(
+                &f.sig.ident,
+                f.sig.fn_token.span,
+                f.block.brace_token.span.close(),
+            );
+            syn::visit::visit_item_fn(self, f);
+        }
+        fn visit_impl_item_fn(&mut self, f: &'ast syn::ImplItemFn) {
+            self.add(
+                &f.sig.ident,
+                f.sig.fn_token.span,
+                f.block.brace_token.span.close(),
+            );
+            syn::visit::visit_impl_item_fn(self, f);
+        }
+        fn visit_trait_item_fn(&mut self, f: &'ast syn::TraitItemFn) {
+            if let Some(b) = &f.default {
+                self.add(
+                    &f.sig.ident,
+                    f.sig.fn_token.span,
+                    b.brace_token.span.close(),
+                );
+            }
+            syn::visit::visit_trait_item_fn(self, f);
+        }
+    }
+    let mut v = Lengths(Vec::new());
+    v.visit_file(&parse(rel, text));
+    v.0
+}
