@@ -227,14 +227,16 @@ pub struct RewindPlan {
     pub design: Design,
 }
 
-/// The flux per pole from a no-load test: Φ = 60·a·V0/(P·Z·N0), Wb, open circuit so E = V0.
+/// The flux per pole from a no-load test: the coils link Φ_l = 60·a·V0/(P·Z·N0), Wb, open
+/// circuit so E = V0, and Φ = Φ_l/k with k the share of the pole flux they link.
 /// A flux a design file cannot hold (above [`MAX_FLUX_MWB`], or rounding to nothing) is
 /// [`RewindError::FluxOutOfRange`]: the readings are wrong (volts and rpm swapped, say).
 pub fn flux_from_test(d: &Design, w: &Winding, volts: f64, rpm: f64) -> Result<f64, RewindError> {
     if !(volts > 0.0 && volts.is_finite() && rpm > 0.0 && rpm.is_finite()) {
         return Err(RewindError::TestNotPositive { volts, rpm });
     }
-    let flux_wb = emf::flux_for(d.poles, w.conductors, w.paths_formula.max(1), volts, rpm);
+    let flux_wb = emf::flux_for(d.poles, w.conductors, w.paths_formula.max(1), volts, rpm)
+        / w.constants.flux_linkage;
     check_flux(flux_wb, FluxSource::Test(volts, rpm))?;
     Ok(flux_wb)
 }
@@ -345,7 +347,7 @@ pub fn rewind_rated(
         keeps_commutator: true,
     };
     Ok(RewindPlan {
-        flux_mwb: old.flux_wb * 1000.0,
+        flux_mwb: old.pole_flux_wb() * 1000.0,
         flux_source: old.flux_source,
         old: WindingFigures {
             scheme: old_conn,
@@ -418,8 +420,12 @@ struct OldMachine {
     ir: f64,
     /// Brush drop, V.
     brush_drop_v: f64,
-    /// The flux per pole kept, Wb, and where it came from.
+    /// The flux the coils link, Wb: the share `linkage` of the pole flux kept (see
+    /// [`crate::winding::Constants::flux_linkage`]); every EMF here is worked from it.
     flux_wb: f64,
+    /// The share of the pole flux the coils link (the span is kept, so the new coils link the
+    /// same share).
+    linkage: f64,
     /// Where the flux came from.
     flux_source: FluxSource,
     /// The old EMF at that flux, V.
@@ -428,6 +434,13 @@ struct OldMachine {
     speed_rpm: Option<f64>,
     /// The speed to rewind for, rpm.
     speed: f64,
+}
+
+impl OldMachine {
+    /// The pole flux kept, Wb: the linked flux over the share linked.
+    fn pole_flux_wb(&self) -> f64 {
+        self.flux_wb / self.linkage
+    }
 }
 
 /// The flux to keep, and the old machine's EMF and speed at that flux.
@@ -445,16 +458,20 @@ fn old_machine(
     let brush_drop_v = rated.emf.as_ref().map_or(0.0, |e| e.brush_drop_v);
     let old_emf = rated.emf.as_ref();
 
-    // The flux to keep.
+    // The flux to keep, as the coils link it.
+    let linkage = w.constants.flux_linkage;
     let (flux_wb, flux_source) = match (
         req.from_test,
         d.flux_per_pole_mwb,
         old_emf.and_then(|e| e.flux_needed_mwb),
     ) {
-        (Some((v, n)), _, _) => (flux_from_test(d, w, v, n)?, FluxSource::Test(v, n)),
-        (None, Some(f), _) => (f / 1000.0, FluxSource::Design),
+        (Some((v, n)), _, _) => (
+            flux_from_test(d, w, v, n)? * linkage,
+            FluxSource::Test(v, n),
+        ),
+        (None, Some(f), _) => (f / 1000.0 * linkage, FluxSource::Design),
         (None, None, Some(f)) => (
-            check_flux(f / 1000.0, FluxSource::Rating)?,
+            check_flux(f / 1000.0, FluxSource::Rating)? * linkage,
             FluxSource::Rating,
         ),
         (None, None, None) => {
@@ -487,6 +504,7 @@ fn old_machine(
         ir,
         brush_drop_v,
         flux_wb,
+        linkage,
         flux_source,
         emf_v,
         speed_rpm,
@@ -781,7 +799,7 @@ fn new_design(
         ));
         nd.dummy_coils = None;
     }
-    nd.flux_per_pole_mwb = Some(old.flux_wb * 1000.0);
+    nd.flux_per_pole_mwb = Some(old.pole_flux_wb() * 1000.0);
     nd.speed_rpm = Some(old.speed);
     let mut r = d.rating.clone().unwrap_or(Rating {
         voltage: None,
