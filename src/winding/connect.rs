@@ -81,10 +81,13 @@ pub fn place_dummies(n: u32, count: u32) -> Vec<u32> {
 /// the same polarity: a coil is commutated with the brush at the midpoint of its bars, and the
 /// u coils of a slot share a centre line, so the element's midpoints sit where the first
 /// element's do, moved by half the span difference. In half bars,
-/// 2·shift = (y_c0 − y_c) + (y_s − y_s0)·u, taken modulo two pole pitches C/p (the field and
-/// the brushes repeat every pole pair) and rounded down to a whole bar [derived]. For a
-/// frog-leg winding the lap coil in one slot and the wave coil one pole pitch on then join, in
-/// series, bars two pole pitches apart with opposite EMFs (docs/domain.md, "Frog-leg windings").
+/// 2·shift = (y_c0 − y_c) + (y_s − y_s0)·u, taken modulo the whole commutator (2C half bars),
+/// not modulo two pole pitches: each coil's leads then sit symmetrically about its own centre
+/// line, as on a plain wave winding and as a rewinder records them (placed two pole pitches
+/// away, they are equivalent only when the slots per pole pair are whole); rounded down to a
+/// whole bar [derived]. For a frog-leg winding the lap coil in one slot and the wave coil one
+/// pole pitch on then join, in series, bars two pole pitches apart with opposite EMFs
+/// (docs/domain.md, "Frog-leg windings").
 fn element_start_shift(
     d: &Design,
     e0: &DesignElement,
@@ -95,8 +98,7 @@ fn element_start_shift(
 ) -> i64 {
     let u = i64::from(d.coils_per_slot);
     let halves = (yc0 - yc) + (i64::from(e.span) - i64::from(e0.span)) * u;
-    let pair = 2 * i64::from(c) / i64::from(d.pole_pairs().max(1));
-    halves.rem_euclid(pair.max(1)).div_euclid(2)
+    halves.rem_euclid(2 * i64::from(c)).div_euclid(2)
 }
 
 /// Connects element `e`'s coils (coil numbers `first`…, one per coil position) to the

@@ -424,7 +424,7 @@ fn identify_finds_the_frog_leg_from_its_card() {
     assert_eq!(got.design.winding_type, WindingType::FrogLeg);
     let demo = checked(&support::demo("mill-frog-leg"));
     assert_eq!(got.winding.connections, demo.winding.connections);
-    let off = text.replace("wave_throw = \"28-77\"", "wave_throw = \"29-78\"");
+    let off = text.replace("wave_throw = \"128-27\"", "wave_throw = \"129-28\"");
     let card = armsheet::design::parse_card(&off, "card.toml").unwrap();
     let found = armsheet::features::identify::identify(&card);
     assert!(found.candidates.is_empty());
@@ -432,14 +432,14 @@ fn identify_finds_the_frog_leg_from_its_card() {
         found
             .conflicts
             .iter()
-            .any(|c| c.contains("not the 29-78 seen")),
+            .any(|c| c.contains("not the 129-28 seen")),
         "{:?}",
         found.conflicts
     );
     // Without the four leads, the same bars read as a plain lap.
     let two = text
         .replace("leads_per_bar = 4\n", "")
-        .replace("wave_throw = \"28-77\"\n", "")
+        .replace("wave_throw = \"128-27\"\n", "")
         .replace("wave_coil_span = \"1-14\"\n", "");
     let card = armsheet::design::parse_card(&two, "card.toml").unwrap();
     let found = armsheet::features::identify::identify(&card);

@@ -155,3 +155,69 @@ proptest! {
         prop_assert_eq!(passes, rule, "{}", text);
     }
 }
+
+/// Every coil's lead midpoint, from its traced start bar and commutator pitch, against the
+/// coil's centre line from its traced slots, in degrees folded to ±180.
+fn lead_offsets(c: &Checked) -> Vec<(u32, f64)> {
+    let w = &c.winding;
+    let s = f64::from(c.design.slots);
+    let bars = f64::from(w.active_coils);
+    w.elements
+        .iter()
+        .flat_map(|e| {
+            w.connections
+                .iter()
+                .filter(move |k| e.holds(k.coil) && !k.dummy)
+                .map(move |k| {
+                    let span =
+                        f64::from((k.bottom.slot + c.design.slots - k.top.slot) % c.design.slots);
+                    let centre = (f64::from(k.top.slot - 1) + span / 2.0) * 360.0 / s;
+                    let mid = w.segment_deg(k.start_segment.unwrap())
+                        + e.pitches.commutator as f64 * 180.0 / bars;
+                    let off = (mid - centre + 180.0).rem_euclid(360.0) - 180.0;
+                    (k.coil, off)
+                })
+        })
+        .collect()
+}
+
+#[test]
+fn the_mill_wave_coils_have_their_leads_beside_them() {
+    // Issue example: coil 151 (slots 1-14) of the 150-bar mill frog-leg has its leads on bars
+    // 128 and 27, either side of slot 1's centre line, not 28 and 77.
+    let c = check(parse_design(&support::demo("mill-frog-leg"), "t.toml").unwrap());
+    let k = &c.winding.connections[150];
+    assert_eq!(
+        (k.coil, k.start_segment, k.end_segment),
+        (151, Some(128), Some(27))
+    );
+}
+
+proptest! {
+    #![proptest_config(support::properties(60))]
+
+    /// Lap and wave coils alike: the lead midpoint lies within half a pole pitch of the coil's
+    /// own centre line (a wave coil's leads swung two pole pitches away would be a whole
+    /// 720/P degrees off).
+    #[test]
+    fn every_coil_has_its_leads_beside_its_centre_line(
+        p in 2u32..=4,
+        u in 1u32..=2,
+        per_pole_pair in 6u32..=16,
+        dl in -1i32..=1,
+        retro in any::<bool>(),
+    ) {
+        let slots = per_pole_pair * p;
+        let poles = 2 * p;
+        let tau = f64::from(slots) / f64::from(poles);
+        let span = ((tau.floor() as i32) + dl).max(1) as u32;
+        let wave_span = (2.0 * tau).round() as u32 - span;
+        let parsed = parse_design(&frog(poles, slots, u, span, wave_span, retro), "t.toml");
+        prop_assume!(parsed.is_ok());
+        let c = check(parsed.unwrap());
+        let half_pole = 180.0 / f64::from(poles);
+        for (coil, off) in lead_offsets(&c) {
+            prop_assert!(off.abs() < half_pole, "coil {} leads {} degrees off its centre line", coil, off);
+        }
+    }
+}
