@@ -7,7 +7,7 @@
 //! reference to the old file name in capitals are all reported. The notes' headings are
 //! unique, so a citation names one section.
 
-use std::path::{Path, PathBuf};
+use std::path::Path;
 
 const ROOT: &str = env!("CARGO_MANIFEST_DIR");
 const NOTES: &str = "docs/domain.md";
@@ -81,21 +81,6 @@ fn problems(path: &str, text: &str, known: &[String]) -> Vec<String> {
     out
 }
 
-fn rust_files(dir: &Path, out: &mut Vec<PathBuf>) {
-    let mut entries: Vec<_> = std::fs::read_dir(dir)
-        .unwrap()
-        .map(|e| e.unwrap().path())
-        .collect();
-    entries.sort();
-    for p in entries {
-        if p.is_dir() {
-            rust_files(&p, out);
-        } else if p.extension().is_some_and(|e| e == "rs") {
-            out.push(p);
-        }
-    }
-}
-
 fn notes() -> String {
     let path = Path::new(ROOT).join(NOTES);
     std::fs::read_to_string(&path).unwrap_or_else(|e| panic!("{}: {e}", path.display()))
@@ -115,22 +100,17 @@ fn the_notes_exist_and_their_headings_are_unique() {
 #[test]
 fn every_citation_names_a_heading_of_the_notes() {
     let known = headings(&notes());
-    let mut files = Vec::new();
-    for dir in ["src", "tests"] {
-        rust_files(&Path::new(ROOT).join(dir), &mut files);
-    }
+    let files = ["src", "tests"].into_iter().flat_map(|dir| {
+        crate::support::source::rust_files(&format!("{ROOT}/{dir}"))
+            .into_iter()
+            .map(move |(rel, text)| (format!("{dir}/{rel}"), text))
+    });
     let mut all = Vec::new();
     let mut citing = 0;
-    for p in files {
-        let rel = p
-            .strip_prefix(ROOT)
-            .unwrap()
-            .to_string_lossy()
-            .replace('\\', "/");
+    for (rel, text) in files {
         if rel == THIS {
             continue;
         }
-        let text = std::fs::read_to_string(&p).unwrap();
         citing += usize::from(text.contains(NOTES));
         all.extend(problems(&rel, &text, &known));
     }
