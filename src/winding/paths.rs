@@ -87,8 +87,8 @@ fn cut_cycles(
             continue;
         };
         let mut from = mark[(steps[first].from_segment - 1) as usize] as usize;
-        for k in 0..steps.len() {
-            let step = steps[(first + k) % steps.len()];
+        // From the first touched segment round to it again.
+        for step in steps[first..].iter().chain(&steps[..first]) {
             let at = mark[(step.to_segment - 1) as usize];
             if at >= 0 {
                 visit(step.coil, Some((from, at as usize)));

@@ -172,17 +172,29 @@ pub(crate) fn path_classes_of(d: &Design, w: &Winding, e: &WindingElement) -> Pa
     let shifts: Vec<u32> = (0..s)
         .filter(|k| (u64::from(*k) * u64::from(d.poles)).is_multiple_of(u64::from(s)))
         .collect();
-    for cw in &w.closed_windings {
+    // Slot (0-based) -> the element's active coils with their top side in it, in coil order.
+    let mut in_slot: Vec<Vec<&Connection>> = vec![Vec::new(); s as usize];
+    for cn in w
+        .connections
+        .iter()
+        .filter(|cn| !cn.dummy && e.holds(cn.coil))
+    {
+        in_slot[(cn.top.slot - 1) as usize].push(cn);
+    }
+    // Classes left; once the paths are one class no later join can change the classes or
+    // `rigid` (a join between two classes is the only thing that clears it), so the search
+    // stops there.
+    let mut left = paths.len();
+    'windings: for cw in &w.closed_windings {
         let Some(first) = cw.steps.first().map(|st| st.coil).filter(|&k| e.holds(k)) else {
             continue;
         };
         for &k in &shifts {
+            if left <= 1 {
+                break 'windings;
+            }
             let target_slot = (slot_of(first) - 1 + k) % s + 1;
-            for cand in w
-                .connections
-                .iter()
-                .filter(|cn| cn.top.slot == target_slot && !cn.dummy && e.holds(cn.coil))
-            {
+            for cand in &in_slot[(target_slot - 1) as usize] {
                 let j = i64::from(start_of(cand.coil)) - i64::from(start_of(first));
                 let onto = winding_of[(cand.coil - 1) as usize];
                 if onto == usize::MAX {
@@ -220,6 +232,7 @@ pub(crate) fn path_classes_of(d: &Design, w: &Winding, e: &WindingElement) -> Pa
                         let (a, b) = (root(&mut parent, x), root(&mut parent, y));
                         if a != b {
                             rigid &= rigid_map;
+                            left -= 1;
                         }
                         parent[a.max(b)] = a.min(b);
                     }
