@@ -72,3 +72,15 @@ pub(crate) fn simulate_balance(
         balanced: mean <= BALANCE_TOLERANCE,
     }
 }
+
+/// The balance of a winding whose paths are proven congruent by rigid rotations: no spread at
+/// any of the [`simulate_balance`] steps.
+pub(crate) fn unsimulated(d: &Design) -> PathBalance {
+    let period = balance_period_segments(d.coils_per_slot, d.multiplicity);
+    PathBalance {
+        samples: (SAMPLES_PER_SEGMENT * i64::from(period)) as u32,
+        mean_spread_coils: 0.0,
+        peak_spread_coils: 0.0,
+        balanced: true,
+    }
+}

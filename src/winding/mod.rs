@@ -83,8 +83,6 @@ pub fn trace_winding(design: &Design) -> Winding {
         all,
     );
     let equalizers = equalizers::plan_equalizers(d, c, &connections);
-    let balance =
-        balance::simulate_balance(d, &geo, &closed_windings, &placed.spots, c, all as u32);
     let conductors = elements
         .iter()
         .map(|e| 2 * u64::from(c) * u64::from(e.turns))
@@ -113,7 +111,7 @@ pub fn trace_winding(design: &Design) -> Winding {
         coil_emf: placed.coil_emf,
         paths_formula: kind.parallel_paths(d.multiplicity, d.poles),
         equalizers,
-        balance,
+        balance: balance::unsimulated(d),
         pole_axes_deg: (0..d.poles)
             .map(|k| geo.degrees(geo.pole1 + i64::from(k) * geo.pole_pitch))
             .collect(),
@@ -128,8 +126,17 @@ pub fn trace_winding(design: &Design) -> Winding {
         .iter()
         .map(|e| path_classes_of(d, &w, e))
         .collect();
+    // Rigid rotations that carry every path of a one-element winding onto every other leave
+    // no spread at any rotor position (the exact test's theorem, checked against an
+    // independent simulation in tests/it/exact_symmetry.rs): the simulation is then skipped.
+    let proven =
+        w.elements.len() == 1 && classes[0].congruence(w.paths.len()) == Congruence::Proven;
     for (e, k) in w.elements.iter_mut().zip(classes) {
         e.path_classes = k;
+    }
+    if !proven {
+        w.balance =
+            balance::simulate_balance(d, &geo, &w.closed_windings, &placed.spots, c, all as u32);
     }
     w
 }
