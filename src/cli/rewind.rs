@@ -103,7 +103,13 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
         if let Some(out) = &a.output {
             let header = no_load_header(&test, &name, &asked);
             let text = design_toml::write_design(&test.design, &header);
-            parse_back(&text, out, &name)?;
+            if parse_back(&text, out, &name)?.has_errors() {
+                said.push_str(
+                    "check refuses the design with this flux: it was not written (exit 1); run armsheet check on the old design for the reasons\n",
+                );
+                print_stdout(&said)?;
+                return Ok(Outcome::ChecksFail);
+            }
             write_design_file(out, &text, a.force)?;
             said.push_str(&format!("wrote {}\n", super::error::shown(out)));
         }
@@ -126,15 +132,14 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
         .unwrap_or_else(|| default_output(&a.design, voltage));
     let text = plan.design_file(&name, &asked);
     let new = parse_back(&text, &out, &name)?;
+    // One verdict: a design `check` refuses is reported, never written, and the exit is 1.
+    let said = render_rewind(&plan, &name, &asked, &new, env!("CARGO_PKG_VERSION"));
+    if new.has_errors() {
+        print_stdout(&said)?;
+        return Ok(Outcome::ChecksFail);
+    }
     write_design_file(&out, &text, a.force)?;
-    let mut said = render_rewind(
-        &plan,
-        &name,
-        &asked,
-        new.rating.as_ref(),
-        env!("CARGO_PKG_VERSION"),
-    );
-    said.push_str(&format!("wrote {}\n", super::error::shown(&out)));
+    let said = format!("{said}wrote {}\n", super::error::shown(&out));
     // The file is in place: a closed standard output now ends the command quietly.
     print_stdout(&said)?;
     Ok(Outcome::Passed)

@@ -5,9 +5,11 @@
 
 use std::fmt::Write;
 
+use crate::base::Severity;
 use crate::base::caution::CAUTIONS;
 use crate::base::number::{fmt_fixed, fmt_signed};
 use crate::base::visible::visible;
+use crate::checks::Checked;
 use crate::features::rewind::{NoLoadTest, RewindPlan};
 use crate::rating::RatingReport;
 use crate::rating::conductor::{self, WireFamily};
@@ -26,7 +28,7 @@ pub fn render_rewind(
     p: &RewindPlan,
     file: &str,
     asked: &str,
-    new_rating: Option<&RatingReport>,
+    new: &Checked,
     version: &str,
 ) -> String {
     let mut s = String::new();
@@ -36,9 +38,45 @@ pub fn render_rewind(
     winding(&mut s, p);
     conductor_sizes(&mut s, p);
     plan_notes(&mut s, p);
-    new_rating_checks(&mut s, new_rating);
+    new_design_verdict(&mut s, new);
+    new_rating_checks(&mut s, new.rating.as_ref());
     caution(&mut s);
     s
+}
+
+/// What `check` says of the new design: every winding rule that fails (errors, then warnings),
+/// and whether the file may be written; the rating's own lines follow.
+fn new_design_verdict(s: &mut String, new: &Checked) {
+    section(s, "NEW DESIGN: CHECK");
+    let failed: Vec<_> = new
+        .findings
+        .iter()
+        .filter(|f| !f.passed && f.severity != Severity::Info && !is_rating(&f.id))
+        .collect();
+    for severity in [Severity::Error, Severity::Warning] {
+        for f in failed.iter().filter(|f| f.severity == severity) {
+            let _ = writeln!(
+                s,
+                "  [{}] {}: {}",
+                severity.as_str(),
+                f.id,
+                visible(&f.message)
+            );
+        }
+    }
+    if new.has_errors() {
+        let _ = writeln!(
+            s,
+            "  check refuses the new design (the failed checks above and in the rating checks below): it was not written (exit 1); the fixes below, or another connection, voltage or speed, may pass"
+        );
+    } else {
+        let _ = writeln!(s, "  check passes the new design");
+    }
+}
+
+/// Whether a finding id is one of the rating's family (they have their own section below).
+fn is_rating(id: &str) -> bool {
+    id.starts_with("rating.")
 }
 
 /// The flux kept, the voltages, the EMFs and the speed asked.
@@ -227,7 +265,8 @@ fn plan_notes(s: &mut String, p: &RewindPlan) {
     }
 }
 
-/// The new design's rating checks that fail, and its withstand test voltages.
+/// The new design's rating checks that fail (rating errors refuse the design too), and its
+/// withstand test voltages.
 fn new_rating_checks(s: &mut String, new_rating: Option<&RatingReport>) {
     if let Some(r) = new_rating {
         section(s, "NEW DESIGN: RATING CHECKS");

@@ -221,12 +221,12 @@ fn a_file_in_the_way_of_the_set_folder_is_exit_2_and_left_alone() {
 #[test]
 fn a_closed_stdout_does_not_stop_rewind_from_writing_the_new_design() {
     let dir = scratch("rewind-pipe");
-    let out = dir.join("hoist-220.toml");
+    let out = dir.join("hoist-115.toml");
     let (code, err) = run_with_stdout_closed(&[
         "rewind",
         "designs/hoist-lap.toml",
         "--voltage",
-        "220",
+        "115",
         "-o",
         &out.display().to_string(),
     ]);
@@ -236,7 +236,7 @@ fn a_closed_stdout_does_not_stop_rewind_from_writing_the_new_design() {
     assert!(written.starts_with("# armsheet rewind of "), "{written}");
     assert_eq!(
         names_in(&dir),
-        ["hoist-220.toml"],
+        ["hoist-115.toml"],
         "no temporary file is left"
     );
     let _ = std::fs::remove_dir_all(&dir);

@@ -56,7 +56,7 @@ fn hoist() -> String {
 /// `rewind hoist-lap --voltage 220 -o OUT [--force]` in `cwd`.
 fn rewind_to(cwd: &Path, out: &str, force: bool) -> Output {
     let h = hoist();
-    let mut args = vec!["rewind", h.as_str(), "--voltage", "220", "-o", out];
+    let mut args = vec!["rewind", h.as_str(), "--voltage", "115", "-o", out];
     if force {
         args.push("--force");
     }
@@ -388,7 +388,7 @@ fn a_file_name_cannot_inject_toml_into_the_header() {
     let evil = "evil\n[limits]\nsegment_volts_avg_max = 999\n#.toml";
     fs::copy(hoist(), dir.join(evil)).unwrap();
     for (out, args) in [
-        ("v.toml", &["--voltage", "220"][..]),
+        ("v.toml", &["--voltage", "115"][..]),
         ("t.toml", &["--from-test", "100", "1150"][..]),
     ] {
         let mut all = vec!["rewind", evil];

@@ -57,12 +57,11 @@ fn rewind_report_and_new_file_hoist_to_220_v_wave() {
     let asked = "armsheet rewind designs/hoist-lap.toml --voltage 220 --type wave";
     let file = p.design_file("designs/hoist-lap.toml", asked);
     let back = parse_design(&file, "new.toml").unwrap();
-    let nw = trace_winding(&back);
     let report = render_rewind(
         &p,
         "designs/hoist-lap.toml",
         asked,
-        rate(&back, &nw).as_ref(),
+        &armsheet::check(back),
         env!("CARGO_PKG_VERSION"),
     );
     insta::assert_snapshot!("rewind-hoist-220v-wave-report", report);

@@ -14,14 +14,16 @@ fn demo(file: &str) -> String {
 #[test]
 fn writes_a_new_design_that_parses_back_and_keeps_it_without_force() {
     let dir = tmp("write");
-    let out = dir.join("hoist-220.toml");
+    // 220 V on a wave puts 24 V between segments, which check refuses (tested below); 115 V
+    // on a wave passes.
+    let out = dir.join("hoist-115.toml");
     let out_s = out.display().to_string();
     let hoist = demo("hoist-lap.toml");
     let o = run(&[
         "rewind",
         &hoist,
         "--voltage",
-        "220",
+        "115",
         "--type",
         "wave",
         "-o",
@@ -30,7 +32,7 @@ fn writes_a_new_design_that_parses_back_and_keeps_it_without_force() {
     assert_eq!(o.status.code(), Some(0), "{}", text(&o.stderr));
     let report = text(&o.stdout);
     assert!(
-        report.contains("turns per coil        4 -> 4 (4.152 exact)"),
+        report.contains("turns per coil        4 -> 2 (2.152 exact)"),
         "{report}"
     );
     assert!(
@@ -40,13 +42,13 @@ fn writes_a_new_design_that_parses_back_and_keeps_it_without_force() {
     assert!(report.contains("fit a new commutator"), "{report}");
     let written = std::fs::read_to_string(&out).unwrap();
     assert!(written.starts_with("# armsheet rewind of "));
-    assert!(written.contains("# turns per coil: 4 -> 4"));
+    assert!(written.contains("# turns per coil: 4 -> 2"));
     let d = parse_design(&written, &out_s).unwrap_or_else(|e| panic!("{e}"));
     assert_eq!(
         (d.winding_type, d.turns, d.segments),
-        (WindingType::Wave, 4, 35)
+        (WindingType::Wave, 2, 35)
     );
-    assert_eq!(d.rating.as_ref().unwrap().voltage, Some(220.0));
+    assert_eq!(d.rating.as_ref().unwrap().voltage, Some(115.0));
 
     // Again without --force: refused, file untouched.
     std::fs::write(&out, "keep me").unwrap();
@@ -54,7 +56,7 @@ fn writes_a_new_design_that_parses_back_and_keeps_it_without_force() {
         "rewind",
         &hoist,
         "--voltage",
-        "220",
+        "115",
         "--type",
         "wave",
         "-o",
@@ -72,7 +74,7 @@ fn writes_a_new_design_that_parses_back_and_keeps_it_without_force() {
         "rewind",
         &hoist,
         "--voltage",
-        "220",
+        "115",
         "--type",
         "wave",
         "-o",
@@ -209,4 +211,56 @@ fn from_test_back_solves_the_flux() {
     let d = parse_design(&std::fs::read_to_string(&out).unwrap(), "p.toml").unwrap();
     assert!((d.flux_per_pole_mwb.unwrap() - 11.4943).abs() < 1e-4);
     let _ = std::fs::remove_dir_all(&dir);
+}
+
+/// One verdict: a rewind whose new design `check` refuses reports why, writes nothing and
+/// exits 1. Issue examples: the hoist at 220 V on a wave (24 V between segments, above the
+/// 15 V limit), and a 4-pole, 29-slot, u = 3 wave (87 bars) rewound to lap (a lap on 87 bars
+/// and 4 poles fails the symmetry rule).
+#[test]
+fn a_design_check_refuses_is_never_written() {
+    let dir = tmp("refused");
+    let out = dir.join("new.toml");
+    let out_s = out.display().to_string();
+    let hoist = demo("hoist-lap.toml");
+    let o = run(&[
+        "rewind",
+        &hoist,
+        "--voltage",
+        "220",
+        "--type",
+        "wave",
+        "-o",
+        &out_s,
+    ]);
+    assert_eq!(o.status.code(), Some(1), "{}", text(&o.stderr));
+    let report = text(&o.stdout);
+    assert!(
+        report.contains("[error] rating.segment-volts-average"),
+        "{report}"
+    );
+    assert!(report.contains("check refuses the new design"), "{report}");
+    assert!(!report.contains("wrote "), "{report}");
+    assert!(!out.exists());
+
+    let crane = dir.join("crane.toml");
+    std::fs::write(
+        &crane,
+        "[armature]\npoles = 4\nslots = 29\ncoils_per_slot = 3\n\n[winding]\ntype = \"wave\"\nspan = 7\nturns = 4\n\n[rating]\nvoltage = 230\ncurrent = 40\nspeed_rpm = 1750\n\n[conductor]\ndiameter_mm = 1.4\nmean_turn_mm = 420\n",
+    )
+    .unwrap();
+    let o = run(&[
+        "rewind",
+        &crane.display().to_string(),
+        "--voltage",
+        "115",
+        "--type",
+        "lap",
+        "-o",
+        &out_s,
+    ]);
+    assert_eq!(o.status.code(), Some(1), "{}", text(&o.stderr));
+    let report = text(&o.stdout);
+    assert!(report.contains("[error] symmetry."), "{report}");
+    assert!(!out.exists());
 }
