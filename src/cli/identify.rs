@@ -16,7 +16,9 @@ use super::output::{print_stdout, write_atomic, write_new, write_stdout};
 use crate::design::{parse_card_bytes, parse_design};
 use crate::features::identify::identify as find;
 use crate::features::rewind::design_toml::write_design;
-use crate::render::identify::{design_header, render_identify, write_identify_json};
+use crate::render::identify::{
+    design_header, render_identify, render_refused, write_identify_json,
+};
 
 /// Help for `identify`.
 pub const IDENTIFY_HELP: &str = "\
@@ -64,6 +66,8 @@ pub fn identify(a: &IdentifyArgs) -> Result<Outcome, CliError> {
         message,
     };
     let chosen = match (a.pick, found.candidates.len()) {
+        // Nothing fits: there is nothing to pick, and the report says why.
+        (Some(_), 0) => None,
         (Some(n), len) if n == 0 || n > len => {
             return Err(refuse(format!(
                 "--pick {n}: there {} {len} candidate(s); pick 1 to {len}",
@@ -74,8 +78,10 @@ pub fn identify(a: &IdentifyArgs) -> Result<Outcome, CliError> {
         (None, 1) => Some(&found.candidates[0]),
         _ => None,
     };
+    // One verdict: a winding `check` refuses is said to be refused and never written.
+    let refused = chosen.filter(|k| k.checked.has_errors());
     let mut wrote = None;
-    if let (Some(k), Some(out)) = (chosen, &a.output) {
+    if let (Some(k), Some(out), None) = (chosen, &a.output, refused) {
         let header = design_header(&card, k, env!("CARGO_PKG_VERSION"));
         let file = write_design(&k.checked.design, &header);
         let back = parse_design(&file, &out.display().to_string()).map_err(|d| {
@@ -102,12 +108,15 @@ pub fn identify(a: &IdentifyArgs) -> Result<Outcome, CliError> {
         if let (Some(n), Some(_)) = (a.pick, chosen) {
             said.push_str(&format!("picked candidate {n}\n"));
         }
+        if let Some(k) = refused {
+            said.push_str(&render_refused(&k.checked));
+        }
         if let Some(out) = wrote {
             said.push_str(&format!("wrote {}\n", shown(out)));
         }
         print_stdout(&said)?;
     }
-    Ok(if found.candidates.is_empty() {
+    Ok(if found.candidates.is_empty() || refused.is_some() {
         Outcome::ChecksFail
     } else {
         Outcome::Passed

@@ -221,3 +221,19 @@ pub fn write_identify_json<W: Write>(card: &Card, r: &Identified, mut out: W) ->
 fn join(v: &[u32]) -> String {
     v.iter().map(u32::to_string).collect::<Vec<_>>().join(", ")
 }
+
+/// The identified winding `check` refuses: its failed error-level checks, and that no design
+/// file was written (the command exits 1).
+pub fn render_refused(k: &crate::checks::Checked) -> String {
+    let mut s = String::from(
+        "check refuses the identified winding, so no design file was written (exit 1); look again at the card (a bar or a throw counted one off gives an unusual winding):\n",
+    );
+    for f in k.findings.iter().filter(|f| f.is_failure()) {
+        s.push_str(&format!(
+            "  [error] {}: {}\n",
+            f.id,
+            crate::base::visible::visible(&f.message)
+        ));
+    }
+    s
+}

@@ -308,3 +308,43 @@ fn a_rewind_to_lap_drops_the_named_dummies() {
         text(&o.stdout).contains("dummy coils: the positions the old design names are dropped")
     );
 }
+
+/// One verdict: an unsymmetrical lap recorded from the armature (4 poles, 27 slots and bars)
+/// is identified, but `check` refuses it, so identify says so, writes no design file even when
+/// asked to, and exits 1. `--pick` on a card nothing fits keeps the conflicts and exits 1.
+#[test]
+fn a_winding_check_refuses_is_named_and_never_written() {
+    let dir = scratch("refused");
+    let path = card(
+        &dir,
+        "c27.toml",
+        "poles = 4\nslots = 27\nbars = 27\ncoil_span = \"1-7\"\nlead_throw = \"1-2\"\nlead_swing = 3.5\nturns = 3\n",
+    );
+    let out = dir.join("out.toml");
+    let o = armsheet(&["identify", &path, "-o", &out.display().to_string()]);
+    assert_eq!(o.status.code(), Some(1), "{}", text(&o.stderr));
+    let said = text(&o.stdout);
+    assert!(
+        said.contains("one winding fits: progressive simplex lap"),
+        "{said}"
+    );
+    assert!(
+        said.contains("check refuses the identified winding"),
+        "{said}"
+    );
+    assert!(
+        said.contains("[error] symmetry.coils-per-path-pair"),
+        "{said}"
+    );
+    assert!(!out.exists());
+
+    let none = card(
+        &dir,
+        "none.toml",
+        "poles = 4\nslots = 27\nbars = 27\ncoil_span = \"1-7\"\nlead_throw = \"1-2\"\nlead_swing = -1\nturns = 3\n",
+    );
+    let o = armsheet(&["identify", &none, "--pick", "1"]);
+    assert_eq!(o.status.code(), Some(1), "{}", text(&o.stderr));
+    assert!(!text(&o.stderr).contains("pick 1 to 0"));
+    assert!(text(&o.stdout).contains("no winding fits these observations"));
+}
