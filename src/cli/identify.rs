@@ -23,8 +23,9 @@ use crate::render::identify::{
 /// Help for `identify`.
 pub const IDENTIFY_HELP: &str = "\
 The card is TOML: [job] as in a design file, and [observed] with poles, slots, bars,
-coil_span (\"1-8\"), lead_throw (\"1-14\"), lead_swing (bars from slot 1's centre line to
-bar 1, + towards rising slots, halves allowed), turns, and optionally coils_per_slot,
+coil_span (\"1-8\"), lead_throw (\"1-14\"), turns, and optionally lead_swing (bars from
+slot 1's centre line to bar 1, + towards rising slots, halves allowed; without it symmetric
+leads are assumed: set the brushes by a neutral test), coils_per_slot,
 diameter_mm or awg, strands, brush_sets, dead_coils, equalizer_taps, rotation.
 `armsheet new --card card.toml` writes a commented starter card.
 One winding fits: it is printed, and written with -o. Several fit: they are listed with

@@ -10,7 +10,7 @@
 //! - `lead_throw` (required): the bars of the marked coil's start and end leads, `"1-14"`;
 //!   the start lead is bar 1, and bars and slots are numbered the same way round from the
 //!   marked coil; the end bar is 2 to `bars`;
-//! - `lead_swing` (required): bar pitches from slot 1's centre line to bar 1's centre,
+//! - `lead_swing` (optional; without it symmetric leads are assumed): bar pitches from slot 1's centre line to bar 1's centre,
 //!   positive towards rising slot numbers; whole or half bars, at most half the bars either way (the
 //!   winding's `LeadSwing` convention);
 //! - `coils_per_slot`: counted leads per slot (u), 1 to [`bounds::MAX_COILS_PER_SLOT`];
@@ -81,8 +81,9 @@ pub struct Card {
     pub coil_span: u32,
     /// `lead_throw`: the end lead's bar (the start lead is bar 1).
     pub throw_end: u32,
-    /// `lead_swing`, half bars.
-    pub lead_swing: HalfBars,
+    /// `lead_swing`, half bars; `None` when not recorded (symmetric leads are then assumed,
+    /// and the brushes must be set by a neutral test).
+    pub lead_swing: Option<HalfBars>,
     /// `coils_per_slot` (u), when counted.
     pub coils_per_slot: Option<u32>,
     /// `turns` per coil.
@@ -592,7 +593,7 @@ fn read_throw(o: &TableReader<'_, '_>, bars: i64) -> Result<u32, Diagnostic> {
 }
 
 /// `lead_swing`: whole or half bars, −C/2 < swing ≤ C/2.
-fn read_swing(o: &TableReader<'_, '_>, bars: i64) -> Result<HalfBars, Diagnostic> {
+fn read_swing(o: &TableReader<'_, '_>, bars: i64) -> Result<Option<HalfBars>, Diagnostic> {
     let key = "lead_swing";
     let Some(x) = o.number(
         key,
@@ -602,11 +603,7 @@ fn read_swing(o: &TableReader<'_, '_>, bars: i64) -> Result<HalfBars, Diagnostic
         "bar pitches from slot 1's centre line to bar 1",
     )?
     else {
-        return Err(o.missing(
-            key,
-            "bar pitches from slot 1's centre line to bar 1's centre (+ towards rising slots)",
-            "lead_swing = 0",
-        ));
+        return Ok(None);
     };
     let halves = x.value * 2.0;
     if halves != halves.round() {
@@ -642,7 +639,7 @@ fn read_swing(o: &TableReader<'_, '_>, bars: i64) -> Result<HalfBars, Diagnostic
                 HalfBars(short as i32)
             )));
     }
-    Ok(HalfBars(h as i32))
+    Ok(Some(HalfBars(h as i32)))
 }
 
 /// `brush_sets`: even, 2 to P.

@@ -23,10 +23,13 @@ pub fn observations(card: &Card) -> Vec<String> {
             card.poles, card.slots, card.bars
         ),
         format!(
-            "coil span {}, lead throw 1-{}, lead swing {} from slot 1's centre line",
+            "coil span {}, lead throw 1-{}, {}",
             span_shop(card.coil_span),
             card.throw_end,
-            half_bars_words(i64::from(card.lead_swing.0))
+            card.lead_swing.map_or(
+                "lead swing not recorded (symmetric leads assumed: set the brushes by a neutral test)".to_string(),
+                |h| format!("lead swing {} from slot 1's centre line", half_bars_words(i64::from(h.0)))
+            )
         ),
     ];
     let u = card

@@ -348,3 +348,21 @@ fn a_winding_check_refuses_is_named_and_never_written() {
     assert!(!text(&o.stderr).contains("pick 1 to 0"));
     assert!(text(&o.stdout).contains("no winding fits these observations"));
 }
+
+/// A card without `lead_swing`: symmetric leads are assumed (lead offset 0), the winding is
+/// still identified, and the output says to set the brushes by a neutral test.
+#[test]
+fn a_card_without_a_lead_swing_assumes_symmetric_leads() {
+    let dir = scratch("no-swing");
+    let path = card(
+        &dir,
+        "c.toml",
+        "poles = 4\nslots = 25\nbars = 25\ncoil_span = \"1-7\"\nlead_throw = \"1-14\"\nturns = 2\n",
+    );
+    let o = armsheet(&["identify", &path]);
+    assert_eq!(o.status.code(), Some(0), "{}", text(&o.stderr));
+    let said = text(&o.stdout);
+    assert!(said.contains("lead swing not recorded"), "{said}");
+    assert!(said.contains("with lead offset 0"), "{said}");
+    assert!(said.contains("set the brushes by a neutral test"), "{said}");
+}

@@ -233,12 +233,14 @@ fn candidate(
         .winding
         .lead_swing
         .swing_half_bars(c);
-    let offset = i64::from(card.lead_swing.0) - neutral;
+    // Not recorded: symmetric leads, the swing of lead offset 0.
+    let observed = card.lead_swing.map_or(neutral, |h| i64::from(h.0));
+    let offset = observed - neutral;
     let offset = (offset + i64::from(c)).rem_euclid(2 * i64::from(c)) - i64::from(c);
     if i64::from(card.poles) * offset.abs() >= i64::from(c) {
         return Err(format!(
             "a {name}: a lead swing of {} is {} from neutral (a swing of {}), half a pole pitch or more: the brushes could not sit on neutral",
-            half_bars_words(i64::from(card.lead_swing.0)),
+            half_bars_words(observed),
             half_bars_words(offset),
             half_bars_words(neutral)
         ));
@@ -252,13 +254,13 @@ fn candidate(
     if first.start_segment != Some(1)
         || first.end_segment != Some(card.throw_end)
         || span != card.coil_span
-        || swing != i64::from(card.lead_swing.0)
+        || swing != observed
     {
         return Err(format!(
             "a {name} traced with lead offset {} gives a lead swing of {}, not {}",
             HalfBars(offset as i32),
             half_bars_words(swing),
-            half_bars_words(i64::from(card.lead_swing.0))
+            half_bars_words(observed)
         ));
     }
     if let (Some(e), Some((a, b))) = (w.elements.get(1), card.wave_throw) {
@@ -461,13 +463,18 @@ fn explain(card: &Card, k: &Checked, yc: i64, dummies: u32, named: &Option<Vec<u
         _ => String::new(),
     };
     format!(
-        "{} {} {}: {pitch}; {coils}; span {}{equalizers}; with lead offset {} the traced lead swing is {} and the brushes sit on neutral",
+        "{} {} {}: {pitch}; {coils}; span {}{equalizers}; with lead offset {} the traced lead swing is {} and the brushes sit on neutral{}",
         d.direction.as_str(),
         multiplicity_word(m),
         d.winding_type.as_str(),
         span_shop(d.span),
         d.lead_offset,
-        half_bars_words(i64::from(card.lead_swing.0)),
+        half_bars_words(k.winding.lead_swing.swing_half_bars(c)),
+        if card.lead_swing.is_none() {
+            " (the lead swing was not recorded: symmetric leads are assumed, so set the brushes by a neutral test)"
+        } else {
+            ""
+        },
     )
 }
 
