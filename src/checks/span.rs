@@ -5,6 +5,7 @@
 use super::{Finding, rules};
 use crate::base::number::fmt_fixed;
 use crate::design::{Design, SpanSource};
+use crate::theory::pitch::SpanAngle;
 use crate::theory::words::span_shop;
 use crate::winding::Winding;
 
@@ -38,20 +39,13 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     }
 }
 
-/// A coil works only when its two sides lie under poles of opposite polarity: with the coil
-/// centred on the interpolar axis, where it makes its EMF, each side must lie in the middle half
-/// of a pole, within a quarter pole pitch of that pole's axis, so |y/2 − 1/2| ≤ 1/4 pole pitch:
-/// the sides are half to one and a half pole pitches apart (90° to 270° electrical, a pitch
-/// factor of at least sin 45°). Read off each element's first coil as traced: the angle
-/// between its top and bottom slots [derived; docs/domain.md, "Coil span limits"].
+/// Each element's first coil as traced, against the opposite-poles window of [`SpanAngle`]:
+/// the angle between its top and bottom slots.
 fn opposite_poles(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     for e in &w.elements {
         let first = &w.connections[(e.first_coil - 1) as usize];
         let slots = (first.bottom.slot + d.slots - first.top.slot) % d.slots;
-        let pole_pitches = f64::from(slots) * f64::from(d.poles) / f64::from(d.slots);
-        // Electrical degrees between the sides, 0 to 360.
-        let electrical = (pole_pitches * 180.0).rem_euclid(360.0);
-        let works = (90.0 - 1e-9..=270.0 + 1e-9).contains(&electrical);
+        let angle = SpanAngle::new(slots, d.slots, d.poles);
         let label = if w.is_multi_element() {
             format!("{} element: ", e.kind.as_str())
         } else {
@@ -59,14 +53,14 @@ fn opposite_poles(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         };
         out.push(Finding::of(
             &rules::SPAN_OPPOSITE_POLES,
-            works,
+            angle.opposite_poles(),
             format!(
                 "{label}coil {} spans slots {} to {}: {} pole pitches apart ({} electrical degrees, modulo 360); its sides must lie under poles of opposite polarity, half to one and a half pole pitches apart (90 to 270 degrees), or the coil makes little or no EMF",
                 first.coil,
                 first.top.slot,
                 first.bottom.slot,
-                fmt_fixed(pole_pitches, 2),
-                fmt_fixed(electrical, 1),
+                fmt_fixed(angle.pole_pitches, 2),
+                fmt_fixed(angle.electrical_deg, 1),
             ),
         ));
     }

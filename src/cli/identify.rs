@@ -28,11 +28,15 @@ slot 1's centre line to bar 1, + towards rising slots, halves allowed; without i
 leads are assumed: set the brushes by a neutral test), coils_per_slot,
 diameter_mm or awg, strands, brush_sets, dead_coils, equalizer_taps, rotation.
 `armsheet new --card card.toml` writes a commented starter card.
-One winding fits: it is printed, and written with -o. Several fit: they are listed with
-what tells them apart; nothing is written unless --pick N chooses one. None fits: the
-conflicting observation and the nearest consistent readings are printed (exit 1).
+One winding fits: it is printed, and written with -o. Several fit: they are listed, the
+most usual first (simplex, no dummy coil the card does not list), with what tells them
+apart; nothing is written unless --pick N chooses one. An unusual fit (multiplex, or one
+check refuses) comes with the bar or throw readings one off that give a usual winding; when
+there is one, nothing is written until --pick 1 confirms. None fits: the conflicting
+observation and the nearest consistent readings are printed (exit 1). A fit check refuses
+is never written (exit 1).
 An existing file is kept unless --force.
-Exit codes: 0 identified, 1 no winding fits, 2 bad card or output that could not be written.";
+Exit codes: 0 identified, 1 no winding fits or check refuses it, 2 bad card or output that could not be written.";
 
 /// Arguments of `identify`.
 #[derive(Debug, Args)]
@@ -81,8 +85,10 @@ pub fn identify(a: &IdentifyArgs) -> Result<Outcome, CliError> {
     };
     // One verdict: a winding `check` refuses is said to be refused and never written.
     let refused = chosen.filter(|k| k.checked.has_errors());
+    // An unusual fit with a more usual one a reading away is held back until picked.
+    let held = a.pick.is_none() && found.doubtful();
     let mut wrote = None;
-    if let (Some(k), Some(out), None) = (chosen, &a.output, refused) {
+    if let (Some(k), Some(out), None, false) = (chosen, &a.output, refused, held) {
         let header = design_header(&card, k, env!("CARGO_PKG_VERSION"));
         let file = write_design(&k.checked.design, &header);
         let back = parse_design(&file, &out.display().to_string()).map_err(|d| {

@@ -124,6 +124,26 @@ fn summary(k: &Candidate) -> String {
     )
 }
 
+/// Why the most usual fit is still unusual: multiplex, dummy coils, or refused by `check`.
+fn unusual_words(k: &Candidate) -> String {
+    let d = &k.checked.design;
+    let mut why = Vec::new();
+    if d.multiplicity > 1 {
+        why.push(format!(
+            "a {} winding is rare in repair work",
+            multiplicity_word(d.multiplicity)
+        ));
+    }
+    let dummies = d.coil_positions() - d.segments;
+    if dummies > 0 {
+        why.push(format!("{dummies} dummy coil(s) the card does not list"));
+    }
+    if k.checked.has_errors() {
+        why.push("check refuses it".to_string());
+    }
+    why.join("; ")
+}
+
 /// The text report of `armsheet identify`.
 pub fn render_identify(card: &Card, r: &Identified) -> String {
     let mut s = String::new();
@@ -157,6 +177,33 @@ pub fn render_identify(card: &Card, r: &Identified) -> String {
             s.push_str("add the deciding observation to the card, or choose one with --pick N\n");
         }
     }
+    if let Some(recount) = &r.recount {
+        if !recount.readings.is_empty() {
+            s.push_str(
+                "\na reading one off gives a more usual winding (count the bars and the throw again before stripping):\n",
+            );
+            for l in &recount.readings {
+                let _ = writeln!(s, "  - {l}");
+            }
+        }
+        if let Some(k) = r.candidates.first() {
+            let d = &k.checked.design;
+            let _ = writeln!(
+                s,
+                "\nthe best fit is unusual ({}): {}",
+                unusual_words(k),
+                recount.simplex_throws
+            );
+            if r.doubtful() && r.candidates.len() == 1 && !k.checked.has_errors() {
+                let _ = writeln!(
+                    s,
+                    "nothing is written until you confirm the {} {} with --pick 1",
+                    multiplicity_word(d.multiplicity),
+                    d.winding_type.as_str()
+                );
+            }
+        }
+    }
     if let Some(rule) = &r.rule_of_thumb {
         let _ = writeln!(s, "\ncross-check (common practice): {rule}");
     }
@@ -169,7 +216,15 @@ struct IdentifyJson<'a> {
     candidates: Vec<CandidateJson<'a>>,
     conflicts: &'a [String],
     decides: &'a [String],
+    doubtful: bool,
+    recount: Option<RecountJson<'a>>,
     rule_of_thumb: Option<&'a str>,
+}
+
+#[derive(Serialize)]
+struct RecountJson<'a> {
+    readings: &'a [String],
+    simplex_throws: &'a str,
 }
 
 #[derive(Serialize)]
@@ -215,6 +270,11 @@ pub fn write_identify_json<W: Write>(card: &Card, r: &Identified, mut out: W) ->
             .collect(),
         conflicts: &r.conflicts,
         decides: &r.decides,
+        doubtful: r.doubtful(),
+        recount: r.recount.as_ref().map(|c| RecountJson {
+            readings: &c.readings,
+            simplex_throws: &c.simplex_throws,
+        }),
         rule_of_thumb: r.rule_of_thumb.as_deref(),
     };
     serde_json::to_writer_pretty(&mut out, &view)?;

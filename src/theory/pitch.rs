@@ -46,6 +46,38 @@ pub fn reentrancy(c: u32, yc: i64) -> u32 {
     gcd(u64::from(c), yc.unsigned_abs()) as u32
 }
 
+/// A coil span against the poles: its sides' distance in pole pitches and in electrical degrees.
+///
+/// A coil works only when its two sides lie under poles of opposite polarity: with the coil
+/// centred on the interpolar axis, where it makes its EMF, each side must lie in the middle half
+/// of a pole, within a quarter pole pitch of that pole's axis, so |y/2 − 1/2| ≤ 1/4 pole pitch:
+/// the sides are half to one and a half pole pitches apart (90° to 270° electrical, a pitch
+/// factor of at least sin 45°), modulo two pole pitches [derived; docs/domain.md, "Coil span
+/// limits"].
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct SpanAngle {
+    /// The sides' distance in pole pitches, y·P/S.
+    pub pole_pitches: f64,
+    /// The electrical angle between the sides, 0 to 360.
+    pub electrical_deg: f64,
+}
+
+impl SpanAngle {
+    /// The angle of a coil whose sides lie `span` slots apart on `slots` slots and `poles` poles.
+    pub fn new(span: u32, slots: u32, poles: u32) -> Self {
+        let pole_pitches = f64::from(span) * f64::from(poles) / f64::from(slots);
+        Self {
+            pole_pitches,
+            electrical_deg: (pole_pitches * 180.0).rem_euclid(360.0),
+        }
+    }
+
+    /// Whether the sides lie under poles of opposite polarity (90° to 270° electrical).
+    pub fn opposite_poles(&self) -> bool {
+        (90.0 - 1e-9..=270.0 + 1e-9).contains(&self.electrical_deg)
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -366,3 +366,181 @@ fn a_card_without_a_lead_swing_assumes_symmetric_leads() {
     assert!(said.contains("with lead offset 0"), "{said}");
     assert!(said.contains("set the brushes by a neutral test"), "{said}");
 }
+
+/// Runs identify with `-o` on a card in `dir`; returns the exit code, the text and whether a
+/// design file was written.
+fn identify_to(dir: &Path, name: &str, observed: &str, more: &[&str]) -> (i32, String, bool) {
+    let path = card(dir, name, observed);
+    let out = dir.join(format!("{name}.out.toml"));
+    let out_s = out.display().to_string();
+    let mut args = vec!["identify", path.as_str(), "-o", out_s.as_str()];
+    args.extend_from_slice(more);
+    let o = armsheet(&args);
+    let code = o.status.code().unwrap_or(-1);
+    (code, text(&o.stdout) + &text(&o.stderr), out.exists())
+}
+
+/// A 4-pole, 33-slot, 99-bar simplex wave (u 3, throw 1-51: p·y_c = 2·50 = C + 1) [derived]
+/// recorded with the bars counted one short: 98 bars read as a duplex wave with a dummy coil,
+/// which `check` refuses (33 slots on 2 pairs of paths is not whole). identify names the
+/// refusal, writes nothing, exits 1, and says that 99 bars gives the simplex wave.
+#[test]
+fn ninety_eight_bars_for_ninety_nine_is_caught_as_a_miscount() {
+    let dir = scratch("miscount-bars");
+    let card =
+        "poles = 4\nslots = 33\nbars = 98\ncoil_span = \"1-9\"\nlead_throw = \"1-51\"\nturns = 3\n";
+    let (code, said, wrote) = identify_to(&dir, "c98.toml", card, &[]);
+    assert_eq!(code, 1, "{said}");
+    assert!(!wrote, "{said}");
+    assert!(
+        said.contains("one winding fits: progressive duplex wave"),
+        "{said}"
+    );
+    assert!(
+        said.contains("check refuses the identified winding"),
+        "{said}"
+    );
+    assert!(
+        said.contains("- 99 bars gives a progressive simplex wave with no dummy coil"),
+        "{said}"
+    );
+    // The card as counted right: one simplex wave, written, exit 0, no recount.
+    let right = card.replace("bars = 98", "bars = 99");
+    let (code, said, wrote) = identify_to(&dir, "c99.toml", &right, &[]);
+    assert_eq!((code, wrote), (0, true), "{said}");
+    assert!(!said.contains("a reading one off"), "{said}");
+}
+
+/// The same armature with the throw read one bar long: "1-52" on 99 bars is a triplex wave
+/// (2·51 = C + 3), which `check` passes but no rewinder expects. identify ranks it, says that
+/// a throw of 1-51 gives the simplex wave, and holds the file back until `--pick 1` confirms.
+#[test]
+fn a_throw_one_long_is_held_back_until_confirmed() {
+    let dir = scratch("miscount-throw");
+    let card =
+        "poles = 4\nslots = 33\nbars = 99\ncoil_span = \"1-9\"\nlead_throw = \"1-52\"\nturns = 3\n";
+    let (code, said, wrote) = identify_to(&dir, "c.toml", card, &[]);
+    assert_eq!((code, wrote), (0, false), "{said}");
+    assert!(
+        said.contains("one winding fits: progressive triplex wave"),
+        "{said}"
+    );
+    assert!(
+        said.contains("- a throw of 1-51 gives a progressive simplex wave with no dummy coil"),
+        "{said}"
+    );
+    assert!(
+        said.contains("a triplex winding is rare in repair work"),
+        "{said}"
+    );
+    assert!(
+        said.contains("confirm the triplex wave with --pick 1"),
+        "{said}"
+    );
+    let (code, said, wrote) = identify_to(&dir, "c.toml", card, &["--pick", "1"]);
+    assert_eq!((code, wrote), (0, true), "{said}");
+    let v = json(&[
+        "identify",
+        &dir.join("c.toml").display().to_string(),
+        "--json",
+    ]);
+    assert_eq!(v["doubtful"], true, "{v}");
+    assert_eq!(
+        v["recount"]["readings"][0],
+        "a throw of 1-51 gives a progressive simplex wave with no dummy coil"
+    );
+}
+
+/// "1-16 on 25 bars" on 4 poles is a 5-plex wave (2·15 = C + 5) that `check` refuses; no
+/// reading one off gives a simplex winding, so identify names the simplex throws on 25 bars
+/// (1-13 or 1-14 for the wave [derived: (25 ± 1)/2 + 1]).
+#[test]
+fn a_five_plex_reading_names_the_simplex_throws() {
+    let dir = scratch("five-plex");
+    let (code, said, wrote) = identify_to(
+        &dir,
+        "c.toml",
+        "poles = 4\nslots = 25\nbars = 25\ncoil_span = \"1-7\"\nlead_throw = \"1-16\"\nturns = 3\n",
+        &[],
+    );
+    assert_eq!((code, wrote), (1, false), "{said}");
+    assert!(said.contains("5-plex wave"), "{said}");
+    assert!(said.contains("a simplex wave 1-14 or 1-13"), "{said}");
+    assert!(
+        said.contains("check refuses the identified winding"),
+        "{said}"
+    );
+}
+
+/// A dead coil recorded on a lap card (24 slots, 24 bars, throw 1-2) is a conflict: a lap uses
+/// every coil [textbook: dummy coils belong to wave windings; docs/domain.md, "Dummy coils"].
+#[test]
+fn a_dead_coil_on_a_lap_card_is_named() {
+    let dir = scratch("lap-dead");
+    let (code, said, wrote) = identify_to(
+        &dir,
+        "c.toml",
+        "poles = 4\nslots = 24\nbars = 24\ncoil_span = \"1-7\"\nlead_throw = \"1-2\"\nturns = 3\ndead_coils = [3]\n",
+        &[],
+    );
+    assert_eq!((code, wrote), (1, false), "{said}");
+    assert!(said.contains("uses every coil, so none is dead"), "{said}");
+    assert!(
+        said.contains("dead coils are listed in slot(s) 3"),
+        "{said}"
+    );
+}
+
+/// A dead-coil count that conflicts is blamed on the dead coils, not on the bars and throw,
+/// which fit (33 slots of 3 coils on 99 bars leave no dummy, yet one dead coil is listed).
+#[test]
+fn a_dead_coil_count_that_conflicts_is_blamed_on_the_dead_coils() {
+    let dir = scratch("dead-count");
+    let (code, said, _) = identify_to(
+        &dir,
+        "c.toml",
+        "poles = 4\nslots = 33\nbars = 99\ncoil_span = \"1-9\"\nlead_throw = \"1-51\"\nturns = 3\ndead_coils = [3]\n",
+        &[],
+    );
+    assert_eq!(code, 1, "{said}");
+    assert!(
+        said.contains("leaves 0 dummy coil(s), but 1 dead coil(s) are listed"),
+        "{said}"
+    );
+    assert!(
+        !said.contains("count the bars and the throw again"),
+        "{said}"
+    );
+}
+
+/// An impossible span is blamed on the span: "1-19" on 36 slots and 4 poles is two pole
+/// pitches (0 electrical degrees), so the sides lie under poles of the same polarity
+/// [derived; docs/domain.md, "Coil span limits"]. On 24 slots "1-19" is three pole pitches,
+/// possible but far off, and the swing conflict it makes names the span first.
+#[test]
+fn an_impossible_span_is_blamed_on_the_span() {
+    let dir = scratch("span-19");
+    let (code, said, _) = identify_to(
+        &dir,
+        "c36.toml",
+        "poles = 4\nslots = 36\nbars = 36\ncoil_span = \"1-19\"\nlead_throw = \"1-2\"\nlead_swing = 3\nturns = 3\n",
+        &[],
+    );
+    assert_eq!(code, 1, "{said}");
+    assert!(
+        said.contains("the coil span 1-19 is 18 slots, 2.00 pole pitches"),
+        "{said}"
+    );
+    assert!(!said.contains("lead swing of +3 bars is"), "{said}");
+    let (code, said, _) = identify_to(
+        &dir,
+        "c24.toml",
+        "poles = 4\nslots = 24\nbars = 24\ncoil_span = \"1-19\"\nlead_throw = \"1-2\"\nlead_swing = 3\nturns = 3\n",
+        &[],
+    );
+    assert_eq!(code, 1, "{said}");
+    assert!(
+        said.contains("the coil span 1-19 is 12.00 slots longer than the pole pitch"),
+        "{said}"
+    );
+}

@@ -13,13 +13,14 @@
 //! fixes the design's `lead_offset` (the engine's `LeadSwing` convention): the offset is the
 //! observed swing less the swing on neutral, then traced again to confirm.
 
+use crate::base::number::fmt_fixed;
 use crate::checks::BAR_RULE;
 use crate::checks::{Checked, check};
 use crate::design::{
     Card, Commutator, Conductor, Design, DesignSpec, Direction, EqualizerChoice, HalfBars, Limits,
     Mode, SpanSource, WindingType, bounds,
 };
-use crate::theory::pitch::gcd;
+use crate::theory::pitch::{SpanAngle, gcd};
 use crate::theory::words::{half_bars_words, multiplicity_word, span_shop};
 use crate::theory::{Wave, WindingKind, bar_rule, wave_pitch_whole};
 use crate::winding::{EqualizerPlan, place_dummies};
@@ -45,12 +46,155 @@ pub struct Identified {
     /// The shop's bar-count rule of thumb as a cross-check (common practice), when it speaks
     /// for the pole count.
     pub rule_of_thumb: Option<String>,
+    /// When nothing fits, or the most usual fit is unusual (multiplex, dummy coils the card does
+    /// not list, or refused by `check`): the readings one off that give a more usual winding.
+    pub recount: Option<Recount>,
 }
 
-/// Finds every winding that fits `card`.
+/// The readings one off that give a more usual winding: a bar or a throw miscounted by one
+/// turns a simplex wave into a duplex or triplex one [common practice].
+#[derive(Clone, Debug)]
+pub struct Recount {
+    /// Each more usual winding `check` passes, with the readings that give it, e.g. "99 bars,
+    /// or a throw of 1-51, gives a progressive simplex wave with no dummy coil".
+    pub readings: Vec<String>,
+    /// The simplex throws on the bars counted.
+    pub simplex_throws: String,
+}
+
+impl Identified {
+    /// Whether the one fit should be held back until it is picked: it is unusual and a reading
+    /// one off gives a more usual winding.
+    pub fn doubtful(&self) -> bool {
+        self.recount
+            .as_ref()
+            .is_some_and(|r| !r.readings.is_empty())
+    }
+}
+
+/// How usual a reading is, least first: refused by `check`, then multiplicity, then dummy
+/// coils the card does not list (the trade's first choice is a simplex winding on every coil;
+/// listed dead coils are observed, not guessed).
+fn usualness(card: &Card, k: &Candidate) -> (bool, u32, u32) {
+    let d = &k.checked.design;
+    let unlisted = if card.dead_coils.is_some() {
+        0
+    } else {
+        d.coil_positions() - d.segments
+    };
+    (k.checked.has_errors(), d.multiplicity, unlisted)
+}
+
+/// The most usual reading of all.
+const USUAL: (bool, u32, u32) = (false, 1, 0);
+
+/// Finds every winding that fits `card`, the most usual first; when that is not a plain
+/// simplex winding `check` passes, also the readings one off that give one.
 pub fn identify(card: &Card) -> Identified {
+    let mut found = fits(card);
+    let best = found.candidates.first().map(|k| usualness(card, k));
+    if best != Some(USUAL) {
+        let r = recount(card, best);
+        // A simplex fit `check` passes whose only oddity is a dummy coil is the wave's usual
+        // remedy; it is questioned only when a reading one off avoids the dummy.
+        let only_dummies = best.is_some_and(|(fails, m, _)| !fails && m == 1);
+        if !(only_dummies && r.readings.is_empty()) {
+            found.recount = Some(r);
+        }
+    }
+    found
+}
+
+/// The neighbouring cards: the bars and the throw each counted one off.
+fn neighbours(card: &Card) -> Vec<(String, Card)> {
+    let mut out = Vec::new();
+    for bars in [card.bars.checked_sub(1), card.bars.checked_add(1)]
+        .into_iter()
+        .flatten()
+    {
+        let fits_bars = |b: u32| b <= bars;
+        let in_range = card.throw_end <= bars
+            && card.equalizer_taps.iter().all(|&(_, b)| fits_bars(b))
+            && card
+                .wave_throw
+                .is_none_or(|(a, b)| fits_bars(a) && fits_bars(b))
+            && bars >= card.poles;
+        if in_range {
+            out.push((
+                format!("{bars} bars"),
+                Card {
+                    bars,
+                    ..card.clone()
+                },
+            ));
+        }
+    }
+    for end in [card.throw_end - 1, card.throw_end + 1] {
+        if (2..=card.bars).contains(&end) {
+            out.push((
+                format!("a throw of 1-{end}"),
+                Card {
+                    throw_end: end,
+                    ..card.clone()
+                },
+            ));
+        }
+    }
+    out
+}
+
+/// The readings one off whose most usual fit is a simplex winding `check` passes and more
+/// usual than `best`, grouped by the winding they give.
+fn recount(card: &Card, best: Option<(bool, u32, u32)>) -> Recount {
+    let mut readings: Vec<(String, Vec<String>)> = Vec::new();
+    for (reading, other) in neighbours(card) {
+        let found = fits(&other);
+        let Some(k) = found.candidates.first() else {
+            continue;
+        };
+        let key = usualness(&other, k);
+        if key.0 || key.1 != 1 || best.is_some_and(|b| key >= b) {
+            continue;
+        }
+        let d = &k.checked.design;
+        let dummies = d.coil_positions() - d.segments;
+        let words = format!(
+            "{} {} {} with {}",
+            d.direction.as_str(),
+            multiplicity_word(d.multiplicity),
+            d.winding_type.as_str(),
+            match dummies {
+                0 => "no dummy coil".to_string(),
+                n => format!("{n} dummy coil(s)"),
+            }
+        );
+        match readings.iter_mut().find(|(w, _)| *w == words) {
+            Some((_, list)) => list.push(reading),
+            None => readings.push((words, vec![reading])),
+        }
+    }
+    Recount {
+        readings: readings
+            .into_iter()
+            .map(|(words, list)| format!("{} gives a {words}", list.join(", or ")))
+            .collect(),
+        simplex_throws: simplex_throws(card),
+    }
+}
+
+/// Every winding that fits `card`, the most usual first.
+fn fits(card: &Card) -> Identified {
     let mut candidates = Vec::new();
     let mut rejected = Vec::new();
+    if let Some(why) = span_conflict(card) {
+        return Identified {
+            candidates,
+            decides: Vec::new(),
+            conflicts: vec![why],
+            rule_of_thumb: None,
+            recount: None,
+        };
+    }
     let p = card.poles / 2;
     let c = card.bars;
     // Each element puts two leads on every bar, so four leads a bar is a frog-leg: a lap and a
@@ -102,6 +246,7 @@ pub fn identify(card: &Card) -> Identified {
             }
         }
     }
+    candidates.sort_by_key(|k| usualness(card, k));
     let decides = if candidates.len() > 1 {
         what_decides(&candidates)
     } else {
@@ -130,7 +275,30 @@ pub fn identify(card: &Card) -> Identified {
         decides,
         conflicts,
         rule_of_thumb,
+        recount: None,
     }
+}
+
+/// A recorded span whose sides would lie under poles of the same polarity: no winding fits it,
+/// whatever the bars and the throw say (the rule is [`SpanAngle`]'s, as `check` applies it).
+fn span_conflict(card: &Card) -> Option<String> {
+    let spans = [
+        Some(("coil span", card.coil_span)),
+        card.wave_coil_span.map(|y| ("wave coil span", y)),
+    ];
+    spans.into_iter().flatten().find_map(|(what, y)| {
+        let angle = SpanAngle::new(y, card.slots, card.poles);
+        (!angle.opposite_poles()).then(|| {
+            format!(
+                "the {what} {} is {y} slots, {} pole pitches of {} slots ({} electrical degrees): the coil's sides would lie under poles of the same polarity and it would make little or no EMF; count the span again from the marked slot as 1 (a pole pitch is near {})",
+                span_shop(y),
+                fmt_fixed(angle.pole_pitches, 2),
+                fmt_fixed(f64::from(card.slots) / f64::from(card.poles), 2),
+                fmt_fixed(angle.electrical_deg, 1),
+                span_shop((card.slots / card.poles).max(1))
+            )
+        })
+    })
 }
 
 /// The coils per slot that fit `kind`: C = u·S for lap; u·S − C dummies for a wave, the fewest
@@ -155,6 +323,17 @@ fn coil_counts(
         kind.as_str()
     );
     let mut out = Vec::new();
+    let listed = card.dead_coils.as_ref().filter(|dead| !dead.is_empty());
+    if let (true, Some(dead)) = (kind.kind().uses_every_coil(), listed) {
+        rejected.push(format!(
+            "a {name} uses every coil, so none is dead, but dead coils are listed in slot(s) {}: look again at those slots (a dead coil has its leads cut and taped, and a lap never has one)",
+            dead.iter().map(u32::to_string).collect::<Vec<_>>().join(", ")
+        ));
+        return out;
+    }
+    // A dead-coil count that conflicts is said once, for the fewest coils that hold the bars,
+    // so the conflict is laid on the dead coils and not on the bars and throw that fit.
+    let mut dead_told = false;
     for u in us {
         let n = u * s;
         if n < c || i64::from(n) > bounds::MAX_COILS {
@@ -175,7 +354,11 @@ fn coil_counts(
         };
         if fits {
             out.push(u);
-        } else if card.coils_per_slot.is_some() || (kind.kind().uses_every_coil() && n > c) {
+        } else if card.coils_per_slot.is_some()
+            || (kind.kind().uses_every_coil() && n > c)
+            || (card.dead_coils.is_some() && !dead_told)
+        {
+            dead_told |= card.dead_coils.is_some();
             rejected.push(match (kind, &card.dead_coils) {
                 (k, _) if k.kind().uses_every_coil() => format!(
                     "a {name} uses every coil: {u} coil(s) per slot in {s} slots needs {n} bars, you counted {c}"
@@ -238,8 +421,21 @@ fn candidate(
     let offset = observed - neutral;
     let offset = (offset + i64::from(c)).rem_euclid(2 * i64::from(c)) - i64::from(c);
     if i64::from(card.poles) * offset.abs() >= i64::from(c) {
+        let pole_pitch = f64::from(card.slots) / f64::from(card.poles);
+        let off = f64::from(card.coil_span) - pole_pitch;
+        let span = if off.abs() > 1.0 {
+            format!(
+                "; the coil span {} is {} slots {} than the pole pitch ({} slots), which moves neutral: count the span again before the swing",
+                span_shop(card.coil_span),
+                fmt_fixed(off.abs(), 2),
+                if off > 0.0 { "longer" } else { "shorter" },
+                fmt_fixed(pole_pitch, 2)
+            )
+        } else {
+            String::new()
+        };
         return Err(format!(
-            "a {name}: a lead swing of {} is {} from neutral (a swing of {}), half a pole pitch or more: the brushes could not sit on neutral",
+            "a {name}: a lead swing of {} is {} from neutral (a swing of {}), half a pole pitch or more: the brushes could not sit on neutral{span}",
             half_bars_words(observed),
             half_bars_words(offset),
             half_bars_words(neutral)
@@ -528,20 +724,29 @@ fn throw_conflict(card: &Card) -> String {
     } else {
         String::new()
     };
+    format!(
+        "{wave}you counted {c}; {}: count the bars and the throw again",
+        simplex_throws(card)
+    )
+}
+
+/// The simplex throws on the bars counted: "on 99 bars a simplex lap throws 1-2 or 1-99, a
+/// simplex wave 1-51 or 1-50".
+fn simplex_throws(card: &Card) -> String {
+    let (c, p) = (card.bars, card.poles / 2);
     let waves: Vec<String> = [Direction::Progressive, Direction::Retrogressive]
         .into_iter()
         .filter(|&dir| p >= 2 && wave_pitch_whole(c, 1, p, dir))
         .map(|dir| format!("1-{}", Wave.commutator_pitch(c, 1, p, dir) + 1))
         .collect();
-    let on_bars = if waves.is_empty() {
+    if waves.is_empty() {
         format!("on {c} bars a simplex lap throws 1-2 or 1-{c}")
     } else {
         format!(
             "on {c} bars a simplex lap throws 1-2 or 1-{c}, a simplex wave {}",
             waves.join(" or ")
         )
-    };
-    format!("{wave}you counted {c}; {on_bars}: count the bars and the throw again")
+    }
 }
 
 #[cfg(test)]
@@ -569,5 +774,47 @@ mod tests {
         assert_eq!(said.len(), 2, "{said:?}");
         assert!(said[0].starts_with("coils per slot 1 or 2: count the leads"));
         assert!(said[1].starts_with("dummy coils 0 or 1"));
+    }
+
+    /// The most usual reading first: simplex before multiplex, no dummy before dummies
+    /// unless the card lists dead coils, and what `check` refuses last.
+    #[test]
+    fn candidates_are_ranked_by_how_usual_they_are() {
+        let plain = only(
+            "poles = 4\nslots = 25\nbars = 25\ncoil_span = 6\nlead_throw = \"1-14\"\nturns = 2\n",
+        );
+        let dummy = only(
+            "poles = 4\nslots = 13\nbars = 25\ncoil_span = 3\nlead_throw = \"1-14\"\nturns = 2\n",
+        );
+        let triplex = only(
+            "poles = 4\nslots = 33\nbars = 99\ncoil_span = 8\nlead_throw = \"1-52\"\nturns = 2\n",
+        );
+        let refused = only(
+            "poles = 4\nslots = 27\nbars = 27\ncoil_span = 6\nlead_throw = \"1-2\"\nturns = 2\n",
+        );
+        let card = parse_card("[observed]\npoles = 4\nslots = 25\nbars = 25\ncoil_span = 6\nlead_throw = \"1-14\"\nturns = 2\n", "card").unwrap();
+        let mut list = [&refused, &triplex, &dummy, &plain];
+        list.sort_by_key(|k| usualness(&card, k));
+        let m: Vec<(u32, u32, bool)> = list
+            .iter()
+            .map(|k| {
+                let d = &k.checked.design;
+                (
+                    d.multiplicity,
+                    d.coil_positions() - d.segments,
+                    k.checked.has_errors(),
+                )
+            })
+            .collect();
+        assert_eq!(
+            m,
+            [(1, 0, false), (1, 1, false), (3, 0, false), (1, 0, true)]
+        );
+        // Dead coils listed on the card: the dummies are observed, not guessed.
+        let listed = Card {
+            dead_coils: Some(vec![13]),
+            ..card
+        };
+        assert_eq!(usualness(&listed, &dummy), usualness(&listed, &plain));
     }
 }
