@@ -225,7 +225,7 @@ fn combined_network_under_load_holds_pairs_equipotential() {
     }
 }
 
-/// The feasible frog-leg designs the property test draws: P 4-12, u 1-2, S a multiple of p
+/// The feasible frog-leg designs the property tests draw: P 4-12, u 1-2, S a multiple of p
 /// (so C/p and S/p are whole), span near the pole pitch.
 fn case() -> impl Strategy<Value = (u32, u32, u32, u32, i32)> {
     (2u32..=6, 1u32..=2, 3u32..=8, -1i32..=1).prop_flat_map(|(p, u, k, dw)| {
@@ -259,6 +259,27 @@ proptest! {
         let v = Network::under_load(w, &emfs(w), 1.0);
         let (worst, scale) = pair_spread(w, &v, poles / 2);
         prop_assert!(worst <= 1e-9 * scale.max(1.0), "worst {} of {}", worst, scale);
+        // The card a rewinder records from this armature, in the physical convention (the
+        // wave coil's leads either side of its own centre line, as traced), identifies it.
+        let first = &w.connections[0];
+        let wave = &w.connections[(w.elements[1].first_coil - 1) as usize];
+        let span_of = |k: &armsheet::winding::Connection| (k.bottom.slot + slots - k.top.slot) % slots + 1;
+        let card = format!(
+            "[observed]\npoles = {poles}\nslots = {slots}\nbars = {bars}\ncoil_span = \"1-{}\"\nlead_throw = \"1-{}\"\nlead_swing = {}\ncoils_per_slot = {u}\nturns = 1\nleads_per_bar = 4\nwave_throw = \"{}-{}\"\nwave_coil_span = \"1-{}\"\n",
+            span_of(first),
+            first.end_segment.unwrap(),
+            w.lead_swing.swing_half_bars(w.active_coils) as f64 / 2.0,
+            wave.start_segment.unwrap(),
+            wave.end_segment.unwrap(),
+            span_of(wave),
+        );
+        let card = armsheet::design::parse_card(&card, "card.toml").unwrap_or_else(|e| panic!("{card}\n{e}"));
+        let found = armsheet::features::identify::identify(&card);
+        prop_assert!(
+            found.candidates.iter().any(|k| k.checked.winding.connections == w.connections),
+            "{:?}",
+            found.conflicts
+        );
     }
 }
 
