@@ -193,6 +193,11 @@ fn locator_text(out: &mut String, l: &Location) {
             out,
             "  healthy: every reading is within tolerance of the healthy pattern"
         );
+    } else if l.all_zero {
+        let _ = writeln!(
+            out,
+            "  not healthy: every reading is zero where the winding reads a resistance: a shorted commutator (solder, carbon or copper across the bars) or the meter on the wrong range; check the range and the probes, then look along the commutator"
+        );
     } else {
         let _ = writeln!(
             out,
@@ -200,14 +205,21 @@ fn locator_text(out: &mut String, l: &Location) {
             list(&l.suspect_bars)
         );
     }
-    let best = l.faults.first();
-    let explains =
-        best.is_some_and(|f| f.score < 0.5 * l.healthy_score.max(1e-12) || f.score < 0.02);
-    if !l.healthy && !explains {
-        let _ = writeln!(
-            out,
-            "  no single fault explains these readings: check the probe contact and look for more than one fault"
-        );
+    match l.faults.first() {
+        Some(best) if !l.healthy && best.explains => {
+            let _ = writeln!(
+                out,
+                "  one fault explains every reading within tolerance: {}",
+                best.explanation
+            );
+        }
+        _ if !l.healthy && !l.all_zero => {
+            let _ = writeln!(
+                out,
+                "  no single fault explains every reading within tolerance: check the probe contact and look for more than one fault; the closest are"
+            );
+        }
+        _ => {}
     }
     if !l.healthy {
         for (i, f) in l.faults.iter().take(3).enumerate() {
@@ -260,6 +272,7 @@ fn locator_text(out: &mut String, l: &Location) {
 struct FaultJson {
     bars: Vec<u32>,
     coils: Vec<u32>,
+    explains: bool,
     explanation: String,
     kind: &'static str,
     score: f64,
@@ -268,6 +281,7 @@ struct FaultJson {
 
 #[derive(Serialize)]
 struct LocationJson {
+    all_zero: bool,
     faults: Vec<FaultJson>,
     healthy: bool,
     invisible: Vec<String>,
@@ -282,6 +296,7 @@ fn fault_json(f: &Fault) -> FaultJson {
     FaultJson {
         bars: f.bars.clone(),
         coils: f.coils.clone(),
+        explains: f.explains,
         explanation: f.explanation.clone(),
         kind: f.kind.key(),
         score: round_sig(f.score, DIGITS),
@@ -291,6 +306,7 @@ fn fault_json(f: &Fault) -> FaultJson {
 
 fn location_json(l: &Location) -> LocationJson {
     LocationJson {
+        all_zero: l.all_zero,
         faults: l.faults.iter().map(fault_json).collect(),
         healthy: l.healthy,
         invisible: l
