@@ -29,6 +29,7 @@ mod identify_round_trip;
 mod kill_sheet;
 mod kind_in_one_place;
 mod legibility;
+mod locator_memory;
 mod multiplex_equalizers;
 mod page_tree;
 mod rating_external;

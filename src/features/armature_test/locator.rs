@@ -20,6 +20,8 @@
 //! ranked. Only the best [`KEPT`] hypotheses are kept while ranking, so memory does not grow
 //! with the number tried.
 
+use std::collections::BTreeMap;
+
 use faer::Mat;
 use faer::linalg::solvers::Solve;
 
@@ -105,6 +107,8 @@ pub struct Fault {
     /// own fitted value, plus 1 for each reading open where the hypothesis says closed or the
     /// other way round. Lower is better; scale-free.
     pub score: f64,
+    /// The largest misfit of one reading, relative to its own fitted value.
+    pub worst: f64,
     /// Every reading lies within the tolerance of what this fault predicts.
     pub explains: bool,
     /// The fitted size: fraction shorted, extra resistance or track resistance in coil
@@ -185,12 +189,16 @@ impl Transfer<'_> {
     }
 }
 
-/// A hypothesis's readings judged against the measured ones.
+/// A hypothesis's readings judged against the measured ones: its prediction for each group
+/// of readings, and for the few readings it tells apart from their group.
+#[derive(Clone)]
 struct Fit {
     score: f64,
+    worst: f64,
     explains: bool,
     scale: f64,
     predicted: Vec<Option<f64>>,
+    own: Vec<(usize, Option<f64>)>,
 }
 
 fn slots_of(coils: &[u32], net_slots: &[(u32, u32)]) -> Vec<u32> {
@@ -206,13 +214,59 @@ fn slots_of(coils: &[u32], net_slots: &[(u32, u32)]) -> Vec<u32> {
     s
 }
 
-/// The readings the locator works on: the measured pairs (as bars and as network nodes),
-/// the healthy pattern in coil resistances and the healthy network's grounded inverse.
+/// The measured readings of one cell: a group's readings, or one reading alone.
+#[derive(Clone, Copy, Debug, Default)]
+struct Stats {
+    /// Numeric readings.
+    n: f64,
+    /// Readings shown open.
+    open: usize,
+    /// Σ m and Σ m² over the numeric readings.
+    sm: f64,
+    sm2: f64,
+    /// Least and largest numeric reading.
+    lo: f64,
+    hi: f64,
+}
+
+impl Stats {
+    fn add(&mut self, v: ReadingValue) {
+        match v {
+            ReadingValue::Value(m) => {
+                if self.n == 0.0 {
+                    (self.lo, self.hi) = (m, m);
+                }
+                self.n += 1.0;
+                self.sm += m;
+                self.sm2 += m * m;
+                self.lo = self.lo.min(m);
+                self.hi = self.hi.max(m);
+            }
+            ReadingValue::Open => self.open += 1,
+        }
+    }
+}
+
+/// The readings on one pair of network nodes: every hypothesis that changes coils or joins
+/// nodes predicts them alike (bars an equalizer ties share a node, so a large equalized
+/// winding has few groups).
+struct Group {
+    stats: Stats,
+    members: Vec<usize>,
+}
+
+/// The readings the locator works on: the measured pairs (as bars, and grouped by their
+/// network nodes), the healthy pattern in coil resistances and the healthy network's
+/// grounded inverse. `pairs` and `base` are per group.
 struct Problem<'a> {
     net: &'a Network,
     z: Transfer<'a>,
     meas: Vec<ReadingValue>,
     bars: Vec<(u32, u32)>,
+    group_of: Vec<usize>,
+    /// The readings that probe each bar (index bar − 1).
+    by_bar: Vec<Vec<usize>>,
+    groups: Vec<Group>,
     pairs: Vec<(usize, usize)>,
     base: Vec<Option<f64>>,
     /// The least reference a reading is judged against: a hundredth of the mean healthy
@@ -222,69 +276,111 @@ struct Problem<'a> {
 }
 
 impl Problem<'_> {
-    /// w_q = c_qᵀ Z b for every reading q, with b the branch between nodes `e`.
+    /// w_g = c_gᵀ Z b for every group g, with b the branch between nodes `e`.
     fn transfer_to(&self, e: (usize, usize)) -> Vec<f64> {
         self.pairs.iter().map(|&q| self.z.t(q, e)).collect()
     }
 
-    /// What reading `q` is judged against: its healthy value, or the hypothesis's own where
-    /// the healthy winding reads open, never below the floor.
-    fn reference(&self, q: usize, predicted: Option<f64>) -> f64 {
-        self.base[q].or(predicted).unwrap_or(0.0).max(self.floor)
+    /// What group `g`'s readings are judged against: their healthy value, or the
+    /// hypothesis's own where the healthy winding reads open, never below the floor.
+    fn reference(&self, g: usize, predicted: Option<f64>) -> f64 {
+        self.base[g].or(predicted).unwrap_or(0.0).max(self.floor)
     }
 
-    /// Judges `predicted` (coil resistances): the scale by weighted least squares (each
-    /// reading weighted by its reference's inverse square), then the rms relative misfit and
-    /// whether every reading is within the tolerance.
-    fn judge(&self, predicted: Vec<Option<f64>>) -> Fit {
+    /// Visits the measured readings in cells: a whole group where the hypothesis gives all
+    /// its readings `groups[g]`, one reading alone where `own` gives it a value of its own.
+    fn cells<T: Copy>(
+        &self,
+        groups: &[T],
+        own: &[(usize, T)],
+        mut f: impl FnMut(&Stats, usize, T),
+    ) {
+        for (g, group) in self.groups.iter().enumerate() {
+            if !own.iter().any(|(q, _)| self.group_of[*q] == g) {
+                f(&group.stats, g, groups[g]);
+                continue;
+            }
+            for &q in &group.members {
+                let mut one = Stats::default();
+                one.add(self.meas[q]);
+                let v = own
+                    .iter()
+                    .find(|(r, _)| *r == q)
+                    .map_or(groups[g], |(_, v)| *v);
+                f(&one, g, v);
+            }
+        }
+    }
+
+    /// Judges a prediction (coil resistances, per group, and `own` readings): the scale by
+    /// weighted least squares (each reading weighted by its reference's inverse square), then
+    /// the rms and the worst relative misfit, and whether every reading is within the
+    /// tolerance.
+    fn judge_with(&self, predicted: Vec<Option<f64>>, own: Vec<(usize, Option<f64>)>) -> Fit {
         let (mut mp, mut pp, mut bad) = (0.0, 0.0, 0usize);
-        for (q, (m, p)) in self.meas.iter().zip(&predicted).enumerate() {
-            match (m, p) {
-                (ReadingValue::Value(m), Some(p)) => {
-                    let w = self.reference(q, Some(*p)).powi(-2);
-                    mp += w * m * p;
-                    pp += w * p * p;
-                }
-                (ReadingValue::Open, None) => {}
-                _ => bad += 1,
+        self.cells(&predicted, &own, |st, g, p| match p {
+            Some(p) => {
+                let w = self.reference(g, Some(p)).powi(-2);
+                mp += w * p * st.sm;
+                pp += w * p * p * st.n;
+                bad += st.open;
             }
-        }
+            None => bad += st.n as usize,
+        });
         let scale = if pp > 0.0 { (mp / pp).max(0.0) } else { 0.0 };
-        let (mut sum, mut n, mut explains) = (0.0, 0usize, bad == 0);
-        for (q, (m, p)) in self.meas.iter().zip(&predicted).enumerate() {
-            if let (ReadingValue::Value(m), Some(p)) = (m, p) {
-                let at = scale * self.reference(q, Some(*p));
-                let off = (m - scale * p).abs();
-                let rel = if at > 0.0 { off / at } else { 1.0 };
-                explains &= at > 0.0 && off <= self.tolerance * at;
-                sum += rel * rel;
-                n += 1;
+        let (mut sum, mut n, mut worst) = (0.0, 0.0, 0.0f64);
+        self.cells(&predicted, &own, |st, g, p| {
+            if let (Some(p), true) = (p, st.n > 0.0) {
+                let at = scale * self.reference(g, Some(p));
+                let fitted = scale * p;
+                let off2 = (st.sm2 - 2.0 * fitted * st.sm + st.n * fitted * fitted).max(0.0);
+                let far = (st.hi - fitted).abs().max((st.lo - fitted).abs());
+                if at > 0.0 {
+                    sum += off2 / (at * at);
+                    worst = worst.max(far / at);
+                } else {
+                    sum += st.n;
+                    worst = f64::INFINITY;
+                }
+                n += st.n;
             }
-        }
-        let rms = if n > 0 { (sum / n as f64).sqrt() } else { 0.0 };
+        });
+        let rms = if n > 0.0 { (sum / n).sqrt() } else { 0.0 };
         Fit {
             score: rms + bad as f64,
-            explains,
+            worst,
+            explains: bad == 0 && worst <= self.tolerance,
             scale,
             predicted,
+            own,
         }
     }
 
-    /// Fits `ratio` in [lo, hi] for m ≈ α·(a_q + ratio·c_q) by weighted least squares over
-    /// the numeric readings (m ≈ α a + β c, ratio = β/α); the upper bound when the fit runs
-    /// away.
-    fn fit_ratio(&self, a: &[Option<f64>], c: &[f64], lo: f64, hi: f64) -> f64 {
+    fn judge(&self, predicted: Vec<Option<f64>>) -> Fit {
+        self.judge_with(predicted, Vec::new())
+    }
+
+    /// Fits `ratio` in [lo, hi] for m ≈ α·(a + ratio·c) by weighted least squares over the
+    /// numeric readings (m ≈ α a + β c, ratio = β/α), with (a, c) per group and for the `own`
+    /// readings; the upper bound when the fit runs away.
+    fn fit_ratio_with(
+        &self,
+        model: &[(Option<f64>, f64)],
+        own: &[(usize, (Option<f64>, f64))],
+        lo: f64,
+        hi: f64,
+    ) -> f64 {
         let (mut a11, mut a12, mut a22, mut b1, mut b2) = (0.0, 0.0, 0.0, 0.0, 0.0);
-        for (q, ((m, x), v)) in self.meas.iter().zip(a).zip(c).enumerate() {
-            if let (ReadingValue::Value(m), Some(x)) = (m, x) {
-                let w = self.reference(q, Some(*x)).powi(-2);
-                a11 += w * x * x;
-                a12 += w * x * v;
-                a22 += w * v * v;
-                b1 += w * x * m;
-                b2 += w * v * m;
+        self.cells(model, own, |st, g, (x, v)| {
+            if let Some(x) = x {
+                let w = self.reference(g, Some(x)).powi(-2);
+                a11 += w * x * x * st.n;
+                a12 += w * x * v * st.n;
+                a22 += w * v * v * st.n;
+                b1 += w * x * st.sm;
+                b2 += w * v * st.sm;
             }
-        }
+        });
         let det = a11 * a22 - a12 * a12;
         let ratio = if det.abs() > 1e-12 * a11 * a22.max(1e-300) && a11 > 0.0 {
             let alpha = (b1 * a22 - b2 * a12) / det;
@@ -298,6 +394,11 @@ impl Problem<'_> {
         } else {
             hi
         }
+    }
+
+    fn fit_ratio(&self, a: &[Option<f64>], c: &[f64], lo: f64, hi: f64) -> f64 {
+        let model: Vec<(Option<f64>, f64)> = a.iter().copied().zip(c.iter().copied()).collect();
+        self.fit_ratio_with(&model, &[], lo, hi)
     }
 
     /// The healthy readings changed by τ·w² (a rank-one change), never below zero.
@@ -318,15 +419,29 @@ impl Problem<'_> {
 
     /// The largest relative change a prediction makes to the healthy readings (infinite
     /// where it opens or closes one).
-    fn effect(&self, pred: &[Option<f64>]) -> f64 {
-        pred.iter()
-            .zip(&self.base)
-            .map(|(p, b)| match (p, b) {
+    fn effect(&self, fit: &Fit) -> f64 {
+        let mut most = 0.0f64;
+        self.cells(&fit.predicted, &fit.own, |_, g, p| {
+            let change = match (p, self.base[g]) {
                 (Some(p), Some(b)) => (p - b).abs() / b.max(self.floor),
                 (None, None) => 0.0,
                 _ => f64::INFINITY,
+            };
+            most = most.max(change);
+        });
+        most
+    }
+
+    /// The prediction of every measured reading, in their order.
+    fn readings_of(&self, fit: &Fit) -> Vec<Option<f64>> {
+        (0..self.meas.len())
+            .map(|q| {
+                fit.own
+                    .iter()
+                    .find(|(r, _)| *r == q)
+                    .map_or(fit.predicted[self.group_of[q]], |(_, v)| *v)
             })
-            .fold(0.0, f64::max)
+            .collect()
     }
 }
 
@@ -358,7 +473,7 @@ impl Ranking<'_> {
             self.invisible[h.kind as usize] += 1;
             return;
         }
-        if pr.effect(&fit.predicted) < 0.5 * pr.tolerance {
+        if pr.effect(&fit) < 0.5 * pr.tolerance {
             return;
         }
         let order = |f: &Fault| (f.score, f.kind, f.bars.clone());
@@ -381,11 +496,12 @@ impl Ranking<'_> {
                 coils: h.coils,
                 bars: h.bars,
                 score: fit.score,
+                worst: fit.worst,
                 explains: fit.explains,
                 size: h.size,
                 scale: fit.scale,
-                predicted: fit
-                    .predicted
+                predicted: pr
+                    .readings_of(&fit)
                     .iter()
                     .map(|p| p.map(|p| p * fit.scale))
                     .collect(),
@@ -419,10 +535,33 @@ pub fn locate(
         }
     }
     let zv = net.inverse();
-    let base: Vec<Option<f64>> = rows
-        .iter()
-        .map(|(r, _)| r.expected.map(|e| e / scale0))
-        .collect();
+    // Group the readings by their two nodes (the lower first).
+    let mut index = BTreeMap::new();
+    let (mut groups, mut pairs, mut base, mut group_of) =
+        (Vec::new(), Vec::new(), Vec::new(), Vec::new());
+    for (q, (r, v)) in rows.iter().enumerate() {
+        let (a, b) = (net.node(r.from_bar), net.node(r.to_bar));
+        let key = (a.min(b), a.max(b));
+        let g = *index.entry(key).or_insert_with(|| {
+            groups.push(Group {
+                stats: Stats::default(),
+                members: Vec::new(),
+            });
+            pairs.push(key);
+            base.push(r.expected.map(|e| e / scale0));
+            groups.len() - 1
+        });
+        groups[g].stats.add(*v);
+        groups[g].members.push(q);
+        group_of.push(g);
+    }
+    let mut by_bar = vec![Vec::new(); net.bars as usize];
+    for (q, (r, _)) in rows.iter().enumerate() {
+        by_bar[r.from_bar as usize - 1].push(q);
+        if r.to_bar != r.from_bar {
+            by_bar[r.to_bar as usize - 1].push(q);
+        }
+    }
     let positive: Vec<f64> = base
         .iter()
         .flatten()
@@ -438,10 +577,10 @@ pub fn locate(
         },
         meas: rows.iter().map(|(_, v)| *v).collect(),
         bars: rows.iter().map(|(r, _)| (r.from_bar, r.to_bar)).collect(),
-        pairs: rows
-            .iter()
-            .map(|(r, _)| (net.node(r.from_bar), net.node(r.to_bar)))
-            .collect(),
+        by_bar,
+        group_of,
+        groups,
+        pairs,
         base,
         floor: (0.01 * mean).max(1e-12),
         tolerance,
@@ -454,15 +593,51 @@ pub fn locate(
         invisible: vec![0usize; FaultKind::ALL.len()],
     };
     if !healthy.all_zero {
+        // Hypotheses on the same nodes with the same resistances read alike (bars an
+        // equalizer ties share a node): each such set is fitted once.
+        let key = |c: &NetCoil| {
+            (
+                net.node(c.from_bar),
+                net.node(c.to_bar),
+                c.resistance.to_bits(),
+            )
+        };
+        let mut coils: BTreeMap<(usize, usize, u64), Vec<NetCoil>> = BTreeMap::new();
         for c in &net.coils {
-            coil_faults(&problem, c, &mut ranking);
+            let (a, b, r) = key(c);
+            coils.entry((a.min(b), a.max(b), r)).or_default().push(*c);
+        }
+        for alike in coils.values() {
+            coil_faults(&problem, alike, &mut ranking);
         }
         let c_bars = net.bars;
+        let mut tracks: BTreeMap<(usize, usize), Vec<(u32, u32)>> = BTreeMap::new();
+        let mut crossings: BTreeMap<Vec<(usize, usize, u64)>, Vec<Crossing>> = BTreeMap::new();
         for j in 1..=c_bars {
             let k = j % c_bars + 1;
             bar_faults(&problem, j, &mut ranking);
-            shorted_bars(&problem, j, k, &mut ranking);
-            crossed_lead_fault(&problem, j, k, &mut ranking);
+            tracks
+                .entry((net.node(j), net.node(k)))
+                .or_default()
+                .push((j, k));
+            if let Some(moves) = crossed_leads(&net.coils, j, k) {
+                let changed = [
+                    moves[0].1,
+                    net.coils[moves[0].0],
+                    moves[1].1,
+                    net.coils[moves[1].0],
+                ];
+                crossings
+                    .entry(changed.iter().map(key).collect())
+                    .or_default()
+                    .push((j, k, moves));
+            }
+        }
+        for alike in tracks.values() {
+            shorted_bars(&problem, alike, &mut ranking);
+        }
+        for alike in crossings.values() {
+            crossed_lead_fault(&problem, alike, &mut ranking);
         }
     }
     Location {
@@ -495,10 +670,11 @@ struct Healthy {
 /// zero), and the bars of every reading outside tolerance of the healthy pattern at that
 /// scale; every reading zero where the winding reads a resistance is said as such.
 fn healthy_pattern(pr: &Problem, rows: &[(Reading, ReadingValue)], tolerance: f64) -> Healthy {
+    let base: Vec<Option<f64>> = pr.group_of.iter().map(|&g| pr.base[g]).collect();
     let numeric: Vec<(f64, f64)> = pr
         .meas
         .iter()
-        .zip(&pr.base)
+        .zip(&base)
         .filter_map(|(m, b)| match (m, b) {
             (ReadingValue::Value(m), Some(b)) if *b > 0.0 => Some((*m, *b)),
             _ => None,
@@ -513,7 +689,7 @@ fn healthy_pattern(pr: &Problem, rows: &[(Reading, ReadingValue)], tolerance: f6
     let all_zero = !numeric.is_empty() && ratios.is_empty();
     let scale = ratios.get(ratios.len() / 2).copied().unwrap_or(1.0);
     let mut suspect_bars = Vec::new();
-    for ((r, m), b) in rows.iter().zip(&pr.base) {
+    for ((r, m), b) in rows.iter().zip(&base) {
         let ok = match (m, b) {
             (ReadingValue::Value(m), Some(b)) => {
                 !all_zero && (m - scale * b).abs() <= tolerance * scale * b.max(pr.floor)
@@ -535,8 +711,11 @@ fn healthy_pattern(pr: &Problem, rows: &[(Reading, ReadingValue)], tolerance: f6
 }
 
 /// The faults of one coil: open, shorted (a fitted fraction) and a high-resistance joint of
-/// one lead (a fitted extra resistance), for a coil of conductance g = 1/r.
-fn coil_faults(pr: &Problem, c: &NetCoil, out: &mut Ranking) {
+/// one lead (a fitted extra resistance), for a coil of conductance g = 1/r. `alike` are coils
+/// between the same two nodes with the same resistance (bars an equalizer ties): they read
+/// alike, so the fits are made once and offered for each.
+fn coil_faults(pr: &Problem, alike: &[NetCoil], out: &mut Ranking) {
+    let c = alike[0];
     let e = (pr.net.node(c.from_bar), pr.net.node(c.to_bar));
     if e.0 == e.1 {
         return;
@@ -545,16 +724,8 @@ fn coil_faults(pr: &Problem, c: &NetCoil, out: &mut Ranking) {
     let d = pr.z.t(e, e);
     let w = pr.transfer_to(e);
     let visible = seen(&w);
-    let bars = vec![c.from_bar, c.to_bar];
-    let hypothesis = |kind, size, words| Hypothesis {
-        kind,
-        coils: vec![c.coil],
-        bars: bars.clone(),
-        size,
-        words,
-    };
     // Open coil: Δg = −g.
-    let fit = if 1.0 - g * d < 1e-9 {
+    let open = if 1.0 - g * d < 1e-9 {
         // The coil is a bridge: every reading through it opens.
         pr.judge(
             pr.base
@@ -566,65 +737,79 @@ fn coil_faults(pr: &Problem, c: &NetCoil, out: &mut Ranking) {
     } else {
         pr.judge(pr.rank_one(&w, -g / (1.0 - g * d)))
     };
-    let words = format!(
-        "coil {} open (broken or unsoldered) between bars {} and {}",
-        c.coil, c.from_bar, c.to_bar
-    );
-    out.push(
-        pr,
-        hypothesis(FaultKind::OpenCoil, None, words),
-        fit,
-        visible,
-    );
     // Shorted coil: fraction f in (0, 1], Δg = g·f/(1 − f), τ in [0, 1/d].
-    let (tau, fit) = pr.fit_rank_one(&w, 0.0, 1.0 / d);
+    let (tau, shorted) = pr.fit_rank_one(&w, 0.0, 1.0 / d);
     let dg = tau / (1.0 - tau * d).max(1e-300);
     let f = (dg / (g + dg)).clamp(0.0, 1.0);
-    let words = format!(
-        "coil {} shorted, about {:.0} % of it (fitted)",
-        c.coil,
-        100.0 * f
-    );
-    out.push(
-        pr,
-        hypothesis(FaultKind::ShortedCoil, Some(f), words),
-        fit,
-        visible,
-    );
     // High-resistance joint: extra x in [0, JOINT_MAX_COILS], Δg = 1/(r + x) − g.
     let dg_min = 1.0 / (r + JOINT_MAX_COILS) - g;
     let lo = dg_min / (1.0 + dg_min * d);
-    let (tau, fit) = pr.fit_rank_one(&w, lo, 0.0);
+    let (tau, joint) = pr.fit_rank_one(&w, lo, 0.0);
     let dg = tau / (1.0 - tau * d);
     let x = (1.0 / (g + dg) - r).max(0.0);
-    let words = format!(
-        "a poor joint of one lead of coil {} (at bar {} or bar {}, the two read alike), about {:.2} coil resistances extra (fitted)",
-        c.coil, c.from_bar, c.to_bar, x
-    );
-    out.push(
-        pr,
-        hypothesis(FaultKind::HighResistanceJoint, Some(x), words),
-        fit,
-        visible,
-    );
+    for c in alike {
+        let hypothesis = |kind, size, words| Hypothesis {
+            kind,
+            coils: vec![c.coil],
+            bars: vec![c.from_bar, c.to_bar],
+            size,
+            words,
+        };
+        let words = format!(
+            "coil {} open (broken or unsoldered) between bars {} and {}",
+            c.coil, c.from_bar, c.to_bar
+        );
+        out.push(
+            pr,
+            hypothesis(FaultKind::OpenCoil, None, words),
+            open.clone(),
+            visible,
+        );
+        let words = format!(
+            "coil {} shorted, about {:.0} % of it (fitted)",
+            c.coil,
+            100.0 * f
+        );
+        out.push(
+            pr,
+            hypothesis(FaultKind::ShortedCoil, Some(f), words),
+            shorted.clone(),
+            visible,
+        );
+        let words = format!(
+            "a poor joint of one lead of coil {} (at bar {} or bar {}, the two read alike), about {:.2} coil resistances extra (fitted)",
+            c.coil, c.from_bar, c.to_bar, x
+        );
+        out.push(
+            pr,
+            hypothesis(FaultKind::HighResistanceJoint, Some(x), words),
+            joint.clone(),
+            visible,
+        );
+    }
 }
 
 /// The faults of bar `j` itself: a poor riser-to-bar joint (a fitted resistance added to
 /// each reading that probes bar j, as many times as the reading's ends lie on it), and the
 /// bar cut off the winding (every reading that probes it open).
 fn bar_faults(pr: &Problem, j: u32, out: &mut Ranking) {
-    let k: Vec<f64> = pr
-        .bars
+    let touch: Vec<(usize, f64)> = pr.by_bar[j as usize - 1]
         .iter()
-        .map(|&(a, b)| f64::from(u8::from(a == j) + u8::from(b == j)))
+        .map(|&q| {
+            let (a, b) = pr.bars[q];
+            (q, f64::from(u8::from(a == j) + u8::from(b == j)))
+        })
         .collect();
-    let visible = k.iter().any(|&k| k > 0.0);
-    let x = pr.fit_ratio(&pr.base, &k, 0.0, JOINT_MAX_COILS);
-    let predicted = pr
-        .base
+    let visible = !touch.is_empty();
+    let model: Vec<(Option<f64>, f64)> = pr.base.iter().map(|&b| (b, 0.0)).collect();
+    let own: Vec<(usize, (Option<f64>, f64))> = touch
         .iter()
-        .zip(&k)
-        .map(|(r, k)| r.map(|r| r + x * k))
+        .map(|&(q, k)| (q, (pr.base[pr.group_of[q]], k)))
+        .collect();
+    let x = pr.fit_ratio_with(&model, &own, 0.0, JOINT_MAX_COILS);
+    let raised = touch
+        .iter()
+        .map(|&(q, k)| (q, pr.base[pr.group_of[q]].map(|r| r + x * k)))
         .collect();
     out.push(
         pr,
@@ -637,15 +822,10 @@ fn bar_faults(pr: &Problem, j: u32, out: &mut Ranking) {
                 "a poor riser-to-bar joint at bar {j} (both leads behind it), about {x:.2} coil resistances (fitted): reheat and resolder the riser"
             ),
         },
-        pr.judge(predicted),
+        pr.judge_with(pr.base.clone(), raised),
         visible,
     );
-    let predicted = pr
-        .base
-        .iter()
-        .zip(&k)
-        .map(|(r, &k)| if k > 0.0 { None } else { *r })
-        .collect();
+    let open = touch.iter().map(|&(q, _)| (q, None)).collect();
     out.push(
         pr,
         Hypothesis {
@@ -657,7 +837,7 @@ fn bar_faults(pr: &Problem, j: u32, out: &mut Ranking) {
                 "bar {j} cut off the winding: its riser joint open, or two neighbouring end leads exchanged so that a coil closes on itself"
             ),
         },
-        pr.judge(predicted),
+        pr.judge_with(pr.base.clone(), open),
         visible,
     );
 }
@@ -666,7 +846,8 @@ fn bar_faults(pr: &Problem, j: u32, out: &mut Ranking) {
 /// rank-one change; between two windings of a multiplex winding, a bridge: a reading across
 /// the two reads R(x, j) + track + R(k, y), and every reading within one winding is
 /// unchanged.
-fn shorted_bars(pr: &Problem, j: u32, k: u32, out: &mut Ranking) {
+fn shorted_bars(pr: &Problem, alike: &[(u32, u32)], out: &mut Ranking) {
+    let (j, k) = alike[0];
     let e = (pr.net.node(j), pr.net.node(k));
     if e.0 == e.1 {
         return;
@@ -681,20 +862,21 @@ fn shorted_bars(pr: &Problem, j: u32, k: u32, out: &mut Ranking) {
     } else {
         let net = pr.net;
         let (mut a, mut c) = (pr.base.clone(), vec![0.0; pr.base.len()]);
-        for (q, &(x, y)) in pr.bars.iter().enumerate() {
-            if pr.base[q].is_some() {
+        let (pj, pk) = (net.part(j), net.part(k));
+        for (g, &(x, y)) in pr.pairs.iter().enumerate() {
+            if pr.base[g].is_some() {
                 continue;
             }
-            let (x, y) = if net.connected(x, j) && net.connected(y, k) {
+            let (px, py) = (net.part_of_node(x), net.part_of_node(y));
+            let (nx, ny) = if (px, py) == (pj, pk) {
                 (x, y)
-            } else if net.connected(y, j) && net.connected(x, k) {
+            } else if (py, px) == (pj, pk) {
                 (y, x)
             } else {
                 continue;
             };
-            let (nx, ny) = (net.node(x), net.node(y));
-            a[q] = Some(pr.z.t((nx, e.0), (nx, e.0)) + pr.z.t((e.1, ny), (e.1, ny)));
-            c[q] = 1.0;
+            a[g] = Some(pr.z.t((nx, e.0), (nx, e.0)) + pr.z.t((e.1, ny), (e.1, ny)));
+            c[g] = 1.0;
         }
         let visible = c.iter().any(|&c| c > 0.0);
         let track = pr.fit_ratio(&a, &c, 0.0, f64::MAX);
@@ -710,41 +892,47 @@ fn shorted_bars(pr: &Problem, j: u32, k: u32, out: &mut Ranking) {
             ", on different windings,",
         )
     };
-    out.push(
-        pr,
-        Hypothesis {
-            kind: FaultKind::ShortedBars,
-            coils: Vec::new(),
-            bars: vec![j, k],
-            size: Some(track),
-            words: format!(
-                "bars {j} and {k}{across} joined by a mica or carbon track of about {track:.3} coil resistances (fitted)"
-            ),
-        },
-        fit,
-        visible,
-    );
+    for &(j, k) in alike {
+        out.push(
+            pr,
+            Hypothesis {
+                kind: FaultKind::ShortedBars,
+                coils: Vec::new(),
+                bars: vec![j, k],
+                size: Some(track),
+                words: format!(
+                    "bars {j} and {k}{across} joined by a mica or carbon track of about {track:.3} coil resistances (fitted)"
+                ),
+            },
+            fit.clone(),
+            visible,
+        );
+    }
 }
 
 /// Crossed leads: the lead ending at bar j and the lead starting at bar k exchanged (see
 /// [`crossed_leads`]); four terms change, through the Woodbury form.
-fn crossed_lead_fault(pr: &Problem, j: u32, k: u32, out: &mut Ranking) {
+fn crossed_lead_fault(pr: &Problem, alike: &[Crossing], out: &mut Ranking) {
     let net = pr.net;
-    let Some(moves) = crossed_leads(&net.coils, j, k) else {
-        return;
-    };
+    let (j, k, moves) = alike[0];
     let (c1, c2) = (moves[0].1, moves[1].1);
     let (o1, o2) = (net.coils[moves[0].0], net.coils[moves[1].0]);
-    let words = format!(
-        "the leads of coils {} and {} exchanged at bars {j} and {k}",
-        c1.coil, c2.coil
-    );
-    let hypothesis = Hypothesis {
-        kind: FaultKind::CrossedLeads,
-        coils: vec![c1.coil, c2.coil],
-        bars: vec![j, k],
-        size: None,
-        words,
+    let offer = |fit: Fit, shown: bool, out: &mut Ranking| {
+        for &(j, k, moves) in alike {
+            let (c1, c2) = (moves[0].1, moves[1].1);
+            let words = format!(
+                "the leads of coils {} and {} exchanged at bars {j} and {k}",
+                c1.coil, c2.coil
+            );
+            let hypothesis = Hypothesis {
+                kind: FaultKind::CrossedLeads,
+                coils: vec![c1.coil, c2.coil],
+                bars: vec![j, k],
+                size: None,
+                words,
+            };
+            out.push(pr, hypothesis, fit.clone(), shown);
+        }
     };
     if !net.connected(j, k) {
         // The exchange joins two windings of a multiplex winding: one coil leaves each, and
@@ -752,8 +940,9 @@ fn crossed_lead_fault(pr: &Problem, j: u32, k: u32, out: &mut Ranking) {
         let Some(predicted) = joined(pr, &[o1, o2], &[c1, c2]) else {
             return;
         };
-        let shown = pr.effect(&predicted) > 1e-9;
-        out.push(pr, hypothesis, pr.judge(predicted), shown);
+        let fit = pr.judge(predicted);
+        let shown = pr.effect(&fit) > 1e-9;
+        offer(fit, shown, out);
         return;
     }
     let nodes = |c: NetCoil| (net.node(c.from_bar), net.node(c.to_bar));
@@ -791,9 +980,13 @@ fn crossed_lead_fault(pr: &Problem, j: u32, k: u32, out: &mut Ranking) {
             })
         })
         .collect();
-    let shown = pr.effect(&predicted) > 1e-9;
-    out.push(pr, hypothesis, pr.judge(predicted), shown);
+    let fit = pr.judge(predicted);
+    let shown = pr.effect(&fit) > 1e-9;
+    offer(fit, shown, out);
 }
+
+/// Crossed leads at bars j and k, with the two coils that change (see [`crossed_leads`]).
+type Crossing = (u32, u32, [(usize, NetCoil); 2]);
 
 /// The readings when coils `removed` (each within one winding) leave and coils `added` run
 /// between windings of a multiplex winding, which the grounded inverse of the windings apart
