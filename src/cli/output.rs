@@ -2,9 +2,9 @@
 //! and a rename, and a whole folder of files (a sheet set) staged beside the target and swapped
 //! into place, so an error never leaves a mixed set.
 //!
-//! What may be replaced, for every command that writes (`new`, `rewind`, `draw`, `sheet`): an
-//! output path must be absent, a regular file (a folder for a sheet set), or a symbolic link to
-//! an existing one, which is followed: the file or folder it leads to is replaced and the link
+//! What may be replaced, for every command that writes (`new`, `rewind`, `draw`, `sheet`,
+//! `test`): an output path must be absent, a regular file (a folder for a sheet set), or a
+//! symbolic link to an existing one, which is followed: the file or folder it leads to is replaced and the link
 //! kept. A folder where a file goes, a file where a folder goes, a device (`/dev/null`), a
 //! FIFO, a socket, a link to nothing or to any of these is [`CliError::WrongKind`] (exit 2),
 //! found before anything is written. Temporary files and folders have random names and are
@@ -268,6 +268,32 @@ pub fn write_new(path: &Path, bytes: &[u8], by: NoOverwrite) -> Result<(), CliEr
                 CliError::write(path, e.error)
             }
         })
+}
+
+/// Writes `files` (names inside the folder, bytes) into the folder `dir`, each on its own with
+/// [`write_atomic`] (a temporary file beside it, then a rename), creating the folder if it is
+/// missing. Nothing else in `dir` is moved, read or removed, so the files of another command
+/// written there (a `sheet` set) stay as they are; a run killed part way leaves each of its
+/// files whole, old or new, and at most a temporary `.<name>.XXXXXX.tmp` beside it. `dir` must
+/// be absent, a folder or a symbolic link to one (see `resolve`); anything else is
+/// [`CliError::WrongKind`] and nothing is written.
+pub fn write_own_files(dir: &Path, files: &[(String, Vec<u8>)]) -> Result<(), CliError> {
+    let (real, exists) = resolve(dir, EntryKind::Folder)?;
+    if exists {
+        // Every file's place first, so a wrong one refuses before any is written.
+        for (name, _) in files {
+            resolve(&dir.join(name), EntryKind::File)?;
+        }
+    } else {
+        fs::create_dir_all(&real).map_err(|source| CliError::CreateDir {
+            path: dir.to_path_buf(),
+            source,
+        })?;
+    }
+    for (name, bytes) in files {
+        write_atomic(&dir.join(name), bytes)?;
+    }
+    Ok(())
 }
 
 /// Replaces the folder `target` with one holding exactly `files` (names inside the folder,

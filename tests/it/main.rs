@@ -7,6 +7,7 @@ mod support;
 
 mod architecture;
 mod armature_test;
+mod armature_test_cli;
 mod broken_files;
 mod brush_neutral;
 mod cli;

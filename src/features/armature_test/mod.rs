@@ -12,7 +12,7 @@ pub mod readings;
 
 pub use locator::{Fault, FaultKind, Location};
 pub use network::{NetCoil, Network};
-pub use readings::{MeasuredReadings, ReadingValue, ReadingsError, parse_readings};
+pub use readings::{MeasuredReadings, ReadingValue, ReadingsError, parse_readings, readings_text};
 
 use crate::design::Design;
 use crate::rating::conductor::{conductor_area_mm2, mean_turn};
