@@ -89,8 +89,9 @@ fn negative_zero_reads_as_zero() {
         .lines()
         .find(|l| l.split_whitespace().take(2).eq(["2", "3"]) && l.split_whitespace().count() == 4)
         .unwrap_or_else(|| panic!("{report}"));
-    assert_eq!(row.split_whitespace().last(), Some("0"), "{row}");
-    assert!(!report.contains("-0 "), "{report}");
+    // The measured column in fixed places, as zero.
+    assert_eq!(row.split_whitespace().last(), Some("0.0000000"), "{row}");
+    assert!(!report.contains(" -0"), "{report}");
 }
 
 #[test]
@@ -224,7 +225,7 @@ fn unhealthy_readings_exit_1_and_healthy_ones_0() {
     bad[9].2 = format!("{}", v * 36.0);
     let o = run_with(&dir, "u.csv", file(&bad, "\n").as_bytes(), &[]);
     assert_eq!(o.status.code(), Some(1), "{}", text(&o.stderr));
-    assert!(text(&o.stdout).contains("not healthy"));
+    assert!(text(&o.stdout).contains("VERDICT: NOT HEALTHY (exit 1)"));
     let help = text(&armsheet(&["test", "--help"]).stdout);
     assert!(
         help.contains("the exit is 1 when the readings are not healthy"),
@@ -271,4 +272,119 @@ fn test_out_refuses_a_wrong_kind_before_writing_anything() {
     let o = armsheet(&["test", DESIGN, "-o", out.to_str().unwrap()]);
     assert_eq!(o.status.code(), Some(2), "{}", text(&o.stderr));
     assert_eq!(names_in(&dir), ["readings.svg"]);
+}
+
+#[test]
+fn the_verdict_and_the_faults_come_before_the_expected_readings() {
+    let dir = scratch("first");
+    let mut rows = expected_rows(&dir.join("exp"));
+    // Coil 10 open, the readings in micro-ohms.
+    for (i, r) in rows.iter_mut().enumerate() {
+        let v: f64 = r.2.parse().unwrap();
+        r.2 = format!("{}", v * 1e6 * if i == 9 { 36.0 } else { 1.0 });
+    }
+    let o = run_with(&dir, "u.csv", file(&rows, "\n").as_bytes(), &[]);
+    assert_eq!(o.status.code(), Some(1));
+    let report = text(&o.stdout);
+    let at = |s: &str| {
+        report
+            .find(s)
+            .unwrap_or_else(|| panic!("{s} missing:\n{report}"))
+    };
+    assert!(at("VERDICT: NOT HEALTHY") < at("1. open-coil"));
+    assert!(at("1. open-coil") < at("Bar-to-bar readings, neighbouring bars"));
+    assert!(at("Bar-to-bar readings") < at("Measured readings against the expected"));
+    // The first lines say it: within the first 12.
+    let verdict_line = report.lines().position(|l| l.starts_with("VERDICT"));
+    assert!(verdict_line.is_some_and(|i| i < 12), "{report}");
+    // The readings were in micro-ohms: the report says so from the fitted scale.
+    assert!(
+        report.contains("readings as given: uOhm (the fitted scale is 1000000 per ohm)")
+            || report.contains("readings as given: uOhm (the fitted scale is 999"),
+        "{report}"
+    );
+}
+
+#[test]
+fn readings_are_written_in_one_prefixed_unit_per_table() {
+    // The hoist's coils are a few milliohms: the table is in mOhm, every row with four places.
+    let report = text(&armsheet(&["test", DESIGN]).stdout);
+    assert!(
+        report.contains("Bar-to-bar readings, neighbouring bars (mOhm)"),
+        "{report}"
+    );
+    let json: serde_json::Value =
+        serde_json::from_slice(&armsheet(&["test", DESIGN, "--json"]).stdout).unwrap();
+    let first = json["readings"][0]["expected"].as_f64().unwrap();
+    assert!((0.001..1.0).contains(&first), "{first} ohm");
+    let rows: Vec<&str> = report
+        .lines()
+        .skip_while(|l| !l.contains("expected mOhm"))
+        .skip(1)
+        .take_while(|l| !l.trim().is_empty())
+        .collect();
+    assert_eq!(rows.len(), json["readings"].as_array().unwrap().len());
+    for r in &rows {
+        let v = r.split_whitespace().last().unwrap();
+        let places = v.split('.').nth(1).map_or(0, str::len);
+        assert_eq!(places, 4, "{r}");
+    }
+    let shown: f64 = rows[0].split_whitespace().last().unwrap().parse().unwrap();
+    assert!(
+        (shown - first * 1000.0).abs() < 1e-3,
+        "{shown} mOhm, {first} ohm"
+    );
+    // The drop test in mV: 10 A through milliohms.
+    assert!(report.contains("Drop test (expected mV between the bars of each pair)"));
+}
+
+#[test]
+fn drop_test_pairs_joined_through_a_feed_bar_are_flagged_with_why() {
+    // A simplex wave: its neighbouring bars are joined through P/2 coils round the
+    // commutator; the run between two of them passes each feed bar.
+    let o = armsheet(&["test", "designs/pump-wave.toml", "--json"]);
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    let feed = &v["drop_test"]["feeds"][0];
+    let (a, b) = (
+        feed["from_bar"].as_u64().unwrap(),
+        feed["to_bar"].as_u64().unwrap(),
+    );
+    let rows = feed["readings"].as_array().unwrap();
+    let mut values: Vec<f64> = rows.iter().filter_map(|r| r["expected"].as_f64()).collect();
+    values.sort_by(f64::total_cmp);
+    let median = values[values.len() / 2];
+    let flagged: Vec<&serde_json::Value> = rows
+        .iter()
+        .filter(|r| !r["through_feed_bar"].is_null())
+        .collect();
+    assert_eq!(flagged.len(), 2, "one pair through each feed bar");
+    for r in &flagged {
+        let f = r["through_feed_bar"].as_u64().unwrap();
+        assert!(f == a || f == b);
+        // derived: the run from one bar of the pair to the other rises to the feed bar and
+        // falls from it, so the pair reads a small part of the others.
+        assert!(r["expected"].as_f64().unwrap() < 0.1 * median, "{r}");
+    }
+    // Every pair not flagged reads within 10 % of the median (derived: the rest of the ring
+    // carries the current one way).
+    for r in rows.iter().filter(|r| r["through_feed_bar"].is_null()) {
+        let e = r["expected"].as_f64().unwrap();
+        assert!((e - median).abs() <= 0.1 * median, "{r}");
+    }
+    let report = text(&armsheet(&["test", "designs/pump-wave.toml"]).stdout);
+    assert_eq!(report.matches("* through feed bar").count(), 2, "{report}");
+    assert!(
+        report.contains("so their drops oppose") && report.contains("Do not take them for shorts"),
+        "{report}"
+    );
+    // A simplex lap: neighbours share one coil, nothing is flagged.
+    let lap: serde_json::Value =
+        serde_json::from_slice(&armsheet(&["test", DESIGN, "--json"]).stdout).unwrap();
+    assert!(
+        lap["drop_test"]["feeds"][0]["readings"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .all(|r| r["through_feed_bar"].is_null())
+    );
 }
