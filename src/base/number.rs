@@ -146,6 +146,16 @@ impl Prefix {
         }
     }
 
+    /// The prefix of the unit that numbers given at `scale` (numbers per base unit) are in:
+    /// 10⁶ per ohm are micro-ohms, 10³ milli, 1 none, 10⁻³ kilo, 10⁻⁶ mega, each within 2 %;
+    /// `None` for any other scale (a unit of the file's own).
+    pub fn of_scale(scale: f64) -> Option<Prefix> {
+        [-6, -3, 0, 3, 6]
+            .into_iter()
+            .map(|exponent| Prefix { exponent })
+            .find(|p| scale > 0.0 && (scale * 10f64.powi(p.exponent) - 1.0).abs() <= 0.02)
+    }
+
     /// `x` in the prefixed unit.
     pub fn of(self, x: f64) -> f64 {
         x / 10f64.powi(self.exponent)

@@ -258,19 +258,15 @@ fn list(v: &[u32]) -> String {
 pub fn measured_unit_words(t: &ArmatureTest, l: &Location) -> String {
     let s = l.healthy_scale;
     if t.unit == Unit::Ohm {
-        for e in [-6, -3, 0, 3, 6] {
-            let p = Prefix { exponent: e };
-            if s > 0.0 && (s * 10f64.powi(e) - 1.0).abs() <= 0.02 {
-                return format!(
-                    "{}Ohm (the fitted scale is {} per ohm)",
-                    p.ascii(),
-                    fmt_sig(s, 4)
-                );
-            }
+        if let Some(p) = Prefix::of_scale(s) {
+            return format!(
+                "{}Ohm (the fitted scale is {} per ohm)",
+                p.ascii(),
+                fmt_sig(s, 4)
+            );
         }
         format!(
-            "the file's own unit (the fitted scale is {} per ohm: one ohm reads {})",
-            fmt_sig(s, 4),
+            "the file's own unit (the fitted scale: one ohm reads {})",
             fmt_sig(s, 4)
         )
     } else {
