@@ -257,7 +257,10 @@ fn side_notes(t: &ArmatureTest, legend: &[(&str, &str, &str)]) -> Group {
         side.push(Text::new(x0 + 10.0, y, 3.0, "", *words));
         y += 6.0;
     }
-    if t.location.is_some() {
+    if t.location
+        .as_ref()
+        .is_some_and(|l| !l.suspect_bars.is_empty())
+    {
         side.push(Circle::new("f2", x0 + 4.0, y - 1.0, 1.2));
         side.push(Text::new(x0 + 10.0, y, 3.0, "", "suspect bar (numbered)"));
         y += 6.0;
