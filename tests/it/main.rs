@@ -27,6 +27,7 @@ mod fuzz;
 mod identify_cli;
 mod identify_round_trip;
 mod kill_sheet;
+mod kill_test;
 mod kind_in_one_place;
 mod legibility;
 mod multiplex_equalizers;
