@@ -227,7 +227,8 @@ fn reading_value(raw: &str) -> Result<Option<ReadingValue>, String> {
     }
     let shown = echo(raw);
     match raw.parse::<f64>() {
-        Ok(v) if v == 0.0 => Ok(Some(ReadingValue::Value(0.0))),
+        // `-0` matches too (a float pattern compares with ==), and is written as 0.
+        Ok(0.0) => Ok(Some(ReadingValue::Value(0.0))),
         Ok(v) if v.is_nan() => Err(format!(
             "expected a reading (a number, `open` or `OL`), found \"{shown}\""
         )),
