@@ -187,6 +187,36 @@ mod tests {
     use super::*;
 
     #[test]
+    fn one_prefix_per_table_from_its_largest_value() {
+        let milli = Prefix::for_largest(0.0108649);
+        assert_eq!(
+            (milli.exponent, milli.ascii(), milli.symbol()),
+            (-3, "m", "m")
+        );
+        assert_eq!(fmt_prefixed(0.0108649, milli), "10.8649");
+        assert_eq!(fmt_prefixed(0.0006708, milli), "0.6708");
+        let micro = Prefix::for_largest(5.2e-5);
+        assert_eq!((micro.ascii(), micro.symbol()), ("u", "\u{b5}"));
+        assert_eq!(fmt_prefixed(5.2e-5, micro), "52.0000");
+        assert_eq!(Prefix::for_largest(1.0), Prefix::NONE);
+        assert_eq!(Prefix::for_largest(999.9), Prefix::NONE);
+        assert_eq!(Prefix::for_largest(1000.0).exponent, 3);
+        assert_eq!(Prefix::for_largest(1e-12).exponent, -6);
+        assert_eq!(Prefix::for_largest(1e30).exponent, 6);
+        for bad in [0.0, -1.0, f64::NAN, f64::INFINITY] {
+            assert_eq!(Prefix::for_largest(bad), Prefix::NONE);
+        }
+        assert_eq!(Prefix::of_scale(999_997.0), Some(micro));
+        assert_eq!(Prefix::of_scale(1000.0), Some(milli));
+        assert_eq!(Prefix::of_scale(1.01), Some(Prefix::NONE));
+        assert_eq!(Prefix::of_scale(1.05), None);
+        assert_eq!(Prefix::of_scale(0.0), None);
+        assert_eq!(decimals_for(391_000.0, 6), 0);
+        assert_eq!(decimals_for(0.0123, 6), 7);
+        assert_eq!(decimals_for(0.0, 6), 0);
+    }
+
+    #[test]
     fn fixed_precision_cases() {
         assert_eq!(fmt_fixed(0.1 + 0.2, 2), "0.30");
         assert_eq!(fmt_fixed(-0.001, 2), "0.00");

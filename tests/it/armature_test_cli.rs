@@ -388,3 +388,56 @@ fn drop_test_pairs_joined_through_a_feed_bar_are_flagged_with_why() {
             .all(|r| r["through_feed_bar"].is_null())
     );
 }
+
+#[test]
+fn the_plot_has_a_scale_numbered_suspects_the_verdict_and_the_units() {
+    let dir = scratch("plot");
+    let mut rows = expected_rows(&dir.join("exp"));
+    for (i, r) in rows.iter_mut().enumerate() {
+        let v: f64 = r.2.parse().unwrap();
+        r.2 = format!("{}", v * 1e6 * if i == 9 { 36.0 } else { 1.0 });
+    }
+    let m = dir.join("m.csv");
+    std::fs::write(&m, file(&rows, "\n")).unwrap();
+    let out = dir.join("out");
+    let o = armsheet(&[
+        "test",
+        DESIGN,
+        "--readings",
+        m.to_str().unwrap(),
+        "-o",
+        out.to_str().unwrap(),
+    ]);
+    assert_eq!(o.status.code(), Some(1));
+    let svg = std::fs::read_to_string(out.join("hoist-lap").join("readings.svg")).unwrap();
+    let texts: Vec<String> = svg
+        .split("<text")
+        .skip(1)
+        .filter_map(|t| Some(t.split_once('>')?.1.split_once("</text>")?.0.to_string()))
+        .collect();
+    let has = |s: &str| texts.iter().any(|t| t == s);
+    // The scale: zero at the inner circle and four rings in mΩ, the outer at twice the largest
+    // expected reading (10.8649 mΩ on the hoist, all neighbouring readings equal).
+    assert!(has("0"), "{texts:?}");
+    for v in ["5.4325", "10.8649", "16.2974", "21.7299"] {
+        assert!(has(&format!("{v} m\u{3a9}")), "{v}: {texts:?}");
+    }
+    // The suspect bars 10 and 11 numbered inside their dots (besides the bar labels round the
+    // outside, each number appears twice).
+    for b in ["10", "11"] {
+        assert_eq!(texts.iter().filter(|t| *t == b).count(), 2, "{b}");
+    }
+    assert!(has("Verdict: NOT HEALTHY"));
+    assert!(has("suspect bars 10, 11"));
+    assert!(has("best fit: open-coil at bars 10, 11"));
+    assert!(
+        texts.iter().any(|t| t.starts_with("readings in m\u{3a9}")),
+        "{texts:?}"
+    );
+    assert!(
+        texts
+            .iter()
+            .any(|t| t.starts_with("measured readings as given: \u{b5}\u{3a9}")),
+        "{texts:?}"
+    );
+}
