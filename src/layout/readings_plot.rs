@@ -148,20 +148,43 @@ fn measured_and_suspects(g: &mut Group, t: &ArmatureTest, plot: &Plot) {
         measured.push(Path::polyline("conn k2", &run));
     }
     g.push(measured);
-    let mut placed: Vec<(f64, f64)> = Vec::new();
     for &b in &l.suspect_bars {
-        let angle = 2.0 * PI * (f64::from(b) - 1.0) / plot.c;
-        let (x, y) = at(angle, R0 - 3.0);
+        let (x, y) = at(2.0 * PI * (f64::from(b) - 1.0) / plot.c, R0 - 3.0);
         g.push(Circle::new("f2", x, y, 1.2));
-        // The bar's number inside the dot, where it clears the numbers already placed (the
-        // verdict lists every suspect bar).
-        let (lx, ly) = at(angle, R0 - 8.0);
+    }
+    // Each run of neighbouring suspect bars numbered once (`21-22`), inside its dots at the
+    // run's middle, where it clears the numbers already placed (the verdict lists every
+    // suspect bar).
+    let mut runs: Vec<(u32, u32)> = Vec::new();
+    for &b in &l.suspect_bars {
+        match runs.last_mut() {
+            Some((_, last)) if *last + 1 == b => *last = b,
+            _ => runs.push((b, b)),
+        }
+    }
+    let mut placed: Vec<(f64, f64)> = Vec::new();
+    for (first, last) in runs {
+        let middle = (f64::from(first) + f64::from(last)) / 2.0;
+        let angle = 2.0 * PI * (middle - 1.0) / plot.c;
+        let words = if first == last {
+            first.to_string()
+        } else {
+            format!("{first}-{last}")
+        };
+        let label = Text::new(0.0, 0.0, 3.0, "mid b", words);
+        // Far enough inside that the text's half-width, seen along the spoke, clears the dots.
+        let inward = 6.0 + label.width_mm / 2.0 * angle.sin().abs();
+        let (lx, ly) = at(angle, R0 - inward);
         if placed
             .iter()
-            .all(|&(px, py)| (px - lx).abs() > 7.0 || (py - ly).abs() > 3.5)
+            .all(|&(px, py)| (px - lx).abs() > 11.0 || (py - ly).abs() > 3.5)
         {
             placed.push((lx, ly));
-            g.push(Text::new(lx, ly + 1.0, 3.0, "mid b", b.to_string()));
+            g.push(Text {
+                x: lx,
+                y: ly + 1.0,
+                ..label
+            });
         }
     }
 }
