@@ -49,7 +49,7 @@ pub const MIN_READINGS: usize = 3;
 pub const MAX_READING: f64 = 1e9;
 
 /// Smallest reading other than zero, in the file's unit: 10⁻⁹ (a nano-ohm or a nanovolt, below
-/// the resolution of any micro-ohm meter); a dead short is written `0` [derived].
+/// the resolution of any micro-ohm meter); a dead short is written `0` \[derived\].
 pub const MIN_READING: f64 = 1e-9;
 
 /// Most characters of a field echoed back in a message: a 300-digit number is cut, so no
