@@ -285,6 +285,11 @@ fn locator_text(out: &mut String, l: &Location, t: &ArmatureTest) {
             out,
             "VERDICT: HEALTHY: every reading is within tolerance of the healthy pattern"
         );
+    } else if l.all_zero {
+        let _ = writeln!(
+            out,
+            "VERDICT: NOT HEALTHY (exit 1): every reading is zero where the winding reads a resistance: a shorted commutator (solder, carbon or copper across the bars) or the meter on the wrong range; check the range and the probes, then look along the commutator"
+        );
     } else {
         let _ = writeln!(
             out,
@@ -300,14 +305,21 @@ fn locator_text(out: &mut String, l: &Location, t: &ArmatureTest) {
         fmt_fixed(100.0 * l.tolerance, 1)
     );
     let _ = writeln!(out, "  readings as given: {}", measured_unit_words(t, l));
-    let best = l.faults.first();
-    let explains =
-        best.is_some_and(|f| f.score < 0.5 * l.healthy_score.max(1e-12) || f.score < 0.02);
-    if !l.healthy && !explains {
-        let _ = writeln!(
-            out,
-            "  no single fault explains these readings: check the probe contact and look for more than one fault"
-        );
+    match l.faults.first() {
+        Some(best) if !l.healthy && best.explains => {
+            let _ = writeln!(
+                out,
+                "  one fault explains every reading within tolerance: {}",
+                best.explanation
+            );
+        }
+        _ if !l.healthy && !l.all_zero => {
+            let _ = writeln!(
+                out,
+                "  no single fault explains every reading within tolerance: check the probe contact and look for more than one fault; the closest are"
+            );
+        }
+        _ => {}
     }
     if !l.healthy {
         let _ = writeln!(out, "  most likely faults, best first:");
@@ -393,6 +405,7 @@ fn measured_table(out: &mut String, l: &Location) {
 struct FaultJson {
     bars: Vec<u32>,
     coils: Vec<u32>,
+    explains: bool,
     explanation: String,
     kind: &'static str,
     score: f64,
@@ -401,6 +414,7 @@ struct FaultJson {
 
 #[derive(Serialize)]
 struct LocationJson {
+    all_zero: bool,
     faults: Vec<FaultJson>,
     healthy: bool,
     invisible: Vec<String>,
@@ -415,6 +429,7 @@ fn fault_json(f: &Fault) -> FaultJson {
     FaultJson {
         bars: f.bars.clone(),
         coils: f.coils.clone(),
+        explains: f.explains,
         explanation: f.explanation.clone(),
         kind: f.kind.key(),
         score: round_sig(f.score, DIGITS),
@@ -424,6 +439,7 @@ fn fault_json(f: &Fault) -> FaultJson {
 
 fn location_json(l: &Location) -> LocationJson {
     LocationJson {
+        all_zero: l.all_zero,
         faults: l.faults.iter().map(fault_json).collect(),
         healthy: l.healthy,
         invisible: l

@@ -128,12 +128,19 @@ fn dense_effective(w: &Winding, pairs: &[(u32, u32)]) -> Vec<Option<f64>> {
     }
     let mut g = UnGraph::<(), f64>::new_undirected();
     let nodes: Vec<_> = (0..n).map(|_| g.add_node(())).collect();
+    // Each coil a conductance of the first element's turns over its own element's turns.
+    let unit = f64::from(w.elements[0].turns);
     for c in w.connections.iter().filter(|c| !c.dummy) {
         let (a, b) = (
             c.start_segment.unwrap() as usize - 1,
             c.end_segment.unwrap() as usize - 1,
         );
-        g.add_edge(nodes[ties.find(a)], nodes[ties.find(b)], 1.0);
+        let turns = w.elements.iter().find(|e| e.holds(c.coil)).unwrap().turns;
+        g.add_edge(
+            nodes[ties.find(a)],
+            nodes[ties.find(b)],
+            unit / f64::from(turns),
+        );
     }
     let mut uf = UnionFind::<usize>::new(n);
     for e in g.raw_edges() {
@@ -161,15 +168,16 @@ fn dense_effective(w: &Winding, pairs: &[(u32, u32)]) -> Vec<Option<f64>> {
                 if s == t || !uf.equiv(s, a) {
                     continue;
                 }
+                let y = e.weight;
                 if let Some(i) = idx(s) {
-                    m[i][i] += 1.0;
+                    m[i][i] += y;
                 }
                 if let Some(j) = idx(t) {
-                    m[j][j] += 1.0;
+                    m[j][j] += y;
                 }
                 if let (Some(i), Some(j)) = (idx(s), idx(t)) {
-                    m[i][j] -= 1.0;
-                    m[j][i] -= 1.0;
+                    m[i][j] -= y;
+                    m[j][i] -= y;
                 }
             }
             let bi = idx(b).unwrap();
@@ -278,4 +286,23 @@ fn test_command_writes_json_text_and_csv() {
     assert!(csv.starts_with("from_bar,to_bar,expected,measured\r\n1,2,"));
     assert!(csv.ends_with(",\r\n"));
     assert!(csv.lines().nth(1).unwrap().ends_with(','));
+}
+
+/// A frog-leg whose wave coils have twice the lap coils' turns (`turns = 2`, `wave_turns = 4`)
+/// reads as wound: every expected reading agrees with the independent dense solve that
+/// weighs each coil by its own element's turns (one wire, one mean turn) [derived, series
+/// resistance of a coil ∝ its turns].
+#[test]
+fn a_frog_leg_with_heavier_wave_coils_reads_as_wound() {
+    let design = "[armature]\npoles = 4\nslots = 29\ncoils_per_slot = 2\n\n[winding]\ntype = \"frog-leg\"\nspan = 7\nturns = 2\nwave_turns = 4\n";
+    let (c, t) = tested(design);
+    let pairs: Vec<(u32, u32)> = t.readings.iter().map(|r| (r.from_bar, r.to_bar)).collect();
+    let dense = dense_effective(&c, &pairs);
+    for (r, d) in t.readings.iter().zip(&dense) {
+        let (e, d) = (r.expected.unwrap(), d.unwrap());
+        assert!((e - d).abs() <= 1e-9 * d, "{r:?}: {e} against {d}");
+    }
+    // The same armature with wave_turns = turns reads lower: the wave coils count.
+    let (_, even) = tested(&design.replace("wave_turns = 4", "wave_turns = 2"));
+    assert!(even.readings[0].expected.unwrap() < 0.95 * t.readings[0].expected.unwrap());
 }

@@ -19,6 +19,7 @@ mod domain_notes;
 mod engine_properties;
 mod exact_symmetry;
 mod external_checks;
+mod fault_kinds;
 mod fault_locator;
 mod frog_leg;
 mod frog_leg_loops;

@@ -2,14 +2,23 @@
 //!
 //! Part of the armature-test feature (under [`super`]): the solved [`Network`] and the measured
 //! readings in, ranked hypotheses out. Every position of every kind is tried. A hypothesis
-//! changes one coil or joins two bars, a rank-one change of the Laplacian, so by the
-//! Sherman–Morrison formula its readings follow from the healthy network's grounded inverse Z
-//! without a new factorisation: R'_q = R_q − τ·w_q², with w_q = c_qᵀ Z b, d = bᵀ Z b and
-//! τ = Δg/(1 + Δg·d). Crossed leads change four terms at once and go through the Woodbury
-//! form with a 4 × 4 capacitance matrix. The scale of the readings (their unit) and the
-//! fault's size (τ) are fitted by linear least squares, τ kept within the fault's physical
-//! range. Crossed leads are defined by [`crossed_leads`]; the exchange keeps the winding one
-//! ring, so the 4 × 4 matrix stays regular.
+//! that changes one coil or joins two bars of one winding is a rank-one change of the
+//! Laplacian, so by the Sherman–Morrison formula its readings follow from the healthy
+//! network's grounded inverse Z without a new factorisation: R'_q = R_q − τ·w_q², with
+//! w_q = c_qᵀ Z b, d = bᵀ Z b and τ = Δg/(1 + Δg·d). Crossed leads change four terms at once
+//! and go through the Woodbury form with a 4 × 4 capacitance matrix. A bad riser-to-bar joint
+//! adds its resistance to the readings that probe its bar and to no other (the probe current
+//! alone crosses it); a bar cut off reads open to both neighbours; a track between bars of two
+//! windings of a multiplex winding joins them, so a reading across the two reads
+//! R(x, j) + track + R(k, y) and every reading within one winding is unchanged [derived,
+//! series and parallel resistances; docs/domain.md, "Faults the armature tests find"].
+//!
+//! The score is scale-free: the readings' unit (the scale) and the fault's size are fitted by
+//! weighted least squares, each reading against its own expected value, so the large readings
+//! of a wave or a singly re-entrant multiplex winding do not swamp the small telling ones. A
+//! hypothesis whose fitted readings do not differ from healthy by half the tolerance is not
+//! ranked. Only the best [`KEPT`] hypotheses are kept while ranking, so memory does not grow
+//! with the number tried.
 
 use faer::Mat;
 use faer::linalg::solvers::Solve;
@@ -40,9 +49,16 @@ pub enum FaultKind {
     OpenCoil,
     /// Coil k short-circuited, wholly or partly (fitted fraction).
     ShortedCoil,
-    /// A poor riser joint of coil k (fitted extra resistance).
+    /// A poor joint of one lead of coil k (fitted extra resistance in the coil's circuit).
     HighResistanceJoint,
-    /// Bars j and j+1 joined by a mica or carbon track (fitted track resistance).
+    /// A poor riser-to-bar joint at bar j, both leads behind it (fitted resistance): only the
+    /// two readings that probe bar j rise, by the same amount.
+    RiserJoint,
+    /// Bar j cut off the winding (its riser joint open, or two neighbouring end leads
+    /// exchanged so that a coil closes on itself): bar j reads open to both neighbours.
+    BarCutOff,
+    /// Bars j and j+1 joined by a mica or carbon track (fitted track resistance); on a
+    /// multiplex winding the two bars may lie on different windings.
     ShortedBars,
     /// The start leads at bars j and j+1 exchanged.
     CrossedLeads,
@@ -50,10 +66,12 @@ pub enum FaultKind {
 
 impl FaultKind {
     /// Every kind, in report order.
-    pub const ALL: [FaultKind; 5] = [
+    pub const ALL: [FaultKind; 7] = [
         FaultKind::OpenCoil,
         FaultKind::ShortedCoil,
         FaultKind::HighResistanceJoint,
+        FaultKind::RiserJoint,
+        FaultKind::BarCutOff,
         FaultKind::ShortedBars,
         FaultKind::CrossedLeads,
     ];
@@ -64,6 +82,8 @@ impl FaultKind {
             FaultKind::OpenCoil => "open-coil",
             FaultKind::ShortedCoil => "shorted-coil",
             FaultKind::HighResistanceJoint => "high-resistance-joint",
+            FaultKind::RiserJoint => "riser-joint",
+            FaultKind::BarCutOff => "bar-cut-off",
             FaultKind::ShortedBars => "shorted-bars",
             FaultKind::CrossedLeads => "crossed-leads",
         }
@@ -81,9 +101,12 @@ pub struct Fault {
     pub bars: Vec<u32>,
     /// Slots of those coils (top, then bottom), ascending.
     pub slots: Vec<u32>,
-    /// Misfit: rms of (measured − fitted) over rms of measured, plus 1 for each reading open
-    /// where the hypothesis says closed or the other way round. Lower is better.
+    /// Misfit: the rms over the readings of (measured − fitted) relative to each reading's
+    /// own fitted value, plus 1 for each reading open where the hypothesis says closed or the
+    /// other way round. Lower is better; scale-free.
     pub score: f64,
+    /// Every reading lies within the tolerance of what this fault predicts.
+    pub explains: bool,
     /// The fitted size: fraction shorted, extra resistance or track resistance in coil
     /// resistances; `None` for a fault of fixed size.
     pub size: Option<f64>,
@@ -104,6 +127,9 @@ pub struct Location {
     pub missing: usize,
     /// Every reading within tolerance of the healthy pattern.
     pub healthy: bool,
+    /// Every reading is zero where the winding reads a resistance: a shorted commutator or
+    /// the meter on the wrong range; nothing is ranked.
+    pub all_zero: bool,
     /// The tolerance used.
     pub tolerance: f64,
     /// The healthy network's scale: measured units per unit of the test's readings (median of
@@ -159,77 +185,12 @@ impl Transfer<'_> {
     }
 }
 
+/// A hypothesis's readings judged against the measured ones.
 struct Fit {
     score: f64,
+    explains: bool,
     scale: f64,
-    tau: f64,
     predicted: Vec<Option<f64>>,
-}
-
-/// Misfit of `pred` against `meas` with the best scale.
-fn misfit(meas: &[ReadingValue], pred: &[Option<f64>]) -> (f64, f64) {
-    let (mut mp, mut pp, mut mm, mut bad) = (0.0, 0.0, 0.0, 0usize);
-    for (m, p) in meas.iter().zip(pred) {
-        match (m, p) {
-            (ReadingValue::Value(m), Some(p)) => {
-                mp += m * p;
-                pp += p * p;
-                mm += m * m;
-            }
-            (ReadingValue::Open, None) => {}
-            _ => bad += 1,
-        }
-    }
-    let scale = if pp > 0.0 { mp / pp } else { 0.0 };
-    let mut res = 0.0;
-    for (m, p) in meas.iter().zip(pred) {
-        if let (ReadingValue::Value(m), Some(p)) = (m, p) {
-            res += (m - scale * p).powi(2);
-        }
-    }
-    let rel = if mm > 0.0 { (res / mm).sqrt() } else { 0.0 };
-    (rel + bad as f64, scale)
-}
-
-/// Fits τ in [lo, hi] for R'_q = R_q − τ w_q², with the scale.
-fn fit_rank_one(meas: &[ReadingValue], base: &[Option<f64>], w: &[f64], lo: f64, hi: f64) -> Fit {
-    // Least squares of m ≈ α R − β w² over the numeric pairs, τ = β/α.
-    let (mut a11, mut a12, mut a22, mut b1, mut b2) = (0.0, 0.0, 0.0, 0.0, 0.0);
-    for ((m, r), w) in meas.iter().zip(base).zip(w) {
-        if let (ReadingValue::Value(m), Some(r)) = (m, r) {
-            let v = -w * w;
-            a11 += r * r;
-            a12 += r * v;
-            a22 += v * v;
-            b1 += r * m;
-            b2 += v * m;
-        }
-    }
-    let det = a11 * a22 - a12 * a12;
-    let tau = if det.abs() > 1e-12 * a11 * a22.max(1e-300) && a11 > 0.0 {
-        let alpha = (b1 * a22 - b2 * a12) / det;
-        let beta = (a11 * b2 - a12 * b1) / det;
-        if alpha.abs() > 0.0 { beta / alpha } else { 0.0 }
-    } else {
-        0.0
-    };
-    let tau = if tau.is_finite() {
-        tau.clamp(lo, hi)
-    } else {
-        hi
-    };
-    let predicted: Vec<Option<f64>> = base
-        .iter()
-        .zip(w)
-        .map(|(r, w)| r.map(|r| (r - tau * w * w).max(0.0)))
-        .collect();
-    let (score, scale) = misfit(meas, &predicted);
-    Fit {
-        score,
-        scale,
-        tau,
-        predicted,
-    }
 }
 
 fn slots_of(coils: &[u32], net_slots: &[(u32, u32)]) -> Vec<u32> {
@@ -245,14 +206,19 @@ fn slots_of(coils: &[u32], net_slots: &[(u32, u32)]) -> Vec<u32> {
     s
 }
 
-/// The readings the locator works on: the measured pairs, their network nodes, the healthy
-/// pattern in coil resistances and the healthy network's grounded inverse.
+/// The readings the locator works on: the measured pairs (as bars and as network nodes),
+/// the healthy pattern in coil resistances and the healthy network's grounded inverse.
 struct Problem<'a> {
     net: &'a Network,
     z: Transfer<'a>,
     meas: Vec<ReadingValue>,
+    bars: Vec<(u32, u32)>,
     pairs: Vec<(usize, usize)>,
     base: Vec<Option<f64>>,
+    /// The least reference a reading is judged against: a hundredth of the mean healthy
+    /// reading (bars an equalizer ties read zero).
+    floor: f64,
+    tolerance: f64,
 }
 
 impl Problem<'_> {
@@ -261,28 +227,106 @@ impl Problem<'_> {
         self.pairs.iter().map(|&q| self.z.t(q, e)).collect()
     }
 
-    /// The largest relative change a prediction makes to the healthy readings.
+    /// What reading `q` is judged against: its healthy value, or the hypothesis's own where
+    /// the healthy winding reads open, never below the floor.
+    fn reference(&self, q: usize, predicted: Option<f64>) -> f64 {
+        self.base[q].or(predicted).unwrap_or(0.0).max(self.floor)
+    }
+
+    /// Judges `predicted` (coil resistances): the scale by weighted least squares (each
+    /// reading weighted by its reference's inverse square), then the rms relative misfit and
+    /// whether every reading is within the tolerance.
+    fn judge(&self, predicted: Vec<Option<f64>>) -> Fit {
+        let (mut mp, mut pp, mut bad) = (0.0, 0.0, 0usize);
+        for (q, (m, p)) in self.meas.iter().zip(&predicted).enumerate() {
+            match (m, p) {
+                (ReadingValue::Value(m), Some(p)) => {
+                    let w = self.reference(q, Some(*p)).powi(-2);
+                    mp += w * m * p;
+                    pp += w * p * p;
+                }
+                (ReadingValue::Open, None) => {}
+                _ => bad += 1,
+            }
+        }
+        let scale = if pp > 0.0 { (mp / pp).max(0.0) } else { 0.0 };
+        let (mut sum, mut n, mut explains) = (0.0, 0usize, bad == 0);
+        for (q, (m, p)) in self.meas.iter().zip(&predicted).enumerate() {
+            if let (ReadingValue::Value(m), Some(p)) = (m, p) {
+                let at = scale * self.reference(q, Some(*p));
+                let off = (m - scale * p).abs();
+                let rel = if at > 0.0 { off / at } else { 1.0 };
+                explains &= at > 0.0 && off <= self.tolerance * at;
+                sum += rel * rel;
+                n += 1;
+            }
+        }
+        let rms = if n > 0 { (sum / n as f64).sqrt() } else { 0.0 };
+        Fit {
+            score: rms + bad as f64,
+            explains,
+            scale,
+            predicted,
+        }
+    }
+
+    /// Fits `ratio` in [lo, hi] for m ≈ α·(a_q + ratio·c_q) by weighted least squares over
+    /// the numeric readings (m ≈ α a + β c, ratio = β/α); the upper bound when the fit runs
+    /// away.
+    fn fit_ratio(&self, a: &[Option<f64>], c: &[f64], lo: f64, hi: f64) -> f64 {
+        let (mut a11, mut a12, mut a22, mut b1, mut b2) = (0.0, 0.0, 0.0, 0.0, 0.0);
+        for (q, ((m, x), v)) in self.meas.iter().zip(a).zip(c).enumerate() {
+            if let (ReadingValue::Value(m), Some(x)) = (m, x) {
+                let w = self.reference(q, Some(*x)).powi(-2);
+                a11 += w * x * x;
+                a12 += w * x * v;
+                a22 += w * v * v;
+                b1 += w * x * m;
+                b2 += w * v * m;
+            }
+        }
+        let det = a11 * a22 - a12 * a12;
+        let ratio = if det.abs() > 1e-12 * a11 * a22.max(1e-300) && a11 > 0.0 {
+            let alpha = (b1 * a22 - b2 * a12) / det;
+            let beta = (a11 * b2 - a12 * b1) / det;
+            if alpha > 0.0 { beta / alpha } else { hi }
+        } else {
+            0.0
+        };
+        if ratio.is_finite() {
+            ratio.clamp(lo, hi)
+        } else {
+            hi
+        }
+    }
+
+    /// The healthy readings changed by τ·w² (a rank-one change), never below zero.
+    fn rank_one(&self, w: &[f64], tau: f64) -> Vec<Option<f64>> {
+        self.base
+            .iter()
+            .zip(w)
+            .map(|(r, w)| r.map(|r| (r - tau * w * w).max(0.0)))
+            .collect()
+    }
+
+    /// Fits τ in [lo, hi] for the rank-one change along `w`; returns τ and its fit.
+    fn fit_rank_one(&self, w: &[f64], lo: f64, hi: f64) -> (f64, Fit) {
+        let c: Vec<f64> = w.iter().map(|w| -w * w).collect();
+        let tau = self.fit_ratio(&self.base, &c, lo, hi);
+        (tau, self.judge(self.rank_one(w, tau)))
+    }
+
+    /// The largest relative change a prediction makes to the healthy readings (infinite
+    /// where it opens or closes one).
     fn effect(&self, pred: &[Option<f64>]) -> f64 {
         pred.iter()
             .zip(&self.base)
             .map(|(p, b)| match (p, b) {
-                (Some(p), Some(b)) if *b > 0.0 => (p - b).abs() / b,
+                (Some(p), Some(b)) => (p - b).abs() / b.max(self.floor),
                 (None, None) => 0.0,
-                (Some(_), Some(_)) => 0.0,
                 _ => f64::INFINITY,
             })
             .fold(0.0, f64::max)
-    }
-
-    /// A fit of a fixed prediction (no size to fit).
-    fn fixed(&self, predicted: Vec<Option<f64>>) -> Fit {
-        let (score, scale) = misfit(&self.meas, &predicted);
-        Fit {
-            score,
-            scale,
-            tau: 0.0,
-            predicted,
-        }
     }
 }
 
@@ -291,7 +335,17 @@ fn seen(w: &[f64]) -> bool {
     w.iter().any(|w| w.abs() > 1e-9)
 }
 
-/// The hypotheses as they are tried: the visible ones kept, the invisible ones counted.
+/// One hypothesis as it is offered to the ranking.
+struct Hypothesis {
+    kind: FaultKind,
+    coils: Vec<u32>,
+    bars: Vec<u32>,
+    size: Option<f64>,
+    words: String,
+}
+
+/// The hypotheses as they are tried: the best [`KEPT`] kept in order, the invisible ones
+/// counted; one that changes no reading by half the tolerance is not ranked.
 struct Ranking<'a> {
     slots: &'a [(u32, u32)],
     faults: Vec<Fault>,
@@ -299,36 +353,46 @@ struct Ranking<'a> {
 }
 
 impl Ranking<'_> {
-    #[allow(clippy::too_many_arguments)]
-    fn push(
-        &mut self,
-        kind: FaultKind,
-        coils: Vec<u32>,
-        bars: Vec<u32>,
-        fit: Fit,
-        size: Option<f64>,
-        words: String,
-        visible: bool,
-    ) {
+    fn push(&mut self, pr: &Problem, h: Hypothesis, fit: Fit, visible: bool) {
         if !visible {
-            self.invisible[kind as usize] += 1;
+            self.invisible[h.kind as usize] += 1;
             return;
         }
-        self.faults.push(Fault {
-            kind,
-            slots: slots_of(&coils, self.slots),
-            coils,
-            bars,
-            score: fit.score,
-            size,
-            scale: fit.scale,
-            predicted: fit
-                .predicted
-                .iter()
-                .map(|p| p.map(|p| p * fit.scale))
-                .collect(),
-            explanation: words,
-        });
+        if pr.effect(&fit.predicted) < 0.5 * pr.tolerance {
+            return;
+        }
+        let order = |f: &Fault| (f.score, f.kind, f.bars.clone());
+        let before = |a: &(f64, FaultKind, Vec<u32>), b: &(f64, FaultKind, Vec<u32>)| {
+            a.0.total_cmp(&b.0)
+                .then(a.1.cmp(&b.1))
+                .then(a.2.cmp(&b.2))
+                .is_lt()
+        };
+        let key = (fit.score, h.kind, h.bars.clone());
+        if self.faults.len() == KEPT && !before(&key, &order(&self.faults[KEPT - 1])) {
+            return;
+        }
+        let at = self.faults.partition_point(|f| before(&order(f), &key));
+        self.faults.insert(
+            at,
+            Fault {
+                kind: h.kind,
+                slots: slots_of(&h.coils, self.slots),
+                coils: h.coils,
+                bars: h.bars,
+                score: fit.score,
+                explains: fit.explains,
+                size: h.size,
+                scale: fit.scale,
+                predicted: fit
+                    .predicted
+                    .iter()
+                    .map(|p| p.map(|p| p * fit.scale))
+                    .collect(),
+                explanation: h.words,
+            },
+        );
+        self.faults.truncate(KEPT);
     }
 }
 
@@ -355,6 +419,17 @@ pub fn locate(
         }
     }
     let zv = net.inverse();
+    let base: Vec<Option<f64>> = rows
+        .iter()
+        .map(|(r, _)| r.expected.map(|e| e / scale0))
+        .collect();
+    let positive: Vec<f64> = base
+        .iter()
+        .flatten()
+        .copied()
+        .filter(|&b| b > 0.0)
+        .collect();
+    let mean = positive.iter().sum::<f64>() / positive.len().max(1) as f64;
     let problem = Problem {
         net,
         z: Transfer {
@@ -362,85 +437,86 @@ pub fn locate(
             n: net.nodes(),
         },
         meas: rows.iter().map(|(_, v)| *v).collect(),
+        bars: rows.iter().map(|(r, _)| (r.from_bar, r.to_bar)).collect(),
         pairs: rows
             .iter()
             .map(|(r, _)| (net.node(r.from_bar), net.node(r.to_bar)))
             .collect(),
-        base: rows
-            .iter()
-            .map(|(r, _)| r.expected.map(|e| e / scale0))
-            .collect(),
+        base,
+        floor: (0.01 * mean).max(1e-12),
+        tolerance,
     };
-    let (healthy_scale, suspect_bars) = healthy_pattern(&problem, &rows, tolerance);
-    let (healthy_score, _) = misfit(&problem.meas, &problem.base);
-
+    let healthy = healthy_pattern(&problem, &rows, tolerance);
+    let healthy_score = problem.judge(problem.base.clone()).score;
     let mut ranking = Ranking {
         slots,
         faults: Vec::new(),
         invisible: vec![0usize; FaultKind::ALL.len()],
     };
-    for c in &net.coils {
-        coil_faults(&problem, c, &mut ranking);
+    if !healthy.all_zero {
+        for c in &net.coils {
+            coil_faults(&problem, c, &mut ranking);
+        }
+        let c_bars = net.bars;
+        for j in 1..=c_bars {
+            let k = j % c_bars + 1;
+            bar_faults(&problem, j, &mut ranking);
+            shorted_bars(&problem, j, k, &mut ranking);
+            crossed_lead_fault(&problem, j, k, &mut ranking);
+        }
     }
-    let c_bars = net.bars;
-    for j in 1..=c_bars {
-        let k = j % c_bars + 1;
-        shorted_bars(&problem, j, k, &mut ranking);
-        crossed_lead_fault(&problem, j, k, &mut ranking);
-    }
-    let Ranking {
-        mut faults,
-        invisible,
-        ..
-    } = ranking;
-    faults.sort_by(|a, b| {
-        a.score
-            .total_cmp(&b.score)
-            .then(a.kind.cmp(&b.kind))
-            .then(a.bars.cmp(&b.bars))
-    });
-    faults.truncate(KEPT);
     Location {
         measured: rows,
         missing,
-        healthy: suspect_bars.is_empty(),
+        healthy: healthy.suspect_bars.is_empty(),
+        all_zero: healthy.all_zero,
         tolerance,
-        healthy_scale: healthy_scale / scale0,
-        suspect_bars,
+        healthy_scale: healthy.scale / scale0,
+        suspect_bars: healthy.suspect_bars,
         healthy_score,
-        faults,
+        faults: ranking.faults,
         invisible: FaultKind::ALL
             .iter()
-            .zip(invisible)
+            .zip(ranking.invisible)
             .filter(|(_, n)| *n > 0)
             .map(|(k, n)| (*k, n))
             .collect(),
     }
 }
 
-/// Healthy: a robust scale (the median of measured over expected), and the bars of every
-/// reading outside tolerance of the healthy pattern at that scale.
-fn healthy_pattern(
-    pr: &Problem,
-    rows: &[(Reading, ReadingValue)],
-    tolerance: f64,
-) -> (f64, Vec<u32>) {
-    let mut ratios: Vec<f64> = pr
+/// The healthy pattern fitted to the readings.
+struct Healthy {
+    scale: f64,
+    suspect_bars: Vec<u32>,
+    all_zero: bool,
+}
+
+/// Healthy: a robust scale (the median of measured over expected, over the readings above
+/// zero), and the bars of every reading outside tolerance of the healthy pattern at that
+/// scale; every reading zero where the winding reads a resistance is said as such.
+fn healthy_pattern(pr: &Problem, rows: &[(Reading, ReadingValue)], tolerance: f64) -> Healthy {
+    let numeric: Vec<(f64, f64)> = pr
         .meas
         .iter()
         .zip(&pr.base)
         .filter_map(|(m, b)| match (m, b) {
-            (ReadingValue::Value(m), Some(b)) if *b > 0.0 => Some(m / b),
+            (ReadingValue::Value(m), Some(b)) if *b > 0.0 => Some((*m, *b)),
             _ => None,
         })
         .collect();
+    let mut ratios: Vec<f64> = numeric
+        .iter()
+        .filter(|(m, _)| *m > 0.0)
+        .map(|(m, b)| m / b)
+        .collect();
     ratios.sort_by(f64::total_cmp);
-    let healthy_scale = ratios.get(ratios.len() / 2).copied().unwrap_or(1.0);
+    let all_zero = !numeric.is_empty() && ratios.is_empty();
+    let scale = ratios.get(ratios.len() / 2).copied().unwrap_or(1.0);
     let mut suspect_bars = Vec::new();
     for ((r, m), b) in rows.iter().zip(&pr.base) {
         let ok = match (m, b) {
             (ReadingValue::Value(m), Some(b)) => {
-                (m - healthy_scale * b).abs() <= tolerance * healthy_scale * b.max(1e-300)
+                !all_zero && (m - scale * b).abs() <= tolerance * scale * b.max(pr.floor)
             }
             (ReadingValue::Open, None) => true,
             _ => false,
@@ -451,23 +527,36 @@ fn healthy_pattern(
     }
     suspect_bars.sort_unstable();
     suspect_bars.dedup();
-    (healthy_scale, suspect_bars)
+    Healthy {
+        scale,
+        suspect_bars,
+        all_zero,
+    }
 }
 
-/// The faults of one coil: open, shorted (a fitted fraction) and a high-resistance joint (a
-/// fitted extra resistance).
+/// The faults of one coil: open, shorted (a fitted fraction) and a high-resistance joint of
+/// one lead (a fitted extra resistance), for a coil of conductance g = 1/r.
 fn coil_faults(pr: &Problem, c: &NetCoil, out: &mut Ranking) {
     let e = (pr.net.node(c.from_bar), pr.net.node(c.to_bar));
     if e.0 == e.1 {
         return;
     }
+    let (r, g) = (c.resistance, 1.0 / c.resistance);
     let d = pr.z.t(e, e);
     let w = pr.transfer_to(e);
+    let visible = seen(&w);
     let bars = vec![c.from_bar, c.to_bar];
-    // Open coil: Δg = −1.
-    let fit = if 1.0 - d < 1e-9 {
+    let hypothesis = |kind, size, words| Hypothesis {
+        kind,
+        coils: vec![c.coil],
+        bars: bars.clone(),
+        size,
+        words,
+    };
+    // Open coil: Δg = −g.
+    let fit = if 1.0 - g * d < 1e-9 {
         // The coil is a bridge: every reading through it opens.
-        pr.fixed(
+        pr.judge(
             pr.base
                 .iter()
                 .zip(&w)
@@ -475,81 +564,165 @@ fn coil_faults(pr: &Problem, c: &NetCoil, out: &mut Ranking) {
                 .collect(),
         )
     } else {
-        let tau = -1.0 / (1.0 - d);
-        fit_rank_one(&pr.meas, &pr.base, &w, tau, tau)
+        pr.judge(pr.rank_one(&w, -g / (1.0 - g * d)))
     };
-    out.push(
-        FaultKind::OpenCoil,
-        vec![c.coil],
-        bars.clone(),
-        fit,
-        None,
-        format!(
-            "coil {} open (broken or unsoldered) between bars {} and {}",
-            c.coil, c.from_bar, c.to_bar
-        ),
-        seen(&w),
+    let words = format!(
+        "coil {} open (broken or unsoldered) between bars {} and {}",
+        c.coil, c.from_bar, c.to_bar
     );
-    // Shorted coil: fraction f in (0, 1], τ in [0, 1/d].
-    let fit = fit_rank_one(&pr.meas, &pr.base, &w, 0.0, 1.0 / d);
-    let dg = fit.tau / (1.0 - fit.tau * d).max(1e-300);
-    let f = (dg / (1.0 + dg)).clamp(0.0, 1.0);
     out.push(
-        FaultKind::ShortedCoil,
-        vec![c.coil],
-        bars.clone(),
+        pr,
+        hypothesis(FaultKind::OpenCoil, None, words),
         fit,
-        Some(f),
-        format!(
-            "coil {} shorted, about {:.0} % of it (fitted)",
-            c.coil,
-            100.0 * f
-        ),
-        seen(&w),
+        visible,
     );
-    // High-resistance joint: extra x in [0, JOINT_MAX_COILS].
-    let dg_min = -JOINT_MAX_COILS / (1.0 + JOINT_MAX_COILS);
+    // Shorted coil: fraction f in (0, 1], Δg = g·f/(1 − f), τ in [0, 1/d].
+    let (tau, fit) = pr.fit_rank_one(&w, 0.0, 1.0 / d);
+    let dg = tau / (1.0 - tau * d).max(1e-300);
+    let f = (dg / (g + dg)).clamp(0.0, 1.0);
+    let words = format!(
+        "coil {} shorted, about {:.0} % of it (fitted)",
+        c.coil,
+        100.0 * f
+    );
+    out.push(
+        pr,
+        hypothesis(FaultKind::ShortedCoil, Some(f), words),
+        fit,
+        visible,
+    );
+    // High-resistance joint: extra x in [0, JOINT_MAX_COILS], Δg = 1/(r + x) − g.
+    let dg_min = 1.0 / (r + JOINT_MAX_COILS) - g;
     let lo = dg_min / (1.0 + dg_min * d);
-    let fit = fit_rank_one(&pr.meas, &pr.base, &w, lo, 0.0);
-    let dg = fit.tau / (1.0 - fit.tau * d);
-    let x = (-dg / (1.0 + dg)).max(0.0);
+    let (tau, fit) = pr.fit_rank_one(&w, lo, 0.0);
+    let dg = tau / (1.0 - tau * d);
+    let x = (1.0 / (g + dg) - r).max(0.0);
+    let words = format!(
+        "a poor joint of one lead of coil {} (at bar {} or bar {}, the two read alike), about {:.2} coil resistances extra (fitted)",
+        c.coil, c.from_bar, c.to_bar, x
+    );
     out.push(
-        FaultKind::HighResistanceJoint,
-        vec![c.coil],
-        bars,
+        pr,
+        hypothesis(FaultKind::HighResistanceJoint, Some(x), words),
         fit,
-        Some(x),
-        format!(
-            "a poor riser joint of coil {} at bar {} or bar {} (the two read alike), about {:.2} coil resistances extra (fitted)",
-            c.coil, c.from_bar, c.to_bar, x
-        ),
-        seen(&w),
+        visible,
     );
 }
 
-/// Shorted bars: a track of fitted resistance between j and k = j + 1 (same part only: a
-/// track between two windings carries no current in any reading within one).
+/// The faults of bar `j` itself: a poor riser-to-bar joint (a fitted resistance added to
+/// each reading that probes bar j, as many times as the reading's ends lie on it), and the
+/// bar cut off the winding (every reading that probes it open).
+fn bar_faults(pr: &Problem, j: u32, out: &mut Ranking) {
+    let k: Vec<f64> = pr
+        .bars
+        .iter()
+        .map(|&(a, b)| f64::from(u8::from(a == j) + u8::from(b == j)))
+        .collect();
+    let visible = k.iter().any(|&k| k > 0.0);
+    let x = pr.fit_ratio(&pr.base, &k, 0.0, JOINT_MAX_COILS);
+    let predicted = pr
+        .base
+        .iter()
+        .zip(&k)
+        .map(|(r, k)| r.map(|r| r + x * k))
+        .collect();
+    out.push(
+        pr,
+        Hypothesis {
+            kind: FaultKind::RiserJoint,
+            coils: Vec::new(),
+            bars: vec![j],
+            size: Some(x),
+            words: format!(
+                "a poor riser-to-bar joint at bar {j} (both leads behind it), about {x:.2} coil resistances (fitted): reheat and resolder the riser"
+            ),
+        },
+        pr.judge(predicted),
+        visible,
+    );
+    let predicted = pr
+        .base
+        .iter()
+        .zip(&k)
+        .map(|(r, &k)| if k > 0.0 { None } else { *r })
+        .collect();
+    out.push(
+        pr,
+        Hypothesis {
+            kind: FaultKind::BarCutOff,
+            coils: Vec::new(),
+            bars: vec![j],
+            size: None,
+            words: format!(
+                "bar {j} cut off the winding: its riser joint open, or two neighbouring end leads exchanged so that a coil closes on itself"
+            ),
+        },
+        pr.judge(predicted),
+        visible,
+    );
+}
+
+/// Shorted bars: a track of fitted resistance between j and k = j + 1. Within one winding a
+/// rank-one change; between two windings of a multiplex winding, a bridge: a reading across
+/// the two reads R(x, j) + track + R(k, y), and every reading within one winding is
+/// unchanged.
 fn shorted_bars(pr: &Problem, j: u32, k: u32, out: &mut Ranking) {
     let e = (pr.net.node(j), pr.net.node(k));
-    if e.0 == e.1 || !pr.net.connected(j, k) {
+    if e.0 == e.1 {
         return;
     }
-    let d = pr.z.t(e, e);
-    let w = pr.transfer_to(e);
-    let fit = fit_rank_one(&pr.meas, &pr.base, &w, 0.0, 1.0 / d);
-    let dg = fit.tau / (1.0 - fit.tau * d).max(1e-300);
-    let track = if dg > 0.0 { 1.0 / dg } else { f64::INFINITY };
+    let (visible, fit, track, across) = if pr.net.connected(j, k) {
+        let d = pr.z.t(e, e);
+        let w = pr.transfer_to(e);
+        let (tau, fit) = pr.fit_rank_one(&w, 0.0, 1.0 / d);
+        let dg = tau / (1.0 - tau * d).max(1e-300);
+        let track = if dg > 0.0 { 1.0 / dg } else { f64::INFINITY };
+        (seen(&w), fit, track, "")
+    } else {
+        let net = pr.net;
+        let (mut a, mut c) = (pr.base.clone(), vec![0.0; pr.base.len()]);
+        for (q, &(x, y)) in pr.bars.iter().enumerate() {
+            if pr.base[q].is_some() {
+                continue;
+            }
+            let (x, y) = if net.connected(x, j) && net.connected(y, k) {
+                (x, y)
+            } else if net.connected(y, j) && net.connected(x, k) {
+                (y, x)
+            } else {
+                continue;
+            };
+            let (nx, ny) = (net.node(x), net.node(y));
+            a[q] = Some(pr.z.t((nx, e.0), (nx, e.0)) + pr.z.t((e.1, ny), (e.1, ny)));
+            c[q] = 1.0;
+        }
+        let visible = c.iter().any(|&c| c > 0.0);
+        let track = pr.fit_ratio(&a, &c, 0.0, f64::MAX);
+        let predicted = a
+            .iter()
+            .zip(&c)
+            .map(|(a, c)| a.map(|a| a + track * c))
+            .collect();
+        (
+            visible,
+            pr.judge(predicted),
+            track,
+            ", on different windings,",
+        )
+    };
     out.push(
-        FaultKind::ShortedBars,
-        Vec::new(),
-        vec![j, k],
+        pr,
+        Hypothesis {
+            kind: FaultKind::ShortedBars,
+            coils: Vec::new(),
+            bars: vec![j, k],
+            size: Some(track),
+            words: format!(
+                "bars {j} and {k}{across} joined by a mica or carbon track of about {track:.3} coil resistances (fitted)"
+            ),
+        },
         fit,
-        Some(track),
-        format!(
-            "bars {j} and {k} joined by a mica or carbon track of about {:.3} coil resistances (fitted)",
-            track
-        ),
-        seen(&w),
+        visible,
     );
 }
 
@@ -562,9 +735,35 @@ fn crossed_lead_fault(pr: &Problem, j: u32, k: u32, out: &mut Ranking) {
     };
     let (c1, c2) = (moves[0].1, moves[1].1);
     let (o1, o2) = (net.coils[moves[0].0], net.coils[moves[1].0]);
+    let words = format!(
+        "the leads of coils {} and {} exchanged at bars {j} and {k}",
+        c1.coil, c2.coil
+    );
+    let hypothesis = Hypothesis {
+        kind: FaultKind::CrossedLeads,
+        coils: vec![c1.coil, c2.coil],
+        bars: vec![j, k],
+        size: None,
+        words,
+    };
+    if !net.connected(j, k) {
+        // The exchange joins two windings of a multiplex winding: one coil leaves each, and
+        // the two moved coils run between them.
+        let Some(predicted) = joined(pr, &[o1, o2], &[c1, c2]) else {
+            return;
+        };
+        let shown = pr.effect(&predicted) > 1e-9;
+        out.push(pr, hypothesis, pr.judge(predicted), shown);
+        return;
+    }
     let nodes = |c: NetCoil| (net.node(c.from_bar), net.node(c.to_bar));
     let u = [nodes(c1), nodes(o1), nodes(c2), nodes(o2)];
-    let g = [1.0, -1.0, 1.0, -1.0];
+    let g = [
+        1.0 / c1.resistance,
+        -1.0 / o1.resistance,
+        1.0 / c2.resistance,
+        -1.0 / o2.resistance,
+    ];
     let mut m = Mat::<f64>::zeros(4, 4);
     for a in 0..4 {
         for b in 0..4 {
@@ -593,16 +792,129 @@ fn crossed_lead_fault(pr: &Problem, j: u32, k: u32, out: &mut Ranking) {
         })
         .collect();
     let shown = pr.effect(&predicted) > 1e-9;
-    out.push(
-        FaultKind::CrossedLeads,
-        vec![c1.coil, c2.coil],
-        vec![j, k],
-        pr.fixed(predicted),
-        None,
-        format!(
-            "the leads of coils {} and {} exchanged at bars {j} and {k}",
-            c1.coil, c2.coil
-        ),
-        shown,
-    );
+    out.push(pr, hypothesis, pr.judge(predicted), shown);
+}
+
+/// The readings when coils `removed` (each within one winding) leave and coils `added` run
+/// between windings of a multiplex winding, which the grounded inverse of the windings apart
+/// cannot carry by a low-rank update. Each winding keeps its grounded inverse, updated for its
+/// removed coil by Sherman–Morrison; the unknowns are the current in each added coil and the
+/// potential of each joined winding's ground against the first one's. For a reading fed
+/// with one unit in at x and out at y: each added coil's drop is its current times its
+/// resistance, and no winding gains or loses current; then R = φ(x) − φ(y) [derived,
+/// superposition and Kirchhoff's laws]. `None` when a removed coil was a bridge.
+fn joined(pr: &Problem, removed: &[NetCoil], added: &[NetCoil]) -> Option<Vec<Option<f64>>> {
+    let net = pr.net;
+    let z = |a: usize, b: usize| pr.z.z[a * pr.z.n + b];
+    // Sherman–Morrison for each removed coil: Z' = Z − τ u uᵀ, u = Z (e_p − e_q).
+    let mut updates = Vec::new();
+    for c in removed {
+        let (p, q) = (net.node(c.from_bar), net.node(c.to_bar));
+        let g = 1.0 / c.resistance;
+        let d = pr.z.t((p, q), (p, q));
+        if 1.0 - g * d < 1e-9 {
+            return None;
+        }
+        updates.push((p, q, -g / (1.0 - g * d)));
+    }
+    let zz = |a: usize, b: usize| {
+        updates.iter().fold(z(a, b), |acc, &(p, q, tau)| {
+            acc - tau * (z(a, p) - z(a, q)) * (z(b, p) - z(b, q))
+        })
+    };
+    // The added coils as (from node, to node, resistance), and the windings they join.
+    let ends: Vec<(usize, usize, f64)> = added
+        .iter()
+        .map(|c| (net.node(c.from_bar), net.node(c.to_bar), c.resistance))
+        .collect();
+    let mut parts: Vec<usize> = ends
+        .iter()
+        .flat_map(|&(u, v, _)| [net.part_of_node(u), net.part_of_node(v)])
+        .collect();
+    parts.sort_unstable();
+    parts.dedup();
+    let nc = ends.len();
+    // Unknowns: the added coils' currents, then the grounds of parts[1..].
+    let unknowns = nc + parts.len() - 1;
+    let ground = |node: usize| {
+        let k = parts.binary_search(&net.part_of_node(node)).ok()?;
+        Some((k > 0).then(|| nc + k - 1))
+    };
+    let out = pr
+        .pairs
+        .iter()
+        .zip(&pr.base)
+        .map(|(&(x, y), base)| {
+            let (gx, gy) = (ground(x), ground(y));
+            if gx.is_none() && gy.is_none() {
+                return *base;
+            }
+            let (gx, gy) = (gx?, gy?);
+            // φ(n) = V(n) + s(n) + Σ_c i_c t_c(n).
+            let s = |n: usize| zz(n, x) - zz(n, y);
+            let t = |c: usize, n: usize| zz(n, ends[c].1) - zz(n, ends[c].0);
+            let mut a = vec![vec![0.0; unknowns]; unknowns];
+            let mut b = vec![0.0; unknowns];
+            for (c, &(u, v, r)) in ends.iter().enumerate() {
+                for (d, cell) in a[c].iter_mut().enumerate().take(nc) {
+                    *cell = t(d, u) - t(d, v);
+                }
+                a[c][c] -= r;
+                if let Some(k) = ground(u).flatten() {
+                    a[c][k] += 1.0;
+                }
+                if let Some(k) = ground(v).flatten() {
+                    a[c][k] -= 1.0;
+                }
+                b[c] = -(s(u) - s(v));
+            }
+            // No winding but the first gains or loses current.
+            for (k, &part) in parts.iter().enumerate().skip(1) {
+                let row = nc + k - 1;
+                let inside = |n: usize| f64::from(u8::from(net.part_of_node(n) == part));
+                for (c, &(u, v, _)) in ends.iter().enumerate() {
+                    a[row][c] = inside(v) - inside(u);
+                }
+                b[row] = inside(y) - inside(x);
+            }
+            let sol = solve_small(a, b)?;
+            let potential = |n: usize, g: Option<usize>| {
+                g.map_or(0.0, |k| sol[k]) + s(n) + (0..nc).map(|c| sol[c] * t(c, n)).sum::<f64>()
+            };
+            let r = potential(x, gx) - potential(y, gy);
+            r.is_finite().then_some(r.max(0.0))
+        })
+        .collect();
+    Some(out)
+}
+
+/// Solves the small dense system a·x = b by Gaussian elimination with partial pivoting;
+/// `None` when it is singular.
+fn solve_small(mut a: Vec<Vec<f64>>, mut b: Vec<f64>) -> Option<Vec<f64>> {
+    let n = b.len();
+    for col in 0..n {
+        let piv = (col..n).max_by(|&i, &j| a[i][col].abs().total_cmp(&a[j][col].abs()))?;
+        if a[piv][col].abs() < 1e-300 {
+            return None;
+        }
+        a.swap(col, piv);
+        b.swap(col, piv);
+        let (top, rest) = a.split_at_mut(col + 1);
+        let pivot = &top[col];
+        for (i, line) in rest.iter_mut().enumerate() {
+            let f = line[col] / pivot[col];
+            if f != 0.0 {
+                for (x, p) in line.iter_mut().zip(pivot).skip(col) {
+                    *x -= f * p;
+                }
+                b[col + 1 + i] -= f * b[col];
+            }
+        }
+    }
+    let mut x = vec![0.0; n];
+    for row in (0..n).rev() {
+        let rest: f64 = (row + 1..n).map(|k| a[row][k] * x[k]).sum();
+        x[row] = (b[row] - rest) / a[row][row];
+    }
+    Some(x)
 }

@@ -66,7 +66,12 @@ fn union(parent: &mut [usize], a: usize, b: usize) {
 
 impl Network {
     /// Builds and factors the network of `winding`.
+    ///
+    /// A coil's resistance is its element's turns over the first element's (one wire and one
+    /// mean turn for the whole winding), so a frog-leg's wave coils of `wave_turns` weigh as
+    /// they are wound; the unit stays one coil of the first element.
     pub fn of_winding(winding: &Winding) -> Network {
+        let unit = f64::from(winding.elements[0].turns.max(1));
         let coils: Vec<NetCoil> = winding
             .connections
             .iter()
@@ -75,7 +80,11 @@ impl Network {
                     coil: c.coil,
                     from_bar: a,
                     to_bar: b,
-                    resistance: 1.0,
+                    resistance: winding
+                        .elements
+                        .iter()
+                        .find(|e| e.holds(c.coil))
+                        .map_or(1.0, |e| f64::from(e.turns) / unit),
                 }),
                 _ => None,
             })
@@ -169,6 +178,16 @@ impl Network {
     /// Node of `bar` (1…C).
     pub fn node(&self, bar: u32) -> usize {
         self.node_of_bar[bar as usize - 1]
+    }
+
+    /// The connected part a bar belongs to (its smallest node).
+    pub fn part(&self, bar: u32) -> usize {
+        self.part_of_node[self.node(bar)]
+    }
+
+    /// The connected part of a node.
+    pub fn part_of_node(&self, node: usize) -> usize {
+        self.part_of_node[node]
     }
 
     /// Nodes in the network (bars after the equalizers' ties).
