@@ -3,7 +3,8 @@
 //! Part of the `base` leaf, used by every stage that words a number. Fixed precision, never `-0.00`, so output is byte-stable.
 //! One function a form: fixed places ([`fmt_fixed`]), significant digits ([`fmt_sig`],
 //! [`round_sig`]), trailing zeros dropped ([`fmt_trimmed`], SVG coordinates), a sign always
-//! shown ([`fmt_signed`]) and a TOML number ([`fmt_toml`], design files).
+//! shown ([`fmt_signed`]), a TOML number ([`fmt_toml`], design files) and a table of readings
+//! in one prefixed unit ([`Prefix`], [`fmt_prefixed`]).
 
 /// Writes `x` with exactly `decimals` digits after the point; `-0.00` becomes `0.00`.
 pub fn fmt_fixed(x: f64, decimals: usize) -> String {
@@ -101,9 +102,119 @@ pub fn fmt_toml(x: f64, decimals: usize) -> String {
     }
 }
 
+/// An SI prefix for a whole table of values in one unit, chosen once from its largest value so
+/// every row is written in the same unit and the columns compare: a reading of a few
+/// milliohms is written `5.123` in mOhm, not `0.00512`.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct Prefix {
+    /// The power of ten: −6 (micro), −3 (milli), 0, 3 (kilo) or 6 (mega).
+    pub exponent: i32,
+}
+
+impl Prefix {
+    /// No prefix.
+    pub const NONE: Prefix = Prefix { exponent: 0 };
+
+    /// The prefix that writes `largest` from 1 up to (not including) 1000, from micro to mega;
+    /// no prefix for 0 or a value that is not finite.
+    pub fn for_largest(largest: f64) -> Prefix {
+        if !largest.is_finite() || largest <= 0.0 {
+            return Prefix::NONE;
+        }
+        let e = 3 * (largest.log10().floor() as i32).div_euclid(3);
+        Prefix {
+            exponent: e.clamp(-6, 6),
+        }
+    }
+
+    /// The prefix in ASCII, for the text report and the CSV: `u`, `m`, ``, `k`, `M`.
+    pub fn ascii(self) -> &'static str {
+        match self.exponent {
+            -6 => "u",
+            -3 => "m",
+            3 => "k",
+            6 => "M",
+            _ => "",
+        }
+    }
+
+    /// The prefix as printed on a drawing: `µ`, `m`, ``, `k`, `M`.
+    pub fn symbol(self) -> &'static str {
+        match self.exponent {
+            -6 => "\u{b5}",
+            e => Prefix { exponent: e }.ascii(),
+        }
+    }
+
+    /// The prefix of the unit that numbers given at `scale` (numbers per base unit) are in:
+    /// 10⁶ per ohm are micro-ohms, 10³ milli, 1 none, 10⁻³ kilo, 10⁻⁶ mega, each within 2 %;
+    /// `None` for any other scale (a unit of the file's own).
+    pub fn of_scale(scale: f64) -> Option<Prefix> {
+        [-6, -3, 0, 3, 6]
+            .into_iter()
+            .map(|exponent| Prefix { exponent })
+            .find(|p| scale > 0.0 && (scale * 10f64.powi(p.exponent) - 1.0).abs() <= 0.02)
+    }
+
+    /// `x` in the prefixed unit.
+    pub fn of(self, x: f64) -> f64 {
+        x / 10f64.powi(self.exponent)
+    }
+}
+
+/// Decimals every row of a table in a [`Prefix`]ed unit is written with (fixed precision:
+/// the largest value, from 1 to 999.9999, keeps five to seven significant digits).
+pub const PREFIXED_DECIMALS: usize = 4;
+
+/// Writes `x` in the unit `prefix` gives, with [`PREFIXED_DECIMALS`] places: the one writer of
+/// a reading (the armature test's tables, its plot's scale).
+pub fn fmt_prefixed(x: f64, prefix: Prefix) -> String {
+    fmt_fixed(prefix.of(x), PREFIXED_DECIMALS)
+}
+
+/// Places after the point that write `largest` with `digits` significant digits (none for a
+/// value of 1 and more with that many digits before the point, and for 0): the places of a
+/// whole column, so its rows line up.
+pub fn decimals_for(largest: f64, digits: i32) -> usize {
+    if !largest.is_finite() || largest <= 0.0 {
+        return 0;
+    }
+    (digits - 1 - largest.log10().floor() as i32).clamp(0, 12) as usize
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn one_prefix_per_table_from_its_largest_value() {
+        let milli = Prefix::for_largest(0.0108649);
+        assert_eq!(
+            (milli.exponent, milli.ascii(), milli.symbol()),
+            (-3, "m", "m")
+        );
+        assert_eq!(fmt_prefixed(0.0108649, milli), "10.8649");
+        assert_eq!(fmt_prefixed(0.0006708, milli), "0.6708");
+        let micro = Prefix::for_largest(5.2e-5);
+        assert_eq!((micro.ascii(), micro.symbol()), ("u", "\u{b5}"));
+        assert_eq!(fmt_prefixed(5.2e-5, micro), "52.0000");
+        assert_eq!(Prefix::for_largest(1.0), Prefix::NONE);
+        assert_eq!(Prefix::for_largest(999.9), Prefix::NONE);
+        assert_eq!(Prefix::for_largest(1000.0).exponent, 3);
+        assert_eq!(Prefix::for_largest(1e-12).exponent, -6);
+        assert_eq!(Prefix::for_largest(1e30).exponent, 6);
+        for bad in [0.0, -1.0, f64::NAN, f64::INFINITY] {
+            assert_eq!(Prefix::for_largest(bad), Prefix::NONE);
+        }
+        assert_eq!(Prefix::of_scale(999_997.0), Some(micro));
+        assert_eq!(Prefix::of_scale(1000.0), Some(milli));
+        assert_eq!(Prefix::of_scale(1.01), Some(Prefix::NONE));
+        assert_eq!(Prefix::of_scale(1.05), None);
+        assert_eq!(Prefix::of_scale(0.0), None);
+        assert_eq!(decimals_for(391_000.0, 6), 0);
+        assert_eq!(decimals_for(0.0123, 6), 7);
+        assert_eq!(decimals_for(0.0, 6), 0);
+    }
 
     #[test]
     fn fixed_precision_cases() {

@@ -2,9 +2,9 @@
 //! and a rename, and a whole folder of files (a sheet set) staged beside the target and swapped
 //! into place, so an error never leaves a mixed set.
 //!
-//! What may be replaced, for every command that writes (`new`, `rewind`, `draw`, `sheet`): an
-//! output path must be absent, a regular file (a folder for a sheet set), or a symbolic link to
-//! an existing one, which is followed: the file or folder it leads to is replaced and the link
+//! What may be replaced, for every command that writes (`new`, `rewind`, `draw`, `sheet`,
+//! `test`): an output path must be absent, a regular file (a folder for a sheet set), or a
+//! symbolic link to an existing one, which is followed: the file or folder it leads to is replaced and the link
 //! kept. A folder where a file goes, a file where a folder goes, a device (`/dev/null`), a
 //! FIFO, a socket, a link to nothing or to any of these is [`CliError::WrongKind`] (exit 2),
 //! found before anything is written. Temporary files and folders have random names and are
@@ -268,6 +268,55 @@ pub fn write_new(path: &Path, bytes: &[u8], by: NoOverwrite) -> Result<(), CliEr
                 CliError::write(path, e.error)
             }
         })
+}
+
+/// Writes `files` (names inside the folder, bytes) into the folder `dir`, each on its own with
+/// [`write_atomic`] (a temporary file beside it, then a rename), creating the folder if it is
+/// missing. Nothing else in `dir` is moved, read or removed, so the files of another command
+/// written there (a `sheet` set) stay as they are; a run killed part way leaves each of its
+/// files whole, old or new, and at most a temporary `.<name>.XXXXXX.tmp` beside it, which the
+/// next run removes. `dir` must
+/// be absent, a folder or a symbolic link to one (see `resolve`); anything else is
+/// [`CliError::WrongKind`] and nothing is written.
+pub fn write_own_files(dir: &Path, files: &[(String, Vec<u8>)]) -> Result<(), CliError> {
+    let (real, exists) = resolve(dir, EntryKind::Folder)?;
+    if exists {
+        // Every file's place first, so a wrong one refuses before any is written.
+        for (name, _) in files {
+            resolve(&dir.join(name), EntryKind::File)?;
+        }
+    } else {
+        fs::create_dir_all(&real).map_err(|source| CliError::CreateDir {
+            path: dir.to_path_buf(),
+            source,
+        })?;
+    }
+    for (name, bytes) in files {
+        let path = dir.join(name);
+        clear_own_temporaries(&real, &temp_prefix(&path));
+        write_atomic(&path, bytes)?;
+    }
+    Ok(())
+}
+
+/// Removes the temporary files a killed run left for one of its own files in `dir`: regular
+/// files named `prefix` (`.<name>.`), six random letters or digits and `.tmp`, as
+/// [`staged_file`] makes them. Nothing else is touched; a file that cannot be removed stays.
+fn clear_own_temporaries(dir: &Path, prefix: &str) {
+    let Ok(entries) = fs::read_dir(dir) else {
+        return;
+    };
+    for entry in entries.flatten() {
+        let name = entry.file_name();
+        let ours = name
+            .to_str()
+            .and_then(|n| n.strip_prefix(prefix))
+            .and_then(|r| r.strip_suffix(".tmp"))
+            .is_some_and(|r| r.len() == 6 && r.chars().all(|c| c.is_ascii_alphanumeric()));
+        if ours && entry.file_type().is_ok_and(|t| t.is_file()) {
+            let _ = fs::remove_file(entry.path());
+        }
+    }
 }
 
 /// Replaces the folder `target` with one holding exactly `files` (names inside the folder,

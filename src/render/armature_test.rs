@@ -10,7 +10,7 @@ use serde::Serialize;
 
 use super::csv::{Cell, csv_file};
 use crate::base::caution::TEST_CAUTIONS;
-use crate::base::number::{fmt_fixed, fmt_sig, round_sig};
+use crate::base::number::{Prefix, decimals_for, fmt_fixed, fmt_prefixed, fmt_sig, round_sig};
 use crate::features::armature_test::{
     ArmatureTest, DropFeed, ElementsPattern, Fault, Location, Pattern, Reading, ReadingValue, Unit,
 };
@@ -40,19 +40,36 @@ fn unit_words(t: &ArmatureTest) -> String {
     reading_unit_words(t.coil_resistance_ohm, t.temperature_c)
 }
 
-fn value(x: Option<f64>) -> String {
-    x.map_or("open".into(), |v| fmt_sig(v, DIGITS))
+/// The unit of a table of bar-to-bar readings, in ASCII: `Ohm`, `mOhm`, `uOhm`, or `coil`.
+pub fn reading_unit(t: &ArmatureTest) -> String {
+    match t.unit {
+        Unit::Ohm => format!("{}Ohm", t.reading_prefix().ascii()),
+        Unit::Coil => "coil".into(),
+    }
 }
 
-fn table(out: &mut String, rows: &[Reading], head: &str) {
-    let _ = writeln!(out, "  {:>6} {:>6}  {head}", "bar", "bar");
+/// The unit of the drop-test tables: `mV`, `V`, `uV`, or `A x coil`.
+pub fn drop_unit(t: &ArmatureTest) -> String {
+    match t.unit {
+        Unit::Ohm => format!("{}V", t.drop_prefix().ascii()),
+        Unit::Coil => "A x coil".into(),
+    }
+}
+
+/// One cell of a table in the prefixed unit `p`: `open`, or the number with fixed places.
+fn value(x: Option<f64>, p: Prefix) -> String {
+    x.map_or("open".into(), |v| fmt_prefixed(v, p))
+}
+
+fn table(out: &mut String, rows: &[Reading], head: &str, p: Prefix) {
+    let _ = writeln!(out, "  {:>6} {:>6}  {:>12}", "bar", "bar", head);
     for r in rows {
         let _ = writeln!(
             out,
-            "  {:>6} {:>6}  {}",
+            "  {:>6} {:>6}  {:>12}",
             r.from_bar,
             r.to_bar,
-            value(r.expected)
+            value(r.expected, p)
         );
     }
 }
@@ -66,30 +83,79 @@ fn feed_words(f: &DropFeed, current: f64) -> String {
     });
     format!(
         "feed {} A in at bar {} and out at bar {}{moved}",
-        fmt_fixed(current, 1),
+        fmt_fixed(current, if current < 1.0 { 2 } else { 1 }),
         f.from_bar,
         f.to_bar
     )
 }
 
+/// The median of a feed's readings (the pairs that read).
+fn feed_median(f: &DropFeed) -> f64 {
+    let mut v: Vec<f64> = f.readings.iter().filter_map(|r| r.expected).collect();
+    v.sort_by(f64::total_cmp);
+    v.get(v.len() / 2).copied().unwrap_or(0.0)
+}
+
+/// The drop-test table of one feed: the pairs joined through a feed bar marked `*`, and why
+/// they read so little beneath it.
+fn drop_table(out: &mut String, f: &DropFeed, head: &str, p: Prefix) {
+    let _ = writeln!(out, "  {:>6} {:>6}  {:>12}", "bar", "bar", head);
+    let mut marked = Vec::new();
+    for (r, through) in f.readings.iter().zip(&f.through_feed) {
+        let mark = match through {
+            Some(b) => {
+                marked.push((r, *b));
+                format!("  * through feed bar {b}")
+            }
+            None => String::new(),
+        };
+        let _ = writeln!(
+            out,
+            "  {:>6} {:>6}  {:>12}{mark}",
+            r.from_bar,
+            r.to_bar,
+            value(r.expected, p)
+        );
+    }
+    if marked.is_empty() {
+        return;
+    }
+    let median = feed_median(f);
+    let each: Vec<String> = marked
+        .iter()
+        .map(|(r, b)| {
+            format!(
+                "{}-{} through bar {b} ({}, {} % of the median)",
+                r.from_bar,
+                r.to_bar,
+                if *b == f.from_bar { "in" } else { "out" },
+                fmt_fixed(100.0 * r.expected.unwrap_or(0.0) / median.max(1e-300), 1)
+            )
+        })
+        .collect();
+    let _ = writeln!(
+        out,
+        "  * sound, though low: the shortest run of coils between these bars passes a feed bar ({}); the current flows away from the bar it goes in at (towards the bar it leaves at) through the coils on both sides, so their drops oppose and the pair reads far less than the others. Do not take them for shorts",
+        each.join("; ")
+    );
+}
+
 /// A frog-leg's bar-to-bar pattern in words, from the network's figures.
 pub fn elements_words(e: &ElementsPattern, t: &ArmatureTest) -> String {
-    let unit = if t.coil_resistance_ohm.is_some() {
-        "ohm"
-    } else {
-        "coil"
-    };
+    let (p, unit) = (t.reading_prefix(), reading_unit(t));
     format!(
         "frog-leg: each pair of neighbouring bars has a lap coil across it, in parallel with the rest of the lap element and with the wave element, so the readings are about {} {unit}, against {} {unit} for the lap element alone ({} % of it); an open lap coil moves {} reading(s) by more than 5 %, an open wave coil {}: lift the wave leads to test the lap element as a plain lap",
-        fmt_sig(e.combined, DIGITS),
-        fmt_sig(e.lap_alone, DIGITS),
+        fmt_prefixed(e.combined, p),
+        fmt_prefixed(e.lap_alone, p),
         fmt_fixed(100.0 * e.combined / e.lap_alone.max(1e-300), 1),
         e.open_lap_moves,
         e.open_wave_moves
     )
 }
 
-/// The text report.
+/// The text report: the verdict and the ranked faults first (with measured readings), then
+/// the expected readings, the drop test, the measured readings against the expected, and the
+/// limits and cautions of the test.
 pub fn render_test_text(t: &ArmatureTest, design_name: &str) -> String {
     let mut out = String::new();
     let _ = writeln!(out, "Armature test: {design_name}");
@@ -108,8 +174,13 @@ pub fn render_test_text(t: &ArmatureTest, design_name: &str) -> String {
         }
     );
     let _ = writeln!(out, "unit: {}", unit_words(t));
+    if let Some(l) = &t.location {
+        let _ = writeln!(out);
+        locator_text(&mut out, l, t);
+    }
     let _ = writeln!(out);
-    let _ = writeln!(out, "Bar-to-bar readings, neighbouring bars");
+    let (p, unit) = (t.reading_prefix(), reading_unit(t));
+    let _ = writeln!(out, "Bar-to-bar readings, neighbouring bars ({unit})");
     let open = t.open_pairs();
     let _ = writeln!(out, "  pattern: {}", pattern_words(t.pattern));
     let _ = writeln!(
@@ -127,33 +198,42 @@ pub fn render_test_text(t: &ArmatureTest, design_name: &str) -> String {
             t.multiplicity
         );
     }
-    table(&mut out, &t.readings, "expected");
+    table(&mut out, &t.readings, &format!("expected {unit}"), p);
     if let Some(w) = &t.readings_within_winding {
         let _ = writeln!(out);
         let _ = writeln!(
             out,
-            "Bar-to-bar readings, bars {} apart (within one winding)",
+            "Bar-to-bar readings, bars {} apart (within one winding, {unit})",
             t.multiplicity
         );
-        table(&mut out, w, "expected");
+        table(&mut out, w, &format!("expected {unit}"), p);
     }
     let _ = writeln!(out);
-    let unit = if t.unit == Unit::Ohm {
-        "mV"
-    } else {
-        "A x coil"
-    };
+    let (dp, dunit) = (t.drop_prefix(), drop_unit(t));
+    // The drop test's readings are kept in millivolts (ohm) or A x coil.
+    let to_base = |x: f64| if t.unit == Unit::Ohm { x / 1000.0 } else { x };
     let _ = writeln!(
         out,
-        "Drop test (expected {unit} between the bars of each pair)"
+        "Drop test (expected {dunit} between the bars of each pair)"
     );
     for f in &t.drop_test.feeds {
         let _ = writeln!(out, "  {}", feed_words(f, t.drop_test.current_a));
-        table(&mut out, &f.readings, unit);
+        let in_base = DropFeed {
+            readings: f
+                .readings
+                .iter()
+                .map(|r| Reading {
+                    expected: r.expected.map(to_base),
+                    ..*r
+                })
+                .collect(),
+            ..f.clone()
+        };
+        drop_table(&mut out, &in_base, &dunit, dp);
     }
     if let Some(l) = &t.location {
         let _ = writeln!(out);
-        locator_text(&mut out, l);
+        measured_table(&mut out, l);
     }
     let _ = writeln!(out);
     let _ = writeln!(out, "Faults this test cannot see");
@@ -168,19 +248,55 @@ pub fn render_test_text(t: &ArmatureTest, design_name: &str) -> String {
     out
 }
 
-fn measured_words(v: ReadingValue) -> String {
-    match v {
-        ReadingValue::Value(x) => fmt_sig(x, DIGITS),
-        ReadingValue::Open => "open".into(),
-    }
-}
-
 fn list(v: &[u32]) -> String {
     v.iter().map(u32::to_string).collect::<Vec<_>>().join(", ")
 }
 
-fn locator_text(out: &mut String, l: &Location) {
-    let _ = writeln!(out, "Measured readings");
+/// The unit the measured readings were given in, from the locator's fitted scale: with
+/// readings in ohms expected, a power of a thousand within 2 % names its prefix (`uOhm` for a
+/// scale of 10^6); otherwise the file's own unit, with what one ohm (or one coil) reads in it.
+pub fn measured_unit_words(t: &ArmatureTest, l: &Location) -> String {
+    let s = l.healthy_scale;
+    if t.unit == Unit::Ohm {
+        if let Some(p) = Prefix::of_scale(s) {
+            return format!(
+                "{}Ohm (the fitted scale is {} per ohm)",
+                p.ascii(),
+                fmt_sig(s, 4)
+            );
+        }
+        format!(
+            "the file's own unit (the fitted scale: one ohm reads {})",
+            fmt_sig(s, 4)
+        )
+    } else {
+        format!(
+            "the file's own unit (the fitted scale: one coil's resistance reads {})",
+            fmt_sig(s, 4)
+        )
+    }
+}
+
+/// The verdict, first: healthy or not (and the exit code), what was compared, the unit the
+/// readings were given in, and the ranked faults.
+fn locator_text(out: &mut String, l: &Location, t: &ArmatureTest) {
+    if l.healthy {
+        let _ = writeln!(
+            out,
+            "VERDICT: HEALTHY: every reading is within tolerance of the healthy pattern"
+        );
+    } else if l.all_zero {
+        let _ = writeln!(
+            out,
+            "VERDICT: NOT HEALTHY (exit 1): every reading is zero where the winding reads a resistance: a shorted commutator (solder, carbon or copper across the bars) or the meter on the wrong range; check the range and the probes, then look along the commutator"
+        );
+    } else {
+        let _ = writeln!(
+            out,
+            "VERDICT: NOT HEALTHY (exit 1): readings outside tolerance at bars {}",
+            list(&l.suspect_bars)
+        );
+    }
     let _ = writeln!(
         out,
         "  {} reading(s) compared, {} pair(s) not read; tolerance {} % of the healthy pattern (default 5 %, --tolerance)",
@@ -188,23 +304,7 @@ fn locator_text(out: &mut String, l: &Location) {
         l.missing,
         fmt_fixed(100.0 * l.tolerance, 1)
     );
-    if l.healthy {
-        let _ = writeln!(
-            out,
-            "  healthy: every reading is within tolerance of the healthy pattern"
-        );
-    } else if l.all_zero {
-        let _ = writeln!(
-            out,
-            "  not healthy: every reading is zero where the winding reads a resistance: a shorted commutator (solder, carbon or copper across the bars) or the meter on the wrong range; check the range and the probes, then look along the commutator"
-        );
-    } else {
-        let _ = writeln!(
-            out,
-            "  not healthy: readings outside tolerance at bars {}",
-            list(&l.suspect_bars)
-        );
-    }
+    let _ = writeln!(out, "  readings as given: {}", measured_unit_words(t, l));
     match l.faults.first() {
         Some(best) if !l.healthy && best.explains => {
             let _ = writeln!(
@@ -222,25 +322,9 @@ fn locator_text(out: &mut String, l: &Location) {
         _ => {}
     }
     if !l.healthy {
+        let _ = writeln!(out, "  most likely faults, best first:");
         for (i, f) in l.faults.iter().take(3).enumerate() {
-            let _ = writeln!(
-                out,
-                "  {}. {} (misfit {}, lower fits better): {}",
-                i + 1,
-                f.kind.key(),
-                fmt_fixed(f.score, 3),
-                f.explanation
-            );
-            let _ = writeln!(
-                out,
-                "     inspect bars {}{}",
-                list(&f.bars),
-                if f.slots.is_empty() {
-                    String::new()
-                } else {
-                    format!(", slots {}", list(&f.slots))
-                }
-            );
+            fault_text(out, i + 1, f);
         }
     }
     for (k, n) in &l.invisible {
@@ -250,6 +334,51 @@ fn locator_text(out: &mut String, l: &Location) {
             k.key()
         );
     }
+}
+
+/// One ranked fault, from what every [`Fault`] carries (its kind's key, explanation, bars,
+/// slots and score), so a new kind reads without a change here.
+fn fault_text(out: &mut String, rank: usize, f: &Fault) {
+    let _ = writeln!(
+        out,
+        "  {rank}. {} (misfit {}, lower fits better): {}",
+        f.kind.key(),
+        fmt_fixed(f.score, 3),
+        f.explanation
+    );
+    let _ = writeln!(
+        out,
+        "     inspect bars {}{}",
+        list(&f.bars),
+        if f.slots.is_empty() {
+            String::new()
+        } else {
+            format!(", slots {}", list(&f.slots))
+        }
+    );
+}
+
+/// The measured readings against the expected ones at the fitted scale, both in the unit the
+/// readings were given in, with fixed places from the largest.
+fn measured_table(out: &mut String, l: &Location) {
+    let largest = l
+        .measured
+        .iter()
+        .flat_map(|(r, m)| {
+            let m = match m {
+                ReadingValue::Value(v) => Some(*v),
+                ReadingValue::Open => None,
+            };
+            [r.expected.map(|e| e * l.healthy_scale), m]
+        })
+        .flatten()
+        .fold(0.0, f64::max);
+    let places = decimals_for(largest, DIGITS);
+    let cell = |x: Option<f64>| x.map_or("open".to_string(), |v| fmt_fixed(v, places));
+    let _ = writeln!(
+        out,
+        "Measured readings against the expected (in the unit the readings were given in)"
+    );
     let _ = writeln!(
         out,
         "  {:>6} {:>6}  {:>12}  {:>12}",
@@ -257,13 +386,17 @@ fn locator_text(out: &mut String, l: &Location) {
     );
     for (r, m) in &l.measured {
         let e = r.expected.map(|e| e * l.healthy_scale);
+        let m = match m {
+            ReadingValue::Value(v) => Some(*v),
+            ReadingValue::Open => None,
+        };
         let _ = writeln!(
             out,
             "  {:>6} {:>6}  {:>12}  {:>12}",
             r.from_bar,
             r.to_bar,
-            value(e),
-            measured_words(*m)
+            cell(e),
+            cell(m)
         );
     }
 }
@@ -339,12 +472,22 @@ fn readings_json(rows: &[Reading]) -> Vec<ReadingJson> {
         .collect()
 }
 
+/// A drop-test reading: `through_feed_bar` is the feed bar the pair's bars are joined through
+/// (the pair reads far less than the others, though sound), else null.
+#[derive(Serialize)]
+struct DropReadingJson {
+    expected: Option<f64>,
+    from_bar: u32,
+    through_feed_bar: Option<u32>,
+    to_bar: u32,
+}
+
 #[derive(Serialize)]
 struct FeedJson {
     expected_unit: &'static str,
     from_bar: u32,
     moved_from_bar: Option<u32>,
-    readings: Vec<ReadingJson>,
+    readings: Vec<DropReadingJson>,
     to_bar: u32,
 }
 
@@ -391,7 +534,17 @@ fn test_json(t: &ArmatureTest) -> TestJson {
                     expected_unit,
                     from_bar: f.from_bar,
                     moved_from_bar: f.moved_from,
-                    readings: readings_json(&f.readings),
+                    readings: f
+                        .readings
+                        .iter()
+                        .zip(&f.through_feed)
+                        .map(|(r, b)| DropReadingJson {
+                            expected: r.expected.map(|v| round_sig(v, DIGITS)),
+                            from_bar: r.from_bar,
+                            through_feed_bar: *b,
+                            to_bar: r.to_bar,
+                        })
+                        .collect(),
                     to_bar: f.to_bar,
                 })
                 .collect(),
@@ -430,7 +583,7 @@ pub fn readings_csv(t: &ArmatureTest) -> String {
         vec![
             Cell::Num(r.from_bar.to_string()),
             Cell::Num(r.to_bar.to_string()),
-            Cell::Num(value(r.expected)),
+            Cell::Num(r.expected.map_or("open".into(), |v| fmt_sig(v, DIGITS))),
             Cell::Text(String::new()),
         ]
     });

@@ -113,3 +113,20 @@ fn the_mutator_is_deterministic_and_mutates() {
     assert_eq!(a, b);
     assert!(a.iter().filter(|t| **t != base).count() > 40);
 }
+
+#[test]
+fn readings_in_every_dialect_never_panic() {
+    // The armature test's half of the driver on every small demo, 60 readings files each:
+    // every dialect (LF, CRLF, byte-order mark, quoted, trailing blank lines, not UTF-8) and
+    // the numbers beyond any meter come up, and nothing panics.
+    use crate::support::fuzz_drive::drive_armature_test;
+    use armsheet::features::armature_test::{TestOptions, expected};
+    let mut rng = Rng::new(11);
+    for name in support::DEMOS.iter().filter(|&&d| d != "mill-lap-12p") {
+        let checked = armsheet::check(support::design(&support::demo(name)));
+        let test = expected(&checked.design, &checked.winding, &TestOptions::default());
+        for _ in 0..60 {
+            drive_armature_test(&checked, &test, &mut rng);
+        }
+    }
+}

@@ -371,3 +371,72 @@ proptest! {
         prop_assert!(all.is_empty(), "{}\n{}", toml, report(&all));
     }
 }
+
+/// Readings for `t`'s listed pairs: the expected ones in micro-ohms (or as given for units of
+/// a coil), every `every`-th pair `factor` times its value, so the locator finds suspects.
+fn readings_for(
+    t: &armsheet::features::armature_test::ArmatureTest,
+    every: usize,
+    factor: f64,
+) -> String {
+    let mut s = String::from("from_bar,to_bar,reading\n");
+    let rows = t
+        .readings
+        .iter()
+        .chain(t.readings_within_winding.iter().flatten());
+    for (i, r) in rows.enumerate() {
+        if let Some(e) = r.expected {
+            let f = if every > 0 && i % every == 0 {
+                factor
+            } else {
+                1.0
+            };
+            s.push_str(&format!("{},{},{}\n", r.from_bar, r.to_bar, e * 1e6 * f));
+        }
+    }
+    s
+}
+
+#[test]
+fn every_demo_readings_plot_meets_the_floor() {
+    use armsheet::features::armature_test::{TestOptions, armature_test};
+    use armsheet::layout::readings_plot::readings_plot_page;
+    let mut all = Vec::new();
+    for name in support::DEMOS {
+        let c = armsheet::check(support::design(&support::demo(name)));
+        let plain = armature_test(&c.design, &c.winding, &TestOptions::default(), None).unwrap();
+        // Expected only; healthy readings; one pair 36 times high; suspects all round (every 7th
+        // pair doubled: many numbered bars that must not collide).
+        let mut cases = vec![("expected", plain)];
+        let t = &cases[0].1;
+        let texts = [
+            ("healthy", readings_for(t, 0, 1.0)),
+            ("many", readings_for(t, 7, 2.0)),
+        ];
+        let first_high = {
+            let base = readings_for(t, 0, 1.0);
+            let mut lines: Vec<String> = base.lines().map(String::from).collect();
+            if let Some(l) = lines.get_mut(10) {
+                let f: Vec<&str> = l.split(',').collect();
+                let v: f64 = f[2].parse().unwrap();
+                *l = format!("{},{},{}", f[0], f[1], v * 36.0);
+            }
+            lines.join("\n")
+        };
+        for (label, text) in texts.into_iter().chain([("spike", first_high)]) {
+            if let Ok(t) =
+                armature_test(&c.design, &c.winding, &TestOptions::default(), Some(&text))
+            {
+                cases.push((label, t));
+            }
+        }
+        assert!(cases.len() >= 4, "{name}: the readings cases must all run");
+        for (label, t) in &cases {
+            let page = readings_plot_page(t, name);
+            for b in breaches(&page) {
+                all.push(format!("{name} plot ({label}): {b}"));
+            }
+        }
+    }
+    assert!(all.is_empty(), "{}", report(&all));
+}

@@ -7,6 +7,7 @@ mod support;
 
 mod architecture;
 mod armature_test;
+mod armature_test_cli;
 mod broken_files;
 mod brush_neutral;
 mod cli;
@@ -27,6 +28,7 @@ mod fuzz;
 mod identify_cli;
 mod identify_round_trip;
 mod kill_sheet;
+mod kill_test;
 mod kind_in_one_place;
 mod legibility;
 mod locator_memory;

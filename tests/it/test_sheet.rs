@@ -5,7 +5,7 @@
 
 use crate::support;
 
-use armsheet::base::number::fmt_sig;
+use armsheet::base::number::fmt_fixed;
 use armsheet::checks::Checked;
 use armsheet::features::armature_test::{ArmatureTest, TestOptions, expected};
 use armsheet::layout::tree::{Group, Node, Page, PageKind};
@@ -87,7 +87,8 @@ fn every_bar_pair_has_one_row_with_an_empty_measured_box() {
                     (
                         r.from_bar.to_string(),
                         r.to_bar.to_string(),
-                        r.expected.map_or("open".into(), |v| fmt_sig(v, 4)),
+                        r.expected
+                            .map_or("open".into(), |v| fmt_fixed(test.reading_prefix().of(v), 2)),
                     )
                 })
                 .collect();

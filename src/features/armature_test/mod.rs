@@ -12,8 +12,9 @@ pub mod readings;
 
 pub use locator::{Fault, FaultKind, Location};
 pub use network::{NetCoil, Network};
-pub use readings::{MeasuredReadings, ReadingValue, ReadingsError, parse_readings};
+pub use readings::{MeasuredReadings, ReadingValue, ReadingsError, parse_readings, readings_text};
 
+use crate::base::number::Prefix;
 use crate::design::Design;
 use crate::rating::conductor::{conductor_area_mm2, mean_turn};
 use crate::rating::resistance::{copper_resistance_20, correct_temperature};
@@ -108,6 +109,12 @@ pub struct DropFeed {
     /// apart when the neighbours lie on another winding); in units of I × one coil's
     /// resistance when the unit is `coil`.
     pub readings: Vec<Reading>,
+    /// For each of `readings`, the feed bar its two bars are joined through, when the
+    /// shortest run of coils between them passes the bar the current goes in or out at: the
+    /// current flows away from that bar (or towards it) through the coils on both sides, so
+    /// their drops oppose and the pair reads far less than the others, though sound. `None`
+    /// for the other pairs.
+    pub through_feed: Vec<Option<u32>>,
 }
 
 /// The drop test.
@@ -186,6 +193,39 @@ impl ArmatureTest {
             .iter()
             .filter(|r| r.expected.is_none())
             .count()
+    }
+
+    /// The one prefix every bar-to-bar reading of this test is written in (ohms: Ω, mΩ or
+    /// µΩ from the largest expected reading; none for units of a coil), so a table's rows and
+    /// the plot's scale compare.
+    pub fn reading_prefix(&self) -> Prefix {
+        match self.unit {
+            Unit::Ohm => Prefix::for_largest(
+                self.readings
+                    .iter()
+                    .chain(self.readings_within_winding.iter().flatten())
+                    .filter_map(|r| r.expected)
+                    .fold(0.0, f64::max),
+            ),
+            Unit::Coil => Prefix::NONE,
+        }
+    }
+
+    /// The one prefix every drop-test reading is written in, for volts (mV from a few
+    /// millivolts up); none for units of I × a coil.
+    pub fn drop_prefix(&self) -> Prefix {
+        match self.unit {
+            Unit::Ohm => Prefix::for_largest(
+                self.drop_test
+                    .feeds
+                    .iter()
+                    .flat_map(|f| &f.readings)
+                    .filter_map(|r| r.expected)
+                    .fold(0.0, f64::max)
+                    / 1000.0,
+            ),
+            Unit::Coil => Prefix::NONE,
+        }
     }
 
     /// The readings the trade judges: the neighbouring ones, or the within-winding ones when
@@ -420,6 +460,15 @@ fn feed_bars(t: &ArmatureTest) -> Vec<(u32, u32)> {
 fn drop_test(t: &ArmatureTest, current_a: f64, scale: f64) -> DropTest {
     let net = &t.network;
     let c = t.bars;
+    // The nodes each node shares a coil with.
+    let mut adjacent: Vec<Vec<usize>> = vec![Vec::new(); net.nodes()];
+    for c in &net.coils {
+        let (p, q) = (net.node(c.from_bar), net.node(c.to_bar));
+        if p != q {
+            adjacent[p].push(q);
+            adjacent[q].push(p);
+        }
+    }
     let feeds = feed_bars(t)
         .into_iter()
         .map(|(a, wanted)| {
@@ -437,7 +486,7 @@ fn drop_test(t: &ArmatureTest, current_a: f64, scale: f64) -> DropTest {
             } else {
                 neighbour_pairs(c)
             };
-            let readings = pairs
+            let readings: Vec<Reading> = pairs
                 .into_iter()
                 .filter(|&(x, y)| net.connected(x, a) && net.connected(y, a))
                 .map(|(x, y)| {
@@ -453,13 +502,62 @@ fn drop_test(t: &ArmatureTest, current_a: f64, scale: f64) -> DropTest {
                     }
                 })
                 .collect();
+            let through_feed = readings
+                .iter()
+                .map(|r: &Reading| through_feed(net, &adjacent, r.from_bar, r.to_bar, [a, b]))
+                .collect();
             DropFeed {
                 from_bar: a,
                 to_bar: b,
                 moved_from: (b != wanted).then_some(wanted),
                 readings,
+                through_feed,
             }
         })
         .collect();
     DropTest { current_a, feeds }
 }
+
+/// The feed bar (of `feed`) that the shortest run of coils from bar `x` to bar `y` passes
+/// through, between its ends; `None` when it passes neither. A breadth-first search over the
+/// network's nodes (equalizer-tied bars one node; `adjacent` lists the nodes each shares a
+/// coil with) that stops on reaching `y`, so a pair one coil apart (a lap's neighbours) costs
+/// one step, a wave's P/2; it gives up after [`THROUGH_SEARCH`] nodes.
+fn through_feed(
+    net: &Network,
+    adjacent: &[Vec<usize>],
+    x: u32,
+    y: u32,
+    feed: [u32; 2],
+) -> Option<u32> {
+    let (from, to) = (net.node(x), net.node(y));
+    let mut parent: std::collections::BTreeMap<usize, usize> = std::collections::BTreeMap::new();
+    let mut queue = std::collections::VecDeque::from([from]);
+    parent.insert(from, from);
+    'search: while let Some(n) = queue.pop_front() {
+        for &next in &adjacent[n] {
+            if parent.contains_key(&next) {
+                continue;
+            }
+            parent.insert(next, n);
+            if next == to || parent.len() > THROUGH_SEARCH {
+                break 'search;
+            }
+            queue.push_back(next);
+        }
+    }
+    if from == to || !parent.contains_key(&to) {
+        return None;
+    }
+    let mut at = parent[&to];
+    while at != from {
+        if let Some(&f) = feed.iter().find(|&&f| net.node(f) == at) {
+            return Some(f);
+        }
+        at = parent[&at];
+    }
+    None
+}
+
+/// Most nodes [`through_feed`] visits for one pair.
+const THROUGH_SEARCH: usize = 4096;

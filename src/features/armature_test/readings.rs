@@ -3,7 +3,9 @@
 //! Part of the `features` stage (under [`super`]): the file's text in (the CLI reads it), the
 //! readings out, or the first problem with its line and column. Read with the `csv` crate:
 //! RFC 4180, quoted fields, LF or CRLF line ends, a UTF-8 byte-order mark; blank lines are
-//! skipped and every field is trimmed. Readings may be in any
+//! skipped and every field is trimmed; a file that is not UTF-8 is refused at its first bad
+//! byte ([`readings_text`]), and a reading beyond any meter ([`MAX_READING`], [`MIN_READING`])
+//! at its cell. Readings may be in any
 //! consistent unit (the locator fits the scale); a reading may be `0`, or `open` / `OL` for an
 //! open circuit; an empty reading is a missing pair. The readings CSV that `test -o` writes is
 //! accepted too: its `measured` column is the reading.
@@ -39,6 +41,51 @@ pub struct ReadingsError {
 
 /// Fewest readings the locator works from.
 pub const MIN_READINGS: usize = 3;
+
+/// Largest reading taken, in the file's unit: 10⁹. In ohms that is a gigaohm, the range of an
+/// insulation tester, not of the low-resistance ohmmeter a bar-to-bar test uses; in millivolts
+/// it is a thousand kilovolts, beyond any drop test. A larger number is a slip (a value pasted
+/// in the wrong column, a serial number), never a reading [derived from the meters' ranges].
+pub const MAX_READING: f64 = 1e9;
+
+/// Smallest reading other than zero, in the file's unit: 10⁻⁹ (a nano-ohm or a nanovolt, below
+/// the resolution of any micro-ohm meter); a dead short is written `0` \[derived\].
+pub const MIN_READING: f64 = 1e-9;
+
+/// Most characters of a field echoed back in a message: a 300-digit number is cut, so no
+/// message carries it whole.
+const ECHO_CHARS: usize = 24;
+
+/// The text of a readings file given as bytes: UTF-8, or the line and column (field) of the
+/// first byte that is not, with the byte in hex.
+pub fn readings_text(bytes: &[u8]) -> Result<&str, ReadingsError> {
+    std::str::from_utf8(bytes).map_err(|e| {
+        let good = &bytes[..e.valid_up_to()];
+        let start = good.iter().rposition(|&b| b == b'\n').map_or(0, |k| k + 1);
+        let line = 1 + good.iter().filter(|&&b| b == b'\n').count();
+        let column = 1 + good[start..].iter().filter(|&&b| b == b',').count();
+        let chars = String::from_utf8_lossy(&good[start..]).chars().count();
+        ReadingsError {
+            line,
+            column,
+            message: format!(
+                "byte 0x{:02x} (character {} of the line) is not UTF-8: save the file as UTF-8 (or plain ASCII) text",
+                bytes[e.valid_up_to()],
+                chars + 1
+            ),
+        }
+    })
+}
+
+/// `raw` as echoed in a message: at most [`ECHO_CHARS`] characters, `...` marking a cut.
+fn echo(raw: &str) -> String {
+    if raw.chars().count() <= ECHO_CHARS {
+        raw.to_string()
+    } else {
+        let head: String = raw.chars().take(ECHO_CHARS).collect();
+        format!("{head}...")
+    }
+}
 
 /// Reads `text` against the test's pairs: `pairs` are the neighbouring and within-winding
 /// pairs the test lists, on `bars` bars.
@@ -91,7 +138,7 @@ pub fn parse_readings(
             1,
             format!(
                 "the header is `{}`: expected `from_bar,to_bar,reading`",
-                header.iter().collect::<Vec<_>>().join(",").trim()
+                echo(header.iter().collect::<Vec<_>>().join(",").trim())
             ),
         ));
     };
@@ -117,7 +164,7 @@ pub fn parse_readings(
                 Err(_) => Err(err(
                     line,
                     c + 1,
-                    format!("expected a bar number, found \"{}\"", field(c)),
+                    format!("expected a bar number, found \"{}\"", echo(field(c))),
                 )),
             }
         };
@@ -169,18 +216,34 @@ fn record_line(text: &str, p: Option<&csv::Position>) -> usize {
 }
 
 /// A reading cell: `None` when empty (a pair not read), open for `open` or `OL`, else a
-/// number of zero or more; the message when it is none of these.
+/// number: zero (`-0` is zero) or from [`MIN_READING`] to [`MAX_READING`]; the message when it
+/// is none of these.
 fn reading_value(raw: &str) -> Result<Option<ReadingValue>, String> {
     if raw.is_empty() {
-        Ok(None)
-    } else if raw.eq_ignore_ascii_case("open") || raw.eq_ignore_ascii_case("ol") {
-        Ok(Some(ReadingValue::Open))
-    } else {
-        match raw.parse::<f64>() {
-            Ok(v) if v.is_finite() && v >= 0.0 => Ok(Some(ReadingValue::Value(v))),
-            _ => Err(format!(
-                "expected a reading (a number, `open` or `OL`), found \"{raw}\""
-            )),
-        }
+        return Ok(None);
+    }
+    if raw.eq_ignore_ascii_case("open") || raw.eq_ignore_ascii_case("ol") {
+        return Ok(Some(ReadingValue::Open));
+    }
+    let shown = echo(raw);
+    match raw.parse::<f64>() {
+        // `-0` matches too (a float pattern compares with ==), and is written as 0.
+        Ok(0.0) => Ok(Some(ReadingValue::Value(0.0))),
+        Ok(v) if v.is_nan() => Err(format!(
+            "expected a reading (a number, `open` or `OL`), found \"{shown}\""
+        )),
+        Ok(v) if v < 0.0 => Err(format!(
+            "a reading cannot be negative, found \"{shown}\": give the meter's reading without its sign"
+        )),
+        Ok(v) if v > MAX_READING => Err(format!(
+            "\"{shown}\" is above 1e9, beyond any meter a bar-to-bar or drop test uses (a gigaohm in ohms, a thousand kilovolts in millivolts): write `open` for an open circuit"
+        )),
+        Ok(v) if v < MIN_READING => Err(format!(
+            "\"{shown}\" is below 1e-9, finer than any meter resolves: write 0 for a dead short"
+        )),
+        Ok(v) => Ok(Some(ReadingValue::Value(v))),
+        Err(_) => Err(format!(
+            "expected a reading (a number, `open` or `OL`), found \"{shown}\""
+        )),
     }
 }

@@ -7,8 +7,8 @@
 //! insulation and withstand values; it never solves or rates anything. The date boxes are
 //! left empty for the shop: the clock is never read.
 
-use crate::base::number::{fmt_fixed, fmt_sig};
-use crate::features::armature_test::Reading;
+use crate::base::number::fmt_fixed;
+use crate::features::armature_test::{Reading, Unit};
 use crate::layout::font::{Weight, cut_to_width, wrap_text};
 use crate::layout::style::{BODY_TEXT, TEXT_FLOOR};
 use crate::layout::tree::{self, Group, Node, Text};
@@ -26,9 +26,12 @@ const COLUMNS: [(&str, f64); 3] = [("bars", 21.0), ("expected", 20.5), ("measure
 /// Room a cell's text takes of its column, mm: all but the 1.5 mm right margin, and the bars
 /// reach 0.5 mm into the gap before the group.
 const CELL_ROOM: [f64; 2] = [COLUMNS[0].1 - 1.0, COLUMNS[1].1 - 1.5];
-/// Significant digits of an expected reading on the sheet: a shop meter shows about four;
-/// `armsheet test` gives six.
-const SHEET_DIGITS: i32 = 4;
+/// Places of an expected reading on the sheet, in the test's one prefixed unit (mΩ, µΩ, Ω or
+/// coil, [`ArmatureTest::reading_prefix`]): from three to five significant digits, about what
+/// a shop meter shows; `armsheet test` gives four places.
+///
+/// [`ArmatureTest::reading_prefix`]: crate::features::armature_test::ArmatureTest::reading_prefix
+const SHEET_PLACES: usize = 2;
 /// Width of the block column of the first test sheet, mm.
 const PANEL_W: f64 = 100.0;
 /// Heading size of a block, mm.
@@ -105,7 +108,12 @@ pub(super) fn tests_page(
 /// The readings of `page`, column group by column group, each with an empty measured box.
 fn readings_table(input: &Input<'_>, page: &TablePage) -> Group {
     let all: Vec<&Reading> = readings(input).collect();
-    let unit = input.test.unit.key();
+    let prefix = input.test.reading_prefix();
+    let unit = match input.test.unit {
+        Unit::Ohm => format!("{}\u{3a9}", prefix.symbol()),
+        Unit::Coil => "coil".to_string(),
+    };
+    let unit = unit.as_str();
     let neighbours = input.test.readings.len();
     let mut g = Group::id(format!("readings-{}", page.rows.start + 1)).with_class("readings");
     for (gx, rows) in &page.groups {
@@ -141,9 +149,10 @@ fn readings_table(input: &Input<'_>, page: &TablePage) -> Group {
                 row = row.with_class("reading-row within");
             }
             let bars = format!("{}\u{2013}{}", reading.from_bar, reading.to_bar);
-            let expected = reading
-                .expected
-                .map_or_else(|| "open".to_string(), |v| fmt_sig(v, SHEET_DIGITS));
+            let expected = reading.expected.map_or_else(
+                || "open".to_string(),
+                |v| fmt_fixed(prefix.of(v), SHEET_PLACES),
+            );
             let mut cx = *gx;
             for (j, (cell, cls)) in [(bars, "end"), (expected, "end")].iter().enumerate() {
                 let width = COLUMNS[j].1;

@@ -12,8 +12,11 @@
 use armsheet::check;
 use armsheet::checks::Checked;
 use armsheet::design::{WindingType, parse_design};
-use armsheet::features::armature_test::{ArmatureTest, TestOptions, armature_test, expected};
+use armsheet::features::armature_test::{
+    ArmatureTest, TestOptions, armature_test, expected, readings_text,
+};
 use armsheet::features::rewind::{RewindRequest, rewind_rated};
+use armsheet::layout::readings_plot::readings_plot_page;
 use armsheet::layout::{Paper, SheetOptions, Window, sheet_pages};
 use armsheet::render::armature_test::{readings_csv, render_test_text, test_json_string};
 use armsheet::render::csv::{connections_csv, job_csv};
@@ -126,47 +129,76 @@ pub fn drive(text: &str, rng: &mut Rng, parsed: &mut u64, every: Every) -> Reach
 }
 
 /// `armsheet test` on `checked`: the reports of the expected readings `test`, then the
-/// readings CSV filled in from them, some readings spoilt (open, scaled, garbled, a blank
-/// line), read back through the locator under random options, and its reports.
-fn drive_armature_test(checked: &Checked, test: &ArmatureTest, rng: &mut Rng) {
+/// readings CSV filled in from them, some readings spoilt (open, scaled, garbled, beyond any
+/// meter: 2e9, 1e-300, a 300-digit number, `-0`, NaN, inf), written in a dialect drawn at
+/// random (LF, CRLF, a byte-order mark, every field quoted, trailing blank lines, a byte that
+/// is not UTF-8), taken as bytes through `readings_text` as the CLI does, read through the
+/// locator under options the CLI takes, and its reports and plot.
+pub fn drive_armature_test(checked: &Checked, test: &ArmatureTest, rng: &mut Rng) {
     let _ = render_test_text(test, "fuzz");
     let _ = test_json_string(test);
-    let mut filled = String::new();
-    for (i, line) in readings_csv(test).lines().enumerate() {
-        if i == 0 {
-            filled.push_str(line);
+    let _ = page_svg(&readings_plot_page(test, "fuzz"));
+    let mut rows: Vec<[String; 3]> = vec![["from_bar", "to_bar", "reading"].map(String::from)];
+    for line in readings_csv(test).lines().skip(1) {
+        let f: Vec<&str> = line.split(',').collect();
+        let expected = f.get(2).and_then(|v| v.parse::<f64>().ok()).unwrap_or(1.0);
+        let measured = match rng.below(40) {
+            0 => "open".to_string(),
+            1 => format!("{}", expected * *rng.pick(&[0.0, 0.5, 2.0, -1.0, 1e300])),
+            2 => "1.2.3".to_string(),
+            3 => String::new(),
+            4 => rng
+                .pick(&["2e9", "1e-300", "-0", "NaN", "inf", "-inf", "1e999"])
+                .to_string(),
+            5 => "9".repeat(300),
+            _ => format!("{expected}"),
+        };
+        let cell = |k: usize| f.get(k).copied().unwrap_or("").to_string();
+        rows.push([cell(0), cell(1), measured]);
+    }
+    let dialect = rng.below(6);
+    let eol = if dialect == 1 { "\r\n" } else { "\n" };
+    let mut filled: Vec<u8> = Vec::new();
+    if dialect == 2 {
+        filled.extend_from_slice(b"\xef\xbb\xbf");
+    }
+    for row in &rows {
+        let line = if dialect == 3 {
+            row.iter()
+                .map(|c| format!("\"{}\"", c.replace('"', "\"\"")))
+                .collect::<Vec<_>>()
+                .join(",")
         } else {
-            let expected = line
-                .split(',')
-                .nth(2)
-                .and_then(|v| v.parse::<f64>().ok())
-                .unwrap_or(1.0);
-            let measured = match rng.below(40) {
-                0 => "open".to_string(),
-                1 => format!("{}", expected * *rng.pick(&[0.0, 0.5, 2.0, -1.0, 1e300])),
-                2 => "1.2.3".to_string(),
-                3 => String::new(),
-                _ => format!("{expected}"),
-            };
-            filled.push_str(line);
-            filled.push_str(&measured);
-        }
-        filled.push('\n');
+            row.join(",")
+        };
+        filled.extend_from_slice(line.as_bytes());
+        filled.extend_from_slice(eol.as_bytes());
         if rng.below(200) == 0 {
-            filled.push('\n');
+            filled.extend_from_slice(eol.as_bytes());
         }
+    }
+    if dialect == 4 {
+        filled.extend_from_slice(b"\n\r\n\n");
+    }
+    if dialect == 5 && !filled.is_empty() {
+        let at = rng.below(filled.len());
+        filled[at] = *rng.pick(&[0xff, 0xb5, 0xc3, 0x80]);
     }
     // The locator's ranking grows with the bars; the large demo's is left to its benchmark.
     if test.bars > 200 {
         return;
     }
     let options = TestOptions {
-        current_a: *rng.pick(&[0.1, 10.0, 1000.0]),
+        current_a: *rng.pick(&[0.01, 10.0, 1000.0]),
         temperature_c: *rng.pick(&[-50.0, 20.0, 250.0]),
-        tolerance: *rng.pick(&[1e-9, 0.02, 0.5, 10.0]),
+        tolerance: *rng.pick(&[1e-11, 0.02, 0.5, 1.0]),
     };
-    if let Ok(t) = armature_test(&checked.design, &checked.winding, &options, Some(&filled)) {
+    let Ok(text) = readings_text(&filled) else {
+        return;
+    };
+    if let Ok(t) = armature_test(&checked.design, &checked.winding, &options, Some(text)) {
         let _ = render_test_text(&t, "fuzz");
         let _ = test_json_string(&t);
+        let _ = page_svg(&readings_plot_page(&t, "fuzz"));
     }
 }
