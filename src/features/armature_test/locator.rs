@@ -593,52 +593,7 @@ pub fn locate(
         invisible: vec![0usize; FaultKind::ALL.len()],
     };
     if !healthy.all_zero {
-        // Hypotheses on the same nodes with the same resistances read alike (bars an
-        // equalizer ties share a node): each such set is fitted once.
-        let key = |c: &NetCoil| {
-            (
-                net.node(c.from_bar),
-                net.node(c.to_bar),
-                c.resistance.to_bits(),
-            )
-        };
-        let mut coils: BTreeMap<(usize, usize, u64), Vec<NetCoil>> = BTreeMap::new();
-        for c in &net.coils {
-            let (a, b, r) = key(c);
-            coils.entry((a.min(b), a.max(b), r)).or_default().push(*c);
-        }
-        for alike in coils.values() {
-            coil_faults(&problem, alike, &mut ranking);
-        }
-        let c_bars = net.bars;
-        let mut tracks: BTreeMap<(usize, usize), Vec<(u32, u32)>> = BTreeMap::new();
-        let mut crossings: BTreeMap<Vec<(usize, usize, u64)>, Vec<Crossing>> = BTreeMap::new();
-        for j in 1..=c_bars {
-            let k = j % c_bars + 1;
-            bar_faults(&problem, j, &mut ranking);
-            tracks
-                .entry((net.node(j), net.node(k)))
-                .or_default()
-                .push((j, k));
-            if let Some(moves) = crossed_leads(&net.coils, j, k) {
-                let changed = [
-                    moves[0].1,
-                    net.coils[moves[0].0],
-                    moves[1].1,
-                    net.coils[moves[1].0],
-                ];
-                crossings
-                    .entry(changed.iter().map(key).collect())
-                    .or_default()
-                    .push((j, k, moves));
-            }
-        }
-        for alike in tracks.values() {
-            shorted_bars(&problem, alike, &mut ranking);
-        }
-        for alike in crossings.values() {
-            crossed_lead_fault(&problem, alike, &mut ranking);
-        }
+        rank_all(&problem, &mut ranking);
     }
     Location {
         measured: rows,
@@ -656,6 +611,57 @@ pub fn locate(
             .filter(|(_, n)| *n > 0)
             .map(|(k, n)| (*k, n))
             .collect(),
+    }
+}
+
+/// Offers every hypothesis to the ranking.
+fn rank_all(problem: &Problem, ranking: &mut Ranking) {
+    let net = problem.net;
+    // Hypotheses on the same nodes with the same resistances read alike (bars an
+    // equalizer ties share a node): each such set is fitted once.
+    let key = |c: &NetCoil| {
+        (
+            net.node(c.from_bar),
+            net.node(c.to_bar),
+            c.resistance.to_bits(),
+        )
+    };
+    let mut coils: BTreeMap<(usize, usize, u64), Vec<NetCoil>> = BTreeMap::new();
+    for c in &net.coils {
+        let (a, b, r) = key(c);
+        coils.entry((a.min(b), a.max(b), r)).or_default().push(*c);
+    }
+    for alike in coils.values() {
+        coil_faults(problem, alike, ranking);
+    }
+    let c_bars = net.bars;
+    let mut tracks: BTreeMap<(usize, usize), Vec<(u32, u32)>> = BTreeMap::new();
+    let mut crossings: BTreeMap<Vec<(usize, usize, u64)>, Vec<Crossing>> = BTreeMap::new();
+    for j in 1..=c_bars {
+        let k = j % c_bars + 1;
+        bar_faults(problem, j, ranking);
+        tracks
+            .entry((net.node(j), net.node(k)))
+            .or_default()
+            .push((j, k));
+        if let Some(moves) = crossed_leads(&net.coils, j, k) {
+            let changed = [
+                moves[0].1,
+                net.coils[moves[0].0],
+                moves[1].1,
+                net.coils[moves[1].0],
+            ];
+            crossings
+                .entry(changed.iter().map(key).collect())
+                .or_default()
+                .push((j, k, moves));
+        }
+    }
+    for alike in tracks.values() {
+        shorted_bars(problem, alike, ranking);
+    }
+    for alike in crossings.values() {
+        crossed_lead_fault(problem, alike, ranking);
     }
 }
 

@@ -99,13 +99,19 @@ pub fn parse_readings(
         column,
         message,
     };
+    let line_ends: Vec<usize> = text
+        .bytes()
+        .enumerate()
+        .filter(|(_, b)| *b == b'\n')
+        .map(|(i, _)| i)
+        .collect();
     let mut records = csv::ReaderBuilder::new()
         .has_headers(false)
         .flexible(true)
         .from_reader(text.as_bytes())
         .into_records()
         .map(|r| {
-            let line = |p: Option<&csv::Position>| record_line(text, p);
+            let line = |p: Option<&csv::Position>| record_line(text, &line_ends, p);
             match r {
                 Ok(rec) => Ok((line(rec.position()), rec)),
                 Err(e) => Err(err(line(e.position()), 1, format!("not a CSV record: {e}"))),
@@ -204,15 +210,14 @@ pub fn parse_readings(
 
 /// The line a record starts on, from 1, counted from its byte offset: the reader places a
 /// record after a CR at the LF that follows it, a line early.
-fn record_line(text: &str, p: Option<&csv::Position>) -> usize {
+/// `line_ends` are the byte offsets of the text's line feeds, in order (a binary search, so
+/// a file of many thousand readings is not read once a record).
+fn record_line(text: &str, line_ends: &[usize], p: Option<&csv::Position>) -> usize {
     let at = p.map_or(0, |p| p.byte() as usize).min(text.len());
     let start = text[at..]
         .find(|c| c != '\r' && c != '\n')
         .map_or(text.len(), |k| at + k);
-    1 + text.as_bytes()[..start]
-        .iter()
-        .filter(|&&b| b == b'\n')
-        .count()
+    1 + line_ends.partition_point(|&e| e < start)
 }
 
 /// A reading cell: `None` when empty (a pair not read), open for `open` or `OL`, else a
