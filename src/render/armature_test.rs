@@ -341,9 +341,14 @@ fn locator_text(out: &mut String, l: &Location, t: &ArmatureTest) {
 fn fault_text(out: &mut String, rank: usize, f: &Fault) {
     let _ = writeln!(
         out,
-        "  {rank}. {} (misfit {}, lower fits better): {}",
+        "  {rank}. {} (misfit {}, lower fits better; {}): {}",
         f.kind.key(),
         fmt_fixed(f.score, 3),
+        if f.worst.is_finite() {
+            format!("worst reading {} % off", fmt_fixed(100.0 * f.worst, 1))
+        } else {
+            "a reading open where it predicts one closed, or the other way round".to_string()
+        },
         f.explanation
     );
     let _ = writeln!(
@@ -410,6 +415,9 @@ struct FaultJson {
     kind: &'static str,
     score: f64,
     slots: Vec<u32>,
+    /// The worst reading's misfit, %; `null` when a reading is open against the fault's
+    /// prediction or the other way round.
+    worst_pct: Option<f64>,
 }
 
 #[derive(Serialize)]
@@ -434,6 +442,10 @@ fn fault_json(f: &Fault) -> FaultJson {
         kind: f.kind.key(),
         score: round_sig(f.score, DIGITS),
         slots: f.slots.clone(),
+        worst_pct: f
+            .worst
+            .is_finite()
+            .then(|| round_sig(100.0 * f.worst, DIGITS)),
     }
 }
 

@@ -107,7 +107,8 @@ pub struct Fault {
     /// own fitted value, plus 1 for each reading open where the hypothesis says closed or the
     /// other way round. Lower is better; scale-free.
     pub score: f64,
-    /// The largest misfit of one reading, relative to its own fitted value.
+    /// The largest misfit of one reading, relative to its own fitted value; infinite when a
+    /// reading is open where the fault predicts it closed, or the other way round.
     pub worst: f64,
     /// Every reading lies within the tolerance of what this fault predicts.
     pub explains: bool,
@@ -348,7 +349,7 @@ impl Problem<'_> {
         let rms = if n > 0.0 { (sum / n).sqrt() } else { 0.0 };
         Fit {
             score: rms + bad as f64,
-            worst,
+            worst: if bad > 0 { f64::INFINITY } else { worst },
             explains: bad == 0 && worst <= self.tolerance,
             scale,
             predicted,
