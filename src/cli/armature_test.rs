@@ -41,7 +41,8 @@ pub struct TestArgs {
     /// Winding temperature for the coil resistance, °C.
     #[arg(long, default_value_t = DEFAULT_TEMPERATURE_C, value_name = "C", value_parser = temperature, allow_negative_numbers = true)]
     pub temperature: f64,
-    /// Measured readings (CSV: from_bar,to_bar,reading; `open` or `OL` for an open circuit):
+    /// Measured readings (CSV: from_bar,to_bar,reading, or from_bar,to_bar,millivolts for the
+    /// drop test; `open` or `OL` for an open circuit):
     /// compare them with the expected ones and rank the faults that explain them.
     #[arg(long, value_name = "FILE.csv")]
     pub readings: Option<PathBuf>,
@@ -106,10 +107,11 @@ pair of neighbouring bars, the bars m apart within one winding for multiplex win
 the millivolts of the drop test. With [conductor] and a mean turn the readings are in ohms
 (IEC 60028 copper at --temperature); without, in units of one coil's resistance.
 readings.csv has an empty `measured` column for the shop to fill in; give it back with
---readings (header from_bar,to_bar,reading, or the CSV's own measured column; `open` or `OL`
+--readings (header from_bar,to_bar,reading, or the CSV's own measured column, or
+from_bar,to_bar,millivolts for the drop test at the feed bars and current listed; `open` or `OL`
 for an open circuit; any consistent unit) and the locator ranks the single faults that
-explain the readings (open coil, shorted coil, high-resistance joint, shorted bars, crossed
-leads). readings.svg plots the readings round the commutator.
+explain the readings (open coil, shorted coil, high-resistance joint of one lead, riser
+joint at a bar, bar cut off, shorted bars, crossed leads). readings.svg plots the readings round the commutator.
 With --readings the exit is 1 when the readings are not healthy (outside --tolerance of the
 healthy pattern), so a shop script can tell; 0 when they are healthy and the design's checks
 pass; 2 for a readings file or an option that cannot be taken (located, nothing written).

@@ -222,7 +222,7 @@ impl fmt::Display for CliError {
             ),
             CliError::Readings { path, error } => writeln!(
                 f,
-                "error: {}:{}:{}: {}\n  = hint: the header is `from_bar,to_bar,reading`; a reading is a number, `open` or `OL`",
+                "error: {}:{}:{}: {}\n  = hint: the header is `from_bar,to_bar,reading` (or `millivolts` for the drop test); a reading is a number, `open` or `OL`",
                 shown(path),
                 error.line,
                 error.column,

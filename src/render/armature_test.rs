@@ -12,7 +12,8 @@ use super::csv::{Cell, csv_file};
 use crate::base::caution::TEST_CAUTIONS;
 use crate::base::number::{Prefix, decimals_for, fmt_fixed, fmt_prefixed, fmt_sig, round_sig};
 use crate::features::armature_test::{
-    ArmatureTest, DropFeed, ElementsPattern, Fault, Location, Pattern, Reading, ReadingValue, Unit,
+    ArmatureTest, DropFeed, ElementsPattern, Fault, Location, Pattern, Reading, ReadingKind,
+    ReadingValue, Unit,
 };
 use crate::theory::words::{READING_DIGITS, multiplicity_word, reading_unit_words};
 
@@ -257,6 +258,13 @@ fn list(v: &[u32]) -> String {
 /// scale of 10^6); otherwise the file's own unit, with what one ohm (or one coil) reads in it.
 pub fn measured_unit_words(t: &ArmatureTest, l: &Location) -> String {
     let s = l.healthy_scale;
+    if l.kind == ReadingKind::Drop {
+        return format!(
+            "millivolts of the drop test, {} A fed at the feed bars listed below (the fitted scale: the readings are {} of the expected)",
+            fmt_sig(t.drop_test.current_a, 4),
+            fmt_sig(s, 4)
+        );
+    }
     if t.unit == Unit::Ohm {
         if let Some(p) = Prefix::of_scale(s) {
             return format!(

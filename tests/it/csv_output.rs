@@ -90,7 +90,7 @@ fn the_readings_file_is_rfc_4180_and_reads_back_in_any_common_form() {
     let filled = written
         .replace(",\r\n", ",1.5\r\n")
         .replacen(",1.5\r\n", ",\r\n", 1);
-    let back = parse_readings(&filled, bars, &pairs).unwrap();
+    let back = parse_readings(&filled, bars, &pairs, &[]).unwrap();
     assert_eq!(
         back.values.len(),
         pairs.len() - 1,
@@ -101,9 +101,9 @@ fn the_readings_file_is_rfc_4180_and_reads_back_in_any_common_form() {
         "\u{feff}{}\n\n",
         filled.replace("\r\n", "\n").replace("1,2,", "\"1\",\"2\",")
     );
-    assert_eq!(parse_readings(&lf, bars, &pairs).unwrap(), back);
+    assert_eq!(parse_readings(&lf, bars, &pairs, &[]).unwrap(), back);
     let quoted = "from_bar,to_bar,reading\n\"1\",2,\"open\"\n2,3,\" 1.5 \"\n3,4,OL\n";
-    let r = parse_readings(quoted, bars, &pairs).unwrap();
+    let r = parse_readings(quoted, bars, &pairs, &[]).unwrap();
     assert_eq!(r.values[&(1, 2)], ReadingValue::Open);
     assert_eq!(r.values[&(2, 3)], ReadingValue::Value(1.5));
     // Errors stay located: line and column of the field, a quoted line break counted.
@@ -111,6 +111,7 @@ fn the_readings_file_is_rfc_4180_and_reads_back_in_any_common_form() {
         "from_bar,to_bar,reading\r\n\"1\",2,\"a\nb\"\r\n",
         bars,
         &pairs,
+        &[],
     )
     .unwrap_err();
     assert_eq!((e.line, e.column), (2, 3), "{e:?}");
@@ -118,6 +119,7 @@ fn the_readings_file_is_rfc_4180_and_reads_back_in_any_common_form() {
         "\u{feff}from_bar,to_bar,reading\r\n1,2,1\r\n\"x\ny\",3,1\r\n2,99,1\r\n",
         bars,
         &pairs,
+        &[],
     )
     .unwrap_err();
     assert_eq!((e.line, e.column), (3, 1), "{e:?}");

@@ -26,8 +26,8 @@ use faer::Mat;
 use faer::linalg::solvers::Solve;
 
 use super::network::{NetCoil, Network};
-use super::readings::{MeasuredReadings, ReadingValue};
-use super::{ArmatureTest, Reading};
+use super::readings::{MeasuredReadings, ReadingKind, ReadingValue};
+use super::{ArmatureTest, Reading, Unit};
 
 /// Default healthy tolerance: each reading within 5 % of the healthy pattern, scaled to the
 /// readings [common practice for bar-to-bar readings, from memory].
@@ -130,6 +130,8 @@ pub struct Location {
     pub measured: Vec<(Reading, ReadingValue)>,
     /// Pairs the test lists that the file leaves out.
     pub missing: usize,
+    /// Bar-to-bar resistances or drop-test millivolts.
+    pub kind: ReadingKind,
     /// Every reading within tolerance of the healthy pattern.
     pub healthy: bool,
     /// Every reading is zero where the winding reads a resistance: a shorted commutator or
@@ -269,6 +271,14 @@ struct Problem<'a> {
     by_bar: Vec<Vec<usize>>,
     groups: Vec<Group>,
     pairs: Vec<(usize, usize)>,
+    /// Where each group's test current goes in and out: its own two nodes for a bar-to-bar
+    /// reading, the feed's for a drop-test reading.
+    sources: Vec<(usize, usize)>,
+    /// The sign of each group's reading as solved, t(pair, source) (a meter shows its size).
+    signs: Vec<f64>,
+    /// Drop-test millivolts: the meter draws no current, so only faults in the feed current's
+    /// way are tried.
+    drop: bool,
     base: Vec<Option<f64>>,
     /// The least reference a reading is judged against: a hundredth of the mean healthy
     /// reading (bars an equalizer ties read zero).
@@ -402,20 +412,34 @@ impl Problem<'_> {
         self.fit_ratio_with(&model, &[], lo, hi)
     }
 
-    /// The healthy readings changed by τ·w² (a rank-one change), never below zero.
-    fn rank_one(&self, w: &[f64], tau: f64) -> Vec<Option<f64>> {
-        self.base
-            .iter()
-            .zip(w)
-            .map(|(r, w)| r.map(|r| (r - tau * w * w).max(0.0)))
+    /// How each group's reading moves with a rank-one change along the branch between nodes
+    /// `e`: t'(pair, source) = t(pair, source) − τ·t(pair, e)·t(source, e), signed as the
+    /// reading is (w² for a bar-to-bar reading, whose source is its own pair).
+    fn coupling(&self, w: &[f64], e: (usize, usize)) -> Vec<f64> {
+        if !self.drop {
+            return w.iter().map(|w| w * w).collect();
+        }
+        w.iter()
+            .zip(&self.sources)
+            .zip(&self.signs)
+            .map(|((w, &f), s)| s * w * self.z.t(f, e))
             .collect()
     }
 
-    /// Fits τ in [lo, hi] for the rank-one change along `w`; returns τ and its fit.
-    fn fit_rank_one(&self, w: &[f64], lo: f64, hi: f64) -> (f64, Fit) {
-        let c: Vec<f64> = w.iter().map(|w| -w * w).collect();
+    /// The healthy readings changed by τ·wv (a rank-one change); a meter shows the size.
+    fn rank_one(&self, wv: &[f64], tau: f64) -> Vec<Option<f64>> {
+        self.base
+            .iter()
+            .zip(wv)
+            .map(|(r, wv)| r.map(|r| (r - tau * wv).abs()))
+            .collect()
+    }
+
+    /// Fits τ in [lo, hi] for the rank-one change of coupling `wv`; returns τ and its fit.
+    fn fit_rank_one(&self, wv: &[f64], lo: f64, hi: f64) -> (f64, Fit) {
+        let c: Vec<f64> = wv.iter().map(|wv| -wv).collect();
         let tau = self.fit_ratio(&self.base, &c, lo, hi);
-        (tau, self.judge(self.rank_one(w, tau)))
+        (tau, self.judge(self.rank_one(wv, tau)))
     }
 
     /// The largest relative change a prediction makes to the healthy readings (infinite
@@ -522,34 +546,119 @@ pub fn locate(
     tolerance: f64,
 ) -> Location {
     let net: &Network = &t.network;
-    let scale0 = t.coil_resistance_ohm.unwrap_or(1.0);
-    let listed = t
-        .readings
-        .iter()
-        .chain(t.readings_within_winding.iter().flatten());
+    let drop = measured.kind == ReadingKind::Drop;
+    // One coil resistance in the test's unit: ohms (or coils) bar to bar; millivolts (or
+    // coil resistances × amperes) per coil resistance of transfer in the drop test.
+    let coil = t.coil_resistance_ohm.unwrap_or(1.0);
+    let unit0 = if !drop {
+        coil
+    } else if t.unit == Unit::Ohm {
+        coil * t.drop_test.current_a * 1000.0
+    } else {
+        t.drop_test.current_a
+    };
+    // Each listed pair with where its test current goes in and out.
+    let listed: Vec<(Reading, (u32, u32))> = if drop {
+        t.drop_test
+            .feeds
+            .iter()
+            .flat_map(|f| f.readings.iter().map(|r| (*r, (f.from_bar, f.to_bar))))
+            .collect()
+    } else {
+        t.readings
+            .iter()
+            .chain(t.readings_within_winding.iter().flatten())
+            .map(|r| (*r, (r.from_bar, r.to_bar)))
+            .collect()
+    };
     let mut rows: Vec<(Reading, ReadingValue)> = Vec::new();
+    let mut sources = Vec::new();
     let mut missing = 0;
-    for r in listed {
+    for (r, source) in listed {
         match measured.values.get(&(r.from_bar, r.to_bar)) {
-            Some(v) => rows.push((*r, *v)),
+            Some(v) => {
+                rows.push((r, *v));
+                sources.push(source);
+            }
             None => missing += 1,
         }
     }
     let zv = net.inverse();
-    // Group the readings by their two nodes (the lower first).
+    let problem = problem(net, &zv, &rows, &sources, unit0, drop, tolerance);
+    let healthy = healthy_pattern(&problem, &rows, tolerance);
+    let healthy_score = problem.judge(problem.base.clone()).score;
+    let mut ranking = Ranking {
+        slots,
+        faults: Vec::new(),
+        invisible: vec![0usize; FaultKind::ALL.len()],
+    };
+    if !healthy.all_zero {
+        rank_all(&problem, &mut ranking);
+    }
+    Location {
+        measured: rows,
+        missing,
+        kind: measured.kind,
+        healthy: healthy.suspect_bars.is_empty(),
+        all_zero: healthy.all_zero,
+        tolerance,
+        healthy_scale: healthy.scale / unit0,
+        suspect_bars: healthy.suspect_bars,
+        healthy_score,
+        faults: ranking.faults,
+        invisible: FaultKind::ALL
+            .iter()
+            .zip(ranking.invisible)
+            .filter(|(_, n)| *n > 0)
+            .map(|(k, n)| (*k, n))
+            .collect(),
+    }
+}
+
+/// The readings grouped by their two nodes and their test current's (a bar-to-bar reading's
+/// pair with the lower node first, as its own source), in units of one coil resistance.
+fn problem<'a>(
+    net: &'a Network,
+    zv: &'a [f64],
+    rows: &[(Reading, ReadingValue)],
+    sources: &[(u32, u32)],
+    unit0: f64,
+    drop: bool,
+    tolerance: f64,
+) -> Problem<'a> {
+    let z = Transfer {
+        z: zv,
+        n: net.nodes(),
+    };
     let mut index = BTreeMap::new();
-    let (mut groups, mut pairs, mut base, mut group_of) =
-        (Vec::new(), Vec::new(), Vec::new(), Vec::new());
-    for (q, (r, v)) in rows.iter().enumerate() {
+    let (mut groups, mut pairs, mut feeds, mut signs, mut base, mut group_of) = (
+        Vec::new(),
+        Vec::new(),
+        Vec::new(),
+        Vec::new(),
+        Vec::new(),
+        Vec::new(),
+    );
+    for (q, ((r, v), &(fa, fb))) in rows.iter().zip(sources).enumerate() {
         let (a, b) = (net.node(r.from_bar), net.node(r.to_bar));
-        let key = (a.min(b), a.max(b));
-        let g = *index.entry(key).or_insert_with(|| {
+        let (pair, source) = if drop {
+            ((a, b), (net.node(fa), net.node(fb)))
+        } else {
+            ((a.min(b), a.max(b)), (a.min(b), a.max(b)))
+        };
+        let g = *index.entry((pair, source)).or_insert_with(|| {
             groups.push(Group {
                 stats: Stats::default(),
                 members: Vec::new(),
             });
-            pairs.push(key);
-            base.push(r.expected.map(|e| e / scale0));
+            pairs.push(pair);
+            feeds.push(source);
+            signs.push(if drop && z.t(pair, source) < 0.0 {
+                -1.0
+            } else {
+                1.0
+            });
+            base.push(r.expected.map(|e| e / unit0));
             groups.len() - 1
         });
         groups[g].stats.add(*v);
@@ -570,48 +679,21 @@ pub fn locate(
         .filter(|&b| b > 0.0)
         .collect();
     let mean = positive.iter().sum::<f64>() / positive.len().max(1) as f64;
-    let problem = Problem {
+    Problem {
         net,
-        z: Transfer {
-            z: &zv,
-            n: net.nodes(),
-        },
+        z,
         meas: rows.iter().map(|(_, v)| *v).collect(),
         bars: rows.iter().map(|(r, _)| (r.from_bar, r.to_bar)).collect(),
         by_bar,
         group_of,
         groups,
         pairs,
+        sources: feeds,
+        signs,
+        drop,
         base,
         floor: (0.01 * mean).max(1e-12),
         tolerance,
-    };
-    let healthy = healthy_pattern(&problem, &rows, tolerance);
-    let healthy_score = problem.judge(problem.base.clone()).score;
-    let mut ranking = Ranking {
-        slots,
-        faults: Vec::new(),
-        invisible: vec![0usize; FaultKind::ALL.len()],
-    };
-    if !healthy.all_zero {
-        rank_all(&problem, &mut ranking);
-    }
-    Location {
-        measured: rows,
-        missing,
-        healthy: healthy.suspect_bars.is_empty(),
-        all_zero: healthy.all_zero,
-        tolerance,
-        healthy_scale: healthy.scale / scale0,
-        suspect_bars: healthy.suspect_bars,
-        healthy_score,
-        faults: ranking.faults,
-        invisible: FaultKind::ALL
-            .iter()
-            .zip(ranking.invisible)
-            .filter(|(_, n)| *n > 0)
-            .map(|(k, n)| (*k, n))
-            .collect(),
     }
 }
 
@@ -730,28 +812,35 @@ fn coil_faults(pr: &Problem, alike: &[NetCoil], out: &mut Ranking) {
     let (r, g) = (c.resistance, 1.0 / c.resistance);
     let d = pr.z.t(e, e);
     let w = pr.transfer_to(e);
-    let visible = seen(&w);
+    let wv = pr.coupling(&w, e);
+    let visible = seen(&wv);
     // Open coil: Δg = −g.
-    let open = if 1.0 - g * d < 1e-9 {
+    let bridge = 1.0 - g * d < 1e-9;
+    let open = if !bridge {
+        Some(pr.judge(pr.rank_one(&wv, -g / (1.0 - g * d))))
+    } else if !pr.drop {
         // The coil is a bridge: every reading through it opens.
-        pr.judge(
-            pr.base
-                .iter()
-                .zip(&w)
-                .map(|(r, w)| if w.abs() > 1e-9 { None } else { *r })
-                .collect(),
+        Some(
+            pr.judge(
+                pr.base
+                    .iter()
+                    .zip(&w)
+                    .map(|(r, w)| if w.abs() > 1e-9 { None } else { *r })
+                    .collect(),
+            ),
         )
     } else {
-        pr.judge(pr.rank_one(&w, -g / (1.0 - g * d)))
+        // A bridge open stops the feed current: no drop test reads it.
+        None
     };
     // Shorted coil: fraction f in (0, 1], Δg = g·f/(1 − f), τ in [0, 1/d].
-    let (tau, shorted) = pr.fit_rank_one(&w, 0.0, 1.0 / d);
+    let (tau, shorted) = pr.fit_rank_one(&wv, 0.0, 1.0 / d);
     let dg = tau / (1.0 - tau * d).max(1e-300);
     let f = (dg / (g + dg)).clamp(0.0, 1.0);
     // High-resistance joint: extra x in [0, JOINT_MAX_COILS], Δg = 1/(r + x) − g.
     let dg_min = 1.0 / (r + JOINT_MAX_COILS) - g;
     let lo = dg_min / (1.0 + dg_min * d);
-    let (tau, joint) = pr.fit_rank_one(&w, lo, 0.0);
+    let (tau, joint) = pr.fit_rank_one(&wv, lo, 0.0);
     let dg = tau / (1.0 - tau * d);
     let x = (1.0 / (g + dg) - r).max(0.0);
     for c in alike {
@@ -766,12 +855,14 @@ fn coil_faults(pr: &Problem, alike: &[NetCoil], out: &mut Ranking) {
             "coil {} open (broken or unsoldered) between bars {} and {}",
             c.coil, c.from_bar, c.to_bar
         );
-        out.push(
-            pr,
-            hypothesis(FaultKind::OpenCoil, None, words),
-            open.clone(),
-            visible,
-        );
+        if let Some(open) = &open {
+            out.push(
+                pr,
+                hypothesis(FaultKind::OpenCoil, None, words),
+                open.clone(),
+                visible,
+            );
+        }
         let words = format!(
             "coil {} shorted, about {:.0} % of it (fitted)",
             c.coil,
@@ -800,6 +891,11 @@ fn coil_faults(pr: &Problem, alike: &[NetCoil], out: &mut Ranking) {
 /// each reading that probes bar j, as many times as the reading's ends lie on it), and the
 /// bar cut off the winding (every reading that probes it open).
 fn bar_faults(pr: &Problem, j: u32, out: &mut Ranking) {
+    if pr.drop {
+        // The meter draws no current: a riser joint shows only where the feed goes in, and a
+        // bar cut off floats; the bar-to-bar test finds them.
+        return;
+    }
     let touch: Vec<(usize, f64)> = pr.by_bar[j as usize - 1]
         .iter()
         .map(|&q| {
@@ -862,10 +958,14 @@ fn shorted_bars(pr: &Problem, alike: &[(u32, u32)], out: &mut Ranking) {
     let (visible, fit, track, across) = if pr.net.connected(j, k) {
         let d = pr.z.t(e, e);
         let w = pr.transfer_to(e);
-        let (tau, fit) = pr.fit_rank_one(&w, 0.0, 1.0 / d);
+        let wv = pr.coupling(&w, e);
+        let (tau, fit) = pr.fit_rank_one(&wv, 0.0, 1.0 / d);
         let dg = tau / (1.0 - tau * d).max(1e-300);
         let track = if dg > 0.0 { 1.0 / dg } else { f64::INFINITY };
-        (seen(&w), fit, track, "")
+        (seen(&wv), fit, track, "")
+    } else if pr.drop {
+        // Each winding is fed on its own: a single track to another carries no current.
+        return;
     } else {
         let net = pr.net;
         let (mut a, mut c) = (pr.base.clone(), vec![0.0; pr.base.len()]);
@@ -942,6 +1042,9 @@ fn crossed_lead_fault(pr: &Problem, alike: &[Crossing], out: &mut Ranking) {
         }
     };
     if !net.connected(j, k) {
+        if pr.drop {
+            return;
+        }
         // The exchange joins two windings of a multiplex winding: one coil leaves each, and
         // the two moved coils run between them.
         let Some(predicted) = joined(pr, &[o1, o2], &[c1, c2]) else {
@@ -970,20 +1073,24 @@ fn crossed_lead_fault(pr: &Problem, alike: &[Crossing], out: &mut Ranking) {
     if !(0..4).all(|a| (0..4).all(|b| inv[(a, b)].abs() < 1e12)) {
         return;
     }
+    // t'(pair, source) = t(pair, source) − Σ t(pair, u_a)·M⁻¹_ab·t(source, u_b), signed as the
+    // reading is.
     let predicted: Vec<Option<f64>> = pr
         .pairs
         .iter()
-        .zip(&pr.base)
-        .map(|(&q, r)| {
+        .zip(&pr.sources)
+        .zip(pr.base.iter().zip(&pr.signs))
+        .map(|((&q, &f), (r, sign))| {
             r.map(|r| {
                 let wq: Vec<f64> = u.iter().map(|&x| pr.z.t(q, x)).collect();
+                let wf: Vec<f64> = u.iter().map(|&x| pr.z.t(f, x)).collect();
                 let mut quad = 0.0;
                 for a in 0..4 {
                     for b in 0..4 {
-                        quad += wq[a] * inv[(a, b)] * wq[b];
+                        quad += wq[a] * inv[(a, b)] * wf[b];
                     }
                 }
-                (r - quad).max(0.0)
+                (r - sign * quad).abs()
             })
         })
         .collect();

@@ -12,7 +12,9 @@ pub mod readings;
 
 pub use locator::{Fault, FaultKind, Location};
 pub use network::{NetCoil, Network};
-pub use readings::{MeasuredReadings, ReadingValue, ReadingsError, parse_readings, readings_text};
+pub use readings::{
+    MeasuredReadings, ReadingKind, ReadingValue, ReadingsError, parse_readings, readings_text,
+};
 
 use crate::base::number::Prefix;
 use crate::design::Design;
@@ -286,7 +288,13 @@ pub fn armature_test(
             .chain(t.readings_within_winding.iter().flatten())
             .map(|r| (r.from_bar, r.to_bar))
             .collect();
-        let measured = parse_readings(text, t.bars, &pairs)?;
+        let drop_pairs: Vec<(u32, u32)> = t
+            .drop_test
+            .feeds
+            .iter()
+            .flat_map(|f| f.readings.iter().map(|r| (r.from_bar, r.to_bar)))
+            .collect();
+        let measured = parse_readings(text, t.bars, &pairs, &drop_pairs)?;
         let slots: Vec<(u32, u32)> = winding
             .connections
             .iter()

@@ -1,4 +1,5 @@
-//! The shop's measured readings: a CSV with the header `from_bar,to_bar,reading`.
+//! The shop's measured readings: a CSV with the header `from_bar,to_bar,reading` (bar to bar),
+//! or `from_bar,to_bar,millivolts` (the drop test, at the design's feed bars).
 //!
 //! Part of the `features` stage (under [`super`]): the file's text in (the CLI reads it), the
 //! readings out, or the first problem with its line and column. Read with the `csv` crate:
@@ -21,11 +22,24 @@ pub enum ReadingValue {
     Open,
 }
 
+/// What the readings are, told by the header's third column.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+pub enum ReadingKind {
+    /// `reading` (or `measured`): bar-to-bar resistances, in any consistent unit.
+    #[default]
+    BarToBar,
+    /// `millivolts` (or `mv`): the drop test's millivolts between the bars each feed reaches,
+    /// at the design's feed bars and the test current.
+    Drop,
+}
+
 /// The readings of one file, keyed by the pair as the test lists it.
 #[derive(Clone, Debug, PartialEq, Default)]
 pub struct MeasuredReadings {
     /// (from_bar, to_bar) → reading.
     pub values: BTreeMap<(u32, u32), ReadingValue>,
+    /// Bar-to-bar resistances or drop-test millivolts.
+    pub kind: ReadingKind,
 }
 
 /// A problem in the readings file, located.
@@ -88,11 +102,12 @@ fn echo(raw: &str) -> String {
 }
 
 /// Reads `text` against the test's pairs: `pairs` are the neighbouring and within-winding
-/// pairs the test lists, on `bars` bars.
+/// pairs the test lists, `drop_pairs` the pairs the drop test's feeds reach, on `bars` bars.
 pub fn parse_readings(
     text: &str,
     bars: u32,
     pairs: &[(u32, u32)],
+    drop_pairs: &[(u32, u32)],
 ) -> Result<MeasuredReadings, ReadingsError> {
     let err = |line: usize, column: usize, message: String| ReadingsError {
         line,
@@ -129,30 +144,25 @@ pub fn parse_readings(
         ));
     };
     let (h, header) = first?;
-    let names: Vec<String> = header
-        .iter()
-        .map(|s| s.trim().to_ascii_lowercase())
-        .collect();
-    let col = |n: &str| names.iter().position(|x| x == n);
-    let (Some(cf), Some(ct), Some(cr)) = (
-        col("from_bar"),
-        col("to_bar"),
-        col("reading").or_else(|| col("measured")),
-    ) else {
-        return Err(err(
-            h,
-            1,
-            format!(
-                "the header is `{}`: expected `from_bar,to_bar,reading`",
-                echo(header.iter().collect::<Vec<_>>().join(",").trim())
-            ),
-        ));
+    let (cf, ct, cr, kind) = columns(&header).map_err(|m| err(h, 1, m))?;
+    let (pairs, what) = match kind {
+        ReadingKind::BarToBar => (
+            pairs,
+            "a pair the test reads (neighbouring bars, or bars m apart within one winding)",
+        ),
+        ReadingKind::Drop => (
+            drop_pairs,
+            "a pair the drop test reads (the neighbouring pairs a feed reaches, as `armsheet test` lists them)",
+        ),
     };
     let known: BTreeMap<(u32, u32), (u32, u32)> = pairs
         .iter()
         .flat_map(|&(a, b)| [((a, b), (a, b)), ((b, a), (a, b))])
         .collect();
-    let mut out = MeasuredReadings::default();
+    let mut out = MeasuredReadings {
+        kind,
+        ..MeasuredReadings::default()
+    };
     let mut last = h;
     for record in records {
         let (line, record) = record?;
@@ -179,9 +189,7 @@ pub fn parse_readings(
             return Err(err(
                 line,
                 cf + 1,
-                format!(
-                    "bars {a} and {b} are not a pair the test reads (neighbouring bars, or bars m apart within one winding)"
-                ),
+                format!("bars {a} and {b} are not {what}"),
             ));
         };
         let Some(value) = reading_value(field(cr)).map_err(|m| err(line, cr + 1, m))? else {
@@ -206,6 +214,31 @@ pub fn parse_readings(
         ));
     }
     Ok(out)
+}
+
+/// The columns of the header: from bar, to bar and the reading, and what the readings are;
+/// the message when the header names none of them.
+fn columns(header: &csv::StringRecord) -> Result<(usize, usize, usize, ReadingKind), String> {
+    let names: Vec<String> = header
+        .iter()
+        .map(|s| s.trim().to_ascii_lowercase())
+        .collect();
+    let col = |n: &str| names.iter().position(|x| x == n);
+    let reading = col("reading")
+        .or_else(|| col("measured"))
+        .map(|c| (c, ReadingKind::BarToBar))
+        .or_else(|| {
+            col("millivolts")
+                .or_else(|| col("mv"))
+                .map(|c| (c, ReadingKind::Drop))
+        });
+    match (col("from_bar"), col("to_bar"), reading) {
+        (Some(cf), Some(ct), Some((cr, kind))) => Ok((cf, ct, cr, kind)),
+        _ => Err(format!(
+            "the header is `{}`: expected `from_bar,to_bar,reading` (bar to bar, any unit) or `from_bar,to_bar,millivolts` (the drop test)",
+            echo(header.iter().collect::<Vec<_>>().join(",").trim())
+        )),
+    }
 }
 
 /// The line a record starts on, from 1, counted from its byte offset: the reader places a
