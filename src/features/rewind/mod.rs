@@ -878,7 +878,12 @@ impl RewindPlan {
         let mut h = vec![
             format!("armsheet rewind of {old_file}"),
             format!("asked: {command}"),
-            "kept: the core, the slots, the span, the flux per pole and the slot space".to_string(),
+            if o.scheme.segments + o.scheme.dummies == n.scheme.segments + n.scheme.dummies {
+                "kept: the core, the slots and coils per slot, the span, the flux per pole and the slot space"
+            } else {
+                "kept: the core, the slots, the span, the flux per pole and the slot space"
+            }
+            .to_string(),
             format!(
                 "flux per pole {} mWb, {}",
                 fmt_fixed(self.flux_mwb, 4),
