@@ -702,7 +702,7 @@ fn new_conductor(
         .zip(area_new)
         .map(|(i, a)| i / f64::from(conn.paths) / a);
     if let Some(f) = fill_chosen
-        && f > 1.02
+        && f > 1.0 + conductor::SIZE_ABOVE
     {
         notes.push(format!(
                 "the chosen conductor puts {} % more copper in each slot than the original: check that it fits, or take the next size down",
