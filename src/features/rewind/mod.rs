@@ -689,11 +689,11 @@ fn new_conductor(
         _ => None,
     };
     let area_new = shape.as_ref().map(conductor::conductor_area_mm2);
-    // Copper per slot: u coils of T turns each.
-    let u1 = conn.dummies + conn.segments;
+    // Copper in the slots: every coil position (dummy coils too) holds T turns.
+    let n1 = conn.dummies + conn.segments;
     let (t0, turns) = (
         f64::from(d.turns) * f64::from(d.coil_positions()),
-        f64::from(new.turns) * f64::from(u1),
+        f64::from(new.turns) * f64::from(n1),
     );
     let fill = |area: Option<f64>| area.zip(area_old).map(|(an, ao)| turns * an / (t0 * ao));
     let (fill_exact, fill_chosen) = (fill(area_needed), fill(area_new));
@@ -839,7 +839,9 @@ fn new_design(
         .filter(|_| kind.kind().element_count() > 1);
     nd.wave_turns = None;
     nd.segments = Some(c1);
-    if nd.dummy_coils.is_some() && (c1 != c0 || kind.kind().uses_every_coil()) {
+    if nd.dummy_coils.is_some()
+        && (c1 != c0 || u1 != d.coils_per_slot || kind.kind().uses_every_coil())
+    {
         notes.push(format!(
             "dummy coils: the positions the old design names are dropped; {}",
             if kind.kind().uses_every_coil() {
