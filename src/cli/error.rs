@@ -349,6 +349,9 @@ pub fn rewind_message(e: &RewindError) -> String {
         RewindError::SpeedOutOfRange { rpm } => format!(
             "--speed must be a positive number of rpm up to {MAX_SPEED_RPM}, found {rpm}"
         ),
+        RewindError::CoilsPerSlotOutOfRange { coils_per_slot, max } => format!(
+            "--coils-per-slot must be 1 to {max} on this armature's slots, found {coils_per_slot}"
+        ),
         RewindError::ResistanceNotPositive { ohms } => {
             format!("--ra must be a positive resistance in ohms, found {ohms}")
         }

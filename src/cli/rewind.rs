@@ -22,8 +22,12 @@ use super::output::{print_stdout, write_atomic, write_new};
 use crate::base::number::fmt_toml;
 use crate::checks::Checked;
 use crate::design::{WindingType, parse_design};
+use crate::features::rewind::alternatives::alternatives;
 use crate::features::rewind::{self, RewindRequest, design_toml, no_load_test};
-use crate::render::rewind_text::{no_load_header, render_no_load, render_rewind};
+use crate::render::rewind_text::{Offered, Offers, no_load_header, render_no_load, render_rewind};
+
+/// The most alternatives a refused rewind offers.
+const MOST_OFFERED: usize = 3;
 
 /// Help shown after `armsheet rewind --help`.
 pub const REWIND_HELP: &str = "\
@@ -36,7 +40,10 @@ The new file is parsed back before it is written; an existing file is kept unles
 which replaces only a regular file (a symbolic link to one is followed, the link kept):
 never a folder, a device, a FIFO or a link to nothing.
 Without -o the file is written beside the design as NAME-<V>V.toml.
-Exit codes: 0 written, 2 bad input, an impossible request or output that could not be written.";
+When check refuses the new design, nothing is written and up to 3 requests near it whose
+designs check passes are offered, each as its command line (another --type, --multiplicity
+or --coils-per-slot), or none if none does.
+Exit codes: 0 written, 1 check refuses the new design, 2 bad input, an impossible request or output that could not be written.";
 
 /// `--type` takes the kinds' design-file words, from `theory`.
 impl clap::ValueEnum for WindingType {
@@ -49,7 +56,7 @@ impl clap::ValueEnum for WindingType {
 }
 
 /// Arguments of `rewind`.
-#[derive(Debug, Args)]
+#[derive(Clone, Debug, Args)]
 #[command(group(clap::ArgGroup::new("what").required(true).multiple(true).args(["voltage", "from_test"])))]
 pub struct RewindArgs {
     /// The design file (TOML) of the machine as it is.
@@ -66,6 +73,9 @@ pub struct RewindArgs {
     /// New multiplicity, 1 to 6 (default: the design's).
     #[arg(long, value_name = "m")]
     pub multiplicity: Option<u32>,
+    /// New coils per slot, the same slot space shared by more or fewer coils (default: the design's).
+    #[arg(long, value_name = "u")]
+    pub coils_per_slot: Option<u32>,
     /// Measured no-load (open-circuit) voltage and speed of the old machine: back-solves the flux.
     #[arg(long, num_args = 2, value_names = ["V0", "N0"])]
     pub from_test: Option<Vec<f64>>,
@@ -124,6 +134,7 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
         multiplicity: a.multiplicity,
         from_test,
         measured_r20: a.ra,
+        coils_per_slot: a.coils_per_slot,
     };
     let plan = rewind::rewind_rated(d, w, checked.rating.as_ref(), &req).map_err(refuse)?;
     let out = a
@@ -133,11 +144,38 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
     let text = plan.design_file(&name, &asked);
     let new = parse_back(&text, &out, &name)?;
     // One verdict: a design `check` refuses is reported, never written, and the exit is 1.
-    let said = render_rewind(&plan, &name, &asked, &new, env!("CARGO_PKG_VERSION"));
     if new.has_errors() {
+        // Refused: offer the nearest requests whose designs pass, each as its command line.
+        let found = alternatives(d, w, checked.rating.as_ref(), &req, MOST_OFFERED);
+        let offered: Vec<Offered> = found
+            .passing
+            .iter()
+            .map(|alt| Offered {
+                command: asked_line(&RewindArgs {
+                    kind: alt.request.kind,
+                    multiplicity: alt.request.multiplicity,
+                    coils_per_slot: alt.request.coils_per_slot,
+                    ..a.clone()
+                }),
+                alternative: alt,
+            })
+            .collect();
+        let offers = Offers {
+            tried: found.tried,
+            offered,
+        };
+        let said = render_rewind(
+            &plan,
+            &name,
+            &asked,
+            &new,
+            Some(&offers),
+            env!("CARGO_PKG_VERSION"),
+        );
         print_stdout(&said)?;
         return Ok(Outcome::ChecksFail);
     }
+    let said = render_rewind(&plan, &name, &asked, &new, None, env!("CARGO_PKG_VERSION"));
     write_design_file(&out, &text, a.force)?;
     let said = format!("{said}wrote {}\n", super::error::shown(&out));
     // The file is in place: a closed standard output now ends the command quietly.
@@ -192,6 +230,9 @@ fn asked_line(a: &RewindArgs) -> String {
     }
     if let Some(m) = a.multiplicity {
         s.push_str(&format!(" --multiplicity {m}"));
+    }
+    if let Some(u) = a.coils_per_slot {
+        s.push_str(&format!(" --coils-per-slot {u}"));
     }
     if let Some(t) = &a.from_test {
         s.push_str(&format!(

@@ -189,20 +189,45 @@ pub fn nearest_sizes(wanted_mm2: f64, max_strands: u32) -> Vec<WireOption> {
     out
 }
 
-/// Picks the option to wind within `family`: the option with the `preferred` strand count (the
-/// old winding's) when its area is within 3 % of the wanted area; else the fewest strands within
-/// 3 %; else the option with the smallest error (fewest strands on a tie).
+/// How far below the wanted area a size may be and still be wound: 3 %.
+pub const SIZE_BELOW: f64 = 0.03;
+/// How far above the wanted area a size may be and still fit the slot the old copper filled: 2 %.
+pub const SIZE_ABOVE: f64 = 0.02;
+
+/// The wire the old winding used: its bare diameter, mm, and strands in hand.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct OldWire {
+    /// Bare diameter, mm.
+    pub diameter_mm: f64,
+    /// Strands in hand.
+    pub strands: u32,
+}
+
+/// Picks the option to wind within `family`. Among the sizes within tolerance (at most
+/// [`SIZE_BELOW`] under the wanted area, at most [`SIZE_ABOVE`] over it, so it fits the slot
+/// space the old copper filled), in order of preference: the old wire's diameter (the wire on
+/// the shelf), fewest strands; one strand; the old strand count; the fewest strands. When no
+/// size is within tolerance, the option with the smallest error (fewest strands on a tie).
 pub fn choose_size(
     options: &[WireOption],
     family: WireFamily,
-    preferred: u32,
+    old: Option<OldWire>,
 ) -> Option<&WireOption> {
     let fam: Vec<&WireOption> = options.iter().filter(|o| o.family == family).collect();
-    let near = |o: &&WireOption| o.error.abs() <= 0.03;
-    fam.iter()
+    let fits: Vec<&WireOption> = fam
+        .iter()
         .copied()
-        .find(|o| o.strands == preferred && near(o))
-        .or_else(|| fam.iter().copied().find(near))
+        .filter(|o| o.error >= -SIZE_BELOW && o.error <= SIZE_ABOVE)
+        .collect();
+    let same_wire =
+        |o: &&WireOption| old.is_some_and(|w| (o.diameter_mm - w.diameter_mm).abs() < 1e-9);
+    let old_strands = |o: &&WireOption| old.is_some_and(|w| o.strands == w.strands);
+    fits.iter()
+        .copied()
+        .find(same_wire)
+        .or_else(|| fits.iter().copied().find(|o| o.strands == 1))
+        .or_else(|| fits.iter().copied().find(old_strands))
+        .or_else(|| fits.first().copied())
         .or_else(|| {
             fam.iter()
                 .copied()
@@ -310,6 +335,9 @@ mod tests {
         assert_eq!(m1.diameter_mm, 1.25);
         let a = nearest_sizes(round_area_mm2(awg_diameter_mm(18)), 1);
         assert_eq!(a[0].awg, Some(18));
-        assert_eq!(choose_size(&o, WireFamily::Metric, 1).unwrap().strands, 1);
+        assert_eq!(
+            choose_size(&o, WireFamily::Metric, None).unwrap().strands,
+            1
+        );
     }
 }

@@ -10,6 +10,7 @@ use crate::base::caution::CAUTIONS;
 use crate::base::number::{fmt_fixed, fmt_signed};
 use crate::base::visible::visible;
 use crate::checks::Checked;
+use crate::features::rewind::alternatives::{Alternative, Change};
 use crate::features::rewind::{NoLoadTest, RewindPlan};
 use crate::rating::RatingReport;
 use crate::rating::conductor::{self, WireFamily};
@@ -22,13 +23,31 @@ fn row(s: &mut String, label: &str, value: impl std::fmt::Display) {
     let _ = writeln!(s, "  {label:<22}{value}");
 }
 
-/// Renders the rewind report; `new_rating` is the new design rated, `version` the armsheet
-/// version for the first line (the CLI passes its package version).
+/// An alternative offered with the command line that gives it (the CLI words it).
+pub struct Offered<'a> {
+    /// The command line.
+    pub command: String,
+    /// The worked-out alternative.
+    pub alternative: &'a Alternative,
+}
+
+/// What a refused rewind offers: the alternatives that pass, and how many were tried.
+pub struct Offers<'a> {
+    /// Requests worked out and checked.
+    pub tried: usize,
+    /// Nearest first.
+    pub offered: Vec<Offered<'a>>,
+}
+
+/// Renders the rewind report; `new` is the new design checked, `offers` what a refused one
+/// offers instead, `version` the armsheet version for the first line (the CLI passes its
+/// package version).
 pub fn render_rewind(
     p: &RewindPlan,
     file: &str,
     asked: &str,
     new: &Checked,
+    offers: Option<&Offers>,
     version: &str,
 ) -> String {
     let mut s = String::new();
@@ -40,6 +59,9 @@ pub fn render_rewind(
     plan_notes(&mut s, p);
     new_design_verdict(&mut s, new);
     new_rating_checks(&mut s, new.rating.as_ref());
+    if let Some(o) = offers {
+        offered(&mut s, o, p);
+    }
     caution(&mut s);
     s
 }
@@ -71,6 +93,59 @@ fn new_design_verdict(s: &mut String, new: &Checked) {
         );
     } else {
         let _ = writeln!(s, "  check passes the new design");
+    }
+}
+
+/// The alternatives that pass `check`, nearest first, each with its command line; or that
+/// none of those tried does.
+fn offered(s: &mut String, o: &Offers, p: &RewindPlan) {
+    section(s, "ALTERNATIVES THAT PASS CHECK");
+    if o.offered.is_empty() {
+        let _ = writeln!(
+            s,
+            "  none: of {} requests tried at {} (another connection, multiplicity or coils per slot), check passes none; try another voltage or speed",
+            o.tried,
+            volts(p.new.voltage)
+        );
+        return;
+    }
+    let _ = writeln!(
+        s,
+        "  nearest first (fewest changes, then the commutator kept, then the speed error); {} of {} tried shown:",
+        o.offered.len(),
+        o.tried
+    );
+    for (i, off) in o.offered.iter().enumerate() {
+        let a = &off.alternative.plan;
+        let n = &a.new;
+        let changes: Vec<String> = off
+            .alternative
+            .changes
+            .iter()
+            .map(|c| match c {
+                Change::Kind(k) => format!("{} winding", k.as_str()),
+                Change::Multiplicity(m) => format!("multiplicity {m}"),
+                Change::CoilsPerSlot(1) => "1 coil per slot".to_string(),
+                Change::CoilsPerSlot(u) => format!("{u} coils per slot"),
+            })
+            .collect();
+        let wire = n
+            .conductor
+            .as_ref()
+            .map_or(String::new(), |c| format!(", {}", conductor::describe(c)));
+        let _ = writeln!(
+            s,
+            "  {}. {}: {}, {} turns{wire}; {} rpm at {} ({} %), {} V between segments",
+            i + 1,
+            changes.join(", "),
+            n.scheme.label(),
+            n.turns,
+            fmt_fixed(a.speed_at_whole_turns, 0),
+            volts(n.voltage),
+            fmt_signed(a.speed_error * 100.0, 2),
+            fmt_fixed(a.segment_volts_avg, 2)
+        );
+        let _ = writeln!(s, "     {}", visible(&off.command));
     }
 }
 

@@ -42,6 +42,7 @@ mod render_only_formats;
 mod report_snapshots;
 mod rewind_cli;
 mod rewind_properties;
+mod rewind_verdict;
 mod rule_cases;
 mod sheet_cli;
 mod sheet_pdf;

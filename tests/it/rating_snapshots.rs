@@ -62,6 +62,7 @@ fn rewind_report_and_new_file_hoist_to_220_v_wave() {
         "designs/hoist-lap.toml",
         asked,
         &armsheet::check(back),
+        None,
         env!("CARGO_PKG_VERSION"),
     );
     insta::assert_snapshot!("rewind-hoist-220v-wave-report", report);

@@ -1,6 +1,8 @@
 //! Properties of the rewind over random designs: the same voltage reproduces the turns and the
 //! area; twice the voltage on the same connection doubles the turns and halves the area; the
-//! written design parses back with armsheet's own parser.
+//! written design parses back with armsheet's own parser; one verdict: every design the
+//! command writes passes `armsheet check`, a refused one exits 1 and says why, and every
+//! alternative it offers writes a design `armsheet check` passes.
 
 use crate::support;
 use crate::support::random_design::{OFF, RandomDesign, Space, designs};
@@ -155,5 +157,98 @@ proptest! {
         prop_assert_eq!(nw.active_coils, p.new.scheme.segments);
         prop_assert_eq!(nw.paths_formula, p.new.scheme.paths);
         prop_assert!(text.starts_with("# armsheet rewind of p.toml\n"));
+    }
+}
+
+/// The offered command lines of a refused rewind's report.
+fn offered_commands(report: &str) -> Vec<String> {
+    report
+        .split_once("ALTERNATIVES THAT PASS CHECK")
+        .map_or(Vec::new(), |(_, rest)| {
+            rest.lines()
+                .map(str::trim)
+                .take_while(|l| *l != "CAUTION")
+                .filter(|l| l.starts_with("armsheet rewind "))
+                .map(str::to_string)
+                .collect()
+        })
+}
+
+/// Runs `command` (an offered line, `armsheet` dropped) with `-o out --force`, then
+/// `armsheet check out`: both must exit 0.
+fn offered_passes(command: &str, out: &std::path::Path) -> Result<(), TestCaseError> {
+    let out_s = out.display().to_string();
+    let mut words: Vec<&str> = command.split_whitespace().skip(1).collect();
+    words.extend_from_slice(&["-o", &out_s, "--force"]);
+    let o = support::armsheet(&words);
+    prop_assert_eq!(
+        o.status.code(),
+        Some(0),
+        "`{}`:\n{}{}",
+        command,
+        support::text(&o.stdout),
+        support::text(&o.stderr)
+    );
+    let c = support::armsheet(&["check", &out_s]);
+    prop_assert_eq!(
+        c.status.code(),
+        Some(0),
+        "check refuses what `{}` wrote:\n{}",
+        command,
+        support::text(&c.stdout)
+    );
+    Ok(())
+}
+
+proptest! {
+    #![proptest_config(support::properties(128))]
+
+    /// Through the binary: exit 0 writes a design `armsheet check` passes; exit 1 writes
+    /// nothing, names the refusal, and every command line it offers writes a design `armsheet
+    /// check` passes; exit 2 (a request that cannot be met) writes nothing and says why.
+    #[test]
+    fn every_written_or_offered_design_passes_check(c in case(), v in 20.0f64..400.0, lap in prop::option::of(any::<bool>())) {
+        prop_assume!(design(&c).is_some());
+        let dir = std::path::PathBuf::from(env!("CARGO_TARGET_TMPDIR")).join("rewind_properties-verdict");
+        std::fs::create_dir_all(&dir).unwrap();
+        let src = dir.join("old.toml");
+        let out = dir.join("new.toml");
+        let alt = dir.join("alt.toml");
+        std::fs::write(&src, toml(&c)).unwrap();
+        let _ = std::fs::remove_file(&out);
+        let (src_s, out_s) = (src.display().to_string(), out.display().to_string());
+        let volts = format!("{}", v.round());
+        let mut args = vec!["rewind", src_s.as_str(), "--voltage", volts.as_str(), "-o", out_s.as_str()];
+        match lap {
+            Some(true) => args.extend_from_slice(&["--type", "lap"]),
+            Some(false) => args.extend_from_slice(&["--type", "wave"]),
+            None => {}
+        }
+        let o = support::armsheet(&args);
+        let report = support::text(&o.stdout);
+        match o.status.code() {
+            Some(0) => {
+                let c = support::armsheet(&["check", &out_s]);
+                prop_assert_eq!(c.status.code(), Some(0), "written but refused:\n{}", support::text(&c.stdout));
+            }
+            Some(1) => {
+                prop_assert!(!out.exists(), "a refused design was written");
+                prop_assert!(report.contains("check refuses the new design"), "{}", report);
+                prop_assert!(report.contains("ALTERNATIVES THAT PASS CHECK"), "{}", report);
+                let offered = offered_commands(&report);
+                prop_assert!(offered.len() <= 3);
+                if offered.is_empty() {
+                    prop_assert!(report.contains("  none: of "), "{}", report);
+                }
+                for command in &offered {
+                    offered_passes(command, &alt)?;
+                }
+            }
+            code => {
+                prop_assert_eq!(code, Some(2), "{}{}", report, support::text(&o.stderr));
+                prop_assert!(!out.exists());
+                prop_assert!(!support::text(&o.stderr).trim().is_empty());
+            }
+        }
     }
 }

@@ -9,14 +9,15 @@
 //! range-checked against what a design file holds, so a rewind never asks for a file armsheet
 //! would refuse; the CLI still parses the file back before writing it.
 
-use crate::rating::conductor::{self, WireFamily, WireOption};
+use crate::rating::conductor::{self, OldWire, WireFamily, WireOption};
+pub mod alternatives;
 pub mod design_toml;
 
 use crate::base::number::{fmt_fixed, fmt_signed, round_sig};
 use crate::design::{
     ConductorShape, Design, DesignError, EqualizerChoice, Mode, Rating, WindingType, bounds,
 };
-use crate::rating::scheme::{ConnectError, Scheme, connect};
+use crate::rating::scheme::{ConnectError, Scheme, connect_with_coils};
 use crate::rating::{RatingReport, emf, rate_with};
 use crate::winding::Winding;
 
@@ -35,6 +36,9 @@ pub struct RewindRequest {
     pub from_test: Option<(f64, f64)>,
     /// Measured armature resistance, Ω, taken as at 20 °C (`--ra`).
     pub measured_r20: Option<f64>,
+    /// New coils per slot u, the same slot space shared by more (or fewer) coils
+    /// (`--coils-per-slot`; default the design's).
+    pub coils_per_slot: Option<u32>,
 }
 
 /// Where the kept flux came from.
@@ -94,6 +98,13 @@ pub enum RewindError {
     SpeedOutOfRange {
         /// As given, rpm.
         rpm: f64,
+    },
+    /// The coils per slot asked for are not 1 to `max`, or give more coils than a design holds.
+    CoilsPerSlotOutOfRange {
+        /// As given.
+        coils_per_slot: u32,
+        /// The most on this armature's slots.
+        max: u32,
     },
     /// The measured resistance is not a positive number.
     ResistanceNotPositive {
@@ -319,6 +330,14 @@ pub fn rewind_rated(
     req: &RewindRequest,
 ) -> Result<RewindPlan, RewindError> {
     check_request(req)?;
+    let u = req.coils_per_slot.unwrap_or(d.coils_per_slot);
+    let most_u = (bounds::MAX_COILS / i64::from(d.slots.max(1))).min(bounds::MAX_COILS_PER_SLOT);
+    if !(1..=most_u).contains(&i64::from(u)) {
+        return Err(RewindError::CoilsPerSlotOutOfRange {
+            coils_per_slot: u,
+            max: u32::try_from(most_u).unwrap_or(0),
+        });
+    }
     let fresh;
     let rated: &RatingReport = match (rated, req.measured_r20) {
         (Some(r), None) => r,
@@ -332,7 +351,15 @@ pub fn rewind_rated(
     // The new connection.
     let kind = req.kind.unwrap_or(d.winding_type);
     let m = req.multiplicity.unwrap_or(d.multiplicity);
-    let conn = connect(d, old.c0, kind, m)?;
+    // New coils per slot take new coils and a new commutator: every coil on it when the kind
+    // can, else the kind's own count (the fewest dummy coils).
+    let keep = if u == d.coils_per_slot {
+        old.c0
+    } else {
+        u * d.slots
+    };
+    let mut conn = connect_with_coils(d, u, keep, kind, m)?;
+    conn.keeps_commutator = conn.segments == old.c0;
     let new = new_turns(d, &old, &conn, req.voltage)?;
     let mut notes = Vec::new();
     let copper = new_conductor(d, rated, &old, &conn, &new, &mut notes)?;
@@ -640,18 +667,34 @@ fn new_conductor(
             }),
             Some(a),
         ) => Some(new_strip(width_mm, corner_radius_mm, strands, a, notes)?),
-        (Some(ConductorShape::Round { awg, strands, .. }), Some(_)) => {
+        (
+            Some(ConductorShape::Round {
+                diameter_mm,
+                awg,
+                strands,
+            }),
+            Some(_),
+        ) => {
             let family = if awg.is_some() {
                 WireFamily::Awg
             } else {
                 WireFamily::Metric
             };
-            conductor::choose_size(&options, family, strands).map(WireOption::shape)
+            let old_wire = OldWire {
+                diameter_mm,
+                strands,
+            };
+            conductor::choose_size(&options, family, Some(old_wire)).map(WireOption::shape)
         }
         _ => None,
     };
     let area_new = shape.as_ref().map(conductor::conductor_area_mm2);
-    let (t0, turns) = (f64::from(d.turns), f64::from(new.turns));
+    // Copper in the slots: every coil position (dummy coils too) holds T turns.
+    let n1 = conn.dummies + conn.segments;
+    let (t0, turns) = (
+        f64::from(d.turns) * f64::from(d.coil_positions()),
+        f64::from(new.turns) * f64::from(n1),
+    );
     let fill = |area: Option<f64>| area.zip(area_old).map(|(an, ao)| turns * an / (t0 * ao));
     let (fill_exact, fill_chosen) = (fill(area_needed), fill(area_new));
     let density = new
@@ -659,7 +702,7 @@ fn new_conductor(
         .zip(area_new)
         .map(|(i, a)| i / f64::from(conn.paths) / a);
     if let Some(f) = fill_chosen
-        && f > 1.02
+        && f > 1.0 + conductor::SIZE_ABOVE
     {
         notes.push(format!(
                 "the chosen conductor puts {} % more copper in each slot than the original: check that it fits, or take the next size down",
@@ -731,7 +774,7 @@ fn new_design(
     if !conn.keeps_commutator {
         let why = kind.kind().segment_rule(
             c0,
-            d.coil_positions(),
+            conn.segments + conn.dummies,
             conn.multiplicity,
             d.pole_pairs(),
             d.direction,
@@ -745,6 +788,14 @@ fn new_design(
         ));
     }
     let mut nd = d.spec();
+    let u1 = (conn.segments + conn.dummies) / d.slots.max(1);
+    if u1 != d.coils_per_slot {
+        notes.push(format!(
+            "coils per slot {} -> {u1}: the same slot space shared by {u1} coils a slot, the span in slots kept; new coils and, with more segments, a new commutator",
+            d.coils_per_slot
+        ));
+        nd.coils_per_slot = u1;
+    }
     if !kind.kind().takes_equalizers() && d.equalizers != EqualizerChoice::None {
         notes.push(format!(
             "equalizers removed: {}",
@@ -788,7 +839,9 @@ fn new_design(
         .filter(|_| kind.kind().element_count() > 1);
     nd.wave_turns = None;
     nd.segments = Some(c1);
-    if nd.dummy_coils.is_some() && (c1 != c0 || kind.kind().uses_every_coil()) {
+    if nd.dummy_coils.is_some()
+        && (c1 != c0 || u1 != d.coils_per_slot || kind.kind().uses_every_coil())
+    {
         notes.push(format!(
             "dummy coils: the positions the old design names are dropped; {}",
             if kind.kind().uses_every_coil() {
@@ -827,8 +880,17 @@ impl RewindPlan {
         let mut h = vec![
             format!("armsheet rewind of {old_file}"),
             format!("asked: {command}"),
-            "kept: the core, the slots and coils per slot, the span, the flux per pole and the slot space".to_string(),
-            format!("flux per pole {} mWb, {}", fmt_fixed(self.flux_mwb, 4), self.flux_source.describe()),
+            if o.scheme.segments + o.scheme.dummies == n.scheme.segments + n.scheme.dummies {
+                "kept: the core, the slots and coils per slot, the span, the flux per pole and the slot space"
+            } else {
+                "kept: the core, the slots, the span, the flux per pole and the slot space"
+            }
+            .to_string(),
+            format!(
+                "flux per pole {} mWb, {}",
+                fmt_fixed(self.flux_mwb, 4),
+                self.flux_source.describe()
+            ),
         ];
         let v = |x: Option<f64>| {
             x.map_or("(not given)".to_string(), |v| {

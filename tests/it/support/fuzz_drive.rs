@@ -82,6 +82,7 @@ pub fn drive(text: &str, rng: &mut Rng, parsed: &mut u64, every: Every) -> Reach
         multiplicity: *rng.pick(&[None, Some(1), Some(2), Some(0), Some(7)]),
         from_test: *rng.pick(&[None, Some((200.0, 1000.0)), Some((1e308, 1e-308))]),
         measured_r20: *rng.pick(&[None, Some(0.5), Some(-1.0)]),
+        coils_per_slot: *rng.pick(&[None, None, Some(0), Some(1), Some(2), Some(u32::MAX)]),
     };
     let (d, w) = (&checked.design, &checked.winding);
     if let Ok(plan) = rewind_rated(d, w, checked.rating.as_ref(), &req) {
