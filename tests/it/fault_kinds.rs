@@ -451,6 +451,26 @@ fn every_fault_kind_is_found_on_random_designs() {
                 continue;
             }
             let l = run(&csv).location.unwrap();
+            // Every fault ranked changes some reading by at least half the tolerance.
+            for x in &l.faults {
+                let moved =
+                    l.measured
+                        .iter()
+                        .zip(&x.predicted)
+                        .any(|((r, _), p)| match (r.expected, p) {
+                            (Some(e), Some(p)) => {
+                                let e = e * x.scale / t.coil_resistance_ohm.unwrap_or(1.0);
+                                (p - e).abs() >= 0.5 * l.tolerance * e - 1e-12
+                            }
+                            (None, None) => false,
+                            _ => true,
+                        });
+                assert!(
+                    moved,
+                    "{f:?}: {} ranked but changes nothing\n{toml}",
+                    x.kind.key()
+                );
+            }
             let e = tally.entry(f.kind().key()).or_default();
             e.0 += 1;
             let Some(top) = l.faults.first() else {
