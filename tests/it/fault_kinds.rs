@@ -25,12 +25,7 @@ fn healthy(toml: &str) -> (ArmatureTest, Vec<NetCoil>, Vec<Vec<u32>>) {
 /// The readings file of a faulty network of `nodes` bars (the first `t.bars` are the
 /// commutator's), in coil resistances, every listed pair read.
 fn readings(t: &ArmatureTest, faulty: &Network) -> String {
-    let pairs: Vec<(u32, u32)> = t
-        .readings
-        .iter()
-        .chain(t.readings_within_winding.iter().flatten())
-        .map(|r| (r.from_bar, r.to_bar))
-        .collect();
+    let pairs: Vec<(u32, u32)> = t.listed().map(|r| (r.from_bar, r.to_bar)).collect();
     let mut csv = String::from("from_bar,to_bar,reading\n");
     for ((a, b), v) in pairs.iter().zip(faulty.effective(&pairs)) {
         let v = v.map_or("OL".to_string(), |v| format!("{v:.9}"));
@@ -329,9 +324,7 @@ fn names(
 /// The readings of `faulty` with 1 % noise, and the largest relative change from healthy.
 fn noisy(t: &ArmatureTest, faulty: &Network, rng: &mut u64) -> (String, f64) {
     let listed: Vec<(u32, u32, Option<f64>)> = t
-        .readings
-        .iter()
-        .chain(t.readings_within_winding.iter().flatten())
+        .listed()
         .map(|r| (r.from_bar, r.to_bar, r.expected))
         .collect();
     let pairs: Vec<(u32, u32)> = listed.iter().map(|&(a, b, _)| (a, b)).collect();

@@ -64,9 +64,7 @@ fn faulty_readings(
     }
     let faulty = Network::new(t.bars, coils, &ties);
     let listed: Vec<(u32, u32, Option<f64>)> = t
-        .readings
-        .iter()
-        .chain(t.readings_within_winding.iter().flatten())
+        .listed()
         .map(|r| (r.from_bar, r.to_bar, r.expected))
         .collect();
     let pairs: Vec<(u32, u32)> = listed.iter().map(|&(a, b, _)| (a, b)).collect();

@@ -380,10 +380,7 @@ fn readings_for(
     factor: f64,
 ) -> String {
     let mut s = String::from("from_bar,to_bar,reading\n");
-    let rows = t
-        .readings
-        .iter()
-        .chain(t.readings_within_winding.iter().flatten());
+    let rows = t.listed();
     for (i, r) in rows.enumerate() {
         if let Some(e) = r.expected {
             let f = if every > 0 && i % every == 0 {

@@ -80,9 +80,7 @@ fn every_bar_pair_has_one_row_with_an_empty_measured_box() {
         for paper in [Paper::A4, Paper::Letter] {
             let (_, test, pages) = set(&support::demo(name), paper);
             let want: Vec<(String, String, String)> = test
-                .readings
-                .iter()
-                .chain(test.readings_within_winding.iter().flatten())
+                .listed()
                 .map(|r| {
                     (
                         r.from_bar.to_string(),

@@ -565,11 +565,7 @@ pub fn locate(
             .flat_map(|f| f.readings.iter().map(|r| (*r, (f.from_bar, f.to_bar))))
             .collect()
     } else {
-        t.readings
-            .iter()
-            .chain(t.readings_within_winding.iter().flatten())
-            .map(|r| (*r, (r.from_bar, r.to_bar)))
-            .collect()
+        t.listed().map(|r| (*r, (r.from_bar, r.to_bar))).collect()
     };
     let mut rows: Vec<(Reading, ReadingValue)> = Vec::new();
     let mut sources = Vec::new();

@@ -197,18 +197,22 @@ impl ArmatureTest {
             .count()
     }
 
+    /// Every bar-to-bar reading the test lists: the neighbouring pairs, then the pairs m apart
+    /// within one winding of a multiplex winding.
+    pub fn listed(&self) -> impl Iterator<Item = &Reading> {
+        self.readings
+            .iter()
+            .chain(self.readings_within_winding.iter().flatten())
+    }
+
     /// The one prefix every bar-to-bar reading of this test is written in (ohms: Ω, mΩ or
     /// µΩ from the largest expected reading; none for units of a coil), so a table's rows and
     /// the plot's scale compare.
     pub fn reading_prefix(&self) -> Prefix {
         match self.unit {
-            Unit::Ohm => Prefix::for_largest(
-                self.readings
-                    .iter()
-                    .chain(self.readings_within_winding.iter().flatten())
-                    .filter_map(|r| r.expected)
-                    .fold(0.0, f64::max),
-            ),
+            Unit::Ohm => {
+                Prefix::for_largest(self.listed().filter_map(|r| r.expected).fold(0.0, f64::max))
+            }
             Unit::Coil => Prefix::NONE,
         }
     }
@@ -282,12 +286,7 @@ pub fn armature_test(
                 ),
             });
         }
-        let pairs: Vec<(u32, u32)> = t
-            .readings
-            .iter()
-            .chain(t.readings_within_winding.iter().flatten())
-            .map(|r| (r.from_bar, r.to_bar))
-            .collect();
+        let pairs: Vec<(u32, u32)> = t.listed().map(|r| (r.from_bar, r.to_bar)).collect();
         let drop_pairs: Vec<(u32, u32)> = t
             .drop_test
             .feeds

@@ -53,10 +53,7 @@ pub(super) fn readings_width() -> f64 {
 /// The readings in sheet order: neighbouring pairs, then (multiplex windings) the pairs m
 /// apart within one winding.
 fn readings<'a>(input: &Input<'a>) -> impl Iterator<Item = &'a Reading> {
-    let t = input.test;
-    t.readings
-        .iter()
-        .chain(t.readings_within_winding.iter().flatten())
+    input.test.listed()
 }
 
 /// How many reading rows the sheets carry.
