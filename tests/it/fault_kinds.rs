@@ -485,6 +485,50 @@ fn every_fault_kind_is_found_on_random_designs() {
                 ));
             }
         }
+        // The drop test's millivolts, with 1 % noise: a coil partly shorted.
+        let f = Inject::Short(k, size(0.3, 0.95, &mut rng));
+        let faulty = inject(&t, &coils, &ties, f).unwrap();
+        let mut csv = String::from("from_bar,to_bar,millivolts\n");
+        let mut change: f64 = 0.0;
+        for feed in &t.drop_test.feeds {
+            let phi = faulty.potentials(feed.from_bar, feed.to_bar);
+            for r in &feed.readings {
+                let (a, b) = (phi[r.from_bar as usize - 1], phi[r.to_bar as usize - 1]);
+                let v = (a.unwrap() - b.unwrap()).abs() * t.drop_test.current_a;
+                let e = r.expected.unwrap();
+                change = change.max((v - e).abs() / e.max(1e-9));
+                let u = draw(2001, &mut rng) as f64 / 1000.0 - 1.0;
+                csv.push_str(&format!(
+                    "{},{},{:.9}\n",
+                    r.from_bar,
+                    r.to_bar,
+                    v * (1.0 + 0.01 * u)
+                ));
+            }
+        }
+        if change >= 0.03 {
+            let l = run(&csv).location.unwrap();
+            let e = tally.entry("drop shorted-coil").or_default();
+            e.0 += 1;
+            match l.faults.first() {
+                Some(top)
+                    if names(&t, &coils, f, top) || {
+                        let injected = l.faults.iter().find(|x| names(&t, &coils, f, x));
+                        injected.is_some_and(|x| x.score <= top.score * (1.0 + 1e-6) + 1e-9)
+                    } =>
+                {
+                    e.1 += 1
+                }
+                top => misses.push(format!(
+                    "drop {f:?}: top {:?}, injected {:?}\n{toml}",
+                    top.map(|x| (x.kind.key(), x.bars.clone(), x.score, x.worst)),
+                    l.faults
+                        .iter()
+                        .find(|x| names(&t, &coils, f, x))
+                        .map(|x| (x.score, x.worst))
+                )),
+            }
+        }
     }
     let report = format!("{tally:?}\n{}", misses.join("\n"));
     for (kind, (n, right)) in &tally {

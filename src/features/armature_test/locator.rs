@@ -436,10 +436,57 @@ impl Problem<'_> {
     }
 
     /// Fits τ in [lo, hi] for the rank-one change of coupling `wv`; returns τ and its fit.
+    ///
+    /// A drop-test reading may pass through zero and change sign under the fault, which the
+    /// meter does not show: the fit is repeated with each reading signed as the last fit
+    /// predicts it, until the signs settle, from several starting sizes across [lo, hi] (a
+    /// fit that starts with the wrong signs can settle on them), keeping the best.
     fn fit_rank_one(&self, wv: &[f64], lo: f64, hi: f64) -> (f64, Fit) {
         let c: Vec<f64> = wv.iter().map(|wv| -wv).collect();
-        let tau = self.fit_ratio(&self.base, &c, lo, hi);
-        (tau, self.judge(self.rank_one(wv, tau)))
+        let signs = |tau: f64| -> Vec<f64> {
+            self.base
+                .iter()
+                .zip(wv)
+                .map(|(b, wv)| match b {
+                    Some(b) if b - tau * wv < 0.0 => -1.0,
+                    _ => 1.0,
+                })
+                .collect()
+        };
+        let settle = |start: f64| -> f64 {
+            let mut flip = signs(start);
+            let mut tau = start;
+            for _ in 0..6 {
+                let model: Vec<(Option<f64>, f64)> = self
+                    .base
+                    .iter()
+                    .zip(&c)
+                    .zip(&flip)
+                    .map(|((b, c), f)| (b.map(|b| f * b), f * c))
+                    .collect();
+                tau = self.fit_ratio_with(&model, &[], lo, hi);
+                let next = signs(tau);
+                if next == flip {
+                    break;
+                }
+                flip = next;
+            }
+            tau
+        };
+        let starts: &[f64] = if self.drop { &[0.0, 0.5, 0.9] } else { &[0.0] };
+        let mut best: Option<(f64, Fit)> = None;
+        for &s in starts {
+            let tau = settle(if s == 0.0 {
+                0.0f64.clamp(lo, hi)
+            } else {
+                lo + s * (hi - lo)
+            });
+            let fit = self.judge(self.rank_one(wv, tau));
+            if best.as_ref().is_none_or(|(_, b)| fit.score < b.score) {
+                best = Some((tau, fit));
+            }
+        }
+        best.expect("one start at least")
     }
 
     /// The largest relative change a prediction makes to the healthy readings (infinite
