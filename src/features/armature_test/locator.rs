@@ -545,9 +545,6 @@ impl Ranking<'_> {
             self.invisible[h.kind as usize] += 1;
             return;
         }
-        if pr.effect(&fit) < 0.5 * pr.tolerance {
-            return;
-        }
         let order = |f: &Fault| (f.score, f.kind, f.bars.clone());
         let before = |a: &(f64, FaultKind, Vec<u32>), b: &(f64, FaultKind, Vec<u32>)| {
             a.0.total_cmp(&b.0)
@@ -556,7 +553,12 @@ impl Ranking<'_> {
                 .is_lt()
         };
         let key = (fit.score, h.kind, h.bars.clone());
+        // A fault that would not be kept needs no more thought; one that would, but changes no
+        // reading by half the tolerance, is not ranked.
         if self.faults.len() == KEPT && !before(&key, &order(&self.faults[KEPT - 1])) {
+            return;
+        }
+        if pr.effect(&fit) < 0.5 * pr.tolerance {
             return;
         }
         let at = self.faults.partition_point(|f| before(&order(f), &key));
