@@ -162,7 +162,7 @@ pub fn test(a: &TestArgs) -> Result<Outcome, CliError> {
                     page_svg(&readings_plot_page(&t, &name)).into_bytes(),
                 ),
             ];
-            write_own_files(&dir, &files)?;
+            write_own_files(&dir, &files, "test -o")?;
             let mut said = String::new();
             for (n, _) in &files {
                 let _ = writeln!(said, "wrote {}", shown(&dir.join(n)));

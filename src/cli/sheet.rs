@@ -16,7 +16,7 @@ use clap::Args;
 use super::Outcome;
 use super::error::{CliError, shown};
 use super::load::load_design;
-use super::output::{print_stdout, replace_folder, write_atomic};
+use super::output::{SET_LIST, print_stdout, replace_folder, write_atomic};
 use crate::features::armature_test::{TestOptions, expected};
 use crate::layout::{Paper, SheetOptions, Window, draw_page, sheet_pages};
 use crate::render::json::report_json;
@@ -186,9 +186,14 @@ pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
         report_json(&checked).into_bytes(),
     ));
     all.append(&mut files);
-    let removed = replace_folder(&dir, &all, |name| is_stale_sheet(name, count))?;
+    let removed = replace_folder(
+        &dir,
+        &all,
+        |name| is_stale_sheet(name, count) || name == "sheets.pdf",
+        "sheet",
+    )?;
     let mut said = String::new();
-    for (name, _) in &all {
+    for name in all.iter().map(|(n, _)| n.as_str()).chain([SET_LIST]) {
         let _ = writeln!(said, "wrote {}", shown(&dir.join(name)));
     }
     for p in removed {
@@ -199,7 +204,8 @@ pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
 }
 
 /// `sheet-K.svg` with K above this run's `count`: left by an earlier run with more sheets, so
-/// it goes with the old set and the folder holds one set.
+/// it goes with the old set and the folder holds one set. Only asked of a folder written by an
+/// armsheet before set lists (no `sheet-set.txt`); otherwise the list names the old set.
 fn is_stale_sheet(name: &OsStr, count: usize) -> bool {
     name.to_str()
         .and_then(|n| n.strip_prefix("sheet-"))
