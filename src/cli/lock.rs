@@ -161,7 +161,6 @@ fn holder(path: &Path) -> Option<String> {
     let text = fs::read(path).ok()?;
     let text = String::from_utf8_lossy(&text[..text.len().min(4096)]).into_owned();
     let line = text.lines().next()?.trim();
-    (!line.is_empty()).then(|| {
-        crate::base::visible::visible(&crate::base::visible::clip(line, 120)).into_owned()
-    })
+    (!line.is_empty())
+        .then(|| crate::base::visible::visible(&crate::base::visible::clip(line, 120)).into_owned())
 }

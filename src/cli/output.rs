@@ -284,11 +284,7 @@ pub fn write_new(path: &Path, bytes: &[u8], by: NoOverwrite) -> Result<(), CliEr
 /// command `who`, so a `sheet` run into the same folder waits. `dir` must be absent, a folder
 /// or a symbolic link to one (see `resolve`); anything else is [`CliError::WrongKind`] and
 /// nothing is written.
-pub fn write_own_files(
-    dir: &Path,
-    files: &[(String, Vec<u8>)],
-    who: &str,
-) -> Result<(), CliError> {
+pub fn write_own_files(dir: &Path, files: &[(String, Vec<u8>)], who: &str) -> Result<(), CliError> {
     let (real, _) = resolve(dir, EntryKind::Folder)?;
     fs::create_dir_all(parent_of(&real)).map_err(|source| CliError::CreateDir {
         path: dir.to_path_buf(),
