@@ -122,11 +122,15 @@ boxes, the connection table with the winding sequence, the equalizer table, the 
 sign-off sheets with the expected bar-to-bar readings of `armsheet test` and boxes for the
 measured ones and, when sheet 1 cannot hold it all, the winding data in full; each page's
 root <svg> names itself in data-page), connections.csv (one record per coil position), job.csv (the job they
-belong to, once), report.json (the `check --json` object) and, with --pdf, sheets.pdf.
+belong to, once), report.json (the `check --json` object), with --pdf sheets.pdf, and
+sheet-set.txt (the list of the set's own files). The README's \"Output files\" gives each format.
 Sheets are sized in mm and print at true scale. A design that fails a check is still drawn,
 under a NOT FOR WINDING band.
 The set is written whole or not at all: it is made in a temporary folder beside DIR/<design-stem>
-and then swapped into place; other files already in that folder are kept.
+and then swapped into place. A file of the older set that the new one lacks (sheets.pdf of an
+earlier --pdf run) goes; every file the older set's list does not name (`test -o` files, notes)
+is kept. One run at a time writes a folder: a second run (`sheet` or `test -o`) waits up to
+5 s for the lock DIR/.<design-stem>.lock, then exits 2 naming the run that holds it.
 ",
     super::error::exit_codes_help!()
 );

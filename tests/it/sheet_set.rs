@@ -277,3 +277,20 @@ fn a_locked_folder_makes_a_run_wait_then_give_up() {
         "the lock file was left"
     );
 }
+
+/// The wait the help and the README promise is the wait the lock takes.
+#[test]
+fn help_and_readme_give_the_lock_wait() {
+    let secs = armsheet::cli::lock::LOCK_WAIT.as_secs();
+    let readme = include_str!("../../README.md").replace('\n', " ");
+    assert!(readme.contains(&format!("waits up to {secs} s")));
+    assert!(readme.contains(&format!("for more than {secs} s")));
+    for command in ["sheet", "test"] {
+        let help = text(&support::armsheet(&[command, "--help"]).stdout).replace('\n', " ");
+        assert!(
+            help.contains(&format!("waits up to {secs} s")),
+            "{command}: {help}"
+        );
+        assert!(help.contains("DIR/.<design-stem>.lock"), "{command}");
+    }
+}
