@@ -340,8 +340,9 @@ pub const SET_LIST: &str = "sheet-set.txt";
 /// The marker file written first into every staging (`.new`) and aside (`.old`) folder,
 /// holding the name of the folder it stages for. Only a folder holding it, naming the run's
 /// own target, is ever cleared as a killed run's leftover; a folder of the user's that merely
-/// has such a name is never touched.
-pub const STAGING_MARKER: &str = ".armsheet-staging";
+/// has such a name is never touched. (A short name: a path too long for the system then fails at
+/// the set's files as it always did, with the file named.)
+pub const STAGING_MARKER: &str = ".arm-staging";
 
 /// The marker's text for staging beside `target`: its file name and a newline.
 fn marker_text(target: &Path) -> Vec<u8> {
@@ -360,6 +361,28 @@ fn marked_for(folder: &Path, target: &Path) -> bool {
     let path = folder.join(STAGING_MARKER);
     fs::symlink_metadata(&path).is_ok_and(|m| m.is_file() && m.len() <= 4096)
         && fs::read(&path).is_ok_and(|b| b == marker_text(target))
+}
+
+/// True when `folder` holds nothing but the start of the staging marker for `target` (or
+/// nothing at all): what a run killed the instant after it made the folder leaves. Such a
+/// folder holds nothing of anyone's and is cleared with the marked ones.
+fn unfinished_for(folder: &Path, target: &Path) -> bool {
+    let Ok(entries) = fs::read_dir(folder) else {
+        return false;
+    };
+    let mut n = 0;
+    for entry in entries {
+        let Ok(entry) = entry else { return false };
+        n += 1;
+        let path = entry.path();
+        let start = entry.file_name() == STAGING_MARKER
+            && entry.file_type().is_ok_and(|t| t.is_file())
+            && fs::read(&path).is_ok_and(|b| marker_text(target).starts_with(&b));
+        if n > 1 || !start {
+            return false;
+        }
+    }
+    true
 }
 
 /// The text of [`SET_LIST`] for `files`.
@@ -455,7 +478,8 @@ pub fn replace_folder(
     let stage = builder(&prefix, ".new", true)
         .tempdir_in(parent)
         .map_err(create_err)?;
-    write_file(&stage.path().join(STAGING_MARKER), &marker).map_err(create_err)?;
+    write_file(&stage.path().join(STAGING_MARKER), &marker)
+        .map_err(|e| CliError::write(user_target.join(STAGING_MARKER), e))?;
     for (name, bytes) in &all {
         write_file(&stage.path().join(name), bytes)
             .map_err(|e| CliError::write(user_target.join(name), e))?;
@@ -519,38 +543,42 @@ pub fn replace_folder(
             return Err(carried.undo(CliError::write(target, e)));
         }
     }
-    let aside = match builder(&prefix, ".old", true).tempdir_in(parent) {
-        Ok(a) => a,
-        Err(e) => {
-            unmark_old();
-            return Err(carried.undo(create_err(e)));
-        }
+    if let Err(e) = swap_aside(target, stage.path(), &prefix, &marker) {
+        unmark_old();
+        return Err(carried.undo(e));
+    }
+    let _ = stage.keep();
+    unmark_new();
+    stale.sort();
+    Ok(stale)
+}
+
+/// The swap where the system cannot exchange two folders in one step: the old folder `target`
+/// is renamed aside into a marked folder `.<name>.XXXXXX.old/set`, the staged one `stage`
+/// renamed into place and the aside folder removed. On an error the old folder is put back
+/// (or, if even that fails, left in the marked aside folder for the next run to put back).
+fn swap_aside(target: &Path, stage: &Path, prefix: &str, marker: &[u8]) -> Result<(), CliError> {
+    let create_err = |source| CliError::CreateDir {
+        path: target.to_path_buf(),
+        source,
     };
-    if let Err(e) = write_file(&aside.path().join(STAGING_MARKER), &marker) {
-        unmark_old();
-        return Err(carried.undo(create_err(e)));
-    }
+    let aside = builder(prefix, ".old", true)
+        .tempdir_in(parent_of(target))
+        .map_err(create_err)?;
+    write_file(&aside.path().join(STAGING_MARKER), marker).map_err(create_err)?;
     let old = aside.path().join("set");
-    if let Err(e) = fs::rename(target, &old) {
-        unmark_old();
-        return Err(carried.undo(CliError::write(target, e)));
-    }
-    if let Err(e) = fs::rename(stage.path(), target) {
+    fs::rename(target, &old).map_err(|e| CliError::write(target, e))?;
+    if let Err(e) = fs::rename(stage, target) {
         if fs::rename(&old, target).is_err() {
             // Never delete the only copy of the old set: leave it where it is (marked, so the
             // next run puts it back).
             let _ = aside.keep();
-        } else {
-            unmark_old();
         }
-        return Err(carried.undo(CliError::write(target, e)));
+        return Err(CliError::write(target, e));
     }
-    let _ = stage.keep();
-    unmark_new();
     // The old set goes; if it cannot be removed it is at least out of the way.
     let _ = aside.close();
-    stale.sort();
-    Ok(stale)
+    Ok(())
 }
 
 /// Swaps the folders `a` and `b` in one step (`renameat2` with `RENAME_EXCHANGE`), so that no
@@ -598,7 +626,10 @@ fn recover_stale(target: &Path, prefix: &str, is_set: impl Fn(&OsStr) -> bool) -
             (_, Some(r)) if r.len() == 6 => false,
             _ => continue,
         };
-        if entry.file_type()?.is_dir() && marked_for(&entry.path(), target) {
+        let path = entry.path();
+        if entry.file_type()?.is_dir()
+            && (marked_for(&path, target) || unfinished_for(&path, target))
+        {
             found.push((old, entry.path()));
         }
     }

@@ -24,7 +24,7 @@ use crate::support::mutate::Rng;
 const BIN: &str = env!("CARGO_BIN_EXE_armsheet");
 const STEM: &str = "mill-lap-12p";
 /// The marker armsheet writes first into its staging and aside folders.
-const MARKER: &str = ".armsheet-staging";
+const MARKER: &str = ".arm-staging";
 
 /// The files of a folder, by name, with their bytes (sub-folders are not expected), less the
 /// staging marker a run killed just after its swap leaves in the set (the next run drops it).
@@ -239,6 +239,9 @@ fn the_next_run_clears_what_a_killed_run_left() {
     ];
     for o in &other {
         fs::create_dir_all(o).unwrap();
+    }
+    for o in &other {
+        fs::write(o.join("mine.txt"), "the user's").unwrap();
     }
     fs::write(other[3].join(MARKER), "other\n").unwrap();
     run();

@@ -187,7 +187,7 @@ fn the_next_test_run_clears_its_own_temporaries() {
 
 /// The files of a set folder less the staging marker a run killed just after its swap leaves.
 fn without_marker(mut f: BTreeMap<String, Vec<u8>>) -> BTreeMap<String, Vec<u8>> {
-    f.remove(".armsheet-staging");
+    f.remove(".arm-staging");
     f
 }
 

@@ -134,7 +134,7 @@ fn an_unmarked_folder_named_like_staging_survives() {
     fs::write(bare.join("set/mine.txt"), "mine").unwrap();
     let other = out.join(".hoist-lap.xYz789.new");
     fs::create_dir_all(&other).unwrap();
-    fs::write(other.join(".armsheet-staging"), "some-other-folder\n").unwrap();
+    fs::write(other.join(".arm-staging"), "some-other-folder\n").unwrap();
     fs::write(other.join("notes.txt"), "not for hoist-lap").unwrap();
     ok(&run(&dir, &["sheet", "hoist-lap.toml"]));
     assert_eq!(files_in(&theirs), pump, "the user's set was touched");
