@@ -339,8 +339,8 @@ pub const SET_LIST: &str = "sheet-set.txt";
 
 /// The marker file written first into every staging (`.new`) and aside (`.old`) folder,
 /// holding the name of the folder it stages for. Only a folder holding it, naming the run's
-/// own target, is ever cleared as a killed run's leftover; a folder of the user's that merely
-/// has such a name is never touched. (A short name: a path too long for the system then fails at
+/// own target, is ever cleared as a killed run's leftover (or an empty folder, see
+/// `unfinished_for`); a folder of the user's that merely has such a name is never touched. (A short name: a path too long for the system then fails at
 /// the set's files as it always did, with the file named.)
 pub const STAGING_MARKER: &str = ".arm-staging";
 
@@ -430,7 +430,8 @@ fn read_set_list(dir: &Path) -> Option<BTreeSet<OsString>> {
 ///
 /// The files are written into a temporary folder `.<name>.XXXXXX.new` beside `target`, marked
 /// first with [`STAGING_MARKER`] and then the list. Entries of the old folder that are not in
-/// the new set are carried over (a `draw` diagram, `test -o` files, the user's own notes),
+/// the new set are carried over (a `draw` diagram, `test -o` files, the user's own notes; a
+/// regular file as a second hard link, so it never leaves the old folder, see `Carried`),
 /// except the old set's own files: those its [`SET_LIST`] names, or where the old folder has
 /// no list (written before lists) those `legacy_stale` names; they go with the old set, so the
 /// folder holds one set (a `sheets.pdf` the new set does not have goes). Then the two folders
@@ -499,7 +500,7 @@ pub fn replace_folder(
     let mut carried = Carried {
         from: target,
         to: stage.path(),
-        names: Vec::new(),
+        moved: Vec::new(),
     };
     let mut stale = Vec::new();
     for entry in fs::read_dir(target).map_err(|e| CliError::write(target, e))? {
@@ -602,7 +603,7 @@ fn exchange(_: &Path, _: &Path) -> io::Result<bool> {
 
 /// Clears what killed runs left beside `target`: folders named `<prefix>XXXXXX.old` or
 /// `<prefix>XXXXXX.new` (six random characters, as this module makes them) that hold the
-/// [`STAGING_MARKER`] naming `target`. A folder with such a name but no marker (the user's,
+/// [`STAGING_MARKER`] naming `target`, or nothing but the start of it. A folder with such a name but no marker (the user's,
 /// a set written from a design named `.hoist-lap.pump01.new.toml`, another target's staging)
 /// is left alone. Runs under the folder's lock, so no live staging folder is ever taken.
 ///
@@ -662,29 +663,41 @@ fn recover_stale(target: &Path, prefix: &str, is_set: impl Fn(&OsStr) -> bool) -
     Ok(())
 }
 
-/// Entries moved from the old folder into the staged one, so they can be moved back.
+/// Entries carried from the old folder into the staged one, so they can be moved back.
+///
+/// A regular file is carried as a second hard link, so it stays in the old folder too: a run
+/// killed before its swap leaves every such file (`test -o`'s, the user's notes) where it was.
+/// Anything else (a sub-folder, a link), or a file the system will not link, is moved.
 struct Carried<'a> {
     from: &'a Path,
     to: &'a Path,
-    names: Vec<OsString>,
+    /// The names moved (not linked), to be moved back on an error.
+    moved: Vec<OsString>,
 }
 
 impl Carried<'_> {
-    /// Moves `name` over; on failure moves back what was moved.
+    /// Links or moves `name` over; on failure moves back what was moved.
     fn carry(&mut self, name: OsString) -> Result<(), CliError> {
         let from = self.from.join(&name);
-        match fs::rename(&from, self.to.join(&name)) {
+        let to = self.to.join(&name);
+        if fs::symlink_metadata(&from).is_ok_and(|m| m.file_type().is_file())
+            && fs::hard_link(&from, &to).is_ok()
+        {
+            return Ok(());
+        }
+        match fs::rename(&from, to) {
             Ok(()) => {
-                self.names.push(name);
+                self.moved.push(name);
                 Ok(())
             }
             Err(e) => Err(self.undo(CliError::write(from, e))),
         }
     }
 
-    /// Moves everything back (as far as the system lets it) and returns `err`.
+    /// Moves everything moved back (as far as the system lets it) and returns `err`; the
+    /// linked files never left.
     fn undo(&mut self, err: CliError) -> CliError {
-        for name in self.names.drain(..).rev() {
+        for name in self.moved.drain(..).rev() {
             let _ = fs::rename(self.to.join(&name), self.from.join(&name));
         }
         err
