@@ -290,7 +290,19 @@ pub fn write_own_files(dir: &Path, files: &[(String, Vec<u8>)], who: &str) -> Re
         path: dir.to_path_buf(),
         source,
     })?;
-    let _lock = lock_folder(&real, dir, who)?;
+    // A folder the user may write in, beside which nothing may be made (a read-only parent),
+    // is written unlocked, as before there were locks: no `sheet` run can write there either.
+    let _lock = match lock_folder(&real, dir, who) {
+        Err(CliError::Write { source, .. })
+            if matches!(
+                source.kind(),
+                io::ErrorKind::PermissionDenied | io::ErrorKind::ReadOnlyFilesystem
+            ) && real.is_dir() =>
+        {
+            None
+        }
+        other => Some(other?),
+    };
     // Looked at again under the lock: another run may have made or replaced it meanwhile.
     let (real, exists) = resolve(dir, EntryKind::Folder)?;
     if exists {
