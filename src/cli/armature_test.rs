@@ -4,7 +4,7 @@
 //! once ([`armature_test`]) and renders that one result; with `-o DIR` it writes the report,
 //! the JSON, the readings CSV and the plot into `DIR/<design-stem>/`, each file through a
 //! temporary file and a rename, touching nothing else in the folder (a sheet set written there
-//! by `sheet` stays as it is). Exit codes are `check`'s, and 1 when measured readings are not
+//! by `sheet` stays as it is), under the folder's lock ([`super::lock`]). Exit codes are `check`'s, and 1 when measured readings are not
 //! healthy.
 
 use std::fmt::Write as _;
@@ -117,6 +117,9 @@ healthy pattern), so a shop script can tell; 0 when they are healthy and the des
 pass; 2 for a readings file or an option that cannot be taken (located, nothing written).
 --current is taken from 0.01 to 1000 A, --temperature from -50 to 250 C, --tolerance above 0
 and at most 100 %; a reading from 1e-9 to 1e9 in the file's unit, or 0.
+-o DIR writes its four files one by one into DIR/<design-stem>/ and touches nothing else there
+(a sheet set stays); it holds the folder's lock DIR/.<design-stem>.lock as `sheet` does, so a
+second run into the folder waits up to 5 s, then exits 2 naming the run that holds it.
 ",
     super::error::exit_codes_help!()
 );
@@ -162,7 +165,7 @@ pub fn test(a: &TestArgs) -> Result<Outcome, CliError> {
                     page_svg(&readings_plot_page(&t, &name)).into_bytes(),
                 ),
             ];
-            write_own_files(&dir, &files)?;
+            write_own_files(&dir, &files, "test -o")?;
             let mut said = String::new();
             for (n, _) in &files {
                 let _ = writeln!(said, "wrote {}", shown(&dir.join(n)));

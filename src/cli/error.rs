@@ -87,6 +87,18 @@ pub enum CliError {
         /// What is there, and what was to be written.
         why: WrongKind,
     },
+    /// Another armsheet run holds the output folder's lock and did not let go within the wait;
+    /// nothing was written.
+    Busy {
+        /// The output folder, as given.
+        folder: PathBuf,
+        /// The lock file beside it.
+        lock: PathBuf,
+        /// The run holding it, as it named itself in the lock file.
+        holder: Option<String>,
+        /// How long this run waited.
+        waited: std::time::Duration,
+    },
     /// The output file exists and the command does not overwrite it.
     Exists {
         /// The file.
@@ -214,6 +226,19 @@ impl fmt::Display for CliError {
                 }
             ),
             CliError::WrongKind { path, why } => wrong_kind(f, path, why),
+            CliError::Busy {
+                folder,
+                lock,
+                holder,
+                waited,
+            } => writeln!(
+                f,
+                "error: the output folder {} is in use by another armsheet run ({}), which holds the lock {}; waited {} s, nothing written\n  = hint: run again when it has finished (make -j: let one target write a folder at a time), or give another folder with -o DIR",
+                shown(folder),
+                holder.as_deref().unwrap_or("it did not say which"),
+                shown(lock),
+                waited.as_secs()
+            ),
             CliError::Stdout(e) => writeln!(f, "error: cannot write to standard output: {e}"),
             CliError::ReadingsRead { path, source } => writeln!(
                 f,

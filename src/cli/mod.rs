@@ -16,6 +16,7 @@ pub mod armature_test;
 pub mod error;
 pub mod identify;
 mod load;
+pub mod lock;
 pub mod output;
 pub mod rewind;
 pub mod sheet;

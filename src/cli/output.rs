@@ -10,6 +10,10 @@
 //! found before anything is written. Temporary files and folders have random names and are
 //! created exclusively (`O_EXCL`), so nothing planted at a name is opened or followed.
 //!
+//! A sheet set knows its own files by the list [`SET_LIST`] written with it; staging folders
+//! are marked ([`STAGING_MARKER`]) so that only they are cleared after a killed run; `sheet`
+//! and `test -o` hold the output folder's lock ([`super::lock`]) while they write.
+//!
 //! Part of the `cli` stage, the only stage that touches the file system or the terminal.
 
 use std::collections::BTreeSet;
@@ -21,6 +25,7 @@ use std::path::{Path, PathBuf};
 use tempfile::{Builder, NamedTempFile};
 
 use super::error::{CliError, NoOverwrite};
+use super::lock::lock_folder;
 
 /// Writes `s` to standard output and flushes it. Every line the CLI prints goes through here;
 /// a failed write is returned, never a panic (a broken pipe then ends the program quietly).
@@ -115,7 +120,7 @@ pub enum EntryKind {
 }
 
 impl EntryKind {
-    fn of(t: fs::FileType) -> Self {
+    pub(crate) fn of(t: fs::FileType) -> Self {
         #[cfg(unix)]
         {
             use std::os::unix::fs::FileTypeExt;
@@ -275,10 +280,30 @@ pub fn write_new(path: &Path, bytes: &[u8], by: NoOverwrite) -> Result<(), CliEr
 /// missing. Nothing else in `dir` is moved, read or removed, so the files of another command
 /// written there (a `sheet` set) stay as they are; a run killed part way leaves each of its
 /// files whole, old or new, and at most a temporary `.<name>.XXXXXX.tmp` beside it, which the
-/// next run removes. `dir` must
-/// be absent, a folder or a symbolic link to one (see `resolve`); anything else is
-/// [`CliError::WrongKind`] and nothing is written.
-pub fn write_own_files(dir: &Path, files: &[(String, Vec<u8>)]) -> Result<(), CliError> {
+/// next run removes. The folder's lock is held throughout (see [`lock_folder`]), for the
+/// command `who`, so a `sheet` run into the same folder waits. `dir` must be absent, a folder
+/// or a symbolic link to one (see `resolve`); anything else is [`CliError::WrongKind`] and
+/// nothing is written.
+pub fn write_own_files(dir: &Path, files: &[(String, Vec<u8>)], who: &str) -> Result<(), CliError> {
+    let (real, _) = resolve(dir, EntryKind::Folder)?;
+    fs::create_dir_all(parent_of(&real)).map_err(|source| CliError::CreateDir {
+        path: dir.to_path_buf(),
+        source,
+    })?;
+    // A folder the user may write in, beside which nothing may be made (a read-only parent),
+    // is written unlocked, as before there were locks: no `sheet` run can write there either.
+    let _lock = match lock_folder(&real, dir, who) {
+        Err(CliError::Write { source, .. })
+            if matches!(
+                source.kind(),
+                io::ErrorKind::PermissionDenied | io::ErrorKind::ReadOnlyFilesystem
+            ) && real.is_dir() =>
+        {
+            None
+        }
+        other => Some(other?),
+    };
+    // Looked at again under the lock: another run may have made or replaced it meanwhile.
     let (real, exists) = resolve(dir, EntryKind::Folder)?;
     if exists {
         // Every file's place first, so a wrong one refuses before any is written.
@@ -319,27 +344,126 @@ fn clear_own_temporaries(dir: &Path, prefix: &str) {
     }
 }
 
+/// The list of a set's own files, written into the set folder with the set by
+/// [`replace_folder`]: a comment header, then one file name a line. The next run takes the
+/// files it lists (and only those) for the old set's.
+pub const SET_LIST: &str = "sheet-set.txt";
+
+/// The marker file written first into every staging (`.new`) and aside (`.old`) folder,
+/// holding the name of the folder it stages for. Only a folder holding it, naming the run's
+/// own target, is ever cleared as a killed run's leftover (or an empty folder, see
+/// `unfinished_for`); a folder of the user's that merely has such a name is never touched. (A short name: a path too long for the system then fails at
+/// the set's files as it always did, with the file named.)
+pub const STAGING_MARKER: &str = ".arm-staging";
+
+/// The marker's text for staging beside `target`: its file name and a newline.
+fn marker_text(target: &Path) -> Vec<u8> {
+    let mut v = target
+        .file_name()
+        .unwrap_or(OsStr::new("out"))
+        .as_encoded_bytes()
+        .to_vec();
+    v.push(b'\n');
+    v
+}
+
+/// True when `folder` holds the staging marker for `target` (a regular file, as
+/// [`marker_text`] writes it).
+fn marked_for(folder: &Path, target: &Path) -> bool {
+    let path = folder.join(STAGING_MARKER);
+    fs::symlink_metadata(&path).is_ok_and(|m| m.is_file() && m.len() <= 4096)
+        && fs::read(&path).is_ok_and(|b| b == marker_text(target))
+}
+
+/// True when `folder` holds nothing but the start of the staging marker for `target` (or
+/// nothing at all): what a run killed the instant after it made the folder leaves. Such a
+/// folder holds nothing of anyone's and is cleared with the marked ones.
+fn unfinished_for(folder: &Path, target: &Path) -> bool {
+    let Ok(entries) = fs::read_dir(folder) else {
+        return false;
+    };
+    let mut n = 0;
+    for entry in entries {
+        let Ok(entry) = entry else { return false };
+        n += 1;
+        let path = entry.path();
+        let start = entry.file_name() == STAGING_MARKER
+            && entry.file_type().is_ok_and(|t| t.is_file())
+            && fs::read(&path).is_ok_and(|b| marker_text(target).starts_with(&b));
+        if n > 1 || !start {
+            return false;
+        }
+    }
+    true
+}
+
+/// The text of [`SET_LIST`] for `files`.
+fn set_list(files: &[(String, Vec<u8>)]) -> String {
+    let mut s = String::from(
+        "# armsheet sheet set: the files below were written together, as one set, by `armsheet sheet`.\n\
+         # The next `sheet` run into this folder replaces them and removes those it does not write\n\
+         # again; every file not listed here (notes, `armsheet test -o` files) is kept.\n",
+    );
+    for (name, _) in files {
+        s.push_str(name);
+        s.push('\n');
+    }
+    s
+}
+
+/// The file names [`SET_LIST`] in `dir` lists; `None` when there is no list (a folder written
+/// by an armsheet before lists, or not a set). Lines that are not a plain file name (empty,
+/// a comment, a path, `.`, `..`, the marker) are skipped, so an edited list can never reach
+/// outside the folder.
+fn read_set_list(dir: &Path) -> Option<BTreeSet<OsString>> {
+    let path = dir.join(SET_LIST);
+    let meta = fs::symlink_metadata(&path).ok()?;
+    if !meta.is_file() || meta.len() > 1 << 20 {
+        return None;
+    }
+    let text = fs::read_to_string(&path).ok()?;
+    Some(
+        text.lines()
+            .map(|l| l.trim_end_matches('\r'))
+            .filter(|l| {
+                !l.is_empty()
+                    && !l.starts_with('#')
+                    && !l.contains(['/', '\\', '\0'])
+                    && !matches!(*l, "." | ".." | STAGING_MARKER)
+            })
+            .map(OsString::from)
+            .collect(),
+    )
+}
+
 /// Replaces the folder `target` with one holding exactly `files` (names inside the folder,
-/// bytes), whole or not at all.
+/// bytes) and their list [`SET_LIST`], whole or not at all, under the folder's lock (taken
+/// for the command `who`, see [`lock_folder`]).
 ///
-/// The files are written into a temporary folder `.<name>.XXXXXX.new` beside `target`. Entries
-/// of the old folder that are not in the new set are carried over (a `draw` diagram, the user's
-/// own notes), except those `is_stale` names, which go with the old set. Then the two folders
-/// are exchanged in one step (Linux `renameat2` with `RENAME_EXCHANGE`) and the staging folder,
-/// now holding the old set, is removed; where the system cannot exchange, the old folder is
-/// renamed aside (`.<name>.XXXXXX.old/set`), the new one renamed into place and the old one
-/// removed. An error at any point undoes what was done: the old folder stays as it was and no
-/// temporary folder is left.
+/// The files are written into a temporary folder `.<name>.XXXXXX.new` beside `target`, marked
+/// first with [`STAGING_MARKER`] and then the list. Entries of the old folder that are not in
+/// the new set are carried over (a `draw` diagram, `test -o` files, the user's own notes; a
+/// regular file as a second hard link, so it never leaves the old folder, see `Carried`),
+/// except the old set's own files: those its [`SET_LIST`] names, or where the old folder has
+/// no list (written before lists) those `legacy_stale` names; they go with the old set, so the
+/// folder holds one set (a `sheets.pdf` the new set does not have goes). Then the two folders
+/// are exchanged in one step (Linux `renameat2` with `RENAME_EXCHANGE`) and the staging
+/// folder, now holding the old set, is removed; where the system cannot exchange, the old
+/// folder is renamed aside (`.<name>.XXXXXX.old/set`, the aside folder marked too), the new
+/// one renamed into place and the old one removed. An error at any point undoes what was done:
+/// the old folder stays as it was and no temporary folder is left.
 ///
 /// A killed run cannot clean up, so it may leave its staging or aside folder behind; the target
 /// still holds one whole set (see `recover_stale`), and the next run into the same folder
 /// first puts back what such a folder holds that belongs to the user and removes it. Two runs
-/// into the same folder at the same time are not supported.
+/// into the same folder at the same time are kept apart by the lock: the second waits, then
+/// gives up with [`CliError::Busy`].
 /// Returns the stale entries removed, as paths in `target`, sorted.
 pub fn replace_folder(
     target: &Path,
     files: &[(String, Vec<u8>)],
-    is_stale: impl Fn(&OsStr) -> bool,
+    legacy_stale: impl Fn(&OsStr) -> bool,
+    who: &str,
 ) -> Result<Vec<PathBuf>, CliError> {
     let create_err = |source| CliError::CreateDir {
         path: target.to_path_buf(),
@@ -348,74 +472,126 @@ pub fn replace_folder(
     fs::create_dir_all(parent_of(target)).map_err(create_err)?;
     // A folder reached through a symbolic link is replaced where it really is, so the link
     // keeps pointing at the set; anything but a folder or nothing is refused (see `resolve`).
-    let (real, old_exists) = resolve(target, EntryKind::Folder)?;
+    let (real, _) = resolve(target, EntryKind::Folder)?;
+    let _lock = lock_folder(&real, target, who)?;
+    // Looked at again under the lock: another run may have made or replaced it meanwhile.
+    let (real, _) = resolve(target, EntryKind::Folder)?;
     let (user_target, target) = (target, real.as_path());
     let parent = parent_of(target);
     let prefix = temp_prefix(target);
-    let is_set = |name: &OsStr| files.iter().any(|(n, _)| OsStr::new(n) == name) || is_stale(name);
+    let list = set_list(files);
+    let mut all: Vec<(&str, &[u8])> = vec![(SET_LIST, list.as_bytes())];
+    all.extend(files.iter().map(|(n, b)| (n.as_str(), b.as_slice())));
+    let ours: BTreeSet<&OsStr> = all.iter().map(|(n, _)| OsStr::new(*n)).collect();
+    let is_set = |name: &OsStr| ours.contains(name) || legacy_stale(name);
     recover_stale(target, &prefix, is_set).map_err(create_err)?;
     // A set a killed run had moved aside may be back in place now.
-    let old_exists = old_exists || fs::symlink_metadata(target).is_ok_and(|m| m.is_dir());
+    let old_exists = fs::symlink_metadata(target).is_ok_and(|m| m.is_dir());
+    let marker = marker_text(target);
     let stage = builder(&prefix, ".new", true)
         .tempdir_in(parent)
         .map_err(create_err)?;
-    for (name, bytes) in files {
+    write_file(&stage.path().join(STAGING_MARKER), &marker)
+        .map_err(|e| CliError::write(user_target.join(STAGING_MARKER), e))?;
+    for (name, bytes) in &all {
         write_file(&stage.path().join(name), bytes)
             .map_err(|e| CliError::write(user_target.join(name), e))?;
     }
+    let unmark_new = || {
+        let _ = fs::remove_file(target.join(STAGING_MARKER));
+    };
     if !old_exists {
         fs::rename(stage.path(), target).map_err(|e| CliError::write(target, e))?;
         let _ = stage.keep();
+        unmark_new();
         return Ok(Vec::new());
     }
 
     // Carry the old folder's other entries over into the new one.
-    let ours: BTreeSet<&OsStr> = files.iter().map(|(n, _)| OsStr::new(n.as_str())).collect();
+    let old_list = read_set_list(target);
     let mut carried = Carried {
         from: target,
         to: stage.path(),
-        names: Vec::new(),
+        moved: Vec::new(),
     };
     let mut stale = Vec::new();
     for entry in fs::read_dir(target).map_err(|e| CliError::write(target, e))? {
-        let name = entry.map_err(|e| CliError::write(target, e))?.file_name();
-        if ours.contains(name.as_os_str()) {
+        let entry = entry.map_err(|e| CliError::write(target, e))?;
+        let name = entry.file_name();
+        // A marker left in the set by a run killed just after its swap goes with the old set.
+        if ours.contains(name.as_os_str()) || name == STAGING_MARKER {
             continue;
         }
-        if is_stale(&name) {
+        let old_sets = match &old_list {
+            Some(l) => l.contains(&name),
+            None => legacy_stale(&name),
+        };
+        if old_sets && entry.file_type().is_ok_and(|t| t.is_file()) {
             stale.push(user_target.join(&name));
             continue;
         }
         carried.carry(name)?;
     }
 
+    // The old folder is marked too before the swap, so that if the run is killed once the old
+    // set lies in the staging folder's place, the next run still knows that folder for its own.
+    let old_marker = target.join(STAGING_MARKER);
+    let unmark_old = || {
+        let _ = fs::remove_file(&old_marker);
+    };
+    let _ = fs::remove_file(&old_marker);
+    write_file(&old_marker, &marker).map_err(|e| carried.undo(CliError::write(target, e)))?;
+
     // The swap: one exchange where the system has it; the old set then goes with the stage.
     match exchange(stage.path(), target) {
         Ok(true) => {
+            unmark_new();
             let _ = stage.close();
             stale.sort();
             return Ok(stale);
         }
         Ok(false) => {}
-        Err(e) => return Err(carried.undo(CliError::write(target, e))),
-    }
-    let aside = builder(&prefix, ".old", true)
-        .tempdir_in(parent)
-        .map_err(|e| carried.undo(create_err(e)))?;
-    let old = aside.path().join("set");
-    fs::rename(target, &old).map_err(|e| carried.undo(CliError::write(target, e)))?;
-    if let Err(e) = fs::rename(stage.path(), target) {
-        if fs::rename(&old, target).is_err() {
-            // Never delete the only copy of the old set: leave it where it is.
-            let _ = aside.keep();
+        Err(e) => {
+            unmark_old();
+            return Err(carried.undo(CliError::write(target, e)));
         }
-        return Err(carried.undo(CliError::write(target, e)));
+    }
+    if let Err(e) = swap_aside(target, stage.path(), &prefix, &marker) {
+        unmark_old();
+        return Err(carried.undo(e));
     }
     let _ = stage.keep();
-    // The old set goes; if it cannot be removed it is at least out of the way.
-    let _ = aside.close();
+    unmark_new();
     stale.sort();
     Ok(stale)
+}
+
+/// The swap where the system cannot exchange two folders in one step: the old folder `target`
+/// is renamed aside into a marked folder `.<name>.XXXXXX.old/set`, the staged one `stage`
+/// renamed into place and the aside folder removed. On an error the old folder is put back
+/// (or, if even that fails, left in the marked aside folder for the next run to put back).
+fn swap_aside(target: &Path, stage: &Path, prefix: &str, marker: &[u8]) -> Result<(), CliError> {
+    let create_err = |source| CliError::CreateDir {
+        path: target.to_path_buf(),
+        source,
+    };
+    let aside = builder(prefix, ".old", true)
+        .tempdir_in(parent_of(target))
+        .map_err(create_err)?;
+    write_file(&aside.path().join(STAGING_MARKER), marker).map_err(create_err)?;
+    let old = aside.path().join("set");
+    fs::rename(target, &old).map_err(|e| CliError::write(target, e))?;
+    if let Err(e) = fs::rename(stage, target) {
+        if fs::rename(&old, target).is_err() {
+            // Never delete the only copy of the old set: leave it where it is (marked, so the
+            // next run puts it back).
+            let _ = aside.keep();
+        }
+        return Err(CliError::write(target, e));
+    }
+    // The old set goes; if it cannot be removed it is at least out of the way.
+    let _ = aside.close();
+    Ok(())
 }
 
 /// Swaps the folders `a` and `b` in one step (`renameat2` with `RENAME_EXCHANGE`), so that no
@@ -438,14 +614,17 @@ fn exchange(_: &Path, _: &Path) -> io::Result<bool> {
 }
 
 /// Clears what killed runs left beside `target`: folders named `<prefix>XXXXXX.old` or
-/// `<prefix>XXXXXX.new` (six random characters, as this module makes them).
+/// `<prefix>XXXXXX.new` (six random characters, as this module makes them) that hold the
+/// [`STAGING_MARKER`] naming `target`, or nothing but the start of it. A folder with such a name but no marker (the user's,
+/// a set written from a design named `.hoist-lap.pump01.new.toml`, another target's staging)
+/// is left alone. Runs under the folder's lock, so no live staging folder is ever taken.
 ///
 /// An `.old` folder was the old set moved aside for the two-rename swap; if the kill came
 /// before the new set was in place, `target` is missing and the old set goes back. A `.new`
 /// folder was a staging folder: killed while it was being filled it holds part of a new set
 /// and possibly entries carried from `target` (the user's); killed after the exchange it holds
-/// the old set. Entries that are not `is_set` names and that `target` lacks go back into
-/// `target`; the rest goes with the folder.
+/// the old set. Entries that are neither `is_set` names nor listed in the folder's own
+/// [`SET_LIST`], and that `target` lacks, go back into `target`; the rest goes with the folder.
 fn recover_stale(target: &Path, prefix: &str, is_set: impl Fn(&OsStr) -> bool) -> io::Result<()> {
     let parent = parent_of(target);
     let mut found: Vec<(bool, PathBuf)> = Vec::new();
@@ -460,7 +639,10 @@ fn recover_stale(target: &Path, prefix: &str, is_set: impl Fn(&OsStr) -> bool) -
             (_, Some(r)) if r.len() == 6 => false,
             _ => continue,
         };
-        if entry.file_type()?.is_dir() {
+        let path = entry.path();
+        if entry.file_type()?.is_dir()
+            && (marked_for(&path, target) || unfinished_for(&path, target))
+        {
             found.push((old, entry.path()));
         }
     }
@@ -471,12 +653,19 @@ fn recover_stale(target: &Path, prefix: &str, is_set: impl Fn(&OsStr) -> bool) -
             let set = folder.join("set");
             if fs::symlink_metadata(target).is_err() && set.is_dir() {
                 fs::rename(&set, target)?;
+                // Marked before the swap that was cut short.
+                let _ = fs::remove_file(target.join(STAGING_MARKER));
             }
         } else if target.is_dir() {
+            let listed = read_set_list(&folder).unwrap_or_default();
             for entry in fs::read_dir(&folder)? {
                 let name = entry?.file_name();
                 let back = target.join(&name);
-                if !is_set(&name) && fs::symlink_metadata(&back).is_err() {
+                let set_file = is_set(&name)
+                    || listed.contains(&name)
+                    || name == SET_LIST
+                    || name == STAGING_MARKER;
+                if !set_file && fs::symlink_metadata(&back).is_err() {
                     fs::rename(folder.join(&name), back)?;
                 }
             }
@@ -486,29 +675,41 @@ fn recover_stale(target: &Path, prefix: &str, is_set: impl Fn(&OsStr) -> bool) -
     Ok(())
 }
 
-/// Entries moved from the old folder into the staged one, so they can be moved back.
+/// Entries carried from the old folder into the staged one, so they can be moved back.
+///
+/// A regular file is carried as a second hard link, so it stays in the old folder too: a run
+/// killed before its swap leaves every such file (`test -o`'s, the user's notes) where it was.
+/// Anything else (a sub-folder, a link), or a file the system will not link, is moved.
 struct Carried<'a> {
     from: &'a Path,
     to: &'a Path,
-    names: Vec<OsString>,
+    /// The names moved (not linked), to be moved back on an error.
+    moved: Vec<OsString>,
 }
 
 impl Carried<'_> {
-    /// Moves `name` over; on failure moves back what was moved.
+    /// Links or moves `name` over; on failure moves back what was moved.
     fn carry(&mut self, name: OsString) -> Result<(), CliError> {
         let from = self.from.join(&name);
-        match fs::rename(&from, self.to.join(&name)) {
+        let to = self.to.join(&name);
+        if fs::symlink_metadata(&from).is_ok_and(|m| m.file_type().is_file())
+            && fs::hard_link(&from, &to).is_ok()
+        {
+            return Ok(());
+        }
+        match fs::rename(&from, to) {
             Ok(()) => {
-                self.names.push(name);
+                self.moved.push(name);
                 Ok(())
             }
             Err(e) => Err(self.undo(CliError::write(from, e))),
         }
     }
 
-    /// Moves everything back (as far as the system lets it) and returns `err`.
+    /// Moves everything moved back (as far as the system lets it) and returns `err`; the
+    /// linked files never left.
     fn undo(&mut self, err: CliError) -> CliError {
-        for name in self.names.drain(..).rev() {
+        for name in self.moved.drain(..).rev() {
             let _ = fs::rename(self.to.join(&name), self.from.join(&name));
         }
         err

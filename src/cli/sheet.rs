@@ -16,7 +16,7 @@ use clap::Args;
 use super::Outcome;
 use super::error::{CliError, shown};
 use super::load::load_design;
-use super::output::{print_stdout, replace_folder, write_atomic};
+use super::output::{SET_LIST, print_stdout, replace_folder, write_atomic};
 use crate::features::armature_test::{TestOptions, expected};
 use crate::layout::{Paper, SheetOptions, Window, draw_page, sheet_pages};
 use crate::render::json::report_json;
@@ -122,11 +122,15 @@ boxes, the connection table with the winding sequence, the equalizer table, the 
 sign-off sheets with the expected bar-to-bar readings of `armsheet test` and boxes for the
 measured ones and, when sheet 1 cannot hold it all, the winding data in full; each page's
 root <svg> names itself in data-page), connections.csv (one record per coil position), job.csv (the job they
-belong to, once), report.json (the `check --json` object) and, with --pdf, sheets.pdf.
+belong to, once), report.json (the `check --json` object), with --pdf sheets.pdf, and
+sheet-set.txt (the list of the set's own files). The README's \"Output files\" gives each format.
 Sheets are sized in mm and print at true scale. A design that fails a check is still drawn,
 under a NOT FOR WINDING band.
 The set is written whole or not at all: it is made in a temporary folder beside DIR/<design-stem>
-and then swapped into place; other files already in that folder are kept.
+and then swapped into place. A file of the older set that the new one lacks (sheets.pdf of an
+earlier --pdf run) goes; every file the older set's list does not name (`test -o` files, notes)
+is kept. One run at a time writes a folder: a second run (`sheet` or `test -o`) waits up to
+5 s for the lock DIR/.<design-stem>.lock, then exits 2 naming the run that holds it.
 ",
     super::error::exit_codes_help!()
 );
@@ -186,9 +190,14 @@ pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
         report_json(&checked).into_bytes(),
     ));
     all.append(&mut files);
-    let removed = replace_folder(&dir, &all, |name| is_stale_sheet(name, count))?;
+    let removed = replace_folder(
+        &dir,
+        &all,
+        |name| is_stale_sheet(name, count) || name == "sheets.pdf",
+        "sheet",
+    )?;
     let mut said = String::new();
-    for (name, _) in &all {
+    for name in all.iter().map(|(n, _)| n.as_str()).chain([SET_LIST]) {
         let _ = writeln!(said, "wrote {}", shown(&dir.join(name)));
     }
     for p in removed {
@@ -199,7 +208,8 @@ pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
 }
 
 /// `sheet-K.svg` with K above this run's `count`: left by an earlier run with more sheets, so
-/// it goes with the old set and the folder holds one set.
+/// it goes with the old set and the folder holds one set. Only asked of a folder written by an
+/// armsheet before set lists (no `sheet-set.txt`); otherwise the list names the old set.
 fn is_stale_sheet(name: &OsStr, count: usize) -> bool {
     name.to_str()
         .and_then(|n| n.strip_prefix("sheet-"))

@@ -140,3 +140,43 @@ fn help_explains_keys_and_conventions() {
     let out = armsheet(&["frobnicate"]);
     assert_eq!(out.status.code(), Some(2));
 }
+
+/// Every help names the three connections where it names two: no `--help` says "lap and
+/// wave" (or "lap or wave") without frog-leg beside it.
+#[test]
+fn no_help_leaves_out_the_frog_leg() {
+    for command in [
+        "", "check", "new", "rewind", "sheet", "draw", "identify", "test",
+    ] {
+        let args: Vec<&str> = [command, "--help"]
+            .into_iter()
+            .filter(|a| !a.is_empty())
+            .collect();
+        let out = armsheet(&args);
+        assert_eq!(out.status.code(), Some(0), "{command}");
+        let help = String::from_utf8(out.stdout).unwrap().replace('\n', " ");
+        for two in ["lap and wave", "lap or wave", "lap, wave)"] {
+            assert!(
+                !help.to_lowercase().contains(two),
+                "`armsheet {command} --help` says \"{two}\": {help}"
+            );
+        }
+    }
+    let top = armsheet(&["--help"]);
+    assert!(String::from_utf8_lossy(&top.stdout).contains("lap, wave and frog-leg"));
+}
+
+/// The README tells a new user how to get the `armsheet` command its tables use, and its
+/// quick start shows the PDF.
+#[test]
+fn the_readme_says_how_to_get_the_command() {
+    let readme = include_str!("../../README.md");
+    assert!(readme.contains("cargo install --path ."));
+    assert!(readme.contains("target/release/armsheet"));
+    let quick = &readme[..readme.find("## Commands").unwrap()];
+    assert!(
+        quick.contains("sheet designs/hoist-lap.toml --pdf"),
+        "{quick}"
+    );
+    assert!(readme.contains("## Output files"));
+}

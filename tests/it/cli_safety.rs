@@ -323,8 +323,8 @@ fn planted_links_at_predictable_temporary_names_are_not_followed() {
     write_atomic(&dir.join("out.toml"), b"replaced = 2\n").unwrap();
     write_new(&dir.join("new.toml"), b"new = 1\n", NoOverwrite::New).unwrap();
     let files = vec![("a.txt".to_string(), b"a".to_vec())];
-    replace_folder(&dir.join("set"), &files, |_| false).unwrap();
-    replace_folder(&dir.join("set"), &files, |_| false).unwrap();
+    replace_folder(&dir.join("set"), &files, |_| false, "sheet").unwrap();
+    replace_folder(&dir.join("set"), &files, |_| false, "sheet").unwrap();
 
     assert_eq!(fs::read_to_string(&victim).unwrap(), "untouched");
     assert!(names(&victim_dir).is_empty(), "{:?}", names(&victim_dir));
@@ -340,7 +340,7 @@ fn planted_links_at_predictable_temporary_names_are_not_followed() {
         fs::read_to_string(dir.join("new.toml")).unwrap(),
         "new = 1\n"
     );
-    assert_eq!(names(&dir.join("set")), ["a.txt"]);
+    assert_eq!(names(&dir.join("set")), ["a.txt", "sheet-set.txt"]);
     // Nothing else appeared: every temporary file and folder went.
     let mut want: Vec<String> = planted
         .iter()

@@ -23,11 +23,15 @@ use crate::support::mutate::Rng;
 
 const BIN: &str = env!("CARGO_BIN_EXE_armsheet");
 const STEM: &str = "mill-lap-12p";
+/// The marker armsheet writes first into its staging and aside folders.
+const MARKER: &str = ".arm-staging";
 
-/// The files of a folder, by name, with their bytes (sub-folders are not expected).
+/// The files of a folder, by name, with their bytes (sub-folders are not expected), less the
+/// staging marker a run killed just after its swap leaves in the set (the next run drops it).
 fn read_set(dir: &Path) -> BTreeMap<String, Vec<u8>> {
     fs::read_dir(dir)
         .unwrap()
+        .filter(|e| e.as_ref().unwrap().file_name() != MARKER)
         .map(|e| {
             let e = e.unwrap();
             assert!(e.file_type().unwrap().is_file(), "{:?}", e.path());
@@ -59,11 +63,14 @@ fn litter(out: &Path) -> Vec<String> {
     v
 }
 
-/// A staging (`.new`) or aside (`.old`) folder name of the set folder.
+/// A staging (`.new`) or aside (`.old`) folder name of the set folder, or its lock file (left,
+/// unlocked, by a killed run).
 fn is_staging(name: &str) -> bool {
-    name.strip_prefix(&format!(".{STEM}."))
-        .and_then(|r| r.strip_suffix(".new").or_else(|| r.strip_suffix(".old")))
-        .is_some_and(|r| r.len() == 6)
+    name == format!(".{STEM}.lock")
+        || name
+            .strip_prefix(&format!(".{STEM}."))
+            .and_then(|r| r.strip_suffix(".new").or_else(|| r.strip_suffix(".old")))
+            .is_some_and(|r| r.len() == 6)
 }
 
 fn sheet_command(out: &Path, paper: &str) -> Command {
@@ -151,7 +158,9 @@ fn a_killed_sheet_run_leaves_the_old_set_or_the_new_one() {
             "run {i}: litter beside the set: {left:?}"
         );
         most_litter = most_litter.max(left.len());
-        let made_staging = left.iter().any(|n| !litter_before.contains(n));
+        let made_staging = left
+            .iter()
+            .any(|n| !litter_before.contains(n) && !n.ends_with(".lock"));
         if now == new {
             if finished {
                 assert!(status.success(), "run {i}: {status}");
@@ -213,23 +222,32 @@ fn the_next_run_clears_what_a_killed_run_left() {
     // Killed while staging: part of a new set and the user's notes, carried out of the set.
     let stage = out.join(".sheet_lap.AbC123.new");
     fs::create_dir_all(&stage).unwrap();
+    fs::write(stage.join(MARKER), "sheet_lap\n").unwrap();
     fs::write(stage.join("sheet-1.svg"), "half").unwrap();
     fs::write(stage.join("notes.txt"), "the user's").unwrap();
     // Killed after a two-rename swap had moved the old set aside and put the new one in place.
     let aside = out.join(".sheet_lap.xyZ789.old");
     fs::create_dir_all(aside.join("set")).unwrap();
+    fs::write(aside.join(MARKER), "sheet_lap\n").unwrap();
     fs::write(aside.join("set/sheet-1.svg"), "old").unwrap();
-    // Not ours: other names are left alone.
+    // Not ours: other names, and our names without our marker, are left alone.
     let other = [
         out.join(".sheet_lap.toolong1.new"),
         out.join(".other.AbC123.new"),
+        out.join(".sheet_lap.QqQ111.new"),
+        out.join(".sheet_lap.RrR222.old"),
     ];
     for o in &other {
         fs::create_dir_all(o).unwrap();
     }
+    for o in &other {
+        fs::write(o.join("mine.txt"), "the user's").unwrap();
+    }
+    fs::write(other[3].join(MARKER), "other\n").unwrap();
     run();
     assert!(!stage.exists() && !aside.exists());
     assert!(other.iter().all(|o| o.is_dir()));
+    assert!(!set.join(MARKER).exists());
     let mut now = read_set(&set);
     assert_eq!(now.remove("notes.txt").as_deref(), Some(&b"the user's"[..]));
     assert_eq!(now, whole);
@@ -245,6 +263,8 @@ fn a_set_moved_aside_comes_back() {
     let out = root.join("o");
     let aside: PathBuf = out.join(".sheet_lap.Q1w2E3.old");
     fs::create_dir_all(aside.join("set")).unwrap();
+    fs::write(aside.join(MARKER), "sheet_lap\n").unwrap();
+    fs::write(aside.join("set").join(MARKER), "sheet_lap\n").unwrap();
     fs::write(aside.join("set/notes.txt"), "keep").unwrap();
     fs::write(aside.join("set/sheet-9.svg"), "stale").unwrap();
     let o = support::armsheet_in(&["sheet", &design, "-o", "o"], &root);
@@ -253,6 +273,7 @@ fn a_set_moved_aside_comes_back() {
     let set = out.join("sheet_lap");
     assert_eq!(fs::read_to_string(set.join("notes.txt")).unwrap(), "keep");
     assert!(!set.join("sheet-9.svg").exists(), "stale sheets go");
+    assert!(!set.join(MARKER).exists());
     assert!(litter_of(&out).is_empty(), "{:?}", litter_of(&out));
 }
 

@@ -47,6 +47,7 @@ mod rule_cases;
 mod sheet_cli;
 mod sheet_pdf;
 mod sheet_render;
+mod sheet_set;
 mod sheet_snapshots;
 mod sheet_structure;
 mod shop_pages;

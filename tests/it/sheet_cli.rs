@@ -49,6 +49,7 @@ fn sheet_writes_every_file_and_says_so() {
         "job.csv",
         "report.json",
         "sheets.pdf",
+        "sheet-set.txt",
     ];
     let lines: Vec<&str> = out.lines().collect();
     assert_eq!(lines.len(), names.len(), "{out}");
