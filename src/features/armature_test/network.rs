@@ -4,8 +4,11 @@
 //! resistances between bars out. Each active coil is a resistor of one coil resistance between
 //! its start bar and its end bar; dummy coils are left out; an equalizer is an ideal connection,
 //! so the bars it ties are one node. Each connected part of the network has one node grounded
-//! (left out of the matrix), so the reduced Laplacian is positive definite and its Cholesky
-//! factor gives every effective resistance: R(a, b) = (e_a − e_b)ᵀ L⁻¹ (e_a − e_b).
+//! (left out of the matrix), so the reduced Laplacian is positive definite:
+//! R(a, b) = (e_a − e_b)ᵀ L⁻¹ (e_a − e_b). [`Network::effective`] reads a ring or chain part
+//! off the resistance along it and every other part off one selected inverse, so all the
+//! readings of an armature cost about one factorization (docs/domain.md, "Solving the
+//! bar-to-bar network").
 
 use std::collections::BTreeMap;
 
@@ -248,7 +251,7 @@ impl Network {
     /// No pair costs a solve of its own (docs/domain.md, "Solving the bar-to-bar network"): a
     /// pair on a part that is a simple cycle or path is read off the resistance along it, and
     /// the pairs on every other part come from one factorization and its selected inverse
-    /// ([`selected`]), O(fill) for all of them together.
+    /// (the `selected` module), O(fill) for all of them together.
     pub fn effective(&self, pairs: &[(u32, u32)]) -> Vec<Option<f64>> {
         let key = |&(a, b): &(u32, u32)| {
             let (x, y) = (self.node(a), self.node(b));
@@ -344,7 +347,7 @@ impl Network {
     /// [`Network::effective`] of the same pairs) and one solve: changing a coil's
     /// conductance g by δ between nodes u and v is the rank-one update K + δ·w·wᵀ
     /// (w = e_u − e_v), so by Sherman–Morrison R'(a, b) = R(a, b) − δ·(φ_a − φ_b)²/(1 + δ·R(u, v)),
-    /// with φ the potentials of a unit current fed in at u and out at v [derived].
+    /// with φ the potentials of a unit current fed in at u and out at v \[derived\].
     pub fn effective_with_coil(
         &self,
         pairs: &[(u32, u32)],
@@ -545,6 +548,8 @@ mod selected {
     use faer::sparse::SymbolicSparseColMatRef;
     use faer::sparse::linalg::amd;
 
+    const NONE: usize = usize::MAX;
+
     /// The inverse Z on the pattern of the factor L (unit lower triangular, rows of each
     /// column ascending), in the elimination order.
     pub(super) struct SelectedInverse {
@@ -620,108 +625,9 @@ mod selected {
                     fill[c] += 1;
                 }
             }
-            let d_of = |k: usize| diagonal[order[k]];
-            // Symbolic: the elimination tree and the count of each column of L.
-            const NONE: usize = usize::MAX;
-            let mut parent = vec![NONE; n];
-            let mut flag = vec![NONE; n];
-            let mut count = vec![0usize; n];
-            for k in 0..n {
-                flag[k] = k;
-                for &(mut i, _) in &upper[upper_ptr[k]..upper_ptr[k + 1]] {
-                    while flag[i] != k {
-                        if parent[i] == NONE {
-                            parent[i] = k;
-                        }
-                        count[i] += 1;
-                        flag[i] = k;
-                        i = parent[i];
-                    }
-                }
-            }
-            let mut col = vec![0usize; n + 1];
-            for k in 0..n {
-                col[k + 1] = col[k] + count[k];
-            }
-            // Numeric, row by row of L (up-looking): L's columns fill in ascending rows.
-            let nnz = col[n];
-            let mut row = vec![0usize; nnz];
-            let mut l = vec![0.0f64; nnz];
-            let mut d = vec![0.0f64; n];
-            let mut y = vec![0.0f64; n];
-            let mut len = vec![0usize; n];
-            let mut stack = vec![0usize; n];
-            flag.fill(NONE);
-            for k in 0..n {
-                let mut top = n;
-                flag[k] = k;
-                for &(i0, v) in &upper[upper_ptr[k]..upper_ptr[k + 1]] {
-                    y[i0] += v;
-                    let mut i = i0;
-                    let mut depth = 0;
-                    while flag[i] != k {
-                        stack[depth] = i;
-                        depth += 1;
-                        flag[i] = k;
-                        i = parent[i];
-                    }
-                    while depth > 0 {
-                        depth -= 1;
-                        top -= 1;
-                        stack.swap(top, depth);
-                    }
-                }
-                let mut dk = d_of(k);
-                for &i in &stack[top..n] {
-                    let yi = y[i];
-                    y[i] = 0.0;
-                    let end = col[i] + len[i];
-                    for p in col[i]..end {
-                        y[row[p]] -= l[p] * yi;
-                    }
-                    let lki = yi / d[i];
-                    dk -= lki * yi;
-                    row[end] = k;
-                    l[end] = lki;
-                    len[i] += 1;
-                }
-                d[k] = dk;
-            }
-            // Takahashi: with K = L·D·Lᵀ, Lᵀ·Z = D⁻¹·L⁻¹ is lower triangular with diagonal D⁻¹,
-            // so for j from the last column down, with R_j the rows of column j:
-            // Z_kj = −Σ_{i∈R_j} L_ij·Z_ik (k ∈ R_j) and Z_jj = 1/d_j − Σ_{k∈R_j} L_kj·Z_kj
-            // [derived]; every Z_ik it reads is on L's pattern (R_j is a clique of the filled
-            // graph) and already known.
-            let mut z = vec![0.0f64; nnz];
-            let mut z_diagonal = vec![0.0f64; n];
-            let mut slot = vec![NONE; n];
-            let mut acc = vec![0.0f64; n];
-            for j in (0..n).rev() {
-                let cols = col[j]..col[j + 1];
-                for (t, p) in cols.clone().enumerate() {
-                    slot[row[p]] = t;
-                    acc[t] = 0.0;
-                }
-                for (t, p) in cols.clone().enumerate() {
-                    let (k, lkj) = (row[p], l[p]);
-                    acc[t] += z_diagonal[k] * lkj;
-                    for q in col[k]..col[k + 1] {
-                        let s = slot[row[q]];
-                        if s != NONE {
-                            // Z_ik with i = row[q] > k, both in R_j.
-                            acc[s] += z[q] * lkj;
-                            acc[t] += z[q] * l[col[j] + s];
-                        }
-                    }
-                }
-                let mut zjj = 1.0 / d[j];
-                for (t, p) in cols.clone().enumerate() {
-                    z[p] = -acc[t];
-                    zjj += l[p] * acc[t];
-                    slot[row[p]] = NONE;
-                }
-                z_diagonal[j] = zjj;
-            }
+            let diagonal: Vec<f64> = order.iter().map(|&old| diagonal[old]).collect();
+            let (col, row, l, d) = factor(&upper_ptr, &upper, &diagonal);
+            let (z, z_diagonal) = takahashi(&col, &row, &l, &d);
             SelectedInverse {
                 order_of,
                 col,
@@ -744,5 +650,125 @@ mod selected {
                 .expect("the pair is on the factor's pattern");
             self.z[self.col[c] + at]
         }
+    }
+
+    /// The LDLᵀ factor of the matrix with the strictly upper entries `upper` (by columns, from
+    /// `upper_ptr`) and `diagonal`: L's column starts, rows (ascending in each column) and
+    /// values below the diagonal, and D.
+    #[allow(clippy::type_complexity)]
+    fn factor(
+        upper_ptr: &[usize],
+        upper: &[(usize, f64)],
+        diagonal: &[f64],
+    ) -> (Vec<usize>, Vec<usize>, Vec<f64>, Vec<f64>) {
+        let n = diagonal.len();
+        // Symbolic: the elimination tree and the count of each column of L.
+        let mut parent = vec![NONE; n];
+        let mut flag = vec![NONE; n];
+        let mut count = vec![0usize; n];
+        for k in 0..n {
+            flag[k] = k;
+            for &(mut i, _) in &upper[upper_ptr[k]..upper_ptr[k + 1]] {
+                while flag[i] != k {
+                    if parent[i] == NONE {
+                        parent[i] = k;
+                    }
+                    count[i] += 1;
+                    flag[i] = k;
+                    i = parent[i];
+                }
+            }
+        }
+        let mut col = vec![0usize; n + 1];
+        for k in 0..n {
+            col[k + 1] = col[k] + count[k];
+        }
+        // Numeric, row by row of L (up-looking): L's columns fill in ascending rows.
+        let nnz = col[n];
+        let mut row = vec![0usize; nnz];
+        let mut l = vec![0.0f64; nnz];
+        let mut d = vec![0.0f64; n];
+        let mut y = vec![0.0f64; n];
+        let mut len = vec![0usize; n];
+        let mut stack = vec![0usize; n];
+        flag.fill(NONE);
+        for k in 0..n {
+            let mut top = n;
+            flag[k] = k;
+            for &(i0, v) in &upper[upper_ptr[k]..upper_ptr[k + 1]] {
+                y[i0] += v;
+                let mut i = i0;
+                let mut depth = 0;
+                while flag[i] != k {
+                    stack[depth] = i;
+                    depth += 1;
+                    flag[i] = k;
+                    i = parent[i];
+                }
+                while depth > 0 {
+                    depth -= 1;
+                    top -= 1;
+                    stack.swap(top, depth);
+                }
+            }
+            let mut dk = diagonal[k];
+            for &i in &stack[top..n] {
+                let yi = y[i];
+                y[i] = 0.0;
+                let end = col[i] + len[i];
+                for p in col[i]..end {
+                    y[row[p]] -= l[p] * yi;
+                }
+                let lki = yi / d[i];
+                dk -= lki * yi;
+                row[end] = k;
+                l[end] = lki;
+                len[i] += 1;
+            }
+            d[k] = dk;
+        }
+        (col, row, l, d)
+    }
+
+    /// Z on L's pattern and Z's diagonal, from the factor.
+    fn takahashi(col: &[usize], row: &[usize], l: &[f64], d: &[f64]) -> (Vec<f64>, Vec<f64>) {
+        let n = d.len();
+        let nnz = row.len();
+        // Takahashi: with K = L·D·Lᵀ, Lᵀ·Z = D⁻¹·L⁻¹ is lower triangular with diagonal D⁻¹,
+        // so for j from the last column down, with R_j the rows of column j:
+        // Z_kj = −Σ_{i∈R_j} L_ij·Z_ik (k ∈ R_j) and Z_jj = 1/d_j − Σ_{k∈R_j} L_kj·Z_kj
+        // [derived]; every Z_ik it reads is on L's pattern (R_j is a clique of the filled
+        // graph) and already known.
+        let mut z = vec![0.0f64; nnz];
+        let mut z_diagonal = vec![0.0f64; n];
+        let mut slot = vec![NONE; n];
+        let mut acc = vec![0.0f64; n];
+        for j in (0..n).rev() {
+            let cols = col[j]..col[j + 1];
+            for (t, p) in cols.clone().enumerate() {
+                slot[row[p]] = t;
+                acc[t] = 0.0;
+            }
+            for (t, p) in cols.clone().enumerate() {
+                let (k, lkj) = (row[p], l[p]);
+                acc[t] += z_diagonal[k] * lkj;
+                for q in col[k]..col[k + 1] {
+                    let s = slot[row[q]];
+                    if s != NONE {
+                        // Z_ik with i = row[q] > k, both in R_j.
+                        acc[s] += z[q] * lkj;
+                        acc[t] += z[q] * l[col[j] + s];
+                    }
+                }
+            }
+            let mut zjj = 1.0 / d[j];
+            for (t, p) in cols.clone().enumerate() {
+                z[p] = -acc[t];
+                zjj += l[p] * acc[t];
+                slot[row[p]] = NONE;
+            }
+            z_diagonal[j] = zjj;
+        }
+        (z, z_diagonal)
     }
 }
