@@ -1,6 +1,10 @@
 //! Armature-test benchmarks (divan): the expected readings of a 10,000-bar lap with an
-//! equalizer on every bar, and the fault locator ranking every single-fault hypothesis on the
-//! largest demo (12 poles, 1,056 bars) against readings with one open coil.
+//! equalizer on every bar; the expected readings of the largest designs armsheet accepts
+//! (`benches/frog-leg-19000.toml`, `benches/lap-20000-equalized.toml`,
+//! `benches/wave-18998.toml`) beside `check --json` of the same design, the yardstick of
+//! issue 19 (all expected readings within 20 times it); and the fault locator ranking every
+//! single-fault hypothesis on the largest demo (12 poles, 1,056 bars) against readings with
+//! one open coil.
 //!
 //! Run: `cargo bench --bench armature_test`.
 
@@ -20,6 +24,34 @@ fn expected_readings_10000_bar_lap_full_equalizers(b: divan::Bencher) {
     let c = check(parse_design(BIG_LAP, "big.toml").unwrap());
     assert_eq!(c.winding.active_coils, 10_000);
     b.bench(|| expected(&c.design, &c.winding, &TestOptions::default()));
+}
+
+/// The largest accepted designs, by file stem under `benches/`.
+const LARGEST: [&str; 3] = ["frog-leg-19000", "lap-20000-equalized", "wave-18998"];
+
+fn bench_design(name: &str) -> (String, String) {
+    let path = format!("{}/benches/{name}.toml", env!("CARGO_MANIFEST_DIR"));
+    (std::fs::read_to_string(&path).unwrap(), path)
+}
+
+/// Every expected reading (neighbouring and within-winding pairs, pattern, drop test and a
+/// frog-leg's element pattern) of a checked design, as `armsheet test` computes them.
+#[divan::bench(args = LARGEST, sample_count = 10)]
+fn expected_readings_largest(b: divan::Bencher, name: &str) {
+    let (text, path) = bench_design(name);
+    let c = check(parse_design(&text, &path).unwrap());
+    b.bench(|| expected(&c.design, &c.winding, &TestOptions::default()));
+}
+
+/// Parse, trace, check and write JSON to a sink, as `armsheet check --json` does after reading
+/// the file: the yardstick for [`expected_readings_largest`] on the same design.
+#[divan::bench(args = LARGEST, sample_count = 10)]
+fn check_json_largest(b: divan::Bencher, name: &str) {
+    let (text, path) = bench_design(name);
+    b.bench(|| {
+        let d = parse_design(divan::black_box(&text), &path).unwrap();
+        armsheet::render::json::write_report_json(&check(d), std::io::sink()).unwrap()
+    });
 }
 
 fn mill_readings() -> (armsheet::Checked, String) {

@@ -362,8 +362,9 @@ pub fn expected(design: &Design, winding: &Winding, options: &TestOptions) -> Ar
     test
 }
 
-/// [`ElementsPattern`], from three more solves of the network: the lap element alone, and the
-/// winding with one lap coil and one wave coil opened (a resistance 10⁶ times a coil's).
+/// [`ElementsPattern`]: the lap element alone (a network of its own), and the winding with one
+/// lap coil and one wave coil opened (a resistance 10⁶ times a coil's), each a rank-one update
+/// of the solved network ([`Network::effective_with_coil`], one solve each).
 fn elements_pattern(w: &Winding, t: &ArmatureTest, scale: f64) -> ElementsPattern {
     let pairs = neighbour_pairs(t.bars);
     let mean = |v: &[Option<f64>]| {
@@ -371,6 +372,7 @@ fn elements_pattern(w: &Winding, t: &ArmatureTest, scale: f64) -> ElementsPatter
         x.iter().sum::<f64>() / x.len().max(1) as f64
     };
     let base: Vec<Option<f64>> = t.readings.iter().map(|r| r.expected).collect();
+    let unscaled: Vec<Option<f64>> = base.iter().map(|r| r.map(|x| x / scale)).collect();
     let lap = &w.elements[0];
     let lap_coils: Vec<NetCoil> = t
         .network
@@ -381,16 +383,10 @@ fn elements_pattern(w: &Winding, t: &ArmatureTest, scale: f64) -> ElementsPatter
         .collect();
     let lap_alone = Network::new(t.bars, lap_coils, &[]).effective(&pairs);
     let moved = |coil: u32| {
-        let coils: Vec<NetCoil> = t
-            .network
-            .coils
-            .iter()
-            .map(|c| NetCoil {
-                resistance: if c.coil == coil { 1e6 } else { c.resistance },
-                ..*c
-            })
-            .collect();
-        let open = Network::new(t.bars, coils, &[]).effective(&pairs);
+        let open = match t.network.coils.iter().position(|c| c.coil == coil) {
+            Some(i) => t.network.effective_with_coil(&pairs, &unscaled, i, 1e6),
+            None => unscaled.clone(),
+        };
         open.iter()
             .zip(&base)
             .filter(|(o, b)| match (o, b) {
