@@ -18,6 +18,9 @@ use super::font::Weight;
 pub const TEXT_FLOOR: f64 = 2.5;
 /// The font size of table bodies and the winding-data block, mm.
 pub const BODY_TEXT: f64 = 3.5;
+/// The font size of the compact winding-data block of sheet 1, mm (between the floor and
+/// the body size).
+pub const COMPACT_TEXT: f64 = 2.8;
 /// Least distance between neighbouring coil-side lines of the developed diagram on paper, mm.
 pub const SIDE_GAP: f64 = 1.0;
 

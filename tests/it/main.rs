@@ -44,6 +44,7 @@ mod rewind_cli;
 mod rewind_properties;
 mod rewind_verdict;
 mod rule_cases;
+mod sheet_bench;
 mod sheet_cli;
 mod sheet_pdf;
 mod sheet_render;
