@@ -25,6 +25,7 @@ mod frog_leg;
 mod frog_leg_loops;
 mod front_pitch;
 mod fuzz;
+mod greyscale;
 mod identify_cli;
 mod identify_round_trip;
 mod kill_sheet;

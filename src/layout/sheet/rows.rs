@@ -73,10 +73,7 @@ pub fn bench_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
             w.pitches.span
         ),
     );
-    row(
-        "throw",
-        throw_shop_dash(w.pitches.commutator, w.active_coils),
-    );
+    row("throw", coil1_throw(w));
     row(
         "back / front",
         format!("{} / {}", w.pitches.back, w.pitches.front),
@@ -115,6 +112,18 @@ pub fn bench_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
     row("equalizers", equalizers_value(w));
     row("dummy coils", dummies_value(w));
     rows
+}
+
+/// The commutator throw in shop form, from the trace: the bars coil 1's leads go to,
+/// "1–45"; a dash when coil 1 is a dummy with its ends cut.
+pub fn coil1_throw(w: &Winding) -> String {
+    w.connections
+        .first()
+        .and_then(|k| k.start_segment.zip(k.end_segment))
+        .map_or_else(
+            || "\u{2014}".to_string(),
+            |(a, b)| format!("{a}\u{2013}{b}"),
+        )
 }
 
 /// The dummy coils: none, up to three by number, else how many.
