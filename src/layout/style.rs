@@ -5,9 +5,11 @@
 //! it with the same cascade (later and more specific rules win over earlier ones, a rule wins
 //! over a look given on the element, everything else is inherited from the enclosing group).
 //! Paths are told apart three ways so that a greyscale print still separates them: a
-//! colour-blind-safe colour (the Okabe–Ito palette [src: Okabe & Ito, *Color Universal
+//! colour-blind-safe colour (after the Okabe–Ito palette [src: Okabe & Ito, *Color Universal
 //! Design*, 2002/2008]), a dash pattern on the end connections, and the path number written
-//! at every coil's back end.
+//! at every coil's back end. Each look has one meaning: colour and dash name the circuit a
+//! coil is in (its path, or shorted by a brush, or a dummy), the stroke width the layer of a
+//! coil side in its slot (top thick, bottom thin).
 
 use std::sync::OnceLock;
 
@@ -18,19 +20,23 @@ use super::font::Weight;
 pub const TEXT_FLOOR: f64 = 2.5;
 /// The font size of table bodies and the winding-data block, mm.
 pub const BODY_TEXT: f64 = 3.5;
+/// The font size of the compact winding-data block of sheet 1, mm (between the floor and
+/// the body size).
+pub const COMPACT_TEXT: f64 = 2.8;
 /// Least distance between neighbouring coil-side lines of the developed diagram on paper, mm.
 pub const SIDE_GAP: f64 = 1.0;
 
-/// Path colours, path k taking `PATH_COLOURS[(k − 1) % 6]`: the Okabe–Ito palette without
-/// yellow and black (which print poorly or clash with the drawing's black) and with its
-/// reddish purple swapped for Tol's wine, so that the three colours at even places and the
-/// three at odd places each lie at least 10 apart in CIE L* (46, 58, 71 and 54, 32, 70)
+/// Path colours, path k taking `PATH_COLOURS[(k − 1) % 6]`: Okabe–Ito's blue, vermillion
+/// and bluish green, Tol's wine, and a dark purple and a dark cyan in place of Okabe–Ito's
+/// orange and sky blue, which photocopy pale. Every colour is at least as dark as a mid grey
+/// (CIE L* at most 60: 46, 54, 58, 32, 33, 42), and the three colours at odd places and the
+/// three at even places each lie at least 10 apart in L* (46, 58, 33 and 54, 32, 42)
 /// [src: Okabe & Ito, *Color Universal Design*, 2002/2008; P. Tol, *Colour schemes*, SRON
 /// technical note, 2021, from memory; L* of each colour derived with the CIE 1976 formula].
 /// Paths that share a dash pattern are 8, 16 apart, so two places apart in this list: a
 /// greyscale print tells every pair of the first 24 paths apart by dash or by grey.
 pub const PATH_COLOURS: [&str; 6] = [
-    "#0072B2", "#D55E00", "#009E73", "#882255", "#E69F00", "#56B4E9",
+    "#0072B2", "#D55E00", "#009E73", "#882255", "#5D3A9B", "#0B6E80",
 ];
 
 /// Dash patterns of the end connections, mm (empty: solid); path k takes
@@ -49,6 +55,10 @@ pub const PATH_DASHES: [&[f64]; 8] = [
 
 /// Dash pattern of a dummy coil's connections, mm.
 pub const DUMMY_DASH: &[f64] = &[0.4, 0.6];
+/// Dash pattern of the connections of a coil shorted by a brush (pairs of short dashes),
+/// kept for those alone: in a greyscale print the shorted coils' grey is told from a dark
+/// path colour by it, not by lightness.
+pub const SHORTED_DASH: &[f64] = &[0.9, 0.5, 0.9, 1.9];
 
 /// Grey of coils under commutation (shorted by a brush at the drawn instant).
 pub const SHORTED_GREY: &str = "#505050";
@@ -178,8 +188,9 @@ fn build_table() -> Vec<Rule> {
             &["side-top", "side-bot", "conn", "stub"],
             vec![none(Fill), RoundCap, RoundJoin],
         ),
-        rule(&["side-top"], vec![StrokeWidth(0.5)]),
-        rule(&["side-bot"], vec![StrokeWidth(0.5), Dash(&[1.1, 0.7])]),
+        // The layer of a coil side is its width alone: dashes name circuits.
+        rule(&["side-top"], vec![StrokeWidth(0.6)]),
+        rule(&["side-bot"], vec![StrokeWidth(0.25)]),
         rule(&["conn"], vec![StrokeWidth(0.3)]),
         rule(&["stub"], vec![StrokeWidth(0.3)]),
         rule(&["k0"], vec![Stroke(Some(SHORTED_GREY))]),
@@ -270,6 +281,8 @@ fn build_table() -> Vec<Rule> {
     for (i, d) in PATH_DASHES.iter().enumerate() {
         t.push(rule(&[&format!("d{} conn", i + 1)], vec![Dash(d)]));
     }
+    // After the path dashes, so that a shorted coil's (classes k0 d1) wins.
+    t.push(rule(&["k0 conn", "k0 stub"], vec![Dash(SHORTED_DASH)]));
     t
 }
 

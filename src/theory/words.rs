@@ -43,6 +43,14 @@ pub fn span_shop_dash(span: u32) -> String {
     format!("1\u{2013}{}", span + 1)
 }
 
+/// The commutator throw in shop form, "1–45" for a commutator pitch of +44: the bars coil
+/// 1's start and end leads go to, counted round the `bars` of the commutator (a
+/// retrogressive lap's −1 on 36 bars is "1–36").
+pub fn throw_shop_dash(commutator_pitch: i64, bars: u32) -> String {
+    let bars = i64::from(bars.max(1));
+    format!("1\u{2013}{}", commutator_pitch.rem_euclid(bars) + 1)
+}
+
 /// A signed count of half bars in words: "+1.5 bars", "-2 bars", "0 bars".
 pub fn half_bars_words(half: i64) -> String {
     let sign = match half.signum() {
@@ -100,5 +108,7 @@ mod tests {
         assert_eq!(multiplicity_word(4), "quadruplex");
         assert_eq!(multiplicity_word(5), "5-plex");
         assert_eq!(span_shop(7), "1-8");
+        assert_eq!(throw_shop_dash(44, 87), "1\u{2013}45");
+        assert_eq!(throw_shop_dash(-1, 36), "1\u{2013}36");
     }
 }

@@ -2,7 +2,8 @@
 //! on every paper, and a sample of random designs.
 //!
 //! - no text under 2.5 mm font size (cap height about 1.8 mm, the smallest nominal lettering
-//!   height of ISO 3098, from memory); table bodies and the winding-data block at least 3.5 mm;
+//!   height of ISO 3098, from memory); table bodies and the winding-data sheet at least 3.5 mm;
+//!   the compact winding-data block of sheet 1 (class `bench`, two columns) at least 2.5 mm;
 //! - no two texts overlap, measured with the embedded font's glyph boxes; no text leaves the
 //!   page or crosses the drawing frame;
 //! - neighbouring coil-side lines of the developed diagram at least 1.0 mm apart on paper;

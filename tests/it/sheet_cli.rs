@@ -44,7 +44,6 @@ fn sheet_writes_every_file_and_says_so() {
         "sheet-4.svg",
         "sheet-5.svg",
         "sheet-6.svg",
-        "sheet-7.svg",
         "connections.csv",
         "job.csv",
         "report.json",

@@ -99,7 +99,8 @@ fn the_winding_order_lists_every_coil_once_with_its_boxes() {
         }
         let coils: Vec<u32> = checked.winding.connections.iter().map(|c| c.coil).collect();
         assert_eq!(steps, coils, "{name}");
-        assert_eq!(boxes, 3 * coils.len(), "{name}");
+        // Three boxes to tick (in, connected, soldered) and one to initial, each row.
+        assert_eq!(boxes, 4 * coils.len(), "{name}");
         let first = texts(order[0]).join(" ");
         assert!(first.contains("lifted until the bottom sides"), "{first}");
     }
@@ -125,4 +126,89 @@ fn the_pdf_is_titled_from_the_job() {
     let pdf = armsheet::render::pdf::sheets_pdf(&ps).unwrap();
     let raw = String::from_utf8_lossy(&pdf);
     assert!(raw.contains("/Title"), "no document title");
+}
+
+/// The rows of class `class` on `page`, each with its texts.
+fn rows_of(nodes: &[Node], class: &str, out: &mut Vec<Vec<String>>) {
+    for n in nodes {
+        if let Node::Group(g) = n {
+            if g.class.as_deref() == Some(class) {
+                let mut t = Vec::new();
+                for c in &g.children {
+                    if let Node::Text(x) = c {
+                        t.push(x.content.clone());
+                    }
+                }
+                out.push(t);
+            } else {
+                rows_of(&g.children, class, out);
+            }
+        }
+    }
+}
+
+#[test]
+fn an_a4_winding_order_sheet_holds_30_steps() {
+    // The mill's 1,056 coils: every winding-order sheet holds 30 steps or more.
+    let ps = pages("mill-lap-12p");
+    let per_page: Vec<usize> = ps
+        .iter()
+        .filter(|p| p.kind == PageKind::WindingOrder)
+        .map(|p| {
+            let mut r = Vec::new();
+            rows_of(&p.children, "order-row", &mut r);
+            r.len()
+        })
+        .collect();
+    assert!(per_page.len() > 2);
+    assert!(per_page.iter().all(|n| *n >= 30), "{per_page:?}");
+}
+
+#[test]
+fn frog_leg_order_cells_are_whole_on_every_paper() {
+    let checked = armsheet::check(support::design(&support::demo("mill-frog-leg")));
+    for paper in Paper::ALL {
+        let ps = checked_pages(&checked, paper, Window::Auto);
+        let mut rows = Vec::new();
+        for p in ps.iter().filter(|p| p.kind == PageKind::WindingOrder) {
+            rows_of(&p.children, "order-row", &mut rows);
+        }
+        assert_eq!(rows.len(), checked.winding.connections.len(), "{paper:?}");
+        for r in &rows {
+            assert!(
+                r.iter().all(|t| !t.contains('\u{2026}')),
+                "{paper:?}: {r:?}"
+            );
+            // step, coil, element, top, bottom, start bar, end bar, turns and wire.
+            assert!(r[2] == "lap" || r[2] == "wave", "{paper:?}: {r:?}");
+            assert!(
+                r[7].starts_with("1 turn, 1 in hand, 7.10\u{d7}2.24"),
+                "{paper:?}: {r:?}"
+            );
+        }
+        assert!(rows.iter().any(|r| r[7].ends_with("; top lifted")));
+    }
+}
+
+#[test]
+fn every_equalizer_ring_has_boxes_to_tick() {
+    let ps = pages("mill-lap-12p");
+    let eq: Vec<&Page> = ps
+        .iter()
+        .filter(|p| p.kind == PageKind::Equalizers)
+        .collect();
+    assert!(!eq.is_empty());
+    let mut rings = 0;
+    let mut boxes = 0;
+    for p in eq {
+        let mut r = Vec::new();
+        rows_of(&p.children, "row", &mut r);
+        rings += r.len();
+        boxes += count(&p.children, "checkbox");
+        let all = texts(p).join(" ");
+        assert!(all.contains("fitted") && all.contains("sol-"), "{all}");
+    }
+    assert!(rings > 0);
+    // Fitted and soldered, each ring.
+    assert_eq!(boxes, 2 * rings);
 }

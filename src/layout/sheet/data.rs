@@ -1,14 +1,14 @@
-//! The winding-data block of sheet 1 (as many rows as it holds at the body size, with the
-//! job notes and the numbering convention at its foot), and the winding-data sheet that
+//! The winding-data block of sheet 1 (the bench rows, then as many more as it holds, in two
+//! columns at the compact size, with the job notes and the numbering convention at its foot), and the winding-data sheet that
 //! carries every row when sheet 1 cannot.
 //!
 //! Part of the `layout` stage (the sheets).
 
 use crate::layout::font::{Weight, cut_to_width, text_width, wrap_text};
-use crate::layout::style::{BODY_TEXT, TEXT_FLOOR};
+use crate::layout::style::{BODY_TEXT, COMPACT_TEXT, TEXT_FLOOR};
 use crate::layout::tree::{Group, Text};
 
-use super::rows::winding_data_rows;
+use super::rows::{bench_rows, winding_data_rows};
 use super::{Input, Rect};
 
 /// Row pitch of the data rows, mm.
@@ -101,11 +101,91 @@ fn push_rows(
     }
 }
 
+/// The sizes the block of sheet 1 tries, largest first: the compact size, then the floor.
+const BLOCK_SIZES: [f64; 2] = [COMPACT_TEXT, TEXT_FLOOR];
+/// The share of a column a label may take with its value beside it; a longer label has
+/// its value on the lines below.
+const LABEL_CAP: f64 = 0.5;
+/// Gap between the block's two columns, mm.
+const COLUMN_GAP: f64 = 3.0;
+
+/// One row of the block placed: its label, its value's lines, and its column and top line.
+struct Placed {
+    key: String,
+    lines: Vec<String>,
+    col: usize,
+    line: usize,
+}
+
+/// Flows `rows` down two columns of `lines` lines each, at `size`, each column `col_w` wide;
+/// a value too long for its room wraps onto the next lines (it is never cut). Returns the
+/// rows placed (a prefix of `rows`) and each column's label width.
+fn flow(rows: &[(String, String)], size: f64, col_w: f64, lines: usize) -> (Vec<Placed>, [f64; 2]) {
+    let mut placed = Vec::new();
+    let mut widths = [0.0; 2];
+    let mut start = 0;
+    for (col, width) in widths.iter_mut().enumerate() {
+        // The longest run of rows from `start` whose values, wrapped beside the run's widest
+        // label, take no more than the column's lines.
+        let mut best: Option<(f64, Vec<Vec<String>>)> = None;
+        for end in start + 1..=rows.len() {
+            let run = &rows[start..end];
+            // Labels wider than `cap` put their value on the lines below them.
+            let cap = col_w * LABEL_CAP;
+            let lw = run
+                .iter()
+                .map(|(k, _)| text_width(k, size, Weight::Regular))
+                .filter(|w| *w <= cap)
+                .fold(0.0, f64::max);
+            let room = col_w - lw - LABEL_GAP * size / BODY_TEXT;
+            let wrapped: Vec<Vec<String>> = run
+                .iter()
+                .map(|(k, v)| {
+                    let mut ls = wrap_text(v, size, Weight::Bold, room);
+                    if text_width(k, size, Weight::Regular) > cap {
+                        ls.insert(0, String::new());
+                    }
+                    ls
+                })
+                .collect();
+            let whole = wrapped
+                .iter()
+                .flatten()
+                .all(|l| text_width(l, size, Weight::Bold) <= room);
+            let taken: usize = wrapped.iter().map(Vec::len).sum();
+            if !whole || taken > lines {
+                break;
+            }
+            best = Some((lw, wrapped));
+        }
+        let Some((lw, wrapped)) = best else {
+            break;
+        };
+        *width = lw;
+        let mut line = 0;
+        for (i, ls) in wrapped.into_iter().enumerate() {
+            let n = ls.len();
+            placed.push(Placed {
+                key: rows[start + i].0.clone(),
+                lines: ls,
+                col,
+                line,
+            });
+            line += n;
+        }
+        start = placed.len();
+    }
+    (placed, widths)
+}
+
 /// The data block in `r`, and how many rows it holds (the rest go to the winding-data sheet).
+/// The bench rows come first, in two columns at the compact size (at the floor when they
+/// would not fit so), then as many of the rest as the block still holds.
 pub(super) fn data_block(input: &Input<'_>, r: &Rect, more_on: Option<usize>) -> (Group, usize) {
     let mut g = Group::id("winding-data");
     g.push(Text::new(r.x + 2.0, r.y + 5.0, 3.2, "b", "Winding data"));
     let rows = data_rows(input);
+    let bench = bench_rows(input.design, input.winding).len();
     let foot = foot_lines(input, r.w - 4.0);
     let line = TEXT_FLOOR * 1.3;
     let foot_top = r.bottom() - 1.2 - foot.len() as f64 * line;
@@ -121,26 +201,50 @@ pub(super) fn data_block(input: &Input<'_>, r: &Rect, more_on: Option<usize>) ->
     }
     g.push(notes);
     let top = r.y + 6.8;
-    let fit = (((foot_top - 0.8 - top) / DATA_ROW).floor().max(0.0)) as usize;
-    let shown = if rows.len() <= fit {
-        rows.len()
-    } else {
-        fit.saturating_sub(1)
+    let col_w = (r.w - 4.0 - COLUMN_GAP) / 2.0;
+    // The line that names the winding-data sheet, when rows are left over, sits above the foot.
+    let more_h = line;
+    let mut choice = None;
+    for size in BLOCK_SIZES {
+        let pitch = size * 1.2;
+        let all = ((foot_top - 0.8 - top) / pitch).floor().max(0.0) as usize;
+        let (placed, widths) = flow(&rows, size, col_w, all);
+        let (placed, widths) = if placed.len() < rows.len() {
+            let fewer = ((foot_top - 0.8 - more_h - top) / pitch).floor().max(0.0) as usize;
+            flow(&rows, size, col_w, fewer)
+        } else {
+            (placed, widths)
+        };
+        let done = placed.len() >= bench;
+        choice = Some((size, pitch, placed, widths));
+        if done {
+            break;
+        }
+    }
+    let Some((size, pitch, placed, widths)) = choice else {
+        return (g, 0);
     };
-    push_rows(
-        &mut g,
-        &rows[..shown],
-        r.x + 2.0,
-        top,
-        shown.max(1),
-        r.w - 4.0,
-    );
+    let shown = placed.len();
+    for p in placed {
+        let cx = r.x + 2.0 + p.col as f64 * (col_w + COLUMN_GAP);
+        let vx = cx + widths[p.col] + LABEL_GAP * size / BODY_TEXT;
+        let y = top + (p.line as f64 + 1.0) * pitch - 0.6;
+        let mut datum = Group::class("bench").with_data("data-key", &p.key);
+        datum.push(Text::new(cx, y, size, "", p.key.clone()));
+        // A first line left empty: the value stands below its long label.
+        for (i, l) in p.lines.into_iter().enumerate() {
+            if !l.is_empty() {
+                datum.push(Text::new(vx, y + i as f64 * pitch, size, "b", l));
+            }
+        }
+        g.push(datum);
+    }
     if shown < rows.len()
         && let Some(sheet) = more_on
     {
         g.push(Text::new(
             r.x + 2.0,
-            top + (shown as f64 + 1.0) * DATA_ROW - 1.0,
+            foot_top - 0.8 - 0.4,
             TEXT_FLOOR,
             "",
             format!(

@@ -122,7 +122,7 @@ pub struct DiagramSheet {
 }
 
 /// Height of the row of blocks under the diagram, mm.
-pub const BLOCK_ROW: f64 = 64.0;
+pub const BLOCK_ROW: f64 = 78.0;
 
 /// Lays out sheet 1 on `frame`.
 pub fn diagram_sheet(frame: &PageFrame) -> DiagramSheet {
@@ -136,7 +136,7 @@ pub fn diagram_sheet(frame: &PageFrame) -> DiagramSheet {
     };
     let notes_w = TITLE_BLOCK.0;
     let rest = f.w - notes_w;
-    let data_w = (rest * 0.5).floor();
+    let data_w = (rest * 0.58).floor();
     let data = Rect {
         x: f.x,
         y: row_top,

@@ -4,8 +4,8 @@
 
 use crate::layout::developed::nodes::CUT_DOT_R;
 use crate::layout::style::{
-    DUMMY_DASH, DUMMY_GREY, INK, PATH_COLOURS, PATH_DASHES, SHORTED_GREY, TEXT_FLOOR, colour_class,
-    dash_class,
+    DUMMY_DASH, DUMMY_GREY, INK, PATH_COLOURS, PATH_DASHES, SHORTED_DASH, SHORTED_GREY, TEXT_FLOOR,
+    colour_class, dash_class,
 };
 use crate::layout::tree::{self, Circle, Group, Line, Path, Text};
 use crate::winding::EqualizerPlan;
@@ -77,8 +77,12 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, edge: Option<bool>) -> G
     } else {
         paths_grid(&mut l, input, r);
     }
-    l.sample(SHORTED_GREY, "conn", &[]);
-    l.text(xs, "", "grey, tag sc: shorted by a brush now (no current)");
+    l.sample(SHORTED_GREY, "conn", SHORTED_DASH);
+    l.text(
+        xs,
+        "",
+        "grey, dashed in pairs, tag sc: shorted by a brush now (no current)",
+    );
     if input.winding.is_multi_element() {
         back_end_shapes(&mut l);
     }
@@ -124,9 +128,9 @@ pub(super) fn legend_block(input: &Input<'_>, r: &Rect, edge: Option<bool>) -> G
 fn sides_and_current(l: &mut Legend) {
     let xs = l.xs;
     l.sample(INK, "side-top", &[]);
-    l.text(xs, "", "top-layer coil side (start lead)");
+    l.text(xs, "", "thick: top-layer coil side (start lead)");
     l.sample(INK, "side-bot", &[]);
-    l.text(xs, "", "bottom-layer coil side (end lead)");
+    l.text(xs, "", "thin: bottom-layer coil side (end lead)");
     let (ax, ay) = (l.x0 + 4.2, l.y - 0.9);
     let mut arrow = Path::triangle(
         None,

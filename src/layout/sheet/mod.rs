@@ -186,7 +186,7 @@ fn sheet_contents(input: &Input<'_>, frame: &PageFrame) -> Vec<Content> {
     };
     for p in paginate_rows(
         input.winding.connections.len(),
-        order::order_width(),
+        order::order_width(input),
         &order_first,
         &area,
         order::ORDER_ROW,

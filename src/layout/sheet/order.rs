@@ -7,7 +7,7 @@
 
 use crate::base::number::fmt_fixed;
 use crate::design::ConductorShape;
-use crate::layout::font::{Weight, cut_to_width, wrap_text};
+use crate::layout::font::{Weight, text_width, wrap_text};
 use crate::layout::style::{BODY_TEXT, TEXT_FLOOR};
 use crate::layout::tree::{self, Group, Node, Text};
 
@@ -30,26 +30,46 @@ const COLUMNS: [([&str; 2], f64); 11] = [
 ];
 /// How many columns carry text; the rest are check-off boxes and the initials.
 const TEXT_COLUMNS: usize = 7;
-/// Row pitch, mm: the body text (3.5 mm) with a clear millimetre between rows, so that an A4
-/// sheet holds 30 steps.
-pub(super) const ORDER_ROW: f64 = 4.5;
-/// A check-off box, mm: 5 wide and 3.8 high, inside its row with a margin above and below.
-const BOX: (f64, f64) = (5.0, 3.8);
+/// Row pitch, mm: the body text (3.5 mm) with 0.7 mm between rows, so that an A4 sheet
+/// holds at least 30 steps below its words.
+pub(super) const ORDER_ROW: f64 = 4.2;
+/// A check-off box, mm: 5 wide and 3.4 high, inside its row with a margin above and below
+/// (the equalizer table's too).
+pub(super) const BOX: (f64, f64) = (5.0, 3.4);
+/// Room a text cell leaves beside its text, mm.
+const CELL_PAD: f64 = 3.5;
 
-/// The columns for `winding`: on a winding of several elements (frog-leg) an element column
-/// after the coil, taken from the turns-and-wire column so the table keeps its width.
-fn columns(multi: bool) -> Vec<([&'static str; 2], f64)> {
+/// The columns for `input`: on a winding of several elements (frog-leg) an element column
+/// after the coil, taken from the turns-and-wire column so the table keeps its width. A text
+/// column too narrow for its widest cell is widened to hold it whole.
+fn columns(input: &Input<'_>) -> Vec<([&'static str; 2], f64)> {
+    let multi = input.winding.is_multi_element();
     let mut c = COLUMNS.to_vec();
     if multi {
         c[6].1 -= 12.0;
         c.insert(2, (["elem.", ""], 12.0));
     }
+    let order = Order::cells_only(input);
+    let text_columns = TEXT_COLUMNS + usize::from(multi);
+    for r in 0..input.winding.connections.len() {
+        for (j, cell) in order.cells(r).iter().enumerate().take(text_columns) {
+            let weight = if j == 1 {
+                Weight::Bold
+            } else {
+                Weight::Regular
+            };
+            let need = text_width(cell, BODY_TEXT, weight) + CELL_PAD;
+            if need > c[j].1 {
+                c[j].1 = need.ceil();
+            }
+        }
+    }
     c
 }
 
-/// Width of the winding-order table, mm.
-pub(super) fn order_width() -> f64 {
-    COLUMNS.iter().map(|c| c.1).sum()
+/// Width of the winding-order table of `input`, mm.
+pub(super) fn order_width(input: &Input<'_>) -> f64 {
+    columns(input).iter().map(|c| c.1).sum()
 }
 
 /// The turns and the wire of one coil of `turns` turns in shop words ("4 turns, 2 in hand,
@@ -132,7 +152,7 @@ pub(super) fn order_page(
     let order = Order::new(input);
     let mut g = Group::id(format!("order-{}", page.rows.start + 1)).with_class("winding-order");
     for (gx, rows) in &page.groups {
-        let total = order_width();
+        let total: f64 = order.cols.iter().map(|c| c.1).sum();
         order_heads(&mut g, &order.cols, *gx, page);
         for (i, r) in rows.clone().enumerate() {
             let y = page.top + TABLE_HEADER + (i as f64 + 1.0) * page.row - 1.4;
@@ -179,7 +199,7 @@ fn order_heads(g: &mut Group, cols: &[([&'static str; 2], f64)], gx: f64, page: 
     }
     g.push(hline(
         gx,
-        gx + order_width(),
+        gx + cols.iter().map(|c| c.1).sum::<f64>(),
         page.top + TABLE_HEADER - 0.3,
         "rule",
     ));
@@ -198,6 +218,14 @@ struct Order<'a> {
 
 impl<'a> Order<'a> {
     fn new(input: &'a Input<'a>) -> Order<'a> {
+        Order {
+            cols: columns(input),
+            ..Order::cells_only(input)
+        }
+    }
+
+    /// What the cells are read from, with the columns left unmeasured.
+    fn cells_only(input: &'a Input<'a>) -> Order<'a> {
         let multi = input.winding.is_multi_element();
         Order {
             input,
@@ -209,7 +237,7 @@ impl<'a> Order<'a> {
                 .collect(),
             lift: lifted(input),
             multi,
-            cols: columns(multi),
+            cols: Vec::new(),
             text_columns: TEXT_COLUMNS + usize::from(multi),
         }
     }
@@ -273,11 +301,16 @@ impl<'a> Order<'a> {
                 } else {
                     (cx + width - 1.5, if j == 1 { "b end" } else { "end" })
                 };
-                let (weight, _) = crate::layout::style::text_face(cls);
-                let text = cut_to_width(&cells[j], BODY_TEXT, weight, width - 3.0);
-                row.push(Text::new(x, y, BODY_TEXT, cls, text));
-            } else if head[0] != "initials" {
+                // The columns are measured to hold every cell whole.
+                row.push(Text::new(x, y, BODY_TEXT, cls, cells[j].clone()));
+            } else {
+                // A box to tick, or a wider one to initial.
                 let (bw, bh) = BOX;
+                let bw = if head[0] == "initials" {
+                    width - 3.0
+                } else {
+                    bw
+                };
                 row.push(tree::Rect::new(
                     "checkbox",
                     cx + (width - bw) / 2.0,

@@ -258,13 +258,7 @@ fn ring_words(
         None => format!("bar {in_bar}"),
         Some(r) => format!("the mica between bars {in_bar} and {r}"),
     };
-    let first = w.connections.first();
-    let throw = first
-        .and_then(|k| k.start_segment.zip(k.end_segment))
-        .map_or_else(
-            || "\u{2014}".to_string(),
-            |(a, b)| format!("{a}\u{2013}{b}"),
-        );
+    let throw = super::rows::coil1_throw(w);
     let (rot, sense) = match d.rotation {
         Rotation::Clockwise => ("clockwise", "\u{21bb}"),
         Rotation::CounterClockwise => ("counter-clockwise", "\u{21ba}"),

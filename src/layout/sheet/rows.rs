@@ -9,7 +9,7 @@ use crate::rating::RatingReport;
 use crate::winding::{EqualizerPlan, Winding};
 
 use crate::base::number::fmt_fixed;
-use crate::theory::words::{half_bars_words, multiplicity_word, span_shop_dash};
+use crate::theory::words::{half_bars_words, multiplicity_word, span_shop_dash, throw_shop_dash};
 
 /// A signed pitch, "+1" or "−3".
 pub fn signed(x: i64) -> String {
@@ -20,21 +20,42 @@ pub fn signed(x: i64) -> String {
     }
 }
 
-/// The winding-data rows, in the order they are printed.
+/// The winding-data rows, in the order they are printed: the bench rows ([`bench_rows`]),
+/// which sheet 1 always carries, then the rest.
 pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
+    let mut rows = bench_rows(d, w);
+    let mut row = |k: &str, v: String| rows.push((k.to_string(), v));
+    row("comm. pitch", signed(w.pitches.commutator));
+    row("lead offset", format!("{} seg", d.lead_offset));
+    row("parallel paths", w.parallel_paths().to_string());
+    row(
+        "brush sets",
+        format!("{} (min {})", w.brush_sets(), w.brush_sets_minimum),
+    );
+    row(
+        "rotation",
+        format!("{} / {}", d.rotation.as_str(), d.mode.as_str()),
+    );
+    row("pole arc", fmt_fixed(d.pole_arc, 2));
+    rows
+}
+
+/// What the winder needs at the bench, in the order printed on sheet 1: the connection
+/// (type, multiplicity, direction), the counts, span and throw in shop form, turns, wire and
+/// strands, lead swing and brush position, equalizers and dummy coils.
+pub fn bench_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
     let mut rows: Vec<(String, String)> = Vec::new();
     let mut row = |k: &str, v: String| rows.push((k.to_string(), v));
     row(
-        "type",
+        "connection",
         format!(
-            "{} {}",
+            "{} {}, {}",
             multiplicity_word(d.multiplicity),
-            d.winding_type.as_str()
+            d.winding_type.as_str(),
+            d.direction.as_str()
         ),
     );
-    row("direction", d.direction.as_str().to_string());
-    row("poles", d.poles.to_string());
-    row("slots", d.slots.to_string());
+    row("poles/slots", format!("{} / {}", d.poles, d.slots));
     row(
         "segments",
         format!(
@@ -43,9 +64,7 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
             if w.segments_derived { " (derived)" } else { "" }
         ),
     );
-    row("coils per slot", d.coils_per_slot.to_string());
-    let dummies = dummies_value(w);
-    row("dummy coils", dummies);
+    row("coils/slot", d.coils_per_slot.to_string());
     row(
         "span",
         format!(
@@ -54,23 +73,20 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
             w.pitches.span
         ),
     );
-    row("turns per coil", d.turns.to_string());
-    row("lead offset", format!("{} seg", d.lead_offset));
-    row("lead swing", lead_swing_value(w));
-    row("comm. pitch", signed(w.pitches.commutator));
+    row("throw", coil1_throw(w));
     row(
         "back / front",
         format!("{} / {}", w.pitches.back, w.pitches.front),
     );
-    // A frog-leg's wave element: its own pitches and span (the rows above are the lap's).
+    // A frog-leg's wave element: its own span and throw (the rows above are the lap's).
     for e in w.elements.iter().skip(1) {
         let name = e.kind.as_str();
         row(
-            &format!("{name} pitch / span"),
+            &format!("{name} span / throw"),
             format!(
                 "{} / {}",
-                signed(e.pitches.commutator),
-                span_shop_dash(e.pitches.span)
+                span_shop_dash(e.pitches.span),
+                throw_shop_dash(e.pitches.commutator, w.active_coils)
             ),
         );
         row(
@@ -78,23 +94,36 @@ pub fn winding_data_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
             format!("{} / {}", e.pitches.back, e.pitches.front),
         );
     }
-    row("parallel paths", w.parallel_paths().to_string());
+    row("turns/coil", d.turns.to_string());
     row(
-        "brush sets",
-        format!("{} (min {})", w.brush_sets(), w.brush_sets_minimum),
+        "wire, strands",
+        d.conductor
+            .as_ref()
+            .map_or_else(|| "not given".to_string(), |c| conductor_value(&c.shape)),
     );
-    let eq = equalizers_value(w);
-    row("equalizers", eq);
+    row("lead swing", lead_swing_value(w));
     row(
-        "rotation",
-        format!("{} / {}", d.rotation.as_str(), d.mode.as_str()),
+        "brush position",
+        format!(
+            "{} off pole axis",
+            half_bars_words(i64::from(d.lead_offset.0))
+        ),
     );
-    row("pole arc", fmt_fixed(d.pole_arc, 2));
-    if let Some(c) = &d.conductor {
-        let v = conductor_value(&c.shape);
-        row("conductor, mm", v);
-    }
+    row("equalizers", equalizers_value(w));
+    row("dummy coils", dummies_value(w));
     rows
+}
+
+/// The commutator throw in shop form, from the trace: the bars coil 1's leads go to,
+/// "1–45"; a dash when coil 1 is a dummy with its ends cut.
+pub fn coil1_throw(w: &Winding) -> String {
+    w.connections
+        .first()
+        .and_then(|k| k.start_segment.zip(k.end_segment))
+        .map_or_else(
+            || "\u{2014}".to_string(),
+            |(a, b)| format!("{a}\u{2013}{b}"),
+        )
 }
 
 /// The dummy coils: none, up to three by number, else how many.

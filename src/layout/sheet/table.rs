@@ -8,6 +8,7 @@ use crate::layout::style::TEXT_FLOOR;
 use crate::layout::tree::{self, Group, Node, Text};
 use crate::winding::EqualizerPlan;
 
+use super::order::BOX as CHECK_BOX;
 use super::{Input, PageFrame, Rect, TABLE_FONT, TABLE_HEADER, TABLE_ROW, TablePage, hline};
 
 /// Font size of a page heading after sheet 1, mm.
@@ -108,8 +109,9 @@ pub(super) fn connection_width(input: &Input<'_>) -> f64 {
 /// The equalizer-table columns: the list column is as wide as p numbers need (about 7
 /// digit widths each, a digit about 0.6 em), up to `max` mm.
 fn equalizer_columns(pole_pairs: u32, max: f64) -> Vec<Column> {
-    let list = (f64::from(pole_pairs) * 7.0 * 0.6 * TABLE_FONT).clamp(50.0, max - 13.0);
-    vec![
+    let checks = EQ_CHECKS.len() as f64 * EQ_CHECK_W;
+    let list = (f64::from(pole_pairs) * 7.0 * 0.6 * TABLE_FONT).clamp(50.0, max - 13.0 - checks);
+    let mut cols = vec![
         Column {
             head: ["ring", ""],
             width: 13.0,
@@ -118,8 +120,18 @@ fn equalizer_columns(pole_pairs: u32, max: f64) -> Vec<Column> {
             head: ["segments joined", ""],
             width: list,
         },
-    ]
+    ];
+    cols.extend(EQ_CHECKS.iter().map(|&head| Column {
+        head,
+        width: EQ_CHECK_W,
+    }));
+    cols
 }
+
+/// The check-off columns of the equalizer table: the ring fitted, its taps soldered.
+const EQ_CHECKS: [[&str; 2]; 2] = [["fitted", ""], ["sol-", "dered"]];
+/// Width of a check-off column of the equalizer table, mm.
+const EQ_CHECK_W: f64 = 16.0;
 
 /// Width of the equalizer table, mm.
 pub(super) fn equalizer_width(pole_pairs: u32, max: f64) -> f64 {
@@ -329,6 +341,19 @@ pub(super) fn equalizer_page(
                 "",
                 cut_to_width(&joined, TABLE_FONT, Weight::Regular, cols[1].width - 4.0),
             ));
+            // A box to tick in each check-off column.
+            let (bw, bh) = CHECK_BOX;
+            let mut cx = gx + cols[0].width + cols[1].width;
+            for c in &cols[2..] {
+                row.push(tree::Rect::new(
+                    "checkbox",
+                    cx + (c.width - bw) / 2.0,
+                    y + 1.4 - (TABLE_ROW + bh) / 2.0,
+                    bw,
+                    bh,
+                ));
+                cx += c.width;
+            }
             g.push(row);
         }
     }
