@@ -233,6 +233,15 @@ pub fn draw(a: &DrawArgs) -> Result<Outcome, CliError> {
             source,
         })?;
     }
+    // Into the design's own output folder, under that folder's lock, as `sheet` and `test -o`
+    // write there (a path given with -o is the user's own).
+    let _lock = match (&a.out, path.parent()) {
+        (None, Some(dir)) => {
+            let real = dir.canonicalize().map_err(|e| CliError::write(dir, e))?;
+            Some(super::lock::lock_folder(&real, dir, "draw")?)
+        }
+        _ => None,
+    };
     write_atomic(&path, svg.as_bytes())?;
     print_stdout(&format!("wrote {}\n", shown(&path)))?;
     Ok(Outcome::of(&checked.findings))

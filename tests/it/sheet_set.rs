@@ -235,7 +235,8 @@ fn hold_lock(dir: &Path) -> File {
     f
 }
 
-/// A run finding the folder locked waits a few seconds for it; if the other run lets go in
+/// A run finding the folder locked (`sheet`, `test -o`, `draw` into its default folder) waits
+/// a few seconds for it; if the other run lets go in
 /// time it goes on, else it exits 2 naming the lock file and the run that holds it, and
 /// writes nothing.
 #[test]
@@ -249,11 +250,12 @@ fn a_locked_folder_makes_a_run_wait_then_give_up() {
 
     let lock = hold_lock(&dir);
     let t = Instant::now();
-    let (sheet, test) = (
+    let (sheet, test, draw) = (
         spawn(&dir, &["sheet", "hoist-lap.toml"]),
         spawn(&dir, &["test", "hoist-lap.toml", "-o", "out"]),
+        spawn(&dir, &["draw", "hoist-lap.toml"]),
     );
-    for child in [sheet, test] {
+    for child in [sheet, test, draw] {
         let o = child.wait_with_output().unwrap();
         let err = text(&o.stderr);
         assert_eq!(o.status.code(), Some(2), "{err}");
