@@ -387,6 +387,11 @@ impl Design {
         self.coils_per_slot * self.slots
     }
 
+    /// Dummy coils: the coil positions left without a segment of their own.
+    pub fn dummy_count(&self) -> u32 {
+        self.coil_positions() - self.segments
+    }
+
     /// The winding elements on the commutator, in order (the lap element first): the kind's
     /// elements ([`crate::theory::WindingKind::elements`]) with their spans and turns.
     pub fn elements(&self) -> Vec<DesignElement> {

@@ -65,14 +65,19 @@ fn value(x: Option<f64>, p: Prefix) -> String {
 fn table(out: &mut String, rows: &[Reading], head: &str, p: Prefix) {
     let _ = writeln!(out, "  {:>6} {:>6}  {:>12}", "bar", "bar", head);
     for r in rows {
-        let _ = writeln!(
-            out,
-            "  {:>6} {:>6}  {:>12}",
-            r.from_bar,
-            r.to_bar,
-            value(r.expected, p)
-        );
+        row(out, r, p, "");
     }
+}
+
+/// One row of a readings table: the two bars, the expected value and a trailing mark.
+fn row(out: &mut String, r: &Reading, p: Prefix, mark: &str) {
+    let _ = writeln!(
+        out,
+        "  {:>6} {:>6}  {:>12}{mark}",
+        r.from_bar,
+        r.to_bar,
+        value(r.expected, p)
+    );
 }
 
 fn feed_words(f: &DropFeed, current: f64) -> String {
@@ -110,13 +115,7 @@ fn drop_table(out: &mut String, f: &DropFeed, head: &str, p: Prefix) {
             }
             None => String::new(),
         };
-        let _ = writeln!(
-            out,
-            "  {:>6} {:>6}  {:>12}{mark}",
-            r.from_bar,
-            r.to_bar,
-            value(r.expected, p)
-        );
+        row(out, r, p, &mark);
     }
     if marked.is_empty() {
         return;

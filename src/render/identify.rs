@@ -109,7 +109,7 @@ pub fn design_header(card: &Card, k: &Candidate, version: &str) -> Vec<String> {
 /// One candidate's line: kind, u, C, dummies, y_c, span and lead offset.
 fn summary(k: &Candidate) -> String {
     let d = &k.checked.design;
-    let dummies = d.coil_positions() - d.segments;
+    let dummies = d.dummy_count();
     format!(
         "{} {} {}, {} coil(s) a slot, {} bars, {} dummy coil(s), y_c {}, span {}, lead offset {}",
         d.direction.as_str(),
@@ -134,7 +134,7 @@ fn unusual_words(k: &Candidate) -> String {
             multiplicity_word(d.multiplicity)
         ));
     }
-    let dummies = d.coil_positions() - d.segments;
+    let dummies = d.dummy_count();
     if dummies > 0 {
         why.push(format!("{dummies} dummy coil(s) the card does not list"));
     }

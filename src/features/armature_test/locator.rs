@@ -144,8 +144,6 @@ pub struct Location {
     pub healthy_scale: f64,
     /// Bars of readings outside tolerance.
     pub suspect_bars: Vec<u32>,
-    /// The healthy pattern's misfit, as [`Fault::score`].
-    pub healthy_score: f64,
     /// The best hypotheses, best first (at most [`KEPT`]).
     pub faults: Vec<Fault>,
     /// Hypotheses that change no reading (cannot be seen by this test), by kind.
@@ -631,7 +629,6 @@ pub fn locate(
     let zv = net.inverse();
     let problem = problem(net, &zv, &rows, &sources, unit0, drop, tolerance);
     let healthy = healthy_pattern(&problem, &rows, tolerance);
-    let healthy_score = problem.judge(problem.base.clone()).score;
     let mut ranking = Ranking {
         slots,
         faults: Vec::new(),
@@ -649,7 +646,6 @@ pub fn locate(
         tolerance,
         healthy_scale: healthy.scale / unit0,
         suspect_bars: healthy.suspect_bars,
-        healthy_score,
         faults: ranking.faults,
         invisible: FaultKind::ALL
             .iter()

@@ -80,7 +80,7 @@ fn usualness(card: &Card, k: &Candidate) -> (bool, u32, u32) {
     let unlisted = if card.dead_coils.is_some() {
         0
     } else {
-        d.coil_positions() - d.segments
+        d.dummy_count()
     };
     (k.checked.has_errors(), d.multiplicity, unlisted)
 }
@@ -157,7 +157,7 @@ fn recount(card: &Card, best: Option<(bool, u32, u32)>) -> Recount {
             continue;
         }
         let d = &k.checked.design;
-        let dummies = d.coil_positions() - d.segments;
+        let dummies = d.dummy_count();
         let words = format!(
             "{} {} {} with {}",
             d.direction.as_str(),
@@ -687,7 +687,7 @@ fn what_decides(list: &[Candidate]) -> Vec<String> {
             "coils per slot {v}: count the leads in one slot (coils_per_slot = leads / 2)"
         ));
     }
-    if let Some(v) = differ(&|d| (d.coil_positions() - d.segments).to_string()) {
+    if let Some(v) = differ(&|d| (d.dummy_count()).to_string()) {
         out.push(format!(
             "dummy coils {v}: look for coils with their leads cut and taped (dead_coils)"
         ));
@@ -799,11 +799,7 @@ mod tests {
             .iter()
             .map(|k| {
                 let d = &k.checked.design;
-                (
-                    d.multiplicity,
-                    d.coil_positions() - d.segments,
-                    k.checked.has_errors(),
-                )
+                (d.multiplicity, d.dummy_count(), k.checked.has_errors())
             })
             .collect();
         assert_eq!(
