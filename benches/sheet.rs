@@ -47,7 +47,8 @@ fn sheet_bytes(text: &str, pdf: bool) -> usize {
         &checked,
         &expected(&checked.design, &checked.winding, &TestOptions::default()),
         &options,
-    );
+    )
+    .expect("the automatic window is always printed");
     let mut n: usize = pages.iter().map(|p| page_svg(p).len()).sum();
     n += connections_csv(&checked.winding).len();
     n += report_json(&checked).len();
@@ -92,6 +93,7 @@ fn mill_pdf_only(bencher: divan::Bencher) {
         &checked,
         &expected(&checked.design, &checked.winding, &TestOptions::default()),
         &options,
-    );
+    )
+    .expect("the automatic window is always printed");
     bencher.bench(|| sheets_pdf(divan::black_box(&pages)).unwrap().len());
 }

@@ -142,6 +142,15 @@ pub enum CliError {
         /// What and where.
         error: crate::features::armature_test::ReadingsError,
     },
+    /// `--window all` asked for a whole view the paper cannot print at the floor.
+    WholeRefused {
+        /// The design file, as given.
+        design: String,
+        /// The paper asked for.
+        paper: String,
+        /// Why.
+        why: crate::layout::WholeRefused,
+    },
     /// The PDF cannot be made from the sheets.
     Pdf {
         /// The design file, as given.
@@ -270,6 +279,21 @@ impl fmt::Display for CliError {
                 "error: {}: cannot rewind: the new design does not parse back, so nothing was written:\n{diagnostic}",
                 visible(design)
             ),
+            CliError::WholeRefused { design, paper, why } => {
+                let reason = match why {
+                    crate::layout::WholeRefused::TooWide { slots, fit } => format!(
+                        "its {slots} slots need a wider sheet: {paper} holds {fit} at the legibility floor"
+                    ),
+                    crate::layout::WholeRefused::Seam { lines } => format!(
+                        "{lines} lines cross its seam, more than the margins of {paper} can label at the legibility floor"
+                    ),
+                };
+                writeln!(
+                    f,
+                    "error: {}: --window all: the whole armature cannot be drawn in one view on {paper}: {reason}; nothing was written\n  = hint: leave --window out (the diagram then continues over as many sheets as it needs, every coil drawn), or try a larger --paper",
+                    visible(design)
+                )
+            }
             CliError::Pdf { design, message } => writeln!(
                 f,
                 "error: {}: the PDF cannot be made: {}",

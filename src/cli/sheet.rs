@@ -53,7 +53,9 @@ fn parse_paper(s: &str) -> Result<Paper, String> {
 /// Options shared by `sheet` and `draw` for the diagram window.
 #[derive(Debug, Args)]
 pub struct WindowArgs {
-    /// Diagram window: `auto`, `all`, or a number of whole pole pairs to show.
+    /// Diagram window: `auto` (every coil, continued over as many sheets as the paper
+    /// needs), `all` (the whole armature in one view, refused where the paper cannot hold it
+    /// legibly), or a number of whole pole pairs to show.
     #[arg(long, default_value = "auto", value_parser = parse_window, value_name = "auto|all|PAIRS")]
     pub window: WindowArg,
     /// First slot at the left edge of a window.
@@ -156,7 +158,12 @@ pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
             window: a.window.window(),
             version: env!("CARGO_PKG_VERSION").to_string(),
         },
-    );
+    )
+    .map_err(|why| CliError::WholeRefused {
+        design: a.design.display().to_string(),
+        paper: a.paper.as_str().to_string(),
+        why,
+    })?;
     let sheets: Vec<String> = pages.iter().map(svg::page_svg).collect();
     let dir = a.out.join(stem(&a.design));
     let mut files: Vec<(String, Vec<u8>)> = Vec::new();

@@ -35,7 +35,9 @@ pub mod sheet;
 pub mod style;
 pub mod tree;
 
-pub use developed::{Diagram, DiagramOptions, Window, layout_developed};
+pub use developed::{
+    Diagram, DiagramOptions, WholeRefused, Window, layout_developed, printed_diagrams,
+};
 pub use paper::Paper;
 pub use screen::draw_page;
 pub use sheet::{SheetOptions, sheet_pages};

@@ -59,6 +59,8 @@ pub const DUMMY_DASH: &[f64] = &[0.4, 0.6];
 /// kept for those alone: in a greyscale print the shorted coils' grey is told from a dark
 /// path colour by it, not by lightness.
 pub const SHORTED_DASH: &[f64] = &[0.9, 0.5, 0.9, 1.9];
+/// The dash of a match line of a continued diagram: long dash, gap, dot, gap (mm).
+pub const MATCH_DASH: &[f64] = &[4.0, 1.0, 0.6, 1.0];
 
 /// Grey of coils under commutation (shorted by a brush at the drawn instant).
 pub const SHORTED_GREY: &str = "#505050";
@@ -283,7 +285,20 @@ fn build_table() -> Vec<Rule> {
     }
     // After the path dashes, so that a shorted coil's (classes k0 d1) wins.
     t.push(rule(&["k0 conn", "k0 stub"], vec![Dash(SHORTED_DASH)]));
+    t.push(match_rule());
     t
+}
+
+/// A match line of a continued diagram: long dash, dot, in ink.
+fn match_rule() -> Rule {
+    use Decl::*;
+    let line = vec![
+        Fill(None),
+        Stroke(Some(INK)),
+        StrokeWidth(0.35),
+        Dash(MATCH_DASH),
+    ];
+    rule(&["match"], line)
 }
 
 /// The looks of one item, after the cascade.

@@ -17,6 +17,7 @@ mod csv_output;
 mod diagram_tags;
 mod domain_notes;
 mod engine_properties;
+mod every_coil;
 mod exact_symmetry;
 mod external_checks;
 mod fault_kinds;

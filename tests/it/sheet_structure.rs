@@ -179,40 +179,47 @@ fn a_1056_segment_table_reads_back_complete() {
 }
 
 #[test]
-fn a_large_armature_is_drawn_as_a_window_the_print_can_hold() {
+fn a_large_armature_is_drawn_in_parts_the_print_can_hold() {
     let (d, _) = load("big.toml", BIG_LAP);
-    let svg = &sheets_for(&d, Paper::A4, Window::Auto)[0];
+    let sheets = sheets_for(&d, Paper::A4, Window::Auto);
     // 1,056 segments, u = 4: eight coil sides a slot at least 1 mm apart over 85 % of the
-    // slot pitch need 9.41 mm a slot, so the 241 mm strip of A4 (its gutters widened to hold
-    // labels such as "16→b17") holds 25 slots; the note says which are shown and where the
-    // pattern repeats. A coil spans 33 slots, more than the window: the coils of the first
-    // slots are drawn, as many as leave the right edge's dots apart and its labels within
-    // the gutter. The back ends of neighbouring slots' coils meet the edge less than 0.6 mm
-    // apart, so only slot 1's four coils are drawn.
+    // slot pitch need 9.41 mm a slot, so the 249 mm strip of A4 (no edge labels, so the
+    // least gutters) holds 26 slots; the note says which are shown and where the pattern
+    // repeats. A coil spans 33 slots, more than the strip: a part drawing its own coils with
+    // their cut lines labelled would hold one slot's (the back ends of neighbouring coils
+    // meet the edge under 0.6 mm apart), so the parts go side by side: 26 slots each, edge
+    // to edge, ⌈264 / 26⌉ = 11 of them.
+    let svg = &sheets[0];
     assert!(svg.contains(
-        "slots 1\u{2013}25 of 264 shown, at a scale the print can hold \u{b7} pattern repeats every 66 slots \u{b7} the coils of slot 1 are drawn"
+        "slots 1\u{2013}26 of 264 shown \u{b7} pattern repeats every 66 slots \u{b7} drawn here: the coils whose top sides lie in slots 1\u{2013}26, and the lines of others that pass;"
     ));
-    let tops = svg.matches("class=\"side-top\" data-slot").count();
-    assert_eq!(tops, 4);
-    // A3 shows more slots at the same scale, enough to hold whole coils (34 slots and more).
-    let a3 = &sheets_for(&d, Paper::A3, Window::Auto)[0];
-    assert!(a3.contains("slots 1\u{2013}39 of 264 shown"));
-    assert!(a3.contains("coils lying wholly in view are drawn"));
-    // Every coil drawn on A3 lies wholly in view: its top side in slots 1–6 (39 − 33).
-    assert_eq!(a3.matches("class=\"side-top\" data-slot").count(), 6 * 4);
-    assert_eq!(a3.matches("class=\"side-bot\" data-slot").count(), 6 * 4);
-    // A requested window or the whole armature is cut to what the print can hold as well.
-    for window in [
+    assert!(svg.contains("slot 27 on: sheet 2 \u{2192}"));
+    assert!(svg.contains("\u{2190} slot 264 and before: sheet 11"));
+    let parts = sheets
+        .iter()
+        .filter(|s| s.contains("data-page=\"developed\""))
+        .count();
+    assert_eq!(parts, 11);
+    // A3 shows 39 slots at the same scale: ⌈264 / 39⌉ = 7 parts.
+    let a3 = sheets_for(&d, Paper::A3, Window::Auto);
+    assert!(a3[0].contains("slots 1\u{2013}39 of 264 shown"));
+    let a3_parts = a3
+        .iter()
+        .filter(|s| s.contains("data-page=\"developed\""))
+        .count();
+    assert_eq!(a3_parts, 7);
+    // A window of pole pairs is drawn in parts too, over its own slots.
+    let window = sheets_for(
+        &d,
+        Paper::A4,
         Window::PolePairs {
             pairs: 2,
             first_slot: 1,
         },
-        Window::Whole,
-    ] {
-        let s = &sheets_for(&d, Paper::A4, window)[0];
-        assert!(s.contains("slots 1\u{2013}25 of 264 shown"));
-        assert_eq!(s.matches("class=\"side-top\" data-slot").count(), 4);
-    }
+    );
+    assert!(window[0].contains("slots 1\u{2013}26 of 264 shown"));
+    assert!(window[0].contains("slot 27 on: sheet 2"));
+    assert!(!window[0].contains("and before: sheet"));
 }
 
 #[test]

@@ -22,7 +22,8 @@ fn set(toml: &str, paper: Paper) -> (Checked, ArmatureTest, Vec<Page>) {
             window: Window::Auto,
             version: "0.0.0".into(),
         },
-    );
+    )
+    .expect("the automatic window is always printed");
     (checked, test, pages)
 }
 

@@ -13,10 +13,10 @@ pub const MAX_RING_ROWS: usize = 8;
 /// The vertical bands, as y values in mm.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Bands {
-    /// Baseline of the header text.
-    pub header: f64,
-    /// Baseline of the header's second line (the window note, when it does not fit beside).
-    pub header2: f64,
+    /// Baselines of the header's lines, top to bottom (at least two: the rotation, then the
+    /// note on what is shown when it does not fit beside, wrapped over as many as it needs,
+    /// then on a part of a continued diagram its match lines).
+    pub header: Vec<f64>,
     /// Pole-shoe row top and bottom.
     pub pole: (f64, f64),
     /// Apex of the back end connections.
@@ -49,8 +49,19 @@ pub(super) fn equalizer_rows(winding: &Winding) -> usize {
     }
 }
 
-pub(super) fn bands(design: &Design, winding: &Winding, height: f64) -> Bands {
+/// Distance between the header's baselines, mm.
+pub(super) const HEADER_LEADING: f64 = 3.4;
+
+/// The bands of a diagram `height` mm tall whose header takes `header_lines` lines (two are
+/// always kept, so that a header of one line leaves the bands where a header of two puts
+/// them).
+pub(super) fn bands(design: &Design, winding: &Winding, height: f64, header_lines: usize) -> Bands {
     let _ = design;
+    let lines = header_lines.max(2);
+    let header: Vec<f64> = (0..lines)
+        .map(|i| 3.2 + HEADER_LEADING * i as f64)
+        .collect();
+    let below = header[lines - 1] + 1.6;
     let rows = equalizer_rows(winding);
     let eq_pitch = 2.4;
     let eq_height = if rows == 0 {
@@ -58,9 +69,7 @@ pub(super) fn bands(design: &Design, winding: &Winding, height: f64) -> Bands {
     } else {
         3.0 + rows as f64 * eq_pitch
     };
-    let header = 3.2;
-    let header2 = 6.6;
-    let pole = (8.2, 13.7);
+    let pole = (below, below + 5.5);
     let commutator_h = 7.0;
     let brush_h = 5.5;
     let fixed = pole.1 + 2.0 + commutator_h + brush_h + 1.0 + eq_height + 1.0;
@@ -75,7 +84,6 @@ pub(super) fn bands(design: &Design, winding: &Winding, height: f64) -> Bands {
     let eq0 = brush.1 + 3.0;
     Bands {
         header,
-        header2,
         pole,
         back_apex,
         core,

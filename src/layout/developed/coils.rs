@@ -127,7 +127,7 @@ pub(super) fn coil_drawing(
     // A window shows the coils lying wholly in it (both sides and both leads in view, no line
     // cut; `whole_coils`), or else those whose top side lies in it, each whole or cut at an
     // edge.
-    let anything = if geo.whole {
+    let anything = if geo.copies {
         d.top.is_some()
             || d.bottom.is_some()
             || !d.back.is_empty()
@@ -151,7 +151,7 @@ fn place_sides(d: &mut CoilDrawing, conn: &Connection, geo: &Geo, (xt, xb): (f64
             });
         }
     }
-    let bottoms = if geo.whole {
+    let bottoms = if geo.copies {
         vec![xb, xb - geo.turn]
     } else {
         vec![xb]

@@ -22,10 +22,18 @@
 //! - The whole view: every coil; a line cut at one edge re-enters at the other with the same
 //!   label, so both edges read alike. The seam offset and a slight lean of the back apexes
 //!   are chosen so that no two lines meet an edge at one point.
-//! - A window (a large armature, a requested window, or a printed whole view with more lines
-//!   at its seam than its gutters can label at the floor): the coils lying wholly in it, or,
-//!   when the window is narrower than a coil, the coils of its first slots, as many as the
-//!   gutters can label ([`Drawn`]).
+//! - A printed set ([`printed_diagrams`]) draws every coil whatever the paper: the whole view
+//!   where it fits and its seam can be labelled at the floor, else the diagram continued in
+//!   [`Part`]s over as many sheets as it needs, from coil 1's slot on, element by element on
+//!   a frog-leg. A part draws the coils whose top sides lie in its own slots, each line cut
+//!   at an edge labelled with where it goes, as many slots as its edges can label; where
+//!   that would draw fewer than half the slots a sheet shows (coils wider than the sheet),
+//!   the parts go side by side instead, edge to edge at one scale, each also drawing the
+//!   lines of the others' coils that pass, and a line meeting a match line goes on at the
+//!   same height on the next sheet. `--window all` that cannot be printed is refused.
+//! - A window on a screen (`draw --window`): the coils lying wholly in it, or, when the
+//!   window is narrower than a coil, the coils of its first slots, as many as the gutters
+//!   can label ([`Drawn`]).
 
 mod bands;
 mod coils;
@@ -43,7 +51,7 @@ use super::style::{SIDE_GAP, TEXT_FLOOR};
 pub use bands::{Bands, MAX_RING_ROWS};
 pub use coils::{CoilDrawing, EdgeCut, Goes, SideLine, edge_label};
 pub use equalizers::{EqualizerBand, EqualizerDrawing, equalizer_choice_words};
-pub use view::{LEGIBLE_SEGMENTS, View, Window, resolve_view};
+pub use view::{LEGIBLE_SEGMENTS, PartRequest, View, Window, resolve_view};
 
 use coils::coil_drawing;
 use equalizers::equalizer_band;
@@ -144,6 +152,43 @@ pub struct Diagram {
     pub label_size: f64,
     /// Which coils are drawn.
     pub drawn: Drawn,
+    /// On a printed set whose diagram is continued over several sheets: this part.
+    pub part: Option<Part>,
+}
+
+/// One part of a developed diagram continued over several sheets: the coils whose top sides
+/// lie in its slots, of one element on a winding of several. Parts are printed in order on
+/// sheets 1, 2, …, so part k is on sheet k.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Part {
+    /// The first slot whose coils the part draws.
+    pub first_slot: u32,
+    /// How many slots' coils it draws, from the first.
+    pub slots: u32,
+    /// The element drawn, on a winding of several (`lap`, `wave`).
+    pub element: Option<&'static str>,
+    /// Continued side by side ([`PartRequest::side_by_side`]).
+    pub side_by_side: bool,
+    /// x of the match line after the last slot whose coils are drawn, mm in the box; at the
+    /// strip's right edge when that slot is the last shown.
+    pub match_x: f64,
+    /// This part's number (1-based) and the number of parts.
+    pub number: usize,
+    /// How many parts the diagram has.
+    pub count: usize,
+    /// The part that draws the coils of the slot before the first (the match line at the
+    /// strip's left edge), when any.
+    pub before: Option<usize>,
+    /// The part that draws the coils of the slot after the last (the match line at
+    /// [`Part::match_x`]), when any.
+    pub after: Option<usize>,
+}
+
+impl Part {
+    /// The last slot whose coils the part draws, on an armature of `total` slots.
+    pub fn last_slot(&self, total: u32) -> u32 {
+        (self.first_slot - 1 + self.slots - 1) % total + 1
+    }
 }
 
 /// Least gutter either side of the strip, mm: the band names and the edge labels.
@@ -169,13 +214,179 @@ fn gutter_needed(d: &Diagram) -> f64 {
 /// least gutter, then, when its edge labels need more, once more with that gutter (a wider
 /// gutter shows no more slots, so no wider label comes in).
 pub fn layout_developed(design: &Design, winding: &Winding, options: &DiagramOptions) -> Diagram {
-    let d = layout_in(design, winding, options, GUTTER);
-    let need = gutter_needed(&d);
-    if need > GUTTER + 1e-9 {
-        layout_in(design, winding, options, need)
-    } else {
-        d
+    settle(design, winding, options, None)
+}
+
+/// The diagram laid out until its gutter holds its edge labels and its header its lines: a
+/// wider gutter shows no more slots, so no wider label comes in; a header of more lines
+/// leaves less height, which may change what is drawn and so the header once more.
+fn settle(
+    design: &Design,
+    winding: &Winding,
+    options: &DiagramOptions,
+    part: Option<(u32, PartRequest)>,
+) -> Diagram {
+    let mut lines = 2 + usize::from(part.is_some());
+    let mut gutter = GUTTER;
+    let mut d = layout_in(design, winding, options, gutter, lines, part);
+    for _ in 0..3 {
+        let need_gutter = gutter_needed(&d).max(gutter);
+        let need_lines = nodes::header_line_count(&d).max(lines);
+        if need_gutter <= gutter + 1e-9 && need_lines == lines {
+            break;
+        }
+        (gutter, lines) = (need_gutter, need_lines);
+        d = layout_in(design, winding, options, gutter, lines, part);
     }
+    d
+}
+
+/// Why the whole armature cannot be printed in one view, as `--window all` asks.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum WholeRefused {
+    /// The sheet holds `fit` of the `slots` slots at the floor.
+    TooWide {
+        /// Slots on the armature.
+        slots: u32,
+        /// Slots the sheet holds at the floor.
+        fit: u32,
+    },
+    /// The whole view has `lines` lines at its seam, more than its gutters can label at the
+    /// floor.
+    Seam {
+        /// Lines cut at the seam.
+        lines: usize,
+    },
+}
+
+/// The developed diagram of a printed set, as one diagram or as parts continued over
+/// several sheets, so that every coil is drawn on a sheet whatever the paper: the whole
+/// view when it is asked for (`Window::Whole`, refused when it cannot be printed at the
+/// floor) or when it fits and is labelled at the floor (`Window::Auto` on a winding of one
+/// element and up to [`LEGIBLE_SEGMENTS`]); else parts, from coil 1's slot on, each drawing
+/// the coils whose top sides lie in its first slots, as many slots as its edges can label,
+/// with a match line where the next part takes over; a winding of several elements is drawn
+/// element by element. A window of pole pairs is drawn in parts over its own slots.
+pub fn printed_diagrams(
+    design: &Design,
+    winding: &Winding,
+    options: &DiagramOptions,
+) -> Result<Vec<Diagram>, WholeRefused> {
+    let options = DiagramOptions {
+        floor: true,
+        ..*options
+    };
+    let try_whole = match options.window {
+        Window::Whole => true,
+        Window::Auto => !winding.is_multi_element() && winding.active_coils <= LEGIBLE_SEGMENTS,
+        Window::PolePairs { .. } => false,
+    };
+    if try_whole {
+        let whole = DiagramOptions {
+            window: Window::Whole,
+            ..options
+        };
+        let d = layout_developed(design, winding, &whole);
+        if d.view.whole && !d.view.crowded {
+            return Ok(vec![d]);
+        }
+        if options.window == Window::Whole {
+            return Err(if d.view.whole {
+                WholeRefused::Seam {
+                    lines: d.coils.iter().map(|c| c.cuts.len()).sum::<usize>() / 2,
+                }
+            } else {
+                WholeRefused::TooWide {
+                    slots: design.slots,
+                    fit: d.view.slots,
+                }
+            });
+        }
+    }
+    Ok(parts(design, winding, &options))
+}
+
+/// The parts of a continued diagram (see [`printed_diagrams`]), numbered and linked.
+fn parts(design: &Design, winding: &Winding, options: &DiagramOptions) -> Vec<Diagram> {
+    let s = design.slots;
+    let (first, count, wraps) = match options.window {
+        Window::PolePairs { .. } => {
+            let v = resolve_view(design, winding, options.window, None);
+            (v.first_slot, v.slots, v.slots >= s)
+        }
+        _ => (1, s, true),
+    };
+    let elements: Vec<Option<usize>> = if winding.is_multi_element() {
+        (0..winding.elements.len()).map(Some).collect()
+    } else {
+        vec![None]
+    };
+    let mut out: Vec<Diagram> = Vec::new();
+    for element in elements {
+        // Each element from the slot of its first coil's top side (coil 1's, for the first).
+        let holder = element.map(|e| &winding.elements[e]);
+        let start_slot = match (options.window, holder) {
+            (Window::PolePairs { .. }, _) => first,
+            (_, Some(e)) => winding
+                .connections
+                .iter()
+                .find(|c| e.holds(c.coil))
+                .map_or(first, |c| c.top.slot),
+            (_, None) => winding.connections.first().map_or(first, |c| c.top.slot),
+        };
+        let chain_start = out.len();
+        let (mut at, mut left) = (start_slot, count);
+        // Each part its own coils, their lines labelled at the edges, while that draws at
+        // least half the slots a sheet shows; else (coils wider than the sheet, dense
+        // edges) side by side.
+        let first = PartRequest {
+            tops: count,
+            element,
+            side_by_side: false,
+        };
+        let probe = settle(design, winding, options, Some((start_slot, first)));
+        let owned = probe.part.as_ref().map_or(count, |p| p.slots);
+        let side_by_side = 2 * owned < probe.view.slots.min(count);
+        while left > 0 {
+            let request = PartRequest {
+                tops: left,
+                element,
+                side_by_side,
+            };
+            let d = if at == start_slot && !side_by_side {
+                probe.clone()
+            } else {
+                settle(design, winding, options, Some((at, request)))
+            };
+            let taken = d.part.as_ref().map_or(left, |p| p.slots).clamp(1, left);
+            at = (at - 1 + taken) % s + 1;
+            left -= taken;
+            out.push(d);
+        }
+        let n = out.len();
+        for (k, d) in out.iter_mut().enumerate().skip(chain_start) {
+            if let Some(p) = d.part.as_mut() {
+                p.before = if k > chain_start {
+                    Some(k)
+                } else {
+                    (wraps && n - chain_start > 1).then_some(n)
+                };
+                p.after = if k + 1 < n {
+                    Some(k + 2)
+                } else {
+                    (wraps && n - chain_start > 1).then_some(chain_start + 1)
+                };
+            }
+        }
+    }
+    let count = out.len();
+    for (k, d) in out.iter_mut().enumerate() {
+        if let Some(p) = d.part.as_mut() {
+            p.number = k + 1;
+            p.count = count;
+        }
+    }
+    out
 }
 
 /// Share of the slot pitch over which a slot's coil sides are spread.
@@ -264,7 +475,18 @@ fn seam_and_coils(
     geo_at: &dyn Fn(f64) -> Geo,
 ) -> (f64, Vec<CoilDrawing>, Drawn) {
     let whole = view.whole;
-    if !whole {
+    if let Some(p) = view.part.filter(|p| p.side_by_side) {
+        // Side by side: at the one seam, no line labelled (it goes on at the same height
+        // across the match line).
+        let geo = geo_at(0.5);
+        let mut coils = draw_coils(design, winding, view, &geo, bands, false, 0.0);
+        for c in &mut coils {
+            c.cuts.clear();
+        }
+        let last = (view.first_slot - 1 + p.tops.min(view.slots) - 1) % design.slots + 1;
+        return (0.5, coils, Drawn::TopsThrough(last));
+    }
+    if !whole && view.part.is_none() {
         let geo = geo_at(0.5);
         let mut coils = draw_coils(design, winding, view, &geo, bands, true, 0.0);
         if !coils.is_empty() {
@@ -397,14 +619,20 @@ fn draw_coils(
         let frac = SIDE_SPREAD * ((f64::from(j) + 0.5) / f64::from(2 * u) - 0.5);
         (f64::from(slot - 1) + frac) * slot_deg
     };
-    // A window draws only coils whose top side lies in it.
-    let in_view = |slot: u32| {
-        view.whole || (slot + design.slots - view.first_slot) % design.slots < view.slots
-    };
+    // A window draws only coils whose top side lies in it; a part, only those of its own
+    // slots and element.
+    let tops = view.part.map_or(view.slots, |p| p.tops.min(view.slots));
+    let in_view =
+        |slot: u32| view.whole || (slot + design.slots - view.first_slot) % design.slots < tops;
+    let element = view.part.and_then(|p| p.element);
+    // Side by side, a part also draws the pieces of the coils of slots out of its view.
+    let shown = |slot: u32| (slot + design.slots - view.first_slot) % design.slots < view.slots;
+    let passing = view.part.is_some_and(|p| p.side_by_side);
     winding
         .connections
         .iter()
-        .filter(|conn| in_view(conn.top.slot))
+        .filter(|conn| in_view(conn.top.slot) || (passing && !shown(conn.top.slot)))
+        .filter(|conn| element.is_none_or(|e| element_index(conn.coil) == e as u32))
         .filter_map(|conn| {
             let shift = per_element * element_index(conn.coil);
             let top_deg = side_deg(conn.top.slot, conn.top.position + shift, false);
@@ -424,8 +652,16 @@ fn draw_coils(
         .collect()
 }
 
-/// The developed diagram with `gutter` mm either side of the strip.
-fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutter: f64) -> Diagram {
+/// The developed diagram with `gutter` mm either side of the strip and `lines` header lines;
+/// with `part`, the part of a continued diagram from that slot.
+fn layout_in(
+    design: &Design,
+    winding: &Winding,
+    options: &DiagramOptions,
+    gutter: f64,
+    lines: usize,
+    part: Option<(u32, PartRequest)>,
+) -> Diagram {
     let s = f64::from(design.slots);
     let c = f64::from(winding.active_coils);
     let slot_deg = 360.0 / s;
@@ -435,7 +671,7 @@ fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutte
     let fit = options
         .floor
         .then(|| (strip_w / min_slot_pitch(design, winding)).floor() as u32);
-    let bands = bands::bands(design, winding, options.height);
+    let bands = bands::bands(design, winding, options.height, lines);
     let room = (bands.pole.0 + 2.0, bands.commutator.1);
     let geo_at = |view: &View, seam: f64| {
         let scale = strip_w / (f64::from(view.slots) * slot_deg);
@@ -445,28 +681,20 @@ fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutte
             turn: 360.0 * scale,
             strip,
             whole: view.whole,
+            copies: view.whole || view.part.is_some_and(|p| p.side_by_side),
         }
     };
-    let mut view = resolve_view(design, winding, options.window, fit);
-    let (mut seam, mut coils, mut drawn) =
+    let mut view = match part {
+        Some(part) => part_view(design, winding, options.window, fit, part),
+        None => resolve_view(design, winding, options.window, fit),
+    };
+    let (seam, mut coils, drawn) =
         seam_and_coils(design, winding, &bands, &view, &|f| geo_at(&view, f));
     let labelled = place_edge_labels(&mut coils, EDGE_LABEL_GAP, room, view.whole);
-    let crowded = !labelled || least_dot_gap(&coils) < nodes::CUT_DOT_FLOOR;
-    if crowded && view.whole && options.floor {
-        // The whole view has more lines at its seam than the gutter can label at the floor:
-        // a printed sheet shows the coils that lie wholly in a window instead, which leave no
-        // edge but by their leads (a screen, which zooms, keeps the whole view).
-        view = View {
-            whole: false,
-            slots: view.slots.min(design.slots - 1).max(1),
-            pole_pairs: None,
-            crowded: true,
-            ..view
-        };
-        (seam, coils, drawn) =
-            seam_and_coils(design, winding, &bands, &view, &|f| geo_at(&view, f));
-        place_edge_labels(&mut coils, EDGE_LABEL_GAP, room, false);
-    }
+    // A whole view with more lines at its seam than the gutter can label at the floor: a
+    // printed set continues the diagram over parts instead (a screen, which zooms, keeps it).
+    view.crowded =
+        view.whole && options.floor && (!labelled || least_dot_gap(&coils) < nodes::CUT_DOT_FLOOR);
     let geo = geo_at(&view, seam);
     let scale = geo.scale;
 
@@ -489,6 +717,20 @@ fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutte
         .collect();
 
     let poles = pole_bands(design, winding, &geo);
+    let part = part.map(|(first, request)| {
+        let slots = part_slots(design, winding, &view, &coils, drawn);
+        Part {
+            first_slot: first,
+            slots,
+            element: request.element.map(|e| winding.elements[e].kind.as_str()),
+            side_by_side: request.side_by_side,
+            match_x: (strip.0 + (f64::from(slots) - 0.5 + seam) * slot_pitch).min(strip.1),
+            number: 1,
+            count: 1,
+            before: None,
+            after: None,
+        }
+    });
 
     thin_tags(&mut coils, label_size, 0.6);
     let segments = segment_boxes(winding, &geo, segment_pitch);
@@ -514,6 +756,66 @@ fn layout_in(design: &Design, winding: &Winding, options: &DiagramOptions, gutte
         turn_segment_labels,
         label_size,
         drawn,
+        part,
+    }
+}
+
+/// The view of a part from slot `first`: as many slots as the sheet holds (`fit`), at most
+/// the window asked for.
+fn part_view(
+    design: &Design,
+    winding: &Winding,
+    window: Window,
+    fit: Option<u32>,
+    (first, request): (u32, PartRequest),
+) -> View {
+    let asked = resolve_view(design, winding, window, None);
+    let limit = match window {
+        Window::PolePairs { .. } => asked.slots,
+        _ => design.slots,
+    };
+    View {
+        whole: false,
+        first_slot: first,
+        slots: fit.unwrap_or(limit).min(limit).max(1),
+        pole_pairs: None,
+        part: Some(request),
+        ..asked
+    }
+}
+
+/// How many slots' coils a part drew, from its first: all it may draw when it drew every
+/// coil it may, else through the top slot of the last it drew.
+fn part_slots(
+    design: &Design,
+    winding: &Winding,
+    view: &View,
+    coils: &[CoilDrawing],
+    drawn: Drawn,
+) -> u32 {
+    let Some(request) = view.part else {
+        return view.slots;
+    };
+    let room = request.tops.min(view.slots);
+    if request.side_by_side {
+        return room;
+    }
+    let s = design.slots;
+    let mine = |coil: u32| {
+        request
+            .element
+            .is_none_or(|e| winding.elements[e].holds(coil))
+    };
+    let may = winding
+        .connections
+        .iter()
+        .filter(|c| mine(c.coil) && (c.top.slot + s - view.first_slot) % s < room)
+        .count();
+    match drawn {
+        Drawn::TopsThrough(last) if coils.len() < may && last > 0 => {
+            ((last + s - view.first_slot) % s + 1).min(room)
+        }
+        _ => room,
     }
 }
 

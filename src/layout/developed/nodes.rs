@@ -5,7 +5,7 @@
 //! (`data-coil`, `data-start-seg`, `data-end-seg`), `seg-7` (`data-seg`), `brush-1`, `eq-3`.
 
 use crate::design::Rotation;
-use crate::layout::font::{Weight, cut_to_width, text_width};
+use crate::layout::font::{Weight, text_width};
 use crate::layout::style::{TEXT_FLOOR, colour_class, dash_class};
 use crate::layout::tree::{Circle, Group, Line, Node, Path, PathOp, Rect, Text};
 use crate::winding::Polarity;
@@ -46,12 +46,6 @@ fn hatch(x0: f64, x1: f64, y0: f64, y1: f64, step: f64) -> Vec<Line> {
         t += step;
     }
     out
-}
-
-/// `s` at (x, y) in `class`, cut to `width` mm.
-fn text_cut(x: f64, y: f64, size: f64, width: f64, class: &str, s: &str) -> Text {
-    let (weight, _) = crate::layout::style::text_face(class);
-    Text::new(x, y, size, class, cut_to_width(s, size, weight, width))
 }
 
 fn rect(class: &str, x: f64, y: f64, w: f64, h: f64) -> Node {
@@ -97,10 +91,11 @@ fn header_head(d: &Diagram) -> String {
 /// drawn.
 fn header_note(d: &Diagram) -> String {
     let v = &d.view;
+    let last_of = |first: u32, n: u32| (first - 1 + n - 1) % v.total_slots + 1;
     let mut note = if v.whole {
         "whole armature shown".to_string()
     } else {
-        let last = (v.first_slot - 1 + v.slots - 1) % v.total_slots + 1;
+        let last = last_of(v.first_slot, v.slots);
         let pairs = v.pole_pairs.unwrap_or(1);
         match v.pole_pairs {
             Some(_) => format!(
@@ -111,12 +106,13 @@ fn header_note(d: &Diagram) -> String {
                 pairs,
                 if pairs == 1 { "" } else { "s" }
             ),
-            None if v.crowded => format!(
-                "slots {}\u{2013}{} of {} shown: the whole view has more lines at its edges than the print can label",
-                v.first_slot, last, v.total_slots
+            None if v.slots >= v.total_slots && v.first_slot > 1 => format!(
+                "all {} slots shown, from slot {}",
+                v.total_slots, v.first_slot
             ),
+            None if v.slots >= v.total_slots => format!("all {} slots shown", v.total_slots),
             None => format!(
-                "slots {}\u{2013}{} of {} shown, at a scale the print can hold",
+                "slots {}\u{2013}{} of {} shown",
                 v.first_slot, last, v.total_slots
             ),
         }
@@ -127,6 +123,27 @@ fn header_note(d: &Diagram) -> String {
             note.push_str(" \u{b7} pattern does not repeat exactly: see the connection table")
         }
         None => {}
+    }
+    if let Some(p) = &d.part {
+        let element = p
+            .element
+            .map(|e| format!(" of the {e} element"))
+            .unwrap_or_default();
+        let last = p.last_slot(v.total_slots);
+        let slots = if p.slots == 1 {
+            format!("slot {}", p.first_slot)
+        } else {
+            format!("slots {}\u{2013}{last}", p.first_slot)
+        };
+        let how = if p.side_by_side {
+            "and the lines of others that pass; a line that meets a match line goes on at the same height on the sheet named there"
+        } else {
+            "cut at the edges with where each line goes"
+        };
+        note.push_str(&format!(
+            " \u{b7} drawn here: the coils{element} whose top sides lie in {slots}, {how}"
+        ));
+        return note;
     }
     match d.drawn {
         super::Drawn::Every => {}
@@ -142,22 +159,78 @@ fn header_note(d: &Diagram) -> String {
     note
 }
 
-/// Header: rotation and what is shown. One line when both fit at the floor, else the window
-/// note on a second line, wrapped no further than the strip (it is kept short enough to fit
-/// at the floor).
-fn header(d: &Diagram, g: &mut Group) {
+/// The header's texts as they are set: the rotation and the note on one line, at the size
+/// returned, when both fit at the floor; else the rotation, then the note wrapped at the
+/// floor over as many lines as it needs (never cut).
+fn header_fit(d: &Diagram) -> (String, String, Option<f64>, Vec<String>) {
     let (x0, x1) = d.strip;
-    let b = &d.bands;
     let head = header_head(d);
     let note = header_note(d);
     let hs = header_size(&head, &note, x1 - x0, 2.8);
     if hs >= TEXT_FLOOR {
-        g.push(Text::new(x0, b.header, hs, "", head));
-        g.push(Text::new(x1, b.header, hs, "end b", note));
+        (head, note, Some(hs), Vec::new())
     } else {
-        let s = TEXT_FLOOR;
-        g.push(Text::new(x0, b.header, s, "", head));
-        g.push(text_cut(x0, b.header2, s, x1 - x0, "b", &note));
+        let lines = crate::layout::font::wrap_text(&note, TEXT_FLOOR, Weight::Bold, x1 - x0);
+        (head, note, None, lines)
+    }
+}
+
+/// The lines the header of `d` takes: its texts, and on a part of a continued diagram the
+/// row naming the sheets beyond its match lines.
+pub(super) fn header_line_count(d: &Diagram) -> usize {
+    let (_, _, one, wrapped) = header_fit(d);
+    let texts = if one.is_some() { 1 } else { 1 + wrapped.len() };
+    texts + usize::from(d.part.is_some())
+}
+
+/// Header: rotation and what is shown (see [`header_fit`]), then on a part its match row.
+fn header(d: &Diagram, g: &mut Group) {
+    let (x0, x1) = d.strip;
+    let b = &d.bands;
+    let (head, note, one, wrapped) = header_fit(d);
+    match one {
+        Some(hs) => {
+            g.push(Text::new(x0, b.header[0], hs, "", head));
+            g.push(Text::new(x1, b.header[0], hs, "end b", note));
+        }
+        None => {
+            g.push(Text::new(x0, b.header[0], TEXT_FLOOR, "", head));
+            for (line, &y) in wrapped.into_iter().zip(&b.header[1..]) {
+                g.push(Text::new(x0, y, TEXT_FLOOR, "b", line));
+            }
+        }
+    }
+    if let Some(p) = &d.part {
+        match_lines(d, p, g);
+    }
+}
+
+/// A part's match lines: the strip's left edge, where the part before takes over, and the
+/// line after its last slot, where the next part does; each named, on the header's last
+/// line, with the sheet that carries on (part k is on sheet k).
+fn match_lines(d: &Diagram, p: &super::Part, g: &mut Group) {
+    let (x0, x1) = d.strip;
+    let b = &d.bands;
+    let y = *b.header.last().expect("the header has lines");
+    let s = d.view.total_slots;
+    let bottom = b.brush.1;
+    let mut left_end = x0;
+    if let Some(before) = p.before {
+        let prev = (p.first_slot + s - 2) % s + 1;
+        let text = format!("\u{2190} slot {prev} and before: sheet {before}");
+        left_end = x0 + text_width(&text, TEXT_FLOOR, Weight::Bold);
+        g.push(Text::new(x0, y, TEXT_FLOOR, "b", text));
+        g.push(Line::new("match", (x0, y + 1.0), (x0, bottom)));
+    }
+    if let Some(after) = p.after {
+        let next = (p.first_slot - 1 + p.slots) % s + 1;
+        let text = format!("slot {next} on: sheet {after} \u{2192}");
+        let w = text_width(&text, TEXT_FLOOR, Weight::Bold);
+        let mx = p.match_x;
+        g.push(Line::new("match", (mx, y + 1.0), (mx, bottom)));
+        // Beside its line, unless that would run past the strip or into the left text.
+        let start = (mx + 0.8).min(x1 - w).max(left_end + 2.0);
+        g.push(Text::new(start, y, TEXT_FLOOR, "b", text));
     }
 }
 

@@ -47,9 +47,27 @@ pub struct View {
     /// Slots after which the pattern repeats (S/p) when that is whole and the segments
     /// (C/p) are whole too.
     pub repeat_slots: Option<u32>,
-    /// A window shown because the whole view has more lines at its seam than the gutters can
-    /// label at the floor.
+    /// A whole view with more lines at its seam than its gutters can label at the floor (a
+    /// printed set continues the diagram on further sheets instead).
     pub crowded: bool,
+    /// On a part of a continued diagram: which coils the part may draw.
+    pub part: Option<PartRequest>,
+}
+
+/// The coils a part of a continued diagram may draw: those whose top sides lie in the
+/// `tops` slots from the view's first slot (of `element` alone, on a winding of several).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct PartRequest {
+    /// Slots, from the view's first, whose coils are still to be drawn.
+    pub tops: u32,
+    /// The element drawn (an index into `Winding::elements`), on a winding of several.
+    pub element: Option<usize>,
+    /// Side by side: the parts' strips meet edge to edge at one scale, each draws every
+    /// coil of its own slots and the pieces of the others' that pass through it, and a line
+    /// leaving one part at a match line enters the next at the same height (no edge labels).
+    /// Else each part draws only the coils of its own slots, each line cut at an edge
+    /// labelled with where it goes.
+    pub side_by_side: bool,
 }
 
 /// Resolves the window into a [`View`]; `fit_slots` (a sheet's legibility limit) caps the
@@ -86,6 +104,7 @@ fn requested_view(design: &Design, winding: &Winding, window: Window) -> View {
         pole_pairs: None,
         repeat_slots,
         crowded: false,
+        part: None,
     };
     let (pairs, first) = match window {
         Window::Whole => return whole,
@@ -113,6 +132,7 @@ fn requested_view(design: &Design, winding: &Winding, window: Window) -> View {
         pole_pairs: Some(pairs),
         repeat_slots,
         crowded: false,
+        part: None,
     }
 }
 
@@ -123,6 +143,9 @@ pub(super) struct Geo {
     pub(super) turn: f64,
     pub(super) strip: (f64, f64),
     pub(super) whole: bool,
+    /// Draw every copy of a line round the turn that falls in the strip (the whole view, and
+    /// the parts of a diagram continued side by side).
+    pub(super) copies: bool,
 }
 
 impl Geo {
@@ -155,7 +178,7 @@ impl Geo {
     pub(super) fn polyline(&self, pts: &[Point]) -> Vec<(Vec<Point>, bool, bool)> {
         let mut out = Vec::new();
         // A window draws each coil once, from the copy whose top side is in view.
-        let shifts = if self.whole { -1..=1 } else { 0..=0 };
+        let shifts = if self.copies { -1..=1 } else { 0..=0 };
         for k in shifts {
             let shift = f64::from(k) * self.turn;
             let moved: Vec<Point> = pts.iter().map(|&(x, y)| (x + shift, y)).collect();

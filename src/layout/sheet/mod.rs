@@ -30,8 +30,10 @@ use crate::features::armature_test::ArmatureTest;
 use crate::rating::RatingReport;
 use crate::winding::{EqualizerPlan, Winding};
 
-use super::developed::{DiagramOptions, Window, layout_developed, nodes::diagram_group};
-use super::font::{cut_to_width, fit_size};
+use super::developed::{
+    Diagram, DiagramOptions, Part, WholeRefused, Window, nodes::diagram_group, printed_diagrams,
+};
+use super::font::{Weight, cut_to_width, fit_size, wrap_text};
 use super::paper::Paper;
 use super::style::{TEXT_FLOOR, text_face};
 use super::tree::{self, Line, Node, Page, PageKind, PageUnit, Text};
@@ -64,7 +66,9 @@ struct Input<'a> {
 
 /// What one sheet shows.
 enum Content {
-    Diagram,
+    /// A developed diagram: the whole, or a part of one continued over several sheets
+    /// (sheet k carries part k); sheet 1 carries the blocks.
+    Diagram(usize),
     WindingData,
     Connections(TablePage),
     Equalizers(TablePage),
@@ -76,8 +80,14 @@ enum Content {
 
 /// Lays out every sheet of `checked`, in order; `result[0]` is sheet 1. `test` is the
 /// design's expected armature test (`features::armature_test::expected` with the default options),
-/// which the test sheets print.
-pub fn sheet_pages(checked: &Checked, test: &ArmatureTest, options: &SheetOptions) -> Vec<Page> {
+/// which the test sheets print. The developed diagram takes as many sheets as it needs to
+/// draw every coil at the floor (see [`printed_diagrams`]); a whole view asked for
+/// (`Window::Whole`) that cannot be printed at the floor is refused, with why.
+pub fn sheet_pages(
+    checked: &Checked,
+    test: &ArmatureTest,
+    options: &SheetOptions,
+) -> Result<Vec<Page>, WholeRefused> {
     let input = Input {
         design: &checked.design,
         winding: &checked.winding,
@@ -96,7 +106,18 @@ pub fn sheet_pages(checked: &Checked, test: &ArmatureTest, options: &SheetOption
             .map_or_else(Vec::new, rows::rating_sheet_rows),
     };
     let frame = page_frame(options.paper, !input.failures.is_empty());
-    let contents = sheet_contents(&input, &frame);
+    let area = diagram_sheet(&frame).diagram;
+    let diagrams = printed_diagrams(
+        input.design,
+        input.winding,
+        &DiagramOptions {
+            width: area.w,
+            height: area.h,
+            window: options.window,
+            floor: true,
+        },
+    )?;
+    let contents = sheet_contents(&input, &frame, diagrams.len());
     // The winding data in full closes the set when sheet 1 cannot hold it; sheet 1 names
     // the sheet it is on.
     let data_on_own_sheet = matches!(contents.last(), Some(Content::WindingData));
@@ -104,15 +125,15 @@ pub fn sheet_pages(checked: &Checked, test: &ArmatureTest, options: &SheetOption
     let data_sheet = contents.len();
     let total = contents.len();
     let seq = rows::sequence_labels(input.winding);
-    contents
+    let pages = contents
         .iter()
         .enumerate()
         .map(|(i, content)| {
             let mut page = begin_page(&frame);
             let (kind, title) = match content {
-                Content::Diagram => {
+                Content::Diagram(k) => {
                     let more = data_on_own_sheet.then_some(data_sheet);
-                    diagram_sheet_blocks(&mut page.children, &input, &frame, more);
+                    diagram_sheet_blocks(&mut page.children, &input, &frame, &diagrams[*k], more);
                     (PageKind::Diagram, "developed winding diagram")
                 }
                 Content::CommutatorEnd => {
@@ -141,7 +162,7 @@ pub fn sheet_pages(checked: &Checked, test: &ArmatureTest, options: &SheetOption
                     (PageKind::Tests, "tests and sign-off")
                 }
             };
-            if !matches!(content, Content::Diagram) {
+            if !matches!(content, Content::Diagram(_)) {
                 page.children
                     .push(caution::caution_box(&table::caution_rect(&frame), TEXT_FLOOR).into());
             }
@@ -153,11 +174,20 @@ pub fn sheet_pages(checked: &Checked, test: &ArmatureTest, options: &SheetOption
             }
             page.kind = kind;
             page.data.push(("data-page", kind.data_page().to_string()));
-            page.title = format!("sheet {} of {total}: {title}", i + 1);
+            page.title = match diagrams.get(i).and_then(|d| d.part.as_ref()) {
+                Some(p) => format!(
+                    "sheet {} of {total}: {title}, part {} of {}",
+                    i + 1,
+                    p.number,
+                    p.count
+                ),
+                None => format!("sheet {} of {total}: {title}", i + 1),
+            };
             page.document = super::screen::job_title(input.design);
             page
         })
-        .collect()
+        .collect();
+    Ok(pages)
 }
 
 /// The number of equalizer groups the equalizer table lists (none when the winding takes
@@ -172,9 +202,9 @@ fn equalizer_groups(input: &Input<'_>) -> usize {
 /// What each sheet holds, in order: the diagram, the commutator end view, the winding
 /// order, the connection and equalizer tables, the tests, and the winding data in full
 /// when sheet 1 cannot hold it.
-fn sheet_contents(input: &Input<'_>, frame: &PageFrame) -> Vec<Content> {
+fn sheet_contents(input: &Input<'_>, frame: &PageFrame, diagrams: usize) -> Vec<Content> {
     let area = table::table_area(frame);
-    let mut contents = vec![Content::Diagram];
+    let mut contents: Vec<Content> = (0..diagrams.max(1)).map(Content::Diagram).collect();
     let sheet1 = diagram_sheet(frame);
     let data_on_own_sheet = data::rows_held(input, &sheet1.data) < data::data_rows(input).len();
     contents.push(Content::CommutatorEnd);
@@ -242,27 +272,25 @@ fn begin_page(frame: &PageFrame) -> Page {
     }
 }
 
-/// Sheet 1: the diagram above, the data block, the legend and the caution box below.
+/// A diagram sheet: the diagram above; below, on sheet 1 the winding-data block, on a
+/// continuation sheet what it continues; then the legend and the caution box.
 fn diagram_sheet_blocks(
     out: &mut Vec<Node>,
     input: &Input<'_>,
     frame: &PageFrame,
+    diagram: &Diagram,
     data_more_on: Option<usize>,
 ) {
     let s = diagram_sheet(frame);
-    let diagram = layout_developed(
-        input.design,
-        input.winding,
-        &DiagramOptions {
-            width: s.diagram.w,
-            height: s.diagram.h,
-            window: input.options.window,
-            floor: true,
-        },
-    );
-    out.push(diagram_group(&diagram, s.diagram.x, s.diagram.y).into());
+    out.push(diagram_group(diagram, s.diagram.x, s.diagram.y).into());
     out.push(hline(frame.frame.x, frame.frame.right(), s.data.y, "rule"));
-    out.push(data::data_block(input, &s.data, data_more_on).0.into());
+    match diagram.part.as_ref().filter(|p| p.number > 1) {
+        Some(p) => {
+            let last = p.last_slot(input.design.slots);
+            out.push(part_block(p, last, &s.data, data_more_on).into());
+        }
+        None => out.push(data::data_block(input, &s.data, data_more_on).0.into()),
+    }
     out.push(vline(s.legend.x, s.legend.y, s.legend.bottom(), "rule"));
     let cut = diagram.coils.iter().any(|c| !c.cuts.is_empty());
     let edge = cut.then_some(diagram.view.whole);
@@ -275,6 +303,56 @@ fn diagram_sheet_blocks(
         h: s.notes.h - 3.0,
     };
     out.push(caution::caution_box(&caution, TEXT_FLOOR).into());
+}
+
+/// The block of a continuation sheet, where sheet 1 has its winding data: which part of the
+/// diagram this is, where the others are, how its match lines and cut lines read.
+fn part_block(p: &Part, last: u32, r: &Rect, data_more_on: Option<usize>) -> tree::Group {
+    let mut g = tree::Group::id("continuation");
+    g.push(Text::new(
+        r.x + 2.0,
+        r.y + 5.0,
+        3.2,
+        "b",
+        format!("Developed diagram, part {} of {}", p.number, p.count),
+    ));
+    let element = p
+        .element
+        .map(|e| format!(" of the {e} element"))
+        .unwrap_or_default();
+    let mut words = vec![format!(
+        "This sheet draws the coils{element} whose top sides lie in slots {}\u{2013}{}, with their leads to the bars.",
+        p.first_slot, last
+    )];
+    if let Some(b) = p.before {
+        words.push(format!(
+            "The coils of the slots before are on sheet {b}, behind the match line at the left edge."
+        ));
+    }
+    if let Some(a) = p.after {
+        words.push(format!(
+            "The coils of the slots after are on sheet {a}, beyond the match line (long dash, dot)."
+        ));
+    }
+    words.push(if p.side_by_side {
+        "The sheets of the diagram meet edge to edge at one scale: a line that meets a match line goes on at the same height on the sheet named above it. The lines of coils drawn on other sheets that pass through this one are drawn too.".to_string()
+    } else {
+        "A line cut at an edge ends in a dot labelled with its coil and where it goes: 12\u{2192}s26 runs to slot 26, 12\u{2192}b45 to bar 45.".to_string()
+    });
+    words.push(match data_more_on {
+        Some(n) => format!("The winding data is on sheet 1, and in full on sheet {n}."),
+        None => "The winding data is on sheet 1.".to_string(),
+    });
+    let line = TEXT_FLOOR * 1.35;
+    let mut y = r.y + 10.0;
+    for para in words {
+        for l in wrap_text(&para, TEXT_FLOOR, Weight::Regular, r.w - 4.0) {
+            g.push(Text::new(r.x + 2.0, y, TEXT_FLOOR, "", l));
+            y += line;
+        }
+        y += 0.6;
+    }
+    g
 }
 
 fn rect(class: &str, r: &Rect) -> Node {

@@ -115,7 +115,11 @@ pub fn drive(text: &str, rng: &mut Rng, parsed: &mut u64, every: Every) -> Reach
         };
         let test = expected(&checked.design, &checked.winding, &TestOptions::default());
         drive_armature_test(&checked, &test, rng);
-        let pages = sheet_pages(&checked, &test, &options);
+        // A whole view the paper cannot print is refused (a typed result the CLI reports).
+        let Ok(pages) = sheet_pages(&checked, &test, &options) else {
+            reached.sheets = true;
+            return reached;
+        };
         for page in &pages {
             let _ = page_svg(page);
         }

@@ -26,7 +26,8 @@ pub fn pages_for(d: &Design, paper: Paper, window: Window) -> Vec<Page> {
 }
 
 /// The page trees of every sheet of a checked design, with the armature test at its
-/// defaults, as `armsheet sheet` lays them out.
+/// defaults, as `armsheet sheet` lays them out (panics on a refused `Window::Whole`: see
+/// [`sheet_pages`]).
 pub fn checked_pages(checked: &Checked, paper: Paper, window: Window) -> Vec<Page> {
     let options = SheetOptions {
         paper,
@@ -34,7 +35,7 @@ pub fn checked_pages(checked: &Checked, paper: Paper, window: Window) -> Vec<Pag
         version: "test".into(),
     };
     let test = expected(&checked.design, &checked.winding, &TestOptions::default());
-    sheet_pages(checked, &test, &options)
+    sheet_pages(checked, &test, &options).expect("a printable window")
 }
 
 /// Every sheet of `d` as SVG.
