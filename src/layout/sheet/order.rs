@@ -201,7 +201,7 @@ fn order_words(input: &Input<'_>) -> String {
     let u = input.design.coils_per_slot;
     let waits = |e: &ElementLift| match (e.lifted, e.drop_after) {
         (Some(((a, b), (s, t))), Some(d)) => format!(
-            "leave the top sides of steps {} (slots {}) lifted until step {} is in, then drop them in",
+            "leave the top sides of steps {} (slots {}) lifted until the bottom sides under them are in (step {}), then drop them in",
             range(a + 1, b + 1),
             range(s, t),
             d + 1
