@@ -233,7 +233,7 @@ fn order_words(input: &Input<'_>) -> String {
         })
         .collect();
     let mut s = format!(
-        "Frog-leg: the {} elements are separate coils in the same slots. Each layer of a slot holds {} sides, {} (counted across the slot, as pos in the table). ",
+        "Frog-leg: the {} elements are separate coils in the same slots. Each layer of a slot holds {} sides, {} (positions counted across the slot, as in the slot/pos columns). ",
         lift.elements
             .iter()
             .map(|e| e.name)
