@@ -359,6 +359,25 @@ impl Winding {
             .unwrap_or(&self.elements[0])
     }
 
+    /// Coil sides a slot holds in each layer when the design lays `u` coils a slot per
+    /// element: u of each element (a frog-leg slot holds the wave element's beside the lap
+    /// element's).
+    pub fn sides_per_layer(&self, u: u32) -> u32 {
+        u * self.elements.len() as u32
+    }
+
+    /// Where in its layer the side of `conn` at element place `position` (1…u) lies, counted
+    /// across the whole slot (1…[`Self::sides_per_layer`]): the first element's sides take
+    /// places 1…u, a frog-leg's wave element's the next u, beside them.
+    pub fn place_in_slot(&self, conn: &Connection, position: u32, u: u32) -> u32 {
+        let element = self
+            .elements
+            .iter()
+            .position(|e| e.holds(conn.coil))
+            .unwrap_or(0) as u32;
+        element * u + position
+    }
+
     /// Active coils over every element (C per element).
     pub fn active_coils_all(&self) -> u32 {
         self.active_coils * self.elements.len() as u32

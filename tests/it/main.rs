@@ -57,3 +57,4 @@ mod shop_pages;
 mod span_limits;
 mod terminal_escapes;
 mod test_sheet;
+mod winding_order;

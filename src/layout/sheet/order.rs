@@ -3,7 +3,13 @@
 //!
 //! Part of the `layout` stage (the sheets). The first `span` slots' top sides are left
 //! lifted until the last coils' bottom sides are in (common practice), and the leads are
-//! connected bar by bar once every coil is in.
+//! connected bar by bar once every coil is in. A frog-leg's two elements are wound one after
+//! the other, the lap element first (common practice, from memory), each with its own lifted
+//! tops; the wave element's sides lie beside the lap element's in each layer of the slot, as
+//! the engine lays them (the developed diagram draws them so), and the order gives each side's
+//! place counted across the whole slot.
+
+use std::collections::BTreeMap;
 
 use crate::base::number::fmt_fixed;
 use crate::design::ConductorShape;
@@ -30,12 +36,20 @@ const COLUMNS: [([&str; 2], f64); 11] = [
 ];
 /// How many columns carry text; the rest are check-off boxes and the initials.
 const TEXT_COLUMNS: usize = 7;
-/// Row pitch, mm: the body text (3.5 mm) with 0.7 mm between rows, so that an A4 sheet
-/// holds at least 30 steps below its words.
-pub(super) const ORDER_ROW: f64 = 4.2;
+/// Row pitch, mm: the body text (3.5 mm, a capital of 2.55 mm) a row, its ink (2.8 mm above
+/// the baseline at most, 0.7 mm below) clear of the next row's, and the rows told apart by
+/// shading every other one instead of rules, so that an A4 sheet holds at least 36 steps
+/// below its words (39 on the sheets after the first).
+pub(super) const ORDER_ROW: f64 = 3.5;
+/// How far a row's baseline sits above the row's bottom edge, mm: the descent of the body
+/// text (0.24 em at most in DejaVu Sans, 0.7 mm) and a little.
+const ORDER_BASELINE: f64 = 0.72;
 /// A check-off box, mm: 5 wide and 3.4 high, inside its row with a margin above and below
-/// (the equalizer table's too).
+/// (the equalizer table's).
 pub(super) const BOX: (f64, f64) = (5.0, 3.4);
+/// Height of a winding-order check-off box, mm: inside its 3.5 mm row with 0.35 mm above and
+/// below.
+const ORDER_BOX_H: f64 = 2.8;
 /// Room a text cell leaves beside its text, mm.
 const CELL_PAD: f64 = 3.5;
 
@@ -102,19 +116,157 @@ fn turns_and_wire(input: &Input<'_>, turns: u32) -> String {
     s
 }
 
-/// Coils whose top sides are left lifted: those in the first `span` slots.
-fn lifted(input: &Input<'_>) -> usize {
-    (input.winding.pitches.span as usize * input.design.coils_per_slot as usize)
-        .min(input.winding.connections.len())
+/// The coils whose top sides wait lifted, and when they go down, read off the traced
+/// winding in step order: a coil's top side waits when a coil of its own element laid later
+/// puts its bottom side into the same slot, under it (derived). The steps are the
+/// connections in order: element by element, each slot by slot.
+struct Lift {
+    /// Per step (0-based): the top side waits lifted.
+    lifted: Vec<bool>,
+    /// Per element, in winding order.
+    elements: Vec<ElementLift>,
+}
+
+/// One element's lifted tops.
+struct ElementLift {
+    /// "lap" or "wave".
+    name: &'static str,
+    /// The element's steps, 0-based.
+    steps: std::ops::Range<usize>,
+    /// First and last step (0-based) whose top waits, and the slots they lie in.
+    lifted: Option<((usize, usize), (u32, u32))>,
+    /// The step (0-based) after which every lifted top of the element can go down.
+    drop_after: Option<usize>,
+}
+
+impl Lift {
+    fn of(input: &Input<'_>) -> Lift {
+        let w = input.winding;
+        let conns = &w.connections;
+        let element = |coil: u32| w.elements.iter().position(|e| e.holds(coil)).unwrap_or(0);
+        // The last step putting a bottom side into each slot, element by element.
+        let mut last_bottom: BTreeMap<(usize, u32), usize> = BTreeMap::new();
+        for (r, c) in conns.iter().enumerate() {
+            last_bottom.insert((element(c.coil), c.bottom.slot), r);
+        }
+        let under = |r: usize| {
+            let c = &conns[r];
+            last_bottom
+                .get(&(element(c.coil), c.top.slot))
+                .copied()
+                .filter(|&l| l > r)
+        };
+        let lifted: Vec<bool> = (0..conns.len()).map(|r| under(r).is_some()).collect();
+        let elements = w
+            .elements
+            .iter()
+            .enumerate()
+            .map(|(k, e)| {
+                let steps = conns
+                    .iter()
+                    .position(|c| element(c.coil) == k)
+                    .map_or(0..0, |a| a..a + e.coils as usize);
+                let waiting: Vec<usize> = steps.clone().filter(|&r| lifted[r]).collect();
+                let slots = waiting.iter().map(|&r| conns[r].top.slot);
+                ElementLift {
+                    name: e.kind.as_str(),
+                    lifted: waiting.first().zip(waiting.last()).map(|(&a, &b)| {
+                        (
+                            (a, b),
+                            (slots.clone().min().unwrap_or(1), slots.max().unwrap_or(1)),
+                        )
+                    }),
+                    drop_after: waiting.iter().filter_map(|&r| under(r)).max(),
+                    steps,
+                }
+            })
+            .collect();
+        Lift { lifted, elements }
+    }
+}
+
+/// "1–8", or "5" for one.
+fn range<T: std::fmt::Display + PartialEq>(a: T, b: T) -> String {
+    if a == b {
+        a.to_string()
+    } else {
+        format!("{a}\u{2013}{b}")
+    }
 }
 
 /// The winding-order words at the head of the first page.
 fn order_words(input: &Input<'_>) -> String {
-    let span = input.winding.pitches.span;
-    format!(
-        "Lay the coils slot by slot in step order. Leave the top sides of the coils in slots 1\u{2013}{span} (steps 1\u{2013}{}) lifted until the bottom sides of the last coils are in, then drop them in (common practice). When every coil is in, connect the leads bar by bar from bar 1, ticking each box as it is done.",
-        lifted(input)
-    )
+    let lift = Lift::of(input);
+    let w = input.winding;
+    let u = input.design.coils_per_slot;
+    let waits = |e: &ElementLift| match (e.lifted, e.drop_after) {
+        (Some(((a, b), (s, t))), Some(d)) => format!(
+            "leave the top sides of steps {} (slots {}) lifted until the bottom sides under them are in (step {}), then drop them in",
+            range(a + 1, b + 1),
+            range(s, t),
+            d + 1
+        ),
+        _ => "no top side waits".to_string(),
+    };
+    let close = "When every coil is in, connect the leads bar by bar from bar 1, ticking each box as it is done.";
+    if !w.is_multi_element() {
+        let e = &lift.elements[0];
+        return format!(
+            "Lay the coils slot by slot in step order. {} (common practice). {close}",
+            capitalised(&waits(e))
+        );
+    }
+    // A frog-leg: the elements one after the other, each slot by slot (common practice, from
+    // memory); each layer of a slot holds u sides of each element, side by side.
+    let places: Vec<String> = lift
+        .elements
+        .iter()
+        .enumerate()
+        .map(|(k, e)| {
+            let first = k as u32 * u + 1;
+            format!(
+                "the {} element's at position{} {}",
+                e.name,
+                if u == 1 { "" } else { "s" },
+                range(first, first + u - 1)
+            )
+        })
+        .collect();
+    let mut s = format!(
+        "Frog-leg: the {} elements are separate coils in the same slots. Each layer of a slot holds {} sides, {} (positions counted across the slot, as in the slot/pos columns). ",
+        lift.elements
+            .iter()
+            .map(|e| e.name)
+            .collect::<Vec<_>>()
+            .join(" and "),
+        w.sides_per_layer(u),
+        places.join(", beside them ")
+    );
+    for (k, e) in lift.elements.iter().enumerate() {
+        let steps = range(e.steps.start + 1, e.steps.end);
+        if k == 0 {
+            s.push_str(&format!(
+                "Wind the {} element first, steps {steps}, slot by slot: {}. ",
+                e.name,
+                waits(e)
+            ));
+        } else {
+            s.push_str(&format!(
+                "Then the {} element beside it, steps {steps}, slot by slot: {}. ",
+                e.name,
+                waits(e)
+            ));
+        }
+    }
+    s.push_str(close);
+    s
+}
+
+/// `s` with its first letter a capital.
+fn capitalised(s: &str) -> String {
+    let mut c = s.chars();
+    c.next()
+        .map_or_else(String::new, |f| f.to_uppercase().chain(c).collect())
 }
 
 /// Where the table starts on the first page, below the words, mm from the area's top.
@@ -153,11 +305,18 @@ pub(super) fn order_page(
     let mut g = Group::id(format!("order-{}", page.rows.start + 1)).with_class("winding-order");
     for (gx, rows) in &page.groups {
         let total: f64 = order.cols.iter().map(|c| c.1).sum();
-        order_heads(&mut g, &order.cols, *gx, page);
+        order_heads(&mut g, &order.cols, order.text_columns, *gx, page);
         for (i, r) in rows.clone().enumerate() {
-            let y = page.top + TABLE_HEADER + (i as f64 + 1.0) * page.row - 1.4;
-            g.push(order.row(r, *gx, y, page));
-            g.push(hline(*gx, *gx + total, y + 1.4, "thin"));
+            let row_top = page.top + TABLE_HEADER + i as f64 * page.row;
+            // Every other row shaded: the rows are told apart without rules through the ink.
+            if i % 2 == 1 {
+                g.push(tree::Rect::filled("#f1f1f1", *gx, row_top, total, page.row));
+            }
+            g.push(order.row(r, *gx, row_top, page));
+        }
+        if !rows.is_empty() {
+            let bottom = page.top + TABLE_HEADER + rows.len() as f64 * page.row;
+            g.push(hline(*gx, *gx + total, bottom, "thin"));
         }
     }
     out.push(g.into());
@@ -187,13 +346,25 @@ fn first_page_words(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFrame) {
 }
 
 /// The column heads of one group of rows at `gx`, and the rule below them.
-fn order_heads(g: &mut Group, cols: &[([&'static str; 2], f64)], gx: f64, page: &TablePage) {
+/// Heads stand over their cells: right-aligned, but the last text column's (read from the
+/// left) from the left.
+fn order_heads(
+    g: &mut Group,
+    cols: &[([&'static str; 2], f64)],
+    text_columns: usize,
+    gx: f64,
+    page: &TablePage,
+) {
     let mut cx = gx;
-    for &(head, width) in cols {
-        let hx = cx + width - 1.5;
-        g.push(Text::new(hx, page.top + 3.6, 3.0, "b end", head[0]));
+    for (j, &(head, width)) in cols.iter().enumerate() {
+        let (hx, cls) = if j + 1 == text_columns {
+            (cx + 2.0, "b")
+        } else {
+            (cx + width - 1.5, "b end")
+        };
+        g.push(Text::new(hx, page.top + 3.6, 3.0, cls, head[0]));
         if !head[1].is_empty() {
-            g.push(Text::new(hx, page.top + 7.3, 3.0, "b end", head[1]));
+            g.push(Text::new(hx, page.top + 7.3, 3.0, cls, head[1]));
         }
         cx += width;
     }
@@ -210,7 +381,7 @@ fn order_heads(g: &mut Group, cols: &[([&'static str; 2], f64)], gx: f64, page: 
 struct Order<'a> {
     input: &'a Input<'a>,
     wires: Vec<String>,
-    lift: usize,
+    lift: Lift,
     multi: bool,
     cols: Vec<([&'static str; 2], f64)>,
     text_columns: usize,
@@ -235,7 +406,7 @@ impl<'a> Order<'a> {
                 .iter()
                 .map(|e| turns_and_wire(input, e.turns))
                 .collect(),
-            lift: lifted(input),
+            lift: Lift::of(input),
             multi,
             cols: Vec::new(),
             text_columns: TEXT_COLUMNS + usize::from(multi),
@@ -246,29 +417,35 @@ impl<'a> Order<'a> {
     fn cells(&self, r: usize) -> Vec<String> {
         let input = self.input;
         let conn = &input.winding.connections[r];
+        let w = input.winding;
         let u = input.design.coils_per_slot;
+        let across = w.sides_per_layer(u);
+        // Each side's place counted across the whole slot (a frog-leg's wave sides follow
+        // the lap element's).
         let place = |slot: u32, pos: u32| {
-            if u == 1 {
+            if across == 1 {
                 slot.to_string()
             } else {
-                format!("{slot}/{pos}")
+                format!("{slot}/{}", w.place_in_slot(conn, pos, u))
             }
         };
         let bar = |s: Option<u32>| s.map_or_else(|| "cut".to_string(), |s| s.to_string());
-        let element = input
-            .winding
+        let element = w
             .elements
             .iter()
             .position(|e| e.holds(conn.coil))
             .unwrap_or(0);
-        let wire = &self.wires[element];
-        let note = if conn.dummy {
+        let mut note = if conn.dummy {
             "dummy: ends cut and taped".to_string()
-        } else if r < self.lift {
-            format!("{wire}; top lifted")
         } else {
-            wire.clone()
+            self.wires[element].clone()
         };
+        if self.lift.lifted[r] {
+            note.push_str("; top lifted");
+        }
+        if self.lift.elements.iter().any(|e| e.drop_after == Some(r)) {
+            note.push_str("; drop lifted tops");
+        }
         let mut cells = vec![
             (r + 1).to_string(),
             conn.coil.to_string(),
@@ -284,9 +461,10 @@ impl<'a> Order<'a> {
         cells
     }
 
-    /// Step `r` (0-based) as a row at `gx`, baseline `y`: its text cells, then a box to
-    /// tick for each check column.
-    fn row(&self, r: usize, gx: f64, y: f64, page: &TablePage) -> Group {
+    /// Step `r` (0-based) as a row at `gx` whose top edge is at `row_top`: its text cells,
+    /// then a box to tick for each check column.
+    fn row(&self, r: usize, gx: f64, row_top: f64, page: &TablePage) -> Group {
+        let y = row_top + page.row - ORDER_BASELINE;
         let conn = &self.input.winding.connections[r];
         let cells = self.cells(r);
         let text_columns = self.text_columns;
@@ -305,7 +483,7 @@ impl<'a> Order<'a> {
                 row.push(Text::new(x, y, BODY_TEXT, cls, cells[j].clone()));
             } else {
                 // A box to tick, or a wider one to initial.
-                let (bw, bh) = BOX;
+                let (bw, bh) = (BOX.0, ORDER_BOX_H);
                 let bw = if head[0] == "initials" {
                     width - 3.0
                 } else {
@@ -314,7 +492,7 @@ impl<'a> Order<'a> {
                 row.push(tree::Rect::new(
                     "checkbox",
                     cx + (width - bw) / 2.0,
-                    y + 1.4 - (page.row + bh) / 2.0,
+                    row_top + (page.row - bh) / 2.0,
                     bw,
                     bh,
                 ));

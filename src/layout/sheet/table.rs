@@ -28,7 +28,8 @@ struct Column {
 /// Which optional columns of the connection table a winding shows.
 #[derive(Clone, Copy)]
 struct Shown {
-    /// The position columns: only when u > 1.
+    /// The position columns: only when a slot layer holds more than one side (u > 1, or a
+    /// frog-leg's two elements).
     positions: bool,
     /// The front-pitch column: only when some connection's front pitch is not the nominal one
     /// (dummy coils stepped over). It costs a column group a page with u > 1 on Letter, A3 and
@@ -46,7 +47,7 @@ impl Shown {
     fn of(input: &Input<'_>) -> Shown {
         let w = input.winding;
         Shown {
-            positions: input.design.coils_per_slot > 1,
+            positions: w.sides_per_layer(input.design.coils_per_slot) > 1,
             front_pitch: w
                 .connections
                 .iter()
@@ -231,13 +232,16 @@ pub(super) fn connection_page(
             if shown.elements {
                 cells.push(conn.element.as_str().to_string());
             }
+            // Places counted across the whole slot, as the winding order gives them.
+            let u = input.design.coils_per_slot;
+            let place = |pos: u32| input.winding.place_in_slot(conn, pos, u).to_string();
             cells.push(conn.top.slot.to_string());
             if shown.positions {
-                cells.push(conn.top.position.to_string());
+                cells.push(place(conn.top.position));
             }
             cells.push(conn.bottom.slot.to_string());
             if shown.positions {
-                cells.push(conn.bottom.position.to_string());
+                cells.push(place(conn.bottom.position));
             }
             cells.push(seg(conn.start_segment));
             cells.push(seg(conn.end_segment));
