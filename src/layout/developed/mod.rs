@@ -396,7 +396,7 @@ pub(crate) const SIDE_SPREAD: f64 = 0.85;
 /// slot, spread over [`SIDE_SPREAD`] of the pitch) [`SIDE_GAP`] apart, and every segment
 /// number (turned, its digits' cap height across) beside the next.
 fn min_slot_pitch(design: &Design, winding: &Winding) -> f64 {
-    let u = f64::from(design.coils_per_slot * winding.elements.len() as u32);
+    let u = f64::from(winding.sides_per_layer(design.coils_per_slot));
     let sides = SIDE_GAP * 2.0 * u / SIDE_SPREAD;
     let per_slot = f64::from(winding.active_coils) / f64::from(design.slots);
     let numbers = (TEXT_FLOOR * 0.73 + 0.5) * per_slot;
@@ -515,7 +515,7 @@ fn seam_and_coils(
     // A view of many hundred coils is not searched: a whole one cannot be labelled at its
     // seam anyway (it falls back to a window), a window draws a few slots' coils.
     let search = winding.connections.len() <= SEARCHED_COILS || !whole;
-    let sides = design.coils_per_slot * winding.elements.len() as u32;
+    let sides = winding.sides_per_layer(design.coils_per_slot);
     let leans: &[f64] = if search { &APEX_LEANS } else { &[0.0] };
     'search: for &lean in leans {
         for seam in seam_offsets(sides, search) {
@@ -605,14 +605,7 @@ fn draw_coils(
     // A frog-leg's slot holds u sides of each element a layer: the wave element's beside the
     // lap element's.
     let per_element = design.coils_per_slot;
-    let u = per_element * winding.elements.len() as u32;
-    let element_index = |coil: u32| {
-        winding
-            .elements
-            .iter()
-            .position(|e| e.holds(coil))
-            .unwrap_or(0) as u32
-    };
+    let u = winding.sides_per_layer(per_element);
     let slot_deg = 360.0 / f64::from(design.slots);
     let side_deg = |slot: u32, position: u32, bottom: bool| {
         let j = 2 * (position - 1) + u32::from(bottom);
@@ -632,12 +625,12 @@ fn draw_coils(
         .connections
         .iter()
         .filter(|conn| in_view(conn.top.slot) || (passing && !shown(conn.top.slot)))
-        .filter(|conn| element.is_none_or(|e| element_index(conn.coil) == e as u32))
+        .filter(|conn| element.is_none_or(|e| winding.elements[e].holds(conn.coil)))
         .filter_map(|conn| {
-            let shift = per_element * element_index(conn.coil);
-            let top_deg = side_deg(conn.top.slot, conn.top.position + shift, false);
+            let place = |position: u32| winding.place_in_slot(conn, position, per_element);
+            let top_deg = side_deg(conn.top.slot, place(conn.top.position), false);
             let forward = (conn.bottom.slot + design.slots - conn.top.slot) % design.slots;
-            let bottom_deg = side_deg(conn.top.slot, conn.bottom.position + shift, true)
+            let bottom_deg = side_deg(conn.top.slot, place(conn.bottom.position), true)
                 + f64::from(forward) * slot_deg;
             coil_drawing(
                 conn,
