@@ -16,6 +16,7 @@ mod cli_safety;
 mod csv_output;
 mod diagram_tags;
 mod domain_notes;
+mod end_view;
 mod engine_properties;
 mod exact_symmetry;
 mod external_checks;
