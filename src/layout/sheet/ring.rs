@@ -1,12 +1,19 @@
 //! The commutator end view: the ring as the rewinder sees it from the commutator end, with
-//! the bars and slots numbered round it, slot 1's coil group thrown to its bars, the brushes
-//! at their real width with polarity, the pole axes, the rotation, the lead swing and the
-//! commutator throw in shop words.
+//! the bars and slots numbered round it, slot 1's coil group thrown to its bars, the cord
+//! through slot 1's centre drawn across the bars with the bar in line with it shaded and
+//! named, the brushes at their real width with polarity, the pole axes, the rotation, the
+//! lead swing and the commutator throw in shop words.
 //!
 //! Part of the `layout` stage (the sheets). Angles come from the traced winding (slot k's
 //! centre at (k − 1)·360/S, segment centres from `Winding::segment_deg`, brush centres and
-//! pole axes as traced); 0° is drawn at twelve o'clock and angles grow clockwise, as the
-//! slots are numbered seen from the commutator end.
+//! pole axes as traced, the in-line bar from `LeadSwing::in_line`); 0° is drawn at twelve
+//! o'clock and angles grow clockwise, as the slots are numbered seen from the commutator end.
+//!
+//! Counting the bars: a line at every mica, a short tick at every 5th bar and a long one at
+//! every 10th, bar 1 marked and numbered in bold, and numbers at the finest step of
+//! `BAR_STEPS` whose numbers all fit (tested in `tests/it/end_view.rs`). Every text of the
+//! ring goes through one `Placer`, so none overlaps another: slot numbers in one row,
+//! brush names in up to three (the sign alone where no name fits, said in the words).
 
 use crate::design::Rotation;
 use crate::layout::font::{Weight, ink_extent, text_width, wrap_text};
@@ -45,6 +52,8 @@ type Bbox = (f64, f64, f64, f64);
 /// and stays inside the ring's room.
 #[derive(Clone)]
 struct Placer {
+    /// The ring's centre.
+    centre: (f64, f64),
     room: Bbox,
     boxes: Vec<Bbox>,
 }
@@ -68,10 +77,8 @@ impl Placer {
     /// the circle `r_edge` by `clear` mm on the side away from it (`outward`: beyond it,
     /// else inside it), in the first of `rows` rows, stepping a box's depth each row, where it
     /// fits; `None` where no row does.
-    #[allow(clippy::too_many_arguments)]
     fn radial(
         &mut self,
-        centre: (f64, f64),
         (r_edge, outward): (f64, bool),
         deg: f64,
         clear: f64,
@@ -91,7 +98,7 @@ impl Placer {
             if r < depth + 2.0 {
                 return None;
             }
-            let p = at(centre, r, deg);
+            let p = at(self.centre, r, deg);
             let b = (p.0 - hw, p.1 - hh, p.0 + hw, p.1 + hh);
             if self.fits(b) {
                 self.boxes.push(b);
@@ -157,6 +164,7 @@ pub(super) fn ring_page(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
     };
     // Every text of the ring keeps clear of every other, inside the room left of the words.
     let mut placer = Placer {
+        centre: ring.centre,
         room: (
             c.x + 1.0,
             c.y + 9.0,
@@ -273,7 +281,7 @@ fn ring_cord(g: &mut Group, input: &Input<'_>, ring: &Ring, placer: &mut Placer)
 }
 
 /// Bars: the ring, a tick at every mica, a short tick inward at every 5th bar and a long
-/// one at every 10th, bar 1 marked, and numbers at the finest step of [`BAR_STEPS`] whose
+/// one at every 10th, bar 1 marked, and numbers at the finest step of `BAR_STEPS` whose
 /// numbers all fit in two rows (bar 1 always numbered, in bold). Returns the step.
 fn ring_bars(g: &mut Group, input: &Input<'_>, ring: &Ring, placer: &mut Placer) -> u32 {
     let w = input.winding;
@@ -336,15 +344,7 @@ fn ring_bars(g: &mut Group, input: &Input<'_>, ring: &Ring, placer: &mut Placer)
         );
         let mut all = true;
         for s in wanted {
-            match trial.radial(
-                centre,
-                edge,
-                w.segment_deg(s),
-                0.8,
-                2,
-                face(s),
-                &s.to_string(),
-            ) {
+            match trial.radial(edge, w.segment_deg(s), 0.8, 2, face(s), &s.to_string()) {
                 Some(t) => numbers.push(t.with_data("data-seg", s)),
                 None => {
                     all = false;
@@ -360,7 +360,7 @@ fn ring_bars(g: &mut Group, input: &Input<'_>, ring: &Ring, placer: &mut Placer)
     }
     // No step fits: bar 1 alone.
     let mut numbers = Group::id("bar-numbers").with_data("data-step", bars);
-    if let Some(t) = placer.radial(centre, edge, a1, 0.8, 3, face(1), "1") {
+    if let Some(t) = placer.radial(edge, a1, 0.8, 3, face(1), "1") {
         numbers.push(t.with_data("data-seg", 1));
     }
     g.push(numbers);
@@ -397,7 +397,6 @@ fn ring_slots(g: &mut Group, input: &Input<'_>, ring: &Ring, placer: &mut Placer
     {
         let a = f64::from(k - 1) * slot_deg;
         if let Some(t) = placer.radial(
-            centre,
             (r_slot, true),
             a,
             0.8,
@@ -492,9 +491,9 @@ fn ring_brushes(g: &mut Group, input: &Input<'_>, ring: &Ring, placer: &mut Plac
         let edge = (ring.r_slot + 6.0, true);
         let face = ("mid b", Weight::Bold);
         let name = format!("B{}{sign}", b.index);
-        if let Some(t) = placer.radial(centre, edge, centre_deg, 0.6, 3, face, &name) {
+        if let Some(t) = placer.radial(edge, centre_deg, 0.6, 3, face, &name) {
             bg.push(t);
-        } else if let Some(t) = placer.radial(centre, edge, centre_deg, 0.6, 3, face, sign) {
+        } else if let Some(t) = placer.radial(edge, centre_deg, 0.6, 3, face, sign) {
             sign_only += 1;
             bg.push(t);
         }
