@@ -11,8 +11,9 @@
 //! - the rule to count by (derived, the counting rule of a graduated scale): bar 1 numbered
 //!   and marked; a number at every multiple of the stated step and nowhere else, each on its
 //!   own bar's ray; a tick at every 5th bar, a longer one at every 10th, a line at every mica;
-//!   and at 96 poles a numbered bar at least every 10 bars round the ring (every 5 on A3), so
-//!   no bar is more than 2 from a tick and no count from a number passes a 5-tick unmarked.
+//!   and at 96 poles a numbered bar at least every 10 bars round the ring (every 5 on A3 and
+//!   Tabloid): any bar is at most 2 micas from a tick, and any tick at most one tick from a
+//!   number.
 
 use crate::legibility::{PAPERS, breaches};
 use crate::support;
@@ -303,7 +304,11 @@ fn the_end_view_at_96_poles_is_legible_and_countable_on_every_paper() {
         assert_eq!(c.winding.brushes.len(), 96, "{name}");
         for paper in PAPERS {
             let page = end_page(&c, paper);
-            let dense = if paper == Paper::A3 { 5 } else { 10 };
+            let dense = if matches!(paper, Paper::A3 | Paper::Tabloid) {
+                5
+            } else {
+                10
+            };
             for b in breaches(&page)
                 .into_iter()
                 .chain(ring_breaches(&c, &page, Some(dense)))

@@ -157,7 +157,7 @@ pub(super) fn ring_page(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
         .filter(|dc| dc / 2.0 + 9.0 <= r_max);
     let ring = Ring {
         centre: (c.x + 4.0 + room_w / 2.0, c.y + 10.0 + room_h / 2.0),
-        r_bar: true_dc.map_or(r_max * 0.7, |dc| dc / 2.0),
+        r_bar: true_dc.map_or(r_max * 0.78, |dc| dc / 2.0),
         r_slot: r_max - 2.0,
         seg_deg: 360.0 / f64::from(input.winding.active_coils),
         slot_deg: 360.0 / f64::from(d.slots),
@@ -253,13 +253,18 @@ fn ring_cord(g: &mut Group, input: &Input<'_>, ring: &Ring, placer: &mut Placer)
     cord.data.push(("data-inline", ids.join(" ")));
     g.push(cord);
     let words = match bars[..] {
-        [b] => format!("slot 1 in line: bar {b}"),
-        _ => format!("slot 1 in line: mica {}|{}", bars[0], bars[1]),
+        [b] => format!("in line: bar {b}"),
+        _ => format!("in line: mica {}|{}", bars[0], bars[1]),
     };
     // Beside the cord, halfway between the bars and the slots, on whichever side has room.
     let width = text_width(&words, TEXT_FLOOR, Weight::Regular);
     let (up, down) = ink_extent(&words, TEXT_FLOOR, Weight::Regular);
-    let mid = at(ring.centre, (ring.r_slot + ring.r_bar) / 2.0, 0.0);
+    // Between the brushes' backs and the slot ticks.
+    let mid = at(
+        ring.centre,
+        (ring.r_bar + 3.4 + ring.r_slot - 3.0) / 2.0,
+        0.0,
+    );
     for dy in [0.0, -4.0, 4.0, -8.0, 8.0] {
         for side in [-1.0, 1.0] {
             let x0 = if side < 0.0 {
@@ -267,11 +272,12 @@ fn ring_cord(g: &mut Group, input: &Input<'_>, ring: &Ring, placer: &mut Placer)
             } else {
                 mid.0 + 1.2
             };
-            let b = (x0, mid.1 + dy - up, x0 + width, mid.1 + dy + down);
+            let base = mid.1 + dy + (up - down) / 2.0;
+            let b = (x0, base - up, x0 + width, base + down);
             if placer.fits(b) {
                 placer.boxes.push(b);
                 g.push(
-                    Text::new(x0, mid.1 + dy, TEXT_FLOOR, "halo", words.clone())
+                    Text::new(x0, base, TEXT_FLOOR, "halo", words.clone())
                         .with_data("data-part", "cord"),
                 );
                 return;
