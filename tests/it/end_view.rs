@@ -279,7 +279,7 @@ fn ring_breaches(c: &Checked, page: &Page, dense: Option<u32>) -> Vec<String> {
         if !ok {
             out.push(format!("brush {} is neither named nor signed", b.index));
         }
-        signed += usize::from(!texts_in(g).iter().any(|t| t.content == name));
+        signed += usize::from(texts_in(g).iter().any(|t| t.content == sign));
     }
     let words = page
         .texts()
@@ -345,7 +345,7 @@ fn the_designs_put_slot_1_on_a_bar_and_on_a_mica() {
 }
 
 #[test]
-fn the_ring_check_finds_a_missing_number_a_moved_cord_and_a_wrong_shade() {
+fn the_ring_check_finds_a_missing_number_a_moved_cord_a_wrong_shade_and_a_lost_brush() {
     let c = checked(LAP);
     let page = end_page(&c, Paper::A4);
     assert!(ring_breaches(&c, &page, Some(10)).is_empty());
@@ -390,4 +390,27 @@ fn the_ring_check_finds_a_missing_number_a_moved_cord_and_a_wrong_shade() {
     let found = ring_breaches(&c, &p, Some(10)).join("\n");
     assert!(found.contains("short of the bars"), "{found}");
     assert!(found.contains("shaded bars [1]"), "{found}");
+    // Brush 5's name taken away, and brush 7's sign written alone with no key in the words.
+    let mut p = page.clone();
+    edit(&mut p.children, &mut |n| match n {
+        Node::Group(g) if g.id.as_deref() == Some("ring-brush-5") => {
+            g.children.retain(|t| !matches!(t, Node::Text(_)));
+            true
+        }
+        Node::Group(g) if g.id.as_deref() == Some("ring-brush-7") => {
+            for t in g.children.iter_mut() {
+                if let Node::Text(t) = t {
+                    t.content = t.content.chars().last().unwrap().to_string();
+                }
+            }
+            true
+        }
+        _ => false,
+    });
+    let found = ring_breaches(&c, &p, Some(10)).join("\n");
+    assert!(
+        found.contains("brush 5 is neither named nor signed"),
+        "{found}"
+    );
+    assert!(found.contains("1 brushes signed alone"), "{found}");
 }
