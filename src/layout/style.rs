@@ -62,6 +62,10 @@ pub const SHORTED_DASH: &[f64] = &[0.9, 0.5, 0.9, 1.9];
 /// The dash of a match line of a continued diagram: long dash, gap, dot, gap (mm).
 pub const MATCH_DASH: &[f64] = &[4.0, 1.0, 0.6, 1.0];
 
+/// Dash pattern of the cord through slot 1's centre on the commutator end view, mm: a
+/// centre line's long dash and dot.
+pub const CORD_DASH: &[f64] = &[3.0, 0.8, 0.6, 0.8];
+
 /// Grey of coils under commutation (shorted by a brush at the drawn instant).
 pub const SHORTED_GREY: &str = "#505050";
 /// Grey of dummy coils.
@@ -276,6 +280,7 @@ fn build_table() -> Vec<Rule> {
         rule(&["end"], vec![Anchor(self::Anchor::End)]),
         rule(&["mid"], vec![Anchor(self::Anchor::Middle)]),
     ];
+    t.extend(end_view_rules());
     for (i, c) in PATH_COLOURS.iter().enumerate() {
         t.push(rule(&[&format!("k{}", i + 1)], vec![Stroke(Some(c))]));
         t.push(rule(&[&format!("f{}", i + 1)], vec![Fill(Some(c))]));
@@ -299,6 +304,28 @@ fn match_rule() -> Rule {
         Dash(MATCH_DASH),
     ];
     rule(&["match"], line)
+}
+
+/// The end view's own looks: the cord through slot 1's centre (a centre line, dash-dot),
+/// the bar in line with it (shaded, outlined), and bar 1's dot.
+fn end_view_rules() -> Vec<Rule> {
+    use Decl::*;
+    vec![
+        rule(
+            &["cord"],
+            vec![
+                Fill(None),
+                Stroke(Some(INK)),
+                StrokeWidth(0.35),
+                Dash(CORD_DASH),
+            ],
+        ),
+        rule(
+            &["inline-bar"],
+            vec![Fill(Some("#b0b0b0")), Stroke(Some(INK)), StrokeWidth(0.25)],
+        ),
+        rule(&["bar1-dot"], vec![Fill(Some(INK)), Stroke(None)]),
+    ]
 }
 
 /// The looks of one item, after the cascade.

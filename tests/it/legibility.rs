@@ -29,7 +29,7 @@ const SIDE_GAP: f64 = 1.0;
 /// Overlap below this is not counted, mm (far below what the eye sees).
 const SLACK: f64 = 0.02;
 
-const PAPERS: [Paper; 4] = [Paper::A4, Paper::A3, Paper::Letter, Paper::Tabloid];
+pub(crate) const PAPERS: [Paper; 4] = [Paper::A4, Paper::A3, Paper::Letter, Paper::Tabloid];
 
 /// A text placed on the page, with the classes and ids of the groups around it.
 struct Placed<'a> {
@@ -104,7 +104,7 @@ fn walk<'a>(
 }
 
 /// Every breach of the floor on `page`, worded.
-fn breaches(page: &Page) -> Vec<String> {
+pub(crate) fn breaches(page: &Page) -> Vec<String> {
     let mut texts = Vec::new();
     let mut sides = Vec::new();
     let mut dots = Vec::new();

@@ -16,6 +16,7 @@ mod cli_safety;
 mod csv_output;
 mod diagram_tags;
 mod domain_notes;
+mod end_view;
 mod engine_properties;
 mod every_coil;
 mod exact_symmetry;
