@@ -73,6 +73,17 @@ pub const DUMMY_GREY: &str = "#9a9a9a";
 /// The ink of lines and text.
 pub const INK: &str = "#111";
 
+/// Paths apart by this many look alike (colour and dash both repeat): the least common
+/// multiple of the colours and the dashes.
+pub const LOOK_CYCLE: usize = {
+    let (a, b) = (PATH_COLOURS.len(), PATH_DASHES.len());
+    let (mut x, mut y) = (a, b);
+    while y != 0 {
+        (x, y) = (y, x % y);
+    }
+    a / x * b
+};
+
 /// The colour class number (1…6) of path `path` (1-based); 0 for no path.
 pub fn colour_class(path: u32) -> usize {
     if path == 0 {

@@ -25,48 +25,14 @@ use armsheet::layout::tree::{Group, Node, Page, PageKind, Text};
 use armsheet::layout::{Paper, Window};
 
 /// A 96-pole simplex lap: 96 brush sets, 288 bars; slot 1's centre line on a bar.
-/// (Kept here, not in `tests/fixtures/`: its sheet 1 legend of 96 paths does not yet fit the
-/// page, which the sweeps over that folder would report against this test's subject.)
-const LAP: &str = r#"# A 96-pole simplex lap for the commutator end view tests (invented data): 96 brush sets
-# and 288 bars round one ring.
-[job]
-id = "T-RING-96L"
-title = "Test lap, 96 poles, 288 slots"
-customer = "Fixture Works"
-date = "2026-03-14"
-
-[armature]
-poles = 96
-slots = 288
-coils_per_slot = 1
-segments = 288
-
-[winding]
-type = "lap"
-span = "1-4"
-turns = 2
-"#;
+fn lap() -> String {
+    support::fixture("ring-96-lap.toml")
+}
 
 /// A 96-pole simplex wave: 96 brush sets, 287 bars; slot 1's centre line on a mica.
-const WAVE: &str = r#"# A 96-pole simplex wave for the commutator end view tests (invented data): 287 bars, so
-# slot 1's centre line falls on a bar or a mica that no formula of the ring sets by hand.
-[job]
-id = "T-RING-96W"
-title = "Test wave, 96 poles, 287 slots"
-customer = "Fixture Works"
-date = "2026-03-14"
-
-[armature]
-poles = 96
-slots = 287
-coils_per_slot = 1
-segments = 287
-
-[winding]
-type = "wave"
-span = "1-4"
-turns = 2
-"#;
+fn wave() -> String {
+    support::fixture("ring-96-wave.toml")
+}
 
 fn checked(toml: &str) -> Checked {
     armsheet::check(support::design(toml))
@@ -298,8 +264,8 @@ fn ring_breaches(c: &Checked, page: &Page, dense: Option<u32>) -> Vec<String> {
 #[test]
 fn the_end_view_at_96_poles_is_legible_and_countable_on_every_paper() {
     let mut all = Vec::new();
-    for (name, toml) in [("lap", LAP), ("wave", WAVE)] {
-        let c = checked(toml);
+    for (name, toml) in [("lap", lap()), ("wave", wave())] {
+        let c = checked(&toml);
         assert_eq!(c.design.poles, 96);
         assert_eq!(c.winding.brushes.len(), 96, "{name}");
         for paper in PAPERS {
@@ -338,15 +304,15 @@ fn every_demo_end_view_draws_the_cord_and_numbers_bar_1() {
 /// wave's on a mica, so both cases of the cord are walked.
 #[test]
 fn the_designs_put_slot_1_on_a_bar_and_on_a_mica() {
-    let lap = checked(LAP);
-    let wave = checked(WAVE);
+    let lap = checked(&lap());
+    let wave = checked(&wave());
     assert_eq!(lap.winding.lead_swing.in_line(288).1, None);
     assert!(wave.winding.lead_swing.in_line(287).1.is_some());
 }
 
 #[test]
 fn the_ring_check_finds_a_missing_number_a_moved_cord_a_wrong_shade_and_a_lost_brush() {
-    let c = checked(LAP);
+    let c = checked(&lap());
     let page = end_page(&c, Paper::A4);
     assert!(ring_breaches(&c, &page, Some(10)).is_empty());
     fn edit(nodes: &mut [Node], f: &mut dyn FnMut(&mut Node) -> bool) {

@@ -4,8 +4,8 @@
 
 use crate::layout::developed::nodes::CUT_DOT_R;
 use crate::layout::style::{
-    DUMMY_DASH, DUMMY_GREY, INK, PATH_COLOURS, PATH_DASHES, SHORTED_DASH, SHORTED_GREY, TEXT_FLOOR,
-    colour_class, dash_class,
+    DUMMY_DASH, DUMMY_GREY, INK, LOOK_CYCLE, PATH_COLOURS, PATH_DASHES, SHORTED_DASH, SHORTED_GREY,
+    TEXT_FLOOR, colour_class, dash_class,
 };
 use crate::layout::tree::{self, Circle, Group, Line, Path, Text};
 use crate::winding::EqualizerPlan;
@@ -168,7 +168,9 @@ fn paths_grid(l: &mut Legend, input: &Input<'_>, r: &Rect) {
     let x0 = l.x0;
     let cell = 17.0;
     let across = (((r.right() - x0 - 1.0) / cell).floor() as usize).max(1);
-    for (i, p) in input.winding.paths.iter().enumerate() {
+    // Past one cycle of looks a path looks as one listed: the list stops there.
+    let listed = input.winding.paths.len().min(LOOK_CYCLE);
+    for (i, p) in input.winding.paths.iter().take(listed).enumerate() {
         let (col, row) = (i % across, i / across);
         let (cx, cy) = (x0 + col as f64 * cell, l.y + row as f64 * LINE_H);
         let k = colour_class(p.index);
@@ -185,12 +187,15 @@ fn paths_grid(l: &mut Legend, input: &Input<'_>, r: &Rect) {
             p.index.to_string(),
         ));
     }
-    l.y += input.winding.paths.len().div_ceil(across) as f64 * LINE_H;
-    l.text(
-        x0,
-        "",
-        "paths as above; the number at each back end names the path",
-    );
+    l.y += listed.div_ceil(across) as f64 * LINE_H;
+    let words = if input.winding.paths.len() > LOOK_CYCLE {
+        format!(
+            "path k as path k \u{2212} {LOOK_CYCLE} (the looks repeat); the number at each back end names the path"
+        )
+    } else {
+        "paths as above; the number at each back end names the path".to_string()
+    };
+    l.text(x0, "", &words);
 }
 
 /// A frog-leg's two elements: the back-end shapes the diagram draws.
