@@ -54,14 +54,41 @@ pub struct SetGlyph {
     pub advance: f64,
 }
 
+/// Characters below this are looked up once a face and kept (Latin, punctuation, arrows,
+/// the mathematical operators and ⌈⌉): the texts of the sheets, measured many times over.
+const KEPT: u32 = 0x2400;
+
+/// The glyph of `c` in `face`.
+fn look_up(face: &ttf_parser::Face<'_>, c: char) -> SetGlyph {
+    let em = f64::from(face.units_per_em());
+    let id = face.glyph_index(c).unwrap_or(ttf_parser::GlyphId(0));
+    let advance = face.glyph_hor_advance(id).map_or(0.0, f64::from) / em;
+    SetGlyph { id: id.0, advance }
+}
+
+/// The kept glyphs of `weight`, by character (see [`KEPT`]).
+fn kept(weight: Weight) -> &'static [SetGlyph] {
+    static REGULAR: OnceLock<Vec<SetGlyph>> = OnceLock::new();
+    static BOLD: OnceLock<Vec<SetGlyph>> = OnceLock::new();
+    let cell = match weight {
+        Weight::Regular => &REGULAR,
+        Weight::Bold => &BOLD,
+    };
+    cell.get_or_init(|| {
+        let face = weight.face();
+        (0..KEPT)
+            .map(|u| char::from_u32(u).map_or(look_up(face, '\u{fffd}'), |c| look_up(face, c)))
+            .collect()
+    })
+}
+
 /// The glyphs of `text` in `weight`, one per character, in order.
 pub fn glyphs(text: &str, weight: Weight) -> impl Iterator<Item = SetGlyph> + '_ {
     let face = weight.face();
-    let em = f64::from(face.units_per_em());
-    text.chars().map(move |c| {
-        let id = face.glyph_index(c).unwrap_or(ttf_parser::GlyphId(0));
-        let advance = face.glyph_hor_advance(id).map_or(0.0, f64::from) / em;
-        SetGlyph { id: id.0, advance }
+    let table = kept(weight);
+    text.chars().map(move |c| match table.get(c as usize) {
+        Some(&g) => g,
+        None => look_up(face, c),
     })
 }
 

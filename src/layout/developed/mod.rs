@@ -621,10 +621,24 @@ fn draw_coils(
     // Side by side, a part also draws the pieces of the coils of slots out of its view.
     let shown = |slot: u32| (slot + design.slots - view.first_slot) % design.slots < view.slots;
     let passing = view.part.is_some_and(|p| p.side_by_side);
+    // A coil reaches no further from its top side than `reach` slots (its bottom side and
+    // its bars): the coils of slots further from the view have nothing in it.
+    let reach = if passing {
+        coil_reach(design, winding)
+    } else {
+        0
+    };
+    let near = |slot: u32| {
+        let s = design.slots;
+        let off = (slot + s - view.first_slot) % s;
+        off < view.slots + reach || s - off <= reach
+    };
     winding
         .connections
         .iter()
-        .filter(|conn| in_view(conn.top.slot) || (passing && !shown(conn.top.slot)))
+        .filter(|conn| {
+            in_view(conn.top.slot) || (passing && !shown(conn.top.slot) && near(conn.top.slot))
+        })
         .filter(|conn| element.is_none_or(|e| winding.elements[e].holds(conn.coil)))
         .filter_map(|conn| {
             let place = |position: u32| winding.place_in_slot(conn, position, per_element);
@@ -643,6 +657,30 @@ fn draw_coils(
             )
         })
         .collect()
+}
+
+/// The most slots, plus one, that any coil's lines reach from its top side's slot either
+/// way: to its bottom side and to its two bars (each the nearer way round).
+fn coil_reach(design: &Design, winding: &Winding) -> u32 {
+    let slot_deg = 360.0 / f64::from(design.slots);
+    let apart = |a: f64, b: f64| {
+        let d = (a - b).rem_euclid(360.0);
+        d.min(360.0 - d)
+    };
+    let most = winding
+        .connections
+        .iter()
+        .map(|c| {
+            let top = f64::from(c.top.slot - 1) * slot_deg;
+            let bottom = f64::from(c.bottom.slot - 1) * slot_deg;
+            [c.start_segment, c.end_segment]
+                .into_iter()
+                .flatten()
+                .map(|s| apart(winding.segment_deg(s), top))
+                .fold(apart(bottom, top), f64::max)
+        })
+        .fold(0.0, f64::max);
+    (most / slot_deg).ceil() as u32 + 2
 }
 
 /// The developed diagram with `gutter` mm either side of the strip and `lines` header lines;

@@ -62,6 +62,10 @@ struct Input<'a> {
     failures: Vec<String>,
     /// The winding-data rows after the design's own (the rating summary).
     extra_rows: Vec<(String, String)>,
+    /// The winding order's columns, measured once over every step (`order::columns`).
+    order_columns: std::cell::OnceCell<Vec<order::Column>>,
+    /// The winding order's lifted tops, found once (`order::Lift`).
+    order_lift: std::cell::OnceCell<order::Lift>,
 }
 
 /// What one sheet shows.
@@ -104,6 +108,8 @@ pub fn sheet_pages(
             .rating
             .as_ref()
             .map_or_else(Vec::new, rows::rating_sheet_rows),
+        order_columns: std::cell::OnceCell::new(),
+        order_lift: std::cell::OnceCell::new(),
     };
     let frame = page_frame(options.paper, !input.failures.is_empty());
     let area = diagram_sheet(&frame).diagram;

@@ -56,7 +56,18 @@ const CELL_PAD: f64 = 3.5;
 /// The columns for `input`: on a winding of several elements (frog-leg) an element column
 /// after the coil, taken from the turns-and-wire column so the table keeps its width. A text
 /// column too narrow for its widest cell is widened to hold it whole.
-fn columns(input: &Input<'_>) -> Vec<([&'static str; 2], f64)> {
+fn columns(input: &Input<'_>) -> Vec<Column> {
+    input
+        .order_columns
+        .get_or_init(|| measured_columns(input))
+        .clone()
+}
+
+/// A column of the winding order: its heading (two lines) and its width, mm.
+pub(super) type Column = ([&'static str; 2], f64);
+
+/// The columns, measured over every step (see [`columns`]).
+fn measured_columns(input: &Input<'_>) -> Vec<Column> {
     let multi = input.winding.is_multi_element();
     let mut c = COLUMNS.to_vec();
     if multi {
@@ -120,7 +131,7 @@ fn turns_and_wire(input: &Input<'_>, turns: u32) -> String {
 /// winding in step order: a coil's top side waits when a coil of its own element laid later
 /// puts its bottom side into the same slot, under it (derived). The steps are the
 /// connections in order: element by element, each slot by slot.
-struct Lift {
+pub(super) struct Lift {
     /// Per step (0-based): the top side waits lifted.
     lifted: Vec<bool>,
     /// Per element, in winding order.
@@ -381,7 +392,7 @@ fn order_heads(
 struct Order<'a> {
     input: &'a Input<'a>,
     wires: Vec<String>,
-    lift: Lift,
+    lift: &'a Lift,
     multi: bool,
     cols: Vec<([&'static str; 2], f64)>,
     text_columns: usize,
@@ -406,7 +417,7 @@ impl<'a> Order<'a> {
                 .iter()
                 .map(|e| turns_and_wire(input, e.turns))
                 .collect(),
-            lift: Lift::of(input),
+            lift: input.order_lift.get_or_init(|| Lift::of(input)),
             multi,
             cols: Vec::new(),
             text_columns: TEXT_COLUMNS + usize::from(multi),
