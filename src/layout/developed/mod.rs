@@ -809,7 +809,10 @@ fn part_view(
         whole: false,
         first_slot: first,
         slots: fit.unwrap_or(limit).min(limit).max(1),
-        pole_pairs: None,
+        pole_pairs: match window {
+            Window::PolePairs { .. } => asked.pole_pairs,
+            _ => None,
+        },
         part: Some(request),
         ..asked
     }

@@ -98,6 +98,14 @@ fn header_note(d: &Diagram) -> String {
         let last = last_of(v.first_slot, v.slots);
         let pairs = v.pole_pairs.unwrap_or(1);
         match v.pole_pairs {
+            Some(_) if v.part.is_some() => format!(
+                "window of {} pole pair{} \u{b7} slots {}\u{2013}{} of {} shown",
+                pairs,
+                if pairs == 1 { "" } else { "s" },
+                v.first_slot,
+                last,
+                v.total_slots
+            ),
             Some(_) => format!(
                 "window: slots {}\u{2013}{} of {} ({} pole pair{})",
                 v.first_slot,
@@ -468,6 +476,18 @@ fn commutator_group(d: &Diagram) -> Group {
             sg.push(rect("segbox", a, ct, bb - a, cb - ct));
         }
         let label = s.segment.to_string();
+        // A bar cut by the strip's edge to less than its number's room keeps its box only:
+        // its number would stand out over the edge.
+        let shown: f64 = s.pieces.iter().map(|p| p.1 - p.0).fold(0.0, f64::max);
+        let room = if d.turn_segment_labels {
+            seg_font * 0.73
+        } else {
+            text_width(&label, seg_font, Weight::Regular)
+        };
+        if shown + 1e-9 < room {
+            comm.push(sg);
+            continue;
+        }
         if d.turn_segment_labels {
             let (lx, ly) = (s.label_x + seg_font * 0.365, cb - 0.6);
             sg.push(Text::new(lx, ly, seg_font, "", label).rotated(-90.0));
