@@ -19,6 +19,8 @@
 //!   data block, legend, caution box, tables, the commutator end view, the winding order and
 //!   the test and sign-off sheets (which print an armature test computed before layout). [`paper`] holds the paper sizes.
 //! - [`screen`]: the diagram alone for a screen ([`draw_page`]).
+//! - [`readings_plot`]: the armature test's readings round the commutator; [`front_plot`]:
+//!   the designer's search, one figure against another, the Pareto front marked.
 //!
 //! ## Adding a drawing
 //! Write a function here that takes `&Checked` and options and returns a [`Page`] (or adds
@@ -28,6 +30,7 @@
 
 pub mod developed;
 pub mod font;
+pub mod front_plot;
 pub mod paper;
 pub mod readings_plot;
 pub mod screen;

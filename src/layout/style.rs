@@ -302,7 +302,31 @@ fn build_table() -> Vec<Rule> {
     // After the path dashes, so that a shorted coil's (classes k0 d1) wins.
     t.push(rule(&["k0 conn", "k0 stub"], vec![Dash(SHORTED_DASH)]));
     t.push(match_rule());
+    t.extend(plot_rules());
     t
+}
+
+/// The search plot's looks: its box and grid, the markers on and off the front.
+fn plot_rules() -> Vec<Rule> {
+    use Decl::*;
+    vec![
+        rule(
+            &["plot-box"],
+            vec![Fill(None), Stroke(Some(INK)), StrokeWidth(0.3)],
+        ),
+        rule(
+            &["grid"],
+            vec![Fill(None), Stroke(Some("#c8c8c8")), StrokeWidth(0.15)],
+        ),
+        rule(
+            &["mark-on"],
+            vec![Fill(Some(INK)), Stroke(Some(INK)), StrokeWidth(0.2)],
+        ),
+        rule(
+            &["mark-off"],
+            vec![Fill(Some("#fff")), Stroke(Some("#444")), StrokeWidth(0.25)],
+        ),
+    ]
 }
 
 /// A match line of a continued diagram: long dash, dot, in ink.

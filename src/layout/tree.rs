@@ -35,11 +35,13 @@ pub enum PageKind {
     Tests,
     /// `armsheet test`: the readings round the commutator.
     TestPlot,
+    /// `armsheet explore --plot`: the search's candidates, one figure against another.
+    FrontPlot,
 }
 
 impl PageKind {
     /// The page's name in the root `data-page` attribute: `developed`, `commutator-end`, `winding-order`, `winding-data`,
-    /// `connections`, `equalizers`, `tests` or `test-readings`.
+    /// `connections`, `equalizers`, `tests`, `test-readings` or `search-front`.
     pub fn data_page(self) -> &'static str {
         match self {
             PageKind::Screen | PageKind::Diagram => "developed",
@@ -50,6 +52,7 @@ impl PageKind {
             PageKind::Equalizers => "equalizers",
             PageKind::Tests => "tests",
             PageKind::TestPlot => "test-readings",
+            PageKind::FrontPlot => "search-front",
         }
     }
 }

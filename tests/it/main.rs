@@ -26,6 +26,7 @@ mod fault_locator;
 mod frog_leg;
 mod frog_leg_loops;
 mod front_pitch;
+mod front_plot;
 mod fuzz;
 mod greyscale;
 mod identify_cli;
