@@ -2,8 +2,8 @@
 //!
 //! Part of the `rating` stage: pure arithmetic on plain numbers, no trace, so a search can call
 //! [`average_reactance_voltage`] once a candidate cheaply. The method is the specific-permeance
-//! method of the design textbooks [docs/domain.md, "Reactance voltage of the coil under
-//! commutation"]:
+//! method of the design textbooks
+//! [docs/domain.md, "Reactance voltage of the coil under commutation"]:
 //!
 //! - the coil's inductance from the permeance per metre of its slot, its tooth tips and its end
 //!   winding: L = 2·μ0·T_c²·(u·(λ_s + λ_t)·L_core + λ_o·L_o), where λ are the specific
@@ -16,10 +16,10 @@
 //!   peripheral speed v_c;
 //! - E_r(av) = L·2·I_z/t_c.
 //!
-//! [src: M. G. Say and E. O. Taylor, Direct Current Machines; A. K. Sawhney, A Course in
-//! Electrical Machine Design, the chapter on commutation; from memory] for the method and the
-//! 2·I_z/t_c reversal; the commutation time with the multiplicity and the mica, and the u
-//! factor, [derived].
+//! [src: A. K. Sawhney, A Course in Electrical Machine Design, the DC-machine commutation
+//! chapter; M. G. Say and E. O. Taylor, Direct Current Machines; from memory, not read] for the
+//! method and the 2·I_z/t_c reversal; the commutation time with the multiplicity and the mica,
+//! and the u factor, [derived].
 
 use std::f64::consts::PI;
 
