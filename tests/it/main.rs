@@ -38,6 +38,7 @@ mod locator_memory;
 mod multiplex_equalizers;
 mod page_tree;
 mod rating_external;
+mod reactance;
 mod rating_limits;
 mod rating_sheet;
 mod rating_snapshots;
