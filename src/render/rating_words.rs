@@ -70,9 +70,9 @@ pub fn reactance(x: &Reactance, no_interpoles_max: f64) -> String {
         "slot taken 4 deep : 1 wide"
     };
     format!(
-        "{} V average = L*2*I_z/t_c, L = {} mH, t_c = {} ms ({slot}); {verdict}",
+        "{} V average = L*2*I_z/t_c, L = {} uH, t_c = {} ms ({slot}); {verdict}",
         fmt_fixed(x.average_v, 2),
-        fmt_fixed(x.inductance_h * 1000.0, 4),
+        fmt_fixed(x.inductance_h * 1e6, 2),
         fmt_fixed(x.commutation_time_s * 1000.0, 3),
     )
 }

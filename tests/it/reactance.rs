@@ -34,7 +34,10 @@ fn close(got: f64, want: f64, rel: f64, what: &str) {
 #[test]
 fn worked_example_by_hand() {
     let r = rated(&support::fixture("rated-lap.toml"));
-    let x = r.reactance.as_ref().expect("reactance on the rated fixture");
+    let x = r
+        .reactance
+        .as_ref()
+        .expect("reactance on the rated fixture");
     // v_c = pi * 0.150 m * 1150/60 = 9.0321 m/s; t_c = (20 - 0.8) mm / v_c = 2.1258 ms.
     close(x.commutation_time_s, 2.1258e-3, 1e-4, "t_c");
     // Overhang of one side: 650/2 - 160 = 165 mm. Slot taken 4 deep : 1 wide, lambda_s = 4/3.
@@ -64,7 +67,10 @@ fn interpoles_choose_the_checks() {
         ("interpoles = false\n", true),
         ("interpoles = true\n", false),
     ] {
-        let toml = base.replace("thermal_class = \"F\"\n", &format!("thermal_class = \"F\"\n{extra}"));
+        let toml = base.replace(
+            "thermal_class = \"F\"\n",
+            &format!("thermal_class = \"F\"\n{extra}"),
+        );
         let r = rated(&toml);
         assert_eq!(
             r.check("rating.interpoles-needed").is_some(),
@@ -120,7 +126,11 @@ fn absent_without_its_inputs() {
         ("brush width", "brush_width_mm = 20\n", ""),
         ("core length", "length_mm = 160\n", ""),
         ("current", "current = 85\n", ""),
-        ("commutator diameter", "[commutator]\ndiameter_mm = 150\n", "[commutator]\n"),
+        (
+            "commutator diameter",
+            "[commutator]\ndiameter_mm = 150\n",
+            "[commutator]\n",
+        ),
     ] {
         let toml = base.replace(from, to);
         assert_ne!(toml, base, "{what}");
@@ -137,22 +147,24 @@ fn inputs() -> impl Strategy<Value = ReactanceInputs> {
         (0.5..4.0f64, 0.1..1.0f64, 0.1..1.5f64, 1.0..500.0f64),
         (1.0..3.0f64, 3.0..30.0f64, 1u32..=3, 1.0..40.0f64),
     )
-        .prop_map(|((t, u, l, lo), (ls, lt, lov, i), (beta, pitch, m, v))| ReactanceInputs {
-            turns_per_coil: f64::from(t),
-            coils_per_slot: f64::from(u),
-            core_length_mm: l,
-            overhang_mm: lo,
-            slot_permeance: ls,
-            tooth_tip_permeance: lt,
-            overhang_permeance: lov,
-            path_current_a: i,
-            // Wide enough to bridge the coil's m bars and the mica.
-            brush_width_segments: beta + f64::from(m - 1),
-            segment_pitch_mm: pitch,
-            mica_mm: 0.8,
-            multiplicity: f64::from(m),
-            commutator_speed_m_s: v,
-        })
+        .prop_map(
+            |((t, u, l, lo), (ls, lt, lov, i), (beta, pitch, m, v))| ReactanceInputs {
+                turns_per_coil: f64::from(t),
+                coils_per_slot: f64::from(u),
+                core_length_mm: l,
+                overhang_mm: lo,
+                slot_permeance: ls,
+                tooth_tip_permeance: lt,
+                overhang_permeance: lov,
+                path_current_a: i,
+                // Wide enough to bridge the coil's m bars and the mica.
+                brush_width_segments: beta + f64::from(m - 1),
+                segment_pitch_mm: pitch,
+                mica_mm: 0.8,
+                multiplicity: f64::from(m),
+                commutator_speed_m_s: v,
+            },
+        )
 }
 
 proptest! {
@@ -227,7 +239,12 @@ fn the_design_file_scales_as_the_physics_says() {
     let base = support::fixture("rated-lap.toml");
     let e = |toml: &str| rated(toml).reactance.unwrap().average_v;
     let e0 = e(&base);
-    close(e(&base.replace("turns = 4", "turns = 8")), 4.0 * e0, 1e-9, "turns");
+    close(
+        e(&base.replace("turns = 4", "turns = 8")),
+        4.0 * e0,
+        1e-9,
+        "turns",
+    );
     close(
         e(&base.replace("speed_rpm = 1150", "speed_rpm = 2300")),
         2.0 * e0,
