@@ -19,7 +19,7 @@
 //! [src: A. K. Sawhney, A Course in Electrical Machine Design, the DC-machine commutation
 //! chapter; M. G. Say and E. O. Taylor, Direct Current Machines; from memory, not read] for the
 //! method and the 2·I_z/t_c reversal; the commutation time with the multiplicity and the mica,
-//! and the u factor, [derived].
+//! and the u factor, are derived.
 
 use std::f64::consts::PI;
 
