@@ -4,7 +4,8 @@
 //! `check_*_with_rating` runs the pipeline as `armsheet check` does after reading the file;
 //! `check_*_without_rating` runs it on the same design with the rating inputs removed, so the
 //! rating stage returns at once. The difference is the rating module's cost. `rate_only` and
-//! `rewind_only` time the pure functions alone.
+//! `rewind_only` time the pure functions alone; `reactance_voltage_1000` times the reactance
+//! voltage as the search calls it.
 //!
 //! Run: `cargo bench --bench rating`.
 
@@ -116,5 +117,38 @@ fn rating_json_value_only(bencher: divan::Bencher) {
         let mut out = Vec::new();
         armsheet::render::rating_json::write_rating_json(divan::black_box(&r), &mut out).unwrap();
         out
+    });
+}
+
+/// The reactance voltage alone, as the search calls it once a candidate: 1,000 calls on inputs
+/// that differ in their turns, so nothing is hoisted.
+#[divan::bench]
+fn reactance_voltage_1000(bencher: divan::Bencher) {
+    use armsheet::rating::reactance::{ReactanceInputs, average_reactance_voltage};
+    let base = ReactanceInputs {
+        turns_per_coil: 1.0,
+        coils_per_slot: 3.0,
+        core_length_mm: 160.0,
+        overhang_mm: 165.0,
+        slot_permeance: 4.0 / 3.0,
+        tooth_tip_permeance: 0.5,
+        overhang_permeance: 0.6,
+        path_current_a: 21.25,
+        brush_width_segments: 1.5,
+        segment_pitch_mm: 13.09,
+        mica_mm: 0.8,
+        multiplicity: 1.0,
+        commutator_speed_m_s: 9.03,
+    };
+    bencher.bench(|| {
+        let mut sum = 0.0;
+        for t in 1..=1000u32 {
+            let x = ReactanceInputs {
+                turns_per_coil: f64::from(t),
+                ..divan::black_box(base)
+            };
+            sum += average_reactance_voltage(&x).unwrap_or(0.0);
+        }
+        sum
     });
 }

@@ -1,4 +1,4 @@
-//! The twelve `[limits]`: one spec table, the one place a rating limit is written.
+//! The fourteen `[limits]`: one spec table, the one place a rating limit is written.
 //!
 //! Part of the `design` stage. Each [`LimitSpec`] row holds the design-file key, its default,
 //! unit, what it measures, whether it is an upper or a lower bound, the severity of a failure,
@@ -53,6 +53,10 @@ pub enum LimitId {
     BrushWidthMax,
     /// `electric_loading_max_a_m`.
     ElectricLoadingMax,
+    /// `reactance_volts_no_interpoles_max`.
+    ReactanceVoltsNoInterpolesMax,
+    /// `reactance_volts_max`.
+    ReactanceVoltsMax,
 }
 
 /// How far a shop limit may move from its default, either way: a factor of 1000 keeps every
@@ -103,7 +107,7 @@ pub struct LimitSpec {
 }
 
 /// Every limit, in key order, which is also the order of the rating checks in a report.
-pub const LIMITS: [LimitSpec; 12] = [
+pub const LIMITS: [LimitSpec; 14] = [
     LimitSpec {
         limit: LimitId::SegmentVoltsAvgMax,
         key: "segment_volts_avg_max",
@@ -248,6 +252,30 @@ pub const LIMITS: [LimitSpec; 12] = [
         decimals: 0,
         source: "armature electric loading up to about 40 000 A/m [common practice, from memory]",
     },
+    LimitSpec {
+        limit: LimitId::ReactanceVoltsNoInterpolesMax,
+        key: "reactance_volts_no_interpoles_max",
+        default: 3.0,
+        unit: "V",
+        quantity: "average reactance voltage of the coil under commutation, against the limit without interpoles (above it interpoles are needed)",
+        bound: Bound::AtMost,
+        level: Severity::Warning,
+        id: "rating.interpoles-needed",
+        decimals: 2,
+        source: "about 3 V without interpoles; specific-permeance method [common practice; Sawhney, A Course in Electrical Machine Design, from memory]",
+    },
+    LimitSpec {
+        limit: LimitId::ReactanceVoltsMax,
+        key: "reactance_volts_max",
+        default: 6.0,
+        unit: "V",
+        quantity: "average reactance voltage of the coil under commutation, against the limit with interpoles",
+        bound: Bound::AtMost,
+        level: Severity::Warning,
+        id: "rating.reactance-voltage",
+        decimals: 2,
+        source: "about 5-6 V with interpoles; specific-permeance method [common practice; Sawhney, A Course in Electrical Machine Design, from memory]",
+    },
 ];
 
 // Row i of the table is the limit whose discriminant is i.
@@ -260,8 +288,8 @@ const _: () = {
 };
 
 /// The `[limits]` keys, in table order (for the unknown-key error).
-pub const LIMIT_KEYS: [&str; 12] = {
-    let mut keys = [""; 12];
+pub const LIMIT_KEYS: [&str; 14] = {
+    let mut keys = [""; 14];
     let mut i = 0;
     while i < LIMITS.len() {
         keys[i] = LIMITS[i].key;
@@ -273,7 +301,7 @@ pub const LIMIT_KEYS: [&str; 12] = {
 /// The resolved `[limits]`: one value per [`LIMITS`] row, the default where the key is absent.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Limits {
-    values: [f64; 12],
+    values: [f64; 14],
 }
 
 impl Default for Limits {

@@ -185,6 +185,8 @@ pub struct Rating {
     pub current: Option<f64>,
     /// `thermal_class`.
     pub thermal_class: Option<ThermalClass>,
+    /// `interpoles`: whether interpoles (commutating poles) are fitted; `None` when not said.
+    pub interpoles: Option<bool>,
 }
 
 /// Cross-section of the conductor.
@@ -228,6 +230,10 @@ pub struct Core {
     pub diameter_mm: Option<f64>,
     /// `length_mm`, core (stack) length.
     pub length_mm: Option<f64>,
+    /// `slot_depth_mm`, armature slot depth (given with `slot_width_mm`).
+    pub slot_depth_mm: Option<f64>,
+    /// `slot_width_mm`, armature slot width (given with `slot_depth_mm`).
+    pub slot_width_mm: Option<f64>,
 }
 
 /// Brush width as given.

@@ -297,6 +297,24 @@ impl<'a, 'i> TableReader<'a, 'i> {
         }
     }
 
+    /// `true` or `false`.
+    pub fn boolean(&self, key: &str, what: &str) -> Result<Option<At<bool>>, Diagnostic> {
+        let Some(v) = self.get(key) else {
+            return Ok(None);
+        };
+        match v.get_ref() {
+            DeValue::Boolean(b) => Ok(Some(At {
+                value: *b,
+                span: v.span(),
+            })),
+            _ => Err(self
+                .wrong_type(key, v, &format!("{what}, true or false"))
+                .with_hint(format!(
+                    "write `{key} = true` or `{key} = false`, without quotes"
+                ))),
+        }
+    }
+
     /// One of a fixed set of words.
     pub fn choice(
         &self,

@@ -145,6 +145,19 @@ pub enum Advice {
         /// Highest current on this winding, A.
         max_current_a: f64,
     },
+    /// Reactance voltage too high: fewer turns per coil (E_r grows as their square), or
+    /// interpoles.
+    Reactance {
+        /// Turns per coil now.
+        turns_now: u32,
+        /// Most turns per coil within the limit (0 when even one turn is above it).
+        turns_max: u32,
+        /// The reactance voltage at one turn per coil, V.
+        one_turn_v: f64,
+        /// The limit with interpoles, V, when fitting them is a remedy (the check is the
+        /// no-interpole one).
+        with_interpoles_v: Option<f64>,
+    },
 }
 
 /// How a reconnection gets more paths.
@@ -383,6 +396,25 @@ pub fn electric_loading(m: &Machine<'_>, current: f64, diameter_mm: f64, limit: 
     Advice::ElectricLoading {
         min_diameter_mm: x * current / (PI * limit) * 1000.0,
         max_current_a: limit * PI * diameter_mm / 1000.0 / x,
+    }
+}
+
+/// Fewer turns per coil, or interpoles, for a reactance voltage `value` V above `limit` V;
+/// `with_interpoles` is the limit with interpoles when the check is the no-interpole one.
+pub fn reactance(m: &Machine<'_>, value: f64, limit: f64, with_interpoles: Option<f64>) -> Advice {
+    let turns = m
+        .design
+        .elements()
+        .iter()
+        .map(|e| e.turns)
+        .max()
+        .unwrap_or(m.design.turns);
+    let t = f64::from(turns.max(1));
+    Advice::Reactance {
+        turns_now: turns,
+        turns_max: super::reactance::turns_for(turns, value, limit),
+        one_turn_v: value / (t * t),
+        with_interpoles_v: with_interpoles,
     }
 }
 

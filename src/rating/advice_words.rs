@@ -105,6 +105,31 @@ impl Advice {
                 fmt_fixed(*min_diameter_mm, 1),
                 fmt_fixed(*max_current_a, 1)
             )],
+            Advice::Reactance {
+                turns_now,
+                turns_max,
+                one_turn_v,
+                with_interpoles_v,
+            } => {
+                let mut out = Vec::new();
+                if let Some(v) = with_interpoles_v {
+                    out.push(format!(
+                        "interpoles are needed: fit them (the limit with interpoles is {} V, [limits] reactance_volts_max)",
+                        fmt_fixed(*v, 1)
+                    ));
+                }
+                out.push(if *turns_max > 0 {
+                    format!(
+                        "fewer turns per coil: at most {turns_max} (now {turns_now}; the reactance voltage grows as the turns squared), with more coils or paths to keep the EMF"
+                    )
+                } else {
+                    format!(
+                        "even 1 turn per coil gives {} V: more parallel paths (less current per path) or a wider brush",
+                        fmt_fixed(*one_turn_v, 2)
+                    )
+                });
+                out
+            }
         }
     }
 }

@@ -46,9 +46,13 @@ pub mod rules {
     pub const BRUSH_WIDTH_MAX: Rule = rule(LimitId::BrushWidthMax);
     /// Electric loading.
     pub const ELECTRIC_LOADING: Rule = rule(LimitId::ElectricLoadingMax);
+    /// Reactance voltage against the limit without interpoles.
+    pub const INTERPOLES_NEEDED: Rule = rule(LimitId::ReactanceVoltsNoInterpolesMax);
+    /// Reactance voltage against the limit with interpoles.
+    pub const REACTANCE_VOLTAGE: Rule = rule(LimitId::ReactanceVoltsMax);
 
     /// Every rule, one per `[limits]` key, in report order.
-    pub const ALL: [Rule; 12] = LIMITS;
+    pub const ALL: [Rule; 14] = LIMITS;
 }
 
 /// The threshold `rule` uses in `limits`, and its default.

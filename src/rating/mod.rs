@@ -18,6 +18,7 @@ pub mod insulation;
 pub mod limits;
 pub mod losses;
 pub mod note;
+pub mod reactance;
 pub mod resistance;
 pub mod scheme;
 pub mod test_voltage;
@@ -31,6 +32,7 @@ pub use insulation::InsulationTest;
 pub use limits::{Bound, RatingCheck, Rule, rules};
 pub use losses::Losses;
 pub use note::RatingNote;
+pub use reactance::{Reactance, ReactanceInputs};
 pub use resistance::Resistance;
 pub use test_voltage::TestVoltage;
 
@@ -89,6 +91,10 @@ pub struct RatingReport {
     pub electric_loading_a_m: Option<f64>,
     /// The commutator.
     pub commutator: Option<CommutatorData>,
+    /// The average reactance voltage of the coil under commutation, when the turns, the core
+    /// length, the end-winding length (from the mean turn or the core), the path current and
+    /// the commutator's diameter, speed and brush width are known.
+    pub reactance: Option<Reactance>,
     /// Losses.
     pub losses: Option<Losses>,
     /// Withstand test voltages.
@@ -197,6 +203,13 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
         )
     });
 
+    let reactance = reactance_of(
+        d,
+        conductor.as_ref(),
+        currents.as_ref(),
+        commutator.as_ref(),
+    );
+
     let losses = current.map(|i| {
         let drop = emf::brush_drop_v(grade);
         losses::losses(
@@ -225,6 +238,7 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
         currents,
         electric_loading_a_m,
         commutator,
+        reactance,
         losses,
         test_voltage,
         insulation,
@@ -234,6 +248,62 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
     };
     (report.checks, report.advice) = check_limits(d, &report);
     report
+}
+
+/// The reactance voltage of the coil under commutation, when its inputs are present: the
+/// turns per coil (a frog-leg's larger element), the core length, the end-winding length of a
+/// side (half the mean turn less the core length, the mean turn given or estimated), the path
+/// current and the commutator's segment pitch, peripheral speed and brush width.
+fn reactance_of(
+    d: &Design,
+    conductor: Option<&ConductorData>,
+    currents: Option<&Currents>,
+    com: Option<&CommutatorData>,
+) -> Option<Reactance> {
+    let core = d.core.as_ref()?;
+    let length = core.length_mm?;
+    let mean_turn = conductor
+        .and_then(|k| k.mean_turn.as_ref())
+        .map(|t| t.mm)
+        .or_else(|| {
+            // The same estimate as the mean turn's, without a conductor.
+            let dia = core.diameter_mm?;
+            Some(2.0 * length + 2.5 * PI * dia * f64::from(d.span) / f64::from(d.slots))
+        })?;
+    let overhang = (mean_turn / 2.0 - length).max(0.0);
+    let com = com?;
+    let (slot_permeance, slot_given) = match (core.slot_depth_mm, core.slot_width_mm) {
+        (Some(h), Some(b)) => (reactance::slot_permeance(h, b), true),
+        _ => (reactance::default_slot_permeance(), false),
+    };
+    let turns = d
+        .elements()
+        .iter()
+        .map(|e| e.turns)
+        .max()
+        .unwrap_or(d.turns);
+    let inputs = ReactanceInputs {
+        turns_per_coil: f64::from(turns),
+        coils_per_slot: f64::from(d.coils_per_slot),
+        core_length_mm: length,
+        overhang_mm: overhang,
+        slot_permeance,
+        tooth_tip_permeance: reactance::TOOTH_TIP_PERMEANCE,
+        overhang_permeance: reactance::OVERHANG_PERMEANCE,
+        path_current_a: currents?.per_path_a,
+        brush_width_segments: com.brush_width_segments?,
+        segment_pitch_mm: com.segment_pitch_mm?,
+        mica_mm: reactance::MICA_MM,
+        multiplicity: f64::from(d.multiplicity),
+        commutator_speed_m_s: com.peripheral_speed_m_s?,
+    };
+    reactance::reactance(
+        inputs,
+        slot_given,
+        d.rating.as_ref().and_then(|r| r.interpoles),
+        d.limits
+            .get(crate::design::LimitId::ReactanceVoltsNoInterpolesMax),
+    )
 }
 
 /// The conductor as rated and the armature resistance (measured, or calculated from the
@@ -466,6 +536,17 @@ fn check_limits(d: &Design, r: &RatingReport) -> (Vec<RatingCheck>, Vec<CheckAdv
     let core_d = d.core.as_ref().and_then(|k| k.diameter_mm).unwrap_or(0.0);
     push(rules::ELECTRIC_LOADING, r.electric_loading_a_m, &|c| {
         advice::electric_loading(&m, i, core_d, c.limit)
+    });
+    let x = r.reactance.as_ref();
+    let fitted = x.and_then(|x| x.interpoles) == Some(true);
+    let with_interpoles = l.get(crate::design::LimitId::ReactanceVoltsMax);
+    push(
+        rules::INTERPOLES_NEEDED,
+        x.filter(|_| !fitted).map(|x| x.average_v),
+        &|c| advice::reactance(&m, c.value, c.limit, Some(with_interpoles)),
+    );
+    push(rules::REACTANCE_VOLTAGE, x.map(|x| x.average_v), &|c| {
+        advice::reactance(&m, c.value, c.limit, None)
     });
     (out, remedies)
 }

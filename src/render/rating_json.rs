@@ -12,7 +12,7 @@ use crate::rating::conductor::describe;
 use crate::rating::test_voltage::{TEST_VOLTAGE_CAUTION, TEST_VOLTAGE_SOURCE};
 use crate::rating::{
     Bound, CommutatorData, ConductorData, Currents, Emf, EmfBasis, Losses, RatingCheck,
-    RatingReport, Resistance, SegmentVoltage, TestVoltage,
+    RatingReport, Reactance, Resistance, SegmentVoltage, TestVoltage,
 };
 
 /// The `rating` object for a computed report.
@@ -29,6 +29,7 @@ pub struct RatingJson<'a> {
     losses: Option<LossesJson>,
     notes: Vec<String>,
     paths: u32,
+    reactance: Option<ReactanceJson>,
     resistance: Option<ResistanceJson>,
     segment_voltage: Option<SegmentVoltageJson>,
     segments: u32,
@@ -49,6 +50,7 @@ impl<'a> RatingJson<'a> {
             losses: r.losses.as_ref().map(LossesJson::from),
             notes: rating_words::notes(r),
             paths: r.paths,
+            reactance: r.reactance.as_ref().map(ReactanceJson::from),
             resistance: r.resistance.as_ref().map(ResistanceJson::from),
             segment_voltage: r.segment_voltage.as_ref().map(SegmentVoltageJson::from),
             segments: r.segments,
@@ -218,6 +220,40 @@ impl From<&CommutatorData> for CommutatorJson {
             peripheral_speed_m_s: ro(k.peripheral_speed_m_s, 4),
             segment_pitch_mm: ro(k.segment_pitch_mm, 4),
             speed_rpm: ro(k.speed_rpm, 3),
+        }
+    }
+}
+
+/// `reactance`: the average reactance voltage of the coil under commutation.
+#[derive(Serialize)]
+struct ReactanceJson {
+    average_v: f64,
+    commutation_time_ms: f64,
+    inductance_mh: f64,
+    interpoles: Option<bool>,
+    interpoles_needed: bool,
+    overhang_mm: f64,
+    overhang_permeance: f64,
+    slot_given: bool,
+    slot_permeance: f64,
+    tooth_tip_permeance: f64,
+    turns_per_coil: f64,
+}
+
+impl From<&Reactance> for ReactanceJson {
+    fn from(x: &Reactance) -> Self {
+        ReactanceJson {
+            average_v: round_to(x.average_v, 4),
+            commutation_time_ms: round_to(x.commutation_time_s * 1000.0, 5),
+            inductance_mh: round_to(x.inductance_h * 1000.0, 6),
+            interpoles: x.interpoles,
+            interpoles_needed: x.interpoles_needed,
+            overhang_mm: round_to(x.inputs.overhang_mm, 3),
+            overhang_permeance: round_to(x.inputs.overhang_permeance, 4),
+            slot_given: x.slot_given,
+            slot_permeance: round_to(x.inputs.slot_permeance, 4),
+            tooth_tip_permeance: round_to(x.inputs.tooth_tip_permeance, 4),
+            turns_per_coil: x.inputs.turns_per_coil,
         }
     }
 }

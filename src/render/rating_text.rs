@@ -6,9 +6,10 @@
 
 use std::fmt::Write;
 
+use super::rating_words;
 use super::rating_words::{coils_shorted_rule, note, test_rule};
 use crate::base::number::fmt_fixed;
-use crate::design::{Design, Mode};
+use crate::design::{Design, LimitId, Mode};
 use crate::rating::conductor::describe;
 use crate::rating::test_voltage::{TEST_VOLTAGE_CAUTION, TEST_VOLTAGE_SOURCE};
 use crate::rating::{EmfBasis, MeanTurnSource, RatingReport};
@@ -255,6 +256,13 @@ fn commutator(s: &mut String, d: &Design, r: &RatingReport) {
             };
             row(s, "coils shorted", format!("{n} per brush at once ({how})"));
         }
+    }
+    if let Some(x) = &r.reactance {
+        row(
+            s,
+            "reactance voltage",
+            rating_words::reactance(x, d.limits.get(LimitId::ReactanceVoltsNoInterpolesMax)),
+        );
     }
 }
 

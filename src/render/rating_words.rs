@@ -8,7 +8,9 @@
 use crate::base::number::fmt_fixed;
 use crate::design::Design;
 use crate::rating::test_voltage::TestRule;
-use crate::rating::{CommutatorData, MeanTurn, MeanTurnSource, RatingNote, RatingReport};
+use crate::rating::{
+    CommutatorData, MeanTurn, MeanTurnSource, RatingNote, RatingReport, Reactance,
+};
 
 /// A note of the rating in words.
 pub fn note(n: &RatingNote) -> String {
@@ -46,6 +48,33 @@ pub fn mean_turn_formula(t: &MeanTurn) -> Option<String> {
             fmt_fixed(t.mm, 1)
         )),
     }
+}
+
+/// The average reactance voltage with its inductance, commutation time and the interpole
+/// verdict against `no_interpoles_max` V, in one line.
+pub fn reactance(x: &Reactance, no_interpoles_max: f64) -> String {
+    let verdict = match (x.interpoles, x.interpoles_needed) {
+        (Some(true), _) => "interpoles fitted".to_string(),
+        (_, true) => format!(
+            "interpoles needed (above {} V)",
+            fmt_fixed(no_interpoles_max, 1)
+        ),
+        (_, false) => format!(
+            "no interpoles needed (within {} V)",
+            fmt_fixed(no_interpoles_max, 1)
+        ),
+    };
+    let slot = if x.slot_given {
+        "slot from [core]"
+    } else {
+        "slot taken 4 deep : 1 wide"
+    };
+    format!(
+        "{} V average = L*2*I_z/t_c, L = {} uH, t_c = {} ms ({slot}); {verdict}",
+        fmt_fixed(x.average_v, 2),
+        fmt_fixed(x.inductance_h * 1e6, 2),
+        fmt_fixed(x.commutation_time_s * 1000.0, 3),
+    )
 }
 
 /// The row of the withstand-test table used for the new winding, in words.

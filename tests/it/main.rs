@@ -42,6 +42,7 @@ mod rating_external;
 mod rating_limits;
 mod rating_sheet;
 mod rating_snapshots;
+mod reactance;
 mod render_only_formats;
 mod report_snapshots;
 mod rewind_cli;

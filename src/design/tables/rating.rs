@@ -6,7 +6,9 @@
 //! - `speed_rpm`: above 0 and at most 200 000 (also accepted in `[winding]`);
 //! - `mode`: `"motor"` (default) or `"generator"`;
 //! - `thermal_class`: 105, 120, 130, 155, 180 or `"A"`, `"E"`, `"B"`, `"F"`, `"H"`;
-//! - `flux_per_pole_mwb`: above 0 and at most 100 000 (also accepted in `[winding]`).
+//! - `flux_per_pole_mwb`: above 0 and at most 100 000 (also accepted in `[winding]`);
+//! - `interpoles`: `true` or `false`, whether interpoles are fitted (the reactance-voltage
+//!   check then takes the limit with interpoles and says no more that they are needed).
 //!
 //! A flux or speed given in both tables must agree.
 
@@ -25,6 +27,7 @@ pub(crate) const KEYS: &[&str] = &[
     "mode",
     "thermal_class",
     "flux_per_pole_mwb",
+    "interpoles",
 ];
 
 /// `[rating]` as read, merged with the flux and speed of `[winding]`.
@@ -143,12 +146,17 @@ fn read_rating(t: &TableReader<'_, '_>) -> Result<(Mode, Option<Rating>), Diagno
         .flatten()
         .map(|a| a.value);
     let thermal_class = t.keep(thermal_class(t)).flatten();
+    let interpoles = t
+        .keep(t.boolean("interpoles", "whether interpoles are fitted"))
+        .flatten()
+        .map(|a| a.value);
     Ok((
         mode,
         Some(Rating {
             voltage,
             current,
             thermal_class,
+            interpoles,
         }),
     ))
 }

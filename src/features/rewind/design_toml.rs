@@ -147,6 +147,9 @@ fn rating_table(doc: &mut DocumentMut, d: &Design) {
         if let Some(c) = r.thermal_class {
             t.insert("thermal_class", whole(c.celsius()).into());
         }
+        if let Some(b) = r.interpoles {
+            t.insert("interpoles", Value::from(b).into());
+        }
         if let Some(f) = d.flux_per_pole_mwb {
             t.insert("flux_per_pole_mwb", number(f, 4).into());
         }
@@ -198,6 +201,12 @@ fn core_and_commutator_tables(doc: &mut DocumentMut, d: &Design) {
         }
         if let Some(x) = c.length_mm {
             t.insert("length_mm", number(x, 3).into());
+        }
+        if let Some(x) = c.slot_depth_mm {
+            t.insert("slot_depth_mm", number(x, 3).into());
+        }
+        if let Some(x) = c.slot_width_mm {
+            t.insert("slot_width_mm", number(x, 3).into());
         }
         section(doc, "core", t);
     }

@@ -858,6 +858,7 @@ fn new_design(
         voltage: None,
         current: None,
         thermal_class: None,
+        interpoles: None,
     });
     r.voltage = Some(req.voltage);
     r.current = new.current.map(|i| round_sig(i, 4));

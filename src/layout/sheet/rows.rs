@@ -272,6 +272,17 @@ pub fn rating_sheet_rows(r: &RatingReport) -> Vec<(String, String)> {
             add("brush width", format!("{} segments", fmt_fixed(b, 2)));
         }
     }
+    if let Some(x) = &r.reactance {
+        let needed = if x.interpoles_needed && x.interpoles != Some(true) {
+            " (interpoles)"
+        } else {
+            ""
+        };
+        add(
+            "reactance V",
+            format!("{} V{needed}", fmt_fixed(x.average_v, 2)),
+        );
+    }
     if let Some(t) = &r.test_voltage {
         add(
             "test 1 min, new",
