@@ -1,4 +1,4 @@
-//! The twelve `[limits]`: one spec table, the one place a rating limit is written.
+//! The `[limits]`: one spec table, the one place a rating limit is written.
 //!
 //! Part of the `design` stage. Each [`LimitSpec`] row holds the design-file key, its default,
 //! unit, what it measures, whether it is an upper or a lower bound, the severity of a failure,
@@ -53,6 +53,8 @@ pub enum LimitId {
     BrushWidthMax,
     /// `electric_loading_max_a_m`.
     ElectricLoadingMax,
+    /// `slot_fill_max`.
+    SlotFillMax,
 }
 
 /// How far a shop limit may move from its default, either way: a factor of 1000 keeps every
@@ -103,7 +105,7 @@ pub struct LimitSpec {
 }
 
 /// Every limit, in key order, which is also the order of the rating checks in a report.
-pub const LIMITS: [LimitSpec; 12] = [
+pub const LIMITS: [LimitSpec; 13] = [
     LimitSpec {
         limit: LimitId::SegmentVoltsAvgMax,
         key: "segment_volts_avg_max",
@@ -248,6 +250,18 @@ pub const LIMITS: [LimitSpec; 12] = [
         decimals: 0,
         source: "armature electric loading up to about 40 000 A/m [common practice, from memory]",
     },
+    LimitSpec {
+        limit: LimitId::SlotFillMax,
+        key: "slot_fill_max",
+        default: 75.0,
+        unit: "%",
+        quantity: "slot fill: insulated conductors over the room inside liner, separator and wedge",
+        bound: Bound::AtMost,
+        level: Severity::Error,
+        id: "rating.slot-fill",
+        decimals: 1,
+        source: "insulated conductor area at most about 75 % of the room inside the slot insulation for coils pressed in by hand [common practice, from memory]",
+    },
 ];
 
 // Row i of the table is the limit whose discriminant is i.
@@ -260,8 +274,8 @@ const _: () = {
 };
 
 /// The `[limits]` keys, in table order (for the unknown-key error).
-pub const LIMIT_KEYS: [&str; 12] = {
-    let mut keys = [""; 12];
+pub const LIMIT_KEYS: [&str; 13] = {
+    let mut keys = [""; 13];
     let mut i = 0;
     while i < LIMITS.len() {
         keys[i] = LIMITS[i].key;
@@ -273,7 +287,7 @@ pub const LIMIT_KEYS: [&str; 12] = {
 /// The resolved `[limits]`: one value per [`LIMITS`] row, the default where the key is absent.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Limits {
-    values: [f64; 12],
+    values: [f64; 13],
 }
 
 impl Default for Limits {

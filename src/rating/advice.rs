@@ -145,6 +145,15 @@ pub enum Advice {
         /// Highest current on this winding, A.
         max_current_a: f64,
     },
+    /// Slot overfilled: less insulated conductor or thinner slot insulation.
+    SlotFill {
+        /// Room inside the slot insulation, mm².
+        room_mm2: f64,
+        /// Insulated conductor area in the slot now, mm².
+        conductors_mm2: f64,
+        /// Most insulated conductor area the limit allows, mm².
+        most_mm2: f64,
+    },
 }
 
 /// How a reconnection gets more paths.

@@ -105,6 +105,16 @@ impl Advice {
                 fmt_fixed(*min_diameter_mm, 1),
                 fmt_fixed(*max_current_a, 1)
             )],
+            Advice::SlotFill {
+                room_mm2,
+                conductors_mm2,
+                most_mm2,
+            } => vec![format!(
+                "the slot has {} mm2 inside its insulation and the coil sides take {} mm2: at most {} mm2 fits, so a smaller conductor, fewer turns, a thinner enamel grade or thinner slot insulation",
+                fmt_fixed(*room_mm2, 1),
+                fmt_fixed(*conductors_mm2, 1),
+                fmt_fixed(*most_mm2, 1)
+            )],
         }
     }
 }

@@ -46,9 +46,11 @@ pub mod rules {
     pub const BRUSH_WIDTH_MAX: Rule = rule(LimitId::BrushWidthMax);
     /// Electric loading.
     pub const ELECTRIC_LOADING: Rule = rule(LimitId::ElectricLoadingMax);
+    /// Slot fill.
+    pub const SLOT_FILL: Rule = rule(LimitId::SlotFillMax);
 
     /// Every rule, one per `[limits]` key, in report order.
-    pub const ALL: [Rule; 12] = LIMITS;
+    pub const ALL: [Rule; 13] = LIMITS;
 }
 
 /// The threshold `rule` uses in `limits`, and its default.
