@@ -29,6 +29,8 @@ mean_turn_mm = 650
 [core]
 diameter_mm = 190
 length_mm = 160
+slot_depth_mm = 14
+slot_width_mm = 5.5
 
 [commutator]
 diameter_mm = 150
@@ -161,7 +163,7 @@ fn findings_carry_id_severity_value_limit_units_and_source() {
     );
     assert!(seg.source.contains("[common practice]"));
     let all_rating: Vec<_> = f.iter().filter(|f| f.id.starts_with("rating.")).collect();
-    assert_eq!(all_rating.len(), 12);
+    assert_eq!(all_rating.len(), LIMITS.len());
     for x in all_rating {
         assert!(
             x.source.contains("common practice")

@@ -132,14 +132,14 @@ pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Core> {
                         span,
                         t.dotted(key),
                         format!(
-                            "the wedge ({} mm), liner ({} mm) and separator ({} mm) fill the {} mm slot depth",
+                            "the wedge ({} mm), liner ({} mm) and separator ({} mm) leave no room in the {} mm slot depth",
                             core.wedge(),
                             core.liner(),
                             core.separator(),
                             h.value
                         ),
                     )
-                    .with_hint("the wedge, the liner at the slot bottom and the separator together are less than the slot depth")));
+                    .with_hint("the wedge, the liner at the slot bottom and the separator together must be less than the slot depth")));
             return None;
         }
     }
@@ -162,7 +162,7 @@ pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Core> {
                     w.value
                 ),
             )
-            .with_hint("the liner is less than half the slot width")));
+            .with_hint("the liner must be less than half the slot width")));
         return None;
     }
     Some(core)
