@@ -25,7 +25,7 @@ pub fn coil_section(s: &mut String, k: Option<&CoilMaking>) {
             row(
                 s,
                 &format!("element {}", i + 1),
-                format!("span {}, {} turns, {} coils", c.span, c.turns, c.coils),
+                format!("span {}, turns {}, {} coils", c.span, c.turns, c.coils),
             );
         }
         row(
@@ -40,11 +40,15 @@ pub fn coil_section(s: &mut String, k: Option<&CoilMaking>) {
             s,
             "end turn",
             format!(
-                "legs {} mm over a span arc of {} mm, nose {} mm past the core, drop {} mm",
+                "legs {} mm over a span arc of {} mm, nose {} mm past the core, {}",
                 fmt_fixed(c.end_leg_mm, 1),
                 fmt_fixed(c.span_arc_mm, 1),
                 fmt_fixed(c.nose_reach_mm, 1),
-                fmt_fixed(c.nose_drop_mm, 1)
+                if c.nose_drop_mm > 0.0 {
+                    format!("drop {} mm", fmt_fixed(c.nose_drop_mm, 1))
+                } else {
+                    "sides taken at the core surface (no slot_depth_mm)".to_string()
+                }
             ),
         );
         row(
