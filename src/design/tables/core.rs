@@ -21,7 +21,7 @@
 //! The defaults and their sources are on [`Core`]'s accessors, in `model.rs`.
 
 use crate::design::model::Core;
-use crate::design::reader::TableReader;
+use crate::design::reader::{At, TableReader};
 
 /// The keys of `[core]`.
 pub(crate) const KEYS: &[&str] = &[
@@ -108,7 +108,14 @@ pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Core> {
         conductor_build_mm: build?.map(|a| a.value),
         equalizer_wire_same: eq_wire?.map(|a| a.value == "same"),
     };
-    // The insulation must leave room for the coil sides.
+    check_room(t, &core, [depth, width, liner, separator, wedge])?;
+    Some(core)
+}
+
+/// Refuses slot insulation that leaves no room for the coil sides, at the key that does it:
+/// `given` holds `slot_depth_mm`, `slot_width_mm`, `liner_mm`, `separator_mm`, `wedge_mm`.
+fn check_room(t: &TableReader<'_, '_>, core: &Core, given: [Option<At<f64>>; 5]) -> Option<()> {
+    let [depth, width, liner, separator, wedge] = given;
     if let Some(h) = &depth {
         let taken = core.liner() + core.separator() + core.wedge();
         if taken >= h.value {
@@ -165,5 +172,5 @@ pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Core> {
             .with_hint("the liner must be less than half the slot width")));
         return None;
     }
-    Some(core)
+    Some(())
 }
