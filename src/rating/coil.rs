@@ -2,7 +2,7 @@
 //!
 //! Part of the `rating` stage: pure arithmetic on the resolved [`Design`] and its traced
 //! [`Winding`]. The geometry and its derivation are in docs/domain.md, "Coil making"; the
-//! defaults of the `[core]` keys are on [`Core`](crate::design::Core)'s accessors.
+//! defaults of the `[core]` keys are on [`Core`]'s accessors.
 
 use std::f64::consts::PI;
 
