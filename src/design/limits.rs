@@ -1,4 +1,4 @@
-//! The fourteen `[limits]`: one spec table, the one place a rating limit is written.
+//! The `[limits]`: one spec table, the one place a rating limit is written.
 //!
 //! Part of the `design` stage. Each [`LimitSpec`] row holds the design-file key, its default,
 //! unit, what it measures, whether it is an upper or a lower bound, the severity of a failure,
@@ -57,6 +57,8 @@ pub enum LimitId {
     ReactanceVoltsNoInterpolesMax,
     /// `reactance_volts_max`.
     ReactanceVoltsMax,
+    /// `slot_fill_max`.
+    SlotFillMax,
 }
 
 /// How far a shop limit may move from its default, either way: a factor of 1000 keeps every
@@ -107,7 +109,7 @@ pub struct LimitSpec {
 }
 
 /// Every limit, in key order, which is also the order of the rating checks in a report.
-pub const LIMITS: [LimitSpec; 14] = [
+pub const LIMITS: [LimitSpec; 15] = [
     LimitSpec {
         limit: LimitId::SegmentVoltsAvgMax,
         key: "segment_volts_avg_max",
@@ -276,6 +278,18 @@ pub const LIMITS: [LimitSpec; 14] = [
         decimals: 2,
         source: "about 5-6 V with interpoles; specific-permeance method [common practice; Sawhney, A Course in Electrical Machine Design, from memory]",
     },
+    LimitSpec {
+        limit: LimitId::SlotFillMax,
+        key: "slot_fill_max",
+        default: 75.0,
+        unit: "%",
+        quantity: "slot fill: insulated conductors over the room inside liner, separator and wedge",
+        bound: Bound::AtMost,
+        level: Severity::Error,
+        id: "rating.slot-fill",
+        decimals: 1,
+        source: "insulated conductor area at most about 75 % of the room inside the slot insulation for coils pressed in by hand [common practice, from memory]",
+    },
 ];
 
 // Row i of the table is the limit whose discriminant is i.
@@ -288,8 +302,8 @@ const _: () = {
 };
 
 /// The `[limits]` keys, in table order (for the unknown-key error).
-pub const LIMIT_KEYS: [&str; 14] = {
-    let mut keys = [""; 14];
+pub const LIMIT_KEYS: [&str; 15] = {
+    let mut keys = [""; 15];
     let mut i = 0;
     while i < LIMITS.len() {
         keys[i] = LIMITS[i].key;
@@ -301,7 +315,7 @@ pub const LIMIT_KEYS: [&str; 14] = {
 /// The resolved `[limits]`: one value per [`LIMITS`] row, the default where the key is absent.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Limits {
-    values: [f64; 14],
+    values: [f64; 15],
 }
 
 impl Default for Limits {

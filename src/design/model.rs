@@ -230,10 +230,86 @@ pub struct Core {
     pub diameter_mm: Option<f64>,
     /// `length_mm`, core (stack) length.
     pub length_mm: Option<f64>,
-    /// `slot_depth_mm`, armature slot depth (given with `slot_width_mm`).
+    /// `slot_depth_mm`, from the core surface to the slot bottom.
     pub slot_depth_mm: Option<f64>,
-    /// `slot_width_mm`, armature slot width (given with `slot_depth_mm`).
+    /// `slot_width_mm` (a parallel-sided slot).
     pub slot_width_mm: Option<f64>,
+    /// `liner_mm`, see [`Core::liner`].
+    pub liner_mm: Option<f64>,
+    /// `separator_mm`, see [`Core::separator`].
+    pub separator_mm: Option<f64>,
+    /// `wedge_mm`, see [`Core::wedge`].
+    pub wedge_mm: Option<f64>,
+    /// `extension_mm`, see [`Core::extension`].
+    pub extension_mm: Option<f64>,
+    /// `end_turn_angle_deg`, see [`Core::end_turn_angle`].
+    pub end_turn_angle_deg: Option<f64>,
+    /// `riser_distance_mm`: from the core end to the risers; the leads are left out without it.
+    pub riser_distance_mm: Option<f64>,
+    /// `scrap_percent`, see [`Core::scrap`].
+    pub scrap_percent: Option<f64>,
+    /// `reel_kg`: the copper on one reel the shop buys, kg.
+    pub reel_kg: Option<f64>,
+    /// `enamel_grade`, see [`Core::grade`].
+    pub enamel_grade: Option<u8>,
+    /// `conductor_build_mm`: the insulation's increase of each conductor dimension, mm
+    /// (default by grade for round wire, [`STRIP_BUILD_MM`] for strip).
+    pub conductor_build_mm: Option<f64>,
+    /// `equalizer_wire = "same"`: the equalizers are wound from the coils' wire (default
+    /// `"separate"`).
+    pub equalizer_wire_same: Option<bool>,
+}
+
+/// Slot liner default, mm [common practice, from memory: 0.2-0.3 mm of film or
+/// film-and-paper laminate in small and medium armatures].
+pub const LINER_MM: f64 = 0.25;
+/// Layer separator default, mm [common practice, from memory, as the liner].
+pub const SEPARATOR_MM: f64 = 0.25;
+/// Slot wedge default, mm [common practice, from memory: 1.5-3 mm fibre or laminate].
+pub const WEDGE_MM: f64 = 2.0;
+/// Straight extension of the coil past the core at each end, mm [common practice, from
+/// memory: 5-15 mm, enough to clear the core's end plate].
+pub const EXTENSION_MM: f64 = 10.0;
+/// End-turn angle to the core end face, degrees [common practice, from memory: 20-30°].
+pub const END_TURN_ANGLE_DEG: f64 = 25.0;
+/// Scrap allowance on the wire ordered, percent [common practice, from memory].
+pub const SCRAP_PERCENT: f64 = 5.0;
+/// Enamel grade by default: 2 [IEC 60317 grades; grade 2 is the usual armature wire, common
+/// practice].
+pub const ENAMEL_GRADE: u8 = 2;
+/// Insulation build of an enamelled strip on each dimension by default, mm [from memory:
+/// IEC 60317-0-2 grade 2 runs about 0.10-0.15 mm on each dimension].
+pub const STRIP_BUILD_MM: f64 = 0.15;
+
+impl Core {
+    /// `liner_mm` or [`LINER_MM`].
+    pub fn liner(&self) -> f64 {
+        self.liner_mm.unwrap_or(LINER_MM)
+    }
+    /// `separator_mm` or [`SEPARATOR_MM`].
+    pub fn separator(&self) -> f64 {
+        self.separator_mm.unwrap_or(SEPARATOR_MM)
+    }
+    /// `wedge_mm` or [`WEDGE_MM`].
+    pub fn wedge(&self) -> f64 {
+        self.wedge_mm.unwrap_or(WEDGE_MM)
+    }
+    /// `extension_mm` or [`EXTENSION_MM`].
+    pub fn extension(&self) -> f64 {
+        self.extension_mm.unwrap_or(EXTENSION_MM)
+    }
+    /// `end_turn_angle_deg` or [`END_TURN_ANGLE_DEG`].
+    pub fn end_turn_angle(&self) -> f64 {
+        self.end_turn_angle_deg.unwrap_or(END_TURN_ANGLE_DEG)
+    }
+    /// `scrap_percent` or [`SCRAP_PERCENT`].
+    pub fn scrap(&self) -> f64 {
+        self.scrap_percent.unwrap_or(SCRAP_PERCENT)
+    }
+    /// `enamel_grade` or [`ENAMEL_GRADE`].
+    pub fn grade(&self) -> u8 {
+        self.enamel_grade.unwrap_or(ENAMEL_GRADE)
+    }
 }
 
 /// Brush width as given.

@@ -158,6 +158,15 @@ pub enum Advice {
         /// no-interpole one).
         with_interpoles_v: Option<f64>,
     },
+    /// Slot overfilled: less insulated conductor or thinner slot insulation.
+    SlotFill {
+        /// Room inside the slot insulation, mm².
+        room_mm2: f64,
+        /// Insulated conductor area in the slot now, mm².
+        conductors_mm2: f64,
+        /// Most insulated conductor area the limit allows, mm².
+        most_mm2: f64,
+    },
 }
 
 /// How a reconnection gets more paths.

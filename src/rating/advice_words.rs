@@ -110,26 +110,17 @@ impl Advice {
                 turns_max,
                 one_turn_v,
                 with_interpoles_v,
-            } => {
-                let mut out = Vec::new();
-                if let Some(v) = with_interpoles_v {
-                    out.push(format!(
-                        "interpoles are needed: fit them (the limit with interpoles is {} V, [limits] reactance_volts_max)",
-                        fmt_fixed(*v, 1)
-                    ));
-                }
-                out.push(if *turns_max > 0 {
-                    format!(
-                        "fewer turns per coil: at most {turns_max} (now {turns_now}; the reactance voltage grows as the turns squared), with more coils or paths to keep the EMF"
-                    )
-                } else {
-                    format!(
-                        "even 1 turn per coil gives {} V: more parallel paths (less current per path) or a wider brush",
-                        fmt_fixed(*one_turn_v, 2)
-                    )
-                });
-                out
-            }
+            } => reactance_words(*turns_now, *turns_max, *one_turn_v, *with_interpoles_v),
+            Advice::SlotFill {
+                room_mm2,
+                conductors_mm2,
+                most_mm2,
+            } => vec![format!(
+                "the slot has {} mm2 inside its insulation and the coil sides take {} mm2: at most {} mm2 fits, so a smaller conductor, fewer turns, a thinner enamel grade or thinner slot insulation",
+                fmt_fixed(*room_mm2, 1),
+                fmt_fixed(*conductors_mm2, 1),
+                fmt_fixed(*most_mm2, 1)
+            )],
         }
     }
 }
@@ -275,4 +266,32 @@ fn wire_pick(p: &WirePick) -> String {
     } else {
         format!("{n} x {label} ({} mm2)", fmt_fixed(w.area_mm2, 3))
     }
+}
+
+/// The remedies for a reactance voltage above its limit: interpoles (when the check is the
+/// no-interpole one), then fewer turns per coil, or more paths when even one turn is too many.
+fn reactance_words(
+    turns_now: u32,
+    turns_max: u32,
+    one_turn_v: f64,
+    with_interpoles_v: Option<f64>,
+) -> Vec<String> {
+    let mut out = Vec::new();
+    if let Some(v) = with_interpoles_v {
+        out.push(format!(
+            "interpoles are needed: fit them (the limit with interpoles is {} V, [limits] reactance_volts_max)",
+            fmt_fixed(v, 1)
+        ));
+    }
+    out.push(if turns_max > 0 {
+        format!(
+            "fewer turns per coil: at most {turns_max} (now {turns_now}; the reactance voltage grows as the turns squared), with more coils or paths to keep the EMF"
+        )
+    } else {
+        format!(
+            "even 1 turn per coil gives {} V: more parallel paths (less current per path) or a wider brush",
+            fmt_fixed(one_turn_v, 2)
+        )
+    });
+    out
 }

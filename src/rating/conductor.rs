@@ -87,6 +87,39 @@ pub fn awg_name(g: i32) -> String {
     }
 }
 
+/// Enamel build of round wire by nominal diameter: (nominal d, grade 1 increase, grade 2
+/// increase), mm, the increase being the largest overall diameter less the nominal one
+/// [src: IEC 60317-0-1, table 1 (maximum overall diameter by grade); from memory as to the
+/// values, not checked against the table].
+pub const ENAMEL_BUILD_MM: [(f64, f64, f64); 7] = [
+    (0.100, 0.017, 0.025),
+    (0.250, 0.031, 0.047),
+    (0.500, 0.044, 0.066),
+    (1.000, 0.062, 0.093),
+    (2.000, 0.074, 0.112),
+    (3.150, 0.085, 0.125),
+    (5.000, 0.091, 0.138),
+];
+
+/// The increase of a round wire's diameter by its enamel, grade 1 or 2 (any other grade is
+/// taken as 2), mm: [`ENAMEL_BUILD_MM`] interpolated linearly on the nominal diameter and held
+/// at its end values outside its range.
+pub fn enamel_increase_mm(d: f64, grade: u8) -> f64 {
+    let pick = |row: &(f64, f64, f64)| if grade == 1 { row.1 } else { row.2 };
+    let t = &ENAMEL_BUILD_MM;
+    if d <= t[0].0 {
+        return pick(&t[0]);
+    }
+    for pair in t.windows(2) {
+        let (a, b) = (&pair[0], &pair[1]);
+        if d <= b.0 {
+            let f = (d - a.0) / (b.0 - a.0);
+            return pick(a) + f * (pick(b) - pick(a));
+        }
+    }
+    pick(&t[t.len() - 1])
+}
+
 /// Smallest and largest AWG gauge considered for suggestions (0000 … 40).
 pub const AWG_RANGE: std::ops::RangeInclusive<i32> = -3..=40;
 

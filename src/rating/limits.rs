@@ -50,9 +50,11 @@ pub mod rules {
     pub const INTERPOLES_NEEDED: Rule = rule(LimitId::ReactanceVoltsNoInterpolesMax);
     /// Reactance voltage against the limit with interpoles.
     pub const REACTANCE_VOLTAGE: Rule = rule(LimitId::ReactanceVoltsMax);
+    /// Slot fill.
+    pub const SLOT_FILL: Rule = rule(LimitId::SlotFillMax);
 
     /// Every rule, one per `[limits]` key, in report order.
-    pub const ALL: [Rule; 14] = LIMITS;
+    pub const ALL: [Rule; 15] = LIMITS;
 }
 
 /// The threshold `rule` uses in `limits`, and its default.

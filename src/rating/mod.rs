@@ -10,6 +10,7 @@
 
 pub mod advice;
 mod advice_words;
+pub mod coil;
 pub mod commutator;
 pub mod conductor;
 pub mod emf;
@@ -24,6 +25,7 @@ pub mod scheme;
 pub mod test_voltage;
 
 pub use advice::{Advice, CheckAdvice};
+pub use coil::CoilMaking;
 pub use commutator::{CommutatorData, SegmentVoltage};
 pub use conductor::{MeanTurn, MeanTurnEstimate, MeanTurnSource};
 pub use emf::{Emf, EmfBasis};
@@ -109,6 +111,8 @@ pub struct RatingReport {
     pub advice: Vec<CheckAdvice>,
     /// What could not be worked out and why, and assumptions made.
     pub notes: Vec<RatingNote>,
+    /// The coil making and the wire to order, when the conductor and the core are known.
+    pub coil_making: Option<CoilMaking>,
 }
 
 impl RatingReport {
@@ -245,6 +249,7 @@ pub fn rate_with(d: &Design, w: &Winding, measured_r20: Option<f64>) -> RatingRe
         checks: Vec::new(),
         advice: Vec::new(),
         notes,
+        coil_making: coil::coil_making(d, w),
     };
     (report.checks, report.advice) = check_limits(d, &report);
     report
@@ -547,6 +552,14 @@ fn check_limits(d: &Design, r: &RatingReport) -> (Vec<RatingCheck>, Vec<CheckAdv
     );
     push(rules::REACTANCE_VOLTAGE, x.map(|x| x.average_v), &|c| {
         advice::reactance(&m, c.value, c.limit, None)
+    });
+    let fill = r.coil_making.as_ref().and_then(|k| k.slot_fill);
+    push(rules::SLOT_FILL, fill.map(|f| f.percent), &|c| {
+        Advice::SlotFill {
+            room_mm2: fill.map_or(0.0, |f| f.room_mm2),
+            conductors_mm2: fill.map_or(0.0, |f| f.conductors_mm2),
+            most_mm2: fill.map_or(0.0, |f| f.room_mm2 * c.limit / 100.0),
+        }
     });
     (out, remedies)
 }

@@ -149,6 +149,7 @@ struct ReportJson<'a> {
     brushes: &'a [BrushSet],
     #[serde(serialize_with = "findings")]
     checks: &'a [Finding],
+    coil_making: Option<super::coil_json::CoilMakingJson>,
     coils: u32,
     coils_per_slot: u32,
     commutator_pitch: i64,
@@ -252,6 +253,11 @@ impl<'a> ReportJson<'a> {
             brush_sets_minimum: w.brush_sets_minimum,
             brushes: &w.brushes,
             checks: &r.findings,
+            coil_making: r
+                .rating
+                .as_ref()
+                .and_then(|k| k.coil_making.as_ref())
+                .map(super::coil_json::CoilMakingJson::new),
             coils: w.coils,
             coils_per_slot: d.coils_per_slot,
             commutator_pitch: p.commutator,

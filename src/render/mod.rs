@@ -12,6 +12,8 @@
 //! anything: a new drawing or a change of looks belongs in `layout`, not here.
 
 pub mod armature_test;
+pub mod coil_json;
+pub mod coil_text;
 pub mod csv;
 pub mod identify;
 pub mod json;

@@ -18,6 +18,7 @@ use crate::rating::{EmfBasis, MeanTurnSource, RatingReport};
 pub fn rating_section(s: &mut String, d: &Design, rating: Option<&RatingReport>) {
     if let Some(r) = rating {
         render_rating(s, d, r);
+        super::coil_text::coil_section(s, r.coil_making.as_ref());
     }
 }
 

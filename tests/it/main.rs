@@ -13,6 +13,7 @@ mod brush_neutral;
 mod cli;
 mod cli_errors;
 mod cli_safety;
+mod coil_making;
 mod csv_output;
 mod diagram_tags;
 mod domain_notes;

@@ -29,6 +29,8 @@ mean_turn_mm = 650
 [core]
 diameter_mm = 190
 length_mm = 160
+slot_depth_mm = 14
+slot_width_mm = 5.5
 
 [commutator]
 diameter_mm = 150

@@ -22,6 +22,12 @@ fn rated(toml: &str) -> RatingReport {
     rate(&d, &w).unwrap()
 }
 
+/// The rated lap fixture without its slot's size: the worked example takes the default slot
+/// permeance, then a slot of its own.
+fn lap() -> String {
+    support::fixture("rated-lap.toml").replace("slot_depth_mm = 14\nslot_width_mm = 5.5\n", "")
+}
+
 fn close(got: f64, want: f64, rel: f64, what: &str) {
     assert!(
         (got - want).abs() <= rel * want.abs(),
@@ -33,7 +39,7 @@ fn close(got: f64, want: f64, rel: f64, what: &str) {
 /// 85 A on 4 paths, core 160 mm, mean turn 650 mm, commutator 150 mm at 1150 rpm, 20 mm brush.
 #[test]
 fn worked_example_by_hand() {
-    let r = rated(&support::fixture("rated-lap.toml"));
+    let r = rated(&lap());
     let x = r
         .reactance
         .as_ref()
@@ -47,7 +53,7 @@ fn worked_example_by_hand() {
     close(x.average_v, 0.31542, 1e-4, "E_r");
     assert!(!x.slot_given && !x.interpoles_needed && x.interpoles.is_none());
     // A 30 mm deep, 6 mm wide slot: lambda_s = 30/18 = 1.6667, L = 17.921 uH, E_r = 0.35830 V.
-    let slot = support::fixture("rated-lap.toml").replace(
+    let slot = lap().replace(
         "length_mm = 160",
         "length_mm = 160\nslot_depth_mm = 30\nslot_width_mm = 6",
     );
@@ -61,7 +67,7 @@ fn worked_example_by_hand() {
 /// no-interpole check is left out and the limit with interpoles applies.
 #[test]
 fn interpoles_choose_the_checks() {
-    let base = support::fixture("rated-lap.toml");
+    let base = lap();
     for (extra, no_interpole_check) in [
         ("", true),
         ("interpoles = false\n", true),
@@ -86,7 +92,7 @@ fn interpoles_choose_the_checks() {
 /// The advice's turns, written back, pass.
 #[test]
 fn many_turns_need_interpoles_and_the_advice_fixes_it() {
-    let base = support::fixture("rated-lap.toml");
+    let base = lap();
     let toml = base.replace("turns = 4", "turns = 14");
     let r = rated(&toml);
     let needed = r.check("rating.interpoles-needed").unwrap();
@@ -121,7 +127,7 @@ fn many_turns_need_interpoles_and_the_advice_fixes_it() {
 /// Without any one of its inputs the reactance voltage is absent, and so are its checks.
 #[test]
 fn absent_without_its_inputs() {
-    let base = support::fixture("rated-lap.toml");
+    let base = lap();
     for (what, from, to) in [
         ("brush width", "brush_width_mm = 20\n", ""),
         ("core length", "length_mm = 160\n", ""),
@@ -236,7 +242,7 @@ proptest! {
 /// mean turn given, so the overhang stays), and the speed in `[rating]` scales it.
 #[test]
 fn the_design_file_scales_as_the_physics_says() {
-    let base = support::fixture("rated-lap.toml");
+    let base = lap();
     let e = |toml: &str| rated(toml).reactance.unwrap().average_v;
     let e0 = e(&base);
     close(

@@ -1,52 +1,183 @@
-//! `[core]`: the armature core's size, for the mean turn, the electric loading and the
-//! reactance voltage.
+//! `[core]`: the armature core, its slots and the coils made for them (for the mean turn, the
+//! electric loading, the coil making and the slot fill).
 //!
-//! Part of the `design` stage (a table reader, see `tables/mod.rs`). Keys, all optional with
-//! no default: `diameter_mm` (armature outside diameter) and `length_mm` (stack length), each
-//! above 0 and at most 10 000; `slot_depth_mm` and `slot_width_mm` (the armature slot, for its
-//! specific permeance), each above 0 and at most 1 000, given together or not at all.
+//! Part of the `design` stage (a table reader, see `tables/mod.rs`). Keys, all optional:
+//! - `diameter_mm` (armature outside diameter) and `length_mm` (stack length), each above 0
+//!   and at most 10 000, no default;
+//! - `slot_depth_mm`, `slot_width_mm`: the slot (parallel sided, for the coil making, the
+//!   slot fill and the slot's specific permeance in the reactance voltage), above 0 and at
+//!   most 500, given together or not at all, no default;
+//! - slot insulation, each 0 to 20 mm: `liner_mm` (default 0.25), `separator_mm` (between the
+//!   layers, default 0.25), `wedge_mm` (default 2.0); together they must leave room in the
+//!   slot;
+//! - coil making: `extension_mm` (straight past the core each end, 0 to 500, default 10),
+//!   `end_turn_angle_deg` (5 to 60, default 25), `riser_distance_mm` (core end to the risers,
+//!   0 to 2000, no default: the leads are left out without it), `scrap_percent` (0 to 100,
+//!   default 5), `reel_kg` (a reel's copper, above 0 and at most 10 000, no default),
+//!   `enamel_grade` (1 or 2, IEC 60317, default 2), `conductor_build_mm` (the insulation's
+//!   increase of each dimension, 0 to 5; default by grade for round wire, 0.15 for strip),
+//!   `equalizer_wire` (`"same"` when the equalizers are wound from the coils' wire, default
+//!   `"separate"`).
+//!
+//! The defaults and their sources are on [`Core`]'s accessors, in `model.rs`.
 
 use crate::design::Diagnostic;
 use crate::design::model::Core;
 use crate::design::reader::{At, TableReader};
 
 /// The keys of `[core]`.
-pub(crate) const KEYS: &[&str] = &["diameter_mm", "length_mm", "slot_depth_mm", "slot_width_mm"];
+pub(crate) const KEYS: &[&str] = &[
+    "diameter_mm",
+    "length_mm",
+    "slot_depth_mm",
+    "slot_width_mm",
+    "liner_mm",
+    "separator_mm",
+    "wedge_mm",
+    "extension_mm",
+    "end_turn_angle_deg",
+    "riser_distance_mm",
+    "scrap_percent",
+    "reel_kg",
+    "enamel_grade",
+    "conductor_build_mm",
+    "equalizer_wire",
+];
 
 /// Reads `[core]`, recording every problem; `None` when any value is in error.
 pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Core> {
     let keys = t.keep(t.deny_unknown(KEYS));
-    let diameter = t.keep(t.number(
-        "diameter_mm",
-        0.0,
-        true,
-        10_000.0,
-        "the armature diameter in mm",
+    let pos = |k: &str, max: f64, what: &str| t.keep(t.number(k, 0.0, true, max, what));
+    let nonneg = |k: &str, max: f64, what: &str| t.keep(t.number(k, 0.0, false, max, what));
+    let diameter = pos("diameter_mm", 10_000.0, "the armature diameter in mm");
+    let length = pos("length_mm", 10_000.0, "the core length in mm");
+    let depth = pos("slot_depth_mm", 500.0, "the slot depth in mm");
+    let width = pos("slot_width_mm", 500.0, "the slot width in mm");
+    let liner = nonneg("liner_mm", 20.0, "the slot liner's thickness in mm");
+    let separator = nonneg(
+        "separator_mm",
+        20.0,
+        "the layer separator's thickness in mm",
+    );
+    let wedge = nonneg("wedge_mm", 20.0, "the slot wedge's thickness in mm");
+    let extension = nonneg(
+        "extension_mm",
+        500.0,
+        "the coil's straight extension past the core at each end in mm",
+    );
+    let angle = t.keep(t.number(
+        "end_turn_angle_deg",
+        5.0,
+        false,
+        60.0,
+        "the end turn's angle to the core end face in degrees",
     ));
-    let length = t.keep(t.number("length_mm", 0.0, true, 10_000.0, "the core length in mm"));
-    let depth = t.keep(t.number(
-        "slot_depth_mm",
-        0.0,
-        true,
-        1_000.0,
-        "the armature slot depth in mm",
+    let risers = nonneg(
+        "riser_distance_mm",
+        2000.0,
+        "the distance from the core end to the risers in mm",
+    );
+    let scrap = nonneg("scrap_percent", 100.0, "the scrap allowance in percent");
+    let reel = pos("reel_kg", 10_000.0, "the copper on one reel in kg");
+    let grade = t.keep(t.int(
+        "enamel_grade",
+        1..=2,
+        "the enamel grade (IEC 60317)",
+        "grade 1 is the thinner enamel, grade 2 the thicker",
     ));
-    let width = t.keep(t.number(
-        "slot_width_mm",
-        0.0,
-        true,
-        1_000.0,
-        "the armature slot width in mm",
-    ));
-    let slot = t.keep(slot_pair(t, depth?, width?));
+    let build = nonneg(
+        "conductor_build_mm",
+        5.0,
+        "the insulation's increase of each conductor dimension in mm",
+    );
+    let eq_wire = t.keep(t.choice("equalizer_wire", &["same", "separate"]));
+    let (depth, width) = (depth?, width?);
+    let slot = t.keep(slot_pair(t, depth.clone(), width.clone()));
     keys?;
-    let (slot_depth_mm, slot_width_mm) = slot?;
-    Some(Core {
+    slot?;
+    let (liner, separator, wedge) = (liner?, separator?, wedge?);
+    let core = Core {
         diameter_mm: diameter?.map(|a| a.value),
         length_mm: length?.map(|a| a.value),
-        slot_depth_mm,
-        slot_width_mm,
-    })
+        slot_depth_mm: depth.as_ref().map(|a| a.value),
+        slot_width_mm: width.as_ref().map(|a| a.value),
+        liner_mm: liner.as_ref().map(|a| a.value),
+        separator_mm: separator.as_ref().map(|a| a.value),
+        wedge_mm: wedge.as_ref().map(|a| a.value),
+        extension_mm: extension?.map(|a| a.value),
+        end_turn_angle_deg: angle?.map(|a| a.value),
+        riser_distance_mm: risers?.map(|a| a.value),
+        scrap_percent: scrap?.map(|a| a.value),
+        reel_kg: reel?.map(|a| a.value),
+        enamel_grade: grade?.map(|a| a.value as u8),
+        conductor_build_mm: build?.map(|a| a.value),
+        equalizer_wire_same: eq_wire?.map(|a| a.value == "same"),
+    };
+    check_room(t, &core, [depth, width, liner, separator, wedge])?;
+    Some(core)
+}
+
+/// Refuses slot insulation that leaves no room for the coil sides, at the key that does it:
+/// `given` holds `slot_depth_mm`, `slot_width_mm`, `liner_mm`, `separator_mm`, `wedge_mm`.
+fn check_room(t: &TableReader<'_, '_>, core: &Core, given: [Option<At<f64>>; 5]) -> Option<()> {
+    let [depth, width, liner, separator, wedge] = given;
+    if let Some(h) = &depth {
+        let taken = core.liner() + core.separator() + core.wedge();
+        if taken >= h.value {
+            let span = wedge
+                .as_ref()
+                .or(separator.as_ref())
+                .or(liner.as_ref())
+                .map_or(h.span.clone(), |a| a.span.clone());
+            let key = if wedge.is_some() {
+                "wedge_mm"
+            } else if separator.is_some() {
+                "separator_mm"
+            } else if liner.is_some() {
+                "liner_mm"
+            } else {
+                "slot_depth_mm"
+            };
+            t.keep::<()>(Err(t
+                .src
+                .error(
+                        span,
+                        t.dotted(key),
+                        format!(
+                            "the wedge ({} mm), liner ({} mm) and separator ({} mm) leave no room in the {} mm slot depth",
+                            core.wedge(),
+                            core.liner(),
+                            core.separator(),
+                            h.value
+                        ),
+                    )
+                    .with_hint("the wedge, the liner at the slot bottom and the separator together must be less than the slot depth")));
+            return None;
+        }
+    }
+    if let Some(w) = &width
+        && 2.0 * core.liner() >= w.value
+    {
+        let span = liner.as_ref().map_or(w.span.clone(), |a| a.span.clone());
+        t.keep::<()>(Err(t
+            .src
+            .error(
+                span,
+                t.dotted(if liner.is_some() {
+                    "liner_mm"
+                } else {
+                    "slot_width_mm"
+                }),
+                format!(
+                    "a liner of {} mm on both walls fills the {} mm slot width",
+                    core.liner(),
+                    w.value
+                ),
+            )
+            .with_hint("the liner must be less than half the slot width")));
+        return None;
+    }
+    Some(())
 }
 
 /// The slot depth and width, both or neither.

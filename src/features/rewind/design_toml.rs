@@ -202,11 +202,32 @@ fn core_and_commutator_tables(doc: &mut DocumentMut, d: &Design) {
         if let Some(x) = c.length_mm {
             t.insert("length_mm", number(x, 3).into());
         }
-        if let Some(x) = c.slot_depth_mm {
-            t.insert("slot_depth_mm", number(x, 3).into());
+        // The slot and the coil-making keys, those given, as given.
+        for (key, x) in [
+            ("slot_depth_mm", c.slot_depth_mm),
+            ("slot_width_mm", c.slot_width_mm),
+            ("liner_mm", c.liner_mm),
+            ("separator_mm", c.separator_mm),
+            ("wedge_mm", c.wedge_mm),
+            ("extension_mm", c.extension_mm),
+            ("end_turn_angle_deg", c.end_turn_angle_deg),
+            ("riser_distance_mm", c.riser_distance_mm),
+            ("scrap_percent", c.scrap_percent),
+            ("reel_kg", c.reel_kg),
+            ("conductor_build_mm", c.conductor_build_mm),
+        ] {
+            if let Some(x) = x {
+                t.insert(key, number(x, 4).into());
+            }
         }
-        if let Some(x) = c.slot_width_mm {
-            t.insert("slot_width_mm", number(x, 3).into());
+        if let Some(g) = c.enamel_grade {
+            t.insert("enamel_grade", whole(g).into());
+        }
+        if let Some(same) = c.equalizer_wire_same {
+            t.insert(
+                "equalizer_wire",
+                if same { "same" } else { "separate" }.into(),
+            );
         }
         section(doc, "core", t);
     }
