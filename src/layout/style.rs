@@ -306,10 +306,24 @@ fn build_table() -> Vec<Rule> {
     t
 }
 
-/// The search plot's looks: its box and grid, the markers on and off the front.
+/// The looks of the plain drawings: the coil in plan (its outline, the core's ends dashed),
+/// and the search plot's box, grid and markers on and off the front.
 fn plot_rules() -> Vec<Rule> {
     use Decl::*;
     vec![
+        rule(
+            &["coil-outline"],
+            vec![Fill(None), Stroke(Some(INK)), StrokeWidth(0.5)],
+        ),
+        rule(
+            &["core-end"],
+            vec![
+                Fill(None),
+                Stroke(Some("#555")),
+                StrokeWidth(0.25),
+                Dash(DUMMY_DASH),
+            ],
+        ),
         rule(
             &["plot-box"],
             vec![Fill(None), Stroke(Some(INK)), StrokeWidth(0.3)],

@@ -22,6 +22,8 @@ pub enum PageKind {
     Diagram,
     /// The commutator end view.
     CommutatorEnd,
+    /// The coil making: the coil for the former, the wire to order, the slot insulation.
+    CoilMaking,
     /// A page of the winding order with check-off boxes.
     WindingOrder,
     /// The winding data in full, when sheet 1 cannot hold every row.
@@ -40,12 +42,13 @@ pub enum PageKind {
 }
 
 impl PageKind {
-    /// The page's name in the root `data-page` attribute: `developed`, `commutator-end`, `winding-order`, `winding-data`,
+    /// The page's name in the root `data-page` attribute: `developed`, `commutator-end`, `coil-making`, `winding-order`, `winding-data`,
     /// `connections`, `equalizers`, `tests`, `test-readings` or `search-front`.
     pub fn data_page(self) -> &'static str {
         match self {
             PageKind::Screen | PageKind::Diagram => "developed",
             PageKind::CommutatorEnd => "commutator-end",
+            PageKind::CoilMaking => "coil-making",
             PageKind::WindingOrder => "winding-order",
             PageKind::WindingData => "winding-data",
             PageKind::Connections => "connections",

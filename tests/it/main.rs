@@ -14,6 +14,7 @@ mod cli;
 mod cli_errors;
 mod cli_safety;
 mod coil_making;
+mod coil_page;
 mod csv_output;
 mod diagram_tags;
 mod domain_notes;

@@ -190,18 +190,19 @@ fn sheets_come_in_shop_order_and_sheet_1_names_the_data_sheet() {
     let rank = |k: PageKind| match k {
         Diagram => 0,
         CommutatorEnd => 1,
-        WindingOrder => 2,
-        Connections => 3,
-        Equalizers => 4,
-        Tests => 5,
-        WindingData => 6,
+        CoilMaking => 2,
+        WindingOrder => 3,
+        Connections => 4,
+        Equalizers => 5,
+        Tests => 6,
+        WindingData => 7,
         other => panic!("{other:?} on a sheet"),
     };
     for name in support::DEMOS {
         let (_, _, pages) = set(&support::demo(name), Paper::A4);
         let kinds: Vec<usize> = pages.iter().map(|p| rank(p.kind)).collect();
         assert!(kinds.windows(2).all(|w| w[0] <= w[1]), "{name}: {kinds:?}");
-        for k in [0, 1, 2, 3, 5] {
+        for k in [0, 1, 3, 4, 6] {
             assert!(kinds.contains(&k), "{name}: no {k} in {kinds:?}");
         }
         if let Some(i) = pages.iter().position(|p| p.kind == WindingData) {

@@ -1,6 +1,7 @@
 //! Printable winding sheets as page trees: sheet 1 is the developed diagram with the title
 //! block, the winding-data block, the legend, the numbering convention and the caution box;
-//! the sheets after it carry, in order, the commutator end view, the winding order with
+//! the sheets after it carry, in order, the commutator end view, the coil making (when the
+//! rating has one: `coil_page`), the winding order with
 //! check-off boxes, the connection table (with the winding sequence), the equalizer table, the
 //! test and sign-off sheets and, when sheet 1 cannot hold it, the winding data in full.
 //!
@@ -12,6 +13,7 @@
 //! `[job] date`; the clock is never read.
 
 pub mod caution;
+pub mod coil_page;
 pub mod data;
 pub mod frame;
 pub mod legend;
@@ -78,6 +80,7 @@ enum Content {
     Equalizers(TablePage),
     WindingOrder(TablePage),
     CommutatorEnd,
+    CoilMaking,
     /// A test sheet; the first carries the test and sign-off blocks.
     Tests(TablePage, bool),
 }
@@ -145,6 +148,10 @@ pub fn sheet_pages(
                 Content::CommutatorEnd => {
                     ring::ring_page(&mut page.children, &input, &frame);
                     (PageKind::CommutatorEnd, "commutator end view")
+                }
+                Content::CoilMaking => {
+                    coil_page::coil_page(&mut page.children, &input, &frame);
+                    (PageKind::CoilMaking, "coil making")
                 }
                 Content::WindingOrder(p) => {
                     order::order_page(&mut page.children, &input, &frame, p);
@@ -214,6 +221,10 @@ fn sheet_contents(input: &Input<'_>, frame: &PageFrame, diagrams: usize) -> Vec<
     let sheet1 = diagram_sheet(frame);
     let data_on_own_sheet = data::rows_held(input, &sheet1.data) < data::data_rows(input).len();
     contents.push(Content::CommutatorEnd);
+    // The coils are made before any slot is filled: their sheet comes before the order.
+    if input.rating.is_some_and(|r| r.coil_making.is_some()) {
+        contents.push(Content::CoilMaking);
+    }
     let drop = order::first_page_drop(input, &area);
     let order_first = Rect {
         y: area.y + drop,

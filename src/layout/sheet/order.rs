@@ -311,6 +311,7 @@ pub(super) fn order_page(
     ));
     if page.rows.start == 0 {
         first_page_words(out, input, frame);
+        wire_line(out, input, c);
     }
     let order = Order::new(input);
     let mut g = Group::id(format!("order-{}", page.rows.start + 1)).with_class("winding-order");
@@ -331,6 +332,27 @@ pub(super) fn order_page(
         }
     }
     out.push(g.into());
+}
+
+/// The wire to order, right on the heading's line of the first page, at the floor or above
+/// (it stands on the coil-making sheet in full when the line has no room beside the heading).
+fn wire_line(out: &mut Vec<Node>, input: &Input<'_>, c: &Rect) {
+    let Some(words) = super::coil_page::wire_to_order_words(input) else {
+        return;
+    };
+    let heading = text_width(
+        "Winding order: steps 0000\u{2013}0000 of 0000",
+        super::table::HEADING_SIZE,
+        Weight::Bold,
+    );
+    let room = c.w - 4.0 - heading - 8.0;
+    let Some(size) = [3.0, TEXT_FLOOR]
+        .into_iter()
+        .find(|&z| text_width(&words, z, Weight::Regular) <= room)
+    else {
+        return;
+    };
+    out.push(Text::new(c.right() - 2.0, c.y + 6.5, size, "end", words).into());
 }
 
 /// The words above the table on the first page.

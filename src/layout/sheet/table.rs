@@ -12,7 +12,7 @@ use super::order::BOX as CHECK_BOX;
 use super::{Input, PageFrame, Rect, TABLE_FONT, TABLE_HEADER, TABLE_ROW, TablePage, hline};
 
 /// Font size of a page heading after sheet 1, mm.
-const HEADING_SIZE: f64 = 4.2;
+pub(super) const HEADING_SIZE: f64 = 4.2;
 
 /// The heading of a page after sheet 1: bold, at the top left of the content area `c`.
 pub(super) fn page_heading(c: &Rect, text: impl Into<String>) -> Node {
