@@ -13,6 +13,7 @@
 
 pub mod armature_test;
 pub mod csv;
+pub mod explore;
 pub mod identify;
 pub mod json;
 pub mod pdf;
