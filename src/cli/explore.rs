@@ -54,7 +54,12 @@ pub struct ExploreArgs {
     #[arg(long, value_name = "N", requires = "output")]
     pub write: Option<usize>,
     /// Where --write writes the design.
-    #[arg(short = 'o', long = "output", value_name = "DESIGN.toml", requires = "write")]
+    #[arg(
+        short = 'o',
+        long = "output",
+        value_name = "DESIGN.toml",
+        requires = "write"
+    )]
     pub output: Option<PathBuf>,
     /// Replace an existing output file.
     #[arg(long)]

@@ -226,7 +226,9 @@ fn read_frame(text: &str, file: &str, found: &Found) -> Result<Option<Frame>, Di
                 "file",
                 "the frame file is empty: expected [armature], [rating] and [core] tables",
             )
-            .with_hint("run `armsheet new --frame frame.toml` to write a commented starter frame"));
+            .with_hint(
+                "run `armsheet new --frame frame.toml` to write a commented starter frame",
+            ));
     }
     let root = DeTable::parse(text).map_err(|e| toml_error(&src, &e))?;
     let root_table = root.get_ref();
@@ -252,7 +254,8 @@ fn read_frame(text: &str, file: &str, found: &Found) -> Result<Option<Frame>, Di
         ))
     };
     let job = table("job").map_or_else(Job::default, |t| job::read(&t));
-    let arm = table("armature").ok_or_else(|| missing_table("armature", "poles = 4\n    slots = [36, 37]"))?;
+    let arm = table("armature")
+        .ok_or_else(|| missing_table("armature", "poles = 4\n    slots = [36, 37]"))?;
     let rat = table("rating").ok_or_else(|| {
         missing_table(
             "rating",
@@ -297,7 +300,8 @@ fn read_frame(text: &str, file: &str, found: &Found) -> Result<Option<Frame>, Di
     if found.any() {
         return Ok(None);
     }
-    let (Some(()), Some(poles), Some(slots), Some(r), Some(core)) = (arm_keys, poles, slots, r, core)
+    let (Some(()), Some(poles), Some(slots), Some(r), Some(core)) =
+        (arm_keys, poles, slots, r, core)
     else {
         return Ok(None);
     };
@@ -313,7 +317,10 @@ fn read_frame(text: &str, file: &str, found: &Found) -> Result<Option<Frame>, Di
         let t = table("search");
         let at = t
             .as_ref()
-            .and_then(|t| t.raw("bar_pitch_min_mm").or_else(|| t.raw("bar_pitch_max_mm")))
+            .and_then(|t| {
+                t.raw("bar_pitch_min_mm")
+                    .or_else(|| t.raw("bar_pitch_max_mm"))
+            })
             .map_or(0..0, |v| v.span());
         return Err(src
             .error(
@@ -348,7 +355,11 @@ fn required_rating(
 ) -> Result<(Rating, f64, f64, Mode), Diagnostic> {
     let rating = r.rating.unwrap_or_default();
     if rating.voltage.is_none() {
-        return Err(t.missing("voltage", "the rated terminal voltage in V", "voltage = 220"));
+        return Err(t.missing(
+            "voltage",
+            "the rated terminal voltage in V",
+            "voltage = 220",
+        ));
     }
     if rating.current.is_none() {
         return Err(t.missing("current", "the rated armature current in A", "current = 85"));
@@ -384,14 +395,22 @@ fn required_core(t: &TableReader<'_, '_>, c: Core) -> Result<Core, Diagnostic> {
 /// `slots`: one count or a list of counts.
 fn read_slots(arm: &TableReader<'_, '_>) -> Result<Vec<u32>, Diagnostic> {
     let what = "the number of armature slots";
-    let v = arm
-        .raw("slots")
-        .ok_or_else(|| arm.missing("slots", "the number of armature slots, or a list", "slots = [36, 37]"))?;
+    let v = arm.raw("slots").ok_or_else(|| {
+        arm.missing(
+            "slots",
+            "the number of armature slots, or a list",
+            "slots = [36, 37]",
+        )
+    })?;
     let mut out: Vec<u32> = match v.get_ref() {
         DeValue::Array(items) if items.is_empty() => {
             return Err(arm
                 .src
-                .error(v.span(), arm.dotted("slots"), "the list of slot counts is empty")
+                .error(
+                    v.span(),
+                    arm.dotted("slots"),
+                    "the list of slot counts is empty",
+                )
                 .with_hint("write e.g. `slots = [36, 37]` or `slots = 36`"));
         }
         DeValue::Array(_) => arm
@@ -399,9 +418,15 @@ fn read_slots(arm: &TableReader<'_, '_>) -> Result<Vec<u32>, Diagnostic> {
             .into_iter()
             .map(|s| s as u32)
             .collect(),
-        _ => vec![arm
-            .int("slots", 2..=bounds::MAX_SLOTS, what, "count the slots on the stripped core, or list the counts to search")?
-            .map_or(0, |a| a.value as u32)],
+        _ => vec![
+            arm.int(
+                "slots",
+                2..=bounds::MAX_SLOTS,
+                what,
+                "count the slots on the stripped core, or list the counts to search",
+            )?
+            .map_or(0, |a| a.value as u32),
+        ],
     };
     out.sort_unstable();
     out.dedup();
@@ -463,10 +488,20 @@ fn read_search(t: &TableReader<'_, '_>) -> Option<Search> {
         "1 tries the spans next to the pole pitch",
     );
     let family = t.keep(t.choice("conductor", &["r20", "awg", "rectangular"]));
-    let ws = t.raw("strip_widths_mm").map(|v| t.keep(numbers(t, "strip_widths_mm", v)));
-    let hs = t.raw("strip_heights_mm").map(|v| t.keep(numbers(t, "strip_heights_mm", v)));
+    let ws = t
+        .raw("strip_widths_mm")
+        .map(|v| t.keep(numbers(t, "strip_widths_mm", v)));
+    let hs = t
+        .raw("strip_heights_mm")
+        .map(|v| t.keep(numbers(t, "strip_heights_mm", v)));
     let radius = t
-        .keep(t.number("corner_radius_mm", 0.0, false, 10.0, "the strip corner radius in mm"))
+        .keep(t.number(
+            "corner_radius_mm",
+            0.0,
+            false,
+            10.0,
+            "the strip corner radius in mm",
+        ))
         .map(|v| v.map(|a| a.value));
     let strands = int(
         "strands_max",
@@ -474,9 +509,19 @@ fn read_search(t: &TableReader<'_, '_>) -> Option<Search> {
         "the most strands in hand",
         "4 is usual for round wire",
     );
-    let area = num("slot_area_mm2", 100_000.0, "the slot area for copper in mm2");
+    let area = num(
+        "slot_area_mm2",
+        100_000.0,
+        "the slot area for copper in mm2",
+    );
     let fill = t
-        .keep(t.number("fill_max", 0.0, true, 1.0, "the most bare copper over slot area"))
+        .keep(t.number(
+            "fill_max",
+            0.0,
+            true,
+            1.0,
+            "the most bare copper over slot area",
+        ))
         .map(|v| v.map(|a| a.value));
     let tol = t
         .keep(t.number(
@@ -487,9 +532,14 @@ fn read_search(t: &TableReader<'_, '_>) -> Option<Search> {
             "the speed's tolerance as a fraction of the rated speed",
         ))
         .map(|v| v.map(|a| a.value));
-    let mean_turn = num("mean_turn_mm", 100_000.0, "the mean length of one turn in mm");
-    let (kinds, m, u_from, u_to, pmin, pmax, dummies, slack, family) =
-        (kinds?, m?, u_from?, u_to?, pmin?, pmax?, dummies?, slack?, family?);
+    let mean_turn = num(
+        "mean_turn_mm",
+        100_000.0,
+        "the mean length of one turn in mm",
+    );
+    let (kinds, m, u_from, u_to, pmin, pmax, dummies, slack, family) = (
+        kinds?, m?, u_from?, u_to?, pmin?, pmax?, dummies?, slack?, family?,
+    );
     let (radius, strands, area, fill, tol, mean_turn) =
         (radius?, strands?, area?, fill?, tol?, mean_turn?);
     let segs = match segs {
@@ -504,9 +554,14 @@ fn read_search(t: &TableReader<'_, '_>) -> Option<Search> {
         Some(s) => Some(s?),
         None => None,
     };
-    let u = (u_from.unwrap_or(d.coils_per_slot.0), u_to.unwrap_or(d.coils_per_slot.1.max(u_from.unwrap_or(1))));
+    let u = (
+        u_from.unwrap_or(d.coils_per_slot.0),
+        u_to.unwrap_or(d.coils_per_slot.1.max(u_from.unwrap_or(1))),
+    );
     if u.1 < u.0 {
-        let at = t.raw("coils_per_slot_to").map_or(t.span.clone(), |v| v.span());
+        let at = t
+            .raw("coils_per_slot_to")
+            .map_or(t.span.clone(), |v| v.span());
         t.src.found.push(
             t.src
                 .error(
@@ -531,10 +586,16 @@ fn read_search(t: &TableReader<'_, '_>) -> Option<Search> {
             max_mm: hi,
         },
         (None, Some(_), Some(_)) => {
-            let at = t.raw("bar_pitch_max_mm").map_or(t.span.clone(), |v| v.span());
+            let at = t
+                .raw("bar_pitch_max_mm")
+                .map_or(t.span.clone(), |v| v.span());
             t.src.found.push(
                 t.src
-                    .error(at, "search.bar_pitch_max_mm", "the greatest bar pitch is below the least")
+                    .error(
+                        at,
+                        "search.bar_pitch_max_mm",
+                        "the greatest bar pitch is below the least",
+                    )
                     .with_hint("give bar_pitch_max_mm at least bar_pitch_min_mm"),
             );
             return None;
@@ -548,7 +609,11 @@ fn read_search(t: &TableReader<'_, '_>) -> Option<Search> {
             let at = t.raw(have).map_or(t.span.clone(), |v| v.span());
             t.src.found.push(
                 t.src
-                    .error(at, format!("search.{have}"), format!("a bar pitch range needs both ends: {want} is missing"))
+                    .error(
+                        at,
+                        format!("search.{have}"),
+                        format!("a bar pitch range needs both ends: {want} is missing"),
+                    )
                     .with_hint("give bar_pitch_min_mm and bar_pitch_max_mm together"),
             );
             return None;
@@ -571,17 +636,24 @@ fn read_search(t: &TableReader<'_, '_>) -> Option<Search> {
                 } else {
                     "strip_heights_mm"
                 };
+                let example = if key == "strip_widths_mm" {
+                    "strip_widths_mm = [5.6, 6.3]"
+                } else {
+                    "strip_heights_mm = [1.8, 2.0]"
+                };
                 t.src.found.push(t.missing(
                     key,
                     "the strip sides in mm to search, a list",
-                    &format!("{key} = [5.6, 6.3]"),
+                    example,
                 ));
                 return None;
             };
             let r = radius.unwrap_or(0.0);
             let smallest = ws.iter().chain(&hs).fold(f64::INFINITY, |a, &b| a.min(b));
             if 2.0 * r > smallest {
-                let at = t.raw("corner_radius_mm").map_or(t.span.clone(), |v| v.span());
+                let at = t
+                    .raw("corner_radius_mm")
+                    .map_or(t.span.clone(), |v| v.span());
                 t.src.found.push(
                     t.src
                         .error(at, "search.corner_radius_mm", format!("a corner radius of {r} mm does not fit the smallest side, {smallest} mm"))
@@ -623,7 +695,14 @@ fn read_kinds(t: &TableReader<'_, '_>) -> Result<Option<Vec<WindingType>>, Diagn
     let DeValue::Array(items) = v.get_ref() else {
         return Err(t
             .src
-            .error(v.span(), "search.kinds", format!("expected a list of winding kinds, found {}", v.get_ref().type_str()))
+            .error(
+                v.span(),
+                "search.kinds",
+                format!(
+                    "expected a list of winding kinds, found {}",
+                    v.get_ref().type_str()
+                ),
+            )
             .with_hint("write e.g. `kinds = [\"lap\", \"wave\"]`"));
     };
     let mut out = Vec::new();
@@ -638,7 +717,10 @@ fn read_kinds(t: &TableReader<'_, '_>) -> Result<Option<Vec<WindingType>>, Diagn
                 let d = t.src.error(
                     i.span(),
                     "search.kinds",
-                    format!("expected \"lap\", \"wave\" or \"frog-leg\", found \"{}\"", clip(&word, ECHO_WIDTH)),
+                    format!(
+                        "expected \"lap\", \"wave\" or \"frog-leg\", found \"{}\"",
+                        clip(&word, ECHO_WIDTH)
+                    ),
                 );
                 return Err(match nearest(&word, &words) {
                     Some(n) => d.with_hint(format!("did you mean \"{n}\"?")),
@@ -659,10 +741,20 @@ fn read_kinds(t: &TableReader<'_, '_>) -> Result<Option<Vec<WindingType>>, Diagn
 }
 
 /// A list of sizes in mm, each above 0 and at most 100.
-fn numbers(t: &TableReader<'_, '_>, key: &str, v: &toml::Spanned<DeValue<'_>>) -> Result<Vec<f64>, Diagnostic> {
+fn numbers(
+    t: &TableReader<'_, '_>,
+    key: &str,
+    v: &toml::Spanned<DeValue<'_>>,
+) -> Result<Vec<f64>, Diagnostic> {
     let bad = |span: std::ops::Range<usize>, found: &str| {
         t.src
-            .error(span, format!("search.{key}"), format!("expected a list of sizes in mm, each above 0 and at most 100, found {found}"))
+            .error(
+                span,
+                format!("search.{key}"),
+                format!(
+                    "expected a list of sizes in mm, each above 0 and at most 100, found {found}"
+                ),
+            )
             .with_hint(format!("write e.g. `{key} = [5.6, 6.3]`"))
     };
     let DeValue::Array(items) = v.get_ref() else {
@@ -675,12 +767,19 @@ fn numbers(t: &TableReader<'_, '_>, key: &str, v: &toml::Spanned<DeValue<'_>>) -
         .iter()
         .map(|i| {
             let x = match i.get_ref() {
-                DeValue::Integer(n) => i64::from_str_radix(n.as_str(), n.radix()).ok().map(|n| n as f64),
+                DeValue::Integer(n) => i64::from_str_radix(n.as_str(), n.radix())
+                    .ok()
+                    .map(|n| n as f64),
                 DeValue::Float(f) => f.as_str().replace('_', "").parse::<f64>().ok(),
                 _ => None,
             };
             x.filter(|x| x.is_finite() && *x > 0.0 && *x <= 100.0)
-                .ok_or_else(|| bad(i.span(), &clip(&format!("{}", i.get_ref().type_str()), ECHO_WIDTH)))
+                .ok_or_else(|| {
+                    bad(
+                        i.span(),
+                        &clip(&format!("{}", i.get_ref().type_str()), ECHO_WIDTH),
+                    )
+                })
         })
         .collect()
 }
@@ -693,7 +792,10 @@ fn check_tables(src: &Source<'_>, root_table: &DeTable<'_>) -> Result<(), Diagno
             let d = src.error(
                 k.span(),
                 word,
-                format!("unknown table or key `{}` at the top level of a frame", clip(word, ECHO_WIDTH)),
+                format!(
+                    "unknown table or key `{}` at the top level of a frame",
+                    clip(word, ECHO_WIDTH)
+                ),
             );
             return Err(match (word, nearest(word, FRAME_TABLES)) {
                 ("winding" | "conductor", _) => d.with_hint(
@@ -708,8 +810,17 @@ fn check_tables(src: &Source<'_>, root_table: &DeTable<'_>) -> Result<(), Diagno
         }
         if !v.get_ref().is_table() {
             return Err(src
-                .error(v.span(), word, format!("expected a table [{word}], found {}", v.get_ref().type_str()))
-                .with_hint(format!("write `[{word}]` on a line of its own and the keys under it")));
+                .error(
+                    v.span(),
+                    word,
+                    format!(
+                        "expected a table [{word}], found {}",
+                        v.get_ref().type_str()
+                    ),
+                )
+                .with_hint(format!(
+                    "write `[{word}]` on a line of its own and the keys under it"
+                )));
         }
     }
     Ok(())

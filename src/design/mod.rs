@@ -49,10 +49,10 @@ pub use build::{
     POLE_ARC_RANGE,
 };
 pub use card::{Card, OBSERVED_KEYS, parse_card, parse_card_bytes};
+pub use diagnostic::{Diagnostic, Diagnostics, MAX_DIAGNOSTICS};
 pub use frame::{
     ConductorFamily, Frame, SEARCH_KEYS, Search, SegmentChoice, parse_frame, parse_frame_bytes,
 };
-pub use diagnostic::{Diagnostic, Diagnostics, MAX_DIAGNOSTICS};
 pub use limits::{Bound, LIMIT_KEYS, LIMITS, LimitId, LimitSpec, Limits};
 pub use model::*;
 pub use parse::{parse_design, parse_design_bytes};

@@ -23,7 +23,11 @@ pub fn render_explore(f: &Frame, r: &Explored, top: usize) -> String {
         s,
         "{} poles, slots {}; {} V, {} A, {} rpm, flux {} mWb per pole",
         f.poles,
-        f.slots.iter().map(|x| x.to_string()).collect::<Vec<_>>().join(", "),
+        f.slots
+            .iter()
+            .map(|x| x.to_string())
+            .collect::<Vec<_>>()
+            .join(", "),
         fmt_fixed(f.rating.voltage.unwrap_or(0.0), 1),
         fmt_fixed(f.rating.current.unwrap_or(0.0), 1),
         fmt_fixed(f.speed_rpm, 0),
@@ -64,11 +68,11 @@ pub fn render_explore(f: &Frame, r: &Explored, top: usize) -> String {
         }
     }
     if r.fits.is_empty() {
-        match r.last_cut() {
-            Some((limit, n)) => {
+        match &r.last_cut {
+            Some((limit, n, fewest)) => {
                 let _ = writeln!(
                     s,
-                    "\nnothing fits: {limit} cut the last candidates ({n} of those closest to fitting)"
+                    "\nnothing fits: {limit} cut the last candidates ({n} of those failing the fewest limits, {fewest} each)"
                 );
             }
             None => s.push_str("\nnothing fits: no candidate could be evaluated\n"),
@@ -105,7 +109,10 @@ fn line(s: &mut String, n: usize, k: &Candidate) {
         fmt_fixed(g.segment_volts_peak, 2),
         fmt_fixed(g.segment_volts_avg, 2),
         g.fill.map_or_else(
-            || format!("{} mm2 copper per slot", fmt_fixed(g.copper_per_slot_mm2, 1)),
+            || format!(
+                "{} mm2 copper per slot",
+                fmt_fixed(g.copper_per_slot_mm2, 1)
+            ),
             |x| fmt_fixed(x, 3)
         ),
         fmt_fixed(g.speed_rpm, 0),
@@ -130,6 +137,7 @@ struct ExploreJson<'a> {
     near_misses: Vec<CandidateJson<'a>>,
     near_miss_count: u64,
     cut_by: Vec<CutJson<'a>>,
+    last_cut: Option<&'a str>,
 }
 
 #[derive(Serialize)]
@@ -267,6 +275,7 @@ pub fn write_explore_json<W: Write>(
                 candidates: *n,
             })
             .collect(),
+        last_cut: r.last_cut.as_ref().map(|l| l.0.as_str()),
     };
     serde_json::to_writer_pretty(&mut out, &view).map_err(io::Error::other)?;
     out.write_all(b"\n")

@@ -31,8 +31,8 @@ use rayon::prelude::*;
 use crate::base::number::fmt_fixed;
 use crate::checks::{Checked, Severity, check};
 use crate::design::{
-    Conductor, ConductorFamily, ConductorShape, Design, DesignError, DesignSpec,
-    Direction, EqualizerChoice, Frame, HalfBars, LimitId, SegmentChoice, SpanSource, WindingType,
+    Conductor, ConductorFamily, ConductorShape, Design, DesignError, DesignSpec, Direction,
+    EqualizerChoice, Frame, HalfBars, LimitId, SegmentChoice, SpanSource, WindingType,
     awg_diameter_mm, bounds,
 };
 use crate::rating::conductor::{AWG_RANGE, conductor_area_mm2, mean_turn, r20_diameters_mm};
@@ -147,14 +147,9 @@ pub struct Explored {
     pub cut_by: Vec<(String, u64)>,
     /// Where the space was cut short, in words (empty when exhaustive within `[search]`).
     pub cut_short: Vec<String>,
-}
-
-impl Explored {
-    /// When nothing fits: the limit that cut the candidates closest to fitting (those failing
-    /// the fewest limits), with how many it cut.
-    pub fn last_cut(&self) -> Option<(String, u64)> {
-        self.cut_by.first().cloned()
-    }
+    /// Among the candidates that fail the fewest limits, the limit most of them fail: the
+    /// limit, how many of them fail it, and how many limits each fails.
+    pub last_cut: Option<(String, u64, usize)>,
 }
 
 /// Near misses listed at most.
@@ -500,11 +495,15 @@ impl Fixed<'_> {
 
     /// The speed `turns` give with `area`, for the bisection.
     fn speed(&self, turns: u32, area: f64) -> f64 {
-        self.rate(turns, &ConductorShape::Round {
-            diameter_mm: 1.0,
-            awg: None,
-            strands: 1,
-        }, area)
+        self.rate(
+            turns,
+            &ConductorShape::Round {
+                diameter_mm: 1.0,
+                awg: None,
+                strands: 1,
+            },
+            area,
+        )
         .0
         .speed_rpm
     }
@@ -543,7 +542,44 @@ enum Outcome {
         evaluated: u64,
         candidates: Vec<Candidate>,
         cut: Vec<(String, u64)>,
+        closest: Closest,
     },
+}
+
+/// The candidates failing the fewest limits: how few, and how many fail each limit among them.
+#[derive(Default)]
+struct Closest {
+    fewest: Option<usize>,
+    limits: std::collections::BTreeMap<String, u64>,
+}
+
+impl Closest {
+    fn add(&mut self, fails: &[String]) {
+        match self.fewest {
+            Some(n) if fails.len() > n => return,
+            Some(n) if fails.len() == n => {}
+            _ => {
+                self.fewest = Some(fails.len());
+                self.limits.clear();
+            }
+        }
+        for x in fails {
+            *self.limits.entry(x.clone()).or_default() += 1;
+        }
+    }
+
+    fn merge(&mut self, other: Closest) {
+        match (self.fewest, other.fewest) {
+            (_, None) => {}
+            (Some(a), Some(b)) if b > a => {}
+            (Some(a), Some(b)) if b == a => {
+                for (k, n) in other.limits {
+                    *self.limits.entry(k).or_default() += n;
+                }
+            }
+            _ => *self = other,
+        }
+    }
 }
 
 fn explore_structure(f: &Frame, st: &Structure, conductors: &[(ConductorShape, f64)]) -> Outcome {
@@ -552,6 +588,7 @@ fn explore_structure(f: &Frame, st: &Structure, conductors: &[(ConductorShape, f
             evaluated: 0,
             candidates: Vec::new(),
             cut: Vec::new(),
+            closest: Closest::default(),
         };
     };
     let d = match design_of(f, st, 1, probe) {
@@ -565,6 +602,7 @@ fn explore_structure(f: &Frame, st: &Structure, conductors: &[(ConductorShape, f
     let mut evaluated = 0;
     let mut candidates = Vec::new();
     let mut cut: std::collections::BTreeMap<String, u64> = std::collections::BTreeMap::new();
+    let mut closest = Closest::default();
     for &(shape, area) in conductors {
         for turns in fx.turns_window(area) {
             evaluated += 1;
@@ -572,6 +610,7 @@ fn explore_structure(f: &Frame, st: &Structure, conductors: &[(ConductorShape, f
             for x in &fails {
                 *cut.entry(x.clone()).or_default() += 1;
             }
+            closest.add(&fails);
             if fails.len() <= 1 {
                 candidates.push(Candidate {
                     structure: st.clone(),
@@ -589,6 +628,7 @@ fn explore_structure(f: &Frame, st: &Structure, conductors: &[(ConductorShape, f
         evaluated,
         candidates,
         cut: cut.into_iter().collect(),
+        closest,
     }
 }
 
@@ -609,6 +649,7 @@ pub fn explore(f: &Frame) -> Explored {
     let mut cut: std::collections::BTreeMap<String, u64> = Default::default();
     let mut fits = Vec::new();
     let mut near = Vec::new();
+    let mut closest = Closest::default();
     for o in outcomes {
         match o {
             Outcome::Refused(key) => *refused.entry(key.to_string()).or_default() += 1,
@@ -616,7 +657,9 @@ pub fn explore(f: &Frame) -> Explored {
                 evaluated: n,
                 candidates,
                 cut: c,
+                closest: k,
             } => {
+                closest.merge(k);
                 traced += 1;
                 evaluated += n;
                 for (k, n) in c {
@@ -637,18 +680,17 @@ pub fn explore(f: &Frame) -> Explored {
     rank(&mut near);
     let near_miss_count = near.len() as u64;
     near.truncate(NEAR_MISS_LIST);
-    // The limits that cut most: among the near misses when there are any (the candidates
-    // closest to fitting), else among all.
-    let mut cut_by: Vec<(String, u64)> = if near_miss_count > 0 && fits.is_empty() {
-        let mut m: std::collections::BTreeMap<String, u64> = Default::default();
-        for k in &near {
-            *m.entry(k.fails[0].clone()).or_default() += 1;
-        }
-        m.into_iter().collect()
-    } else {
-        cut.into_iter().collect()
-    };
+    // Every limit with the candidates it cuts, most first.
+    let mut cut_by: Vec<(String, u64)> = cut.into_iter().collect();
     cut_by.sort_by(|a, b| b.1.cmp(&a.1).then(a.0.cmp(&b.0)));
+    // Among the candidates closest to fitting (the fewest limits failed), the limit most of
+    // them fail.
+    let mut last: Vec<(String, u64)> = closest.limits.into_iter().collect();
+    last.sort_by(|a, b| b.1.cmp(&a.1).then(a.0.cmp(&b.0)));
+    let last_cut = last
+        .into_iter()
+        .next()
+        .map(|(limit, n)| (limit, n, closest.fewest.unwrap_or(0)));
     let mut cut_short = Vec::new();
     if f.search.segments == SegmentChoice::Workable {
         cut_short.push(format!(
@@ -674,6 +716,7 @@ pub fn explore(f: &Frame) -> Explored {
         near_miss_count,
         cut_by,
         cut_short,
+        last_cut,
     }
 }
 
@@ -722,7 +765,11 @@ fn mark_front(fits: &mut [Candidate]) {
     for &i in &front {
         let x = objectives(&fits[i]);
         let reason = if let Some(n) = (0..3).find(|&n| x[n] <= best[n]) {
-            format!("least {} of all fits ({})", OBJECTIVE_NAMES[n], fmt_fixed(x[n], 2))
+            format!(
+                "least {} of all fits ({})",
+                OBJECTIVE_NAMES[n],
+                fmt_fixed(x[n], 2)
+            )
         } else {
             "no fit is better in one figure without being worse in another".to_string()
         };
@@ -745,7 +792,20 @@ fn rank(v: &mut [Candidate]) {
     });
 }
 
-fn key(k: &Candidate) -> (u32, WindingType, u32, Direction, u32, u32, u32, u32, u64, u32) {
+fn key(
+    k: &Candidate,
+) -> (
+    u32,
+    WindingType,
+    u32,
+    Direction,
+    u32,
+    u32,
+    u32,
+    u32,
+    u64,
+    u32,
+) {
     let s = &k.structure;
     let (size, strands) = match k.conductor {
         ConductorShape::Round {
@@ -758,7 +818,10 @@ fn key(k: &Candidate) -> (u32, WindingType, u32, Direction, u32, u32, u32, u32, 
             height_mm,
             strands,
             ..
-        } => ((width_mm * 1e6) as u64 * 1_000_000 + (height_mm * 1e3) as u64, strands),
+        } => (
+            (width_mm * 1e6) as u64 * 1_000_000 + (height_mm * 1e3) as u64,
+            strands,
+        ),
     };
     (
         s.slots,
@@ -778,12 +841,20 @@ fn key(k: &Candidate) -> (u32, WindingType, u32, Direction, u32, u32, u32, u32, 
 pub fn pick_header(f: &Frame, k: &Candidate, n: usize, version: &str) -> Vec<String> {
     let s = &k.structure;
     vec![
-        format!("Written by armsheet {version} explore, candidate {n} of the search on {}.", f.file_name),
+        format!(
+            "Written by armsheet {version} explore, candidate {n} of the search on {}.",
+            f.file_name
+        ),
         format!(
             "Search: {} poles, slots {:?}, kinds {}, multiplicity up to {}, coils per slot {} to {}, conductor {}, strands up to {}.",
             f.poles,
             f.slots,
-            f.search.kinds.iter().map(|k| k.as_str()).collect::<Vec<_>>().join("/"),
+            f.search
+                .kinds
+                .iter()
+                .map(|k| k.as_str())
+                .collect::<Vec<_>>()
+                .join("/"),
             f.search.multiplicity_max,
             f.search.coils_per_slot.0,
             f.search.coils_per_slot.1,
@@ -814,8 +885,7 @@ pub fn confirm(f: &Frame, k: &Candidate) -> Result<(Checked, bool), DesignError>
     let d = design_of(f, &k.structure, k.turns, k.conductor)?;
     let c = check(d);
     let ok = !c.has_errors()
-        && c
-            .rating
+        && c.rating
             .as_ref()
             .is_some_and(|r| r.checks.iter().all(|x| x.passed));
     Ok((c, ok))
