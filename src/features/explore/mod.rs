@@ -340,11 +340,12 @@ pub fn design_of(
     })
 }
 
-/// What one traced structure fixes for every candidate on it.
-struct Fixed<'a> {
+/// One structure traced and checked once: what it fixes for every turns and conductor on it.
+pub struct Traced<'a> {
     frame: &'a Frame,
-    /// Failed error-level winding rules and failed turn-independent rating limits.
-    fails: Vec<String>,
+    /// The failed error-level winding rules and the failed rating limits that depend on
+    /// neither turns nor conductor, in check order.
+    pub fails: Vec<String>,
     /// Conductors Z with one turn.
     z1: u64,
     /// Each element's (Z with one turn, paths), for several elements.
@@ -368,7 +369,38 @@ const PER_CANDIDATE: [LimitId; 5] = [
     LimitId::ElectricLoadingMax,
 ];
 
-fn fixed<'a>(f: &'a Frame, checked: &Checked) -> Option<Fixed<'a>> {
+/// The per-candidate limits a mask bit stands for, in check order, then the search's own.
+const MASK_IDS: [&str; 7] = [
+    rules::SEGMENT_VOLTS_AVG.id,
+    rules::SEGMENT_VOLTS_PEAK.id,
+    rules::DENSITY_MIN.id,
+    rules::DENSITY_MAX.id,
+    rules::ELECTRIC_LOADING.id,
+    SPEED_LIMIT,
+    FILL_LIMIT,
+];
+
+/// A candidate's figures and the per-candidate limits it fails, as bits of [`MASK_IDS`].
+pub struct Rated {
+    /// The figures.
+    pub figures: Figures,
+    /// Failed per-candidate limits.
+    pub mask: u8,
+}
+
+/// Traces and checks `st` once (one turn, the first conductor) and keeps what every
+/// candidate on it shares; `Err` with the design key when [`Design::new`] refuses it.
+pub fn trace_structure<'a>(
+    f: &'a Frame,
+    st: &Structure,
+    probe: ConductorShape,
+) -> Result<Traced<'a>, &'static str> {
+    let d = design_of(f, st, 1, probe).map_err(|e| e.key)?;
+    let checked = check(d);
+    traced(f, &checked).ok_or("rating")
+}
+
+fn traced<'a>(f: &'a Frame, checked: &Checked) -> Option<Traced<'a>> {
     let d = &checked.design;
     let w: &Winding = &checked.winding;
     let rating = checked.rating.as_ref()?;
@@ -392,7 +424,7 @@ fn fixed<'a>(f: &'a Frame, checked: &Checked) -> Option<Fixed<'a>> {
         .as_ref()
         .and_then(|k| k.brush_grade)
         .unwrap_or(crate::design::BrushGrade::Carbon);
-    Some(Fixed {
+    Some(Traced {
         frame: f,
         fails,
         z1: w.conductors,
@@ -414,11 +446,11 @@ fn fixed<'a>(f: &'a Frame, checked: &Checked) -> Option<Fixed<'a>> {
     })
 }
 
-impl Fixed<'_> {
-    /// The figures and failed limits of `turns` and `shape` on this structure.
-    fn rate(&self, turns: u32, shape: &ConductorShape, area: f64) -> (Figures, Vec<String>) {
+impl Traced<'_> {
+    /// The hot resistance, EMF, conductors and speed of `turns` with copper `area`, as
+    /// [`crate::rating::rate_with`] works them out.
+    fn emf(&self, turns: u32, area: f64) -> (Resistance, f64, u64, f64) {
         let f = self.frame;
-        let l = &f.limits;
         let t = u64::from(turns);
         let z = self.z1 * t;
         let a = self.paths;
@@ -432,6 +464,22 @@ impl Fixed<'_> {
         let v = f.rating.voltage.unwrap_or(0.0);
         let i = f.rating.current.unwrap_or(0.0);
         let e = emf::induced_emf(f.mode, v, i * r.hot_ohm, self.brush_drop_v);
+        let flux = f.flux_per_pole_mwb / 1000.0 * self.linkage;
+        let speed = if e > 0.0 && flux > 0.0 {
+            emf::speed_for(f.poles, z, a, e, flux)
+        } else {
+            0.0
+        };
+        (r, e, z, speed)
+    }
+
+    /// The figures of `turns` with copper `area`, and the per-candidate limits they fail.
+    pub fn rate(&self, turns: u32, area: f64) -> Rated {
+        let f = self.frame;
+        let l = &f.limits;
+        let a = self.paths;
+        let (r, e, z, speed) = self.emf(turns, area);
+        let i = f.rating.current.unwrap_or(0.0);
         let sv = commutator::segment_voltage(
             e,
             f.poles,
@@ -440,12 +488,6 @@ impl Fixed<'_> {
             l.get(LimitId::SegmentVoltsAvgMax),
             l.get(LimitId::SegmentVoltsPeakMax),
         );
-        let flux = f.flux_per_pole_mwb / 1000.0 * self.linkage;
-        let speed = if e > 0.0 && flux > 0.0 {
-            emf::speed_for(f.poles, z, a, e, flux)
-        } else {
-            0.0
-        };
         let density = i / f64::from(a) / area;
         let dia = f.core.diameter_mm.unwrap_or(0.0);
         let loading = z as f64 * i / (f64::from(a) * std::f64::consts::PI * dia / 1000.0);
@@ -454,29 +496,25 @@ impl Fixed<'_> {
             .unwrap_or(0.0);
         let per_slot = f64::from(self.coil_sides_per_slot) * f64::from(turns) * area;
         let fill = f.search.slot_area_mm2.map(|s| per_slot / s);
-        let mut fails = self.fails.clone();
-        let mut limit = |rule: crate::rating::Rule, value: f64| {
-            if value.is_finite() && !RatingCheck::new(rule, value, l).passed {
-                fails.push(rule.id.to_string());
-            }
+        let fails = |rule: crate::rating::Rule, value: f64| {
+            value.is_finite() && !RatingCheck::new(rule, value, l).passed
         };
-        if e > 0.0 {
-            limit(rules::SEGMENT_VOLTS_AVG, sv.average_v);
-            limit(rules::SEGMENT_VOLTS_PEAK, sv.peak_v);
-        }
-        limit(rules::DENSITY_MIN, density);
-        limit(rules::DENSITY_MAX, density);
-        limit(rules::ELECTRIC_LOADING, loading);
         let tol = f.search.speed_tolerance;
-        if !(speed >= f.speed_rpm * (1.0 - tol) && speed <= f.speed_rpm * (1.0 + tol)) {
-            fails.push(SPEED_LIMIT.to_string());
-        }
-        if fill.is_some_and(|x| x > f.search.fill_max) {
-            fails.push(FILL_LIMIT.to_string());
-        }
-        let _ = shape;
-        (
-            Figures {
+        let bits = [
+            e > 0.0 && fails(rules::SEGMENT_VOLTS_AVG, sv.average_v),
+            e > 0.0 && fails(rules::SEGMENT_VOLTS_PEAK, sv.peak_v),
+            fails(rules::DENSITY_MIN, density),
+            fails(rules::DENSITY_MAX, density),
+            fails(rules::ELECTRIC_LOADING, loading),
+            !(speed >= f.speed_rpm * (1.0 - tol) && speed <= f.speed_rpm * (1.0 + tol)),
+            fill.is_some_and(|x| x > f.search.fill_max),
+        ];
+        let mask = bits
+            .iter()
+            .enumerate()
+            .fold(0u8, |m, (n, &b)| if b { m | (1 << n) } else { m });
+        Rated {
+            figures: Figures {
                 copper_loss_w: copper,
                 resistance_ohm: r.hot_ohm,
                 emf_v: e,
@@ -489,34 +527,37 @@ impl Fixed<'_> {
                 fill,
                 paths: a,
             },
-            fails,
-        )
+            mask,
+        }
     }
 
-    /// The speed `turns` give with `area`, for the bisection.
-    fn speed(&self, turns: u32, area: f64) -> f64 {
-        self.rate(
-            turns,
-            &ConductorShape::Round {
-                diameter_mm: 1.0,
-                awg: None,
-                strands: 1,
-            },
-            area,
-        )
-        .0
-        .speed_rpm
+    /// The limits a candidate with `mask` fails, in check order.
+    pub fn fails_of(&self, mask: u8) -> Vec<String> {
+        let mut out = self.fails.clone();
+        out.extend(
+            MASK_IDS
+                .iter()
+                .enumerate()
+                .filter(|(n, _)| mask & (1 << n) != 0)
+                .map(|(_, id)| id.to_string()),
+        );
+        out
+    }
+
+    /// How many limits a candidate with `mask` fails.
+    pub fn fail_count(&self, mask: u8) -> usize {
+        self.fails.len() + mask.count_ones() as usize
     }
 
     /// The turns whose speed may fall in the band, one either side: the speed falls as the
-    /// turns rise.
-    fn turns_window(&self, area: f64) -> std::ops::RangeInclusive<u32> {
+    /// turns rise, so the band's ends are found by bisection on the speed itself.
+    pub fn turns_window(&self, area: f64) -> std::ops::RangeInclusive<u32> {
         let f = self.frame;
         let tol = f.search.speed_tolerance;
         let max = bounds::MAX_TURNS as u32;
-        // The first turns whose speed is at most the band's top, and the last at least its foot.
-        let first = partition(1, max, |t| self.speed(t, area) <= f.speed_rpm * (1.0 + tol));
-        let after = partition(1, max, |t| self.speed(t, area) < f.speed_rpm * (1.0 - tol));
+        let speed = |t: u32| self.emf(t, area).3;
+        let first = partition(1, max, |t| speed(t) <= f.speed_rpm * (1.0 + tol));
+        let after = partition(1, max, |t| speed(t) < f.speed_rpm * (1.0 - tol));
         first.saturating_sub(1).max(1)..=after.min(max)
     }
 }
@@ -554,7 +595,7 @@ struct Closest {
 }
 
 impl Closest {
-    fn add(&mut self, fails: &[String]) {
+    fn add_n(&mut self, fails: &[String], count: u64) {
         match self.fewest {
             Some(n) if fails.len() > n => return,
             Some(n) if fails.len() == n => {}
@@ -564,7 +605,7 @@ impl Closest {
             }
         }
         for x in fails {
-            *self.limits.entry(x.clone()).or_default() += 1;
+            *self.limits.entry(x.clone()).or_default() += count;
         }
     }
 
@@ -583,46 +624,51 @@ impl Closest {
 }
 
 fn explore_structure(f: &Frame, st: &Structure, conductors: &[(ConductorShape, f64)]) -> Outcome {
-    let Some(&(probe, _)) = conductors.first() else {
-        return Outcome::Rated {
-            evaluated: 0,
-            candidates: Vec::new(),
-            cut: Vec::new(),
-            closest: Closest::default(),
-        };
-    };
-    let d = match design_of(f, st, 1, probe) {
-        Ok(d) => d,
-        Err(e) => return Outcome::Refused(e.key),
-    };
-    let checked = check(d);
-    let Some(fx) = fixed(f, &checked) else {
-        return Outcome::Refused("rating");
-    };
     let mut evaluated = 0;
     let mut candidates = Vec::new();
     let mut cut: std::collections::BTreeMap<String, u64> = std::collections::BTreeMap::new();
     let mut closest = Closest::default();
+    let Some(&(probe, _)) = conductors.first() else {
+        return Outcome::Rated {
+            evaluated,
+            candidates,
+            cut: Vec::new(),
+            closest,
+        };
+    };
+    let fx = match trace_structure(f, st, probe) {
+        Ok(fx) => fx,
+        Err(key) => return Outcome::Refused(key),
+    };
+    // Tallies by mask, turned into limit counts once per structure.
+    let mut masks = [0u64; 256];
     for &(shape, area) in conductors {
         for turns in fx.turns_window(area) {
             evaluated += 1;
-            let (figures, fails) = fx.rate(turns, &shape, area);
-            for x in &fails {
-                *cut.entry(x.clone()).or_default() += 1;
-            }
-            closest.add(&fails);
-            if fails.len() <= 1 {
+            let r = fx.rate(turns, area);
+            masks[r.mask as usize] += 1;
+            if fx.fail_count(r.mask) <= 1 {
                 candidates.push(Candidate {
                     structure: st.clone(),
                     turns,
                     conductor: shape,
-                    figures,
-                    fails,
+                    figures: r.figures,
+                    fails: fx.fails_of(r.mask),
                     on_front: false,
                     front_reason: None,
                 });
             }
         }
+    }
+    for (mask, &n) in masks.iter().enumerate() {
+        if n == 0 {
+            continue;
+        }
+        let fails = fx.fails_of(mask as u8);
+        for x in &fails {
+            *cut.entry(x.clone()).or_default() += n;
+        }
+        closest.add_n(&fails, n);
     }
     Outcome::Rated {
         evaluated,
