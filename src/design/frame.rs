@@ -774,12 +774,7 @@ fn numbers(
                 _ => None,
             };
             x.filter(|x| x.is_finite() && *x > 0.0 && *x <= 100.0)
-                .ok_or_else(|| {
-                    bad(
-                        i.span(),
-                        &clip(&format!("{}", i.get_ref().type_str()), ECHO_WIDTH),
-                    )
-                })
+                .ok_or_else(|| bad(i.span(), &clip(&shown_value(i.get_ref()), ECHO_WIDTH)))
         })
         .collect()
 }
@@ -824,4 +819,13 @@ fn check_tables(src: &Source<'_>, root_table: &DeTable<'_>) -> Result<(), Diagno
         }
     }
     Ok(())
+}
+
+/// A value as a message shows it: a number as written, anything else by its type.
+fn shown_value(v: &DeValue<'_>) -> String {
+    match v {
+        DeValue::Integer(i) => i.to_string(),
+        DeValue::Float(f) => f.to_string(),
+        other => other.type_str().to_string(),
+    }
 }
