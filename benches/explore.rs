@@ -62,7 +62,7 @@ fn rate_candidates(bencher: divan::Bencher) {
                 .par_iter()
                 .map(|&(_, area)| {
                     (1..=TURNS)
-                        .map(|turns| u64::from(t.rate(turns, area).mask))
+                        .map(|turns| u64::from(t.evaluate(turns, area).mask))
                         .sum::<u64>()
                 })
                 .sum::<u64>()

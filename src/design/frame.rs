@@ -311,25 +311,7 @@ fn read_frame(text: &str, file: &str, found: &Found) -> Result<Option<Frame>, Di
         None => Search::default(),
     };
     let commutator = commutator.flatten();
-    if let SegmentChoice::BarPitch { .. } = search.segments
-        && commutator.as_ref().and_then(|k| k.diameter_mm).is_none()
-    {
-        let t = table("search");
-        let at = t
-            .as_ref()
-            .and_then(|t| {
-                t.raw("bar_pitch_min_mm")
-                    .or_else(|| t.raw("bar_pitch_max_mm"))
-            })
-            .map_or(0..0, |v| v.span());
-        return Err(src
-            .error(
-                at,
-                "search.bar_pitch_min_mm",
-                "a bar pitch range needs the commutator diameter: [commutator] diameter_mm is missing",
-            )
-            .with_hint("add diameter_mm to [commutator], or list the segment counts with `segments = [...]`"));
-    }
+    pitch_needs_diameter(&src, table("search").as_ref(), &search, commutator.as_ref())?;
     Ok(Some(Frame {
         file_name: file.to_string(),
         job,
@@ -433,6 +415,52 @@ fn read_slots(arm: &TableReader<'_, '_>) -> Result<Vec<u32>, Diagnostic> {
     Ok(out)
 }
 
+/// The whole-number keys of `[search]`: key, least, most, what, hint.
+const INT_KEYS: [(&str, i64, i64, &str, &str); 6] = [
+    (
+        "multiplicity_max",
+        1,
+        bounds::MAX_MULTIPLICITY,
+        "the highest multiplicity searched",
+        "1 for simplex windings only, 2 for duplex as well",
+    ),
+    (
+        "coils_per_slot_from",
+        1,
+        bounds::MAX_COILS_PER_SLOT,
+        "the fewest coils per slot searched",
+        "1 for one coil side per layer",
+    ),
+    (
+        "coils_per_slot_to",
+        1,
+        bounds::MAX_COILS_PER_SLOT,
+        "the most coils per slot searched",
+        "3 is usual for small machines",
+    ),
+    (
+        "dummy_coils_max",
+        0,
+        16,
+        "the most dummy coils",
+        "wave windings may leave one or two coils unconnected",
+    ),
+    (
+        "span_slack",
+        0,
+        8,
+        "the slots either side of the pole pitch the span may take",
+        "1 tries the spans next to the pole pitch",
+    ),
+    (
+        "strands_max",
+        1,
+        16,
+        "the most strands in hand",
+        "4 is usual for round wire",
+    ),
+];
+
 /// Reads `[search]`, recording every problem; `None` when any is in error.
 fn read_search(t: &TableReader<'_, '_>) -> Option<Search> {
     t.keep(t.deny_unknown(SEARCH_KEYS))?;
@@ -446,24 +474,8 @@ fn read_search(t: &TableReader<'_, '_>) -> Option<Search> {
             .map(|v| v.map(|a| a.value))
     };
     let kinds = t.keep(read_kinds(t));
-    let m = int(
-        "multiplicity_max",
-        1..=bounds::MAX_MULTIPLICITY,
-        "the highest multiplicity searched",
-        "1 for simplex windings only, 2 for duplex as well",
-    );
-    let u_from = int(
-        "coils_per_slot_from",
-        1..=bounds::MAX_COILS_PER_SLOT,
-        "the fewest coils per slot searched",
-        "1 for one coil side per layer",
-    );
-    let u_to = int(
-        "coils_per_slot_to",
-        1..=bounds::MAX_COILS_PER_SLOT,
-        "the most coils per slot searched",
-        "3 is usual for small machines",
-    );
+    let [m, u_from, u_to, dummies, slack, strands] =
+        INT_KEYS.map(|(k, lo, hi, what, hint)| int(k, lo..=hi, what, hint));
     let segs = t.raw("segments").map(|v| {
         t.keep(t.ints(
             "segments",
@@ -475,18 +487,6 @@ fn read_search(t: &TableReader<'_, '_>) -> Option<Search> {
     });
     let pmin = num("bar_pitch_min_mm", 1000.0, "the least bar pitch in mm");
     let pmax = num("bar_pitch_max_mm", 1000.0, "the greatest bar pitch in mm");
-    let dummies = int(
-        "dummy_coils_max",
-        0..=16,
-        "the most dummy coils",
-        "wave windings may leave one or two coils unconnected",
-    );
-    let slack = int(
-        "span_slack",
-        0..=8,
-        "the slots either side of the pole pitch the span may take",
-        "1 tries the spans next to the pole pitch",
-    );
     let family = t.keep(t.choice("conductor", &["r20", "awg", "rectangular"]));
     let ws = t
         .raw("strip_widths_mm")
@@ -503,12 +503,6 @@ fn read_search(t: &TableReader<'_, '_>) -> Option<Search> {
             "the strip corner radius in mm",
         ))
         .map(|v| v.map(|a| a.value));
-    let strands = int(
-        "strands_max",
-        1..=16,
-        "the most strands in hand",
-        "4 is usual for round wire",
-    );
     let area = num(
         "slot_area_mm2",
         100_000.0,
@@ -542,134 +536,10 @@ fn read_search(t: &TableReader<'_, '_>) -> Option<Search> {
     );
     let (radius, strands, area, fill, tol, mean_turn) =
         (radius?, strands?, area?, fill?, tol?, mean_turn?);
-    let segs = match segs {
-        Some(s) => Some(s?),
-        None => None,
-    };
-    let ws = match ws {
-        Some(s) => Some(s?),
-        None => None,
-    };
-    let hs = match hs {
-        Some(s) => Some(s?),
-        None => None,
-    };
-    let u = (
-        u_from.unwrap_or(d.coils_per_slot.0),
-        u_to.unwrap_or(d.coils_per_slot.1.max(u_from.unwrap_or(1))),
-    );
-    if u.1 < u.0 {
-        let at = t
-            .raw("coils_per_slot_to")
-            .map_or(t.span.clone(), |v| v.span());
-        t.src.found.push(
-            t.src
-                .error(
-                    at,
-                    "search.coils_per_slot_to",
-                    format!("coils per slot to {} is below from {}", u.1, u.0),
-                )
-                .with_hint("give coils_per_slot_to at least coils_per_slot_from"),
-        );
-        return None;
-    }
-    let segments = match (segs, pmin, pmax) {
-        (Some(list), None, None) => {
-            let mut list: Vec<u32> = list.into_iter().map(|c| c as u32).collect();
-            list.sort_unstable();
-            list.dedup();
-            SegmentChoice::List(list)
-        }
-        (None, None, None) => SegmentChoice::Workable,
-        (None, Some(lo), Some(hi)) if lo <= hi => SegmentChoice::BarPitch {
-            min_mm: lo,
-            max_mm: hi,
-        },
-        (None, Some(_), Some(_)) => {
-            let at = t
-                .raw("bar_pitch_max_mm")
-                .map_or(t.span.clone(), |v| v.span());
-            t.src.found.push(
-                t.src
-                    .error(
-                        at,
-                        "search.bar_pitch_max_mm",
-                        "the greatest bar pitch is below the least",
-                    )
-                    .with_hint("give bar_pitch_max_mm at least bar_pitch_min_mm"),
-            );
-            return None;
-        }
-        (None, Some(_), None) | (None, None, Some(_)) => {
-            let (have, want) = if pmin.is_some() {
-                ("bar_pitch_min_mm", "bar_pitch_max_mm")
-            } else {
-                ("bar_pitch_max_mm", "bar_pitch_min_mm")
-            };
-            let at = t.raw(have).map_or(t.span.clone(), |v| v.span());
-            t.src.found.push(
-                t.src
-                    .error(
-                        at,
-                        format!("search.{have}"),
-                        format!("a bar pitch range needs both ends: {want} is missing"),
-                    )
-                    .with_hint("give bar_pitch_min_mm and bar_pitch_max_mm together"),
-            );
-            return None;
-        }
-        (Some(_), _, _) => {
-            let at = t.raw("segments").map_or(t.span.clone(), |v| v.span());
-            t.src.found.push(
-                t.src
-                    .error(at, "search.segments", "give the segment counts either as a list or as a bar pitch range, not both")
-                    .with_hint("remove segments, or bar_pitch_min_mm and bar_pitch_max_mm"),
-            );
-            return None;
-        }
-    };
-    let conductor = match family.map(|f| f.value) {
-        Some("rectangular") => {
-            let (Some(ws), Some(hs)) = (ws, hs) else {
-                let key = if t.raw("strip_widths_mm").is_none() {
-                    "strip_widths_mm"
-                } else {
-                    "strip_heights_mm"
-                };
-                let example = if key == "strip_widths_mm" {
-                    "strip_widths_mm = [5.6, 6.3]"
-                } else {
-                    "strip_heights_mm = [1.8, 2.0]"
-                };
-                t.src.found.push(t.missing(
-                    key,
-                    "the strip sides in mm to search, a list",
-                    example,
-                ));
-                return None;
-            };
-            let r = radius.unwrap_or(0.0);
-            let smallest = ws.iter().chain(&hs).fold(f64::INFINITY, |a, &b| a.min(b));
-            if 2.0 * r > smallest {
-                let at = t
-                    .raw("corner_radius_mm")
-                    .map_or(t.span.clone(), |v| v.span());
-                t.src.found.push(
-                    t.src
-                        .error(at, "search.corner_radius_mm", format!("a corner radius of {r} mm does not fit the smallest side, {smallest} mm"))
-                        .with_hint("the radius is at most half the smaller side"),
-                );
-                return None;
-            }
-            ConductorFamily::Rectangular {
-                widths_mm: ws,
-                heights_mm: hs,
-                corner_radius_mm: r,
-            }
-        }
-        Some("awg") => ConductorFamily::Awg,
-        _ => ConductorFamily::R20,
-    };
+    let (segs, ws, hs) = (given(segs)?, given(ws)?, given(hs)?);
+    let u = t.keep(coils_per_slot(t, u_from, u_to))?;
+    let segments = t.keep(segment_choice(t, segs, pmin, pmax))?;
+    let conductor = t.keep(conductor_family(t, family.map(|f| f.value), ws, hs, radius))?;
     Some(Search {
         kinds: kinds.unwrap_or(d.kinds),
         multiplicity_max: m.unwrap_or(d.multiplicity_max),
@@ -827,5 +697,174 @@ fn shown_value(v: &DeValue<'_>) -> String {
         DeValue::Integer(i) => i.to_string(),
         DeValue::Float(f) => f.to_string(),
         other => other.type_str().to_string(),
+    }
+}
+
+/// The segment counts: a list, a bar pitch range, or every workable count.
+fn segment_choice(
+    t: &TableReader<'_, '_>,
+    segs: Option<Vec<i64>>,
+    pmin: Option<f64>,
+    pmax: Option<f64>,
+) -> Result<SegmentChoice, Diagnostic> {
+    Ok(match (segs, pmin, pmax) {
+        (Some(list), None, None) => {
+            let mut list: Vec<u32> = list.into_iter().map(|c| c as u32).collect();
+            list.sort_unstable();
+            list.dedup();
+            SegmentChoice::List(list)
+        }
+        (None, None, None) => SegmentChoice::Workable,
+        (None, Some(lo), Some(hi)) if lo <= hi => SegmentChoice::BarPitch {
+            min_mm: lo,
+            max_mm: hi,
+        },
+        (None, Some(_), Some(_)) => {
+            let at = t
+                .raw("bar_pitch_max_mm")
+                .map_or(t.span.clone(), |v| v.span());
+            return Err(t
+                .src
+                .error(
+                    at,
+                    "search.bar_pitch_max_mm",
+                    "the greatest bar pitch is below the least",
+                )
+                .with_hint("give bar_pitch_max_mm at least bar_pitch_min_mm"));
+        }
+        (None, Some(_), None) | (None, None, Some(_)) => {
+            let (have, want) = if pmin.is_some() {
+                ("bar_pitch_min_mm", "bar_pitch_max_mm")
+            } else {
+                ("bar_pitch_max_mm", "bar_pitch_min_mm")
+            };
+            let at = t.raw(have).map_or(t.span.clone(), |v| v.span());
+            return Err(t
+                .src
+                .error(
+                    at,
+                    format!("search.{have}"),
+                    format!("a bar pitch range needs both ends: {want} is missing"),
+                )
+                .with_hint("give bar_pitch_min_mm and bar_pitch_max_mm together"));
+        }
+        (Some(_), _, _) => {
+            let at = t.raw("segments").map_or(t.span.clone(), |v| v.span());
+            return Err(t
+                .src
+                .error(
+                    at,
+                    "search.segments",
+                    "give the segment counts either as a list or as a bar pitch range, not both",
+                )
+                .with_hint("remove segments, or bar_pitch_min_mm and bar_pitch_max_mm"));
+        }
+    })
+}
+
+/// The conductor family, with the strip sides for rectangular.
+fn conductor_family(
+    t: &TableReader<'_, '_>,
+    family: Option<&'static str>,
+    ws: Option<Vec<f64>>,
+    hs: Option<Vec<f64>>,
+    radius: Option<f64>,
+) -> Result<ConductorFamily, Diagnostic> {
+    Ok(match family {
+        Some("rectangular") => {
+            let (Some(ws), Some(hs)) = (ws, hs) else {
+                let key = if t.raw("strip_widths_mm").is_none() {
+                    "strip_widths_mm"
+                } else {
+                    "strip_heights_mm"
+                };
+                let example = if key == "strip_widths_mm" {
+                    "strip_widths_mm = [5.6, 6.3]"
+                } else {
+                    "strip_heights_mm = [1.8, 2.0]"
+                };
+                return Err(t.missing(key, "the strip sides in mm to search, a list", example));
+            };
+            let r = radius.unwrap_or(0.0);
+            let smallest = ws.iter().chain(&hs).fold(f64::INFINITY, |a, &b| a.min(b));
+            if 2.0 * r > smallest {
+                let at = t
+                    .raw("corner_radius_mm")
+                    .map_or(t.span.clone(), |v| v.span());
+                return Err(t.src
+                        .error(at, "search.corner_radius_mm", format!("a corner radius of {r} mm does not fit the smallest side, {smallest} mm"))
+                        .with_hint("the radius is at most half the smaller side"),
+                );
+            }
+            ConductorFamily::Rectangular {
+                widths_mm: ws,
+                heights_mm: hs,
+                corner_radius_mm: r,
+            }
+        }
+        Some("awg") => ConductorFamily::Awg,
+        _ => ConductorFamily::R20,
+    })
+}
+
+/// A bar pitch range needs the commutator's diameter.
+fn pitch_needs_diameter(
+    src: &Source<'_>,
+    t: Option<&TableReader<'_, '_>>,
+    search: &Search,
+    commutator: Option<&Commutator>,
+) -> Result<(), Diagnostic> {
+    if let SegmentChoice::BarPitch { .. } = search.segments
+        && commutator.as_ref().and_then(|k| k.diameter_mm).is_none()
+    {
+        let at = t
+            .and_then(|t| {
+                t.raw("bar_pitch_min_mm")
+                    .or_else(|| t.raw("bar_pitch_max_mm"))
+            })
+            .map_or(0..0, |v| v.span());
+        return Err(src
+            .error(
+                at,
+                "search.bar_pitch_min_mm",
+                "a bar pitch range needs the commutator diameter: [commutator] diameter_mm is missing",
+            )
+            .with_hint("add diameter_mm to [commutator], or list the segment counts with `segments = [...]`"));
+    }
+    Ok(())
+}
+
+/// Coils per slot from and to, defaults filled in, from at most to.
+fn coils_per_slot(
+    t: &TableReader<'_, '_>,
+    from: Option<u32>,
+    to: Option<u32>,
+) -> Result<(u32, u32), Diagnostic> {
+    let d = Search::default().coils_per_slot;
+    let u = (
+        from.unwrap_or(d.0),
+        to.unwrap_or(d.1.max(from.unwrap_or(1))),
+    );
+    if u.1 < u.0 {
+        let at = t
+            .raw("coils_per_slot_to")
+            .map_or(t.span.clone(), |v| v.span());
+        return Err(t
+            .src
+            .error(
+                at,
+                "search.coils_per_slot_to",
+                format!("coils per slot to {} is below from {}", u.1, u.0),
+            )
+            .with_hint("give coils_per_slot_to at least coils_per_slot_from"));
+    }
+    Ok(u)
+}
+
+/// A key read when present: `Some(None)` when absent, `None` when in error.
+fn given<T>(x: Option<Option<T>>) -> Option<Option<T>> {
+    match x {
+        None => Some(None),
+        Some(v) => v.map(Some),
     }
 }

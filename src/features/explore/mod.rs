@@ -474,7 +474,7 @@ impl Traced<'_> {
     }
 
     /// The figures of `turns` with copper `area`, and the per-candidate limits they fail.
-    pub fn rate(&self, turns: u32, area: f64) -> Rated {
+    pub fn evaluate(&self, turns: u32, area: f64) -> Rated {
         let f = self.frame;
         let l = &f.limits;
         let a = self.paths;
@@ -645,7 +645,7 @@ fn explore_structure(f: &Frame, st: &Structure, conductors: &[(ConductorShape, f
     for &(shape, area) in conductors {
         for turns in fx.turns_window(area) {
             evaluated += 1;
-            let r = fx.rate(turns, area);
+            let r = fx.evaluate(turns, area);
             masks[r.mask as usize] += 1;
             if fx.fail_count(r.mask) <= 1 {
                 candidates.push(Candidate {
