@@ -380,7 +380,7 @@ const MASK_IDS: [&str; 7] = [
     FILL_LIMIT,
 ];
 
-/// A candidate's figures and the per-candidate limits it fails, as bits of [`MASK_IDS`].
+/// A candidate's figures and the per-candidate limits it fails, one bit a limit (segment voltage average and peak, density min and max, electric loading, speed, fill).
 pub struct Rated {
     /// The figures.
     pub figures: Figures,
