@@ -396,3 +396,100 @@ fn every_broken_frame_gets_its_expected_message() {
     }
     assert!(failures.is_empty(), "{}", failures.join("\n"));
 }
+
+#[test]
+fn the_fill_limit_cuts_by_the_slot_area() {
+    let with_area = |area: f64| {
+        small_frame(60.0, 10.0, 7.0).replace(
+            "strands_max = 2",
+            &format!("strands_max = 2\nslot_area_mm2 = {area}\nfill_max = 0.4"),
+        )
+    };
+    let roomy = explore(&parse_frame(&with_area(200.0), "roomy.toml").unwrap());
+    let tight = explore(&parse_frame(&with_area(30.0), "tight.toml").unwrap());
+    let free = explore(&parse_frame(&small_frame(60.0, 10.0, 7.0), "free.toml").unwrap());
+    assert!(!roomy.fits.is_empty());
+    assert!(
+        tight.fits.len() < roomy.fits.len(),
+        "a smaller slot fits fewer"
+    );
+    assert!(roomy.fits.len() <= free.fits.len());
+    for k in roomy.fits.iter().chain(&tight.fits) {
+        let fill = k.figures.fill.unwrap();
+        assert!(fill <= 0.4, "{fill}");
+    }
+    // A slot cut by the fill alone is a near miss naming it.
+    assert!(
+        tight
+            .near_misses
+            .iter()
+            .any(|k| k.fails == ["search.fill".to_string()])
+    );
+}
+
+#[test]
+fn awg_sizes_are_searched_by_gauge() {
+    let text = small_frame(60.0, 10.0, 7.0)
+        .replace("conductor = \"rectangular\"", "conductor = \"awg\"")
+        .replace("strip_widths_mm = [1.0, 1.25]\n", "")
+        .replace("strip_heights_mm = [0.8]\n", "");
+    let found = explore(&parse_frame(&text, "awg.toml").unwrap());
+    assert!(!found.fits.is_empty());
+    for k in &found.fits {
+        assert!(
+            matches!(k.conductor, ConductorShape::Round { awg: Some(_), .. }),
+            "{:?}",
+            k.conductor
+        );
+    }
+}
+
+#[test]
+fn csv_lists_every_fit_and_a_missing_pick_exits_2() {
+    let dir = scratch("csv");
+    let csv = dir.join("fits.csv");
+    let o = armsheet(&[
+        "explore",
+        "designs/frames/hoist-frame.toml",
+        "--csv",
+        csv.to_str().unwrap(),
+        "--json",
+    ]);
+    assert_eq!(o.status.code(), Some(0));
+    let rows = std::fs::read_to_string(&csv).unwrap();
+    assert!(rows.starts_with("rank,type,slots,multiplicity,direction,coils_per_slot,segments,dummy_coils,span,turns,conductor,on_front,copper_loss_w"));
+    let n = serde_json::from_slice::<serde_json::Value>(&o.stdout).unwrap();
+    let total = armsheet(&[
+        "explore",
+        "designs/frames/hoist-frame.toml",
+        "--json",
+        "--top",
+        "100000",
+    ]);
+    let all: serde_json::Value = serde_json::from_slice(&total.stdout).unwrap();
+    assert_eq!(
+        rows.lines().count() - 1,
+        all["candidates"].as_array().unwrap().len()
+    );
+    assert_eq!(
+        n["candidates"].as_array().unwrap().len(),
+        10,
+        "--top defaults to 10"
+    );
+    let out = dir.join("never.toml");
+    let e = armsheet(&[
+        "explore",
+        "designs/frames/hoist-frame.toml",
+        "--write",
+        "100000",
+        "-o",
+        out.to_str().unwrap(),
+    ]);
+    assert_eq!(e.status.code(), Some(2));
+    assert!(
+        text(&e.stderr).contains("--write 100000"),
+        "{}",
+        text(&e.stderr)
+    );
+    assert!(!out.exists());
+}
