@@ -104,7 +104,7 @@ fn line(s: &mut String, n: usize, k: &Candidate) {
     );
     let _ = writeln!(
         s,
-        "     copper loss {} W, peak segment {} V (average {} V), fill {}, speed {} rpm, density {} A/mm2, loading {} A/m, a = {}",
+        "     copper loss {} W, peak segment {} V (average {} V), {}, speed {} rpm, density {} A/mm2, loading {} A/m, a = {}",
         fmt_fixed(g.copper_loss_w, 1),
         fmt_fixed(g.segment_volts_peak, 2),
         fmt_fixed(g.segment_volts_avg, 2),
