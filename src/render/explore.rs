@@ -110,10 +110,10 @@ fn line(s: &mut String, n: usize, k: &Candidate) {
         fmt_fixed(g.segment_volts_avg, 2),
         g.fill.map_or_else(
             || format!(
-                "{} mm2 copper per slot",
+                "copper per slot {} mm2 (no slot area given)",
                 fmt_fixed(g.copper_per_slot_mm2, 1)
             ),
-            |x| fmt_fixed(x, 3)
+            |x| format!("fill {}", fmt_fixed(x, 3))
         ),
         fmt_fixed(g.speed_rpm, 0),
         fmt_fixed(g.density_a_mm2, 2),
