@@ -41,6 +41,8 @@ pub enum NoOverwrite {
     Rewind,
     /// `armsheet identify` without `--force`.
     Identify,
+    /// `armsheet explore --write` without `--force`.
+    Explore,
 }
 
 /// Why a command stopped.
@@ -59,6 +61,21 @@ pub enum CliError {
         path: PathBuf,
         /// What the system said.
         source: io::Error,
+    },
+    /// The frame file cannot be read (`armsheet explore`).
+    ReadFrame {
+        /// The frame.
+        path: PathBuf,
+        /// What the system said.
+        source: io::Error,
+    },
+    /// `armsheet explore --write N` names no candidate, or the pick does not pass `check` or
+    /// parse back (nothing is written).
+    Explore {
+        /// The frame, as given.
+        frame: String,
+        /// Why.
+        message: String,
     },
     /// The design file does not parse or validate; each diagnostic names file, line and key,
     /// and all of them are printed (boxed: errors travel through every `?`).
@@ -263,6 +280,16 @@ impl fmt::Display for CliError {
                 crate::base::visible::visible(&crate::base::visible::clip(&error.message, 200))
             ),
             CliError::Exists { path, by } => exists(f, path, *by),
+            CliError::ReadFrame { path, source } => {
+                let name = shown(path);
+                writeln!(
+                    f,
+                    "error: cannot read frame {name}: {source}\n  = hint: check the path; `armsheet new --frame {name}` writes a starter frame"
+                )
+            }
+            CliError::Explore { frame, message } => {
+                writeln!(f, "error: {}: {}", visible(frame), visible(message))
+            }
             CliError::Identify { card, message } => {
                 writeln!(f, "error: {}: {}", visible(card), visible(message))
             }
@@ -351,6 +378,10 @@ fn exists(f: &mut fmt::Formatter<'_>, path: &std::path::Path, by: NoOverwrite) -
             f,
             "error: {path} already exists; armsheet identify does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it"
         ),
+        NoOverwrite::Explore => writeln!(
+            f,
+            "error: {path} already exists; armsheet explore does not overwrite a file\n  = hint: give another path with -o, or add --force to replace it"
+        ),
     }
 }
 
@@ -359,6 +390,7 @@ impl std::error::Error for CliError {
         match self {
             CliError::Read { source, .. }
             | CliError::ReadCard { source, .. }
+            | CliError::ReadFrame { source, .. }
             | CliError::CreateDir { source, .. }
             | CliError::Write { source, .. }
             | CliError::Stdout(source) => Some(source),

@@ -14,6 +14,7 @@
 
 pub mod armature_test;
 pub mod error;
+pub mod explore;
 pub mod identify;
 mod load;
 pub mod lock;
@@ -39,6 +40,9 @@ pub const STARTER: &str = include_str!("starter.toml");
 
 /// The starter data card written by `armsheet new --card`.
 pub const STARTER_CARD: &str = include_str!("starter-card.toml");
+
+/// The starter frame written by `armsheet new --frame`.
+pub const STARTER_FRAME: &str = include_str!("starter-frame.toml");
 
 const ABOUT: &str = "Designs, checks and prints DC armature windings (lap, wave and frog-leg, simplex and multiplex).";
 
@@ -81,6 +85,9 @@ pub enum Command {
     /// Identify the old winding from a data card and write its design file.
     #[command(after_help = identify::IDENTIFY_HELP)]
     Identify(identify::IdentifyArgs),
+    /// Search every winding that fits a frame and its rating, ranked; write the one picked.
+    #[command(after_help = explore::EXPLORE_HELP)]
+    Explore(explore::ExploreArgs),
     /// Expected bar-to-bar and drop-test readings from the winding solved as a network.
     #[command(after_help = armature_test::TEST_HELP)]
     Test(armature_test::TestArgs),
@@ -101,7 +108,8 @@ centre line; + swings the leads towards rising segment numbers.
 
 const NEW_HELP: &str = "\
 Writes a starter design with every key commented. Edit it, then run
-`armsheet check FILE`. With --card, writes a starter data card for `armsheet identify`.
+`armsheet check FILE`. With --card, writes a starter data card for `armsheet identify`;
+with --frame, a starter frame for `armsheet explore`.
 The file is not overwritten if it exists.";
 
 /// Arguments of `check`.
@@ -120,8 +128,11 @@ pub struct NewArgs {
     /// Where to write the starter design (or card).
     pub path: Option<PathBuf>,
     /// Write a starter data card for `armsheet identify` instead (default card.toml).
-    #[arg(long)]
+    #[arg(long, conflicts_with = "frame")]
     pub card: bool,
+    /// Write a starter frame for `armsheet explore` instead (default frame.toml).
+    #[arg(long)]
+    pub frame: bool,
 }
 
 /// How a command that ran to its end came out.
@@ -186,6 +197,7 @@ pub fn run(cli: Cli) -> Result<Outcome, CliError> {
         Command::Draw(a) => sheet::draw(&a),
         Command::Identify(a) => identify::identify(&a),
         Command::Test(a) => armature_test::test(&a),
+        Command::Explore(a) => explore::explore(&a),
     }
 }
 
@@ -208,6 +220,8 @@ fn check(a: &CheckArgs) -> Result<Outcome, CliError> {
 fn new(a: &NewArgs) -> Result<Outcome, CliError> {
     let (default, text) = if a.card {
         ("card.toml", STARTER_CARD)
+    } else if a.frame {
+        ("frame.toml", STARTER_FRAME)
     } else {
         ("design.toml", STARTER)
     };

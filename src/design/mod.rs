@@ -13,6 +13,9 @@
 //!   resolves the segment count from `[armature]` and `[winding]`;
 //! - `limits.rs`: the `[limits]` spec table [`LIMITS`], the one place a rating limit is written;
 //! - `reader.rs`: located, typed access to one table (shared by every reader);
+//! - `frame.rs`: a frame file (`armsheet explore`: the iron, commutator and rating a
+//!   designer searches windings for, and the `[search]` table) → a validated [`Frame`], with
+//!   the same readers and located errors;
 //! - `card.rs`: a data card (what a rewinder records before stripping) → a validated
 //!   [`Card`], with the same readers and located errors;
 //! - `diagnostic.rs`: the error, the list of a file's errors and their rendering (every text
@@ -34,6 +37,7 @@
 mod build;
 mod card;
 mod diagnostic;
+mod frame;
 mod limits;
 mod model;
 mod parse;
@@ -46,6 +50,9 @@ pub use build::{
 };
 pub use card::{Card, OBSERVED_KEYS, parse_card, parse_card_bytes};
 pub use diagnostic::{Diagnostic, Diagnostics, MAX_DIAGNOSTICS};
+pub use frame::{
+    ConductorFamily, Frame, SEARCH_KEYS, Search, SegmentChoice, parse_frame, parse_frame_bytes,
+};
 pub use limits::{Bound, LIMIT_KEYS, LIMITS, LimitId, LimitSpec, Limits};
 pub use model::*;
 pub use parse::{parse_design, parse_design_bytes};

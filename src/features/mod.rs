@@ -1,5 +1,5 @@
 //! `features`: the commands that read a checked design and work on it, each in a room of its
-//! own: [`identify`] (data taking: which winding an old armature had), [`rewind`] (a new winding
+//! own: [`explore`] (the designer's search: every winding that fits a frame), [`identify`] (data taking: which winding an old armature had), [`rewind`] (a new winding
 //! on the same core) and [`armature_test`] (the bar-to-bar network, the fault locator and the
 //! shop's readings file).
 //!
@@ -9,5 +9,6 @@
 //! files.
 
 pub mod armature_test;
+pub mod explore;
 pub mod identify;
 pub mod rewind;

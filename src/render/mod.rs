@@ -15,6 +15,7 @@ pub mod armature_test;
 pub mod coil_json;
 pub mod coil_text;
 pub mod csv;
+pub mod explore;
 pub mod identify;
 pub mod json;
 pub mod pdf;

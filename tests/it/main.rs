@@ -22,6 +22,7 @@ mod end_view;
 mod engine_properties;
 mod every_coil;
 mod exact_symmetry;
+mod explore;
 mod external_checks;
 mod fault_kinds;
 mod fault_locator;
