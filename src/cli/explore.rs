@@ -28,11 +28,14 @@ length_mm, [commutator] and [limits] as in a design file, and [search] to narrow
 dummy_coils_max, span_slack, conductor = \"r20\" | \"awg\" | \"rectangular\" with
 strip_widths_mm/strip_heights_mm, strands_max, slot_area_mm2, fill_max, speed_tolerance,
 mean_turn_mm). `armsheet new --frame frame.toml` writes a commented starter frame.
-A candidate fits when check finds no error, every rating limit passes, the whole turns give
-the rated speed within the tolerance at the frame's flux, and the slot fill is within
-fill_max. The fits are ranked: the Pareto front over copper loss, peak segment voltage and
-slot fill first, then by copper loss, peak segment voltage and fill.
+A candidate fits when check finds no error, every rating limit passes (the reactance
+voltage of the coil under commutation among them, when [commutator] gives the brush width
+and diameter), the whole turns give the rated speed within the tolerance at the frame's flux,
+and the slot fill is within fill_max. The fits are ranked: the Pareto front over reactance
+voltage, copper loss, peak segment voltage and slot fill first, then by copper loss, peak
+segment voltage and fill.
 --write N -o DESIGN.toml writes fit N (from 1) as a design file that passes check.
+--plot FILE.svg draws the fits, reactance voltage against copper loss, the front filled.
 Exit codes: 0 something fits, 1 nothing fits (the limit that cut the last candidates is
 named) or the pick fails check, 2 bad frame or output that could not be written.";
 
@@ -64,6 +67,10 @@ pub struct ExploreArgs {
     /// Replace an existing output file.
     #[arg(long)]
     pub force: bool,
+    /// Draw the fits (reactance voltage against copper loss, a marker a kind, the front
+    /// filled) to this SVG.
+    #[arg(long, value_name = "FILE.svg")]
+    pub plot: Option<PathBuf>,
 }
 
 /// Runs `armsheet explore`.
@@ -116,6 +123,11 @@ pub fn explore(a: &ExploreArgs) -> Result<Outcome, CliError> {
         }
         wrote = Some(out);
     }
+    if let Some(path) = &a.plot {
+        let title = format!("Search of {}: the fits", shown(&a.frame));
+        let page = crate::layout::front_plot::search_front_page(&found, &title);
+        write_atomic(path, crate::render::svg::page_svg(&page).as_bytes())?;
+    }
     if let Some(path) = &a.csv {
         let mut buf = Vec::new();
         write_explore_csv(&found, &mut buf).map_err(|e| CliError::write(path, e))?;
@@ -125,7 +137,7 @@ pub fn explore(a: &ExploreArgs) -> Result<Outcome, CliError> {
         write_stdout(|w| write_explore_json(&frame, &found, a.top, w))?;
     } else {
         let mut said = render_explore(&frame, &found, a.top);
-        if let Some(path) = &a.csv {
+        for path in [&a.csv, &a.plot].into_iter().flatten() {
             said.push_str(&format!("wrote {}\n", shown(path)));
         }
         if let Some(out) = wrote {

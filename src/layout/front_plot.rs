@@ -13,6 +13,7 @@ use super::font::{Weight, text_width, wrap_text};
 use super::style::TEXT_FLOOR;
 use super::tree::{Group, Line, Page, PageKind, PageUnit, Path, PathOp, Rect, Text};
 use crate::base::number::fmt_trimmed;
+use crate::features::explore::Explored;
 
 const W: f64 = 297.0;
 const H: f64 = 210.0;
@@ -53,6 +54,67 @@ pub struct Scatter {
     pub points: Vec<ScatterPoint>,
     /// Lines of notes beside the plot (what was searched, how the front is read).
     pub notes: Vec<String>,
+}
+
+/// The plot of a search's fits: reactance voltage against copper loss (peak segment
+/// voltage against copper loss when the frame lacks the reactance voltage's inputs), a
+/// marker a winding kind, the front filled, each numbered as in the ranked list.
+pub fn search_front_page(e: &Explored, title: &str) -> Page {
+    let reactance = e.fits.iter().all(|k| k.figures.reactance_v.is_some());
+    let mut series: Vec<String> = Vec::new();
+    let points = e
+        .fits
+        .iter()
+        .enumerate()
+        .map(|(i, k)| {
+            let kind = k.structure.kind.as_str().to_string();
+            let at = series.iter().position(|s| *s == kind).unwrap_or_else(|| {
+                series.push(kind);
+                series.len() - 1
+            });
+            let g = &k.figures;
+            ScatterPoint {
+                x: if reactance {
+                    g.reactance_v.unwrap_or(0.0)
+                } else {
+                    g.segment_volts_peak
+                },
+                y: g.copper_loss_w,
+                series: at,
+                front: k.on_front,
+                number: i + 1,
+            }
+        })
+        .collect();
+    let x_label = if reactance {
+        "average reactance voltage of the coil under commutation, V"
+    } else {
+        "peak voltage between segments, V (no reactance voltage: the frame lacks its inputs)"
+    };
+    Scatter {
+        title: title.to_string(),
+        x_label: x_label.to_string(),
+        y_label: "copper loss at the rated temperature, W".to_string(),
+        series,
+        points,
+        notes: vec![
+            format!(
+                "{} candidates evaluated, {} fit, {} on the front",
+                e.evaluated,
+                e.fits.len(),
+                e.fits.iter().filter(|k| k.on_front).count()
+            ),
+            "The front is taken over the reactance voltage, the copper loss, the peak segment voltage and the slot fill: a candidate on it can look beaten in the two figures drawn.".to_string(),
+        ],
+    }
+    .page()
+}
+
+impl Scatter {
+    /// The page of this plot ([`front_plot_page`]).
+    pub fn page(&self) -> Page {
+        front_plot_page(self)
+    }
 }
 
 /// Round tick step for a span of `span` with about `ticks` ticks: 1, 2 or 5 × 10ⁿ.
@@ -169,26 +231,30 @@ pub fn front_plot_page(s: &Scatter) -> Page {
     for p in s.points.iter().filter(|p| !p.front) {
         g.push(marker(p.series, place(p), false));
     }
-    let mut taken: Vec<(f64, f64, f64, f64)> = Vec::new();
-    for (i, p) in front.iter().enumerate() {
+    for p in &front {
+        g.push(marker(p.series, place(p), true));
+    }
+    // Numbers beside the front's markers, where they cover no marker and no other number.
+    let r = MARK * 1.3;
+    let mut taken: Vec<(f64, f64, f64, f64)> = s
+        .points
+        .iter()
+        .map(|p| {
+            let (x, y) = place(p);
+            (x - r, y - r, x + r, y + r)
+        })
+        .collect();
+    for p in front.iter().take(NUMBERED) {
         let (x, y) = place(p);
-        g.push(marker(p.series, (x, y), true));
-        if i < NUMBERED {
-            let label = p.number.to_string();
-            let w = text_width(&label, TEXT_FLOOR, Weight::Regular);
-            let b = (
-                x + MARK + 0.5,
-                y - MARK - 2.2,
-                x + MARK + 0.5 + w,
-                y - MARK + 0.2,
-            );
-            let clear = taken
-                .iter()
-                .all(|t| b.2 < t.0 || b.0 > t.2 || b.3 < t.1 || b.1 > t.3);
-            if clear && b.2 < x1 && b.1 > y0 {
-                taken.push(b);
-                g.push(Text::new(b.0, y - MARK - 0.2, TEXT_FLOOR, "", label));
-            }
+        let label = p.number.to_string();
+        let w = text_width(&label, TEXT_FLOOR, Weight::Regular);
+        let b = (x + r + 0.3, y - r - 2.2, x + r + 0.3 + w, y - r + 0.2);
+        let clear = taken
+            .iter()
+            .all(|t| b.2 < t.0 || b.0 > t.2 || b.3 < t.1 || b.1 > t.3);
+        if clear && b.2 < x1 && b.1 > y0 {
+            taken.push(b);
+            g.push(Text::new(b.0, y - r - 0.2, TEXT_FLOOR, "", label));
         }
     }
     side_notes(&mut g, s);

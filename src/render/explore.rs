@@ -104,7 +104,10 @@ fn line(s: &mut String, n: usize, k: &Candidate) {
     );
     let _ = writeln!(
         s,
-        "     copper loss {} W, peak segment {} V (average {} V), {}, speed {} rpm, density {} A/mm2, loading {} A/m, a = {}",
+        "     {}copper loss {} W, peak segment {} V (average {} V), {}, speed {} rpm, density {} A/mm2, loading {} A/m, a = {}",
+        g.reactance_v
+            .map(|v| format!("reactance {} V, ", fmt_fixed(v, 2)))
+            .unwrap_or_default(),
         fmt_fixed(g.copper_loss_w, 1),
         fmt_fixed(g.segment_volts_peak, 2),
         fmt_fixed(g.segment_volts_avg, 2),
@@ -172,6 +175,7 @@ struct CandidateJson<'a> {
     conductor: ConductorJson,
     on_front: bool,
     front_reason: Option<&'a str>,
+    reactance_v: Option<f64>,
     copper_loss_w: f64,
     segment_volts_peak: f64,
     segment_volts_avg: f64,
@@ -238,6 +242,7 @@ fn candidate_json(k: &Candidate) -> CandidateJson<'_> {
         conductor: conductor_json(&k.conductor),
         on_front: k.on_front,
         front_reason: k.front_reason.as_deref(),
+        reactance_v: g.reactance_v.map(|v| round(v, 4)),
         copper_loss_w: round(g.copper_loss_w, 3),
         segment_volts_peak: round(g.segment_volts_peak, 4),
         segment_volts_avg: round(g.segment_volts_avg, 4),
@@ -298,6 +303,7 @@ pub fn write_explore_csv<W: Write>(r: &Explored, out: W) -> io::Result<()> {
         "turns",
         "conductor",
         "on_front",
+        "reactance_v",
         "copper_loss_w",
         "segment_volts_peak",
         "segment_volts_avg",
@@ -325,6 +331,7 @@ pub fn write_explore_csv<W: Write>(r: &Explored, out: W) -> io::Result<()> {
             k.turns.to_string(),
             describe(&k.conductor),
             k.on_front.to_string(),
+            g.reactance_v.map_or(String::new(), |v| fmt_fixed(v, 4)),
             fmt_fixed(g.copper_loss_w, 3),
             fmt_fixed(g.segment_volts_peak, 4),
             fmt_fixed(g.segment_volts_avg, 4),

@@ -299,6 +299,7 @@ fn json_keys_are_fixed() {
         "turns",
         "conductor",
         "on_front",
+        "reactance_v",
         "copper_loss_w",
         "segment_volts_peak",
         "fill",
@@ -457,7 +458,7 @@ fn csv_lists_every_fit_and_a_missing_pick_exits_2() {
     ]);
     assert_eq!(o.status.code(), Some(0));
     let rows = std::fs::read_to_string(&csv).unwrap();
-    assert!(rows.starts_with("rank,type,slots,multiplicity,direction,coils_per_slot,segments,dummy_coils,span,turns,conductor,on_front,copper_loss_w"));
+    assert!(rows.starts_with("rank,type,slots,multiplicity,direction,coils_per_slot,segments,dummy_coils,span,turns,conductor,on_front,reactance_v,copper_loss_w"));
     let n = serde_json::from_slice::<serde_json::Value>(&o.stdout).unwrap();
     let total = armsheet(&[
         "explore",

@@ -91,3 +91,34 @@ fn ticks_are_round_values() {
         assert!(texts.iter().any(|s| s == t), "tick {t}: {texts:?}");
     }
 }
+
+/// The demo frame's search drawn: every fit a marker, the page at the floor; through the
+/// binary, `--plot` writes it.
+#[test]
+fn the_demo_search_is_plotted() {
+    let path = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/designs/frames/hoist-frame.toml"
+    );
+    let frame = armsheet::design::parse_frame_bytes(&std::fs::read(path).unwrap(), path).unwrap();
+    let found = armsheet::features::explore::explore(&frame);
+    let page = armsheet::layout::front_plot::search_front_page(&found, "hoist frame");
+    assert!(breaches(&page).is_empty(), "{:#?}", breaches(&page));
+    let p = paths(&page);
+    let markers = p
+        .iter()
+        .filter(|(c, _)| *c == "mark-on" || *c == "mark-off")
+        .count();
+    let kinds: std::collections::BTreeSet<&str> = found
+        .fits
+        .iter()
+        .map(|k| k.structure.kind.as_str())
+        .collect();
+    assert_eq!(markers, found.fits.len() + 2 * kinds.len());
+    let dir = crate::support::scratch("explore-plot");
+    let out = crate::support::armsheet_in(&["explore", path, "--plot", "front.svg"], &dir);
+    assert_eq!(out.status.code(), Some(0));
+    let svg = std::fs::read_to_string(dir.join("front.svg")).unwrap();
+    assert!(svg.contains("data-page=\"search-front\""));
+    assert!(svg.contains("average reactance voltage of the coil under commutation, V"));
+}

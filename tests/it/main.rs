@@ -38,7 +38,6 @@ mod kill_sheet;
 mod kill_test;
 mod kind_in_one_place;
 mod legibility;
-mod locator_memory;
 mod multiplex_equalizers;
 mod page_tree;
 mod rating_external;

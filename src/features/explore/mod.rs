@@ -37,7 +37,8 @@ use crate::design::{
 };
 use crate::rating::conductor::{AWG_RANGE, conductor_area_mm2, mean_turn, r20_diameters_mm};
 use crate::rating::limits::{RatingCheck, rules};
-use crate::rating::{Resistance, commutator, emf, losses, resistance};
+use crate::rating::reactance::average_reactance_voltage;
+use crate::rating::{ReactanceInputs, Resistance, commutator, emf, losses, resistance};
 use crate::winding::Winding;
 
 /// The limit a speed outside the band fails.
@@ -96,6 +97,9 @@ pub struct Figures {
     pub fill: Option<f64>,
     /// Parallel paths a.
     pub paths: u32,
+    /// Average reactance voltage of the coil under commutation, V
+    /// ([`crate::rating::reactance`]), when the frame gives its inputs.
+    pub reactance_v: Option<f64>,
 }
 
 /// One candidate winding.
@@ -357,25 +361,32 @@ pub struct Traced<'a> {
     coil_sides_per_slot: u32,
     brush_drop_v: f64,
     pole_arc: f64,
+    /// The reactance voltage's inputs with one turn a coil, and whether interpoles are
+    /// fitted; the turns are set for each candidate.
+    reactance: Option<(ReactanceInputs, bool)>,
 }
 
 /// The rating limits that depend on the turns or the conductor; the others are the
 /// structure's.
-const PER_CANDIDATE: [LimitId; 5] = [
+const PER_CANDIDATE: [LimitId; 7] = [
     LimitId::SegmentVoltsAvgMax,
     LimitId::SegmentVoltsPeakMax,
     LimitId::CurrentDensityMin,
     LimitId::CurrentDensityMax,
     LimitId::ElectricLoadingMax,
+    LimitId::ReactanceVoltsNoInterpolesMax,
+    LimitId::ReactanceVoltsMax,
 ];
 
 /// The per-candidate limits a mask bit stands for, in check order, then the search's own.
-const MASK_IDS: [&str; 7] = [
+const MASK_IDS: [&str; 9] = [
     rules::SEGMENT_VOLTS_AVG.id,
     rules::SEGMENT_VOLTS_PEAK.id,
     rules::DENSITY_MIN.id,
     rules::DENSITY_MAX.id,
     rules::ELECTRIC_LOADING.id,
+    rules::INTERPOLES_NEEDED.id,
+    rules::REACTANCE_VOLTAGE.id,
     SPEED_LIMIT,
     FILL_LIMIT,
 ];
@@ -385,7 +396,7 @@ pub struct Rated {
     /// The figures.
     pub figures: Figures,
     /// Failed per-candidate limits.
-    pub mask: u8,
+    pub mask: u16,
 }
 
 /// Traces and checks `st` once (one turn, the first conductor) and keeps what every
@@ -443,6 +454,10 @@ fn traced<'a>(f: &'a Frame, checked: &Checked) -> Option<Traced<'a>> {
         coil_sides_per_slot: 2 * d.coils_per_slot * d.winding_type.kind().element_count(),
         brush_drop_v: emf::brush_drop_v(grade),
         pole_arc: d.pole_arc,
+        reactance: rating
+            .reactance
+            .as_ref()
+            .map(|x| (x.inputs, x.interpoles == Some(true))),
     })
 }
 
@@ -500,19 +515,29 @@ impl Traced<'_> {
             value.is_finite() && !RatingCheck::new(rule, value, l).passed
         };
         let tol = f.search.speed_tolerance;
+        // The reactance voltage of these turns, from the structure's inputs.
+        let reactance_v = self.reactance.as_ref().and_then(|(x, _)| {
+            average_reactance_voltage(&ReactanceInputs {
+                turns_per_coil: f64::from(turns),
+                ..*x
+            })
+        });
+        let fitted = self.reactance.as_ref().is_some_and(|r| r.1);
         let bits = [
             e > 0.0 && fails(rules::SEGMENT_VOLTS_AVG, sv.average_v),
             e > 0.0 && fails(rules::SEGMENT_VOLTS_PEAK, sv.peak_v),
             fails(rules::DENSITY_MIN, density),
             fails(rules::DENSITY_MAX, density),
             fails(rules::ELECTRIC_LOADING, loading),
+            !fitted && reactance_v.is_some_and(|v| fails(rules::INTERPOLES_NEEDED, v)),
+            reactance_v.is_some_and(|v| fails(rules::REACTANCE_VOLTAGE, v)),
             !(speed >= f.speed_rpm * (1.0 - tol) && speed <= f.speed_rpm * (1.0 + tol)),
             fill.is_some_and(|x| x > f.search.fill_max),
         ];
         let mask = bits
             .iter()
             .enumerate()
-            .fold(0u8, |m, (n, &b)| if b { m | (1 << n) } else { m });
+            .fold(0u16, |m, (n, &b)| if b { m | (1 << n) } else { m });
         Rated {
             figures: Figures {
                 copper_loss_w: copper,
@@ -526,13 +551,14 @@ impl Traced<'_> {
                 copper_per_slot_mm2: per_slot,
                 fill,
                 paths: a,
+                reactance_v,
             },
             mask,
         }
     }
 
     /// The limits a candidate with `mask` fails, in check order.
-    pub fn fails_of(&self, mask: u8) -> Vec<String> {
+    pub fn fails_of(&self, mask: u16) -> Vec<String> {
         let mut out = self.fails.clone();
         out.extend(
             MASK_IDS
@@ -545,7 +571,7 @@ impl Traced<'_> {
     }
 
     /// How many limits a candidate with `mask` fails.
-    pub fn fail_count(&self, mask: u8) -> usize {
+    pub fn fail_count(&self, mask: u16) -> usize {
         self.fails.len() + mask.count_ones() as usize
     }
 
@@ -641,7 +667,7 @@ fn explore_structure(f: &Frame, st: &Structure, conductors: &[(ConductorShape, f
         Err(key) => return Outcome::Refused(key),
     };
     // Tallies by mask, turned into limit counts once per structure.
-    let mut masks = [0u64; 256];
+    let mut masks = vec![0u64; 1 << MASK_IDS.len()];
     for &(shape, area) in conductors {
         for turns in fx.turns_window(area) {
             evaluated += 1;
@@ -664,7 +690,7 @@ fn explore_structure(f: &Frame, st: &Structure, conductors: &[(ConductorShape, f
         if n == 0 {
             continue;
         }
-        let fails = fx.fails_of(mask as u8);
+        let fails = fx.fails_of(mask as u16);
         for x in &fails {
             *cut.entry(x.clone()).or_default() += n;
         }
@@ -725,7 +751,7 @@ pub fn explore(f: &Frame) -> Explored {
     rank(&mut fits);
     rank(&mut near);
     let near_miss_count = near.len() as u64;
-    near.truncate(NEAR_MISS_LIST);
+    let near = near_miss_list(near);
     // Every limit with the candidates it cuts, most first.
     let mut cut_by: Vec<(String, u64)> = cut.into_iter().collect();
     cut_by.sort_by(|a, b| b.1.cmp(&a.1).then(a.0.cmp(&b.0)));
@@ -766,18 +792,47 @@ pub fn explore(f: &Frame) -> Explored {
     }
 }
 
-/// The figures a front is taken over, each minimised: copper loss, peak segment voltage, and
-/// slot fill (the copper per slot when the slot area is not known, which orders the same).
-fn objectives(k: &Candidate) -> [f64; 3] {
+/// The near misses listed: each failing limit in turn (in id order), its best-ranked first,
+/// so that every limit that alone cuts a candidate shows, up to [`NEAR_MISS_LIST`].
+fn near_miss_list(ranked: Vec<Candidate>) -> Vec<Candidate> {
+    let mut by_limit: std::collections::BTreeMap<String, std::collections::VecDeque<Candidate>> =
+        Default::default();
+    for k in ranked {
+        let id = k.fails.first().cloned().unwrap_or_default();
+        by_limit.entry(id).or_default().push_back(k);
+    }
+    let mut out = Vec::new();
+    while out.len() < NEAR_MISS_LIST && by_limit.values().any(|q| !q.is_empty()) {
+        for q in by_limit.values_mut() {
+            if out.len() < NEAR_MISS_LIST
+                && let Some(k) = q.pop_front()
+            {
+                out.push(k);
+            }
+        }
+    }
+    out
+}
+
+/// The figures a front is taken over, each minimised: reactance voltage (0 for all when the
+/// frame lacks its inputs), copper loss, peak segment voltage, and slot fill (the copper per
+/// slot when the slot area is not known, which orders the same).
+fn objectives(k: &Candidate) -> [f64; 4] {
     let g = &k.figures;
     [
+        g.reactance_v.unwrap_or(0.0),
         g.copper_loss_w,
         g.segment_volts_peak,
         g.fill.unwrap_or(g.copper_per_slot_mm2),
     ]
 }
 
-const OBJECTIVE_NAMES: [&str; 3] = ["copper loss", "peak segment voltage", "slot fill"];
+const OBJECTIVE_NAMES: [&str; 4] = [
+    "reactance voltage",
+    "copper loss",
+    "peak segment voltage",
+    "slot fill",
+];
 
 /// Marks the Pareto front, and for each member the figure it is best in among the
 /// candidates that beat it in another.
@@ -785,9 +840,11 @@ fn mark_front(fits: &mut [Candidate]) {
     let mut order: Vec<usize> = (0..fits.len()).collect();
     order.sort_by(|&a, &b| {
         let (x, y) = (objectives(&fits[a]), objectives(&fits[b]));
-        x[0].total_cmp(&y[0])
-            .then(x[1].total_cmp(&y[1]))
-            .then(x[2].total_cmp(&y[2]))
+        x.iter()
+            .zip(&y)
+            .fold(std::cmp::Ordering::Equal, |o, (a, b)| {
+                o.then(a.total_cmp(b))
+            })
     });
     let mut front: Vec<usize> = Vec::new();
     for &i in &order {
@@ -800,7 +857,7 @@ fn mark_front(fits: &mut [Candidate]) {
             front.push(i);
         }
     }
-    let best: Vec<f64> = (0..3)
+    let best: Vec<f64> = (0..OBJECTIVE_NAMES.len())
         .map(|n| {
             front
                 .iter()
@@ -810,7 +867,10 @@ fn mark_front(fits: &mut [Candidate]) {
         .collect();
     for &i in &front {
         let x = objectives(&fits[i]);
-        let reason = if let Some(n) = (0..3).find(|&n| x[n] <= best[n]) {
+        let reason = if let Some(n) = (0..OBJECTIVE_NAMES.len())
+            .filter(|&n| n > 0 || fits[i].figures.reactance_v.is_some())
+            .find(|&n| x[n] <= best[n])
+        {
             format!(
                 "least {} of all fits ({})",
                 OBJECTIVE_NAMES[n],

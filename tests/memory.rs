@@ -2,10 +2,21 @@
 //! lap (96 poles, 3,840 slots of 5 coils, 19,200 bars, full equalizers) with its own readings
 //! and one reading halved runs the expected readings and the fault locator within 256 MB of
 //! resident memory, read from the child's own resource usage (wait4).
+//!
+//! A test binary of its own, not a module of `tests/it`: Linux carries the spawning
+//! process's peak resident set into the child's (`ru_maxrss` is kept across exec), so the
+//! child must be spawned from a small process, not from one running many tests at once.
 
+use std::path::PathBuf;
 use std::process::Command;
 
-use crate::support::scratch;
+/// An empty folder for this test's files.
+fn scratch(name: &str) -> PathBuf {
+    let dir = PathBuf::from(env!("CARGO_TARGET_TMPDIR")).join(format!("memory-{name}"));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    dir
+}
 
 /// Runs armsheet with `args`; returns its exit code and its peak resident set, bytes.
 fn peak(args: &[&str]) -> (i32, u64) {
