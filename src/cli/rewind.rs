@@ -21,9 +21,11 @@ use super::load::load_design;
 use super::output::{print_stdout, write_atomic, write_new};
 use crate::base::number::fmt_toml;
 use crate::checks::Checked;
-use crate::design::{WindingType, parse_design};
+use crate::design::{Design, WindingType, frame_of_design, parse_design};
+use crate::features::explore::{Candidate, confirm, explore};
 use crate::features::rewind::alternatives::alternatives;
-use crate::features::rewind::{self, RewindRequest, design_toml, no_load_test};
+use crate::features::rewind::{self, RewindPlan, RewindRequest, design_toml, no_load_test};
+use crate::render::explore::candidate_lines;
 use crate::render::rewind_text::{Offered, Offers, no_load_header, render_no_load, render_rewind};
 
 /// The most alternatives a refused rewind offers.
@@ -163,6 +165,7 @@ pub fn rewind(a: &RewindArgs) -> Result<Outcome, CliError> {
         let offers = Offers {
             tried: found.tried,
             offered,
+            searched: searched(d, &plan, &req),
         };
         let said = render_rewind(
             &plan,
@@ -246,5 +249,63 @@ fn asked_line(a: &RewindArgs) -> String {
     }
     // Control characters in the file name stay: the design file's header escapes them visibly
     // (`design_toml::comment_text`).
+    s
+}
+
+/// The windings the old core could carry for the rating asked, from the designer's search
+/// (`explore`) over its own frame (same slots and core), the nearest to the request first
+/// (its kind, then the old commutator kept, then its multiplicity, then its coils per slot),
+/// each traced and passed by `check` again; a line saying why there are none otherwise.
+fn searched(d: &Design, plan: &RewindPlan, req: &RewindRequest) -> String {
+    let rating = plan.design.rating.as_ref();
+    let (Some(v), Some(i), Some(n)) = (
+        rating.and_then(|r| r.voltage),
+        rating.and_then(|r| r.current),
+        plan.design.speed_rpm,
+    ) else {
+        return String::new();
+    };
+    let Some(frame) = frame_of_design(d, v, i, n, plan.flux_mwb) else {
+        return "\nTHE DESIGNER'S SEARCH\n---------------------\n  needs the core's diameter and length ([core]); with them, \
+                it lists the windings this core can carry.\n"
+            .to_string();
+    };
+    let found = explore(&frame);
+    let kind = req.kind.unwrap_or(d.winding_type);
+    let m = req.multiplicity.unwrap_or(d.multiplicity);
+    let u = req.coils_per_slot.unwrap_or(d.coils_per_slot);
+    let mut near: Vec<&Candidate> = found.fits.iter().collect();
+    near.sort_by_key(|k| {
+        let st = &k.structure;
+        (
+            st.kind != kind,
+            st.segments != d.segments,
+            st.multiplicity.abs_diff(m),
+            st.coils_per_slot.abs_diff(u),
+        )
+    });
+    let passing: Vec<&Candidate> = near
+        .into_iter()
+        .filter(|k| confirm(&frame, k).is_ok_and(|(_, ok)| ok))
+        .take(MOST_OFFERED)
+        .collect();
+    let mut s = format!(
+        "\nTHE DESIGNER'S SEARCH\n---------------------\n  over this core ({} candidates evaluated) finds {} winding{} that fit{}",
+        found.evaluated,
+        found.fits.len(),
+        if found.fits.len() == 1 { "" } else { "s" },
+        if found.fits.len() == 1 { "s" } else { "" },
+    );
+    if passing.is_empty() {
+        s.push_str(".\n");
+        return s;
+    }
+    s.push_str("; the nearest to the request, each passing check:\n");
+    for (n, k) in passing.into_iter().enumerate() {
+        s.push_str(&candidate_lines(n + 1, k));
+    }
+    s.push_str(
+        "  to write one: armsheet new --frame FRAME.toml, fill it in, then armsheet explore FRAME.toml --write N -o DESIGN.toml\n",
+    );
     s
 }

@@ -34,6 +34,7 @@
 //!   - `mean_turn_mm`: the mean length of one turn (default estimated from `[core]` for each
 //!     span, as for a design).
 
+use crate::design::{ConductorShape, Design};
 use toml::de::{DeTable, DeValue};
 
 use super::Diagnostic;
@@ -867,4 +868,62 @@ fn given<T>(x: Option<Option<T>>) -> Option<Option<T>> {
         None => Some(None),
         Some(v) => v.map(Some),
     }
+}
+
+/// The frame of `d`'s own core, for a search of what else it could carry: the same poles,
+/// slots, core, commutator size, limits and conductor family, rated at `voltage`, `current`
+/// and `speed_rpm` with `flux_mwb` per pole; kinds, coils per slot and every workable segment
+/// count free, multiplicity up to 2. `None` without the core's diameter and length (the
+/// search needs them).
+pub fn frame_of_design(
+    d: &Design,
+    voltage: f64,
+    current: f64,
+    speed_rpm: f64,
+    flux_mwb: f64,
+) -> Option<Frame> {
+    let core = d.core.clone()?;
+    core.diameter_mm?;
+    core.length_mm?;
+    let conductor = match d.conductor.as_ref().map(|c| &c.shape) {
+        Some(ConductorShape::Round { awg: Some(_), .. }) => ConductorFamily::Awg,
+        Some(&ConductorShape::Rectangular {
+            width_mm,
+            height_mm,
+            corner_radius_mm,
+            ..
+        }) => ConductorFamily::Rectangular {
+            widths_mm: vec![width_mm],
+            heights_mm: vec![height_mm],
+            corner_radius_mm,
+        },
+        _ => ConductorFamily::R20,
+    };
+    let rating = Rating {
+        voltage: Some(voltage),
+        current: Some(current),
+        ..d.rating.clone().unwrap_or_default()
+    };
+    Some(Frame {
+        file_name: String::new(),
+        job: d.job.clone(),
+        poles: d.poles,
+        slots: vec![d.slots],
+        rotation: Some(d.rotation),
+        pole_arc: Some(d.pole_arc),
+        rating,
+        speed_rpm,
+        flux_per_pole_mwb: flux_mwb,
+        mode: d.mode,
+        core,
+        commutator: d.commutator.clone(),
+        limits: d.limits.clone(),
+        search: Search {
+            multiplicity_max: 2,
+            coils_per_slot: (1, d.coils_per_slot.max(3)),
+            conductor,
+            mean_turn_mm: d.conductor.as_ref().and_then(|c| c.mean_turn_mm),
+            ..Search::default()
+        },
+    })
 }

@@ -51,7 +51,8 @@ pub use build::{
 pub use card::{Card, OBSERVED_KEYS, parse_card, parse_card_bytes};
 pub use diagnostic::{Diagnostic, Diagnostics, MAX_DIAGNOSTICS};
 pub use frame::{
-    ConductorFamily, Frame, SEARCH_KEYS, Search, SegmentChoice, parse_frame, parse_frame_bytes,
+    ConductorFamily, Frame, SEARCH_KEYS, Search, SegmentChoice, frame_of_design, parse_frame,
+    parse_frame_bytes,
 };
 pub use limits::{Bound, LIMIT_KEYS, LIMITS, LimitId, LimitSpec, Limits};
 pub use model::*;

@@ -85,6 +85,14 @@ pub fn render_explore(f: &Frame, r: &Explored, top: usize) -> String {
     s
 }
 
+/// One fit as the text report lists it: its number, its winding, then its figures and, on the
+/// front, why (two or three lines).
+pub fn candidate_lines(n: usize, k: &Candidate) -> String {
+    let mut s = String::new();
+    line(&mut s, n, k);
+    s
+}
+
 fn line(s: &mut String, n: usize, k: &Candidate) {
     let st = &k.structure;
     let g = &k.figures;

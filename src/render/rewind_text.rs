@@ -37,6 +37,9 @@ pub struct Offers<'a> {
     pub tried: usize,
     /// Nearest first.
     pub offered: Vec<Offered<'a>>,
+    /// What the designer's search over the old core found, worded (empty when it did not
+    /// run).
+    pub searched: String,
 }
 
 /// Renders the rewind report; `new` is the new design checked, `offers` what a refused one
@@ -61,6 +64,7 @@ pub fn render_rewind(
     new_rating_checks(&mut s, new.rating.as_ref());
     if let Some(o) = offers {
         offered(&mut s, o, p);
+        s.push_str(&o.searched);
     }
     caution(&mut s);
     s

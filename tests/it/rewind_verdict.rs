@@ -130,6 +130,27 @@ fn hoist_at_220_v_is_refused_and_offers_what_passes() {
         report.contains("armsheet rewind designs/hoist-lap.toml --voltage 220 --coils-per-slot 2"),
         "{report}"
     );
+    // The designer's search over the same core lists its nearest fits, each of which the
+    // search's own fits hold and `check` passes when traced.
+    let section = report
+        .split("THE DESIGNER'S SEARCH")
+        .nth(1)
+        .and_then(|s| s.split("CAUTION").next())
+        .unwrap_or_else(|| panic!("no search section: {report}"));
+    let listed = section.lines().filter(|l| l.contains(". S=36 ")).count();
+    assert!((1..=3).contains(&listed), "{section}");
+    let d = design(&std::fs::read_to_string(format!("{ROOT}/designs/hoist-lap.toml")).unwrap());
+    let rated = armsheet::check(d.clone());
+    let r = rated.rating.as_ref().unwrap();
+    let flux = r.emf.as_ref().and_then(|e| e.flux_needed_mwb).unwrap();
+    let frame = armsheet::design::frame_of_design(&d, 220.0, 85.0 * 110.0 / 220.0, 1150.0, flux)
+        .expect("the hoist has its core's size");
+    let found = armsheet::features::explore::explore(&frame);
+    assert!(found.fits.len() >= listed);
+    for k in found.fits.iter().take(3) {
+        let (_, ok) = armsheet::features::explore::confirm(&frame, k).unwrap();
+        assert!(ok, "a fit check refuses");
+    }
 }
 
 /// When nothing tried passes, the report says so plainly (and still writes nothing): here the
