@@ -76,11 +76,12 @@ fn the_coil_sheet_comes_before_the_order_with_the_rating_s_wire() {
             let mut o = Vec::new();
             outlines(&pages[at].children, &mut o);
             assert_eq!(o.len(), k.shapes.len());
-            for (shape, pts) in k.shapes.iter().zip(&o) {
-                let title = t
-                    .iter()
-                    .find(|s| s.contains("coil, scale 1:") || s.contains("schematic"))
-                    .unwrap();
+            let titles: Vec<&String> = t
+                .iter()
+                .filter(|s| s.contains("coil, scale 1:") || s.contains("schematic"))
+                .collect();
+            assert_eq!(titles.len(), k.shapes.len());
+            for ((shape, pts), title) in k.shapes.iter().zip(&o).zip(titles) {
                 if let Some(n) = title.split("scale 1:").nth(1) {
                     let n: f64 = n.trim().parse().unwrap();
                     let xs = pts.iter().map(|p| p.0);
@@ -95,4 +96,43 @@ fn the_coil_sheet_comes_before_the_order_with_the_rating_s_wire() {
         }
     }
     assert!(seen >= 3, "demos with a coil making: {seen}");
+}
+
+fn caution_text(nodes: &[Node], inside: bool, out: &mut Vec<String>) {
+    for n in nodes {
+        match n {
+            Node::Group(g) => {
+                let here = inside || g.id.as_deref() == Some("caution");
+                caution_text(&g.children, here, out);
+            }
+            Node::Text(t) if inside => out.push(t.content.clone()),
+            _ => {}
+        }
+    }
+}
+
+/// Every sheet of every demo, on every paper, carries every caution whole (a short box sets
+/// them smaller, tighter or in two columns; it never cuts one).
+#[test]
+fn every_sheet_carries_every_caution_whole() {
+    for name in support::DEMOS {
+        let checked = armsheet::check(support::design(&support::demo(name)));
+        for paper in [Paper::A4, Paper::A3, Paper::Letter, Paper::Tabloid] {
+            for (i, page) in checked_pages(&checked, paper, Window::Auto)
+                .iter()
+                .enumerate()
+            {
+                let mut t = Vec::new();
+                caution_text(&page.children, false, &mut t);
+                let joined = t.join(" ");
+                for c in armsheet::base::caution::CAUTIONS {
+                    assert!(
+                        joined.contains(c),
+                        "{name} {paper:?} sheet {}: {c:?} not whole in {joined:?}",
+                        i + 1
+                    );
+                }
+            }
+        }
+    }
 }

@@ -19,7 +19,7 @@ use super::table::page_heading;
 use super::{Input, PageFrame, Rect};
 
 /// The scales a coil may be drawn at, largest first (1:n).
-const SCALES: [f64; 6] = [1.0, 2.0, 2.5, 5.0, 10.0, 20.0];
+const SCALES: [f64; 8] = [1.0, 2.0, 2.5, 5.0, 10.0, 20.0, 25.0, 50.0];
 /// Text size of the page's rows, mm.
 const ROW_TEXT: f64 = 3.0;
 /// Row pitch, mm.
@@ -303,7 +303,7 @@ fn figures(g: &mut Group, input: &Input<'_>, k: &CoilMaking, r: &Rect) {
 /// The former settings and the wire of one coil shape.
 fn shape_rows(s: &CoilShape) -> Vec<(String, String)> {
     let mm = |x: f64| format!("{} mm", fmt_fixed(x, 1));
-    vec![
+    let mut rows: Vec<(String, String)> = vec![
         (
             "coils, span, turns".into(),
             format!(
@@ -321,9 +321,18 @@ fn shape_rows(s: &CoilShape) -> Vec<(String, String)> {
         ("loop on the former".into(), mm(s.loop_length_mm)),
         ("mean turn".into(), mm(s.mean_turn_mm)),
         ("leads to the risers".into(), mm(s.leads_mm)),
-        (
-            "wire a coil".into(),
-            format!("{} m", fmt_fixed(s.wire_m_per_coil, 2)),
-        ),
-    ]
+    ];
+    if (s.wire_turn_mm - s.mean_turn_mm).abs() >= 0.05 {
+        // The wire is reckoned on the turn measured on the old coil ([conductor]
+        // mean_turn_mm), as the resistance is.
+        rows.push((
+            "wire reckoned on".into(),
+            format!("{} a turn ([conductor] mean_turn_mm)", mm(s.wire_turn_mm)),
+        ));
+    }
+    rows.push((
+        "wire a coil".into(),
+        format!("{} m", fmt_fixed(s.wire_m_per_coil, 2)),
+    ));
+    rows
 }
