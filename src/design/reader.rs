@@ -109,8 +109,7 @@ pub(crate) fn units_of(src: &Source<'_>, root: &DeTable<'_>) -> Result<Units, Di
                 span.clone(),
                 other.clone(),
                 format!(
-                    "`{}` is in {} but `{}` is in {}: a file gives every length in one system",
-                    clip(other, ECHO_WIDTH),
+                    "this length is in {} but `{}` is in {}: a file gives every length in one system",
                     unit_name(units.other()),
                     clip(first, ECHO_WIDTH),
                     unit_name(*units),
