@@ -56,6 +56,15 @@ impl Units {
         }
     }
 
+    /// Decimals to write in a design file a length held to `mm_decimals` decimals of a mm,
+    /// losing nothing a reader would see: two more for inches.
+    pub fn file_decimals(self, mm_decimals: usize) -> usize {
+        match self {
+            Units::Millimetres => mm_decimals,
+            Units::Inches => mm_decimals + 2,
+        }
+    }
+
     /// `mm` in this system, without the unit.
     pub fn value(self, mm: f64) -> f64 {
         match self {
