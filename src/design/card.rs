@@ -35,7 +35,7 @@ use super::Diagnostic;
 use super::diagnostic::Diagnostics;
 use super::model::{ConductorShape, HalfBars, Job, Rotation, bounds};
 use super::parse::{header_span, read_all, toml_error, utf8};
-use super::reader::{units_of, At, Found, Source, TableReader, nearest};
+use super::reader::{At, Found, Source, TableReader, nearest, units_of};
 use super::tables::{armature, conductor, job, winding};
 use crate::base::visible::{ECHO_WIDTH, clip};
 

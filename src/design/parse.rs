@@ -18,7 +18,7 @@ use super::Diagnostic;
 use super::build::DesignSpec;
 use super::diagnostic::Diagnostics;
 use super::model::*;
-use super::reader::{units_of, Found, Source, TableReader, nearest};
+use super::reader::{Found, Source, TableReader, nearest, units_of};
 use super::tables::{armature, commutator, conductor, core, job, limits, rating, winding};
 
 /// The tables a design may hold, in the order of the design-file reference.

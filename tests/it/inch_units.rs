@@ -140,8 +140,14 @@ fn text_differs_only_on_the_lines_that_print_a_length() {
     // The mean turn, segment pitch, brush width and the coil-making rows.
     assert!(differing >= 6, "{differing} lines differ");
     // 22 in given: 558.8 mm, printed in the trade's thousandths of an inch.
-    assert!(b.iter().any(|l| l.contains("mean turn L_mt        22.000 in (given)")));
-    assert!(a.iter().any(|l| l.contains("mean turn L_mt        558.8 mm (given)")));
+    assert!(
+        b.iter()
+            .any(|l| l.contains("mean turn L_mt        22.000 in (given)"))
+    );
+    assert!(
+        a.iter()
+            .any(|l| l.contains("mean turn L_mt        558.8 mm (given)"))
+    );
 }
 
 /// `toml` whose `_mm` values are inches, each multiplied by 25.4 (the inverse of
@@ -206,7 +212,10 @@ fn rewind_writes_an_inch_design_in_inches() {
         .filter(|l| l.contains("_mm =") && !l.starts_with("segment_pitch"))
         .count();
     assert_eq!(length_mm, 0, "{written}");
-    assert_eq!(parse_design(&written, "new.toml").unwrap().units, Units::Inches);
+    assert_eq!(
+        parse_design(&written, "new.toml").unwrap().units,
+        Units::Inches
+    );
 }
 
 #[test]
@@ -281,4 +290,21 @@ proptest! {
         }
         prop_assert_eq!(&b["units"], "in");
     }
+}
+
+#[test]
+fn limits_keep_their_own_units_in_an_inch_design() {
+    let inch = "[armature]\npoles = 4\nslots = 24\n[winding]\ntype = \"lap\"\nturns = 2\n[commutator]\ndiameter_in = 4\n";
+    let kept = support::design(&format!("{inch}[limits]\nsegment_pitch_min_mm = 3.5\n"));
+    assert_eq!(kept.units, Units::Inches);
+    let refused = parse_design(
+        &format!("{inch}[limits]\nsegment_pitch_min_in = 0.15\n"),
+        "t.toml",
+    )
+    .unwrap_err()
+    .to_string();
+    assert!(
+        refused.contains("unknown key `segment_pitch_min_in`"),
+        "{refused}"
+    );
 }

@@ -40,13 +40,7 @@ pub(crate) struct Against {
 pub(crate) fn read(t: &TableReader<'_, '_>, against: Option<Against>) -> Option<Commutator> {
     let segments = against.map(|a| a.segments);
     let keys = t.keep(t.deny_unknown(KEYS));
-    let diameter = t.keep(t.length(
-        "diameter",
-        0.0,
-        true,
-        10_000.0,
-        "the commutator diameter",
-    ));
+    let diameter = t.keep(t.length("diameter", 0.0, true, 10_000.0, "the commutator diameter"));
     let wmm = t.keep(t.length(
         "brush_width",
         0.0,

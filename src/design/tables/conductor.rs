@@ -34,13 +34,7 @@ pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Conductor> {
     let (d, awg, strands) = read_wire(t);
     let w = num("width", "the strip width", 100.0);
     let h = num("height", "the strip height", 100.0);
-    let r = t.keep(t.length(
-        "corner_radius",
-        0.0,
-        false,
-        10.0,
-        "the strip corner radius",
-    ));
+    let r = t.keep(t.length("corner_radius", 0.0, false, 10.0, "the strip corner radius"));
     let mean_turn_mm = num("mean_turn", "the mean length of one turn", 100_000.0);
     let strands = strands?.map_or(1, |a| a.value as u32);
     let shape = t.keep(shape(t, d?, awg?, w?, h?, r?, strands))?;
