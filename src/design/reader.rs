@@ -192,7 +192,7 @@ impl<'a, 'i> TableReader<'a, 'i> {
                 ),
             );
             let d = match nearest(word, known) {
-                Some(n) => d.with_hint(format!("did you mean `{n}`?")),
+                Some(n) => d.with_hint(format!("did you mean `{}`?", self.in_file_units(n))),
                 None => d.with_hint(format!(
                     "known keys in [{}]: {}",
                     self.name,
@@ -221,6 +221,15 @@ impl<'a, 'i> TableReader<'a, 'i> {
                 && key
                     .strip_suffix("_in")
                     .is_some_and(|stem| known.contains(&format!("{stem}_mm").as_str())))
+    }
+
+    /// `key` as this file would write it: a length's `_mm` key as its `_in` twin in an inch
+    /// file (outside the tables of [`OWN_UNIT_TABLES`]).
+    fn in_file_units(&self, key: &str) -> String {
+        match key.strip_suffix("_mm") {
+            Some(stem) if !OWN_UNIT_TABLES.contains(&self.name) => self.length_key(stem),
+            _ => key.to_string(),
+        }
     }
 
     /// The key a length `stem` is given by in this file: `<stem>_in` in an inch file,
