@@ -7,6 +7,8 @@
 pub mod caution;
 pub mod finding;
 pub mod number;
+pub mod units;
 pub mod visible;
 
 pub use finding::{Finding, RuleSpec, Severity, has_errors};
+pub use units::Units;

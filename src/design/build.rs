@@ -12,6 +12,7 @@
 //! the guard, and the CLI parses every file it writes back as a third.
 
 use super::model::*;
+use crate::base::Units;
 
 /// `[armature] pole_arc` when the file gives none: pole arc / pole pitch.
 pub const DEFAULT_POLE_ARC: f64 = 0.7;
@@ -31,6 +32,8 @@ pub const MAX_EQUALIZER_STEP: u32 = 10_000;
 pub struct DesignSpec {
     /// The file name as given.
     pub file_name: String,
+    /// The length system the design is written in (lengths are held in mm either way).
+    pub units: Units,
     /// `[job]`.
     pub job: Job,
     /// `[armature] poles`.
@@ -169,6 +172,7 @@ impl Design {
             core: spec.core,
             commutator: spec.commutator,
             limits: spec.limits,
+            units: spec.units,
             sealed: Sealed(()),
         })
     }
@@ -178,6 +182,7 @@ impl Design {
     pub fn spec(&self) -> DesignSpec {
         DesignSpec {
             file_name: self.file_name.clone(),
+            units: self.units,
             job: self.job.clone(),
             poles: self.poles,
             slots: self.slots,

@@ -35,7 +35,7 @@ use super::Diagnostic;
 use super::diagnostic::Diagnostics;
 use super::model::{ConductorShape, HalfBars, Job, Rotation, bounds};
 use super::parse::{header_span, read_all, toml_error, utf8};
-use super::reader::{At, Found, Source, TableReader, nearest};
+use super::reader::{At, Found, Source, TableReader, nearest, units_of};
 use super::tables::{armature, conductor, job, winding};
 use crate::base::visible::{ECHO_WIDTH, clip};
 
@@ -69,6 +69,9 @@ const CARD_TABLES: &[&str] = &["job", "observed"];
 pub struct Card {
     /// The card's file name as given.
     pub file_name: String,
+    /// The length system of the card (`_mm` or `_in` keys); the design identified from it
+    /// is written in the same.
+    pub units: crate::base::Units,
     /// `[job]`.
     pub job: Job,
     /// `poles` (P).
@@ -125,7 +128,12 @@ pub fn parse_card(text: &str, file: &str) -> Result<Card, Diagnostics> {
 }
 
 fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diagnostic> {
-    let src = Source { file, text, found };
+    let src = Source {
+        file,
+        text,
+        found,
+        units: crate::base::Units::Millimetres,
+    };
     if text.trim().is_empty() {
         return Err(src
             .error(
@@ -138,6 +146,10 @@ fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diag
     let root = DeTable::parse(text).map_err(|e| toml_error(&src, &e))?;
     let root_table = root.get_ref();
     check_tables(&src, root_table)?;
+    let src = Source {
+        units: units_of(&src, root_table)?,
+        ..src
+    };
     let empty = DeTable::default();
     let table = |name: &'static str| -> Option<TableReader<'_, '_>> {
         root_table.get(name).map(|v| TableReader {
@@ -201,6 +213,7 @@ fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diag
     };
     Ok(Some(Card {
         file_name: file.to_string(),
+        units: src.units,
         job,
         poles: p as u32,
         slots: s as u32,

@@ -42,7 +42,7 @@ use super::diagnostic::Diagnostics;
 use super::limits::Limits;
 use super::model::{Commutator, Core, Job, Mode, Rating, Rotation, WindingType, bounds};
 use super::parse::{header_span, read_all, toml_error, utf8};
-use super::reader::{At, Found, Source, TableReader, nearest};
+use super::reader::{At, Found, Source, TableReader, nearest, units_of};
 use super::tables::{armature, commutator, core, job, limits, rating};
 use crate::base::visible::{ECHO_WIDTH, clip};
 
@@ -206,6 +206,8 @@ pub struct Frame {
     pub limits: Limits,
     /// `[search]`.
     pub search: Search,
+    /// The frame's length system: a pick is written in it.
+    pub units: crate::base::Units,
 }
 
 /// Parses raw bytes: checks UTF-8 first.
@@ -219,7 +221,12 @@ pub fn parse_frame(text: &str, file: &str) -> Result<Frame, Diagnostics> {
 }
 
 fn read_frame(text: &str, file: &str, found: &Found) -> Result<Option<Frame>, Diagnostic> {
-    let src = Source { file, text, found };
+    let src = Source {
+        file,
+        text,
+        found,
+        units: crate::base::Units::Millimetres,
+    };
     if text.trim().is_empty() {
         return Err(src
             .error(
@@ -234,6 +241,11 @@ fn read_frame(text: &str, file: &str, found: &Found) -> Result<Option<Frame>, Di
     let root = DeTable::parse(text).map_err(|e| toml_error(&src, &e))?;
     let root_table = root.get_ref();
     check_tables(&src, root_table)?;
+    // One length system a frame, as a design file ([`units_of`]).
+    let src = Source {
+        units: units_of(&src, root_table)?,
+        ..src
+    };
     let empty = DeTable::default();
     let table = |name: &'static str| -> Option<TableReader<'_, '_>> {
         root_table.get(name).map(|v| TableReader {
@@ -315,6 +327,7 @@ fn read_frame(text: &str, file: &str, found: &Found) -> Result<Option<Frame>, Di
     pitch_needs_diameter(&src, table("search").as_ref(), &search, commutator.as_ref())?;
     Ok(Some(Frame {
         file_name: file.to_string(),
+        units: src.units,
         job,
         poles: poles.value as u32,
         slots,
@@ -918,6 +931,7 @@ pub fn frame_of_design(
         core,
         commutator: d.commutator.clone(),
         limits: d.limits.clone(),
+        units: d.units,
         search: Search {
             multiplicity_max: 2,
             coils_per_slot: (1, d.coils_per_slot.max(3)),

@@ -450,6 +450,9 @@ pub struct Design {
     pub commutator: Option<Commutator>,
     /// `[limits]` with defaults filled in (see [`super::LIMITS`]).
     pub limits: super::Limits,
+    /// The length system of the file (`_mm` or `_in` keys): reports and sheets print
+    /// lengths in it; every length field is in mm either way.
+    pub units: crate::base::Units,
     /// Only [`Design::new`] makes a design: no code outside `design` can write this field.
     pub(super) sealed: Sealed,
 }

@@ -18,7 +18,7 @@ use super::Diagnostic;
 use super::build::DesignSpec;
 use super::diagnostic::Diagnostics;
 use super::model::*;
-use super::reader::{Found, Source, TableReader, nearest};
+use super::reader::{Found, Source, TableReader, nearest, units_of};
 use super::tables::{armature, commutator, conductor, core, job, limits, rating, winding};
 
 /// The tables a design may hold, in the order of the design-file reference.
@@ -104,7 +104,12 @@ pub(super) fn read_all<T>(
 /// Reads the design, recording problems in `found`: `Ok(None)` when any was recorded, `Err`
 /// for a problem that stops the reading (reported after those recorded before it).
 fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, Diagnostic> {
-    let src = Source { file, text, found };
+    let src = Source {
+        file,
+        text,
+        found,
+        units: crate::base::Units::Millimetres,
+    };
     if text.trim().is_empty() {
         return Err(src
             .error(
@@ -117,6 +122,10 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
     let root = DeTable::parse(text).map_err(|e| toml_error(&src, &e))?;
     let root_table = root.get_ref();
     check_tables(&src, root_table)?;
+    let src = Source {
+        units: units_of(&src, root_table)?,
+        ..src
+    };
     let empty = DeTable::default();
     let table = |name: &'static str| -> Option<TableReader<'_, '_>> {
         root_table.get(name).map(|v| TableReader {
@@ -177,6 +186,7 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
     // checks them again as a whole (a second guard) and fills in the defaults.
     Design::new(DesignSpec {
         file_name: file.to_string(),
+        units: src.units,
         job,
         poles: a.poles.value as u32,
         slots: a.slots.value as u32,

@@ -11,7 +11,13 @@ use toml::Spanned;
 use toml::de::{DeTable, DeValue};
 
 use super::Diagnostic;
+use crate::base::Units;
+use crate::base::units::MM_PER_INCH;
 use crate::base::visible::{ECHO_WIDTH, clip};
+
+/// Tables whose keys keep the unit they name: a `[limits]` threshold in mm is not a length
+/// of the design, and has no inch twin.
+const OWN_UNIT_TABLES: &[&str] = &["limits"];
 
 /// The source text and file name, shared by every reader of one document, with the list
 /// the readers record their problems in.
@@ -20,6 +26,8 @@ pub(crate) struct Source<'s> {
     pub file: &'s str,
     pub text: &'s str,
     pub found: &'s Found,
+    /// The file's length system ([`units_of`]); millimetres until the document is read.
+    pub units: Units,
 }
 
 /// The problems found so far in one document; readers record one and read on, so a file's
@@ -62,6 +70,61 @@ impl<'s> Source<'s> {
         message: impl Into<String>,
     ) -> Diagnostic {
         Diagnostic::new(self.file, self.text, span, key, message)
+    }
+}
+
+/// The length system of a document: inches when any length is given by an `_in` key,
+/// else millimetres. A file uses one system: an `_mm` key and an `_in` key in the same file
+/// (the tables of [`OWN_UNIT_TABLES`] aside) are refused at the later of the two, naming both.
+pub(crate) fn units_of(src: &Source<'_>, root: &DeTable<'_>) -> Result<Units, Diagnostic> {
+    let mut lengths: Vec<(Range<usize>, String, Units)> = Vec::new();
+    for (name, v) in root.iter() {
+        let name: &str = name.get_ref();
+        let Some(table) = v.get_ref().as_table() else {
+            continue;
+        };
+        if OWN_UNIT_TABLES.contains(&name) {
+            continue;
+        }
+        for (k, _) in table.iter() {
+            let key: &str = k.get_ref();
+            let units = if key.ends_with("_mm") {
+                Units::Millimetres
+            } else if key.ends_with("_in") {
+                Units::Inches
+            } else {
+                continue;
+            };
+            lengths.push((k.span(), format!("{name}.{key}"), units));
+        }
+    }
+    lengths.sort_by_key(|(span, _, _)| span.start);
+    let Some((_, first, units)) = lengths.first() else {
+        return Ok(Units::Millimetres);
+    };
+    match lengths.iter().find(|(_, _, u)| u != units) {
+        None => Ok(*units),
+        Some((span, other, _)) => Err(src
+            .error(
+                span.clone(),
+                other.clone(),
+                format!(
+                    "this length is in {} but `{}` is in {}: a file gives every length in one system",
+                    unit_name(units.other()),
+                    clip(first, ECHO_WIDTH),
+                    unit_name(*units),
+                ),
+            )
+            .with_hint(
+                "write every length with `_mm` keys or every length with `_in` keys (1 in = 25.4 mm); [limits] keep their own units",
+            )),
+    }
+}
+
+fn unit_name(u: Units) -> &'static str {
+    match u {
+        Units::Millimetres => "mm",
+        Units::Inches => "inches",
     }
 }
 
@@ -112,7 +175,7 @@ impl<'a, 'i> TableReader<'a, 'i> {
             .table
             .iter()
             .map(|(k, _)| k)
-            .filter(|k| !known.contains(&k.get_ref().as_ref()))
+            .filter(|k| !self.knows(k.get_ref(), known))
             .collect();
         unknown.sort_by_key(|k| k.span().start);
         unknown.truncate(super::diagnostic::MAX_DIAGNOSTICS + 1);
@@ -129,7 +192,7 @@ impl<'a, 'i> TableReader<'a, 'i> {
                 ),
             );
             let d = match nearest(word, known) {
-                Some(n) => d.with_hint(format!("did you mean `{n}`?")),
+                Some(n) => d.with_hint(format!("did you mean `{}`?", self.in_file_units(n))),
                 None => d.with_hint(format!(
                     "known keys in [{}]: {}",
                     self.name,
@@ -148,6 +211,63 @@ impl<'a, 'i> TableReader<'a, 'i> {
     /// The value of `r`, or `None` with its problem recorded.
     pub fn keep<T>(&self, r: Result<T, Diagnostic>) -> Option<T> {
         self.src.keep(r)
+    }
+
+    /// Whether `key` is one of `known`, or the inch twin `<stem>_in` of a known `<stem>_mm`
+    /// (outside the tables of [`OWN_UNIT_TABLES`]).
+    fn knows(&self, key: &str, known: &[&str]) -> bool {
+        known.contains(&key)
+            || (!OWN_UNIT_TABLES.contains(&self.name)
+                && key
+                    .strip_suffix("_in")
+                    .is_some_and(|stem| known.contains(&format!("{stem}_mm").as_str())))
+    }
+
+    /// `key` as this file would write it: a length's `_mm` key as its `_in` twin in an inch
+    /// file (outside the tables of [`OWN_UNIT_TABLES`]).
+    fn in_file_units(&self, key: &str) -> String {
+        match key.strip_suffix("_mm") {
+            Some(stem) if !OWN_UNIT_TABLES.contains(&self.name) => self.length_key(stem),
+            _ => key.to_string(),
+        }
+    }
+
+    /// The key a length `stem` is given by in this file: `<stem>_in` in an inch file,
+    /// `<stem>_mm` otherwise (for the messages that name it).
+    pub fn length_key(&self, stem: &str) -> String {
+        format!("{stem}{}", self.src.units.key_suffix())
+    }
+
+    /// A length given by `<stem>_mm`, or by its inch twin `<stem>_in` (converted exactly,
+    /// 25.4 mm to the inch), returned in mm; `min..=max` is in mm (`min_exclusive` excludes
+    /// `min`) and is stated in the key's own unit. `what` names the length without a unit.
+    /// Which of the two keys a file may use is settled for the whole file by [`units_of`].
+    pub fn length(
+        &self,
+        stem: &str,
+        min: f64,
+        min_exclusive: bool,
+        max: f64,
+        what: &str,
+    ) -> Result<Option<At<f64>>, Diagnostic> {
+        let mm = format!("{stem}_mm");
+        let inches = format!("{stem}_in");
+        if self.get(&inches).is_none() {
+            return self.number(&mm, min, min_exclusive, max, &format!("{what} in mm"));
+        }
+        // The bounds in inches, to a thousandth: they are sanity bounds, not tolerances.
+        let to_in = |x: f64| (x / MM_PER_INCH * 1000.0).round() / 1000.0;
+        let got = self.number(
+            &inches,
+            to_in(min),
+            min_exclusive,
+            to_in(max),
+            &format!("{what} in inches"),
+        )?;
+        Ok(got.map(|a| At {
+            value: a.value * MM_PER_INCH,
+            span: a.span,
+        }))
     }
 
     fn wrong_type(&self, key: &str, v: &Spanned<DeValue<'i>>, expected: &str) -> Diagnostic {

@@ -1,11 +1,13 @@
 //! The "COIL MAKING" section of the `check` text report: the coil a former is set to, the wire
-//! to order and the slot fill, in mm, m and kg.
+//! to order and the slot fill: lengths in the design's units (`Units::length`), wire in m and
+//! kg, areas in mm2.
 //!
 //! Part of the `render` stage: formats what [`crate::rating::coil`] worked out, nothing more.
 //! The slot-fill check itself is listed with the other checks.
 
 use std::fmt::Write;
 
+use crate::base::Units;
 use crate::base::number::fmt_fixed;
 use crate::rating::CoilMaking;
 
@@ -14,7 +16,7 @@ fn row(s: &mut String, label: &str, value: impl std::fmt::Display) {
 }
 
 /// Writes the section (nothing when the coil making was not worked out).
-pub fn coil_section(s: &mut String, k: Option<&CoilMaking>) {
+pub fn coil_section(s: &mut String, k: Option<&CoilMaking>, u: Units) {
     let Some(k) = k else {
         return;
     };
@@ -32,22 +34,25 @@ pub fn coil_section(s: &mut String, k: Option<&CoilMaking>) {
             s,
             "straight per side",
             format!(
-                "{} mm, knuckle to knuckle (core + extension each end)",
-                fmt_fixed(c.straight_mm, 1)
+                "{}, knuckle to knuckle (core + extension each end)",
+                u.length(c.straight_mm, 1)
             ),
         );
         row(
             s,
             "end turn",
             format!(
-                "legs {} mm over a span arc of {} mm, nose {} mm past the core, {}",
-                fmt_fixed(c.end_leg_mm, 1),
-                fmt_fixed(c.span_arc_mm, 1),
-                fmt_fixed(c.nose_reach_mm, 1),
+                "legs {} over a span arc of {}, nose {} past the core, {}",
+                u.length(c.end_leg_mm, 1),
+                u.length(c.span_arc_mm, 1),
+                u.length(c.nose_reach_mm, 1),
                 if c.nose_drop_mm > 0.0 {
-                    format!("drop {} mm", fmt_fixed(c.nose_drop_mm, 1))
+                    format!("drop {}", u.length(c.nose_drop_mm, 1))
                 } else {
-                    "sides taken at the core surface (no slot_depth_mm)".to_string()
+                    format!(
+                        "sides taken at the core surface (no slot_depth{})",
+                        u.key_suffix()
+                    )
                 }
             ),
         );
@@ -55,9 +60,9 @@ pub fn coil_section(s: &mut String, k: Option<&CoilMaking>) {
             s,
             "mean turn, loop",
             format!(
-                "{} mm a turn; loop on the former {} mm tip to tip",
-                fmt_fixed(c.mean_turn_mm, 1),
-                fmt_fixed(c.loop_length_mm, 1)
+                "{} a turn; loop on the former {} tip to tip",
+                u.length(c.mean_turn_mm, 1),
+                u.length(c.loop_length_mm, 1)
             ),
         );
         row(
@@ -67,17 +72,14 @@ pub fn coil_section(s: &mut String, k: Option<&CoilMaking>) {
                 "{} m{}, {}",
                 fmt_fixed(c.wire_m_per_coil, 3),
                 if (c.wire_turn_mm - c.mean_turn_mm).abs() > 1e-9 {
-                    format!(
-                        " at the given mean turn of {} mm",
-                        fmt_fixed(c.wire_turn_mm, 1)
-                    )
+                    format!(" at the given mean turn of {}", u.length(c.wire_turn_mm, 1))
                 } else {
                     String::new()
                 },
                 if k.leads_counted {
-                    format!("leads {} mm included", fmt_fixed(c.leads_mm, 0))
+                    format!("leads {} included", u.length(c.leads_mm, 0))
                 } else {
-                    "leads not counted (no riser_distance_mm)".to_string()
+                    format!("leads not counted (no riser_distance{})", u.key_suffix())
                 }
             ),
         );
@@ -87,9 +89,9 @@ pub fn coil_section(s: &mut String, k: Option<&CoilMaking>) {
             s,
             "coil side",
             format!(
-                "{} x {} mm insulated (turns and strips stacked)",
-                fmt_fixed(x.width_mm, 2),
-                fmt_fixed(x.height_mm, 2)
+                "{} x {} insulated (turns and strips stacked)",
+                u.number(x.width_mm, 2),
+                u.length(x.height_mm, 2)
             ),
         );
     }
@@ -104,12 +106,12 @@ pub fn coil_section(s: &mut String, k: Option<&CoilMaking>) {
         s,
         "wire to order",
         format!(
-            "{} m with {} % scrap; {} kg bare copper, {} kg enamelled (build {} mm)",
+            "{} m with {} % scrap; {} kg bare copper, {} kg enamelled (build {})",
             fmt_fixed(k.wire_m_total, 1),
             fmt_fixed(k.scrap_percent, 1),
             fmt_fixed(k.mass_kg_bare, 3),
             fmt_fixed(k.mass_kg_insulated, 3),
-            fmt_fixed(k.build_mm, 3)
+            u.length(k.build_mm, 3)
         ),
     );
     if let Some(n) = k.reels {

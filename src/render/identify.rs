@@ -44,7 +44,7 @@ pub fn observations(card: &Card) -> Vec<String> {
         }) => {
             let size = match awg {
                 Some(g) => format!("AWG {g}"),
-                None => format!("{} mm", crate::base::number::fmt_fixed(diameter_mm, 3)),
+                None => card.units.length(diameter_mm, 3),
             };
             let _ = write!(coil, ", wire {size} x {strands} in hand");
         }

@@ -208,6 +208,9 @@ struct ReportJson<'a> {
     #[serde(skip_serializing_if = "Option::is_none")]
     torque_constant_nm_per_a: Option<Option<f64>>,
     turns: u32,
+    /// The length system the design file used (`mm` or `in`); every length in the JSON is
+    /// in SI units (mm) whatever it is.
+    units: &'static str,
     winding: WindingJson,
 }
 
@@ -322,6 +325,7 @@ impl<'a> ReportJson<'a> {
             symmetric: r.symmetric,
             torque_constant_nm_per_a: with_flux(round(k.torque_constant_nm_per_a, 6)),
             turns: d.turns,
+            units: d.units.symbol(),
             winding: WindingJson {
                 direction: d.direction.as_str(),
                 multiplicity: d.multiplicity,

@@ -18,7 +18,7 @@ use crate::rating::{EmfBasis, MeanTurnSource, RatingReport};
 pub fn rating_section(s: &mut String, d: &Design, rating: Option<&RatingReport>) {
     if let Some(r) = rating {
         render_rating(s, d, r);
-        super::coil_text::coil_section(s, r.coil_making.as_ref());
+        super::coil_text::coil_section(s, r.coil_making.as_ref(), d.units);
     }
 }
 
@@ -35,7 +35,7 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
         "paths, conductors",
         format!("{}, {} ({} segments)", r.paths, r.conductors, r.segments),
     );
-    copper(s, r);
+    copper(s, d, r);
     emf(s, d, r);
     loading(s, r);
     commutator(s, d, r);
@@ -44,7 +44,7 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
 }
 
 /// The conductor, the mean turn and the armature resistance.
-fn copper(s: &mut String, r: &RatingReport) {
+fn copper(s: &mut String, d: &Design, r: &RatingReport) {
     if let Some(k) = &r.conductor {
         row(
             s,
@@ -59,7 +59,7 @@ fn copper(s: &mut String, r: &RatingReport) {
             row(
                 s,
                 "mean turn L_mt",
-                format!("{} mm ({how})", fmt_fixed(t.mm, 1)),
+                format!("{} ({how})", d.units.length(t.mm, 1)),
             );
         }
     }
@@ -225,7 +225,7 @@ fn commutator(s: &mut String, d: &Design, r: &RatingReport) {
             row(
                 s,
                 "segment pitch",
-                format!("{} mm (pi*D_c/C)", fmt_fixed(p, 2)),
+                format!("{} (pi*D_c/C)", d.units.length(p, 2)),
             );
         }
         if let (Some(v), Some(n)) = (k.peripheral_speed_m_s, k.speed_rpm) {
@@ -238,7 +238,7 @@ fn commutator(s: &mut String, d: &Design, r: &RatingReport) {
         if let Some(b) = k.brush_width_segments {
             let mm = k
                 .brush_width_mm
-                .map_or(String::new(), |w| format!(" ({} mm)", fmt_fixed(w, 1)));
+                .map_or(String::new(), |w| format!(" ({})", d.units.length(w, 1)));
             row(
                 s,
                 "brush width",

@@ -272,8 +272,9 @@ fn paths(s: &mut String, d: &Design, w: &Winding) {
             format!("{} segment pitches", fmt_fixed(bw.segments, 2))
         } else {
             format!(
-                "{} segment pitches (m bars: no brush width given; set [commutator] brush_width_segments, or brush_width_mm with diameter_mm)",
-                fmt_fixed(bw.segments, 2)
+                "{} segment pitches (m bars: no brush width given; set [commutator] brush_width_segments, or brush_width{u} with diameter{u})",
+                fmt_fixed(bw.segments, 2),
+                u = d.units.key_suffix()
             )
         },
     );

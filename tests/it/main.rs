@@ -34,6 +34,7 @@ mod fuzz;
 mod greyscale;
 mod identify_cli;
 mod identify_round_trip;
+mod inch_units;
 mod kill_sheet;
 mod kill_test;
 mod kind_in_one_place;

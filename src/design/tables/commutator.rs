@@ -1,7 +1,8 @@
 //! `[commutator]`: the commutator and its brushes.
 //!
 //! Part of the `design` stage (a table reader, see `tables/mod.rs`). Keys, all optional:
-//! - `diameter_mm`: above 0 and at most 10 000;
+//! - `diameter_mm`: above 0 and at most 10 000 (every `_mm` key may be given by its inch
+//!   twin, `diameter_in`, `brush_width_in`: `TableReader::length`);
 //! - `brush_width_mm` (circumferential, less than half the circumference) or
 //!   `brush_width_segments` (less than half the segments), not both;
 //! - `brush_grade`: `"carbon"` or `"metal-graphite"` (no default here; the rating takes
@@ -39,19 +40,13 @@ pub(crate) struct Against {
 pub(crate) fn read(t: &TableReader<'_, '_>, against: Option<Against>) -> Option<Commutator> {
     let segments = against.map(|a| a.segments);
     let keys = t.keep(t.deny_unknown(KEYS));
-    let diameter = t.keep(t.number(
-        "diameter_mm",
-        0.0,
-        true,
-        10_000.0,
-        "the commutator diameter in mm",
-    ));
-    let wmm = t.keep(t.number(
-        "brush_width_mm",
+    let diameter = t.keep(t.length("diameter", 0.0, true, 10_000.0, "the commutator diameter"));
+    let wmm = t.keep(t.length(
+        "brush_width",
         0.0,
         true,
         1_000.0,
-        "the brush width (circumferential) in mm",
+        "the brush width (circumferential)",
     ));
     let wseg = t.keep(t.number(
         "brush_width_segments",
@@ -103,16 +98,16 @@ fn apart(
         return Ok(bw);
     };
     let (beta, key) = match w {
-        BrushWidth::Segments(x) => (Some(x), "brush_width_segments"),
+        BrushWidth::Segments(x) => (Some(x), "brush_width_segments".to_string()),
         BrushWidth::Millimetres(mm) => (
             diameter.map(|d| mm * a.segments as f64 / (std::f64::consts::PI * d.value)),
-            "brush_width_mm",
+            t.length_key("brush_width"),
         ),
     };
     let spacing = a.segments as f64 / a.poles as f64;
     match beta {
         Some(beta) if beta + 1.0 > spacing + 1e-9 => {
-            let at = t.raw(key).map_or(t.span.clone(), |v| v.span());
+            let at = t.raw(&key).map_or(t.span.clone(), |v| v.span());
             Err(t
                 .src
                 .error(
@@ -193,17 +188,24 @@ fn brush_width(
                 .error(
                     s.span,
                     "commutator.brush_width_segments",
-                    "give the brush width either in mm or in segments, not both",
+                    format!(
+                        "give the brush width either in {} or in segments, not both",
+                        t.src.units.symbol()
+                    ),
                 )
-                .with_hint("remove one of brush_width_mm and brush_width_segments"));
+                .with_hint(format!(
+                    "remove one of {} and brush_width_segments",
+                    t.length_key("brush_width")
+                )));
         }
         (Some(w), None) => {
+            let u = t.src.units;
             if let Some(d) = diameter {
                 let circumference = std::f64::consts::PI * d.value;
                 if w.value >= circumference / 2.0 {
                     return Err(t
                         .src
-                        .error(w.span, "commutator.brush_width_mm", format!("a {} mm brush covers half the commutator's {:.1} mm circumference or more: expected less than {:.1} mm", w.value, circumference, circumference / 2.0))
+                        .error(w.span, t.dotted(&t.length_key("brush_width")), format!("a {} brush covers half the commutator's {} circumference or more: expected less than {}", u.echo(w.value), u.length(circumference, 1), u.length(circumference / 2.0, 1)))
                         .with_hint("the brush width is measured around the commutator, usually 1 to 3 segment pitches"));
                 }
             }

@@ -7,6 +7,9 @@
 //!   `corner_radius_mm` (0 to 10 and at most half the smaller side, default 0);
 //! - `strands`: wires or strips in hand, 1 to 200 (default 1);
 //! - `mean_turn_mm`: mean length of one turn (default: estimated from `[core]`).
+//!
+//! Every `_mm` key may be given by its inch twin (`diameter_in`, …; `TableReader::length`);
+//! the wire is printed as given, AWG or mm.
 
 use crate::design::Diagnostic;
 use crate::design::model::{Conductor, ConductorShape, awg_diameter_mm};
@@ -27,22 +30,12 @@ pub(crate) const KEYS: &[&str] = &[
 /// with an unknown key is not read further (a misspelt size would come back as missing).
 pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Conductor> {
     t.keep(t.deny_unknown(KEYS))?;
-    let num = |k: &str, what: &str, max: f64| t.keep(t.number(k, 0.0, true, max, what));
+    let num = |k: &str, what: &str, max: f64| t.keep(t.length(k, 0.0, true, max, what));
     let (d, awg, strands) = read_wire(t);
-    let w = num("width_mm", "the strip width in mm", 100.0);
-    let h = num("height_mm", "the strip height in mm", 100.0);
-    let r = t.keep(t.number(
-        "corner_radius_mm",
-        0.0,
-        false,
-        10.0,
-        "the strip corner radius in mm",
-    ));
-    let mean_turn_mm = num(
-        "mean_turn_mm",
-        "the mean length of one turn in mm",
-        100_000.0,
-    );
+    let w = num("width", "the strip width", 100.0);
+    let h = num("height", "the strip height", 100.0);
+    let r = t.keep(t.length("corner_radius", 0.0, false, 10.0, "the strip corner radius"));
+    let mean_turn_mm = num("mean_turn", "the mean length of one turn", 100_000.0);
     let strands = strands?.map_or(1, |a| a.value as u32);
     let shape = t.keep(shape(t, d?, awg?, w?, h?, r?, strands))?;
     Some(Conductor {
@@ -61,13 +54,7 @@ pub(crate) fn read_wire(
     Option<Option<At<i64>>>,
     Option<Option<At<i64>>>,
 ) {
-    let d = t.keep(t.number(
-        "diameter_mm",
-        0.0,
-        true,
-        20.0,
-        "the bare wire diameter in mm",
-    ));
+    let d = t.keep(t.length("diameter", 0.0, true, 20.0, "the bare wire diameter"));
     let awg = t.keep(t.int(
         "awg",
         -3..=40,
@@ -121,10 +108,12 @@ pub(crate) fn shape(
                     .src
                     .error(
                         r.map_or(w.span, |r| r.span),
-                        t.dotted("corner_radius_mm"),
+                        t.dotted(&t.length_key("corner_radius")),
                         format!(
-                            "a corner radius of {rad} mm does not fit a {} × {} mm strip",
-                            w.value, h.value
+                            "a corner radius of {} does not fit a {} × {} strip",
+                            t.src.units.echo(rad),
+                            t.src.units.echo(w.value),
+                            t.src.units.echo(h.value)
                         ),
                     )
                     .with_hint("the radius is at most half the smaller side"));

@@ -19,6 +19,7 @@
 //!   `equalizer_wire` (`"same"` when the equalizers are wound from the coils' wire, default
 //!   `"separate"`).
 //!
+//! Every `_mm` key may be given by its inch twin (`diameter_in`, …; `TableReader::length`).
 //! The defaults and their sources are on [`Core`]'s accessors, in `model.rs`.
 
 use crate::design::Diagnostic;
@@ -49,21 +50,21 @@ pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Core> {
     let keys = t.keep(t.deny_unknown(KEYS));
     let pos = |k: &str, max: f64, what: &str| t.keep(t.number(k, 0.0, true, max, what));
     let nonneg = |k: &str, max: f64, what: &str| t.keep(t.number(k, 0.0, false, max, what));
-    let diameter = pos("diameter_mm", 10_000.0, "the armature diameter in mm");
-    let length = pos("length_mm", 10_000.0, "the core length in mm");
-    let depth = pos("slot_depth_mm", 500.0, "the slot depth in mm");
-    let width = pos("slot_width_mm", 500.0, "the slot width in mm");
-    let liner = nonneg("liner_mm", 20.0, "the slot liner's thickness in mm");
-    let separator = nonneg(
-        "separator_mm",
-        20.0,
-        "the layer separator's thickness in mm",
-    );
-    let wedge = nonneg("wedge_mm", 20.0, "the slot wedge's thickness in mm");
-    let extension = nonneg(
-        "extension_mm",
+    let len = |stem: &str, min_exclusive: bool, max: f64, what: &str| {
+        t.keep(t.length(stem, 0.0, min_exclusive, max, what))
+    };
+    let diameter = len("diameter", true, 10_000.0, "the armature diameter");
+    let length = len("length", true, 10_000.0, "the core length");
+    let depth = len("slot_depth", true, 500.0, "the slot depth");
+    let width = len("slot_width", true, 500.0, "the slot width");
+    let liner = len("liner", false, 20.0, "the slot liner's thickness");
+    let separator = len("separator", false, 20.0, "the layer separator's thickness");
+    let wedge = len("wedge", false, 20.0, "the slot wedge's thickness");
+    let extension = len(
+        "extension",
+        false,
         500.0,
-        "the coil's straight extension past the core at each end in mm",
+        "the coil's straight extension past the core at each end",
     );
     let angle = t.keep(t.number(
         "end_turn_angle_deg",
@@ -72,10 +73,11 @@ pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Core> {
         60.0,
         "the end turn's angle to the core end face in degrees",
     ));
-    let risers = nonneg(
-        "riser_distance_mm",
+    let risers = len(
+        "riser_distance",
+        false,
         2000.0,
-        "the distance from the core end to the risers in mm",
+        "the distance from the core end to the risers",
     );
     let scrap = nonneg("scrap_percent", 100.0, "the scrap allowance in percent");
     let reel = pos("reel_kg", 10_000.0, "the copper on one reel in kg");
@@ -85,10 +87,11 @@ pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Core> {
         "the enamel grade (IEC 60317)",
         "grade 1 is the thinner enamel, grade 2 the thicker",
     ));
-    let build = nonneg(
-        "conductor_build_mm",
+    let build = len(
+        "conductor_build",
+        false,
         5.0,
-        "the insulation's increase of each conductor dimension in mm",
+        "the insulation's increase of each conductor dimension",
     );
     let eq_wire = t.keep(t.choice("equalizer_wire", &["same", "separate"]));
     let (depth, width) = (depth?, width?);
@@ -121,6 +124,7 @@ pub(crate) fn read(t: &TableReader<'_, '_>) -> Option<Core> {
 /// `given` holds `slot_depth_mm`, `slot_width_mm`, `liner_mm`, `separator_mm`, `wedge_mm`.
 fn check_room(t: &TableReader<'_, '_>, core: &Core, given: [Option<At<f64>>; 5]) -> Option<()> {
     let [depth, width, liner, separator, wedge] = given;
+    let u = t.src.units;
     if let Some(h) = &depth {
         let taken = core.liner() + core.separator() + core.wedge();
         if taken >= h.value {
@@ -129,26 +133,26 @@ fn check_room(t: &TableReader<'_, '_>, core: &Core, given: [Option<At<f64>>; 5])
                 .or(separator.as_ref())
                 .or(liner.as_ref())
                 .map_or(h.span.clone(), |a| a.span.clone());
-            let key = if wedge.is_some() {
-                "wedge_mm"
+            let key = t.length_key(if wedge.is_some() {
+                "wedge"
             } else if separator.is_some() {
-                "separator_mm"
+                "separator"
             } else if liner.is_some() {
-                "liner_mm"
+                "liner"
             } else {
-                "slot_depth_mm"
-            };
+                "slot_depth"
+            });
             t.keep::<()>(Err(t
                 .src
                 .error(
                         span,
-                        t.dotted(key),
+                        t.dotted(&key),
                         format!(
-                            "the wedge ({} mm), liner ({} mm) and separator ({} mm) leave no room in the {} mm slot depth",
-                            core.wedge(),
-                            core.liner(),
-                            core.separator(),
-                            h.value
+                            "the wedge ({}), liner ({}) and separator ({}) leave no room in the {} slot depth",
+                            u.echo(core.wedge()),
+                            u.echo(core.liner()),
+                            u.echo(core.separator()),
+                            u.echo(h.value)
                         ),
                     )
                     .with_hint("the wedge, the liner at the slot bottom and the separator together must be less than the slot depth")));
@@ -163,15 +167,15 @@ fn check_room(t: &TableReader<'_, '_>, core: &Core, given: [Option<At<f64>>; 5])
             .src
             .error(
                 span,
-                t.dotted(if liner.is_some() {
-                    "liner_mm"
+                t.dotted(&t.length_key(if liner.is_some() {
+                    "liner"
                 } else {
-                    "slot_width_mm"
-                }),
+                    "slot_width"
+                })),
                 format!(
-                    "a liner of {} mm on both walls fills the {} mm slot width",
-                    core.liner(),
-                    w.value
+                    "a liner of {} on both walls fills the {} slot width",
+                    u.echo(core.liner()),
+                    u.echo(w.value)
                 ),
             )
             .with_hint("the liner must be less than half the slot width")));
@@ -187,6 +191,7 @@ fn slot_pair(
     width: Option<At<f64>>,
 ) -> Result<(Option<f64>, Option<f64>), Diagnostic> {
     let lone = |given: At<f64>, key: &str, other: &str| {
+        let (key, other) = (t.length_key(key), t.length_key(other));
         t.src
             .error(
                 given.span,
@@ -199,8 +204,8 @@ fn slot_pair(
     };
     match (depth, width) {
         (Some(d), Some(w)) => Ok((Some(d.value), Some(w.value))),
-        (Some(d), None) => Err(lone(d, "slot_depth_mm", "slot_width_mm")),
-        (None, Some(w)) => Err(lone(w, "slot_width_mm", "slot_depth_mm")),
+        (Some(d), None) => Err(lone(d, "slot_depth", "slot_width")),
+        (None, Some(w)) => Err(lone(w, "slot_width", "slot_depth")),
         (None, None) => Ok((None, None)),
     }
 }

@@ -312,6 +312,7 @@ pub fn design_of(
 ) -> Result<Design, DesignError> {
     Design::new(DesignSpec {
         file_name: f.file_name.clone(),
+        units: f.units,
         job: f.job.clone(),
         poles: f.poles,
         slots: st.slots,

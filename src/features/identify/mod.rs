@@ -562,6 +562,7 @@ fn design_spec(
     let n = u * card.slots;
     DesignSpec {
         file_name: card.file_name.clone(),
+        units: card.units,
         job: card.job.clone(),
         poles: card.poles,
         slots: card.slots,

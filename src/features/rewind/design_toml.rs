@@ -33,6 +33,16 @@ fn text(v: &str) -> Value {
     quoted.parse::<Value>().unwrap_or_else(|_| Value::from(v))
 }
 
+/// Inserts the length `mm` as `<stem>_mm` or, in an inch design, `<stem>_in`, to
+/// `mm_decimals` decimals of a mm (or as many more as an inch needs).
+fn length(t: &mut Table, d: &Design, stem: &str, mm: f64, mm_decimals: usize) {
+    let u = d.units;
+    t.insert(
+        &format!("{stem}{}", u.key_suffix()),
+        number(u.value(mm), u.file_decimals(mm_decimals)).into(),
+    );
+}
+
 /// A whole number (a count, a bar, a number of turns).
 fn whole(n: impl Into<i64>) -> Value {
     Value::from(n.into())
@@ -168,9 +178,11 @@ fn conductor_table(doc: &mut DocumentMut, d: &Design) {
                 strands,
             } => {
                 match awg {
-                    Some(g) => t.insert("awg", whole(g).into()),
-                    None => t.insert("diameter_mm", number(diameter_mm, 4).into()),
-                };
+                    Some(g) => {
+                        t.insert("awg", whole(g).into());
+                    }
+                    None => length(&mut t, d, "diameter", diameter_mm, 4),
+                }
                 t.insert("strands", whole(strands).into());
             }
             ConductorShape::Rectangular {
@@ -179,14 +191,14 @@ fn conductor_table(doc: &mut DocumentMut, d: &Design) {
                 corner_radius_mm,
                 strands,
             } => {
-                t.insert("width_mm", number(width_mm, 3).into());
-                t.insert("height_mm", number(height_mm, 3).into());
-                t.insert("corner_radius_mm", number(corner_radius_mm, 3).into());
+                length(&mut t, d, "width", width_mm, 3);
+                length(&mut t, d, "height", height_mm, 3);
+                length(&mut t, d, "corner_radius", corner_radius_mm, 3);
                 t.insert("strands", whole(strands).into());
             }
         }
         if let Some(l) = k.mean_turn_mm {
-            t.insert("mean_turn_mm", number(l, 2).into());
+            length(&mut t, d, "mean_turn", l, 2);
         }
         section(doc, "conductor", t);
     }
@@ -196,29 +208,34 @@ fn conductor_table(doc: &mut DocumentMut, d: &Design) {
 fn core_and_commutator_tables(doc: &mut DocumentMut, d: &Design) {
     if let Some(c) = &d.core {
         let mut t = Table::new();
-        if let Some(x) = c.diameter_mm {
-            t.insert("diameter_mm", number(x, 3).into());
-        }
-        if let Some(x) = c.length_mm {
-            t.insert("length_mm", number(x, 3).into());
-        }
-        // The slot and the coil-making keys, those given, as given.
-        for (key, x) in [
-            ("slot_depth_mm", c.slot_depth_mm),
-            ("slot_width_mm", c.slot_width_mm),
-            ("liner_mm", c.liner_mm),
-            ("separator_mm", c.separator_mm),
-            ("wedge_mm", c.wedge_mm),
-            ("extension_mm", c.extension_mm),
-            ("end_turn_angle_deg", c.end_turn_angle_deg),
-            ("riser_distance_mm", c.riser_distance_mm),
-            ("scrap_percent", c.scrap_percent),
-            ("reel_kg", c.reel_kg),
-            ("conductor_build_mm", c.conductor_build_mm),
+        for (stem, x, decimals) in [
+            ("diameter", c.diameter_mm, 3),
+            ("length", c.length_mm, 3),
+            // The slot and the coil-making lengths, those given, as given.
+            ("slot_depth", c.slot_depth_mm, 4),
+            ("slot_width", c.slot_width_mm, 4),
+            ("liner", c.liner_mm, 4),
+            ("separator", c.separator_mm, 4),
+            ("wedge", c.wedge_mm, 4),
+            ("extension", c.extension_mm, 4),
         ] {
+            if let Some(x) = x {
+                length(&mut t, d, stem, x, decimals);
+            }
+        }
+        if let Some(x) = c.end_turn_angle_deg {
+            t.insert("end_turn_angle_deg", number(x, 4).into());
+        }
+        if let Some(x) = c.riser_distance_mm {
+            length(&mut t, d, "riser_distance", x, 4);
+        }
+        for (key, x) in [("scrap_percent", c.scrap_percent), ("reel_kg", c.reel_kg)] {
             if let Some(x) = x {
                 t.insert(key, number(x, 4).into());
             }
+        }
+        if let Some(x) = c.conductor_build_mm {
+            length(&mut t, d, "conductor_build", x, 4);
         }
         if let Some(g) = c.enamel_grade {
             t.insert("enamel_grade", whole(g).into());
@@ -234,11 +251,11 @@ fn core_and_commutator_tables(doc: &mut DocumentMut, d: &Design) {
     if let Some(c) = &d.commutator {
         let mut t = Table::new();
         if let Some(x) = c.diameter_mm {
-            t.insert("diameter_mm", number(x, 3).into());
+            length(&mut t, d, "diameter", x, 3);
         }
         match c.brush_width {
             Some(BrushWidth::Millimetres(x)) => {
-                t.insert("brush_width_mm", number(x, 3).into());
+                length(&mut t, d, "brush_width", x, 3);
             }
             Some(BrushWidth::Segments(x)) => {
                 t.insert("brush_width_segments", number(x, 3).into());

@@ -8,6 +8,7 @@
 //! page (the axial direction), the span across it; the core's ends are drawn as dashed lines,
 //! the end turns' legs run from the knuckles (the straight part's ends) to the noses.
 
+use crate::base::Units;
 use crate::base::number::fmt_fixed;
 use crate::layout::font::{Weight, text_width, wrap_text};
 use crate::layout::style::TEXT_FLOOR;
@@ -82,7 +83,10 @@ pub(super) fn coil_page(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
             s,
             name,
             &r,
-            input.design.core.as_ref().map(|c| c.extension()),
+            (
+                input.design.core.as_ref().map(|c| c.extension()),
+                input.design.units,
+            ),
         );
     }
     let tx = area.x + draw_w + 6.0;
@@ -97,16 +101,22 @@ pub(super) fn coil_page(out: &mut Vec<Node>, input: &Input<'_>, frame: &PageFram
 }
 
 /// One coil in plan in `r`, at the largest scale that fits, with its dimensions.
-fn coil_plan(g: &mut Group, s: &CoilShape, name: Option<&str>, r: &Rect, extension: Option<f64>) {
+fn coil_plan(
+    g: &mut Group,
+    s: &CoilShape,
+    name: Option<&str>,
+    r: &Rect,
+    (extension, u): (Option<f64>, Units),
+) {
     let e = extension.unwrap_or(0.0);
     let core = s.straight_mm - 2.0 * e;
     let tall = s.straight_mm + 2.0 * (s.nose_reach_mm - e);
     let wide = s.span_arc_mm;
     let words = [
-        format!("straight {} mm", fmt_fixed(s.straight_mm, 0)),
-        format!("span arc {} mm", fmt_fixed(s.span_arc_mm, 0)),
-        format!("nose {} mm", fmt_fixed(s.nose_reach_mm, 0)),
-        format!("core {} mm", fmt_fixed(core, 0)),
+        format!("straight {}", u.length(s.straight_mm, 0)),
+        format!("span arc {}", u.length(s.span_arc_mm, 0)),
+        format!("nose {}", u.length(s.nose_reach_mm, 0)),
+        format!("core {}", u.length(core, 0)),
     ];
     let width = |t: &str| text_width(t, TEXT_FLOOR, Weight::Regular);
     // The dimensions stand left (straight) and right (nose, core) of the drawing.
@@ -183,6 +193,7 @@ fn fmt_scale(n: f64) -> String {
 /// The figures beside the drawing: per element the former settings and the wire, then the
 /// wire to order, then the slot insulation schedule.
 fn figures(g: &mut Group, input: &Input<'_>, k: &CoilMaking, r: &Rect) {
+    let u = input.design.units;
     let mut rows: Vec<(String, String)> = Vec::new();
     let multi = input.winding.is_multi_element();
     for (i, s) in k.shapes.iter().enumerate() {
@@ -192,7 +203,7 @@ fn figures(g: &mut Group, input: &Input<'_>, k: &CoilMaking, r: &Rect) {
             "Coil".to_string()
         };
         rows.push((head, String::new()));
-        rows.extend(shape_rows(s));
+        rows.extend(shape_rows(s, u));
     }
     rows.push(("Wire to order".to_string(), String::new()));
     if let Some(eq) = k.equalizer_wire_m {
@@ -227,20 +238,17 @@ fn figures(g: &mut Group, input: &Input<'_>, k: &CoilMaking, r: &Rect) {
     }
     if let Some(core) = input.design.core.as_ref() {
         rows.push(("Slot insulation".to_string(), String::new()));
-        rows.push(("liner".into(), format!("{} mm", fmt_fixed(core.liner(), 2))));
-        rows.push((
-            "separator".into(),
-            format!("{} mm", fmt_fixed(core.separator(), 2)),
-        ));
-        rows.push(("wedge".into(), format!("{} mm", fmt_fixed(core.wedge(), 2))));
+        rows.push(("liner".into(), u.length(core.liner(), 2)));
+        rows.push(("separator".into(), u.length(core.separator(), 2)));
+        rows.push(("wedge".into(), u.length(core.wedge(), 2)));
     }
     if let Some(sec) = k.section {
         rows.push((
             "coil side (strip)".into(),
             format!(
-                "{} \u{d7} {} mm",
-                fmt_fixed(sec.width_mm, 2),
-                fmt_fixed(sec.height_mm, 2)
+                "{} \u{d7} {}",
+                u.number(sec.width_mm, 2),
+                u.length(sec.height_mm, 2)
             ),
         ));
     }
@@ -301,8 +309,8 @@ fn figures(g: &mut Group, input: &Input<'_>, k: &CoilMaking, r: &Rect) {
 }
 
 /// The former settings and the wire of one coil shape.
-fn shape_rows(s: &CoilShape) -> Vec<(String, String)> {
-    let mm = |x: f64| format!("{} mm", fmt_fixed(x, 1));
+fn shape_rows(s: &CoilShape, u: Units) -> Vec<(String, String)> {
+    let mm = |x: f64| u.length(x, 1);
     let mut rows: Vec<(String, String)> = vec![
         (
             "coils, span, turns".into(),

@@ -1,0 +1,95 @@
+//! `Units`: the length system a design is written in, and the one writer of its lengths.
+//!
+//! Part of the `base` stage. Every length inside armsheet is in mm; a design written with
+//! `_in` keys is converted on reading (exactly, 25.4 mm to the inch) and prints its lengths
+//! back in inches. The precision of a printed length is stated here once: a length a
+//! report gives to `d` decimals of a millimetre is given to `d + 2` decimals of an inch (at
+//! most 4), so the dimensions the trade reads to a tenth of a millimetre read to a
+//! thousandth of an inch (6.300 in) [common practice]. Wire sizes stay AWG or mm as given,
+//! and `[limits]` keep the units their keys name.
+
+use super::number::{fmt_fixed, fmt_trimmed};
+
+/// Millimetres in one inch (exact, by the 1959 international inch).
+pub const MM_PER_INCH: f64 = 25.4;
+
+/// The length system of a design file.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
+pub enum Units {
+    /// `_mm` keys (the default).
+    #[default]
+    Millimetres,
+    /// `_in` keys.
+    Inches,
+}
+
+impl Units {
+    /// The unit's symbol, as printed and as the JSON `units` value: `mm` or `in`.
+    pub fn symbol(self) -> &'static str {
+        match self {
+            Units::Millimetres => "mm",
+            Units::Inches => "in",
+        }
+    }
+
+    /// The suffix of a length key in this system: `_mm` or `_in`.
+    pub fn key_suffix(self) -> &'static str {
+        match self {
+            Units::Millimetres => "_mm",
+            Units::Inches => "_in",
+        }
+    }
+
+    /// The other system.
+    pub fn other(self) -> Units {
+        match self {
+            Units::Millimetres => Units::Inches,
+            Units::Inches => Units::Millimetres,
+        }
+    }
+
+    /// Decimals in this system of a length given to `mm_decimals` decimals of a mm.
+    pub fn decimals(self, mm_decimals: usize) -> usize {
+        match self {
+            Units::Millimetres => mm_decimals,
+            Units::Inches => (mm_decimals + 2).min(4),
+        }
+    }
+
+    /// Decimals to write in a design file a length held to `mm_decimals` decimals of a mm,
+    /// losing nothing a reader would see: two more for inches.
+    pub fn file_decimals(self, mm_decimals: usize) -> usize {
+        match self {
+            Units::Millimetres => mm_decimals,
+            Units::Inches => mm_decimals + 2,
+        }
+    }
+
+    /// `mm` in this system, without the unit.
+    pub fn value(self, mm: f64) -> f64 {
+        match self {
+            Units::Millimetres => mm,
+            Units::Inches => mm / MM_PER_INCH,
+        }
+    }
+
+    /// A length of `mm` as printed, the number alone: `mm_decimals` decimals of a mm, or
+    /// the matching decimals of an inch.
+    pub fn number(self, mm: f64, mm_decimals: usize) -> String {
+        fmt_fixed(self.value(mm), self.decimals(mm_decimals))
+    }
+
+    /// A length of `mm` as printed with its unit: `160.0 mm` or `6.299 in`.
+    pub fn length(self, mm: f64, mm_decimals: usize) -> String {
+        format!("{} {}", self.number(mm, mm_decimals), self.symbol())
+    }
+
+    /// A length as an input message echoes it, with its unit: the shortest digits in mm
+    /// (`2 mm`, `0.25 mm`), or up to 4 decimals of an inch (`0.0787 in`).
+    pub fn echo(self, mm: f64) -> String {
+        match self {
+            Units::Millimetres => format!("{mm} mm"),
+            Units::Inches => format!("{} in", fmt_trimmed(self.value(mm), 4)),
+        }
+    }
+}
