@@ -39,7 +39,7 @@ pub const ARCHIVE_HELP: &str = "\
 The archive is a SQLite file: --archive PATH, else the environment variable
 ARMSHEET_ARCHIVE, else ./armsheet-archive.sqlite. `add` and `import` make it when it is
 missing; the other commands refuse a missing one. Several benches may add at once (WAL mode);
-a command that cannot get the lock within 10 s exits 2 and writes nothing. An archive made by
+a command that cannot get the lock within 5 s exits 2 and writes nothing. An archive made by
 a newer armsheet is refused; an older one is migrated, after a copy to PATH.vN.bak.
 Adding a job again makes its next revision; nothing is overwritten. Dates are kept as written
 in the design's [job] date.

@@ -19,7 +19,7 @@ use rusqlite::{Connection, ErrorCode, OpenFlags, OptionalExtension, TransactionB
 use crate::features::archive::{JobFields, Query, Record, Summary};
 
 /// How long a command waits for another one's lock before it gives up (exit 2).
-pub const BUSY_WAIT: Duration = Duration::from_secs(10);
+pub const BUSY_WAIT: Duration = Duration::from_secs(5);
 
 /// The migrations, in order: version n is `MIGRATIONS[n - 1]`. An archive records each
 /// version applied in `archive_version`; one newer than [`LATEST`] is refused.
