@@ -264,9 +264,9 @@ fn eight_processes_adding_at_once_lose_nothing() {
             // Each process adds its job five times in a row.
             Command::new("sh")
                 .arg("-c")
-                .arg(format!(
-                    "for n in 1 2 3 4 5; do \"$0\" archive add \"$1\" --archive \"$2\" || exit 9; done"
-                ))
+                .arg(
+                    "for n in 1 2 3 4 5; do \"$0\" archive add \"$1\" --archive \"$2\" || exit 9; done",
+                )
                 .arg(BIN)
                 .arg(d)
                 .arg(&db)

@@ -85,7 +85,7 @@ pub struct Common {
 /// Arguments of `archive add`.
 #[derive(Debug, Args)]
 pub struct AddArgs {
-    /// The design file (TOML) as wound; its [job] id is the job's key.
+    /// The design file (TOML) as wound; the id in its job table is the job's key.
     pub design: PathBuf,
     /// The data card taken before stripping.
     #[arg(long, value_name = "CARD.toml")]
@@ -158,7 +158,7 @@ pub struct ExportArgs {
 #[derive(Debug, Args)]
 pub struct ImportArgs {
     /// The folder: every `*.toml` in it is a design file or a data card (a card goes with the
-    /// design of the same [job] id, or is identified when it fits one winding only).
+    /// design of the same job id, or is identified when it fits one winding only).
     pub folder: PathBuf,
     /// `--archive` and `--json`.
     #[command(flatten)]
