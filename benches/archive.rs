@@ -57,6 +57,7 @@ fn archive() -> &'static Path {
                 readings: None,
                 verdict: None,
                 signed_by: vec!["Bench".into()],
+                sheets: Vec::new(),
                 summary: s,
             });
             if batch.len() == 10_000 {

@@ -633,3 +633,41 @@ fn backup_is_a_whole_archive_and_never_overwrites() {
     ));
     assert_eq!(found["matches"][0]["exact"], true);
 }
+
+#[test]
+fn the_sheet_sets_files_are_recorded_with_their_sha256() {
+    let dir = support::scratch("sheets");
+    let out = dir.join("out");
+    let design = support::demo_path("hoist-lap");
+    let o = support::armsheet(&["sheet", &design, "-o", out.to_str().unwrap()]);
+    assert!(o.status.success(), "{}", text(&o.stderr));
+    let set = out.join("hoist-lap");
+    let db = dir.join("shop.sqlite");
+    let o = archive(&db, &["add", &design, "--sheets", set.to_str().unwrap()]);
+    assert!(o.status.success(), "{}", text(&o.stderr));
+    let shown = json(&archive(&db, &["show", "CW-2611", "--json"]));
+    let sheets = shown["revisions"][0]["sheets"].as_array().unwrap();
+    let listed = std::fs::read_to_string(set.join("sheet-set.txt")).unwrap();
+    let files = listed.lines().filter(|l| !l.starts_with('#')).count() + 1;
+    assert_eq!(sheets.len(), files, "{shown:#}");
+    // Each hash as coreutils' sha256sum gives it [src: FIPS 180-4 through GNU coreutils].
+    for s in sheets {
+        let f = set.join(s["file"].as_str().unwrap());
+        let sum = Command::new("sha256sum").arg(&f).output().unwrap();
+        let hex = text(&sum.stdout)
+            .split_whitespace()
+            .next()
+            .unwrap()
+            .to_string();
+        assert_eq!(s["sha256"], hex, "{}", f.display());
+    }
+    // A folder that is not a sheet set is refused, nothing written.
+    let o = archive(&db, &["add", &design, "--sheets", dir.to_str().unwrap()]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(
+        text(&o.stderr).contains("not a sheet set"),
+        "{}",
+        text(&o.stderr)
+    );
+    assert_eq!(count(&db), 1);
+}

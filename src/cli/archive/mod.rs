@@ -20,7 +20,7 @@ use super::output::{print_stdout, write_atomic};
 use crate::base::visible::visible;
 use crate::design::{Card, parse_card_bytes, parse_design, parse_design_bytes};
 use crate::features::archive::{
-    Match, Query, Record, job_fields, matches, parse_span, parse_throw, summary,
+    Match, Query, Record, SheetFile, job_fields, matches, parse_span, parse_throw, summary,
 };
 use crate::features::armature_test::{TestOptions, armature_test, readings_text};
 use crate::features::identify::identify;
@@ -96,6 +96,10 @@ pub struct AddArgs {
     /// Who signed the job off (repeat for several).
     #[arg(long = "signed-by", value_name = "NAME")]
     pub signed_by: Vec<String>,
+    /// The sheet set the job was wound from (the folder `armsheet sheet` wrote): each of its
+    /// files is recorded with its SHA-256.
+    #[arg(long, value_name = "DIR")]
+    pub sheets: Option<PathBuf>,
     /// `--archive` and `--json`.
     #[command(flatten)]
     pub common: Common,
@@ -232,6 +236,7 @@ fn record_of(
     card: Option<String>,
     readings: Option<(PathBuf, Vec<u8>)>,
     signed_by: Vec<String>,
+    sheets: Vec<SheetFile>,
 ) -> Result<(Record, bool), CliError> {
     let design = parse_design(&design_text, design_name)?;
     let checked = crate::check(design);
@@ -275,10 +280,48 @@ fn record_of(
             readings,
             verdict,
             signed_by,
+            sheets,
             summary: summary(&checked),
         },
         refused,
     ))
+}
+
+/// The files of the sheet set in `dir` (those its list names, and the list), each with its
+/// SHA-256, by name.
+fn sheet_hashes(dir: &Path) -> Result<Vec<SheetFile>, CliError> {
+    use sha2::{Digest, Sha256};
+    let list = super::output::read_set_list(dir).ok_or_else(|| CliError::Archive {
+        archive: dir.to_path_buf(),
+        message: format!(
+            "not a sheet set: there is no {} in it; nothing was written\n  = hint: give the folder `armsheet sheet` wrote, e.g. out/<design-stem>",
+            super::output::SET_LIST
+        ),
+    })?;
+    let mut names: Vec<_> = list.into_iter().collect();
+    names.push(super::output::SET_LIST.into());
+    names.sort();
+    names
+        .into_iter()
+        .map(|n| {
+            let path = dir.join(&n);
+            let bytes = std::fs::read(&path).map_err(|source| CliError::Read {
+                path: path.clone(),
+                source,
+            })?;
+            let sha256 =
+                Sha256::digest(&bytes)
+                    .iter()
+                    .fold(String::with_capacity(64), |mut s, b| {
+                        let _ = write!(s, "{b:02x}");
+                        s
+                    });
+            Ok(SheetFile {
+                file: n.to_string_lossy().into_owned(),
+                sha256,
+            })
+        })
+        .collect()
 }
 
 fn add(a: &AddArgs) -> Result<Outcome, CliError> {
@@ -299,7 +342,18 @@ fn add(a: &AddArgs) -> Result<Outcome, CliError> {
         Some(p) => Some((p.clone(), read(p, "readings")?)),
         None => None,
     };
-    let (record, refused) = record_of(&name, text(&bytes), card, readings, a.signed_by.clone())?;
+    let sheets = match &a.sheets {
+        Some(dir) => sheet_hashes(dir)?,
+        None => Vec::new(),
+    };
+    let (record, refused) = record_of(
+        &name,
+        text(&bytes),
+        card,
+        readings,
+        a.signed_by.clone(),
+        sheets,
+    )?;
     let mut store = Store::open(&path, Create::Yes).map_err(|e| fail(&path, e))?;
     let revision = store
         .add(std::slice::from_ref(&record))
@@ -476,12 +530,17 @@ fn show(a: &ShowArgs) -> Result<Outcome, CliError> {
         );
         let _ = writeln!(
             s,
-            "  design {}{}; test: {}; signed off by: {}",
+            "  design {}{}{}; test: {}; signed off by: {}",
             visible(&r.design_name),
             if r.card.is_some() {
                 ", with data card"
             } else {
                 ""
+            },
+            if r.sheets.is_empty() {
+                String::new()
+            } else {
+                format!(", sheet set of {} files hashed", r.sheets.len())
             },
             r.verdict.as_deref().unwrap_or("no readings"),
             if r.signed_by.is_empty() {
@@ -634,7 +693,14 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
         if let Some(i) = card {
             used[i] = true;
         }
-        let (r, bad) = record_of(&name, t, card.map(|i| cards[i].1.clone()), None, Vec::new())?;
+        let (r, bad) = record_of(
+            &name,
+            t,
+            card.map(|i| cards[i].1.clone()),
+            None,
+            Vec::new(),
+            Vec::new(),
+        )?;
         refused |= bad;
         records.push(r);
     }
@@ -669,6 +735,7 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
             design,
             Some(t.clone()),
             None,
+            Vec::new(),
             Vec::new(),
         )?;
         records.push(r);

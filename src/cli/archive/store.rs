@@ -62,8 +62,10 @@ pub const MIGRATIONS: &[&str] = &[
         rating TEXT,
         PRIMARY KEY (job, revision)
     );",
-    // 2: the sign-off names (a JSON list), and the search index on the frame.
+    // 2: the sign-off names and the sheet set's file hashes (JSON lists), and the search
+    // index on the frame.
     "ALTER TABLE jobs ADD COLUMN signed_by TEXT NOT NULL DEFAULT '[]';
+    ALTER TABLE jobs ADD COLUMN sheets TEXT NOT NULL DEFAULT '[]';
     CREATE INDEX jobs_frame ON jobs (poles, slots, bars);",
 ];
 
@@ -74,7 +76,7 @@ pub const LATEST: u32 = MIGRATIONS.len() as u32;
 const COLUMNS: &str = "job, revision, customer, title, job_date, design_name, design, card, \
     readings, verdict, poles, slots, bars, kind, multiplicity, direction, coils_per_slot, span, \
     span_shop, throw_end, throw_shop, turns, wire, strands, lead_swing_half_bars, lead_swing, \
-    brush_sets, equalizers, dummies, rating, signed_by";
+    brush_sets, equalizers, dummies, rating, signed_by, sheets";
 
 /// Why the archive could not be used.
 #[derive(Debug)]
@@ -246,13 +248,14 @@ impl Store {
                     let mut insert = tx.prepare(&format!(
                         "INSERT INTO jobs ({COLUMNS}) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, \
                          ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20, ?21, ?22, \
-                         ?23, ?24, ?25, ?26, ?27, ?28, ?29, ?30, ?31)"
+                         ?23, ?24, ?25, ?26, ?27, ?28, ?29, ?30, ?31, ?32)"
                     ))?;
                     for r in records {
                         let revision: u32 = next.query_row([&r.job.job], |row| row.get(0))?;
                         let s = &r.summary;
-                        let signed = serde_json::to_string(&r.signed_by)
-                            .map_err(|e| StoreError::Database(e.to_string()))?;
+                        let json = |e: serde_json::Error| StoreError::Database(e.to_string());
+                        let signed = serde_json::to_string(&r.signed_by).map_err(json)?;
+                        let sheets = serde_json::to_string(&r.sheets).map_err(json)?;
                         insert.execute(params![
                             r.job.job,
                             revision,
@@ -285,6 +288,7 @@ impl Store {
                             s.dummies,
                             s.rating,
                             signed,
+                            sheets,
                         ])?;
                         given.push(revision);
                     }
@@ -327,6 +331,7 @@ impl Store {
                 let mut st = c.prepare(&format!("SELECT {COLUMNS} FROM jobs {rest}"))?;
                 let rows = st.query_map(values, |r| {
                     let signed: String = r.get(30)?;
+                    let sheets: String = r.get(31)?;
                     Ok(Record {
                         job: JobFields {
                             job: r.get(0)?,
@@ -341,6 +346,7 @@ impl Store {
                         readings: r.get(8)?,
                         verdict: r.get(9)?,
                         signed_by: serde_json::from_str(&signed).unwrap_or_default(),
+                        sheets: serde_json::from_str(&sheets).unwrap_or_default(),
                         summary: Summary {
                             poles: r.get(10)?,
                             slots: r.get(11)?,

@@ -148,6 +148,15 @@ pub struct JobFields {
     pub date: Option<String>,
 }
 
+/// One file of the sheet set the job was wound from, by its SHA-256.
+#[derive(Clone, Debug, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
+pub struct SheetFile {
+    /// The file's name in the set.
+    pub file: String,
+    /// Its SHA-256, lowercase hex.
+    pub sha256: String,
+}
+
 /// One archived revision of a job: everything `archive add` records.
 #[derive(Clone, Debug, PartialEq, Eq, serde::Serialize)]
 pub struct Record {
@@ -167,6 +176,8 @@ pub struct Record {
     pub verdict: Option<String>,
     /// Who signed the job off, in the order given.
     pub signed_by: Vec<String>,
+    /// The sheet set's files with their hashes, by name; empty when none was given.
+    pub sheets: Vec<SheetFile>,
     /// The checked summary.
     pub summary: Summary,
 }
