@@ -43,8 +43,14 @@ a command that cannot get the lock within 5 s exits 2 and writes nothing. An arc
 a newer armsheet is refused; an older one is migrated, after a copy to PATH.vN.bak.
 Adding a job again makes its next revision; nothing is overwritten. Dates are kept as written
 in the design's [job] date.
-Exit codes: 0 done, 1 a design check refuses (it is still archived, as wound), 2 bad input, a
-busy or newer archive (nothing written).";
+--readings are judged as by `armsheet test --readings` (default tolerance); the verdict is
+recorded with them.
+Exit codes: 0 done, 1 a design check refuses or the readings are not healthy (the job is still
+archived, as wound and read), 2 bad input, a busy or newer archive (nothing written).";
+
+/// The verdict recorded for readings outside the test's default tolerance of the healthy
+/// pattern (as `armsheet test --readings` judges them).
+const NOT_HEALTHY: &str = "not healthy";
 
 /// Arguments of `archive`.
 #[derive(Debug, Args)]
@@ -188,6 +194,19 @@ pub fn archive_path(common: &Common) -> PathBuf {
         .unwrap_or_else(|| PathBuf::from(DEFAULT_ARCHIVE))
 }
 
+/// Opens the archive at `path`; a PostgreSQL connection string is refused without echoing it
+/// (it may carry a password).
+fn open(path: &Path, create: Create) -> Result<Store, CliError> {
+    let s = path.to_string_lossy();
+    if s.starts_with("postgres://") || s.starts_with("postgresql://") {
+        return Err(CliError::Archive {
+            archive: PathBuf::from("postgres://…"),
+            message: "this armsheet keeps its archive in a SQLite file only; a PostgreSQL archive is not supported yet\n  = hint: give --archive a file path".into(),
+        });
+    }
+    Store::open(path, create).map_err(|e| fail(path, e))
+}
+
 fn fail(path: &Path, e: StoreError) -> CliError {
     CliError::Archive {
         archive: path.to_path_buf(),
@@ -262,7 +281,7 @@ fn record_of(
                 if l.healthy {
                     "healthy".to_string()
                 } else {
-                    "not healthy".to_string()
+                    NOT_HEALTHY.to_string()
                 }
             });
             (Some(parsed.to_string()), verdict)
@@ -354,7 +373,7 @@ fn add(a: &AddArgs) -> Result<Outcome, CliError> {
         a.signed_by.clone(),
         sheets,
     )?;
-    let mut store = Store::open(&path, Create::Yes).map_err(|e| fail(&path, e))?;
+    let mut store = open(&path, Create::Yes)?;
     let revision = store
         .add(std::slice::from_ref(&record))
         .map_err(|e| fail(&path, e))?[0];
@@ -383,7 +402,8 @@ fn add(a: &AddArgs) -> Result<Outcome, CliError> {
         }
         print_stdout(&said)?;
     }
-    Ok(if refused {
+    let unhealthy = record.verdict.as_deref() == Some(NOT_HEALTHY);
+    Ok(if refused || unhealthy {
         Outcome::ChecksFail
     } else {
         Outcome::Passed
@@ -417,7 +437,7 @@ fn find(a: &FindArgs) -> Result<Outcome, CliError> {
                     .into(),
         });
     };
-    let store = Store::open(&path, Create::No).map_err(|e| fail(&path, e))?;
+    let store = open(&path, Create::No)?;
     let found = matches(
         &query,
         &store.candidates(&query).map_err(|e| fail(&path, e))?,
@@ -468,7 +488,7 @@ fn find_text(found: &[Match]) -> String {
 
 fn show(a: &ShowArgs) -> Result<Outcome, CliError> {
     let path = archive_path(&a.common);
-    let store = Store::open(&path, Create::No).map_err(|e| fail(&path, e))?;
+    let store = open(&path, Create::No)?;
     let history = store.history(&a.job).map_err(|e| fail(&path, e))?;
     if history.is_empty() {
         return Err(CliError::Archive {
@@ -628,7 +648,7 @@ pub fn export_csv(records: &[Record]) -> Result<String, String> {
 
 fn export(a: &ExportArgs) -> Result<Outcome, CliError> {
     let path = archive_path(&a.common);
-    let store = Store::open(&path, Create::No).map_err(|e| fail(&path, e))?;
+    let store = open(&path, Create::No)?;
     let all = store.all().map_err(|e| fail(&path, e))?;
     let out = if a.common.json {
         format!("{:#}\n", serde_json::json!({ "jobs": all }))
@@ -740,7 +760,7 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
         )?;
         records.push(r);
     }
-    let mut store = Store::open(&path, Create::Yes).map_err(|e| fail(&path, e))?;
+    let mut store = open(&path, Create::Yes)?;
     let revisions = store.add(&records).map_err(|e| fail(&path, e))?;
     if a.common.json {
         let list: Vec<_> = records
@@ -780,7 +800,7 @@ fn backup(a: &BackupArgs) -> Result<Outcome, CliError> {
             ),
         });
     }
-    let store = Store::open(&path, Create::No).map_err(|e| fail(&path, e))?;
+    let store = open(&path, Create::No)?;
     store.backup(&a.path).map_err(|e| fail(&path, e))?;
     if a.common.json {
         let v = serde_json::json!({"archive": path.display().to_string(), "backup": a.path.display().to_string()});
