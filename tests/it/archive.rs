@@ -303,7 +303,10 @@ fn an_add_killed_part_way_leaves_the_job_wholly_there_or_absent() {
     let mill = support::demo_path("mill-lap-12p");
     assert!(archive(&db, &["add", &mill]).status.success());
     let mut rng = support::mutate::Rng::new(23);
-    for _ in 0..12 {
+    // An add takes about 10 ms here: kills spread over the first 12 ms land before, in and
+    // after its transaction.
+    let mut killed = 0;
+    for _ in 0..40 {
         let mut child = Command::new(BIN)
             .args(["archive", "add", &mill, "--archive"])
             .arg(&db)
@@ -312,10 +315,14 @@ fn an_add_killed_part_way_leaves_the_job_wholly_there_or_absent() {
             .stderr(Stdio::null())
             .spawn()
             .unwrap();
-        std::thread::sleep(std::time::Duration::from_millis(rng.below(400) as u64));
+        std::thread::sleep(std::time::Duration::from_micros(rng.below(12_000) as u64));
         let _ = child.kill();
-        let _ = child.wait();
+        let status = child.wait().unwrap();
+        if std::os::unix::process::ExitStatusExt::signal(&status).is_some() {
+            killed += 1;
+        }
     }
+    assert!(killed > 0, "no add was killed part way");
     let c = sqlite(&db);
     let ok: String = c
         .query_row("PRAGMA integrity_check", [], |r| r.get(0))

@@ -446,7 +446,7 @@ fn find(a: &FindArgs) -> Result<Outcome, CliError> {
         let v = serde_json::json!({ "matches": found });
         print_stdout(&format!("{v:#}\n"))?;
     } else {
-        print_stdout(&find_text(&found))?;
+        print_visible(&find_text(&found))?;
     }
     Ok(Outcome::Passed)
 }
@@ -574,8 +574,19 @@ fn show(a: &ShowArgs) -> Result<Outcome, CliError> {
             }
         );
     }
-    print_stdout(&s)?;
+    print_visible(&s)?;
     Ok(Outcome::Passed)
+}
+
+/// Prints a report made from archive text, every line through [`crate::base::visible`] (an
+/// archive edited by other hands may hold anything, in any field).
+fn print_visible(s: &str) -> Result<(), CliError> {
+    let mut out = String::with_capacity(s.len());
+    for line in crate::base::visible::visible_lines(s) {
+        out.push_str(&line);
+        out.push('\n');
+    }
+    print_stdout(&out)
 }
 
 /// The CSV columns of `archive export`.
