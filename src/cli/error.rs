@@ -168,6 +168,13 @@ pub enum CliError {
         /// Why.
         why: crate::layout::WholeRefused,
     },
+    /// The shop archive cannot be used, or refuses what was asked (nothing was written).
+    Archive {
+        /// The archive, as given (or the file the message is about).
+        archive: PathBuf,
+        /// Why, in words; may span lines (hints start with `  = hint:`).
+        message: String,
+    },
     /// The PDF cannot be made from the sheets.
     Pdf {
         /// The design file, as given.
@@ -320,6 +327,10 @@ impl fmt::Display for CliError {
                     "error: {}: --window all: the whole armature cannot be drawn in one view on {paper}: {reason}; nothing was written\n  = hint: leave --window out (the diagram then continues over as many sheets as it needs, every coil drawn), or try a larger --paper",
                     visible(design)
                 )
+            }
+            CliError::Archive { archive, message } => {
+                let lines: Vec<_> = crate::base::visible::visible_lines(message).collect();
+                writeln!(f, "error: archive {}: {}", shown(archive), lines.join("\n"))
             }
             CliError::Pdf { design, message } => writeln!(
                 f,

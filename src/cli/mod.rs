@@ -12,6 +12,7 @@
 //! is written before its `wrote …` line. Any other failed write to standard output (a full
 //! disk, `/dev/full`) is `error: cannot write to standard output: …` with exit 2.
 
+pub mod archive;
 pub mod armature_test;
 pub mod error;
 pub mod explore;
@@ -91,6 +92,9 @@ pub enum Command {
     /// Expected bar-to-bar and drop-test readings from the winding solved as a network.
     #[command(after_help = armature_test::TEST_HELP)]
     Test(armature_test::TestArgs),
+    /// The shop's winding archive: record jobs, find windings wound before, show a history.
+    #[command(after_help = archive::ARCHIVE_HELP)]
+    Archive(archive::ArchiveArgs),
 }
 
 const CHECK_HELP: &str = concat!(
@@ -198,6 +202,7 @@ pub fn run(cli: Cli) -> Result<Outcome, CliError> {
         Command::Identify(a) => identify::identify(&a),
         Command::Test(a) => armature_test::test(&a),
         Command::Explore(a) => explore::explore(&a),
+        Command::Archive(a) => archive::archive(&a),
     }
 }
 

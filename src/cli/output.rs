@@ -415,7 +415,7 @@ fn set_list(files: &[(String, Vec<u8>)]) -> String {
 /// by an armsheet before lists, or not a set). Lines that are not a plain file name (empty,
 /// a comment, a path, `.`, `..`, the marker) are skipped, so an edited list can never reach
 /// outside the folder.
-fn read_set_list(dir: &Path) -> Option<BTreeSet<OsString>> {
+pub(crate) fn read_set_list(dir: &Path) -> Option<BTreeSet<OsString>> {
     let path = dir.join(SET_LIST);
     let meta = fs::symlink_metadata(&path).ok()?;
     if !meta.is_file() || meta.len() > 1 << 20 {

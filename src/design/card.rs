@@ -128,12 +128,7 @@ pub fn parse_card(text: &str, file: &str) -> Result<Card, Diagnostics> {
 }
 
 fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diagnostic> {
-    let src = Source {
-        file,
-        text,
-        found,
-        units: crate::base::Units::Millimetres,
-    };
+    let src = Source::new(file, text, found);
     if text.trim().is_empty() {
         return Err(src
             .error(

@@ -221,12 +221,7 @@ pub fn parse_frame(text: &str, file: &str) -> Result<Frame, Diagnostics> {
 }
 
 fn read_frame(text: &str, file: &str, found: &Found) -> Result<Option<Frame>, Diagnostic> {
-    let src = Source {
-        file,
-        text,
-        found,
-        units: crate::base::Units::Millimetres,
-    };
+    let src = Source::new(file, text, found);
     if text.trim().is_empty() {
         return Err(src
             .error(

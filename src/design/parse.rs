@@ -104,12 +104,7 @@ pub(super) fn read_all<T>(
 /// Reads the design, recording problems in `found`: `Ok(None)` when any was recorded, `Err`
 /// for a problem that stops the reading (reported after those recorded before it).
 fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, Diagnostic> {
-    let src = Source {
-        file,
-        text,
-        found,
-        units: crate::base::Units::Millimetres,
-    };
+    let src = Source::new(file, text, found);
     if text.trim().is_empty() {
         return Err(src
             .error(

@@ -30,6 +30,19 @@ pub(crate) struct Source<'s> {
     pub units: Units,
 }
 
+impl<'s> Source<'s> {
+    /// The source of `text` from `file`, its problems recorded in `found`, in millimetres
+    /// until its length system is read ([`units_of`]).
+    pub(crate) fn new(file: &'s str, text: &'s str, found: &'s Found) -> Source<'s> {
+        Source {
+            file,
+            text,
+            found,
+            units: Units::Millimetres,
+        }
+    }
+}
+
 /// The problems found so far in one document; readers record one and read on, so a file's
 /// problems are reported together.
 #[derive(Default)]

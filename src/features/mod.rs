@@ -1,5 +1,5 @@
 //! `features`: the commands that read a checked design and work on it, each in a room of its
-//! own: [`explore`] (the designer's search: every winding that fits a frame), [`identify`] (data taking: which winding an old armature had), [`rewind`] (a new winding
+//! own: [`archive`] (the shop's winding archive: what a job records and the match rules), [`explore`] (the designer's search: every winding that fits a frame), [`identify`] (data taking: which winding an old armature had), [`rewind`] (a new winding
 //! on the same core) and [`armature_test`] (the bar-to-bar network, the fault locator and the
 //! shop's readings file).
 //!
@@ -8,6 +8,7 @@
 //! layout and render only read. A feature never imports another feature; nothing here touches
 //! files.
 
+pub mod archive;
 pub mod armature_test;
 pub mod explore;
 pub mod identify;

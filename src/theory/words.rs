@@ -47,8 +47,20 @@ pub fn span_shop_dash(span: u32) -> String {
 /// 1's start and end leads go to, counted round the `bars` of the commutator (a
 /// retrogressive lap's −1 on 36 bars is "1–36").
 pub fn throw_shop_dash(commutator_pitch: i64, bars: u32) -> String {
+    format!("1\u{2013}{}", throw_end_bar(commutator_pitch, bars))
+}
+
+/// The commutator throw in plain shop form, "1-45" for a commutator pitch of +44 (the
+/// `lead_throw` of a data card): [`throw_end_bar`] after bar 1.
+pub fn throw_shop(commutator_pitch: i64, bars: u32) -> String {
+    format!("1-{}", throw_end_bar(commutator_pitch, bars))
+}
+
+/// The bar coil 1's end lead goes to when its start lead is on bar 1, counted round the
+/// `bars` of the commutator: 45 for a commutator pitch of +44 on 87 bars.
+pub fn throw_end_bar(commutator_pitch: i64, bars: u32) -> u32 {
     let bars = i64::from(bars.max(1));
-    format!("1\u{2013}{}", commutator_pitch.rem_euclid(bars) + 1)
+    u32::try_from(commutator_pitch.rem_euclid(bars) + 1).unwrap_or(u32::MAX)
 }
 
 /// A signed count of half bars in words: "+1.5 bars", "-2 bars", "0 bars".
@@ -110,5 +122,7 @@ mod tests {
         assert_eq!(span_shop(7), "1-8");
         assert_eq!(throw_shop_dash(44, 87), "1\u{2013}45");
         assert_eq!(throw_shop_dash(-1, 36), "1\u{2013}36");
+        assert_eq!(throw_shop(28, 57), "1-29");
+        assert_eq!(throw_end_bar(-1, 36), 36);
     }
 }

@@ -197,8 +197,8 @@ fn only_the_cli_touches_files_clock_terminal_or_environment() {
 /// Compute once: the engine, the rating and the rule families are entered only from
 /// `checks::check`, so a command that renders a `Checked` never runs them again. The one other
 /// caller is the rewind, which re-rates the old winding with a measured resistance. The
-/// armature test is solved once by the command that prints it (`test`, and `sheet` for the
-/// test sheets), never by a layout or a renderer.
+/// armature test is solved once by the command that prints it (`test`, `sheet` for the
+/// test sheets, and `archive add` for the verdict it records), never by a layout or a renderer.
 #[test]
 fn the_engine_rating_and_checks_are_entered_in_one_place() {
     const ENTRIES: [(&str, &[&str]); 6] = [
@@ -208,7 +208,11 @@ fn the_engine_rating_and_checks_are_entered_in_one_place() {
         ("run_checks(", &["checks/mod.rs"]),
         (
             "armature_test(",
-            &["features/armature_test/mod.rs", "cli/armature_test.rs"],
+            &[
+                "features/armature_test/mod.rs",
+                "cli/armature_test.rs",
+                "cli/archive/mod.rs",
+            ],
         ),
         (
             "expected(",

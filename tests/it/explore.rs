@@ -169,6 +169,7 @@ fn spec(
 ) -> DesignSpec {
     DesignSpec {
         file_name: "brute.toml".into(),
+        units: f.units,
         job: Default::default(),
         poles: f.poles,
         slots: 13,

@@ -6,6 +6,7 @@
 mod support;
 
 mod architecture;
+mod archive;
 mod armature_test;
 mod armature_test_cli;
 mod broken_files;
