@@ -47,9 +47,16 @@ pub fn strands(shape: &ConductorShape) -> u32 {
 
 /// A conductor described in words: "2 × AWG 17 (1.150 mm)", "1.250 mm", "6.30 × 2.50 mm r 0.50".
 pub fn describe(shape: &ConductorShape) -> String {
-    use crate::base::number::fmt_fixed;
     let n = strands(shape);
-    let body = match *shape {
+    let body = size_words(shape);
+    if n > 1 { format!("{n} x {body}") } else { body }
+}
+
+/// One strand's size in words, without the strands in hand: "AWG 17 (1.150 mm)", "1.250 mm
+/// round", "6.30 x 2.50 mm strip, corner radius 0.50 mm".
+pub fn size_words(shape: &ConductorShape) -> String {
+    use crate::base::number::fmt_fixed;
+    match *shape {
         ConductorShape::Round {
             diameter_mm,
             awg: Some(g),
@@ -73,8 +80,7 @@ pub fn describe(shape: &ConductorShape) -> String {
             fmt_fixed(height_mm, 2),
             fmt_fixed(corner_radius_mm, 2)
         ),
-    };
-    if n > 1 { format!("{n} x {body}") } else { body }
+    }
 }
 
 /// The gauge as written on a reel: 0000 for −3, 000 for −2, 00 for −1.

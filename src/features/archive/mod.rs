@@ -7,7 +7,8 @@
 
 use crate::Checked;
 use crate::base::number::fmt_trimmed;
-use crate::design::{Card, ConductorShape};
+use crate::design::Card;
+use crate::rating::conductor::{size_words, strands};
 use crate::theory::words::{half_bars_words, span_shop, throw_end_bar, throw_shop};
 use crate::winding::EqualizerPlan;
 
@@ -56,36 +57,6 @@ pub struct Summary {
     pub rating: Option<String>,
 }
 
-/// The size of a conductor in words: "1.15 mm round (AWG 17)", "5 x 2 mm strip".
-fn wire_words(shape: &ConductorShape) -> (String, u32) {
-    match *shape {
-        ConductorShape::Round {
-            diameter_mm,
-            awg,
-            strands,
-        } => {
-            let g = awg.map(|a| format!(" (AWG {a})")).unwrap_or_default();
-            (
-                format!("{} mm round{g}", fmt_trimmed(diameter_mm, 3)),
-                strands,
-            )
-        }
-        ConductorShape::Rectangular {
-            width_mm,
-            height_mm,
-            strands,
-            ..
-        } => (
-            format!(
-                "{} x {} mm strip",
-                fmt_trimmed(width_mm, 3),
-                fmt_trimmed(height_mm, 3)
-            ),
-            strands,
-        ),
-    }
-}
-
 /// The search fields of a checked design.
 pub fn summary(c: &Checked) -> Summary {
     let d = &c.design;
@@ -95,7 +66,10 @@ pub fn summary(c: &Checked) -> Summary {
         .elements
         .first()
         .map_or(w.pitches.commutator, |e| e.pitches.commutator);
-    let wire = d.conductor.as_ref().map(|k| wire_words(&k.shape));
+    let wire = d
+        .conductor
+        .as_ref()
+        .map(|k| (size_words(&k.shape), strands(&k.shape)));
     let swing = w.lead_swing.swing_half_bars(bars);
     let rating = d.rating.as_ref().and_then(|r| {
         let parts: Vec<String> = [
