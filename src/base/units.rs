@@ -23,6 +23,11 @@ pub enum Units {
     Inches,
 }
 
+/// Metres in a foot, exactly.
+pub const M_PER_FOOT: f64 = 0.3048;
+/// Kilograms in a pound, exactly.
+pub const KG_PER_POUND: f64 = 0.453_592_37;
+
 impl Units {
     /// The unit's symbol, as printed and as the JSON `units` value: `mm` or `in`.
     pub fn symbol(self) -> &'static str {
@@ -82,6 +87,24 @@ impl Units {
     /// A length of `mm` as printed with its unit: `160.0 mm` or `6.299 in`.
     pub fn length(self, mm: f64, mm_decimals: usize) -> String {
         format!("{} {}", self.number(mm, mm_decimals), self.symbol())
+    }
+
+    /// A length of wire, `m` metres, as printed with its unit: metres, or feet for a design in
+    /// inches (a foot is 0.3048 m exactly, by the 1959 international yard), to `decimals`.
+    pub fn wire_length(self, m: f64, decimals: usize) -> String {
+        match self {
+            Units::Millimetres => format!("{} m", fmt_fixed(m, decimals)),
+            Units::Inches => format!("{} ft", fmt_fixed(m / M_PER_FOOT, decimals)),
+        }
+    }
+
+    /// A mass of `kg` as printed with its unit: kilograms, or pounds for a design in inches
+    /// (a pound is 0.45359237 kg exactly, by the 1959 international pound), to `decimals`.
+    pub fn mass(self, kg: f64, decimals: usize) -> String {
+        match self {
+            Units::Millimetres => format!("{} kg", fmt_fixed(kg, decimals)),
+            Units::Inches => format!("{} lb", fmt_fixed(kg / KG_PER_POUND, decimals)),
+        }
     }
 
     /// A length as an input message echoes it, with its unit: the shortest digits in mm

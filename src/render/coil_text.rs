@@ -69,8 +69,8 @@ pub fn coil_section(s: &mut String, k: Option<&CoilMaking>, u: Units) {
             s,
             "wire per coil",
             format!(
-                "{} m{}, {}",
-                fmt_fixed(c.wire_m_per_coil, 3),
+                "{}{}, {}",
+                u.wire_length(c.wire_m_per_coil, 3),
                 if (c.wire_turn_mm - c.mean_turn_mm).abs() > 1e-9 {
                     format!(" at the given mean turn of {}", u.length(c.wire_turn_mm, 1))
                 } else {
@@ -99,18 +99,18 @@ pub fn coil_section(s: &mut String, k: Option<&CoilMaking>, u: Units) {
         row(
             s,
             "equalizers",
-            format!("{} m of the same wire", fmt_fixed(e, 2)),
+            format!("{} of the same wire", u.wire_length(e, 2)),
         );
     }
     row(
         s,
         "wire to order",
         format!(
-            "{} m with {} % scrap; {} kg bare copper, {} kg enamelled (build {})",
-            fmt_fixed(k.wire_m_total, 1),
+            "{} with {} % scrap; {} bare copper, {} enamelled (build {})",
+            u.wire_length(k.wire_m_total, 1),
             fmt_fixed(k.scrap_percent, 1),
-            fmt_fixed(k.mass_kg_bare, 3),
-            fmt_fixed(k.mass_kg_insulated, 3),
+            u.mass(k.mass_kg_bare, 3),
+            u.mass(k.mass_kg_insulated, 3),
             u.length(k.build_mm, 3)
         ),
     );

@@ -4,7 +4,6 @@
 
 use crate::support;
 use crate::support::sheets::checked_pages;
-use armsheet::base::number::fmt_fixed;
 use armsheet::layout::tree::{Node, Page, PageKind, PathOp};
 use armsheet::layout::{Paper, Window};
 
@@ -55,12 +54,13 @@ fn the_coil_sheet_comes_before_the_order_with_the_rating_s_wire() {
             assert!(at < order, "{name}: the coils are made before the order");
             assert_eq!(pages[at].kind.data_page(), "coil-making");
             let t = texts(&pages[at]);
-            let total = format!("{} m", fmt_fixed(k.wire_m_total, 1));
+            let u = checked.design.units;
+            let total = u.wire_length(k.wire_m_total, 1);
             assert!(
                 t.iter().any(|s| s.contains(&total)),
                 "{name}: {total} in {t:?}"
             );
-            let bare = format!("{} kg", fmt_fixed(k.mass_kg_bare, 2));
+            let bare = u.mass(k.mass_kg_bare, 2);
             assert!(t.iter().any(|s| s == &bare), "{name}: {bare}");
             // The order's first page repeats the wire to order when its line has room beside
             // the heading (the hoist's has, on A4).

@@ -308,3 +308,26 @@ fn limits_keep_their_own_units_in_an_inch_design() {
         "{refused}"
     );
 }
+
+/// An inch design orders its wire in feet and pounds (1 ft = 0.3048 m and 1 lb = 0.45359237 kg
+/// exactly, the international yard and pound of 1959); the JSON keeps metres and kilograms.
+#[test]
+fn an_inch_design_orders_wire_in_feet_and_pounds() {
+    let pump = demo("pump-wave");
+    let text = text_of(&pump);
+    let line = text
+        .lines()
+        .find(|l| l.contains("wire to order"))
+        .expect("the pump has a coil making");
+    let json = json_of(&pump);
+    let k = &json["coil_making"];
+    let m = k["wire_length_m_total"].as_f64().unwrap();
+    let kg = k["wire_mass_kg_total"].as_f64().unwrap();
+    let feet = format!("{:.1} ft", m / 0.3048);
+    let pounds = format!("{:.3} lb", kg / 0.453_592_37);
+    assert!(
+        line.contains(&feet) && line.contains(&pounds),
+        "{line} ({feet}, {pounds})"
+    );
+    assert!(!line.contains(" m ") && !line.contains(" kg"), "{line}");
+}

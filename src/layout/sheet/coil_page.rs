@@ -39,12 +39,13 @@ pub(super) fn wire_to_order_words(input: &Input<'_>) -> Option<String> {
         .reels
         .map(|n| format!(", {n} reel{}", if n == 1 { "" } else { "s" }))
         .unwrap_or_default();
+    let u = input.design.units;
     Some(format!(
-        "Wire to order: {} m of {wire} ({} % scrap included), {} kg bare copper, {} kg enamelled{reels}",
-        fmt_fixed(k.wire_m_total, 1),
+        "Wire to order: {} of {wire} ({} % scrap included), {} bare copper, {} enamelled{reels}",
+        u.wire_length(k.wire_m_total, 1),
         fmt_fixed(k.scrap_percent, 0),
-        fmt_fixed(k.mass_kg_bare, 2),
-        fmt_fixed(k.mass_kg_insulated, 2)
+        u.mass(k.mass_kg_bare, 2),
+        u.mass(k.mass_kg_insulated, 2)
     ))
 }
 
@@ -207,29 +208,23 @@ fn figures(g: &mut Group, input: &Input<'_>, k: &CoilMaking, r: &Rect) {
     }
     rows.push(("Wire to order".to_string(), String::new()));
     if let Some(eq) = k.equalizer_wire_m {
-        rows.push((
-            "equalizers, same wire".into(),
-            format!("{} m", fmt_fixed(eq, 1)),
-        ));
+        rows.push(("equalizers, same wire".into(), u.wire_length(eq, 1)));
     }
     rows.push((
         "total with scrap".into(),
         format!(
-            "{} m ({} % scrap)",
-            fmt_fixed(k.wire_m_total, 1),
+            "{} ({} % scrap)",
+            u.wire_length(k.wire_m_total, 1),
             fmt_fixed(k.scrap_percent, 0)
         ),
     ));
-    rows.push((
-        "bare copper".into(),
-        format!("{} kg", fmt_fixed(k.mass_kg_bare, 2)),
-    ));
+    rows.push(("bare copper".into(), u.mass(k.mass_kg_bare, 2)));
     rows.push((
         "enamelled".into(),
         format!(
-            "{} kg (build {} mm, grade {})",
-            fmt_fixed(k.mass_kg_insulated, 2),
-            fmt_fixed(k.build_mm, 3),
+            "{} (build {}, grade {})",
+            u.mass(k.mass_kg_insulated, 2),
+            u.length(k.build_mm, 3),
             k.grade
         ),
     ));
@@ -338,9 +333,6 @@ fn shape_rows(s: &CoilShape, u: Units) -> Vec<(String, String)> {
             format!("{} a turn ([conductor] mean_turn_mm)", mm(s.wire_turn_mm)),
         ));
     }
-    rows.push((
-        "wire a coil".into(),
-        format!("{} m", fmt_fixed(s.wire_m_per_coil, 2)),
-    ));
+    rows.push(("wire a coil".into(), u.wire_length(s.wire_m_per_coil, 2)));
     rows
 }
