@@ -330,7 +330,11 @@ fn shape_rows(s: &CoilShape, u: Units) -> Vec<(String, String)> {
         // mean_turn_mm), as the resistance is.
         rows.push((
             "wire reckoned on".into(),
-            format!("{} a turn ([conductor] mean_turn_mm)", mm(s.wire_turn_mm)),
+            format!(
+                "{} a turn ([conductor] mean_turn{})",
+                mm(s.wire_turn_mm),
+                u.key_suffix()
+            ),
         ));
     }
     rows.push(("wire a coil".into(), u.wire_length(s.wire_m_per_coil, 2)));
