@@ -34,8 +34,8 @@ use toml::de::{DeTable, DeValue};
 use super::Diagnostic;
 use super::diagnostic::Diagnostics;
 use super::model::{ConductorShape, HalfBars, Job, Rotation, bounds};
-use super::parse::{header_span, read_all, toml_error, utf8};
-use super::reader::{At, Found, Source, TableReader, nearest, units_of};
+use super::parse::{header_span, missing_table, open_document, read_all, utf8};
+use super::reader::{At, Found, Source, TableReader, nearest};
 use super::tables::{armature, conductor, job, winding};
 use crate::base::visible::{ECHO_WIDTH, clip};
 
@@ -128,23 +128,15 @@ pub fn parse_card(text: &str, file: &str) -> Result<Card, Diagnostics> {
 }
 
 fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diagnostic> {
-    let src = Source::new(file, text, found);
-    if text.trim().is_empty() {
-        return Err(src
-            .error(
-                0..0,
-                "file",
-                "the card is empty: expected an [observed] table",
-            )
-            .with_hint("run `armsheet new --card card.toml` to write a commented starter card"));
-    }
-    let root = DeTable::parse(text).map_err(|e| toml_error(&src, &e))?;
+    let (src, root) = open_document(
+        Source::new(file, text, found),
+        (
+            "the card is empty: expected an [observed] table",
+            "run `armsheet new --card card.toml` to write a commented starter card",
+        ),
+        check_tables,
+    )?;
     let root_table = root.get_ref();
-    check_tables(&src, root_table)?;
-    let src = Source {
-        units: units_of(&src, root_table)?,
-        ..src
-    };
     let empty = DeTable::default();
     let table = |name: &'static str| -> Option<TableReader<'_, '_>> {
         root_table.get(name).map(|v| TableReader {
@@ -156,12 +148,11 @@ fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diag
     };
     let job = table("job").map_or_else(Job::default, |t| job::read(&t));
     let Some(obs) = table("observed") else {
-        let end = text.len();
-        return Err(src
-            .error(end..end, "[observed]", "missing table [observed]")
-            .with_hint(
-                "add the table, for example:\n    [observed]\n    poles = 4\n    slots = 25\n    bars = 25",
-            ));
+        return Err(missing_table(
+            &src,
+            "observed",
+            "poles = 4\n    slots = 25\n    bars = 25",
+        ));
     };
     obs.deny_unknown(OBSERVED_KEYS)?;
     let o = &obs;

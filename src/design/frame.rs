@@ -41,8 +41,8 @@ use super::Diagnostic;
 use super::diagnostic::Diagnostics;
 use super::limits::Limits;
 use super::model::{Commutator, Core, Job, Mode, Rating, Rotation, WindingType, bounds};
-use super::parse::{header_span, read_all, toml_error, utf8};
-use super::reader::{At, Found, Source, TableReader, nearest, units_of};
+use super::parse::{header_span, missing_table, open_document, read_all, utf8};
+use super::reader::{At, Found, Source, TableReader, nearest};
 use super::tables::{armature, commutator, core, job, limits, rating};
 use crate::base::visible::{ECHO_WIDTH, clip};
 
@@ -221,26 +221,15 @@ pub fn parse_frame(text: &str, file: &str) -> Result<Frame, Diagnostics> {
 }
 
 fn read_frame(text: &str, file: &str, found: &Found) -> Result<Option<Frame>, Diagnostic> {
-    let src = Source::new(file, text, found);
-    if text.trim().is_empty() {
-        return Err(src
-            .error(
-                0..0,
-                "file",
-                "the frame file is empty: expected [armature], [rating] and [core] tables",
-            )
-            .with_hint(
-                "run `armsheet new --frame frame.toml` to write a commented starter frame",
-            ));
-    }
-    let root = DeTable::parse(text).map_err(|e| toml_error(&src, &e))?;
+    let (src, root) = open_document(
+        Source::new(file, text, found),
+        (
+            "the frame file is empty: expected [armature], [rating] and [core] tables",
+            "run `armsheet new --frame frame.toml` to write a commented starter frame",
+        ),
+        check_tables,
+    )?;
     let root_table = root.get_ref();
-    check_tables(&src, root_table)?;
-    // One length system a frame, as a design file ([`units_of`]).
-    let src = Source {
-        units: units_of(&src, root_table)?,
-        ..src
-    };
     let empty = DeTable::default();
     let table = |name: &'static str| -> Option<TableReader<'_, '_>> {
         root_table.get(name).map(|v| TableReader {
@@ -250,17 +239,7 @@ fn read_frame(text: &str, file: &str, found: &Found) -> Result<Option<Frame>, Di
             span: header_span(text, name).unwrap_or_else(|| v.span()),
         })
     };
-    let missing_table = |name: &str, example: &str| {
-        let end = text.len();
-        src.error(
-            end..end,
-            format!("[{name}]"),
-            format!("missing table [{name}]"),
-        )
-        .with_hint(format!(
-            "add the table, for example:\n    [{name}]\n    {example}"
-        ))
-    };
+    let missing_table = |name: &str, example: &str| missing_table(&src, name, example);
     let job = table("job").map_or_else(Job::default, |t| job::read(&t));
     let arm = table("armature")
         .ok_or_else(|| missing_table("armature", "poles = 4\n    slots = [36, 37]"))?;

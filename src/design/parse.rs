@@ -101,26 +101,52 @@ pub(super) fn read_all<T>(
     }
 }
 
+/// Opens a document of `src`: refuses an empty one (`expect` says what it should hold, `hint`
+/// how to start one), parses the TOML, checks its tables with `tables`, and settles its one
+/// length system ([`units_of`]). The design, card and frame readers all start here.
+pub(crate) fn open_document<'s>(
+    src: Source<'s>,
+    (expect, hint): (&str, &str),
+    tables: fn(&Source<'_>, &DeTable<'_>) -> Result<(), Diagnostic>,
+) -> Result<(Source<'s>, toml::Spanned<DeTable<'s>>), Diagnostic> {
+    if src.text.trim().is_empty() {
+        return Err(src.error(0..0, "file", expect).with_hint(hint));
+    }
+    let root = DeTable::parse(src.text).map_err(|e| toml_error(&src, &e))?;
+    tables(&src, root.get_ref())?;
+    let src = Source {
+        units: units_of(&src, root.get_ref())?,
+        ..src
+    };
+    Ok((src, root))
+}
+
+/// The error for a missing table `[name]`, at the end of the file, with an `example` of its
+/// keys.
+pub(crate) fn missing_table(src: &Source<'_>, name: &str, example: &str) -> Diagnostic {
+    let end = src.text.len();
+    src.error(
+        end..end,
+        format!("[{name}]"),
+        format!("missing table [{name}]"),
+    )
+    .with_hint(format!(
+        "add the table, for example:\n    [{name}]\n    {example}"
+    ))
+}
+
 /// Reads the design, recording problems in `found`: `Ok(None)` when any was recorded, `Err`
 /// for a problem that stops the reading (reported after those recorded before it).
 fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, Diagnostic> {
-    let src = Source::new(file, text, found);
-    if text.trim().is_empty() {
-        return Err(src
-            .error(
-                0..0,
-                "file",
-                "the design file is empty: expected [armature] and [winding] tables",
-            )
-            .with_hint("run `armsheet new design.toml` to write a commented starter design"));
-    }
-    let root = DeTable::parse(text).map_err(|e| toml_error(&src, &e))?;
+    let (src, root) = open_document(
+        Source::new(file, text, found),
+        (
+            "the design file is empty: expected [armature] and [winding] tables",
+            "run `armsheet new design.toml` to write a commented starter design",
+        ),
+        check_tables,
+    )?;
     let root_table = root.get_ref();
-    check_tables(&src, root_table)?;
-    let src = Source {
-        units: units_of(&src, root_table)?,
-        ..src
-    };
     let empty = DeTable::default();
     let table = |name: &'static str| -> Option<TableReader<'_, '_>> {
         root_table.get(name).map(|v| TableReader {
@@ -130,17 +156,7 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
             span: header_span(text, name).unwrap_or_else(|| v.span()),
         })
     };
-    let missing_table = |name: &str, example: &str| {
-        let end = text.len();
-        src.error(
-            end..end,
-            format!("[{name}]"),
-            format!("missing table [{name}]"),
-        )
-        .with_hint(format!(
-            "add the table, for example:\n    [{name}]\n    {example}"
-        ))
-    };
+    let missing_table = |name: &str, example: &str| missing_table(&src, name, example);
 
     let job = table("job").map_or_else(Job::default, |t| job::read(&t));
     let arm =
