@@ -17,7 +17,7 @@ use super::output::{print_stdout, write_atomic, write_new, write_stdout};
 use crate::design::{parse_design, parse_frame_bytes};
 use crate::features::explore::{confirm, explore as search, pick_header};
 use crate::features::rewind::design_toml::write_design;
-use crate::render::explore::{render_explore, write_explore_csv, write_explore_json};
+use crate::render::explore::{explore_csv, render_explore, write_explore_json};
 
 /// Help for `explore`.
 pub const EXPLORE_HELP: &str = "\
@@ -129,9 +129,7 @@ pub fn explore(a: &ExploreArgs) -> Result<Outcome, CliError> {
         write_atomic(path, crate::render::svg::page_svg(&page).as_bytes())?;
     }
     if let Some(path) = &a.csv {
-        let mut buf = Vec::new();
-        write_explore_csv(&found, &mut buf).map_err(|e| CliError::write(path, e))?;
-        write_atomic(path, &buf)?;
+        write_atomic(path, explore_csv(&found).as_bytes())?;
     }
     if a.json {
         write_stdout(|w| write_explore_json(&frame, &found, a.top, w))?;

@@ -294,11 +294,11 @@ pub fn write_explore_json<W: Write>(
     out.write_all(b"\n")
 }
 
-/// The CSV: every fit, ranked, one row each with every figure.
-pub fn write_explore_csv<W: Write>(r: &Explored, out: W) -> io::Result<()> {
-    let mut w = csv::Writer::from_writer(out);
-    let io = |e: csv::Error| io::Error::other(e.to_string());
-    w.write_record([
+/// The CSV: every fit, ranked, one row each with every figure, through the one CSV writer
+/// ([`super::csv::csv_file`]).
+pub fn explore_csv(r: &Explored) -> String {
+    use super::csv::{Cell, csv_file};
+    let header = [
         "rank",
         "type",
         "slots",
@@ -321,36 +321,36 @@ pub fn write_explore_csv<W: Write>(r: &Explored, out: W) -> io::Result<()> {
         "density_a_mm2",
         "electric_loading_a_m",
         "paths",
-    ])
-    .map_err(io)?;
-    for (i, k) in r.fits.iter().enumerate() {
+    ]
+    .map(|c| Cell::Text(c.to_string()));
+    let rows = r.fits.iter().enumerate().map(|(i, k)| {
         let st = &k.structure;
         let g = &k.figures;
-        w.write_record([
-            (i + 1).to_string(),
-            st.kind.as_str().to_string(),
-            st.slots.to_string(),
-            st.multiplicity.to_string(),
-            st.direction.as_str().to_string(),
-            st.coils_per_slot.to_string(),
-            st.segments.to_string(),
-            st.dummy_coils().to_string(),
-            st.span.to_string(),
-            k.turns.to_string(),
-            describe(&k.conductor),
-            k.on_front.to_string(),
-            g.reactance_v.map_or(String::new(), |v| fmt_fixed(v, 4)),
-            fmt_fixed(g.copper_loss_w, 3),
-            fmt_fixed(g.segment_volts_peak, 4),
-            fmt_fixed(g.segment_volts_avg, 4),
-            g.fill.map_or(String::new(), |x| fmt_fixed(x, 4)),
-            fmt_fixed(g.copper_per_slot_mm2, 3),
-            fmt_fixed(g.speed_rpm, 2),
-            fmt_fixed(g.density_a_mm2, 4),
-            fmt_fixed(g.electric_loading_a_m, 1),
-            g.paths.to_string(),
-        ])
-        .map_err(io)?;
-    }
-    w.flush()
+        let text = |s: &str| Cell::Text(s.to_string());
+        vec![
+            Cell::Num((i + 1).to_string()),
+            text(st.kind.as_str()),
+            Cell::Num(st.slots.to_string()),
+            Cell::Num(st.multiplicity.to_string()),
+            text(st.direction.as_str()),
+            Cell::Num(st.coils_per_slot.to_string()),
+            Cell::Num(st.segments.to_string()),
+            Cell::Num(st.dummy_coils().to_string()),
+            Cell::Num(st.span.to_string()),
+            Cell::Num(k.turns.to_string()),
+            Cell::Text(describe(&k.conductor)),
+            Cell::Text(k.on_front.to_string()),
+            Cell::Num(g.reactance_v.map_or(String::new(), |v| fmt_fixed(v, 4))),
+            Cell::Num(fmt_fixed(g.copper_loss_w, 3)),
+            Cell::Num(fmt_fixed(g.segment_volts_peak, 4)),
+            Cell::Num(fmt_fixed(g.segment_volts_avg, 4)),
+            Cell::Num(g.fill.map_or(String::new(), |x| fmt_fixed(x, 4))),
+            Cell::Num(fmt_fixed(g.copper_per_slot_mm2, 3)),
+            Cell::Num(fmt_fixed(g.speed_rpm, 2)),
+            Cell::Num(fmt_fixed(g.density_a_mm2, 4)),
+            Cell::Num(fmt_fixed(g.electric_loading_a_m, 1)),
+            Cell::Num(g.paths.to_string()),
+        ]
+    });
+    csv_file(std::iter::once(header.into()).chain(rows))
 }

@@ -11,6 +11,7 @@
 //! their classes through the same style table. Neither measures, fits, wraps or places
 //! anything: a new drawing or a change of looks belongs in `layout`, not here.
 
+pub mod archive;
 pub mod armature_test;
 pub mod coil_json;
 pub mod coil_text;
