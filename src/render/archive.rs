@@ -27,7 +27,7 @@ pub const EXPORT_COLUMNS: [&str; 29] = [
     "turns",
     "wire",
     "strands",
-    "lead_swing",
+    "lead_swing_bars",
     "brush_sets",
     "equalizers",
     "dummies",
@@ -41,8 +41,9 @@ pub const EXPORT_COLUMNS: [&str; 29] = [
 ];
 
 /// The archive's records as one RFC 4180 file: a header, then a record a revision. The
-/// sign-off names are joined by `; `; the sheet set is a line `FILE SHA256` a file (as
-/// `sha256sum -c` reads them, hash first).
+/// sign-off names are joined by `; `; the sheet set is a line a file, `SHA256  FILE` (as
+/// `sha256sum -c` reads them); the lead swing is a number of bars, signed as in the report's
+/// words (`1.5`, `-1`).
 pub fn export_csv(records: &[Record]) -> String {
     let header = EXPORT_COLUMNS.iter().map(|c| Cell::Text(c.to_string()));
     let text = |s: &str| Cell::Text(s.to_string());
@@ -74,7 +75,7 @@ pub fn export_csv(records: &[Record]) -> String {
             num(m.turns),
             some(&m.wire),
             Cell::Num(m.strands.map(|n| n.to_string()).unwrap_or_default()),
-            text(&m.lead_swing),
+            Cell::Num(half_bars_number(m.lead_swing_half_bars)),
             num(m.brush_sets),
             num(m.equalizers),
             num(m.dummies),
@@ -88,4 +89,13 @@ pub fn export_csv(records: &[Record]) -> String {
         ]
     });
     csv_file(std::iter::once(header.collect()).chain(rows))
+}
+
+/// A count of half bars as a number of bars: `3` → `1.5`, `-2` → `-1`.
+fn half_bars_number(h: i64) -> String {
+    if h % 2 == 0 {
+        (h / 2).to_string()
+    } else {
+        format!("{}{}.5", if h < 0 { "-" } else { "" }, (h / 2).abs())
+    }
 }
