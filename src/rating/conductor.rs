@@ -4,6 +4,7 @@
 
 use std::f64::consts::PI;
 
+use crate::base::Units;
 use crate::design::{Conductor, ConductorShape, Design, awg_diameter_mm};
 
 /// Copper cross-section of one turn's conductor, all strands in hand, mm².
@@ -45,40 +46,40 @@ pub fn strands(shape: &ConductorShape) -> u32 {
     }
 }
 
-/// A conductor described in words: "2 × AWG 17 (1.150 mm)", "1.250 mm", "6.30 × 2.50 mm r 0.50".
-pub fn describe(shape: &ConductorShape) -> String {
+/// A conductor described in words, its sizes in `units`: "2 x AWG 17 (1.150 mm)", "1.250 mm
+/// round", "0.2480 x 0.0984 in strip, corner radius 0.0197 in".
+pub fn describe(shape: &ConductorShape, units: Units) -> String {
     let n = strands(shape);
-    let body = size_words(shape);
+    let body = size_words(shape, units);
     if n > 1 { format!("{n} x {body}") } else { body }
 }
 
-/// One strand's size in words, without the strands in hand: "AWG 17 (1.150 mm)", "1.250 mm
-/// round", "6.30 x 2.50 mm strip, corner radius 0.50 mm".
-pub fn size_words(shape: &ConductorShape) -> String {
-    use crate::base::number::fmt_fixed;
+/// One strand's size in words, without the strands in hand, its sizes in `units` (a mm size
+/// to 3 decimals, a strip's to 2): "AWG 17 (1.150 mm)", "1.250 mm round", "6.30 x 2.50 mm
+/// strip, corner radius 0.50 mm".
+pub fn size_words(shape: &ConductorShape, units: Units) -> String {
+    let u = units.symbol();
     match *shape {
         ConductorShape::Round {
             diameter_mm,
             awg: Some(g),
             ..
-        } => {
-            format!("AWG {} ({} mm)", awg_name(g), fmt_fixed(diameter_mm, 3))
-        }
+        } => format!("AWG {} ({})", awg_name(g), units.length(diameter_mm, 3)),
         ConductorShape::Round {
             diameter_mm,
             awg: None,
             ..
-        } => format!("{} mm round", fmt_fixed(diameter_mm, 3)),
+        } => format!("{} round", units.length(diameter_mm, 3)),
         ConductorShape::Rectangular {
             width_mm,
             height_mm,
             corner_radius_mm,
             ..
         } => format!(
-            "{} x {} mm strip, corner radius {} mm",
-            fmt_fixed(width_mm, 2),
-            fmt_fixed(height_mm, 2),
-            fmt_fixed(corner_radius_mm, 2)
+            "{} x {} {u} strip, corner radius {}",
+            units.number(width_mm, 2),
+            units.number(height_mm, 2),
+            units.length(corner_radius_mm, 2)
         ),
     }
 }
@@ -178,9 +179,9 @@ pub struct WireOption {
 }
 
 impl WireOption {
-    /// "2 x AWG 17 (1.150 mm)" or "3 x 1.120 mm".
-    pub fn label(&self) -> String {
-        describe(&self.shape())
+    /// "2 x AWG 17 (1.150 mm)" or "3 x 1.120 mm round", sizes in `units`.
+    pub fn label(&self, units: Units) -> String {
+        describe(&self.shape(), units)
     }
 
     /// The option as a conductor shape.

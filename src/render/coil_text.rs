@@ -122,11 +122,11 @@ pub fn coil_section(s: &mut String, k: Option<&CoilMaking>, u: Units) {
             s,
             "slot fill",
             format!(
-                "{} %: {} coil sides take {} mm2 of {} mm2 inside the slot insulation",
+                "{} %: {} coil sides take {} of {} inside the slot insulation",
                 fmt_fixed(f.percent, 1),
                 f.sides,
-                fmt_fixed(f.conductors_mm2, 1),
-                fmt_fixed(f.room_mm2, 1)
+                u.area(f.conductors_mm2, 1),
+                u.area(f.room_mm2, 1)
             ),
         );
     }

@@ -9,6 +9,7 @@ use std::io::{self, Write};
 
 use serde::Serialize;
 
+use crate::base::Units;
 use crate::base::number::fmt_fixed;
 use crate::base::visible::visible;
 use crate::design::{ConductorShape, Frame};
@@ -108,7 +109,7 @@ fn line(s: &mut String, n: usize, k: &Candidate) {
         st.dummy_coils(),
         st.span,
         k.turns,
-        describe(&k.conductor)
+        describe(&k.conductor, Units::Millimetres)
     );
     let _ = writeln!(
         s,
@@ -338,7 +339,7 @@ pub fn explore_csv(r: &Explored) -> String {
             Cell::Num(st.dummy_coils().to_string()),
             Cell::Num(st.span.to_string()),
             Cell::Num(k.turns.to_string()),
-            Cell::Text(describe(&k.conductor)),
+            Cell::Text(describe(&k.conductor, Units::Millimetres)),
             Cell::Text(k.on_front.to_string()),
             Cell::Num(g.reactance_v.map_or(String::new(), |v| fmt_fixed(v, 4))),
             Cell::Num(fmt_fixed(g.copper_loss_w, 3)),

@@ -7,6 +7,7 @@
 use serde::{Serialize, Serializer};
 
 use super::rating_words;
+use crate::base::Units;
 use crate::base::number::round_to;
 use crate::rating::conductor::describe;
 use crate::rating::test_voltage::{TEST_VOLTAGE_CAUTION, TEST_VOLTAGE_SOURCE};
@@ -81,7 +82,7 @@ impl From<&ConductorData> for ConductorJson {
             .and_then(rating_words::mean_turn_formula);
         ConductorJson {
             area_mm2: round_to(k.area_mm2, 6),
-            description: describe(&k.shape),
+            description: describe(&k.shape, Units::Millimetres),
             mean_turn_estimated: formula.is_some(),
             mean_turn_formula: formula,
             mean_turn_mm: k.mean_turn.as_ref().map(|t| round_to(t.mm, 3)),

@@ -37,7 +37,7 @@ pub fn render_rating(s: &mut String, d: &Design, r: &RatingReport) {
     );
     copper(s, d, r);
     emf(s, d, r);
-    loading(s, r);
+    loading(s, d, r);
     commutator(s, d, r);
     losses_and_tests(s, r);
     advice_and_notes(s, r);
@@ -49,7 +49,11 @@ fn copper(s: &mut String, d: &Design, r: &RatingReport) {
         row(
             s,
             "conductor",
-            format!("{}, {} mm2", describe(&k.shape), fmt_fixed(k.area_mm2, 3)),
+            format!(
+                "{}, {}",
+                describe(&k.shape, d.units),
+                d.units.wire_area(k.area_mm2)
+            ),
         );
         if let Some(t) = &k.mean_turn {
             let how = match t.source {
@@ -160,7 +164,7 @@ fn emf(s: &mut String, d: &Design, r: &RatingReport) {
 }
 
 /// Segment voltage, currents and the electric loading.
-fn loading(s: &mut String, r: &RatingReport) {
+fn loading(s: &mut String, d: &Design, r: &RatingReport) {
     if let Some(v) = &r.segment_voltage {
         row(
             s,
@@ -206,14 +210,14 @@ fn loading(s: &mut String, r: &RatingReport) {
             ),
         );
         if let Some(j) = c.density_a_mm2 {
-            row(s, "current density", format!("{} A/mm2", fmt_fixed(j, 2)));
+            row(s, "current density", d.units.current_density(j));
         }
     }
     if let Some(q) = r.electric_loading_a_m {
         row(
             s,
             "electric loading",
-            format!("{} A/m (Z*I/(a*pi*D))", fmt_fixed(q, 0)),
+            format!("{} (Z*I/(a*pi*D))", d.units.loading(q)),
         );
     }
 }
@@ -232,7 +236,7 @@ fn commutator(s: &mut String, d: &Design, r: &RatingReport) {
             row(
                 s,
                 "commutator speed",
-                format!("{} m/s at {} rpm", fmt_fixed(v, 2), fmt_fixed(n, 0)),
+                format!("{} at {} rpm", d.units.surface_speed(v), fmt_fixed(n, 0)),
             );
         }
         if let Some(b) = k.brush_width_segments {

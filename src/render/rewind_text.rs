@@ -5,10 +5,10 @@
 
 use std::fmt::Write;
 
-use crate::base::Severity;
 use crate::base::caution::CAUTIONS;
 use crate::base::number::{fmt_fixed, fmt_signed};
 use crate::base::visible::visible;
+use crate::base::{Severity, Units};
 use crate::checks::Checked;
 use crate::features::rewind::alternatives::{Alternative, Change};
 use crate::features::rewind::{NoLoadTest, RewindPlan};
@@ -133,10 +133,9 @@ fn offered(s: &mut String, o: &Offers, p: &RewindPlan) {
                 Change::CoilsPerSlot(u) => format!("{u} coils per slot"),
             })
             .collect();
-        let wire = n
-            .conductor
-            .as_ref()
-            .map_or(String::new(), |c| format!(", {}", conductor::describe(c)));
+        let wire = n.conductor.as_ref().map_or(String::new(), |c| {
+            format!(", {}", conductor::describe(c, a.design.units))
+        });
         let _ = writeln!(
             s,
             "  {}. {}: {}, {} turns{wire}; {} rpm at {} ({} %), {} V between segments",
@@ -253,6 +252,7 @@ fn winding(s: &mut String, p: &RewindPlan) {
 /// The old conductor, the area needed, the size chosen, the standard sizes and the slot fill.
 fn conductor_sizes(s: &mut String, p: &RewindPlan) {
     let (o, n) = (&p.old, &p.new);
+    let u = p.design.units;
     section(s, "CONDUCTOR");
     match (p.area_needed_mm2, &o.conductor) {
         (Some(need), Some(oc)) => {
@@ -260,24 +260,24 @@ fn conductor_sizes(s: &mut String, p: &RewindPlan) {
                 s,
                 "old",
                 format!(
-                    "{}, {} mm2",
-                    conductor::describe(oc),
-                    fmt_fixed(o.area_mm2.unwrap_or(0.0), 3)
+                    "{}, {}",
+                    conductor::describe(oc, u),
+                    u.wire_area(o.area_mm2.unwrap_or(0.0))
                 ),
             );
             row(
                 s,
                 "needed",
-                format!("{} mm2 for the same current density", fmt_fixed(need, 3)),
+                format!("{} for the same current density", u.wire_area(need)),
             );
             if let Some(nc) = &n.conductor {
                 row(
                     s,
                     "chosen",
                     format!(
-                        "{}, {} mm2",
-                        conductor::describe(nc),
-                        fmt_fixed(n.area_mm2.unwrap_or(0.0), 3)
+                        "{}, {}",
+                        conductor::describe(nc, u),
+                        u.wire_area(n.area_mm2.unwrap_or(0.0))
                     ),
                 );
             }
@@ -285,7 +285,7 @@ fn conductor_sizes(s: &mut String, p: &RewindPlan) {
                 row(
                     s,
                     "current density",
-                    format!("{} A/mm2 with the chosen size", fmt_fixed(j, 2)),
+                    format!("{} with the chosen size", u.current_density(j)),
                 );
             }
             let _ = writeln!(
@@ -294,16 +294,17 @@ fn conductor_sizes(s: &mut String, p: &RewindPlan) {
             );
             for fam in [WireFamily::Awg, WireFamily::Metric] {
                 for opt in p.options.iter().filter(|x| x.family == fam) {
-                    let tag = if fam == WireFamily::Awg {
-                        "AWG   "
+                    // A metric size is named as it is sold, in mm, in any design.
+                    let (tag, named) = if fam == WireFamily::Awg {
+                        ("AWG   ", u)
                     } else {
-                        "metric"
+                        ("metric", Units::Millimetres)
                     };
                     let _ = writeln!(
                         s,
-                        "    {tag} {:<28}{:>9} mm2  {:>7} %",
-                        opt.label(),
-                        fmt_fixed(opt.area_mm2, 3),
+                        "    {tag} {:<28}{:>13}  {:>7} %",
+                        opt.label(named),
+                        u.wire_area(opt.area_mm2),
                         fmt_signed(opt.error * 100.0, 1)
                     );
                 }

@@ -131,8 +131,10 @@ fn text_differs_only_on_the_lines_that_print_a_length() {
     for (x, y) in a.iter().zip(&b) {
         if x != y {
             differing += 1;
+            let metric = [" mm", "mm2", "m/s", "A/m", " m ", " kg"];
+            let inch = [" in", "in2", "cmil", "ft/min", "A/in", " ft", " lb"];
             assert!(
-                y.contains(" in") && x.contains(" mm"),
+                inch.iter().any(|u| y.contains(u)) && metric.iter().any(|u| x.contains(u)),
                 "a line differs by more than its unit:\n  mm: {x}\n  in: {y}"
             );
         }
@@ -148,6 +150,56 @@ fn text_differs_only_on_the_lines_that_print_a_length() {
         a.iter()
             .any(|l| l.contains("mean turn L_mt        558.8 mm (given)"))
     );
+}
+
+#[test]
+fn an_inch_design_reads_areas_density_and_speeds_in_the_inch_trades_units() {
+    let t = text_of(&demo("pump-wave"));
+    let j = json_of(&demo("pump-wave"));
+    let line = |label: &str| {
+        t.lines()
+            .find(|l| l.trim_start().starts_with(label))
+            .unwrap_or_else(|| panic!("no {label} line in\n{t}"))
+            .to_string()
+    };
+    // AWG 12: 0.0808 in, 6530 circular mils [src: ASTM B258, the AWG table; from memory]; a
+    // circular mil is the area of a circle one mil across, so the count is the diameter in
+    // mils squared [definition].
+    let conductor = line("conductor ");
+    assert!(
+        conductor.contains("AWG 12 (0.0808 in), 6530 cmil"),
+        "{conductor}"
+    );
+    let d_mm = (j["rating"]["conductor"]["area_mm2"].as_f64().unwrap() * 4.0
+        / std::f64::consts::PI)
+        .sqrt();
+    let cmil = (d_mm / 0.0254).powi(2);
+    assert_eq!(format!("{cmil:.0}"), "6530");
+    // Current density as circular mils per ampere of a conductor's current (the current per
+    // path) [derived from the definition].
+    let per_path = j["rating"]["currents"]["per_path_a"].as_f64().unwrap();
+    let density = line("current density");
+    let shown: f64 = density.split_whitespace().nth(2).unwrap().parse().unwrap();
+    assert!((shown - cmil / per_path).abs() <= 1.0, "{density}");
+    assert!(density.contains("cmil/A"), "{density}");
+    // Commutator surface speed in feet per minute: m/s × 60 / 0.3048 [definition].
+    let v = j["rating"]["commutator"]["peripheral_speed_m_s"]
+        .as_f64()
+        .unwrap();
+    let fpm = v * 60.0 / 0.3048;
+    let speed = line("commutator speed");
+    let shown: f64 = speed.split_whitespace().nth(2).unwrap().parse().unwrap();
+    assert!((shown - fpm).abs() <= 1.0, "{speed} against {fpm}");
+    assert!(speed.contains("ft/min"), "{speed}");
+    // The slot's areas in square inches.
+    assert!(
+        line("slot fill").contains(" in2 of "),
+        "{}",
+        line("slot fill")
+    );
+    // The mm twin keeps mm2, A/mm2 and m/s.
+    let mm = text_of(&to_mm(&demo("pump-wave").replace("_in = ", "_mm = ")));
+    assert!(mm.contains("3.309 mm2") && mm.contains("A/mm2") && mm.contains(" m/s at "));
 }
 
 /// `toml` whose `_mm` values are inches, each multiplied by 25.4 (the inverse of

@@ -112,7 +112,9 @@ fn the_new_file_checks_clean_with_the_check_command() {
         "{s}"
     );
     assert!(
-        s.contains("chosen                AWG 14 (1.628 mm), 2.081 mm2"),
+        // In the design's inches: AWG 14 is 0.0641 in, 4110 circular mils [src: ASTM B258,
+        // the AWG table; from memory].
+        s.contains("chosen                AWG 14 (0.0641 in), 4107 cmil"),
         "{s}"
     );
     let _ = std::fs::remove_dir_all(&dir);

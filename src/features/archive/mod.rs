@@ -6,6 +6,7 @@
 //! `cli::archive`; nothing here touches a file.
 
 use crate::Checked;
+use crate::base::Units;
 use crate::base::number::fmt_trimmed;
 use crate::design::Card;
 use crate::rating::conductor::{size_words, strands};
@@ -69,7 +70,8 @@ pub fn summary(c: &Checked) -> Summary {
     let wire = d
         .conductor
         .as_ref()
-        .map(|k| (size_words(&k.shape), strands(&k.shape)));
+        // In mm whatever the design's units, so that one archive compares like with like.
+        .map(|k| (size_words(&k.shape, Units::Millimetres), strands(&k.shape)));
     let swing = w.lead_swing.swing_half_bars(bars);
     let rating = d.rating.as_ref().and_then(|r| {
         let parts: Vec<String> = [

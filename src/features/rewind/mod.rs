@@ -925,11 +925,13 @@ impl RewindPlan {
         if let (Some(oc), Some(nc), Some(need)) = (&o.conductor, &n.conductor, self.area_needed_mm2)
         {
             h.push(format!(
-                "conductor: {} -> {} ({} mm2 needed for the same current density, {} mm2 chosen)",
-                conductor::describe(oc),
-                conductor::describe(nc),
-                fmt_fixed(need, 3),
-                fmt_fixed(conductor::conductor_area_mm2(nc), 3)
+                "conductor: {} -> {} ({} needed for the same current density, {} chosen)",
+                conductor::describe(oc, self.design.units),
+                conductor::describe(nc, self.design.units),
+                self.design.units.wire_area(need),
+                self.design
+                    .units
+                    .wire_area(conductor::conductor_area_mm2(nc))
             ));
         }
         if let Some(i) = n.current {

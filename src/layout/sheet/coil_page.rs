@@ -33,7 +33,7 @@ pub(super) fn wire_to_order_words(input: &Input<'_>) -> Option<String> {
         .design
         .conductor
         .as_ref()
-        .map(|c| describe(&c.shape))
+        .map(|c| describe(&c.shape, input.design.units))
         .unwrap_or_default();
     let reels = k
         .reels
