@@ -62,6 +62,8 @@ on_both_backends!(
     backup_is_a_whole_archive_and_never_overwrites,
     the_sheet_sets_files_are_recorded_with_their_sha256,
     readings_are_recorded_with_the_tests_verdict,
+    a_job_rewound_on_another_frame_is_still_found_by_its_old_one,
+    a_card_of_another_armature_is_refused,
 );
 
 /// An archive under test, with a scratch folder of its own.
@@ -1041,4 +1043,95 @@ fn readings_are_recorded_with_the_tests_verdict(db: &Db) {
     assert_eq!(o.status.code(), Some(2));
     assert!(text(&o.stderr).contains("bad.csv"), "{}", text(&o.stderr));
     assert_eq!(db.count(), 2);
+}
+
+fn a_job_rewound_on_another_frame_is_still_found_by_its_old_one(db: &Db) {
+    let hoist = support::demo_path("hoist-lap");
+    assert!(archive(db, &["add", &hoist]).status.success());
+    // Revision 2: the same job rewound with two coils a slot, on 72 bars.
+    let t = support::demo("hoist-lap")
+        .replacen("coils_per_slot = 1", "coils_per_slot = 2", 1)
+        .replacen("turns = 4", "turns = 2", 1);
+    let p = db.dir.join("two-a-slot.toml");
+    std::fs::write(&p, t).unwrap();
+    let o = archive(db, &["add", p.to_str().unwrap(), "--json"]);
+    assert!(
+        matches!(o.status.code(), Some(0 | 1)),
+        "{}",
+        text(&o.stderr)
+    );
+    assert_eq!(json_any(&o)["revision"], 2);
+    // Asked for the 36-bar winding: revision 1, said to be rewound since.
+    let found = json(&archive(db, &["find", "--design", &hoist, "--json"]));
+    let m = &found["matches"][0];
+    assert_eq!(
+        (m["job"].as_str(), m["exact"].as_bool()),
+        (Some("CW-2611"), Some(true))
+    );
+    assert_eq!(
+        (m["revision"].as_u64(), m["latest_revision"].as_u64()),
+        (Some(1), Some(2))
+    );
+    let said = text(&archive(db, &["find", "--design", &hoist]).stdout);
+    assert!(
+        said.contains("rewound since: rev 2 is the newest"),
+        "{said}"
+    );
+    // Asked for the 72-bar one: revision 2, the newest; one match a job.
+    let found = json(&archive(
+        db,
+        &["find", "--design", p.to_str().unwrap(), "--json"],
+    ));
+    assert_eq!(found["matches"].as_array().unwrap().len(), 1, "{found:#}");
+    assert_eq!(found["matches"][0]["revision"], 2);
+    assert_eq!(found["matches"][0]["latest_revision"], 2);
+}
+
+/// The JSON of a run that may exit 0 or 1.
+fn json_any(o: &Output) -> Value {
+    serde_json::from_slice(&o.stdout).unwrap()
+}
+
+fn a_card_of_another_armature_is_refused(db: &Db) {
+    let hoist = support::demo_path("hoist-lap");
+    // The sawmill's card (job DT-0417, 4 poles, 29 slots, 57 bars) with the hoist's design.
+    let o = archive(db, &["add", &hoist, "--card", CARD]);
+    assert_eq!(o.status.code(), Some(2));
+    let said = text(&o.stderr);
+    assert!(
+        said.contains("not of the armature the design winds"),
+        "{said}"
+    );
+    assert!(
+        said.contains("the card is of job DT-0417, the design of job CW-2611"),
+        "{said}"
+    );
+    assert!(
+        said.contains("the card has 29 slots, the design 36"),
+        "{said}"
+    );
+    assert!(!db.exists(), "nothing written");
+    // In a folder: a card with the design's job id but another frame stops the import.
+    let folder = db.dir.join("in");
+    std::fs::create_dir(&folder).unwrap();
+    std::fs::write(folder.join("hoist-lap.toml"), support::demo("hoist-lap")).unwrap();
+    let card = std::fs::read_to_string(format!("{ROOT}/{CARD}"))
+        .unwrap()
+        .replacen("\"DT-0417\"", "\"CW-2611\"", 1);
+    std::fs::write(folder.join("card.toml"), card).unwrap();
+    let o = archive(db, &["import", folder.to_str().unwrap()]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(
+        text(&o.stderr).contains("the card has 29 slots, the design 36"),
+        "{}",
+        text(&o.stderr)
+    );
+    assert!(!db.exists(), "nothing written");
+    // The sawmill's own card with its own design is taken.
+    let design = sawmill_design(&db.dir);
+    assert!(
+        archive(db, &["add", design.to_str().unwrap(), "--card", CARD])
+            .status
+            .success()
+    );
 }

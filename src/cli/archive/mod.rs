@@ -20,7 +20,8 @@ use super::output::{print_stdout, write_atomic};
 use crate::base::visible::visible;
 use crate::design::{Card, parse_card_bytes, parse_design, parse_design_bytes};
 use crate::features::archive::{
-    Match, Query, Record, SheetFile, job_fields, matches, parse_span, parse_throw, summary,
+    Match, Query, Record, SheetFile, card_disagreements, job_fields, matches, parse_span,
+    parse_throw, summary,
 };
 use crate::features::armature_test::{TestOptions, armature_test, readings_text};
 use crate::features::identify::identify;
@@ -352,8 +353,8 @@ fn add(a: &AddArgs) -> Result<Outcome, CliError> {
     let card = match &a.card {
         Some(p) => {
             let b = read(p, "card")?;
-            parse_card_bytes(&b, &p.display().to_string())?;
-            Some(text(&b))
+            let parsed = parse_card_bytes(&b, &p.display().to_string())?;
+            Some((p, parsed, text(&b)))
         }
         None => None,
     };
@@ -365,14 +366,18 @@ fn add(a: &AddArgs) -> Result<Outcome, CliError> {
         Some(dir) => sheet_hashes(dir)?,
         None => Vec::new(),
     };
+    let card_text = card.as_ref().map(|(_, _, t)| t.clone());
     let (record, refused) = record_of(
         &name,
         text(&bytes),
-        card,
+        card_text,
         readings,
         a.signed_by.clone(),
         sheets,
     )?;
+    if let Some((p, c, _)) = &card {
+        card_fits(p, c, &record)?;
+    }
     let mut store = open(&at, Create::Yes)?;
     let revision = store
         .add(std::slice::from_ref(&record))
@@ -410,6 +415,22 @@ fn add(a: &AddArgs) -> Result<Outcome, CliError> {
     })
 }
 
+/// Refuses a data card archived with a design it is not of (another job id, frame or bar
+/// count), naming the card; nothing is written.
+fn card_fits(path: &Path, card: &Card, record: &Record) -> Result<(), CliError> {
+    let d = card_disagreements(card, &record.job.job, &record.summary);
+    if d.is_empty() {
+        return Ok(());
+    }
+    Err(CliError::Archive {
+        archive: path.to_path_buf(),
+        message: format!(
+            "this data card is not of the armature the design winds: {}; nothing was written\n  = hint: give the card taken from this armature, or put the card's job id in the design's [job] id",
+            d.join("; ")
+        ),
+    })
+}
+
 fn find(a: &FindArgs) -> Result<Outcome, CliError> {
     let at = archive_location(&a.common);
     let query = if let Some(p) = &a.card {
@@ -438,7 +459,10 @@ fn find(a: &FindArgs) -> Result<Outcome, CliError> {
         });
     };
     let mut store = open(&at, Create::No)?;
-    let found = matches(&query, &store.candidates(&query).map_err(|e| fail(&at, e))?);
+    let mut found = matches(&query, &store.candidates(&query).map_err(|e| fail(&at, e))?);
+    for m in &mut found {
+        m.latest_revision = store.latest_revision(&m.job).map_err(|e| fail(&at, e))?;
+    }
     if a.common.json {
         let v = serde_json::json!({ "matches": found });
         print_stdout(&format!("{v:#}\n"))?;
@@ -456,10 +480,15 @@ fn find_text(found: &[Match]) -> String {
     for m in found {
         let _ = writeln!(
             s,
-            "{} job {} rev {}{}{}: {}-pole {} {} slots {} bars, span {}, throw {}, {} turns",
+            "{} job {} rev {}{}{}{}: {}-pole {} {} slots {} bars, span {}, throw {}, {} turns",
             if m.exact { "exact" } else { "near " },
             visible(&m.job),
             m.revision,
+            if m.latest_revision > m.revision {
+                format!(" (rewound since: rev {} is the newest)", m.latest_revision)
+            } else {
+                String::new()
+            },
             m.customer
                 .as_deref()
                 .map(|c| format!(", {}", visible(c)))
@@ -658,6 +687,9 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
             Vec::new(),
             Vec::new(),
         )?;
+        if let Some(i) = card {
+            card_fits(Path::new(&cards[i].0), &cards[i].2, &r)?;
+        }
         refused |= bad;
         records.push(r);
     }

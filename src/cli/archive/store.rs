@@ -897,14 +897,12 @@ impl Store {
         })
     }
 
-    /// Each job's latest revision whose frame may match `q`: the same poles and slots, bars
-    /// within one (through the `jobs_frame` index).
+    /// Every revision whose frame may match `q`: the same poles and slots, bars within one
+    /// (through the `jobs_frame` index).
     pub fn candidates(&mut self, q: &Query) -> Result<Vec<Record>, StoreError> {
         let (lo, hi) = q.bar_range();
         self.records(
-            "WHERE poles = ?1 AND slots = ?2 AND bars BETWEEN ?3 AND ?4 \
-             AND revision = (SELECT MAX(revision) FROM jobs AS later WHERE later.job = jobs.job) \
-             ORDER BY job",
+            "WHERE poles = ?1 AND slots = ?2 AND bars BETWEEN ?3 AND ?4 ORDER BY job, revision",
             &[
                 Value::count(q.poles),
                 Value::count(q.slots),
@@ -912,6 +910,17 @@ impl Store {
                 Value::count(hi),
             ],
         )
+    }
+
+    /// The newest revision of `job` (0 when it is not archived).
+    pub fn latest_revision(&mut self, job: &str) -> Result<u32, StoreError> {
+        let n = self
+            .int(
+                "SELECT COALESCE(MAX(revision), 0) FROM jobs WHERE job = ?1",
+                &[Value::text(job)],
+            )?
+            .unwrap_or(0);
+        u32::try_from(n).map_err(|_| StoreError::Database(format!("revision {n}?")))
     }
 
     /// Every revision of `job`, oldest first.

@@ -270,13 +270,39 @@ pub fn compare(q: &Query, s: &Summary) -> Option<Vec<String>> {
     Some(d)
 }
 
+/// Where a data card disagrees with the design it is archived with, in words (empty when it
+/// agrees): another job id on the card, or other poles, slots or bars than the design has. A
+/// card records the armature before it was stripped; the rewind keeps its frame.
+pub fn card_disagreements(card: &Card, job: &str, s: &Summary) -> Vec<String> {
+    let mut d = Vec::new();
+    if let Some(id) = card.job.id.as_deref().filter(|&id| id != job) {
+        d.push(format!("the card is of job {id}, the design of job {job}"));
+    }
+    for (what, on_card, in_design) in [
+        ("poles", card.poles, s.poles),
+        ("slots", card.slots, s.slots),
+        ("bars", card.bars, s.bars),
+    ] {
+        if on_card != in_design {
+            d.push(format!(
+                "the card has {on_card} {what}, the design {in_design}"
+            ));
+        }
+    }
+    d
+}
+
 /// One job found by a search.
 #[derive(Clone, Debug, PartialEq, Eq, serde::Serialize)]
 pub struct Match {
     /// The job id.
     pub job: String,
-    /// The job's latest revision, the one compared.
+    /// The revision that matches best (exact before near, then the fewest differences, then
+    /// the newest).
     pub revision: u32,
+    /// The job's newest revision, which may be a later rewind on another frame (filled in
+    /// from the archive; the matched revision until then).
+    pub latest_revision: u32,
     /// The customer, as archived.
     pub customer: Option<String>,
     /// The date, as archived.
@@ -289,30 +315,39 @@ pub struct Match {
     pub summary: Summary,
 }
 
-/// The matches among `records` (each job's latest revision), exact ones first, then near ones
-/// by fewest differences, each group by job id.
+/// The matches among `records` (any revisions of any jobs): for each job its best revision
+/// (exact before near, then the fewest differences, then the newest), and the jobs exact ones
+/// first, then near ones by fewest differences, each group by job id.
+///
+/// Every revision counts: a job rewound later on another frame was still wound on this one
+/// once.
 pub fn matches(q: &Query, records: &[Record]) -> Vec<Match> {
-    let mut found: Vec<Match> = records
-        .iter()
-        .filter_map(|r| {
-            compare(q, &r.summary).map(|differences| Match {
-                job: r.job.job.clone(),
-                revision: r.revision,
-                customer: r.job.customer.clone(),
-                date: r.job.date.clone(),
-                exact: differences.is_empty(),
-                differences,
-                summary: r.summary.clone(),
-            })
-        })
-        .collect();
+    let rank = |m: &Match| (!m.exact, m.differences.len(), std::cmp::Reverse(m.revision));
+    let mut best: std::collections::BTreeMap<&str, Match> = std::collections::BTreeMap::new();
+    for r in records {
+        let Some(differences) = compare(q, &r.summary) else {
+            continue;
+        };
+        let m = Match {
+            job: r.job.job.clone(),
+            revision: r.revision,
+            latest_revision: r.revision,
+            customer: r.job.customer.clone(),
+            date: r.job.date.clone(),
+            exact: differences.is_empty(),
+            differences,
+            summary: r.summary.clone(),
+        };
+        match best.get(r.job.job.as_str()) {
+            Some(b) if rank(b) <= rank(&m) => {}
+            _ => {
+                best.insert(&r.job.job, m);
+            }
+        }
+    }
+    let mut found: Vec<Match> = best.into_values().collect();
     found.sort_by(|a, b| {
-        (!a.exact, a.differences.len(), &a.job, a.revision).cmp(&(
-            !b.exact,
-            b.differences.len(),
-            &b.job,
-            b.revision,
-        ))
+        (!a.exact, a.differences.len(), &a.job).cmp(&(!b.exact, b.differences.len(), &b.job))
     });
     found
 }
