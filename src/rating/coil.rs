@@ -102,32 +102,40 @@ pub struct CoilMaking {
     pub slot_fill: Option<SlotFill>,
 }
 
+/// What the coils of `d` are shaped on: its `[core]`, with the stated defaults for what the
+/// core leaves out (no slot depth: the sides at the core surface; no risers: no leads);
+/// `None` without the core's diameter and length.
+pub fn geometry(d: &Design) -> Option<Geometry> {
+    let core = d.core.as_ref()?;
+    Some(Geometry {
+        diameter_mm: core.diameter_mm?,
+        length_mm: core.length_mm?,
+        slot_depth_mm: core.slot_depth_mm.unwrap_or(0.0),
+        slots: d.slots,
+        extension_mm: core.extension(),
+        angle_deg: core.end_turn_angle(),
+        riser_distance_mm: core.riser_distance_mm.unwrap_or(0.0),
+    })
+}
+
 /// The coil making of `d`, when it has a conductor and a core of known diameter and length.
 pub fn coil_making(d: &Design, w: &Winding) -> Option<CoilMaking> {
     let conductor = d.conductor.as_ref()?;
     let core = d.core.as_ref()?;
-    let (dia, len) = (core.diameter_mm?, core.length_mm?);
+    let geometry = geometry(d)?;
+    let dia = geometry.diameter_mm;
     let shape = &conductor.shape;
     let n = strands(shape);
     let build = core
         .conductor_build_mm
         .unwrap_or_else(|| default_build(shape, core.grade()));
-    let depth = core.slot_depth_mm.unwrap_or(0.0);
     let risers = core.riser_distance_mm;
     let shapes: Vec<CoilShape> = d
         .elements()
         .iter()
         .map(|e| {
             coil_shape_with(
-                &Geometry {
-                    diameter_mm: dia,
-                    length_mm: len,
-                    slot_depth_mm: depth,
-                    slots: d.slots,
-                    extension_mm: core.extension(),
-                    angle_deg: core.end_turn_angle(),
-                    riser_distance_mm: risers.unwrap_or(0.0),
-                },
+                &geometry,
                 e.span,
                 e.turns,
                 d.coil_positions(),

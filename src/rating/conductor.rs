@@ -287,17 +287,16 @@ pub enum MeanTurnSource {
     Estimated(MeanTurnEstimate),
 }
 
-/// The inputs of the mean-turn estimate L_mt = 2·L + 2.5·π·D·y_s/S.
+/// The parts of the estimated mean turn, the coil's own shape (as the coil making lays it
+/// out): L_mt = 2·straight + 4·end leg + 2·drop.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct MeanTurnEstimate {
-    /// Core length L, mm.
-    pub core_length_mm: f64,
-    /// Core diameter D, mm.
-    pub core_diameter_mm: f64,
-    /// Coil span y_s, slots.
-    pub span: u32,
-    /// Slots S.
-    pub slots: u32,
+    /// One side's straight part, the core length and the extension each end, mm.
+    pub straight_mm: f64,
+    /// One end-turn leg, mm.
+    pub end_leg_mm: f64,
+    /// The drop from the slot's middle to the core surface at each end, mm.
+    pub drop_mm: f64,
 }
 
 /// The mean length of one turn.
@@ -309,8 +308,9 @@ pub struct MeanTurn {
     pub source: MeanTurnSource,
 }
 
-/// The mean turn: given, or estimated from `[core]` as L_mt ≈ 2·L + 2.5·π·D·y_s/S, each end
-/// connection taken as 1.25 coil pitches at the core surface [common practice, from memory].
+/// The mean turn: given, or the mean turn of the coil the coil making lays out on `[core]`
+/// (its straight sides, end-turn legs and drops, [`super::coil::coil_shape`]), so that the
+/// resistance, the test readings and the wire to order reckon with one length.
 /// `None` when neither the length nor the core diameter and length are known.
 pub fn mean_turn(d: &Design, c: &Conductor) -> Option<MeanTurn> {
     if let Some(mm) = c.mean_turn_mm {
@@ -319,17 +319,14 @@ pub fn mean_turn(d: &Design, c: &Conductor) -> Option<MeanTurn> {
             source: MeanTurnSource::Given,
         });
     }
-    let core = d.core.as_ref()?;
-    let (dia, len) = (core.diameter_mm?, core.length_mm?);
-    let pitch = PI * dia * f64::from(d.span) / f64::from(d.slots);
-    let mm = 2.0 * len + 2.5 * pitch;
+    let g = super::coil::geometry(d)?;
+    let shape = super::coil::coil_shape(&g, d.span, d.turns, 1, 1);
     Some(MeanTurn {
-        mm,
+        mm: shape.mean_turn_mm,
         source: MeanTurnSource::Estimated(MeanTurnEstimate {
-            core_length_mm: len,
-            core_diameter_mm: dia,
-            span: d.span,
-            slots: d.slots,
+            straight_mm: shape.straight_mm,
+            end_leg_mm: shape.end_leg_mm,
+            drop_mm: shape.nose_drop_mm,
         }),
     })
 }

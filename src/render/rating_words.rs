@@ -40,11 +40,10 @@ pub fn mean_turn_formula(t: &MeanTurn) -> Option<String> {
     match t.source {
         MeanTurnSource::Given => None,
         MeanTurnSource::Estimated(e) => Some(format!(
-            "estimated: L_mt = 2*L + 2.5*pi*D*y_s/S = 2*{} + 2.5*pi*{}*{}/{} = {} mm (ends taken as 1.25 coil pitches) [common practice, from memory]",
-            fmt_fixed(e.core_length_mm, 1),
-            fmt_fixed(e.core_diameter_mm, 1),
-            e.span,
-            e.slots,
+            "estimated from the coil's shape on [core] (see coil making): L_mt = 2*straight + 4*end leg + 2*drop = 2*{} + 4*{} + 2*{} = {} mm [derived]",
+            fmt_fixed(e.straight_mm, 1),
+            fmt_fixed(e.end_leg_mm, 1),
+            fmt_fixed(e.drop_mm, 1),
             fmt_fixed(t.mm, 1)
         )),
     }

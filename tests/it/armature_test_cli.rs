@@ -417,9 +417,9 @@ fn the_plot_has_a_scale_numbered_suspects_the_verdict_and_the_units() {
         .collect();
     let has = |s: &str| texts.iter().any(|t| t == s);
     // The scale: zero at the inner circle and four rings in mΩ, the outer at twice the largest
-    // expected reading (10.8649 mΩ on the hoist, all neighbouring readings equal).
+    // expected reading (10.7391 mΩ on the hoist, all neighbouring readings equal).
     assert!(has("0"), "{texts:?}");
-    for v in ["5.4325", "10.8649", "16.2974", "21.7299"] {
+    for v in ["5.3695", "10.7391", "16.1086", "21.4782"] {
         assert!(has(&format!("{v} m\u{3a9}")), "{v}: {texts:?}");
     }
     // The suspect bars 10 and 11, neighbours, numbered once as a run inside their dots.

@@ -639,10 +639,16 @@ fn export(a: &ExportArgs) -> Result<Outcome, CliError> {
     Ok(Outcome::Passed)
 }
 
-fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
-    let at = archive_location(&a.common);
-    let entries = std::fs::read_dir(&a.folder).map_err(|source| CliError::Read {
-        path: a.folder.clone(),
+/// A design file named and as written.
+type DesignFile = (String, String);
+/// A data card named, as written and parsed.
+type CardFile = (String, String, Card);
+
+/// The design files and data cards of an import folder, each parsed (the first that does not
+/// parse is the error: nothing is written).
+fn read_folder(folder: &Path) -> Result<(Vec<DesignFile>, Vec<CardFile>), CliError> {
+    let entries = std::fs::read_dir(folder).map_err(|source| CliError::Read {
+        path: folder.to_path_buf(),
         source,
     })?;
     let mut files: Vec<PathBuf> = entries
@@ -653,7 +659,7 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
     files.sort();
     // Read and parse everything first: one bad file and nothing is written.
     let mut designs = Vec::new();
-    let mut cards: Vec<(String, String, Card)> = Vec::new();
+    let mut cards: Vec<CardFile> = Vec::new();
     for f in &files {
         let bytes = read(f, "design")?;
         let name = f.display().to_string();
@@ -668,6 +674,12 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
             designs.push((name, text(&bytes)));
         }
     }
+    Ok((designs, cards))
+}
+
+fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
+    let at = archive_location(&a.common);
+    let (designs, cards) = read_folder(&a.folder)?;
     let mut records = Vec::new();
     let mut refused = false;
     let mut used = vec![false; cards.len()];
