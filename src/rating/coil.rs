@@ -295,6 +295,13 @@ fn equalizer_wire_m(d: &Design, w: &Winding, core: &Core, dia: f64, n: u32) -> O
     Some(eq.groups.len() as f64 * PI * ring * f64::from(n) / 1000.0)
 }
 
+/// The room a slot offers the copper, inside its liner, separator and wedge, mm², when
+/// `[core]` gives the slot's depth and width [derived: docs/domain.md, "Coil making"].
+pub fn slot_room_mm2(core: &Core) -> Option<f64> {
+    let (h, wd) = (core.slot_depth_mm?, core.slot_width_mm?);
+    Some((wd - 2.0 * core.liner()) * (h - core.liner() - core.separator() - core.wedge()))
+}
+
 /// The slot fill: every coil side's insulated conductors against the room inside the slot
 /// insulation [derived: docs/domain.md, "Coil making"].
 fn slot_fill(
@@ -304,8 +311,7 @@ fn slot_fill(
     n: u32,
     ins_mm2: f64,
 ) -> Option<SlotFill> {
-    let (h, wd) = (core.slot_depth_mm?, core.slot_width_mm?);
-    let room = (wd - 2.0 * core.liner()) * (h - core.liner() - core.separator() - core.wedge());
+    let room = slot_room_mm2(core)?;
     // Each element puts u top and u bottom sides in every slot.
     let per_slot_turns: u32 = shapes.iter().map(|s| 2 * d.coils_per_slot * s.turns).sum();
     let sides = 2 * d.coils_per_slot * shapes.len() as u32;

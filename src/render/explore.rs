@@ -122,7 +122,7 @@ fn line(s: &mut String, n: usize, k: &Candidate) {
         fmt_fixed(g.segment_volts_avg, 2),
         g.fill.map_or_else(
             || format!(
-                "copper per slot {} mm2 (no slot area given)",
+                "copper per slot {} mm2 (no fill: [search] gives no slot_area_mm2)",
                 fmt_fixed(g.copper_per_slot_mm2, 1)
             ),
             |x| format!("fill {}", fmt_fixed(x, 3))

@@ -813,7 +813,7 @@ fn new_design(
     let limit = d.limits.get(crate::design::LimitId::SegmentVoltsAvgMax);
     if new.segment_volts_avg > limit {
         notes.push(format!(
-            "the new average segment voltage {} V is above the {} V limit: run `armsheet check` on the new file for the options",
+            "the new average segment voltage {} V is above the {} V limit, so `check` refuses it; the rewind report offers windings that pass",
             fmt_fixed(new.segment_volts_avg, 2),
             crate::rating::limits::fmt_limit(limit)
         ));
