@@ -312,12 +312,28 @@ fn locator_text(out: &mut String, l: &Location, t: &ArmatureTest) {
         fmt_fixed(100.0 * l.tolerance, 1)
     );
     let _ = writeln!(out, "  readings as given: {}", measured_unit_words(t, l));
+    if let Some(s) = l.off_scale {
+        let _ = writeln!(
+            out,
+            "  WARNING: the readings are {} times what {} A through this winding should give: check the test current (--current) and the meter range, then the winding itself (wire size, turns, connection); the pattern is judged at the fitted scale",
+            fmt_sig(s, 3),
+            fmt_sig(t.drop_test.current_a, 3)
+        );
+    }
     match l.faults.first() {
-        Some(best) if !l.healthy && best.explains => {
+        Some(best) if !l.healthy && best.explains && l.alike == 0 => {
             let _ = writeln!(
                 out,
                 "  one fault explains every reading within tolerance: {}",
                 best.explanation
+            );
+        }
+        Some(_) if !l.healthy && l.faults[0].explains => {
+            let _ = writeln!(
+                out,
+                "  {} faults explain every reading within tolerance and these readings cannot tell them apart: inspect each of the first {}",
+                l.alike + 1,
+                l.alike + 1
             );
         }
         _ if !l.healthy && !l.all_zero => {
@@ -431,9 +447,15 @@ struct FaultJson {
 struct LocationJson {
     all_zero: bool,
     faults: Vec<FaultJson>,
+    /// The faults after the first that read alike with it (the readings cannot tell them
+    /// apart).
+    faults_alike: usize,
     healthy: bool,
     invisible: Vec<String>,
     missing_pairs: usize,
+    /// A drop test read at another scale than its current should give: measured over
+    /// expected; `null` when within tolerance or not absolute.
+    off_scale: Option<f64>,
     readings_compared: usize,
     scale: f64,
     suspect_bars: Vec<u32>,
@@ -460,6 +482,7 @@ fn location_json(l: &Location) -> LocationJson {
     LocationJson {
         all_zero: l.all_zero,
         faults: l.faults.iter().map(fault_json).collect(),
+        faults_alike: l.alike,
         healthy: l.healthy,
         invisible: l
             .invisible
@@ -467,6 +490,7 @@ fn location_json(l: &Location) -> LocationJson {
             .map(|(k, n)| format!("{} at {n} place(s)", k.key()))
             .collect(),
         missing_pairs: l.missing,
+        off_scale: l.off_scale.map(|s| round_sig(s, DIGITS)),
         readings_compared: l.measured.len(),
         scale: round_sig(l.healthy_scale, DIGITS),
         suspect_bars: l.suspect_bars.clone(),

@@ -597,3 +597,56 @@ fn drop_test_millivolts_locate_the_fault() {
         assert!(text.contains("millivolts of the drop test"), "{text}");
     }
 }
+
+/// The drop test's millivolts are absolute when the winding's resistance is known: readings
+/// taken at another current than the one given (5 A fed, 10 A said) keep the healthy pattern
+/// but read half what they should, and the report says so (`off_scale`); read at the right
+/// current they raise no warning [derived: the drop is I·R, linear in the current].
+#[test]
+fn a_drop_test_at_another_current_is_called_off_scale() {
+    let design = std::fs::read_to_string(crate::support::demo_path("hoist-lap")).unwrap();
+    let (t, _, _) = healthy(&design);
+    let file = |factor: f64| {
+        let mut csv = String::from("from_bar,to_bar,millivolts\n");
+        for r in t.drop_test.feeds.iter().flat_map(|f| &f.readings) {
+            let mv = r.expected.unwrap() * factor;
+            csv.push_str(&format!("{},{},{mv:.6}\n", r.from_bar, r.to_bar));
+        }
+        csv
+    };
+    let right = locate(&design, &file(1.0));
+    assert_eq!(right.location.as_ref().unwrap().off_scale, None);
+    let half = locate(&design, &file(0.5));
+    let l = half.location.as_ref().unwrap();
+    assert!(l.healthy, "the pattern itself is healthy");
+    let s = l.off_scale.expect("off scale");
+    assert!((s - 0.5).abs() < 1e-6, "{s}");
+    let text = armsheet::render::armature_test::render_test_text(&half, "hoist-lap");
+    assert!(
+        text.contains("WARNING: the readings are 0.500 times"),
+        "{text}"
+    );
+}
+
+/// A coil shorted outright joins its two bars: the shorted coil and the bars shorted
+/// together change the network alike, so the readings cannot tell them apart and the report
+/// says to inspect both rather than naming one [derived: both put a near-zero resistance
+/// between the same two bars].
+#[test]
+fn a_coil_shorted_outright_and_its_bars_shorted_read_alike() {
+    let design = std::fs::read_to_string(crate::support::demo_path("hoist-lap")).unwrap();
+    let (t, mut coils, ties) = healthy(&design);
+    coils[6].resistance *= 1e-4;
+    let faulty = Network::new(t.bars, coils, &ties);
+    let csv = readings(&t, &faulty);
+    let tested = locate(&design, &csv);
+    let l = tested.location.as_ref().unwrap();
+    assert!(!l.healthy);
+    assert!(l.alike >= 1, "{:?}", l.faults);
+    let kinds: Vec<FaultKind> = l.faults[..=l.alike].iter().map(|f| f.kind).collect();
+    assert!(kinds.contains(&FaultKind::ShortedCoil), "{kinds:?}");
+    assert!(kinds.contains(&FaultKind::ShortedBars), "{kinds:?}");
+    let text = armsheet::render::armature_test::render_test_text(&tested, "hoist-lap");
+    assert!(text.contains("cannot tell them apart"), "{text}");
+    assert!(!text.contains("one fault explains"), "{text}");
+}

@@ -130,6 +130,13 @@ pub struct Location {
     pub measured: Vec<(Reading, ReadingValue)>,
     /// Pairs the test lists that the file leaves out.
     pub missing: usize,
+    /// The faults after the best that explain the readings as well (their misfits within
+    /// [`ALIKE`] of the best's): these readings cannot tell them from the best.
+    pub alike: usize,
+    /// A drop test whose expected millivolts are absolute (the winding's resistance known):
+    /// the measured over the expected, when it lies more than the tolerance from 1 (a wrong
+    /// test current or meter range, or a winding wound other than the design).
+    pub off_scale: Option<f64>,
     /// Bar-to-bar resistances or drop-test millivolts.
     pub kind: ReadingKind,
     /// Every reading within tolerance of the healthy pattern.
@@ -584,6 +591,10 @@ impl Ranking<'_> {
     }
 }
 
+/// Two faults whose misfits differ by no more than this read alike: the readings cannot tell
+/// them apart (the misfit is printed to three places).
+pub const ALIKE: f64 = 0.0005;
+
 /// Ranks every single-fault hypothesis against `measured`; `slots` gives each coil
 /// position's (top, bottom) slots.
 pub fn locate(
@@ -637,14 +648,25 @@ pub fn locate(
     if !healthy.all_zero {
         rank_all(&problem, &mut ranking);
     }
+    let alike = ranking.faults.first().map_or(0, |best| {
+        ranking.faults[1..]
+            .iter()
+            .take_while(|f| f.explains == best.explains && f.score - best.score <= ALIKE)
+            .count()
+    });
+    let scale = healthy.scale / unit0;
+    let absolute = drop && t.unit == Unit::Ohm;
     Location {
+        alike,
+        off_scale: (absolute && !healthy.all_zero && (scale - 1.0).abs() > tolerance)
+            .then_some(scale),
         measured: rows,
         missing,
         kind: measured.kind,
         healthy: healthy.suspect_bars.is_empty(),
         all_zero: healthy.all_zero,
         tolerance,
-        healthy_scale: healthy.scale / unit0,
+        healthy_scale: scale,
         suspect_bars: healthy.suspect_bars,
         faults: ranking.faults,
         invisible: FaultKind::ALL
