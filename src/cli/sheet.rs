@@ -17,6 +17,8 @@ use super::Outcome;
 use super::error::{CliError, shown};
 use super::load::load_design;
 use super::output::{SET_LIST, print_stdout, replace_folder, write_atomic};
+use crate::base::visible::visible;
+use crate::checks::{Checked, refusal_line};
 use crate::features::armature_test::{TestOptions, expected};
 use crate::layout::{Paper, SheetOptions, Window, draw_page, sheet_pages};
 use crate::render::json::report_json;
@@ -127,7 +129,8 @@ root <svg> names itself in data-page), connections.csv (one record per coil posi
 belong to, once), report.json (the `check --json` object), with --pdf sheets.pdf, and
 sheet-set.txt (the list of the set's own files). The README's \"Output files\" gives each format.
 Sheets are sized in mm and print at true scale. A design that fails a check is still drawn,
-under a NOT FOR WINDING band.
+under a NOT FOR WINDING band naming the failed checks, said again after the `wrote` lines
+(exit 1); `draw` marks its page and says it the same way.
 The set is written whole or not at all: it is made in a temporary folder beside DIR/<design-stem>
 and then swapped into place. A file of the older set that the new one lacks (sheets.pdf of an
 earlier --pdf run) goes; every file the older set's list does not name (`test -o` files, notes)
@@ -210,6 +213,7 @@ pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
     for p in removed {
         let _ = writeln!(said, "removed stale {}", shown(&p));
     }
+    refused_line(&mut said, &checked);
     print_stdout(&said)?;
     Ok(Outcome::of(&checked.findings))
 }
@@ -250,6 +254,16 @@ pub fn draw(a: &DrawArgs) -> Result<Outcome, CliError> {
         _ => None,
     };
     write_atomic(&path, svg.as_bytes())?;
-    print_stdout(&format!("wrote {}\n", shown(&path)))?;
+    let mut said = format!("wrote {}\n", shown(&path));
+    refused_line(&mut said, &checked);
+    print_stdout(&said)?;
     Ok(Outcome::of(&checked.findings))
+}
+
+/// After the `wrote` lines of a design `check` refuses: the line its pages carry, so the exit 1
+/// is never silent.
+fn refused_line(said: &mut String, checked: &Checked) {
+    if let Some(line) = refusal_line(&checked.failures()) {
+        let _ = writeln!(said, "{}", visible(&line));
+    }
 }

@@ -176,7 +176,7 @@ fn one_open_coil_on_a_wave_is_the_headline() {
         "{top:?}"
     );
     assert!(top.explains, "{top:?}");
-    let text = armsheet::render::armature_test::render_test_text(&tested, "d");
+    let text = armsheet::render::armature_test::render_test_text(&tested, "d", &[]);
     assert!(
         text.contains("one fault explains every reading within tolerance: coil"),
         "{text}"
@@ -209,7 +209,7 @@ fn zero_readings_are_never_healthy() {
     let tested =
         armature_test(&c.design, &c.winding, &TestOptions::default(), Some(&zeros)).unwrap();
     assert!(
-        armsheet::render::armature_test::render_test_text(&tested, "d")
+        armsheet::render::armature_test::render_test_text(&tested, "d", &[])
             .contains("a shorted commutator")
     );
     // 19 zeros, 17 good readings: the zeros are the suspects, the good ones are not.
@@ -593,7 +593,7 @@ fn drop_test_millivolts_locate_the_fault() {
             "{name}: {top:?}"
         );
         assert!(top.explains, "{name}: {top:?}");
-        let text = armsheet::render::armature_test::render_test_text(&tested, name);
+        let text = armsheet::render::armature_test::render_test_text(&tested, name, &[]);
         assert!(text.contains("millivolts of the drop test"), "{text}");
     }
 }
