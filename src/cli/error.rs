@@ -168,6 +168,13 @@ pub enum CliError {
         /// Why.
         why: crate::layout::WholeRefused,
     },
+    /// A diagram window option out of range for the design (nothing was written).
+    Window {
+        /// The design file, as given.
+        design: String,
+        /// What is out of range.
+        why: WindowOutOfRange,
+    },
     /// The shop archive cannot be used, or refuses what was asked (nothing was written).
     Archive {
         /// The archive, as given (or the file the message is about).
@@ -181,6 +188,25 @@ pub enum CliError {
         design: String,
         /// What the PDF writer said.
         message: String,
+    },
+}
+
+/// A diagram window option the design cannot take.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum WindowOutOfRange {
+    /// `--window-start` beyond the last slot.
+    Start {
+        /// The slot asked for.
+        start: u32,
+        /// The armature's slots.
+        slots: u32,
+    },
+    /// `--window` of more pole pairs than the machine has.
+    Pairs {
+        /// The pole pairs asked for.
+        pairs: u32,
+        /// The machine's pole pairs.
+        pole_pairs: u32,
     },
 }
 
@@ -328,6 +354,19 @@ impl fmt::Display for CliError {
                     visible(design)
                 )
             }
+            CliError::Window { design, why } => match why {
+                WindowOutOfRange::Start { start, slots } => writeln!(
+                    f,
+                    "error: {}: --window-start {start}: the armature has {slots} slots; nothing was written\n  = hint: a first slot from 1 to {slots} (1..={slots})",
+                    visible(design)
+                ),
+                WindowOutOfRange::Pairs { pairs, pole_pairs } => writeln!(
+                    f,
+                    "error: {}: --window {pairs}: the machine has {pole_pairs} pole pair(s) ({} poles); nothing was written\n  = hint: `--window all` for the whole armature, or at most {pole_pairs}",
+                    visible(design),
+                    2 * pole_pairs
+                ),
+            },
             CliError::Archive { archive, message } => {
                 let lines: Vec<_> = crate::base::visible::visible_lines(message).collect();
                 writeln!(f, "error: archive {}: {}", shown(archive), lines.join("\n"))

@@ -14,11 +14,12 @@ use std::path::{Path, PathBuf};
 use clap::Args;
 
 use super::Outcome;
-use super::error::{CliError, shown};
+use super::error::{CliError, WindowOutOfRange, shown};
 use super::load::load_design;
 use super::output::{SET_LIST, print_stdout, replace_folder, write_atomic};
 use crate::base::visible::visible;
 use crate::checks::{Checked, refusal_line};
+use crate::design::Design;
 use crate::features::armature_test::{TestOptions, expected};
 use crate::layout::{Paper, SheetOptions, Window, draw_page, sheet_pages};
 use crate::render::json::report_json;
@@ -57,17 +58,37 @@ fn parse_paper(s: &str) -> Result<Paper, String> {
 pub struct WindowArgs {
     /// Diagram window: `auto` (every coil, continued over as many sheets as the paper
     /// needs), `all` (the whole armature in one view, refused where the paper cannot hold it
-    /// legibly), or a number of whole pole pairs to show.
+    /// legibly), or a number of whole pole pairs to show (at most the machine's).
     #[arg(long, default_value = "auto", value_parser = parse_window, value_name = "auto|all|PAIRS")]
     pub window: WindowArg,
-    /// First slot at the left edge of a window.
+    /// First slot at the left edge of a window (1 to the armature's slots).
     #[arg(long, default_value_t = 1, value_name = "SLOT", value_parser = clap::value_parser!(u32).range(1..))]
     pub window_start: u32,
 }
 
 impl WindowArgs {
-    fn window(&self) -> Window {
-        match self.window {
+    /// The window on `design` (read from `file`): refused, before anything is written, when
+    /// the first slot lies beyond the last slot or the pole pairs exceed the machine's.
+    fn window(&self, design: &Design, file: &Path) -> Result<Window, CliError> {
+        let refuse = |why| CliError::Window {
+            design: file.display().to_string(),
+            why,
+        };
+        if self.window_start > design.slots {
+            return Err(refuse(WindowOutOfRange::Start {
+                start: self.window_start,
+                slots: design.slots,
+            }));
+        }
+        if let WindowArg::Pairs(pairs) = self.window
+            && pairs > design.pole_pairs()
+        {
+            return Err(refuse(WindowOutOfRange::Pairs {
+                pairs,
+                pole_pairs: design.pole_pairs(),
+            }));
+        }
+        Ok(match self.window {
             WindowArg::Auto if self.window_start == 1 => Window::Auto,
             WindowArg::Auto => Window::PolePairs {
                 pairs: 1,
@@ -78,7 +99,7 @@ impl WindowArgs {
                 pairs,
                 first_slot: self.window_start,
             },
-        }
+        })
     }
 }
 
@@ -158,7 +179,7 @@ pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
         &test,
         &SheetOptions {
             paper: a.paper,
-            window: a.window.window(),
+            window: a.window.window(&checked.design, &a.design)?,
             version: env!("CARGO_PKG_VERSION").to_string(),
         },
     )
@@ -232,7 +253,10 @@ fn is_stale_sheet(name: &OsStr, count: usize) -> bool {
 /// Runs `armsheet draw`.
 pub fn draw(a: &DrawArgs) -> Result<Outcome, CliError> {
     let checked = load_design(&a.design)?;
-    let svg = svg::page_svg(&draw_page(&checked, a.window.window()));
+    let svg = svg::page_svg(&draw_page(
+        &checked,
+        a.window.window(&checked.design, &a.design)?,
+    ));
     let path = a.out.clone().unwrap_or_else(|| {
         PathBuf::from("out")
             .join(stem(&a.design))
