@@ -317,3 +317,37 @@ fn a_multiplex_winding_says_where_the_within_winding_readings_start() {
         "{words}"
     );
 }
+
+#[test]
+fn the_stated_unit_is_the_unit_of_the_readings_table() {
+    // The readings are written in the test's one prefixed unit (hoist-lap: milliohms); the
+    // "Unit:" line of the first test sheet names that unit, as the table's heads do.
+    for name in support::DEMOS {
+        let (_, test, pages) = set(&support::demo(name), Paper::A4);
+        let unit = match test.unit {
+            armsheet::features::armature_test::Unit::Ohm => {
+                format!("{}\u{3a9}", test.reading_prefix().symbol())
+            }
+            armsheet::features::armature_test::Unit::Coil => "coil".to_string(),
+        };
+        let first = pages.iter().find(|p| p.kind == PageKind::Tests).unwrap();
+        let words = group_text(first, "readings-unit");
+        assert!(
+            words.contains(&format!("Unit: {unit} (")),
+            "{name}: {unit}: {words}"
+        );
+        let table = all_groups(first)
+            .into_iter()
+            .find(|g| has_class(g, "readings"))
+            .unwrap();
+        let mut heads = Vec::new();
+        texts_of(&table.children, &mut heads);
+        assert!(heads.contains(&unit), "{name}: {heads:?}");
+    }
+    let (_, test, _) = set(&support::demo("hoist-lap"), Paper::A4);
+    assert_eq!(
+        test.reading_prefix().symbol(),
+        "m",
+        "hoist-lap reads milliohms"
+    );
+}
