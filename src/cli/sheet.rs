@@ -142,7 +142,8 @@ pub struct DrawArgs {
 pub(crate) const SHEET_HELP: &str = concat!(
     "\
 Writes into DIR/<design-stem>/: sheet-1.svg (developed diagram, title block, winding data,
-legend, caution), sheet-2.svg … (the commutator end view, the winding order with check-off
+legend, caution), sheet-2.svg … (the commutator end view, the coil-making sheet when the
+design has the rating's coil making, the winding order with check-off
 boxes, the connection table with the winding sequence, the equalizer table, the test and
 sign-off sheets with the expected bar-to-bar readings of `armsheet test` and boxes for the
 measured ones and, when sheet 1 cannot hold it all, the winding data in full; each page's

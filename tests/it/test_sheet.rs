@@ -351,3 +351,36 @@ fn the_stated_unit_is_the_unit_of_the_readings_table() {
         "hoist-lap reads milliohms"
     );
 }
+
+#[test]
+fn the_readme_lists_every_kind_of_sheet_page() {
+    // The README's list of `data-page` kinds is the set the demos' sheet sets carry (the
+    // coil-making sheet among them), and its description of the set names the coil making.
+    let readme = include_str!("../../README.md");
+    let line = readme
+        .lines()
+        .find(|l| l.contains("names its kind in the attribute `data-page`:"))
+        .expect("the README's sheet row");
+    let listed: std::collections::BTreeSet<&str> = line
+        .split("`data-page`:")
+        .nth(1)
+        .unwrap()
+        .split('`')
+        .skip(1)
+        .step_by(2)
+        .collect();
+    let mut drawn = std::collections::BTreeSet::new();
+    for name in support::DEMOS {
+        let (_, _, pages) = set(&support::demo(name), Paper::A4);
+        for p in &pages {
+            drawn.insert(p.kind.data_page());
+        }
+    }
+    assert!(drawn.contains("coil-making"), "{drawn:?}");
+    assert_eq!(listed, drawn);
+    let row = readme
+        .lines()
+        .find(|l| l.starts_with("| `armsheet sheet DESIGN"))
+        .expect("the sheet command's row");
+    assert!(row.contains("coil-making sheet"), "{row}");
+}
