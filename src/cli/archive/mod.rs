@@ -396,9 +396,7 @@ fn add(a: &AddArgs) -> Result<Outcome, CliError> {
             let _ = writeln!(said, "readings: {v}");
         }
         if refused {
-            said.push_str(
-                "note: check refuses this design (run `armsheet check` on it); it is archived as wound\n",
-            );
+            said.push_str(REFUSED_NOTE);
         }
         print_stdout(&said)?;
     }
@@ -610,6 +608,10 @@ fn export(a: &ExportArgs) -> Result<Outcome, CliError> {
     Ok(Outcome::Passed)
 }
 
+/// What `archive add` and `archive import` say under a job whose design `check` refuses.
+const REFUSED_NOTE: &str =
+    "note: check refuses this design (run `armsheet check` on it); it is archived as wound\n";
+
 fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
     let at = archive_location(&a.common);
     let entries = std::fs::read_dir(&a.folder).map_err(|source| CliError::Read {
@@ -640,7 +642,8 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
         }
     }
     let mut records = Vec::new();
-    let mut refused = false;
+    // Whether check refuses each record's design, in the order of `records`.
+    let mut refused = Vec::new();
     let mut used = vec![false; cards.len()];
     for (name, t) in designs {
         let id = parse_design(&t, &name)?.job.id;
@@ -658,7 +661,7 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
             Vec::new(),
             Vec::new(),
         )?;
-        refused |= bad;
+        refused.push(bad);
         records.push(r);
     }
     for ((name, t, card), _) in cards.iter().zip(&used).filter(|(_, u)| !**u) {
@@ -687,7 +690,7 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
             &k.checked.design,
             &design_header(card, k, env!("CARGO_PKG_VERSION")),
         );
-        let (r, _) = record_of(
+        let (r, bad) = record_of(
             &format!("{name} (identified)"),
             design,
             Some(t.clone()),
@@ -695,6 +698,7 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
             Vec::new(),
             Vec::new(),
         )?;
+        refused.push(bad);
         records.push(r);
     }
     let mut store = open(&at, Create::Yes)?;
@@ -703,18 +707,22 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
         let list: Vec<_> = records
             .iter()
             .zip(&revisions)
-            .map(|(r, n)| serde_json::json!({"job": r.job.job, "revision": n, "design": r.design_name}))
+            .zip(&refused)
+            .map(|((r, n), bad)| serde_json::json!({"job": r.job.job, "revision": n, "design": r.design_name, "refused_by_check": bad}))
             .collect();
         print_stdout(&format!("{:#}\n", serde_json::json!({ "added": list })))?;
     } else {
         let mut s = String::new();
-        for (r, n) in records.iter().zip(&revisions) {
+        for ((r, n), bad) in records.iter().zip(&revisions).zip(&refused) {
             let _ = writeln!(
                 s,
                 "archived job {} revision {n} from {}",
                 visible(&r.job.job),
                 visible(&r.design_name)
             );
+            if *bad {
+                s.push_str(REFUSED_NOTE);
+            }
         }
         let _ = writeln!(
             s,
@@ -724,7 +732,7 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
         );
         print_stdout(&s)?;
     }
-    Ok(if refused {
+    Ok(if refused.contains(&true) {
         Outcome::ChecksFail
     } else {
         Outcome::Passed
