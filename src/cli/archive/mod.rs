@@ -703,40 +703,57 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
     }
     let mut store = open(&at, Create::Yes)?;
     let revisions = store.add(&records).map_err(|e| fail(&at, e))?;
-    if a.common.json {
-        let list: Vec<_> = records
-            .iter()
-            .zip(&revisions)
-            .zip(&refused)
-            .map(|((r, n), bad)| serde_json::json!({"job": r.job.job, "revision": n, "design": r.design_name, "refused_by_check": bad}))
-            .collect();
-        print_stdout(&format!("{:#}\n", serde_json::json!({ "added": list })))?;
-    } else {
-        let mut s = String::new();
-        for ((r, n), bad) in records.iter().zip(&revisions).zip(&refused) {
-            let _ = writeln!(
-                s,
-                "archived job {} revision {n} from {}",
-                visible(&r.job.job),
-                visible(&r.design_name)
-            );
-            if *bad {
-                s.push_str(REFUSED_NOTE);
-            }
-        }
-        let _ = writeln!(
-            s,
-            "{} job(s) added to {}",
-            records.len(),
-            shown(&at.shown())
-        );
-        print_stdout(&s)?;
-    }
+    print_stdout(&imported(
+        &records,
+        &revisions,
+        &refused,
+        &at,
+        a.common.json,
+    ))?;
     Ok(if refused.contains(&true) {
         Outcome::ChecksFail
     } else {
         Outcome::Passed
     })
+}
+
+/// What `archive import` says: each job added, with its revision, under it the note when
+/// `check` refuses its design (`refused`, in the order of `records`); as JSON with `json`.
+fn imported(
+    records: &[Record],
+    revisions: &[u32],
+    refused: &[bool],
+    at: &Location,
+    json: bool,
+) -> String {
+    if json {
+        let list: Vec<_> = records
+            .iter()
+            .zip(revisions)
+            .zip(refused)
+            .map(|((r, n), bad)| serde_json::json!({"job": r.job.job, "revision": n, "design": r.design_name, "refused_by_check": bad}))
+            .collect();
+        return format!("{:#}\n", serde_json::json!({ "added": list }));
+    }
+    let mut s = String::new();
+    for ((r, n), bad) in records.iter().zip(revisions).zip(refused) {
+        let _ = writeln!(
+            s,
+            "archived job {} revision {n} from {}",
+            visible(&r.job.job),
+            visible(&r.design_name)
+        );
+        if *bad {
+            s.push_str(REFUSED_NOTE);
+        }
+    }
+    let _ = writeln!(
+        s,
+        "{} job(s) added to {}",
+        records.len(),
+        shown(&at.shown())
+    );
+    s
 }
 
 fn backup(a: &BackupArgs) -> Result<Outcome, CliError> {
