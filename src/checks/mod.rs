@@ -45,11 +45,40 @@ pub struct Checked {
     pub symmetric: bool,
 }
 
+/// The lead every output of a design `check` refuses carries (the sheets' band, `draw`'s
+/// page, `test`'s report, plot and JSON, the `wrote` lines of `sheet` and `draw`): written once.
+pub const NOT_FOR_WINDING: &str = "NOT FOR WINDING: design fails checks";
+
 impl Checked {
     /// True when an error-level rule failed (`check` exits 1).
     pub fn has_errors(&self) -> bool {
         has_errors(&self.findings)
     }
+
+    /// The failed error-level checks, `id: message`, in report order: what every output of a
+    /// design `check` refuses names after [`NOT_FOR_WINDING`]. Empty when `check` passes it.
+    pub fn failures(&self) -> Vec<String> {
+        self.findings
+            .iter()
+            .filter(|f| f.is_failure())
+            .map(|f| format!("{}: {}", f.id, f.message))
+            .collect()
+    }
+
+    /// The ids of the failed error-level checks, in report order.
+    pub fn failed_ids(&self) -> Vec<String> {
+        self.findings
+            .iter()
+            .filter(|f| f.is_failure())
+            .map(|f| f.id.clone())
+            .collect()
+    }
+}
+
+/// The one line a text output of a refused design says (`None` when `check` passes it):
+/// [`NOT_FOR_WINDING`], the exit code and the failed checks, `id: message`.
+pub fn refusal_line(failures: &[String]) -> Option<String> {
+    (!failures.is_empty()).then(|| format!("{NOT_FOR_WINDING} (exit 1): {}", failures.join("; ")))
 }
 
 /// Traces, rates and checks `design`, each exactly once.

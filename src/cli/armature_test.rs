@@ -114,7 +114,8 @@ explain the readings (open coil, shorted coil, high-resistance joint of one lead
 joint at a bar, bar cut off, shorted bars, crossed leads). readings.svg plots the readings round the commutator.
 With --readings the exit is 1 when the readings are not healthy (outside --tolerance of the
 healthy pattern), so a shop script can tell; 0 when they are healthy and the design's checks
-pass; 2 for a readings file or an option that cannot be taken (located, nothing written).
+pass; 1 when check refuses the design, whatever the readings: every output (the report, the
+JSON's not_for_winding, the plot) says so first, with the failed checks; 2 for a readings file or an option that cannot be taken (located, nothing written).
 --current is taken from 0.01 to 1000 A, --temperature from -50 to 250 C, --tolerance above 0
 and at most 100 %; a reading from 1e-9 to 1e9 in the file's unit, or 0.
 -o DIR writes its four files one by one into DIR/<design-stem>/ and touches nothing else there
@@ -150,19 +151,24 @@ pub fn test(a: &TestArgs) -> Result<Outcome, CliError> {
         .map_err(located)?;
     let t = armature_test(&checked.design, &checked.winding, &options, text).map_err(located)?;
     let name = shown(&a.design);
+    // A design `check` refuses is said to be refused in every output, whatever the readings.
+    let failures = checked.failures();
     match &a.out {
         Some(out) => {
             let dir = out.join(stem(&a.design));
             let files = vec![
                 (
                     "test.txt".to_string(),
-                    render_test_text(&t, &name).into_bytes(),
+                    render_test_text(&t, &name, &failures).into_bytes(),
                 ),
-                ("test.json".to_string(), test_json_string(&t).into_bytes()),
+                (
+                    "test.json".to_string(),
+                    test_json_string(&t, &failures).into_bytes(),
+                ),
                 ("readings.csv".to_string(), readings_csv(&t).into_bytes()),
                 (
                     "readings.svg".to_string(),
-                    page_svg(&readings_plot_page(&t, &name)).into_bytes(),
+                    page_svg(&readings_plot_page(&t, &name, &failures)).into_bytes(),
                 ),
             ];
             write_own_files(&dir, &files, "test -o")?;
@@ -172,8 +178,8 @@ pub fn test(a: &TestArgs) -> Result<Outcome, CliError> {
             }
             print_stdout(&said)?;
         }
-        None if a.json => write_stdout(|o| write_test_json(&t, o))?,
-        None => print_stdout(&render_test_text(&t, &name))?,
+        None if a.json => write_stdout(|o| write_test_json(&t, &failures, o))?,
+        None => print_stdout(&render_test_text(&t, &name, &failures))?,
     }
     let unhealthy = t.location.as_ref().is_some_and(|l| !l.healthy);
     Ok(if unhealthy {

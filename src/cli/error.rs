@@ -168,6 +168,13 @@ pub enum CliError {
         /// Why.
         why: crate::layout::WholeRefused,
     },
+    /// A diagram window option out of range for the design (nothing was written).
+    Window {
+        /// The design file, as given.
+        design: String,
+        /// What is out of range.
+        why: WindowOutOfRange,
+    },
     /// The shop archive cannot be used, or refuses what was asked (nothing was written).
     Archive {
         /// The archive, as given (or the file the message is about).
@@ -182,6 +189,54 @@ pub enum CliError {
         /// What the PDF writer said.
         message: String,
     },
+}
+
+/// A diagram window option the design cannot take.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum WindowOutOfRange {
+    /// `--window-start` beyond the last slot.
+    Start {
+        /// The slot asked for.
+        start: u32,
+        /// The armature's slots.
+        slots: u32,
+    },
+    /// `--window` of more pole pairs than the machine has.
+    Pairs {
+        /// The pole pairs asked for.
+        pairs: u32,
+        /// The machine's pole pairs.
+        pole_pairs: u32,
+    },
+}
+
+/// Why the whole armature cannot be drawn in one view on `paper`.
+fn whole_refused_reason(why: &crate::layout::WholeRefused, paper: &str) -> String {
+    match why {
+        crate::layout::WholeRefused::TooWide { slots, fit } => format!(
+            "its {slots} slots need a wider sheet: {paper} holds {fit} at the legibility floor"
+        ),
+        crate::layout::WholeRefused::Seam { lines } => format!(
+            "{lines} lines cross its seam, more than the margins of {paper} can label at the legibility floor"
+        ),
+    }
+}
+
+impl fmt::Display for WindowOutOfRange {
+    /// The option, why it is out of range, and the hint with the valid range.
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match *self {
+            WindowOutOfRange::Start { start, slots } => write!(
+                f,
+                "--window-start {start}: the armature has {slots} slots; nothing was written\n  = hint: a first slot from 1 to {slots} (1..={slots})"
+            ),
+            WindowOutOfRange::Pairs { pairs, pole_pairs } => write!(
+                f,
+                "--window {pairs}: the machine has {pole_pairs} pole pair(s) ({} poles); nothing was written\n  = hint: `--window all` for the whole armature, or at most {pole_pairs}",
+                2 * pole_pairs
+            ),
+        }
+    }
 }
 
 impl CliError {
@@ -314,19 +369,15 @@ impl fmt::Display for CliError {
                 visible(design)
             ),
             CliError::WholeRefused { design, paper, why } => {
-                let reason = match why {
-                    crate::layout::WholeRefused::TooWide { slots, fit } => format!(
-                        "its {slots} slots need a wider sheet: {paper} holds {fit} at the legibility floor"
-                    ),
-                    crate::layout::WholeRefused::Seam { lines } => format!(
-                        "{lines} lines cross its seam, more than the margins of {paper} can label at the legibility floor"
-                    ),
-                };
+                let reason = whole_refused_reason(why, paper);
                 writeln!(
                     f,
                     "error: {}: --window all: the whole armature cannot be drawn in one view on {paper}: {reason}; nothing was written\n  = hint: leave --window out (the diagram then continues over as many sheets as it needs, every coil drawn), or try a larger --paper",
                     visible(design)
                 )
+            }
+            CliError::Window { design, why } => {
+                writeln!(f, "error: {}: {why}", visible(design))
             }
             CliError::Archive { archive, message } => {
                 let lines: Vec<_> = crate::base::visible::visible_lines(message).collect();

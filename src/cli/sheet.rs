@@ -14,9 +14,12 @@ use std::path::{Path, PathBuf};
 use clap::Args;
 
 use super::Outcome;
-use super::error::{CliError, shown};
+use super::error::{CliError, WindowOutOfRange, shown};
 use super::load::load_design;
 use super::output::{SET_LIST, print_stdout, replace_folder, write_atomic};
+use crate::base::visible::visible;
+use crate::checks::{Checked, refusal_line};
+use crate::design::Design;
 use crate::features::armature_test::{TestOptions, expected};
 use crate::layout::{Paper, SheetOptions, Window, draw_page, sheet_pages};
 use crate::render::json::report_json;
@@ -55,17 +58,37 @@ fn parse_paper(s: &str) -> Result<Paper, String> {
 pub struct WindowArgs {
     /// Diagram window: `auto` (every coil, continued over as many sheets as the paper
     /// needs), `all` (the whole armature in one view, refused where the paper cannot hold it
-    /// legibly), or a number of whole pole pairs to show.
+    /// legibly), or a number of whole pole pairs to show (at most the machine's).
     #[arg(long, default_value = "auto", value_parser = parse_window, value_name = "auto|all|PAIRS")]
     pub window: WindowArg,
-    /// First slot at the left edge of a window.
+    /// First slot at the left edge of a window (1 to the armature's slots).
     #[arg(long, default_value_t = 1, value_name = "SLOT", value_parser = clap::value_parser!(u32).range(1..))]
     pub window_start: u32,
 }
 
 impl WindowArgs {
-    fn window(&self) -> Window {
-        match self.window {
+    /// The window on `design` (read from `file`): refused, before anything is written, when
+    /// the first slot lies beyond the last slot or the pole pairs exceed the machine's.
+    fn window(&self, design: &Design, file: &Path) -> Result<Window, CliError> {
+        let refuse = |why| CliError::Window {
+            design: file.display().to_string(),
+            why,
+        };
+        if self.window_start > design.slots {
+            return Err(refuse(WindowOutOfRange::Start {
+                start: self.window_start,
+                slots: design.slots,
+            }));
+        }
+        if let WindowArg::Pairs(pairs) = self.window
+            && pairs > design.pole_pairs()
+        {
+            return Err(refuse(WindowOutOfRange::Pairs {
+                pairs,
+                pole_pairs: design.pole_pairs(),
+            }));
+        }
+        Ok(match self.window {
             WindowArg::Auto if self.window_start == 1 => Window::Auto,
             WindowArg::Auto => Window::PolePairs {
                 pairs: 1,
@@ -76,7 +99,7 @@ impl WindowArgs {
                 pairs,
                 first_slot: self.window_start,
             },
-        }
+        })
     }
 }
 
@@ -119,7 +142,8 @@ pub struct DrawArgs {
 pub(crate) const SHEET_HELP: &str = concat!(
     "\
 Writes into DIR/<design-stem>/: sheet-1.svg (developed diagram, title block, winding data,
-legend, caution), sheet-2.svg … (the commutator end view, the winding order with check-off
+legend, caution), sheet-2.svg … (the commutator end view, the coil-making sheet when the
+design has the rating's coil making, the winding order with check-off
 boxes, the connection table with the winding sequence, the equalizer table, the test and
 sign-off sheets with the expected bar-to-bar readings of `armsheet test` and boxes for the
 measured ones and, when sheet 1 cannot hold it all, the winding data in full; each page's
@@ -127,7 +151,8 @@ root <svg> names itself in data-page), connections.csv (one record per coil posi
 belong to, once), report.json (the `check --json` object), with --pdf sheets.pdf, and
 sheet-set.txt (the list of the set's own files). The README's \"Output files\" gives each format.
 Sheets are sized in mm and print at true scale. A design that fails a check is still drawn,
-under a NOT FOR WINDING band.
+under a NOT FOR WINDING band naming the failed checks, said again after the `wrote` lines
+(exit 1); `draw` marks its page and says it the same way.
 The set is written whole or not at all: it is made in a temporary folder beside DIR/<design-stem>
 and then swapped into place. A file of the older set that the new one lacks (sheets.pdf of an
 earlier --pdf run) goes; every file the older set's list does not name (`test -o` files, notes)
@@ -155,7 +180,7 @@ pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
         &test,
         &SheetOptions {
             paper: a.paper,
-            window: a.window.window(),
+            window: a.window.window(&checked.design, &a.design)?,
             version: env!("CARGO_PKG_VERSION").to_string(),
         },
     )
@@ -210,6 +235,7 @@ pub fn sheet(a: &SheetArgs) -> Result<Outcome, CliError> {
     for p in removed {
         let _ = writeln!(said, "removed stale {}", shown(&p));
     }
+    refused_line(&mut said, &checked);
     print_stdout(&said)?;
     Ok(Outcome::of(&checked.findings))
 }
@@ -228,7 +254,10 @@ fn is_stale_sheet(name: &OsStr, count: usize) -> bool {
 /// Runs `armsheet draw`.
 pub fn draw(a: &DrawArgs) -> Result<Outcome, CliError> {
     let checked = load_design(&a.design)?;
-    let svg = svg::page_svg(&draw_page(&checked, a.window.window()));
+    let svg = svg::page_svg(&draw_page(
+        &checked,
+        a.window.window(&checked.design, &a.design)?,
+    ));
     let path = a.out.clone().unwrap_or_else(|| {
         PathBuf::from("out")
             .join(stem(&a.design))
@@ -250,6 +279,16 @@ pub fn draw(a: &DrawArgs) -> Result<Outcome, CliError> {
         _ => None,
     };
     write_atomic(&path, svg.as_bytes())?;
-    print_stdout(&format!("wrote {}\n", shown(&path)))?;
+    let mut said = format!("wrote {}\n", shown(&path));
+    refused_line(&mut said, &checked);
+    print_stdout(&said)?;
     Ok(Outcome::of(&checked.findings))
+}
+
+/// After the `wrote` lines of a design `check` refuses: the line its pages carry, so the exit 1
+/// is never silent.
+fn refused_line(said: &mut String, checked: &Checked) {
+    if let Some(line) = refusal_line(&checked.failures()) {
+        let _ = writeln!(said, "{}", visible(&line));
+    }
 }

@@ -15,6 +15,8 @@
 use std::f64::consts::PI;
 
 use super::font::{Weight, wrap_text};
+use super::sheet::title::failure_band;
+use super::sheet::{BAND_HEIGHT, Rect as SheetRect};
 use super::tree::{Circle, Group, Page, PageKind, PageUnit, Path, Rect, Text};
 use crate::base::caution::TEST_CAUTIONS;
 use crate::base::number::{Prefix, fmt_fixed, fmt_prefixed, fmt_sig};
@@ -54,8 +56,9 @@ impl Plot {
     }
 }
 
-/// The plot page of `t`, titled `title`.
-pub fn readings_plot_page(t: &ArmatureTest, title: &str) -> Page {
+/// The plot page of `t`, titled `title`; `failures` are the design's failed error-level checks
+/// (`Checked::failures`): when any, the page carries the sheets' "not for winding" band.
+pub fn readings_plot_page(t: &ArmatureTest, title: &str, failures: &[String]) -> Page {
     let rows = t.judged();
     let plot = Plot {
         c: f64::from(t.bars),
@@ -93,7 +96,7 @@ pub fn readings_plot_page(t: &ArmatureTest, title: &str) -> Page {
         measured_and_suspects(&mut g, t, &plot);
         legend.push(("conn k2", "measured (fitted scale)", "d2"));
     }
-    Page {
+    let mut page = Page {
         kind: PageKind::TestPlot,
         title: title.to_string(),
         document: title.to_string(),
@@ -114,7 +117,17 @@ pub fn readings_plot_page(t: &ArmatureTest, title: &str) -> Page {
             g.into(),
             side_notes(t, &legend).into(),
         ],
+    };
+    if !failures.is_empty() {
+        let band = SheetRect {
+            x: 6.0,
+            y: 1.0,
+            w: W - 12.0,
+            h: BAND_HEIGHT,
+        };
+        page.children.push(failure_band(&band, failures).into());
     }
+    page
 }
 
 /// The measured readings at the locator's fitted scale, a line broken where a pair was not

@@ -8,6 +8,8 @@ use crate::checks::Checked;
 use super::developed::{
     DiagramOptions, Window, layout_developed, nodes::diagram_group, resolve_view,
 };
+use super::sheet::title::failure_band;
+use super::sheet::{BAND_HEIGHT, Rect as SheetRect};
 use super::tree::{Page, PageKind, PageUnit, Rect, Text};
 
 /// Screen pixels to the millimetre of the screen page.
@@ -36,7 +38,15 @@ pub fn draw_page(checked: &Checked, window: Window) -> Page {
         },
     );
     let title = job_title(design);
-    let mut heading = Text::new(11.0, 5.5, 3.2, "b", title.clone());
+    // A design `check` refuses carries the sheets' band across the top, the page grown by it.
+    let failures = checked.failures();
+    let top = if failures.is_empty() {
+        0.0
+    } else {
+        BAND_HEIGHT
+    };
+    let height = height + top;
+    let mut heading = Text::new(11.0, top + 5.5, 3.2, "b", title.clone());
     heading.class_first = true;
     let mut page = Page {
         kind: PageKind::Screen,
@@ -49,9 +59,18 @@ pub fn draw_page(checked: &Checked, window: Window) -> Page {
         children: vec![
             Rect::filled("#fff", 0.0, 0.0, width, height).into(),
             heading.into(),
-            diagram_group(&diagram, 0.0, 8.0).into(),
+            diagram_group(&diagram, 0.0, top + 8.0).into(),
         ],
     };
+    if !failures.is_empty() {
+        let band = SheetRect {
+            x: 0.0,
+            y: 0.0,
+            w: width,
+            h: BAND_HEIGHT,
+        };
+        page.children.push(failure_band(&band, &failures).into());
+    }
     // The page grows to hold its lowest baseline (the brush names under narrow brushes
     // stand below the diagram box when no equalizer band follows).
     let lowest = page

@@ -11,6 +11,7 @@ use serde::Serialize;
 use super::csv::{Cell, csv_file};
 use crate::base::caution::TEST_CAUTIONS;
 use crate::base::number::{Prefix, decimals_for, fmt_fixed, fmt_prefixed, fmt_sig, round_sig};
+use crate::checks::{NOT_FOR_WINDING, refusal_line};
 use crate::features::armature_test::{
     ArmatureTest, DropFeed, ElementsPattern, Fault, Location, Pattern, Reading, ReadingKind,
     ReadingValue, Unit,
@@ -156,9 +157,15 @@ pub fn elements_words(e: &ElementsPattern, t: &ArmatureTest) -> String {
 /// The text report: the verdict and the ranked faults first (with measured readings), then
 /// the expected readings, the drop test, the measured readings against the expected, and the
 /// limits and cautions of the test.
-pub fn render_test_text(t: &ArmatureTest, design_name: &str) -> String {
+///
+/// `failures` are the design's failed error-level checks (`Checked::failures`): when any, the
+/// report says first that `check` refuses the design and the exit is 1, whatever the readings.
+pub fn render_test_text(t: &ArmatureTest, design_name: &str, failures: &[String]) -> String {
     let mut out = String::new();
     let _ = writeln!(out, "Armature test: {design_name}");
+    if let Some(line) = refusal_line(failures) {
+        let _ = writeln!(out, "{line}");
+    }
     let _ = writeln!(
         out,
         "winding: {} {}, {} bars, {} poles, {} closed winding(s){}",
@@ -176,7 +183,7 @@ pub fn render_test_text(t: &ArmatureTest, design_name: &str) -> String {
     let _ = writeln!(out, "unit: {}", unit_words(t));
     if let Some(l) = &t.location {
         let _ = writeln!(out);
-        locator_text(&mut out, l, t);
+        locator_text(&mut out, l, t, !failures.is_empty());
     }
     let _ = writeln!(out);
     let (p, unit) = (t.reading_prefix(), reading_unit(t));
@@ -286,12 +293,18 @@ pub fn measured_unit_words(t: &ArmatureTest, l: &Location) -> String {
 
 /// The verdict, first: healthy or not (and the exit code), what was compared, the unit the
 /// readings were given in, and the ranked faults.
-fn locator_text(out: &mut String, l: &Location, t: &ArmatureTest) {
+fn locator_text(out: &mut String, l: &Location, t: &ArmatureTest, refused: bool) {
     if l.healthy {
         let _ = writeln!(
             out,
             "VERDICT: HEALTHY: every reading is within tolerance of the healthy pattern"
         );
+        if refused {
+            let _ = writeln!(
+                out,
+                "  the exit is 1 all the same: check refuses the design ({NOT_FOR_WINDING}, above)"
+            );
+        }
     } else if l.all_zero {
         let _ = writeln!(
             out,
@@ -540,6 +553,15 @@ struct DropJson {
     feeds: Vec<FeedJson>,
 }
 
+/// What `check` refuses the design for: [`NOT_FOR_WINDING`], the exit code and the failed
+/// error-level checks, `id: message`.
+#[derive(Serialize)]
+struct RefusedJson {
+    exit: u8,
+    failed_checks: Vec<String>,
+    says: &'static str,
+}
+
 #[derive(Serialize)]
 struct TestJson {
     cannot_see: [&'static str; 3],
@@ -549,6 +571,9 @@ struct TestJson {
     /// A frog-leg's bar-to-bar pattern in words; absent for lap and wave.
     #[serde(skip_serializing_if = "Option::is_none")]
     elements_pattern: Option<String>,
+    /// Present when `check` refuses the design: the exit is 1 whatever the readings.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    not_for_winding: Option<RefusedJson>,
     #[serde(flatten)]
     location: Option<LocationJson>,
     open_pairs: usize,
@@ -560,7 +585,7 @@ struct TestJson {
     unit: &'static str,
 }
 
-fn test_json(t: &ArmatureTest) -> TestJson {
+fn test_json(t: &ArmatureTest, failures: &[String]) -> TestJson {
     let expected_unit = if t.unit == Unit::Ohm { "mV" } else { "A*coil" };
     TestJson {
         cannot_see: UNSEEN,
@@ -592,6 +617,11 @@ fn test_json(t: &ArmatureTest) -> TestJson {
                 })
                 .collect(),
         },
+        not_for_winding: (!failures.is_empty()).then(|| RefusedJson {
+            exit: 1,
+            failed_checks: failures.to_vec(),
+            says: NOT_FOR_WINDING,
+        }),
         location: t.location.as_ref().map(location_json),
         open_pairs: t.open_pairs(),
         pattern: pattern_words(t.pattern),
@@ -603,16 +633,21 @@ fn test_json(t: &ArmatureTest) -> TestJson {
     }
 }
 
-/// Writes the JSON object with a final newline.
-pub fn write_test_json<W: Write>(t: &ArmatureTest, mut out: W) -> io::Result<()> {
-    serde_json::to_writer_pretty(&mut out, &test_json(t))?;
+/// Writes the JSON object with a final newline; `failures` as for [`render_test_text`]
+/// (`not_for_winding`, present when `check` refuses the design).
+pub fn write_test_json<W: Write>(
+    t: &ArmatureTest,
+    failures: &[String],
+    mut out: W,
+) -> io::Result<()> {
+    serde_json::to_writer_pretty(&mut out, &test_json(t, failures))?;
     out.write_all(b"\n")
 }
 
 /// The JSON object as a string.
-pub fn test_json_string(t: &ArmatureTest) -> String {
+pub fn test_json_string(t: &ArmatureTest, failures: &[String]) -> String {
     let mut buf = Vec::new();
-    let _ = write_test_json(t, &mut buf);
+    let _ = write_test_json(t, failures, &mut buf);
     String::from_utf8(buf).unwrap_or_default()
 }
 

@@ -12,13 +12,24 @@ pub const READING_DIGITS: i32 = 6;
 /// resistance is known (`coil_ohm`), else units of one coil's resistance. The test report and
 /// the test sheet both print it.
 pub fn reading_unit_words(coil_ohm: Option<f64>, temperature_c: f64) -> String {
+    let unit = if coil_ohm.is_some() { "ohm" } else { "coil" };
+    format!("{unit} ({})", reading_unit_basis(coil_ohm, temperature_c))
+}
+
+/// What the readings' unit rests on, for a caller that states the unit itself (the test
+/// sheet, in its table's prefixed unit): one coil's resistance at the temperature, or why the
+/// readings are in units of one coil.
+pub fn reading_unit_basis(coil_ohm: Option<f64>, temperature_c: f64) -> String {
     match coil_ohm {
         Some(r) => format!(
-            "ohm (one coil {} ohm at {} C, IEC 60028 copper corrected by the 234.5 C rule)",
+            "one coil {} ohm at {} C, IEC 60028 copper corrected by the 234.5 C rule",
             fmt_sig(r, READING_DIGITS),
             fmt_fixed(temperature_c, 1)
         ),
-        None => "coil (no [conductor] data with a mean turn: readings are in units of one coil's resistance)".into(),
+        None => {
+            "no [conductor] data with a mean turn: readings are in units of one coil's resistance"
+                .into()
+        }
     }
 }
 

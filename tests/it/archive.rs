@@ -49,6 +49,7 @@ macro_rules! on_both_backends {
 
 on_both_backends!(
     a_card_identified_archived_and_found_again,
+    import_says_which_designs_check_refuses,
     near_matches_are_the_same_frame_with_another_throw_or_one_bar_off,
     adding_a_job_again_makes_a_revision_and_show_gives_the_history_in_order,
     eight_processes_adding_at_once_lose_nothing,
@@ -617,6 +618,39 @@ fn import_then_export_gives_back_every_design_and_the_identified_card(db: &Db) {
             .success()
     );
     assert_eq!(db.count(), 8);
+}
+
+fn import_says_which_designs_check_refuses(db: &Db) {
+    // `check` is the judge: an imported design it refuses is archived as wound, said under its
+    // line as `archive add` says it (and `refused_by_check` in the JSON), and the exit is 1.
+    let dir = &db.dir;
+    let folder = dir.join("refused-in");
+    std::fs::create_dir(&folder).unwrap();
+    std::fs::write(folder.join("hoist-lap.toml"), support::demo("hoist-lap")).unwrap();
+    let fail = support::demo("pump-wave") + "\n[limits]\nsegment_volts_avg_max = 1\n";
+    assert!(armsheet::check(support::design(&fail)).has_errors());
+    std::fs::write(folder.join("pump-fail.toml"), fail).unwrap();
+    let o = archive(db, &["import", folder.to_str().unwrap()]);
+    assert_eq!(o.status.code(), Some(1), "{}", text(&o.stderr));
+    let out = text(&o.stdout);
+    let lines: Vec<&str> = out.lines().collect();
+    let at = lines
+        .iter()
+        .position(|l| l.ends_with("pump-fail.toml"))
+        .unwrap_or_else(|| panic!("{out}"));
+    assert!(
+        lines[at + 1].starts_with("note: check refuses this design"),
+        "{out}"
+    );
+    assert_eq!(out.matches("note: check refuses").count(), 1, "{out}");
+    let o = archive(db, &["import", folder.to_str().unwrap(), "--json"]);
+    assert_eq!(o.status.code(), Some(1));
+    let v: Value = serde_json::from_slice(&o.stdout).unwrap();
+    let added = v["added"].as_array().unwrap();
+    for a in added {
+        let refused = a["design"].as_str().unwrap().contains("pump-fail");
+        assert_eq!(a["refused_by_check"], refused, "{v:#}");
+    }
 }
 
 fn bad_designs_and_cards_are_refused_located_with_nothing_written(db: &Db) {

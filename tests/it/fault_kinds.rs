@@ -176,7 +176,7 @@ fn one_open_coil_on_a_wave_is_the_headline() {
         "{top:?}"
     );
     assert!(top.explains, "{top:?}");
-    let text = armsheet::render::armature_test::render_test_text(&tested, "d");
+    let text = armsheet::render::armature_test::render_test_text(&tested, "d", &[]);
     assert!(
         text.contains("one fault explains every reading within tolerance: coil"),
         "{text}"
@@ -209,7 +209,7 @@ fn zero_readings_are_never_healthy() {
     let tested =
         armature_test(&c.design, &c.winding, &TestOptions::default(), Some(&zeros)).unwrap();
     assert!(
-        armsheet::render::armature_test::render_test_text(&tested, "d")
+        armsheet::render::armature_test::render_test_text(&tested, "d", &[])
             .contains("a shorted commutator")
     );
     // 19 zeros, 17 good readings: the zeros are the suspects, the good ones are not.
@@ -593,7 +593,7 @@ fn drop_test_millivolts_locate_the_fault() {
             "{name}: {top:?}"
         );
         assert!(top.explains, "{name}: {top:?}");
-        let text = armsheet::render::armature_test::render_test_text(&tested, name);
+        let text = armsheet::render::armature_test::render_test_text(&tested, name, &[]);
         assert!(text.contains("millivolts of the drop test"), "{text}");
     }
 }
@@ -621,7 +621,7 @@ fn a_drop_test_at_another_current_is_called_off_scale() {
     assert!(l.healthy, "the pattern itself is healthy");
     let s = l.off_scale.expect("off scale");
     assert!((s - 0.5).abs() < 1e-6, "{s}");
-    let text = armsheet::render::armature_test::render_test_text(&half, "hoist-lap");
+    let text = armsheet::render::armature_test::render_test_text(&half, "hoist-lap", &[]);
     assert!(
         text.contains("WARNING: the readings are 0.500 times"),
         "{text}"
@@ -646,7 +646,7 @@ fn a_coil_shorted_outright_and_its_bars_shorted_read_alike() {
     let kinds: Vec<FaultKind> = l.faults[..=l.alike].iter().map(|f| f.kind).collect();
     assert!(kinds.contains(&FaultKind::ShortedCoil), "{kinds:?}");
     assert!(kinds.contains(&FaultKind::ShortedBars), "{kinds:?}");
-    let text = armsheet::render::armature_test::render_test_text(&tested, "hoist-lap");
+    let text = armsheet::render::armature_test::render_test_text(&tested, "hoist-lap", &[]);
     assert!(text.contains("cannot tell them apart"), "{text}");
     assert!(!text.contains("one fault explains"), "{text}");
 }

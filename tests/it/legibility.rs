@@ -430,7 +430,7 @@ fn every_demo_readings_plot_meets_the_floor() {
         }
         assert!(cases.len() >= 4, "{name}: the readings cases must all run");
         for (label, t) in &cases {
-            let page = readings_plot_page(t, name);
+            let page = readings_plot_page(t, name, &[]);
             for b in breaches(&page) {
                 all.push(format!("{name} plot ({label}): {b}"));
             }

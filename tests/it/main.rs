@@ -47,6 +47,7 @@ mod rating_limits;
 mod rating_sheet;
 mod rating_snapshots;
 mod reactance;
+mod refused_outputs;
 mod render_only_formats;
 mod report_snapshots;
 mod rewind_cli;

@@ -194,3 +194,51 @@ fn fewer_sheets_than_last_time_removes_the_stale_ones() {
     assert!(!dir.join("o/sheet_lap/sheet-9.svg").exists());
     assert!(dir.join("o/sheet_lap/notes.txt").exists());
 }
+
+#[test]
+fn window_options_beyond_the_armature_are_refused_and_nothing_is_written() {
+    let dir = scratch("window-range");
+    let hoist = concat!(env!("CARGO_MANIFEST_DIR"), "/designs/hoist-lap.toml");
+    // The hoist demo: 36 slots, 4 poles (2 pole pairs).
+    for (args, says, hint) in [
+        (
+            &["--window", "1", "--window-start", "37"][..],
+            "--window-start 37: the armature has 36 slots; nothing was written",
+            "= hint: a first slot from 1 to 36 (1..=36)",
+        ),
+        (
+            &["--window-start", "37"][..],
+            "--window-start 37: the armature has 36 slots",
+            "(1..=36)",
+        ),
+        (
+            &["--window", "3"][..],
+            "--window 3: the machine has 2 pole pair(s) (4 poles); nothing was written",
+            "= hint: `--window all` for the whole armature, or at most 2",
+        ),
+    ] {
+        for (cmd, out_arg) in [("sheet", "o"), ("draw", "d.svg")] {
+            let mut a = vec![cmd, hoist, "-o", out_arg];
+            a.extend_from_slice(args);
+            let (code, out, err) = run(&a, &dir);
+            assert_eq!(code, 2, "{a:?}: {err}");
+            assert!(out.is_empty(), "{a:?}: {out}");
+            assert!(
+                err.starts_with(&format!("error: {hoist}: {says}")),
+                "{a:?}: {err}"
+            );
+            assert!(err.contains(hint), "{a:?}: {err}");
+            assert!(!dir.join(out_arg).exists(), "{a:?} wrote {out_arg}");
+        }
+    }
+    // The edges of the ranges are taken.
+    for args in [
+        &["--window", "2", "--window-start", "36"][..],
+        &["--window", "1", "--window-start", "1"][..],
+    ] {
+        let mut a = vec!["draw", hoist, "-o", "edge.svg"];
+        a.extend_from_slice(args);
+        let (code, _, err) = run(&a, &dir);
+        assert_eq!(code, 0, "{a:?}: {err}");
+    }
+}

@@ -317,3 +317,70 @@ fn a_multiplex_winding_says_where_the_within_winding_readings_start() {
         "{words}"
     );
 }
+
+#[test]
+fn the_stated_unit_is_the_unit_of_the_readings_table() {
+    // The readings are written in the test's one prefixed unit (hoist-lap: milliohms); the
+    // "Unit:" line of the first test sheet names that unit, as the table's heads do.
+    for name in support::DEMOS {
+        let (_, test, pages) = set(&support::demo(name), Paper::A4);
+        let unit = match test.unit {
+            armsheet::features::armature_test::Unit::Ohm => {
+                format!("{}\u{3a9}", test.reading_prefix().symbol())
+            }
+            armsheet::features::armature_test::Unit::Coil => "coil".to_string(),
+        };
+        let first = pages.iter().find(|p| p.kind == PageKind::Tests).unwrap();
+        let words = group_text(first, "readings-unit");
+        assert!(
+            words.contains(&format!("Unit: {unit} (")),
+            "{name}: {unit}: {words}"
+        );
+        let table = all_groups(first)
+            .into_iter()
+            .find(|g| has_class(g, "readings"))
+            .unwrap();
+        let mut heads = Vec::new();
+        texts_of(&table.children, &mut heads);
+        assert!(heads.contains(&unit), "{name}: {heads:?}");
+    }
+    let (_, test, _) = set(&support::demo("hoist-lap"), Paper::A4);
+    assert_eq!(
+        test.reading_prefix().symbol(),
+        "m",
+        "hoist-lap reads milliohms"
+    );
+}
+
+#[test]
+fn the_readme_lists_every_kind_of_sheet_page() {
+    // The README's list of `data-page` kinds is the set the demos' sheet sets carry (the
+    // coil-making sheet among them), and its description of the set names the coil making.
+    let readme = include_str!("../../README.md");
+    let line = readme
+        .lines()
+        .find(|l| l.contains("names its kind in the attribute `data-page`:"))
+        .expect("the README's sheet row");
+    let listed: std::collections::BTreeSet<&str> = line
+        .split("`data-page`:")
+        .nth(1)
+        .unwrap()
+        .split('`')
+        .skip(1)
+        .step_by(2)
+        .collect();
+    let mut drawn = std::collections::BTreeSet::new();
+    for name in support::DEMOS {
+        let (_, _, pages) = set(&support::demo(name), Paper::A4);
+        for p in &pages {
+            drawn.insert(p.kind.data_page());
+        }
+    }
+    assert!(drawn.contains("coil-making"), "{drawn:?}");
+    assert_eq!(listed, drawn);
+    let row = readme
+        .lines()
+        .find(|l| l.starts_with("| `armsheet sheet DESIGN"))
+        .expect("the sheet command's row");
+    assert!(row.contains("coil-making sheet"), "{row}");
+}

@@ -401,9 +401,7 @@ fn add(a: &AddArgs) -> Result<Outcome, CliError> {
             let _ = writeln!(said, "readings: {v}");
         }
         if refused {
-            said.push_str(
-                "note: check refuses this design (run `armsheet check` on it); it is archived as wound\n",
-            );
+            said.push_str(REFUSED_NOTE);
         }
         print_stdout(&said)?;
     }
@@ -639,6 +637,10 @@ fn export(a: &ExportArgs) -> Result<Outcome, CliError> {
     Ok(Outcome::Passed)
 }
 
+/// What `archive add` and `archive import` say under a job whose design `check` refuses.
+const REFUSED_NOTE: &str =
+    "note: check refuses this design (run `armsheet check` on it); it is archived as wound\n";
+
 /// A design file named and as written.
 type DesignFile = (String, String);
 /// A data card named, as written and parsed.
@@ -681,7 +683,8 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
     let at = archive_location(&a.common);
     let (designs, cards) = read_folder(&a.folder)?;
     let mut records = Vec::new();
-    let mut refused = false;
+    // Whether check refuses each record's design, in the order of `records`.
+    let mut refused = Vec::new();
     let mut used = vec![false; cards.len()];
     for (name, t) in designs {
         let id = parse_design(&t, &name)?.job.id;
@@ -702,7 +705,7 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
         if let Some(i) = card {
             card_fits(Path::new(&cards[i].0), &cards[i].2, &r)?;
         }
-        refused |= bad;
+        refused.push(bad);
         records.push(r);
     }
     for ((name, t, card), _) in cards.iter().zip(&used).filter(|(_, u)| !**u) {
@@ -731,7 +734,7 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
             &k.checked.design,
             &design_header(card, k, env!("CARGO_PKG_VERSION")),
         );
-        let (r, _) = record_of(
+        let (r, bad) = record_of(
             &format!("{name} (identified)"),
             design,
             Some(t.clone()),
@@ -739,40 +742,62 @@ fn import(a: &ImportArgs) -> Result<Outcome, CliError> {
             Vec::new(),
             Vec::new(),
         )?;
+        refused.push(bad);
         records.push(r);
     }
     let mut store = open(&at, Create::Yes)?;
     let revisions = store.add(&records).map_err(|e| fail(&at, e))?;
-    if a.common.json {
-        let list: Vec<_> = records
-            .iter()
-            .zip(&revisions)
-            .map(|(r, n)| serde_json::json!({"job": r.job.job, "revision": n, "design": r.design_name}))
-            .collect();
-        print_stdout(&format!("{:#}\n", serde_json::json!({ "added": list })))?;
-    } else {
-        let mut s = String::new();
-        for (r, n) in records.iter().zip(&revisions) {
-            let _ = writeln!(
-                s,
-                "archived job {} revision {n} from {}",
-                visible(&r.job.job),
-                visible(&r.design_name)
-            );
-        }
-        let _ = writeln!(
-            s,
-            "{} job(s) added to {}",
-            records.len(),
-            shown(&at.shown())
-        );
-        print_stdout(&s)?;
-    }
-    Ok(if refused {
+    print_stdout(&imported(
+        &records,
+        &revisions,
+        &refused,
+        &at,
+        a.common.json,
+    ))?;
+    Ok(if refused.contains(&true) {
         Outcome::ChecksFail
     } else {
         Outcome::Passed
     })
+}
+
+/// What `archive import` says: each job added, with its revision, under it the note when
+/// `check` refuses its design (`refused`, in the order of `records`); as JSON with `json`.
+fn imported(
+    records: &[Record],
+    revisions: &[u32],
+    refused: &[bool],
+    at: &Location,
+    json: bool,
+) -> String {
+    if json {
+        let list: Vec<_> = records
+            .iter()
+            .zip(revisions)
+            .zip(refused)
+            .map(|((r, n), bad)| serde_json::json!({"job": r.job.job, "revision": n, "design": r.design_name, "refused_by_check": bad}))
+            .collect();
+        return format!("{:#}\n", serde_json::json!({ "added": list }));
+    }
+    let mut s = String::new();
+    for ((r, n), bad) in records.iter().zip(revisions).zip(refused) {
+        let _ = writeln!(
+            s,
+            "archived job {} revision {n} from {}",
+            visible(&r.job.job),
+            visible(&r.design_name)
+        );
+        if *bad {
+            s.push_str(REFUSED_NOTE);
+        }
+    }
+    let _ = writeln!(
+        s,
+        "{} job(s) added to {}",
+        records.len(),
+        shown(&at.shown())
+    );
+    s
 }
 
 fn backup(a: &BackupArgs) -> Result<Outcome, CliError> {

@@ -101,12 +101,7 @@ pub fn sheet_pages(
         rating: checked.rating.as_ref(),
         test,
         options,
-        failures: checked
-            .findings
-            .iter()
-            .filter(|f| f.is_failure())
-            .map(|f| format!("{}: {}", f.id, f.message))
-            .collect(),
+        failures: checked.failures(),
         extra_rows: checked
             .rating
             .as_ref()

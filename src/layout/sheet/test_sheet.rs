@@ -8,13 +8,13 @@
 //! left empty for the shop: the clock is never read.
 
 use crate::base::number::fmt_fixed;
-use crate::features::armature_test::{Reading, Unit};
+use crate::features::armature_test::{ArmatureTest, Reading, Unit};
 use crate::layout::font::{Weight, cut_to_width, wrap_text};
 use crate::layout::style::{BODY_TEXT, TEXT_FLOOR};
 use crate::layout::tree::{self, Group, Node, Text};
 use crate::rating::insulation::{HALVING_STEP_C, PI_WAIVED_ABOVE_MOHM, REFERENCE_C};
 use crate::rating::test_voltage::TEST_VOLTAGE_CAUTION;
-use crate::theory::words::reading_unit_words;
+use crate::theory::words::reading_unit_basis;
 
 use super::table::{page_heading, table_area};
 use super::{Input, PageFrame, Rect, TABLE_GAP, TABLE_HEADER, TablePage, hline};
@@ -102,14 +102,20 @@ pub(super) fn tests_page(
     }
 }
 
+/// The unit of the readings table, in the test's one prefixed unit (mΩ, µΩ, Ω or coil): the
+/// table's heads and the sheet's "Unit:" line both say this.
+fn table_unit(t: &ArmatureTest) -> String {
+    match t.unit {
+        Unit::Ohm => format!("{}\u{3a9}", t.reading_prefix().symbol()),
+        Unit::Coil => "coil".to_string(),
+    }
+}
+
 /// The readings of `page`, column group by column group, each with an empty measured box.
 fn readings_table(input: &Input<'_>, page: &TablePage) -> Group {
     let all: Vec<&Reading> = readings(input).collect();
     let prefix = input.test.reading_prefix();
-    let unit = match input.test.unit {
-        Unit::Ohm => format!("{}\u{3a9}", prefix.symbol()),
-        Unit::Coil => "coil".to_string(),
-    };
+    let unit = table_unit(input.test);
     let unit = unit.as_str();
     let neighbours = input.test.readings.len();
     let mut g = Group::id(format!("readings-{}", page.rows.start + 1)).with_class("readings");
@@ -310,8 +316,9 @@ fn blocks(input: &Input<'_>, r: &Rect) -> Group {
         c.head("Bar-to-bar readings");
         c.words(
             &format!(
-                "Unit: {}.{within} Write each reading in its box; armsheet test --readings ranks the faults they show.",
-                reading_unit_words(t.coil_resistance_ohm, t.temperature_c)
+                "Unit: {} ({}).{within} Write each reading in its box; armsheet test --readings ranks the faults they show.",
+                table_unit(t),
+                reading_unit_basis(t.coil_resistance_ohm, t.temperature_c)
             ),
             TEXT_FLOOR,
         );

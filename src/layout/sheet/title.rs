@@ -3,17 +3,19 @@
 //!
 //! Part of the `layout` stage (the sheets).
 
+use crate::checks::NOT_FOR_WINDING;
 use crate::layout::font::{Weight, cut_to_width, text_width, wrap_text};
 use crate::layout::style::TEXT_FLOOR;
 use crate::layout::tree::{self, Group, Text};
 
 use super::{Input, PageFrame, Rect, hline, rect, text_fit, vline};
 
-/// The band across the top of every sheet of a design that fails an error-level check.
-pub(super) fn failure_band(band: &Rect, failures: &[String]) -> Group {
+/// The band across the top of every sheet of a design that fails an error-level check (and
+/// of `draw`'s page and the readings plot): [`NOT_FOR_WINDING`], then the failed checks.
+pub(crate) fn failure_band(band: &Rect, failures: &[String]) -> Group {
     let mut g = Group::id("not-for-winding");
     g.push(rect("band", band));
-    let lead = "NOT FOR WINDING: design fails checks";
+    let lead = NOT_FOR_WINDING;
     g.push(Text::new(
         band.x + 3.0,
         band.y + 6.3,

@@ -140,9 +140,10 @@ pub fn drive(text: &str, rng: &mut Rng, parsed: &mut u64, every: Every) -> Reach
 /// is not UTF-8), taken as bytes through `readings_text` as the CLI does, read through the
 /// locator under options the CLI takes, and its reports and plot.
 pub fn drive_armature_test(checked: &Checked, test: &ArmatureTest, rng: &mut Rng) {
-    let _ = render_test_text(test, "fuzz");
-    let _ = test_json_string(test);
-    let _ = page_svg(&readings_plot_page(test, "fuzz"));
+    let failures = checked.failures();
+    let _ = render_test_text(test, "fuzz", &failures);
+    let _ = test_json_string(test, &failures);
+    let _ = page_svg(&readings_plot_page(test, "fuzz", &failures));
     let mut rows: Vec<[String; 3]> = vec![["from_bar", "to_bar", "reading"].map(String::from)];
     for line in readings_csv(test).lines().skip(1) {
         let f: Vec<&str> = line.split(',').collect();
@@ -202,8 +203,8 @@ pub fn drive_armature_test(checked: &Checked, test: &ArmatureTest, rng: &mut Rng
         return;
     };
     if let Ok(t) = armature_test(&checked.design, &checked.winding, &options, Some(text)) {
-        let _ = render_test_text(&t, "fuzz");
-        let _ = test_json_string(&t);
-        let _ = page_svg(&readings_plot_page(&t, "fuzz"));
+        let _ = render_test_text(&t, "fuzz", &failures);
+        let _ = test_json_string(&t, &failures);
+        let _ = page_svg(&readings_plot_page(&t, "fuzz", &failures));
     }
 }
