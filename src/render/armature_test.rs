@@ -640,7 +640,7 @@ pub fn write_test_json<W: Write>(
     failures: &[String],
     mut out: W,
 ) -> io::Result<()> {
-    serde_json::to_writer_pretty(&mut out, &test_json(t, failures))?;
+    super::json::write_sorted(&test_json(t, failures), &mut out)?;
     out.write_all(b"\n")
 }
 

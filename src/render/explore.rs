@@ -291,7 +291,7 @@ pub fn write_explore_json<W: Write>(
             .collect(),
         last_cut: r.last_cut.as_ref().map(|l| l.0.as_str()),
     };
-    serde_json::to_writer_pretty(&mut out, &view).map_err(io::Error::other)?;
+    super::json::write_sorted(&view, &mut out)?;
     out.write_all(b"\n")
 }
 

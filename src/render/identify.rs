@@ -277,7 +277,7 @@ pub fn write_identify_json<W: Write>(card: &Card, r: &Identified, mut out: W) ->
         }),
         rule_of_thumb: r.rule_of_thumb.as_deref(),
     };
-    serde_json::to_writer_pretty(&mut out, &view)?;
+    super::json::write_sorted(&view, &mut out)?;
     out.write_all(b"\n")
 }
 

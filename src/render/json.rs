@@ -28,6 +28,15 @@ pub fn write_report_json<W: Write>(r: &Checked, mut out: W) -> io::Result<()> {
     out.write_all(b"\n")
 }
 
+/// Writes `value` pretty-printed (two-space indent) with the keys of every object sorted, as
+/// every JSON armsheet writes has them, without a final newline: the one writer of the
+/// smaller JSON objects (the `check` report, large on big armatures, is streamed from views
+/// declared in sorted order instead).
+pub fn write_sorted<W: Write, T: Serialize + ?Sized>(value: &T, out: W) -> io::Result<()> {
+    let tree = serde_json::to_value(value).map_err(io::Error::other)?;
+    serde_json::to_writer_pretty(out, &tree).map_err(io::Error::other)
+}
+
 /// `,\n` and then spaces: a line break and its indent are one slice of this.
 const BREAK: &[u8] = b",\n                                                                ";
 

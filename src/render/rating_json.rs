@@ -340,5 +340,5 @@ fn checks<S: Serializer>(c: &&[RatingCheck], s: S) -> Result<S::Ok, S::Error> {
 
 /// Writes the `rating` object of `r` alone, pretty-printed, without a final newline.
 pub fn write_rating_json<W: std::io::Write>(r: &RatingReport, out: W) -> std::io::Result<()> {
-    serde_json::to_writer_pretty(out, &RatingJson::new(r)).map_err(std::io::Error::from)
+    super::json::write_sorted(&RatingJson::new(r), out)
 }

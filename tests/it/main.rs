@@ -36,6 +36,7 @@ mod greyscale;
 mod identify_cli;
 mod identify_round_trip;
 mod inch_units;
+mod json_keys;
 mod kill_sheet;
 mod kill_test;
 mod kind_in_one_place;
