@@ -25,7 +25,7 @@ use crate::design::{Design, WindingType, frame_of_design, parse_design};
 use crate::features::explore::{Candidate, confirm, explore};
 use crate::features::rewind::alternatives::alternatives;
 use crate::features::rewind::{self, RewindPlan, RewindRequest, design_toml, no_load_test};
-use crate::render::explore::candidate_lines;
+use crate::render::explore::candidates_text;
 use crate::render::rewind_text::{Offered, Offers, no_load_header, render_no_load, render_rewind};
 
 /// The most alternatives a refused rewind offers.
@@ -301,9 +301,7 @@ fn searched(d: &Design, plan: &RewindPlan, req: &RewindRequest) -> String {
         return s;
     }
     s.push_str("; the nearest to the request, each passing check:\n");
-    for (n, k) in passing.into_iter().enumerate() {
-        s.push_str(&candidate_lines(n + 1, k));
-    }
+    s.push_str(&candidates_text(passing));
     s.push_str(
         "  to write one: armsheet new --frame FRAME.toml, fill it in, then armsheet explore FRAME.toml --write N -o DESIGN.toml\n",
     );

@@ -53,9 +53,7 @@ pub fn render_explore(f: &Frame, r: &Explored, top: usize) -> String {
     s.push_str("order: the front first, then copper loss, peak segment voltage, slot fill\n");
     if !r.fits.is_empty() {
         let _ = writeln!(s, "\ntop {} of {}:", top.min(r.fits.len()), r.fits.len());
-        for (i, k) in r.fits.iter().take(top).enumerate() {
-            line(&mut s, i + 1, k);
-        }
+        listed(&mut s, r.fits.iter().take(top));
     }
     if !r.near_misses.is_empty() {
         let _ = writeln!(
@@ -64,9 +62,7 @@ pub fn render_explore(f: &Frame, r: &Explored, top: usize) -> String {
             r.near_misses.len(),
             r.near_miss_count
         );
-        for (i, k) in r.near_misses.iter().enumerate() {
-            line(&mut s, i + 1, k);
-        }
+        listed(&mut s, r.near_misses.iter());
     }
     if r.fits.is_empty() {
         match &r.last_cut {
@@ -86,11 +82,46 @@ pub fn render_explore(f: &Frame, r: &Explored, top: usize) -> String {
     s
 }
 
-/// One fit as the text report lists it: its number, its winding, then its figures and, on the
-/// front, why (two or three lines).
-pub fn candidate_lines(n: usize, k: &Candidate) -> String {
+/// Candidates numbered from 1; one that differs from the one before only in its direction
+/// (progressive and retrogressive, every figure the same) takes one line saying so.
+fn listed<'a>(s: &mut String, ks: impl Iterator<Item = &'a Candidate>) {
+    let mut before: Option<&Candidate> = None;
+    for (i, k) in ks.enumerate() {
+        match before {
+            Some(b) if direction_twins(b, k) => {
+                let _ = writeln!(
+                    s,
+                    "{:>3}. as no. {} wound {}: every figure the same",
+                    i + 1,
+                    i,
+                    k.structure.direction.as_str()
+                );
+            }
+            _ => line(s, i + 1, k),
+        }
+        before = Some(k);
+    }
+}
+
+/// Whether `a` and `b` are one winding wound each way: the same in everything but the
+/// direction.
+fn direction_twins(a: &Candidate, b: &Candidate) -> bool {
+    let mut flipped = b.structure.clone();
+    flipped.direction = a.structure.direction;
+    a.structure.direction != b.structure.direction
+        && flipped == a.structure
+        && a.turns == b.turns
+        && a.conductor == b.conductor
+        && a.figures == b.figures
+        && a.fails == b.fails
+        && a.on_front == b.on_front
+}
+
+/// Fits as the text report lists them, numbered from 1: each its winding, then its figures
+/// and, on the front, why (two or three lines); a direction twin of the one before in one.
+pub fn candidates_text<'a>(ks: impl IntoIterator<Item = &'a Candidate>) -> String {
     let mut s = String::new();
-    line(&mut s, n, k);
+    listed(&mut s, ks.into_iter());
     s
 }
 

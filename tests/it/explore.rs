@@ -555,3 +555,44 @@ fn every_rated_demo_is_found_on_its_own_frame() {
         }
     }
 }
+
+/// A fit that differs from the one before only in its direction (the same winding wound
+/// progressive and retrogressive, every figure equal) is listed in one line pointing back to
+/// it; every other fit gets its own full lines, and the numbering still counts every fit (so
+/// `--write N` writes the N-th).
+#[test]
+fn a_direction_twin_is_listed_in_one_line() {
+    let path = format!("{ROOT}/designs/frames/hoist-frame.toml");
+    let f = parse_frame(&std::fs::read_to_string(&path).unwrap(), "hoist-frame.toml").unwrap();
+    let found = explore(&f);
+    let shown = armsheet::render::explore::candidates_text(found.fits.iter().take(10));
+    let lines: Vec<&str> = shown.lines().collect();
+    let mut twins = 0;
+    for (i, pair) in found.fits[..10].windows(2).enumerate() {
+        let (a, b) = (&pair[0], &pair[1]);
+        let mut flipped = b.structure.clone();
+        flipped.direction = a.structure.direction;
+        let twin = a.structure.direction != b.structure.direction
+            && flipped == a.structure
+            && (a.turns, &a.conductor, &a.figures) == (b.turns, &b.conductor, &b.figures);
+        let head = format!("{:>3}. ", i + 2);
+        let line = lines.iter().find(|l| l.starts_with(&head)).unwrap();
+        if twin {
+            twins += 1;
+            assert_eq!(
+                *line,
+                format!(
+                    "{head}as no. {} wound {}: every figure the same",
+                    i + 1,
+                    b.structure.direction.as_str()
+                )
+            );
+        } else {
+            assert!(line.contains(&format!("turns={}", b.turns)), "{line}");
+        }
+    }
+    assert!(
+        twins > 0,
+        "the hoist frame's top ten hold direction twins:\n{shown}"
+    );
+}
