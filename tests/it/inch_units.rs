@@ -197,6 +197,18 @@ fn an_inch_design_reads_areas_density_and_speeds_in_the_inch_trades_units() {
         "{}",
         line("slot fill")
     );
+    // Sheet 1's bench rows and rating rows read the same units.
+    let c = check(support::design(&demo("pump-wave")));
+    let bench = armsheet::layout::sheet::rows::bench_rows(&c.design, &c.winding);
+    let wire = bench.iter().find(|(k, _)| k == "wire, strands").unwrap();
+    assert_eq!(wire.1, "\u{d8}0.0808 in \u{d7}1 (AWG 12)");
+    let rows =
+        armsheet::layout::sheet::rows::rating_sheet_rows(c.rating.as_ref().unwrap(), Units::Inches);
+    assert!(
+        rows.iter()
+            .any(|(k, v)| k == "conductor area" && v == "6530 cmil"),
+        "{rows:?}"
+    );
     // The mm twin keeps mm2, A/mm2 and m/s.
     let mm = text_of(&to_mm(&demo("pump-wave").replace("_in = ", "_mm = ")));
     assert!(mm.contains("3.309 mm2") && mm.contains("A/mm2") && mm.contains(" m/s at "));

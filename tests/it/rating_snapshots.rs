@@ -25,7 +25,7 @@ fn rating_sections_of_the_demos() {
         let r = rate(&d, &w).unwrap_or_else(|| panic!("{name} has no rating data"));
         let mut s = String::new();
         render_rating(&mut s, &d, &r);
-        let rows: Vec<String> = rating_sheet_rows(&r)
+        let rows: Vec<String> = rating_sheet_rows(&r, d.units)
             .into_iter()
             .map(|(l, v)| format!("{l}: {v}"))
             .collect();

@@ -273,6 +273,7 @@ fn the_rating_rows_go_into_the_data_block() {
     let checked = armsheet::check(d.clone());
     let rows = armsheet::layout::sheet::rows::rating_sheet_rows(
         checked.rating.as_ref().expect("a rating"),
+        checked.design.units,
     );
     assert!(!rows.is_empty());
     // Sheet 1 holds what it can at the body size; the winding-data sheet, last, holds all.

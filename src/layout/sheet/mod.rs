@@ -102,10 +102,9 @@ pub fn sheet_pages(
         test,
         options,
         failures: checked.failures(),
-        extra_rows: checked
-            .rating
-            .as_ref()
-            .map_or_else(Vec::new, rows::rating_sheet_rows),
+        extra_rows: checked.rating.as_ref().map_or_else(Vec::new, |r| {
+            rows::rating_sheet_rows(r, checked.design.units)
+        }),
         order_columns: std::cell::OnceCell::new(),
         order_lift: std::cell::OnceCell::new(),
     };

@@ -8,6 +8,7 @@ use crate::design::{ConductorShape, Design};
 use crate::rating::RatingReport;
 use crate::winding::{EqualizerPlan, Winding};
 
+use crate::base::Units;
 use crate::base::number::fmt_fixed;
 use crate::theory::words::{half_bars_words, multiplicity_word, span_shop_dash, throw_shop_dash};
 
@@ -97,9 +98,10 @@ pub fn bench_rows(d: &Design, w: &Winding) -> Vec<(String, String)> {
     row("turns/coil", d.turns.to_string());
     row(
         "wire, strands",
-        d.conductor
-            .as_ref()
-            .map_or_else(|| "not given".to_string(), |c| conductor_value(&c.shape)),
+        d.conductor.as_ref().map_or_else(
+            || "not given".to_string(),
+            |c| conductor_value(&c.shape, d.units),
+        ),
     );
     row("lead swing", lead_swing_value(w));
     row(
@@ -167,7 +169,12 @@ fn equalizers_value(w: &Winding) -> String {
 }
 
 /// The conductor's size and strands, mm.
-fn conductor_value(shape: &ConductorShape) -> String {
+fn conductor_value(shape: &ConductorShape, units: Units) -> String {
+    // A design in mm leaves the unit to the trade's reading; one in inches says so.
+    let unit = match units {
+        Units::Millimetres => String::new(),
+        Units::Inches => format!(" {}", units.symbol()),
+    };
     match *shape {
         ConductorShape::Round {
             diameter_mm,
@@ -175,7 +182,10 @@ fn conductor_value(shape: &ConductorShape) -> String {
             strands,
         } => {
             let g = awg.map(|a| format!(" (AWG {a})")).unwrap_or_default();
-            format!("\u{d8}{} \u{d7}{strands}{g}", fmt_fixed(diameter_mm, 3))
+            format!(
+                "\u{d8}{}{unit} \u{d7}{strands}{g}",
+                units.number(diameter_mm, 3)
+            )
         }
         ConductorShape::Rectangular {
             width_mm,
@@ -184,9 +194,9 @@ fn conductor_value(shape: &ConductorShape) -> String {
             ..
         } => {
             format!(
-                "{}\u{d7}{} \u{d7}{strands}",
-                fmt_fixed(width_mm, 2),
-                fmt_fixed(height_mm, 2)
+                "{}\u{d7}{}{unit} \u{d7}{strands}",
+                units.number(width_mm, 2),
+                units.number(height_mm, 2)
             )
         }
     }
@@ -215,14 +225,11 @@ pub fn sequence_labels(w: &Winding) -> Vec<String> {
 /// Short label/value pairs for the sheet: conductor, resistance, EMF, segment voltage,
 /// currents, commutator speed and the withstand test voltages (the sheet carries the caution
 /// that the applicable standard governs). Only rows whose values exist.
-pub fn rating_sheet_rows(r: &RatingReport) -> Vec<(String, String)> {
+pub fn rating_sheet_rows(r: &RatingReport, units: Units) -> Vec<(String, String)> {
     let mut rows: Vec<(String, String)> = Vec::new();
     let mut add = |l: &str, v: String| rows.push((l.to_string(), v));
     if let Some(k) = &r.conductor {
-        add(
-            "conductor area",
-            format!("{} mm2", fmt_fixed(k.area_mm2, 3)),
-        );
+        add("conductor area", units.wire_area(k.area_mm2));
     }
     if let Some(x) = &r.resistance {
         add("R_a at 20 C", format!("{} ohm", fmt_fixed(x.r20_ohm, 4)));
@@ -261,12 +268,12 @@ pub fn rating_sheet_rows(r: &RatingReport) -> Vec<(String, String)> {
             format!("{} A", fmt_fixed(c.per_path_a, 2)),
         );
         if let Some(j) = c.density_a_mm2 {
-            add("current density", format!("{} A/mm2", fmt_fixed(j, 2)));
+            add("current density", units.current_density(j));
         }
     }
     if let Some(k) = &r.commutator {
         if let Some(v) = k.peripheral_speed_m_s {
-            add("commutator speed", format!("{} m/s", fmt_fixed(v, 2)));
+            add("commutator speed", units.surface_speed(v));
         }
         if let Some(b) = k.brush_width_segments {
             add("brush width", format!("{} segments", fmt_fixed(b, 2)));
