@@ -16,7 +16,7 @@ use crate::features::armature_test::{
     ArmatureTest, DropFeed, ElementsPattern, Fault, Location, Pattern, Reading, ReadingKind,
     ReadingValue, Unit,
 };
-use crate::theory::words::{READING_DIGITS, multiplicity_word, reading_unit_words};
+use crate::theory::words::{READING_DIGITS, multiplicity_word, reading_unit_basis};
 
 const DIGITS: i32 = READING_DIGITS;
 
@@ -38,8 +38,13 @@ pub fn pattern_words(p: Pattern) -> String {
     }
 }
 
+/// The tables' unit and what it rests on: "mOhm (one coil … ohm at 20.0 C, …)".
 fn unit_words(t: &ArmatureTest) -> String {
-    reading_unit_words(t.coil_resistance_ohm, t.temperature_c)
+    format!(
+        "{} ({})",
+        reading_unit(t),
+        reading_unit_basis(t.coil_resistance_ohm, t.temperature_c)
+    )
 }
 
 /// The unit of a table of bar-to-bar readings, in ASCII: `Ohm`, `mOhm`, `uOhm`, or `coil`.

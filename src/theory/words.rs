@@ -8,17 +8,9 @@ use crate::base::number::{fmt_fixed, fmt_sig};
 /// Significant digits of a bar-to-bar reading (readings run from micro-ohms to ohms).
 pub const READING_DIGITS: i32 = 6;
 
-/// The unit of the bar-to-bar readings in words: ohms at `temperature_c` when one coil's
-/// resistance is known (`coil_ohm`), else units of one coil's resistance. The test report and
-/// the test sheet both print it.
-pub fn reading_unit_words(coil_ohm: Option<f64>, temperature_c: f64) -> String {
-    let unit = if coil_ohm.is_some() { "ohm" } else { "coil" };
-    format!("{unit} ({})", reading_unit_basis(coil_ohm, temperature_c))
-}
-
-/// What the readings' unit rests on, for a caller that states the unit itself (the test
-/// sheet, in its table's prefixed unit): one coil's resistance at the temperature, or why the
-/// readings are in units of one coil.
+/// What the readings' unit rests on, beside the tables' own prefixed unit (the test report and
+/// the test sheet): one coil's resistance at the temperature, or why the readings are in units
+/// of one coil.
 pub fn reading_unit_basis(coil_ohm: Option<f64>, temperature_c: f64) -> String {
     match coil_ohm {
         Some(r) => format!(
