@@ -87,6 +87,19 @@ pub enum CliError {
         /// What the system said.
         source: io::Error,
     },
+    /// The folder an output goes into is missing (a single file: armsheet does not make the
+    /// folders of a path given with `-o`), or a part of its path is not a folder (a regular
+    /// file where a folder should be); nothing was written.
+    NoFolder {
+        /// The output, as given.
+        path: PathBuf,
+        /// What was to be written there: [`EntryKind::File`], or [`EntryKind::Folder`].
+        want: EntryKind,
+        /// The part of the path that is missing or is not a folder.
+        blocked: PathBuf,
+        /// What that part is; `None` when it does not exist.
+        found: Option<EntryKind>,
+    },
     /// An output file cannot be written.
     Write {
         /// The file.
@@ -314,6 +327,12 @@ impl fmt::Display for CliError {
                 }
             ),
             CliError::WrongKind { path, why } => wrong_kind(f, path, why),
+            CliError::NoFolder {
+                path,
+                want,
+                blocked,
+                found,
+            } => no_folder(f, path, *want, blocked, *found),
             CliError::Busy {
                 folder,
                 lock,
@@ -424,6 +443,45 @@ fn wrong_kind(f: &mut fmt::Formatter<'_>, path: &std::path::Path, why: &WrongKin
     }
 }
 
+/// The folder of an output is missing, or a part of its path is not a folder.
+fn no_folder(
+    f: &mut fmt::Formatter<'_>,
+    path: &std::path::Path,
+    want: EntryKind,
+    blocked: &std::path::Path,
+    found: Option<EntryKind>,
+) -> fmt::Result {
+    let what = match want {
+        EntryKind::Folder => "cannot create the output folder",
+        _ => "cannot write",
+    };
+    let (shown_path, shown_blocked) = (shown(path), shown(blocked));
+    match found {
+        Some(kind) => {
+            let noun = kind.noun();
+            let give = match want {
+                EntryKind::Folder => "give a folder with -o DIR",
+                _ => "give a path in a folder",
+            };
+            writeln!(
+                f,
+                "error: {what} {shown_path}: {shown_blocked} is a {noun}, not a folder; nothing was written\n  = hint: {give}, or move the {noun} {shown_blocked} out of the way"
+            )
+        }
+        None => {
+            let folder = path
+                .parent()
+                .filter(|p| !p.as_os_str().is_empty())
+                .unwrap_or(blocked);
+            let folder = shown(folder);
+            writeln!(
+                f,
+                "error: {what} {shown_path}: the folder {folder} does not exist; nothing was written\n  = hint: create the folder first (mkdir -p {folder}), or give a path in a folder that exists"
+            )
+        }
+    }
+}
+
 /// A file armsheet will not overwrite, with the command that refuses and the way round it.
 fn exists(f: &mut fmt::Formatter<'_>, path: &std::path::Path, by: NoOverwrite) -> fmt::Result {
     let path = shown(path);
@@ -482,21 +540,23 @@ pub(super) fn shown(path: &std::path::Path) -> String {
 pub fn rewind_message(e: &RewindError) -> String {
     match e {
         RewindError::TestNotPositive { volts, rpm } => format!(
-            "--from-test needs a positive no-load voltage and speed, found {} V at {} rpm",
+            "--from-test needs a positive no-load voltage and speed, found {} V at {} rpm\n  = hint: the open-circuit volts, then the rpm, both above 0, e.g. --from-test 105 1150",
             fmt_fixed(*volts, 3),
             fmt_fixed(*rpm, 3)
         ),
         RewindError::VoltageOutOfRange { volts } => format!(
-            "--voltage must be a positive number of volts up to {MAX_VOLTAGE}, found {volts}"
+            "--voltage must be a positive number of volts up to {MAX_VOLTAGE}, found {volts}\n  = hint: the new terminal voltage, above 0 and at most {MAX_VOLTAGE} V, e.g. --voltage 220"
         ),
         RewindError::SpeedOutOfRange { rpm } => format!(
-            "--speed must be a positive number of rpm up to {MAX_SPEED_RPM}, found {rpm}"
+            "--speed must be a positive number of rpm up to {MAX_SPEED_RPM}, found {rpm}\n  = hint: the new speed, above 0 and at most {MAX_SPEED_RPM} rpm, e.g. --speed 1150; leave it out to keep the design's"
         ),
         RewindError::CoilsPerSlotOutOfRange { coils_per_slot, max } => format!(
-            "--coils-per-slot must be 1 to {max} on this armature's slots, found {coils_per_slot}"
+            "--coils-per-slot must be 1 to {max} on this armature's slots, found {coils_per_slot}\n  = hint: a whole number from 1 to {max}"
         ),
         RewindError::ResistanceNotPositive { ohms } => {
-            format!("--ra must be a positive resistance in ohms, found {ohms}")
+            format!(
+                "--ra must be a positive resistance in ohms, found {ohms}\n  = hint: the armature resistance measured between the brush arms, above 0 ohms, e.g. --ra 0.12"
+            )
         }
         RewindError::FluxUnknown => "the flux per pole is unknown: give [rating] flux_per_pole_mwb, or [rating] voltage with speed_rpm, or measure the old machine with --from-test V0 N0".to_string(),
         RewindError::FluxOutOfRange { flux_mwb, source } => {
@@ -582,12 +642,14 @@ mod tests {
         let v = rewind_message(&RewindError::VoltageOutOfRange { volts: -5.0 });
         assert_eq!(
             v,
-            "--voltage must be a positive number of volts up to 100000, found -5"
+            "--voltage must be a positive number of volts up to 100000, found -5\n  = hint: the new terminal voltage, above 0 and at most 100000 V, e.g. --voltage 220"
         );
         let n = rewind_message(&RewindError::SpeedOutOfRange { rpm: 0.0 });
-        assert_eq!(
-            n,
-            "--speed must be a positive number of rpm up to 200000, found 0"
+        assert!(
+            n.starts_with(
+                "--speed must be a positive number of rpm up to 200000, found 0\n  = hint: "
+            ),
+            "{n}"
         );
     }
 
