@@ -195,6 +195,17 @@ pub enum CliError {
         /// Why, in words; may span lines (hints start with `  = hint:`).
         message: String,
     },
+    /// A file or folder given to an archive command refuses (a design without the fields a
+    /// job needs, a card not of the design, a folder that is not a sheet set); nothing was
+    /// written. Named as what it is, not as the archive.
+    ArchiveInput {
+        /// What the path is.
+        about: ArchiveInput,
+        /// The path, as given.
+        path: PathBuf,
+        /// Why, in words; may span lines (hints start with `  = hint:`).
+        message: String,
+    },
     /// The PDF cannot be made from the sheets.
     Pdf {
         /// The design file, as given.
@@ -202,6 +213,28 @@ pub enum CliError {
         /// What the PDF writer said.
         message: String,
     },
+}
+
+/// What a path given to an archive command is, as its error names it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum ArchiveInput {
+    /// The design file (`archive add DESIGN`).
+    Design,
+    /// The data card (`--card`).
+    Card,
+    /// The sheet set folder (`--sheets`).
+    SheetSet,
+}
+
+impl ArchiveInput {
+    /// The words that name it before its path: "design file", "data card", "sheet set".
+    pub fn words(self) -> &'static str {
+        match self {
+            ArchiveInput::Design => "design file",
+            ArchiveInput::Card => "data card",
+            ArchiveInput::SheetSet => "sheet set",
+        }
+    }
 }
 
 /// A diagram window option the design cannot take.
@@ -401,6 +434,20 @@ impl fmt::Display for CliError {
             CliError::Archive { archive, message } => {
                 let lines: Vec<_> = crate::base::visible::visible_lines(message).collect();
                 writeln!(f, "error: archive {}: {}", shown(archive), lines.join("\n"))
+            }
+            CliError::ArchiveInput {
+                about,
+                path,
+                message,
+            } => {
+                let lines: Vec<_> = crate::base::visible::visible_lines(message).collect();
+                writeln!(
+                    f,
+                    "error: {} {}: {}",
+                    about.words(),
+                    shown(path),
+                    lines.join("\n")
+                )
             }
             CliError::Pdf { design, message } => writeln!(
                 f,

@@ -15,7 +15,7 @@ use std::path::{Path, PathBuf};
 use clap::{Args, Subcommand};
 
 use super::Outcome;
-use super::error::{CliError, shown};
+use super::error::{ArchiveInput, CliError, shown};
 use super::output::{print_stdout, write_atomic};
 use crate::base::visible::visible;
 use crate::design::{Card, parse_card_bytes, parse_design, parse_design_bytes};
@@ -260,8 +260,9 @@ fn record_of(
 ) -> Result<(Record, bool), CliError> {
     let design = parse_design(&design_text, design_name)?;
     let checked = crate::check(design);
-    let job = job_fields(&checked.design.job).map_err(|m| CliError::Archive {
-        archive: PathBuf::from(design_name),
+    let job = job_fields(&checked.design.job).map_err(|m| CliError::ArchiveInput {
+        about: ArchiveInput::Design,
+        path: PathBuf::from(design_name),
         message: m.to_string(),
     })?;
     let (readings, verdict) = match readings {
@@ -311,11 +312,23 @@ fn record_of(
 /// SHA-256, by name.
 fn sheet_hashes(dir: &Path) -> Result<Vec<SheetFile>, CliError> {
     use sha2::{Digest, Sha256};
-    let list = super::output::read_set_list(dir).ok_or_else(|| CliError::Archive {
-        archive: dir.to_path_buf(),
+    let list = super::output::read_set_list(dir).ok_or_else(|| CliError::ArchiveInput {
+        about: ArchiveInput::SheetSet,
+        path: dir.to_path_buf(),
         message: format!(
-            "not a sheet set: there is no {} in it; nothing was written\n  = hint: give the folder `armsheet sheet` wrote, e.g. out/<design-stem>",
-            super::output::SET_LIST
+            "{}; nothing was written\n  = hint: give the folder `armsheet sheet` wrote, e.g. out/<design-stem>",
+            match std::fs::metadata(dir) {
+                Err(e) if e.kind() == std::io::ErrorKind::NotFound =>
+                    "there is no such folder".to_string(),
+                Ok(m) if !m.is_dir() => format!(
+                    "it is a {}, not a folder",
+                    super::output::EntryKind::of(m.file_type()).noun()
+                ),
+                _ => format!(
+                    "not a sheet set: there is no {} in it",
+                    super::output::SET_LIST
+                ),
+            }
         ),
     })?;
     let mut names: Vec<_> = list.into_iter().collect();
@@ -420,8 +433,9 @@ fn card_fits(path: &Path, card: &Card, record: &Record) -> Result<(), CliError> 
     if d.is_empty() {
         return Ok(());
     }
-    Err(CliError::Archive {
-        archive: path.to_path_buf(),
+    Err(CliError::ArchiveInput {
+        about: ArchiveInput::Card,
+        path: path.to_path_buf(),
         message: format!(
             "this data card is not of the armature the design winds: {}; nothing was written\n  = hint: give the card taken from this armature, or put the card's job id in the design's [job] id",
             d.join("; ")
