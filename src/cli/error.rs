@@ -387,11 +387,15 @@ impl fmt::Display for CliError {
             ),
             CliError::Readings { path, error } => writeln!(
                 f,
-                "error: {}:{}:{}: {}\n  = hint: the header is `from_bar,to_bar,reading` (or `millivolts` for the drop test); a reading is a number, `open` or `OL`",
+                "error: {}:{}:{}: {}\n  = hint: {}",
                 shown(path),
                 error.line,
                 error.column,
-                crate::base::visible::visible(&crate::base::visible::clip(&error.message, 200))
+                crate::base::visible::visible(&crate::base::visible::clip(&error.message, 200)),
+                match &error.hint {
+                    Some(h) => visible(&crate::base::visible::clip(h, 200)).into_owned(),
+                    None => "the header is `from_bar,to_bar,reading` (or `millivolts` for the drop test); a reading is a number, `open` or `OL`".to_string(),
+                }
             ),
             CliError::Exists { path, by } => exists(f, path, *by),
             CliError::ReadFrame { path, source } => {

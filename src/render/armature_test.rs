@@ -10,7 +10,9 @@ use serde::Serialize;
 
 use super::csv::{Cell, csv_file};
 use crate::base::caution::TEST_CAUTIONS;
-use crate::base::number::{Prefix, decimals_for, fmt_fixed, fmt_prefixed, fmt_sig, round_sig};
+use crate::base::number::{
+    Prefix, decimals_for, fmt_fixed, fmt_prefixed, fmt_sig, plural, round_sig,
+};
 use crate::checks::{NOT_FOR_WINDING, refusal_line};
 use crate::features::armature_test::{
     ArmatureTest, DropFeed, ElementsPattern, Fault, Location, Pattern, Reading, ReadingKind,
@@ -264,6 +266,16 @@ fn list(v: &[u32]) -> String {
 /// scale of 10^6); otherwise the file's own unit, with what one ohm (or one coil) reads in it.
 pub fn measured_unit_words(t: &ArmatureTest, l: &Location) -> String {
     let s = l.healthy_scale;
+    // Readings all zero fit no scale (the verdict says what that means).
+    if l.all_zero {
+        return match l.kind {
+            ReadingKind::Drop => format!(
+                "millivolts of the drop test, {} A fed at the feed bars listed below",
+                fmt_sig(t.drop_test.current_a, 4)
+            ),
+            ReadingKind::BarToBar => "the file's own unit".to_string(),
+        };
+    }
     if l.kind == ReadingKind::Drop {
         return format!(
             "millivolts of the drop test, {} A fed at the feed bars listed below (the fitted scale: the readings are {} of the expected)",
@@ -311,9 +323,16 @@ fn locator_text(out: &mut String, l: &Location, t: &ArmatureTest, refused: bool)
             "VERDICT: NOT HEALTHY (exit 1): every reading is zero where the winding reads a resistance: a shorted commutator (solder, carbon or copper across the bars) or the meter on the wrong range; check the range and the probes, then look along the commutator"
         );
     } else {
+        let pairs: Vec<String> = l
+            .suspect_pairs
+            .iter()
+            .map(|(a, b)| format!("{a}-{b}"))
+            .collect();
         let _ = writeln!(
             out,
-            "VERDICT: NOT HEALTHY (exit 1): readings outside tolerance at bars {}",
+            "VERDICT: NOT HEALTHY (exit 1): readings outside tolerance at the {} {} (bars {} to inspect)",
+            plural(pairs.len(), "pair", "pairs"),
+            pairs.join(", "),
             list(&l.suspect_bars)
         );
     }
