@@ -22,13 +22,16 @@ pub fn fmt_fixed(x: f64, decimals: usize) -> String {
 
 /// A count and its noun, singular for one and plural otherwise: `counted(1, "coil", "coils")`
 /// is "1 coil", `counted(2, "coil", "coils")` "2 coils", `counted(0, …)` "0 coils".
-pub fn counted(n: usize, one: &str, many: &str) -> String {
+pub fn counted<N>(n: N, one: &str, many: &str) -> String
+where
+    N: Copy + std::fmt::Display + PartialEq + From<u8>,
+{
     format!("{n} {}", plural(n, one, many))
 }
 
 /// The noun for a count `n`: `one` for 1, else `many` (for a count written apart from its noun).
-pub fn plural<'a>(n: usize, one: &'a str, many: &'a str) -> &'a str {
-    if n == 1 { one } else { many }
+pub fn plural<'a, N: PartialEq + From<u8>>(n: N, one: &'a str, many: &'a str) -> &'a str {
+    if n == N::from(1) { one } else { many }
 }
 
 /// Rounds `x` to `decimals` places for JSON, where numbers stay numbers.

@@ -11,7 +11,7 @@ use serde::Serialize;
 use super::csv::{Cell, csv_file};
 use crate::base::caution::TEST_CAUTIONS;
 use crate::base::number::{
-    Prefix, decimals_for, fmt_fixed, fmt_prefixed, fmt_sig, plural, round_sig,
+    Prefix, counted, decimals_for, fmt_fixed, fmt_prefixed, fmt_sig, plural, round_sig,
 };
 use crate::checks::{NOT_FOR_WINDING, refusal_line};
 use crate::features::armature_test::{
@@ -147,11 +147,11 @@ fn drop_table(out: &mut String, f: &DropFeed, head: &str, p: Prefix) {
 pub fn elements_words(e: &ElementsPattern, t: &ArmatureTest) -> String {
     let (p, unit) = (t.reading_prefix(), reading_unit(t));
     format!(
-        "frog-leg: each pair of neighbouring bars has a lap coil across it, in parallel with the rest of the lap element and with the wave element, so the readings are about {} {unit}, against {} {unit} for the lap element alone ({} % of it); an open lap coil moves {} reading(s) by more than 5 %, an open wave coil {}: lift the wave leads to test the lap element as a plain lap",
+        "frog-leg: each pair of neighbouring bars has a lap coil across it, in parallel with the rest of the lap element and with the wave element, so the readings are about {} {unit}, against {} {unit} for the lap element alone ({} % of it); an open lap coil moves {} by more than 5 %, an open wave coil {}: lift the wave leads to test the lap element as a plain lap",
         fmt_prefixed(e.combined, p),
         fmt_prefixed(e.lap_alone, p),
         fmt_fixed(100.0 * e.combined / e.lap_alone.max(1e-300), 1),
-        e.open_lap_moves,
+        counted(e.open_lap_moves, "reading", "readings"),
         e.open_wave_moves
     )
 }
@@ -170,12 +170,12 @@ pub fn render_test_text(t: &ArmatureTest, design_name: &str, failures: &[String]
     }
     let _ = writeln!(
         out,
-        "winding: {} {}, {} bars, {} poles, {} closed winding(s){}",
+        "winding: {} {}, {} bars, {} poles, {}{}",
         multiplicity_word(t.multiplicity),
         t.winding_type.as_str(),
         t.bars,
         t.poles,
-        t.reentrancy,
+        counted(t.reentrancy, "closed winding", "closed windings"),
         if t.equalized {
             ", equalizers fitted (ideal)"
         } else {
@@ -203,7 +203,8 @@ pub fn render_test_text(t: &ArmatureTest, design_name: &str, failures: &[String]
     if open > 0 {
         let _ = writeln!(
             out,
-            "  {open} pair(s) read open: neighbouring bars lie on different closed windings; read bars {} apart, within one winding, instead",
+            "  {} read open: neighbouring bars lie on different closed windings; read bars {} apart, within one winding, instead",
+            counted(open, "pair", "pairs"),
             t.multiplicity
         );
     }
@@ -338,9 +339,9 @@ fn locator_text(out: &mut String, l: &Location, t: &ArmatureTest, refused: bool)
     }
     let _ = writeln!(
         out,
-        "  {} reading(s) compared, {} pair(s) not read; tolerance {} % of the healthy pattern (default 5 %, --tolerance)",
-        l.measured.len(),
-        l.missing,
+        "  {} compared, {} not read; tolerance {} % of the healthy pattern (default 5 %, --tolerance)",
+        counted(l.measured.len(), "reading", "readings"),
+        counted(l.missing, "pair", "pairs"),
         fmt_fixed(100.0 * l.tolerance, 1)
     );
     let _ = writeln!(out, "  readings as given: {}", measured_unit_words(t, l));
@@ -385,8 +386,9 @@ fn locator_text(out: &mut String, l: &Location, t: &ArmatureTest, refused: bool)
     for (k, n) in &l.invisible {
         let _ = writeln!(
             out,
-            "  {} at {n} place(s) would change no reading: this test cannot see it",
-            k.key()
+            "  {} at {} would change no reading: this test cannot see it",
+            k.key(),
+            counted(*n, "place", "places")
         );
     }
 }
@@ -519,7 +521,7 @@ fn location_json(l: &Location) -> LocationJson {
         invisible: l
             .invisible
             .iter()
-            .map(|(k, n)| format!("{} at {n} place(s)", k.key()))
+            .map(|(k, n)| format!("{} at {}", k.key(), counted(*n, "place", "places")))
             .collect(),
         missing_pairs: l.missing,
         off_scale: l.off_scale.map(|s| round_sig(s, DIGITS)),

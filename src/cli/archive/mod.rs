@@ -17,6 +17,7 @@ use clap::{Args, Subcommand};
 use super::Outcome;
 use super::error::{ArchiveInput, CliError, shown};
 use super::output::{print_stdout, write_atomic};
+use crate::base::number::counted;
 use crate::base::visible::visible;
 use crate::design::{Card, parse_card_bytes, parse_design, parse_design_bytes};
 use crate::features::archive::{
@@ -574,13 +575,13 @@ fn show(a: &ShowArgs) -> Result<Outcome, CliError> {
         );
         let _ = writeln!(
             s,
-            "  wire {}{}, lead swing {}, {} brush sets, {} equalizers, {} dummies{}",
+            "  wire {}{}, lead swing {}, {}, {}, {}{}",
             m.wire.as_deref().unwrap_or("not given"),
             m.strands.map(|n| format!(" x{n}")).unwrap_or_default(),
             m.lead_swing,
-            m.brush_sets,
-            m.equalizers,
-            m.dummies,
+            counted(m.brush_sets, "brush set", "brush sets"),
+            counted(m.equalizers, "equalizer", "equalizers"),
+            counted(m.dummies, "dummy coil", "dummy coils"),
             m.rating
                 .as_deref()
                 .map(|r| format!(", rated {r}"))
@@ -807,8 +808,8 @@ fn imported(
     }
     let _ = writeln!(
         s,
-        "{} job(s) added to {}",
-        records.len(),
+        "{} added to {}",
+        counted(records.len(), "job", "jobs"),
         shown(&at.shown())
     );
     s
