@@ -278,7 +278,8 @@ impl fmt::Display for WindowOutOfRange {
             ),
             WindowOutOfRange::Pairs { pairs, pole_pairs } => write!(
                 f,
-                "--window {pairs}: the machine has {pole_pairs} pole pair(s) ({} poles); nothing was written\n  = hint: `--window all` for the whole armature, or at most {pole_pairs}",
+                "--window {pairs}: the machine has {} ({} poles); nothing was written\n  = hint: `--window all` for the whole armature, or at most {pole_pairs}",
+                crate::base::number::counted(pole_pairs, "pole pair", "pole pairs"),
                 2 * pole_pairs
             ),
         }
