@@ -517,7 +517,7 @@ fn no_folder(
             };
             writeln!(
                 f,
-                "error: {what} {shown_path}: {shown_blocked} is a {noun}, not a folder; nothing was written\n  = hint: {give}, or move the {noun} {shown_blocked} out of the way"
+                "error: {what} {shown_path}: {shown_blocked} is a {noun}, not a folder; nothing was written\n  = hint: {give}, or remove or rename the {noun} {shown_blocked}"
             )
         }
         None => {
