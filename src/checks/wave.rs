@@ -59,9 +59,10 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             (true, Severity::Info, String::new())
         };
         out.push(Finding::of(&rules::WAVE_DUMMY_COILS, passed, format!(
-                "{} at {} {list}: wind them for balance, cut the ends back and tape them{extra}",
+                "{} at {} {list}: wind {them} for balance, cut the ends back and tape {them}{extra}",
                 counted(dummies, "dummy coil", "dummy coils"),
-                plural(dummies, "position", "positions")
+                plural(dummies, "position", "positions"),
+                them = plural(dummies, "it", "them")
             )).lowered_to(sev));
     }
     dummy_front_pitch(w, out);

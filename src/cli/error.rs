@@ -386,18 +386,7 @@ impl fmt::Display for CliError {
                 "error: cannot read readings file {}: {source}\n  = hint: check the path",
                 shown(path)
             ),
-            CliError::Readings { path, error } => writeln!(
-                f,
-                "error: {}:{}:{}: {}\n  = hint: {}",
-                shown(path),
-                error.line,
-                error.column,
-                crate::base::visible::visible(&crate::base::visible::clip(&error.message, 200)),
-                match &error.hint {
-                    Some(h) => visible(&crate::base::visible::clip(h, 200)).into_owned(),
-                    None => "the header is `from_bar,to_bar,reading` (or `millivolts` for the drop test); a reading is a number, `open` or `OL`".to_string(),
-                }
-            ),
+            CliError::Readings { path, error } => readings(f, path, error),
             CliError::Exists { path, by } => exists(f, path, *by),
             CliError::ReadFrame { path, source } => {
                 let name = shown(path);
@@ -493,6 +482,27 @@ fn wrong_kind(f: &mut fmt::Formatter<'_>, path: &std::path::Path, why: &WrongKin
             found.noun()
         ),
     }
+}
+
+/// A problem in a readings file, located, with its own hint or the file format's.
+fn readings(
+    f: &mut fmt::Formatter<'_>,
+    path: &std::path::Path,
+    error: &crate::features::armature_test::ReadingsError,
+) -> fmt::Result {
+    use crate::base::visible::clip;
+    let hint = match &error.hint {
+        Some(h) => visible(&clip(h, 200)).into_owned(),
+        None => "the header is `from_bar,to_bar,reading` (or `millivolts` for the drop test); a reading is a number, `open` or `OL`".to_string(),
+    };
+    writeln!(
+        f,
+        "error: {}:{}:{}: {}\n  = hint: {hint}",
+        shown(path),
+        error.line,
+        error.column,
+        visible(&clip(&error.message, 200)),
+    )
 }
 
 /// The folder of an output is missing, or a part of its path is not a folder.

@@ -213,32 +213,31 @@ pub fn parse_readings(
         }
     }
     if out.values.len() < MIN_READINGS {
-        let column = echo(
-            header
-                .get(cr)
-                .unwrap_or("")
-                .trim_start_matches('\u{feff}')
-                .trim(),
-        );
-        let n = out.values.len();
-        return Err(ReadingsError {
-            hint: (empty > 0).then(|| {
-                format!(
-                    "fill in the `{column}` column with the meter's reading for each pair ({} left empty); a pair not read may stay empty",
-                    counted(empty, "row", "rows")
-                )
-            }),
-            ..err(
-                last,
-                1,
-                format!(
-                    "{} in the `{column}` column: the locator needs at least {MIN_READINGS}",
-                    counted(n, "reading", "readings")
-                ),
-            )
-        });
+        let column = header.get(cr).unwrap_or("");
+        return Err(too_few(last, column, out.values.len(), empty));
     }
     Ok(out)
+}
+
+/// Fewer than [`MIN_READINGS`] readings, `n`, in the reading column named `column`, at the
+/// file's last line `line`; with `empty` pairs listed and left empty (the file `test -o`
+/// writes, unfilled), the hint is to fill in that column.
+fn too_few(line: usize, column: &str, n: usize, empty: usize) -> ReadingsError {
+    let column = echo(column.trim_start_matches('\u{feff}').trim());
+    ReadingsError {
+        line,
+        column: 1,
+        message: format!(
+            "{} in the `{column}` column: the locator needs at least {MIN_READINGS}",
+            counted(n, "reading", "readings")
+        ),
+        hint: (empty > 0).then(|| {
+            format!(
+                "fill in the `{column}` column with the meter's reading for each pair ({} left empty); a pair not read may stay empty",
+                counted(empty, "row", "rows")
+            )
+        }),
+    }
 }
 
 /// The columns of the header: from bar, to bar and the reading, and what the readings are;
