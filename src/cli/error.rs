@@ -425,24 +425,12 @@ impl fmt::Display for CliError {
             CliError::Window { design, why } => {
                 writeln!(f, "error: {}: {why}", visible(design))
             }
-            CliError::Archive { archive, message } => {
-                let lines: Vec<_> = crate::base::visible::visible_lines(message).collect();
-                writeln!(f, "error: archive {}: {}", shown(archive), lines.join("\n"))
-            }
+            CliError::Archive { archive, message } => about(f, "archive", archive, message),
             CliError::ArchiveInput {
-                about,
+                about: what,
                 path,
                 message,
-            } => {
-                let lines: Vec<_> = crate::base::visible::visible_lines(message).collect();
-                writeln!(
-                    f,
-                    "error: {} {}: {}",
-                    about.words(),
-                    shown(path),
-                    lines.join("\n")
-                )
-            }
+            } => about(f, what.words(), path, message),
             CliError::Pdf { design, message } => writeln!(
                 f,
                 "error: {}: the PDF cannot be made: {}",
@@ -482,6 +470,18 @@ fn wrong_kind(f: &mut fmt::Formatter<'_>, path: &std::path::Path, why: &WrongKin
             found.noun()
         ),
     }
+}
+
+/// An archive command's refusal about `path`, named as `what` ("archive", "sheet set"...); the
+/// message may span lines.
+fn about(
+    f: &mut fmt::Formatter<'_>,
+    what: &str,
+    path: &std::path::Path,
+    message: &str,
+) -> fmt::Result {
+    let lines: Vec<_> = crate::base::visible::visible_lines(message).collect();
+    writeln!(f, "error: {what} {}: {}", shown(path), lines.join("\n"))
 }
 
 /// A problem in a readings file, located, with its own hint or the file format's.
