@@ -4,7 +4,8 @@
 //! One function a form: fixed places ([`fmt_fixed`]), significant digits ([`fmt_sig`],
 //! [`round_sig`]), trailing zeros dropped ([`fmt_trimmed`], SVG coordinates), a sign always
 //! shown ([`fmt_signed`]), a TOML number ([`fmt_toml`], design files) and a table of readings
-//! in one prefixed unit ([`Prefix`], [`fmt_prefixed`]).
+//! in one prefixed unit ([`Prefix`], [`fmt_prefixed`]); and a count with its noun, singular
+//! for one ([`counted`], [`plural`]).
 
 /// Writes `x` with exactly `decimals` digits after the point; `-0.00` becomes `0.00`.
 pub fn fmt_fixed(x: f64, decimals: usize) -> String {
@@ -17,6 +18,20 @@ pub fn fmt_fixed(x: f64, decimals: usize) -> String {
     } else {
         s
     }
+}
+
+/// A count and its noun, singular for one and plural otherwise: `counted(1, "coil", "coils")`
+/// is "1 coil", `counted(2, "coil", "coils")` "2 coils", `counted(0, …)` "0 coils".
+pub fn counted<N>(n: N, one: &str, many: &str) -> String
+where
+    N: Copy + std::fmt::Display + PartialEq + From<u8>,
+{
+    format!("{n} {}", plural(n, one, many))
+}
+
+/// The noun for a count `n`: `one` for 1, else `many` (for a count written apart from its noun).
+pub fn plural<'a, N: PartialEq + From<u8>>(n: N, one: &'a str, many: &'a str) -> &'a str {
+    if n == N::from(1) { one } else { many }
 }
 
 /// Rounds `x` to `decimals` places for JSON, where numbers stay numbers.

@@ -6,7 +6,7 @@
 //! self-equalizing condition and its reading off the trace are derived.
 
 use super::{Finding, rules};
-use crate::base::number::fmt_fixed;
+use crate::base::number::{counted, fmt_fixed};
 use crate::design::Design;
 use crate::winding::{Connection, Winding, WindingElement};
 
@@ -30,7 +30,7 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
     out.push(element_paths(d, lap, wave));
     let r = wave.reentrancy;
     out.push(Finding::of(&rules::FROGLEG_WAVE_REENTRANCY, true, format!(
-            "the wave element (multiplicity m_w = m x p = {}, y_c = {}) is {}: {r} closed winding(s) traced, gcd(C, y_c) = gcd({c}, {}) = {}; each is tested on its own",
+            "the wave element (multiplicity m_w = m x p = {}, y_c = {}) is {}: {} traced, gcd(C, y_c) = gcd({c}, {}) = {}; each is tested on its own",
             wave.multiplicity,
             wave.pitches.commutator,
             if r == 1 {
@@ -38,14 +38,15 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             } else {
                 format!("{r}-fold re-entrant")
             },
+            counted(r, "closed winding", "closed windings"),
             wave.pitches.commutator.abs(),
             wave.reentrancy_formula
         )));
     let same = lap.turns == wave.turns;
     out.push(Finding::of(&rules::FROGLEG_EQUAL_COILS, same, format!(
-            "lap coils {} turn(s), wave coils {} turn(s), both of the one [conductor]{}",
-            lap.turns,
-            wave.turns,
+            "lap coils {}, wave coils {}, both of the one [conductor]{}",
+            counted(lap.turns, "turn", "turns"),
+            counted(wave.turns, "turn", "turns"),
             if same {
                 ""
             } else {
@@ -91,7 +92,7 @@ fn one_neutral(d: &Design, w: &Winding, lap: &WindingElement, wave: &WindingElem
             "the lap and the wave coils are commutated on one neutral: each element's first coil has its bar midpoint at the same place from its centre line".to_string()
         } else {
             format!(
-                "the wave coils are commutated {} bar(s) off the lap coils' neutral: brushes on the lap neutral short the wave coils off it; a wave_span one slot longer or shorter moves the wave element by u/2 bars",
+                "the wave coils are commutated {} bars off the lap coils' neutral: brushes on the lap neutral short the wave coils off it; a wave_span one slot longer or shorter moves the wave element by u/2 bars",
                 crate::base::number::fmt_fixed(apart, 1)
             )
         },
@@ -183,15 +184,15 @@ fn self_equalizing(
     } else {
         let (l, wv) = series(at).expect("the worst loop was found on a traced series");
         format!(
-            "not self-equalizing: the lap coil {} (slots {}-{}, {} turn(s)) and the wave coil {} (slots {}-{}, {} turn(s)) in series from bar {at} to the bar two pole pitches on enclose up to {} % of a lap coil's EMF (flat-topped field; {} % sinusoidal), which circulates current through the brushes; the loop is free of EMF when lap span + wave span = two pole pitches with whole slots per pole pair, or the spans are equal with whole slots per pole ({spans}), and equal turns",
+            "not self-equalizing: the lap coil {} (slots {}-{}, {}) and the wave coil {} (slots {}-{}, {}) in series from bar {at} to the bar two pole pitches on enclose up to {} % of a lap coil's EMF (flat-topped field; {} % sinusoidal), which circulates current through the brushes; the loop is free of EMF when lap span + wave span = two pole pitches with whole slots per pole pair, or the spans are equal with whole slots per pole ({spans}), and equal turns",
             l.coil,
             l.top.slot,
             l.bottom.slot,
-            lap.turns,
+            counted(lap.turns, "turn", "turns"),
             wv.coil,
             wv.top.slot,
             wv.bottom.slot,
-            wave.turns,
+            counted(wave.turns, "turn", "turns"),
             fmt_fixed(100.0 * worst.0, 1),
             fmt_fixed(100.0 * worst.1, 1)
         )

@@ -3,7 +3,7 @@
 //! Part of the `checks` stage.
 
 use super::{Finding, Severity, rules};
-use crate::base::number::fmt_fixed;
+use crate::base::number::{counted, fmt_fixed};
 use crate::design::{Design, EqualizerChoice};
 use crate::winding::{EqualizerPlan, Winding};
 
@@ -15,8 +15,8 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
             &rules::LAP_REENTRANCY,
             true,
             format!(
-                "{} closed winding(s): gcd(C, m) = gcd({}, {m}) = {}; {}",
-                r,
+                "{}: gcd(C, m) = gcd({}, {m}) = {}; {}",
+                counted(r, "closed winding", "closed windings"),
                 w.active_coils,
                 w.reentrancy_formula,
                 if r == 1 {

@@ -18,7 +18,7 @@
 
 use super::{Finding, Severity, rules};
 use crate::base::RuleSpec;
-use crate::base::number::fmt_fixed;
+use crate::base::number::{counted, fmt_fixed, plural};
 use crate::design::Design;
 use crate::rating::RatingReport;
 use crate::winding::{Congruence, Winding, WindingElement};
@@ -154,24 +154,40 @@ fn check_element(d: &Design, w: &Winding, e: &WindingElement, out: &mut Vec<Find
         "the textbook rule passes and decides: what the exact test sees is ripple from the coils under commutation, not a fault of the connection (see symmetry.simulated-balance)"
     };
     let n_classes = classes.classes.len();
+    let class_words = counted(n_classes, "congruent class", "congruent classes");
+    let paths_word = plural(
+        classes.classes.iter().map(Vec::len).sum::<usize>(),
+        "path",
+        "paths",
+    );
     let why = match congruence {
         Congruence::Proven => "rigid rotations carry every path onto every other, so they carry one EMF at every rotor position".to_string(),
         Congruence::UpToCommutation if exact => format!(
-            "rotations through whole pole pitches and the slots' shared centre lines sort them into {n_classes} congruent class(es) of {} path(s), equal up to where the brushes cut them, and the simulated balance confirms it",
-            sizes.join(" + ")
+            "rotations through whole pole pitches and the slots' shared centre lines sort them into {} of {} {}, equal up to where the brushes cut them, and the simulated balance confirms it",
+            class_words,
+            sizes.join(" + "),
+            paths_word
         ),
         Congruence::UpToCommutation => format!(
-            "rotations through whole pole pitches and the slots' shared centre lines sort them into {n_classes} congruent class(es) of {} path(s), equal only up to where the brushes cut them, and the simulated balance finds the coils under commutation carry EMF{}",
+            "rotations through whole pole pitches and the slots' shared centre lines sort them into {} of {} {}, equal only up to where the brushes cut them, and the simulated balance finds the coils under commutation carry EMF{}",
+            class_words,
             sizes.join(" + "),
+            paths_word,
             if w.dummy_coils.is_empty() {
                 String::new()
             } else {
-                format!(" (the {} dummy coil(s) break the rotation)", w.dummy_coils.len())
+                format!(
+                    " (the {} {} the rotation)",
+                    counted(w.dummy_coils.len(), "dummy coil", "dummy coils"),
+                    plural(w.dummy_coils.len(), "breaks", "break")
+                )
             }
         ),
         Congruence::No => format!(
-            "rotations through whole pole pitches join them only into {n_classes} classes of {} path(s)",
-            sizes.join(" + ")
+            "rotations through whole pole pitches join them only into {} of {} {}",
+            counted(n_classes, "class", "classes"),
+            sizes.join(" + "),
+            paths_word
         ),
     };
     // The exact test may rescue a winding the rule refuses; it never condemns one the rule

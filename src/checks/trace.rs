@@ -3,6 +3,7 @@
 //! Part of the `checks` stage.
 
 use super::{Finding, rules};
+use crate::base::number::counted;
 use crate::design::Design;
 use crate::winding::Winding;
 
@@ -21,8 +22,8 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         &rules::TRACE_REENTRANCY,
         w.reentrancy() == w.reentrancy_formula,
         format!(
-            "traced {} closed winding(s); formula gcd(C, |y_c|) = {}",
-            w.reentrancy(),
+            "traced {}; formula gcd(C, |y_c|) = {}",
+            counted(w.reentrancy(), "closed winding", "closed windings"),
             w.reentrancy_formula
         ),
     ));

@@ -8,6 +8,7 @@ use std::collections::BTreeMap;
 
 use super::lap::{multiplex_brush, narrow_multiplex_brush};
 use super::{Finding, Severity, rules};
+use crate::base::number::{counted, plural};
 use crate::design::Design;
 use crate::winding::Winding;
 
@@ -18,7 +19,8 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
         &rules::WAVE_REENTRANCY,
         true,
         format!(
-            "{r} closed winding(s): gcd(C, y_c) = gcd({c}, {}) = {}; {}",
+            "{}: gcd(C, y_c) = gcd({c}, {}) = {}; {}",
+            counted(r, "closed winding", "closed windings"),
             w.pitches.commutator,
             w.reentrancy_formula,
             if r == 1 {
@@ -49,15 +51,18 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
                 false,
                 Severity::Warning,
                 format!(
-                    "; {best} segments would need only {} dummy coil(s)",
-                    w.coils - best
+                    "; {best} segments would need only {}",
+                    counted(w.coils - best, "dummy coil", "dummy coils")
                 ),
             )
         } else {
             (true, Severity::Info, String::new())
         };
         out.push(Finding::of(&rules::WAVE_DUMMY_COILS, passed, format!(
-                "{dummies} dummy coil(s) at position(s) {list}: wind them for balance, cut the ends back and tape them{extra}"
+                "{} at {} {list}: wind {them} for balance, cut the ends back and tape {them}{extra}",
+                counted(dummies, "dummy coil", "dummy coils"),
+                plural(dummies, "position", "positions"),
+                them = plural(dummies, "it", "them")
             )).lowered_to(sev));
     }
     dummy_front_pitch(w, out);
@@ -70,9 +75,9 @@ pub(super) fn check(d: &Design, w: &Winding, out: &mut Vec<Finding>) {
                 &rules::WAVE_DIRECTION_HINT,
                 true,
                 format!(
-                    "a {} winding would use {alt} segments with {} dummy coil(s) instead of {}",
+                    "a {} winding would use {alt} segments with {} instead of {}",
                     other.as_str(),
-                    w.coils - alt,
+                    counted(w.coils - alt, "dummy coil", "dummy coils"),
                     dummies
                 ),
             ));
@@ -101,9 +106,10 @@ fn dummy_front_pitch(w: &Winding, out: &mut Vec<Finding>) {
         .iter()
         .map(|(y, coils)| {
             format!(
-                "{} use {y} ({:+}), from coil(s) {}",
+                "{} use {y} ({:+}), from {} {}",
                 coils.len(),
                 y - nominal,
+                plural(coils.len(), "coil", "coils"),
                 coil_runs(coils)
             )
         })

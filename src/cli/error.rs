@@ -87,6 +87,19 @@ pub enum CliError {
         /// What the system said.
         source: io::Error,
     },
+    /// The folder an output goes into is missing (a single file: armsheet does not make the
+    /// folders of a path given with `-o`), or a part of its path is not a folder (a regular
+    /// file where a folder should be); nothing was written.
+    NoFolder {
+        /// The output, as given.
+        path: PathBuf,
+        /// What was to be written there: [`EntryKind::File`], or [`EntryKind::Folder`].
+        want: EntryKind,
+        /// The part of the path that is missing or is not a folder.
+        blocked: PathBuf,
+        /// What that part is; `None` when it does not exist.
+        found: Option<EntryKind>,
+    },
     /// An output file cannot be written.
     Write {
         /// The file.
@@ -182,6 +195,17 @@ pub enum CliError {
         /// Why, in words; may span lines (hints start with `  = hint:`).
         message: String,
     },
+    /// A file or folder given to an archive command refuses (a design without the fields a
+    /// job needs, a card not of the design, a folder that is not a sheet set); nothing was
+    /// written. Named as what it is, not as the archive.
+    ArchiveInput {
+        /// What the path is.
+        about: ArchiveInput,
+        /// The path, as given.
+        path: PathBuf,
+        /// Why, in words; may span lines (hints start with `  = hint:`).
+        message: String,
+    },
     /// The PDF cannot be made from the sheets.
     Pdf {
         /// The design file, as given.
@@ -189,6 +213,28 @@ pub enum CliError {
         /// What the PDF writer said.
         message: String,
     },
+}
+
+/// What a path given to an archive command is, as its error names it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum ArchiveInput {
+    /// The design file (`archive add DESIGN`).
+    Design,
+    /// The data card (`--card`).
+    Card,
+    /// The sheet set folder (`--sheets`).
+    SheetSet,
+}
+
+impl ArchiveInput {
+    /// The words that name it before its path: "design file", "data card", "sheet set".
+    pub fn words(self) -> &'static str {
+        match self {
+            ArchiveInput::Design => "design file",
+            ArchiveInput::Card => "data card",
+            ArchiveInput::SheetSet => "sheet set",
+        }
+    }
 }
 
 /// A diagram window option the design cannot take.
@@ -232,7 +278,8 @@ impl fmt::Display for WindowOutOfRange {
             ),
             WindowOutOfRange::Pairs { pairs, pole_pairs } => write!(
                 f,
-                "--window {pairs}: the machine has {pole_pairs} pole pair(s) ({} poles); nothing was written\n  = hint: `--window all` for the whole armature, or at most {pole_pairs}",
+                "--window {pairs}: the machine has {} ({} poles); nothing was written\n  = hint: `--window all` for the whole armature, or at most {pole_pairs}",
+                crate::base::number::counted(pole_pairs, "pole pair", "pole pairs"),
                 2 * pole_pairs
             ),
         }
@@ -314,6 +361,12 @@ impl fmt::Display for CliError {
                 }
             ),
             CliError::WrongKind { path, why } => wrong_kind(f, path, why),
+            CliError::NoFolder {
+                path,
+                want,
+                blocked,
+                found,
+            } => no_folder(f, path, *want, blocked, *found),
             CliError::Busy {
                 folder,
                 lock,
@@ -333,14 +386,7 @@ impl fmt::Display for CliError {
                 "error: cannot read readings file {}: {source}\n  = hint: check the path",
                 shown(path)
             ),
-            CliError::Readings { path, error } => writeln!(
-                f,
-                "error: {}:{}:{}: {}\n  = hint: the header is `from_bar,to_bar,reading` (or `millivolts` for the drop test); a reading is a number, `open` or `OL`",
-                shown(path),
-                error.line,
-                error.column,
-                crate::base::visible::visible(&crate::base::visible::clip(&error.message, 200))
-            ),
+            CliError::Readings { path, error } => readings(f, path, error),
             CliError::Exists { path, by } => exists(f, path, *by),
             CliError::ReadFrame { path, source } => {
                 let name = shown(path);
@@ -379,10 +425,12 @@ impl fmt::Display for CliError {
             CliError::Window { design, why } => {
                 writeln!(f, "error: {}: {why}", visible(design))
             }
-            CliError::Archive { archive, message } => {
-                let lines: Vec<_> = crate::base::visible::visible_lines(message).collect();
-                writeln!(f, "error: archive {}: {}", shown(archive), lines.join("\n"))
-            }
+            CliError::Archive { archive, message } => about(f, "archive", archive, message),
+            CliError::ArchiveInput {
+                about: what,
+                path,
+                message,
+            } => about(f, what.words(), path, message),
             CliError::Pdf { design, message } => writeln!(
                 f,
                 "error: {}: the PDF cannot be made: {}",
@@ -421,6 +469,78 @@ fn wrong_kind(f: &mut fmt::Formatter<'_>, path: &std::path::Path, why: &WrongKin
             shown(to),
             found.noun()
         ),
+    }
+}
+
+/// An archive command's refusal about `path`, named as `what` ("archive", "sheet set"...); the
+/// message may span lines.
+fn about(
+    f: &mut fmt::Formatter<'_>,
+    what: &str,
+    path: &std::path::Path,
+    message: &str,
+) -> fmt::Result {
+    let lines: Vec<_> = crate::base::visible::visible_lines(message).collect();
+    writeln!(f, "error: {what} {}: {}", shown(path), lines.join("\n"))
+}
+
+/// A problem in a readings file, located, with its own hint or the file format's.
+fn readings(
+    f: &mut fmt::Formatter<'_>,
+    path: &std::path::Path,
+    error: &crate::features::armature_test::ReadingsError,
+) -> fmt::Result {
+    use crate::base::visible::clip;
+    let hint = match &error.hint {
+        Some(h) => visible(&clip(h, 200)).into_owned(),
+        None => "the header is `from_bar,to_bar,reading` (or `millivolts` for the drop test); a reading is a number, `open` or `OL`".to_string(),
+    };
+    writeln!(
+        f,
+        "error: {}:{}:{}: {}\n  = hint: {hint}",
+        shown(path),
+        error.line,
+        error.column,
+        visible(&clip(&error.message, 200)),
+    )
+}
+
+/// The folder of an output is missing, or a part of its path is not a folder.
+fn no_folder(
+    f: &mut fmt::Formatter<'_>,
+    path: &std::path::Path,
+    want: EntryKind,
+    blocked: &std::path::Path,
+    found: Option<EntryKind>,
+) -> fmt::Result {
+    let what = match want {
+        EntryKind::Folder => "cannot create the output folder",
+        _ => "cannot write",
+    };
+    let (shown_path, shown_blocked) = (shown(path), shown(blocked));
+    match found {
+        Some(kind) => {
+            let noun = kind.noun();
+            let give = match want {
+                EntryKind::Folder => "give a folder with -o DIR",
+                _ => "give a path in a folder",
+            };
+            writeln!(
+                f,
+                "error: {what} {shown_path}: {shown_blocked} is a {noun}, not a folder; nothing was written\n  = hint: {give}, or remove or rename the {noun} {shown_blocked}"
+            )
+        }
+        None => {
+            let folder = path
+                .parent()
+                .filter(|p| !p.as_os_str().is_empty())
+                .unwrap_or(blocked);
+            let folder = shown(folder);
+            writeln!(
+                f,
+                "error: {what} {shown_path}: the folder {folder} does not exist; nothing was written\n  = hint: create the folder first (mkdir -p {folder}), or give a path in a folder that exists"
+            )
+        }
     }
 }
 
@@ -482,21 +602,23 @@ pub(super) fn shown(path: &std::path::Path) -> String {
 pub fn rewind_message(e: &RewindError) -> String {
     match e {
         RewindError::TestNotPositive { volts, rpm } => format!(
-            "--from-test needs a positive no-load voltage and speed, found {} V at {} rpm",
+            "--from-test needs a positive no-load voltage and speed, found {} V at {} rpm\n  = hint: the open-circuit volts, then the rpm, both above 0, e.g. --from-test 105 1150",
             fmt_fixed(*volts, 3),
             fmt_fixed(*rpm, 3)
         ),
         RewindError::VoltageOutOfRange { volts } => format!(
-            "--voltage must be a positive number of volts up to {MAX_VOLTAGE}, found {volts}"
+            "--voltage must be a positive number of volts up to {MAX_VOLTAGE}, found {volts}\n  = hint: the new terminal voltage, above 0 and at most {MAX_VOLTAGE} V, e.g. --voltage 220"
         ),
         RewindError::SpeedOutOfRange { rpm } => format!(
-            "--speed must be a positive number of rpm up to {MAX_SPEED_RPM}, found {rpm}"
+            "--speed must be a positive number of rpm up to {MAX_SPEED_RPM}, found {rpm}\n  = hint: the new speed, above 0 and at most {MAX_SPEED_RPM} rpm, e.g. --speed 1150; leave it out to keep the design's"
         ),
         RewindError::CoilsPerSlotOutOfRange { coils_per_slot, max } => format!(
-            "--coils-per-slot must be 1 to {max} on this armature's slots, found {coils_per_slot}"
+            "--coils-per-slot must be 1 to {max} on this armature's slots, found {coils_per_slot}\n  = hint: a whole number from 1 to {max}"
         ),
         RewindError::ResistanceNotPositive { ohms } => {
-            format!("--ra must be a positive resistance in ohms, found {ohms}")
+            format!(
+                "--ra must be a positive resistance in ohms, found {ohms}\n  = hint: the armature resistance measured between the brush arms, above 0 ohms, e.g. --ra 0.12"
+            )
         }
         RewindError::FluxUnknown => "the flux per pole is unknown: give [rating] flux_per_pole_mwb, or [rating] voltage with speed_rpm, or measure the old machine with --from-test V0 N0".to_string(),
         RewindError::FluxOutOfRange { flux_mwb, source } => {
@@ -582,12 +704,14 @@ mod tests {
         let v = rewind_message(&RewindError::VoltageOutOfRange { volts: -5.0 });
         assert_eq!(
             v,
-            "--voltage must be a positive number of volts up to 100000, found -5"
+            "--voltage must be a positive number of volts up to 100000, found -5\n  = hint: the new terminal voltage, above 0 and at most 100000 V, e.g. --voltage 220"
         );
         let n = rewind_message(&RewindError::SpeedOutOfRange { rpm: 0.0 });
-        assert_eq!(
-            n,
-            "--speed must be a positive number of rpm up to 200000, found 0"
+        assert!(
+            n.starts_with(
+                "--speed must be a positive number of rpm up to 200000, found 0\n  = hint: "
+            ),
+            "{n}"
         );
     }
 

@@ -91,8 +91,9 @@ pub fn explore(a: &ExploreArgs) -> Result<Outcome, CliError> {
         let len = found.fits.len();
         if n == 0 || n > len {
             return Err(refuse(format!(
-                "--write {n}: there {} {len} fit(s); write 1 to {len}",
-                if len == 1 { "is" } else { "are" }
+                "--write {n}: there {} {}; write 1 to {len}",
+                if len == 1 { "is" } else { "are" },
+                crate::base::number::counted(len, "fit", "fits")
             )));
         }
         let k = &found.fits[n - 1];

@@ -75,8 +75,9 @@ pub fn identify(a: &IdentifyArgs) -> Result<Outcome, CliError> {
         (Some(_), 0) => None,
         (Some(n), len) if n == 0 || n > len => {
             return Err(refuse(format!(
-                "--pick {n}: there {} {len} candidate(s); pick 1 to {len}",
-                if len == 1 { "is" } else { "are" }
+                "--pick {n}: there {} {}; pick 1 to {len}",
+                if len == 1 { "is" } else { "are" },
+                crate::base::number::counted(len, "candidate", "candidates")
             )));
         }
         (Some(n), _) => Some(&found.candidates[n - 1]),

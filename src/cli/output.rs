@@ -94,10 +94,99 @@ fn builder<'a>(prefix: &'a str, suffix: &'a str, folder: bool) -> Builder<'a, 'a
 /// taken is skipped for another random one.
 fn staged_file(path: &Path, bytes: &[u8]) -> io::Result<NamedTempFile> {
     let prefix = temp_prefix(path);
-    let mut tmp = builder(&prefix, ".tmp", false).tempfile_in(parent_of(path))?;
+    let mut tmp = builder(&prefix, ".tmp", false)
+        .tempfile_in(parent_of(path))
+        .map_err(without_temp_path)?;
     tmp.write_all(bytes)?;
     tmp.as_file().sync_all()?;
     Ok(tmp)
+}
+
+/// The folder an output goes into, when it is not there to take it: the first folder of the
+/// path that does not exist, or a part of the path that is something other than a folder (a
+/// regular file where a folder should be). `None` when `folder` is a folder (or cannot be
+/// looked at, which the write then reports).
+fn missing_folder(folder: &Path) -> Option<(PathBuf, Option<EntryKind>)> {
+    match fs::metadata(folder) {
+        Ok(m) if m.is_dir() => return None,
+        Ok(m) => return Some((folder.to_path_buf(), Some(EntryKind::of(m.file_type())))),
+        Err(_) => {}
+    }
+    // From the top down: the first part of the path that is missing or not a folder.
+    let mut parts: Vec<&Path> = folder
+        .ancestors()
+        .filter(|p| !p.as_os_str().is_empty())
+        .collect();
+    parts.reverse();
+    for part in parts {
+        match fs::metadata(part) {
+            Ok(m) if m.is_dir() => {}
+            Ok(m) => return Some((part.to_path_buf(), Some(EntryKind::of(m.file_type())))),
+            Err(e) if e.kind() == io::ErrorKind::NotFound => {
+                return Some((part.to_path_buf(), None));
+            }
+            Err(_) => return None,
+        }
+    }
+    None
+}
+
+/// Refuses a single file whose folder is missing or is not a folder, naming the path as the
+/// user gave it ([`CliError::NoFolder`]); armsheet does not make the folders of a file given
+/// with `-o`.
+fn folder_is_there(path: &Path) -> Result<(), CliError> {
+    match missing_folder(parent_of(path)) {
+        None => Ok(()),
+        Some((blocked, found)) => Err(CliError::NoFolder {
+            path: path.to_path_buf(),
+            want: EntryKind::File,
+            blocked,
+            found,
+        }),
+    }
+}
+
+/// Makes the folder `dir` and the folders above it (`create_dir_all`) for `output`, a file or
+/// folder (`want`) to be written in or at `dir`; when that fails because a part of the path is
+/// a file (or something else that is not a folder), says so, naming that part
+/// ([`CliError::NoFolder`]); any other failure is [`CliError::CreateDir`].
+pub fn make_folders(dir: &Path, output: &Path, want: EntryKind) -> Result<(), CliError> {
+    fs::create_dir_all(dir).map_err(|source| match missing_folder(dir) {
+        Some((blocked, found @ Some(_))) => CliError::NoFolder {
+            path: output.to_path_buf(),
+            want,
+            blocked,
+            found,
+        },
+        _ => CliError::CreateDir {
+            path: if want == EntryKind::Folder {
+                output
+            } else {
+                dir
+            }
+            .to_path_buf(),
+            source,
+        },
+    })
+}
+
+/// An error from making a temporary file, without the temporary file's path that `tempfile`
+/// adds to it (the user never named that path): the system's own error, or its kind.
+fn without_temp_path(e: io::Error) -> io::Error {
+    if e.raw_os_error().is_some() {
+        return e;
+    }
+    let inner = e
+        .get_ref()
+        .and_then(|i| std::error::Error::source(i))
+        .and_then(|s| s.downcast_ref::<io::Error>());
+    match inner {
+        Some(i) => match i.raw_os_error() {
+            Some(code) => io::Error::from_raw_os_error(code),
+            None => io::Error::from(i.kind()),
+        },
+        None => e,
+    }
 }
 
 /// What is found at a path, a symbolic link aside.
@@ -242,6 +331,7 @@ fn still_a_file_or_absent(user: &Path, real: &Path) -> Result<(), CliError> {
 /// to one (then the file it leads to is replaced and the link kept); anything else is
 /// [`CliError::WrongKind`] and nothing is written (see `resolve`).
 pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<(), CliError> {
+    folder_is_there(path)?;
     let (real, _) = resolve(path, EntryKind::File)?;
     let tmp = staged_file(&real, bytes).map_err(|e| CliError::write(path, e))?;
     still_a_file_or_absent(path, &real)?;
@@ -259,6 +349,7 @@ pub fn write_new(path: &Path, bytes: &[u8], by: NoOverwrite) -> Result<(), CliEr
         path: path.to_path_buf(),
         by,
     };
+    folder_is_there(path)?;
     if resolve(path, EntryKind::File)?.1 {
         return Err(exists());
     }
@@ -285,11 +376,8 @@ pub fn write_new(path: &Path, bytes: &[u8], by: NoOverwrite) -> Result<(), CliEr
 /// or a symbolic link to one (see `resolve`); anything else is [`CliError::WrongKind`] and
 /// nothing is written.
 pub fn write_own_files(dir: &Path, files: &[(String, Vec<u8>)], who: &str) -> Result<(), CliError> {
+    make_folders(parent_of(dir), dir, EntryKind::Folder)?;
     let (real, _) = resolve(dir, EntryKind::Folder)?;
-    fs::create_dir_all(parent_of(&real)).map_err(|source| CliError::CreateDir {
-        path: dir.to_path_buf(),
-        source,
-    })?;
     // A folder the user may write in, beside which nothing may be made (a read-only parent),
     // is written unlocked, as before there were locks: no `sheet` run can write there either.
     let _lock = match lock_folder(&real, dir, who) {
@@ -311,10 +399,7 @@ pub fn write_own_files(dir: &Path, files: &[(String, Vec<u8>)], who: &str) -> Re
             resolve(&dir.join(name), EntryKind::File)?;
         }
     } else {
-        fs::create_dir_all(&real).map_err(|source| CliError::CreateDir {
-            path: dir.to_path_buf(),
-            source,
-        })?;
+        make_folders(&real, dir, EntryKind::Folder)?;
     }
     for (name, bytes) in files {
         let path = dir.join(name);
@@ -469,7 +554,7 @@ pub fn replace_folder(
         path: target.to_path_buf(),
         source,
     };
-    fs::create_dir_all(parent_of(target)).map_err(create_err)?;
+    make_folders(parent_of(target), target, EntryKind::Folder)?;
     // A folder reached through a symbolic link is replaced where it really is, so the link
     // keeps pointing at the set; anything but a folder or nothing is refused (see `resolve`).
     let (real, _) = resolve(target, EntryKind::Folder)?;

@@ -64,10 +64,10 @@ pub struct RewindArgs {
     /// The design file (TOML) of the machine as it is.
     pub design: PathBuf,
     /// New terminal voltage, V.
-    #[arg(long, value_name = "V")]
+    #[arg(long, value_name = "V", allow_negative_numbers = true)]
     pub voltage: Option<f64>,
     /// New speed, rpm (default: the design's speed).
-    #[arg(long, value_name = "N")]
+    #[arg(long, value_name = "N", allow_negative_numbers = true)]
     pub speed: Option<f64>,
     /// New connection (default: the design's).
     #[arg(long = "type", value_enum, value_name = "KIND")]
@@ -79,10 +79,10 @@ pub struct RewindArgs {
     #[arg(long, value_name = "u")]
     pub coils_per_slot: Option<u32>,
     /// Measured no-load (open-circuit) voltage and speed of the old machine: back-solves the flux.
-    #[arg(long, num_args = 2, value_names = ["V0", "N0"])]
+    #[arg(long, num_args = 2, value_names = ["V0", "N0"], allow_negative_numbers = true)]
     pub from_test: Option<Vec<f64>>,
     /// Measured armature resistance, ohm, taken as at 20 C (replaces the calculated value).
-    #[arg(long, value_name = "OHMS")]
+    #[arg(long, value_name = "OHMS", allow_negative_numbers = true)]
     pub ra: Option<f64>,
     /// Where to write the new design.
     #[arg(short = 'o', long = "output", value_name = "NEW.toml")]

@@ -264,10 +264,7 @@ pub fn draw(a: &DrawArgs) -> Result<Outcome, CliError> {
             .join("diagram.svg")
     });
     if let Some(dir) = path.parent().filter(|p| !p.as_os_str().is_empty()) {
-        std::fs::create_dir_all(dir).map_err(|source| CliError::CreateDir {
-            path: dir.to_path_buf(),
-            source,
-        })?;
+        super::output::make_folders(dir, &path, super::output::EntryKind::File)?;
     }
     // Into the design's own output folder, under that folder's lock, as `sheet` and `test -o`
     // write there (a path given with -o is the user's own).

@@ -165,7 +165,10 @@ impl Scheme {
     pub fn label(&self) -> String {
         let word = multiplicity_word(self.multiplicity);
         let dummies = if self.dummies > 0 {
-            format!(", {} dummy", self.dummies)
+            format!(
+                ", {}",
+                crate::base::number::counted(self.dummies, "dummy coil", "dummy coils")
+            )
         } else {
             String::new()
         };

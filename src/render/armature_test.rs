@@ -10,7 +10,9 @@ use serde::Serialize;
 
 use super::csv::{Cell, csv_file};
 use crate::base::caution::TEST_CAUTIONS;
-use crate::base::number::{Prefix, decimals_for, fmt_fixed, fmt_prefixed, fmt_sig, round_sig};
+use crate::base::number::{
+    Prefix, counted, decimals_for, fmt_fixed, fmt_prefixed, fmt_sig, plural, round_sig,
+};
 use crate::checks::{NOT_FOR_WINDING, refusal_line};
 use crate::features::armature_test::{
     ArmatureTest, DropFeed, ElementsPattern, Fault, Location, Pattern, Reading, ReadingKind,
@@ -150,11 +152,11 @@ fn drop_table(out: &mut String, f: &DropFeed, head: &str, p: Prefix) {
 pub fn elements_words(e: &ElementsPattern, t: &ArmatureTest) -> String {
     let (p, unit) = (t.reading_prefix(), reading_unit(t));
     format!(
-        "frog-leg: each pair of neighbouring bars has a lap coil across it, in parallel with the rest of the lap element and with the wave element, so the readings are about {} {unit}, against {} {unit} for the lap element alone ({} % of it); an open lap coil moves {} reading(s) by more than 5 %, an open wave coil {}: lift the wave leads to test the lap element as a plain lap",
+        "frog-leg: each pair of neighbouring bars has a lap coil across it, in parallel with the rest of the lap element and with the wave element, so the readings are about {} {unit}, against {} {unit} for the lap element alone ({} % of it); an open lap coil moves {} by more than 5 %, an open wave coil {}: lift the wave leads to test the lap element as a plain lap",
         fmt_prefixed(e.combined, p),
         fmt_prefixed(e.lap_alone, p),
         fmt_fixed(100.0 * e.combined / e.lap_alone.max(1e-300), 1),
-        e.open_lap_moves,
+        counted(e.open_lap_moves, "reading", "readings"),
         e.open_wave_moves
     )
 }
@@ -173,12 +175,12 @@ pub fn render_test_text(t: &ArmatureTest, design_name: &str, failures: &[String]
     }
     let _ = writeln!(
         out,
-        "winding: {} {}, {} bars, {} poles, {} closed winding(s){}",
+        "winding: {} {}, {} bars, {} poles, {}{}",
         multiplicity_word(t.multiplicity),
         t.winding_type.as_str(),
         t.bars,
         t.poles,
-        t.reentrancy,
+        counted(t.reentrancy, "closed winding", "closed windings"),
         if t.equalized {
             ", equalizers fitted (ideal)"
         } else {
@@ -206,7 +208,8 @@ pub fn render_test_text(t: &ArmatureTest, design_name: &str, failures: &[String]
     if open > 0 {
         let _ = writeln!(
             out,
-            "  {open} pair(s) read open: neighbouring bars lie on different closed windings; read bars {} apart, within one winding, instead",
+            "  {} read open: neighbouring bars lie on different closed windings; read bars {} apart, within one winding, instead",
+            counted(open, "pair", "pairs"),
             t.multiplicity
         );
     }
@@ -269,6 +272,16 @@ fn list(v: &[u32]) -> String {
 /// scale of 10^6); otherwise the file's own unit, with what one ohm (or one coil) reads in it.
 pub fn measured_unit_words(t: &ArmatureTest, l: &Location) -> String {
     let s = l.healthy_scale;
+    // Readings all zero fit no scale (the verdict says what that means).
+    if l.all_zero {
+        return match l.kind {
+            ReadingKind::Drop => format!(
+                "millivolts of the drop test, {} A fed at the feed bars listed below",
+                fmt_sig(t.drop_test.current_a, 4)
+            ),
+            ReadingKind::BarToBar => "the file's own unit".to_string(),
+        };
+    }
     if l.kind == ReadingKind::Drop {
         return format!(
             "millivolts of the drop test, {} A fed at the feed bars listed below (the fitted scale: the readings are {} of the expected)",
@@ -316,17 +329,24 @@ fn locator_text(out: &mut String, l: &Location, t: &ArmatureTest, refused: bool)
             "VERDICT: NOT HEALTHY (exit 1): every reading is zero where the winding reads a resistance: a shorted commutator (solder, carbon or copper across the bars) or the meter on the wrong range; check the range and the probes, then look along the commutator"
         );
     } else {
+        let pairs: Vec<String> = l
+            .suspect_pairs
+            .iter()
+            .map(|(a, b)| format!("{a}-{b}"))
+            .collect();
         let _ = writeln!(
             out,
-            "VERDICT: NOT HEALTHY (exit 1): readings outside tolerance at bars {}",
+            "VERDICT: NOT HEALTHY (exit 1): readings outside tolerance at the {} {} (bars {} to inspect)",
+            plural(pairs.len(), "pair", "pairs"),
+            pairs.join(", "),
             list(&l.suspect_bars)
         );
     }
     let _ = writeln!(
         out,
-        "  {} reading(s) compared, {} pair(s) not read; tolerance {} % of the healthy pattern (default 5 %, --tolerance)",
-        l.measured.len(),
-        l.missing,
+        "  {} compared, {} not read; tolerance {} % of the healthy pattern (default 5 %, --tolerance)",
+        counted(l.measured.len(), "reading", "readings"),
+        counted(l.missing, "pair", "pairs"),
         fmt_fixed(100.0 * l.tolerance, 1)
     );
     let _ = writeln!(out, "  readings as given: {}", measured_unit_words(t, l));
@@ -371,8 +391,9 @@ fn locator_text(out: &mut String, l: &Location, t: &ArmatureTest, refused: bool)
     for (k, n) in &l.invisible {
         let _ = writeln!(
             out,
-            "  {} at {n} place(s) would change no reading: this test cannot see it",
-            k.key()
+            "  {} at {} would change no reading: this test cannot see it",
+            k.key(),
+            counted(*n, "place", "places")
         );
     }
 }
@@ -505,7 +526,7 @@ fn location_json(l: &Location) -> LocationJson {
         invisible: l
             .invisible
             .iter()
-            .map(|(k, n)| format!("{} at {n} place(s)", k.key()))
+            .map(|(k, n)| format!("{} at {}", k.key(), counted(*n, "place", "places")))
             .collect(),
         missing_pairs: l.missing,
         off_scale: l.off_scale.map(|s| round_sig(s, DIGITS)),

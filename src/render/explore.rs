@@ -10,7 +10,7 @@ use std::io::{self, Write};
 use serde::Serialize;
 
 use crate::base::Units;
-use crate::base::number::fmt_fixed;
+use crate::base::number::{counted, fmt_fixed};
 use crate::base::visible::visible;
 use crate::design::{ConductorShape, Frame};
 use crate::features::explore::{Candidate, Explored};
@@ -46,8 +46,9 @@ pub fn render_explore(f: &Frame, r: &Explored, top: usize) -> String {
     for x in &r.refused {
         let _ = writeln!(
             s,
-            "refused before tracing: {} structure(s) at {}",
-            x.structures, x.key
+            "refused before tracing: {} at {}",
+            counted(x.structures, "structure", "structures"),
+            x.key
         );
     }
     s.push_str("order: the front first, then copper loss, peak segment voltage, slot fill\n");

@@ -10,6 +10,7 @@ use std::io::{self, Write};
 
 use serde::Serialize;
 
+use crate::base::number::counted;
 use crate::base::visible::visible;
 use crate::design::{Card, ConductorShape, HalfBars, Rotation};
 use crate::features::identify::{Candidate, Identified};
@@ -111,13 +112,13 @@ fn summary(k: &Candidate) -> String {
     let d = &k.checked.design;
     let dummies = d.dummy_count();
     format!(
-        "{} {} {}, {} coil(s) a slot, {} bars, {} dummy coil(s), y_c {}, span {}, lead offset {}",
+        "{} {} {}, {} a slot, {} bars, {}, y_c {}, span {}, lead offset {}",
         d.direction.as_str(),
         multiplicity_word(d.multiplicity),
         d.winding_type.as_str(),
-        d.coils_per_slot,
+        counted(d.coils_per_slot, "coil", "coils"),
         d.segments,
-        dummies,
+        counted(dummies, "dummy coil", "dummy coils"),
         k.checked.winding.pitches.commutator,
         span_shop(d.span),
         d.lead_offset
@@ -136,7 +137,10 @@ fn unusual_words(k: &Candidate) -> String {
     }
     let dummies = d.dummy_count();
     if dummies > 0 {
-        why.push(format!("{dummies} dummy coil(s) the card does not list"));
+        why.push(format!(
+            "{} the card does not list",
+            counted(dummies, "dummy coil", "dummy coils")
+        ));
     }
     if k.checked.has_errors() {
         why.push("check refuses it".to_string());

@@ -6,7 +6,7 @@
 use std::fmt::Write;
 
 use crate::base::caution::CAUTIONS;
-use crate::base::number::{fmt_fixed, fmt_signed};
+use crate::base::number::{counted, fmt_fixed, fmt_signed};
 use crate::base::visible::visible;
 use crate::base::{Severity, Units};
 use crate::checks::Checked;
@@ -129,8 +129,7 @@ fn offered(s: &mut String, o: &Offers, p: &RewindPlan) {
             .map(|c| match c {
                 Change::Kind(k) => format!("{} winding", k.as_str()),
                 Change::Multiplicity(m) => format!("multiplicity {m}"),
-                Change::CoilsPerSlot(1) => "1 coil per slot".to_string(),
-                Change::CoilsPerSlot(u) => format!("{u} coils per slot"),
+                Change::CoilsPerSlot(u) => format!("{} per slot", counted(*u, "coil", "coils")),
             })
             .collect();
         let wire = n.conductor.as_ref().map_or(String::new(), |c| {

@@ -7,7 +7,7 @@
 use std::fmt::Write;
 
 use crate::base::caution::CAUTIONS;
-use crate::base::number::fmt_fixed;
+use crate::base::number::{counted, fmt_fixed, plural};
 use crate::base::visible::{visible, visible_lines};
 use crate::base::{Finding, Severity};
 use crate::checks::Checked;
@@ -109,8 +109,9 @@ fn summary(s: &mut String, d: &Design, w: &Winding) {
         "none".to_string()
     } else {
         format!(
-            "{} at position(s) {}",
+            "{} at {} {}",
             w.dummy_coils.len(),
+            plural(w.dummy_coils.len(), "position", "positions"),
             join(&w.dummy_coils)
         )
     };
@@ -183,7 +184,7 @@ fn elements(s: &mut String, d: &Design, w: &Winding) {
             s,
             &format!("{} element", e.kind.as_str()),
             format!(
-                "{} {}, y_c {:+}, span {} (\"{}\"), y_b {}, y_f {}, {} turn(s), {} closed winding(s), {} paths traced (formula {})",
+                "{} {}, y_c {:+}, span {} (\"{}\"), y_b {}, y_f {}, {}, {}, {} traced (formula {})",
                 multiplicity_word(e.multiplicity),
                 e.direction.as_str(),
                 p.commutator,
@@ -191,9 +192,9 @@ fn elements(s: &mut String, d: &Design, w: &Winding) {
                 span_shop(p.span),
                 p.back,
                 p.front,
-                e.turns,
-                e.reentrancy,
-                e.paths,
+                counted(e.turns, "turn", "turns"),
+                counted(e.reentrancy, "closed winding", "closed windings"),
+                counted(e.paths, "path", "paths"),
                 e.paths_formula
             ),
         );
@@ -319,7 +320,8 @@ fn paths(s: &mut String, d: &Design, w: &Winding) {
             s,
             "under commutation",
             format!(
-                "coil(s) {} (shorted by a brush at the reference position)",
+                "{} {} (shorted by a brush at the reference position)",
+                plural(w.shorted_coils.len(), "coil", "coils"),
                 join(&w.shorted_coils)
             ),
         );
@@ -422,7 +424,12 @@ fn checks(s: &mut String, findings: &[Finding], opts: TextOptions<'_>) {
         let _ = writeln!(s, "  {} {}: {}", mark(f, opts.unicode), f.id, f.message);
         let _ = writeln!(s, "         source: {}", f.source);
     }
-    let _ = writeln!(s, "\n  {errors} error(s), {warnings} warning(s)");
+    let _ = writeln!(
+        s,
+        "\n  {}, {}",
+        counted(errors, "error", "errors"),
+        counted(warnings, "warning", "warnings")
+    );
 }
 
 fn connections(s: &mut String, w: &Winding) {

@@ -183,7 +183,7 @@ fn readings_file_errors_are_located() {
         ),
         (
             "from_bar,to_bar,reading\n1,2,1\n2,3,1\n",
-            "3:1: 2 reading(s): the locator needs at least 3",
+            "3:1: 2 readings in the `reading` column: the locator needs at least 3",
         ),
     ];
     for (i, (body, want)) in cases.iter().enumerate() {

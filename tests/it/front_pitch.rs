@@ -168,7 +168,7 @@ fn conveyor_demo_front_pitches() {
     assert!(f.passed);
     assert!(
         f.message.starts_with("40 of 119 front connections")
-            && f.message.contains("40 use 45 (+2), from coil(s) 80-119"),
+            && f.message.contains("40 use 45 (+2), from coils 80-119"),
         "{}",
         f.message
     );

@@ -178,7 +178,7 @@ fn a_pick_beyond_the_candidates_is_refused() {
     let o = armsheet_in(&["identify", &c, "--pick", "2", "-o", "d.toml"], &dir);
     assert_eq!(o.status.code(), Some(2));
     assert!(
-        text(&o.stderr).contains("--pick 2: there is 1 candidate(s)"),
+        text(&o.stderr).contains("--pick 2: there is 1 candidate;"),
         "{}",
         text(&o.stderr)
     );
@@ -504,7 +504,7 @@ fn a_dead_coil_count_that_conflicts_is_blamed_on_the_dead_coils() {
     );
     assert_eq!(code, 1, "{said}");
     assert!(
-        said.contains("leaves 0 dummy coil(s), but 1 dead coil(s) are listed"),
+        said.contains("leaves 0 dummy coils, but 1 dead coil is listed"),
         "{said}"
     );
     assert!(

@@ -36,7 +36,8 @@ fn writes_a_new_design_that_parses_back_and_keeps_it_without_force() {
         "{report}"
     );
     assert!(
-        report.contains("simplex lap (a = 4, C = 36) -> simplex wave (a = 2, C = 35, 1 dummy)"),
+        report
+            .contains("simplex lap (a = 4, C = 36) -> simplex wave (a = 2, C = 35, 1 dummy coil)"),
         "{report}"
     );
     assert!(report.contains("fit a new commutator"), "{report}");

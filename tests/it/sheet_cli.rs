@@ -213,7 +213,7 @@ fn window_options_beyond_the_armature_are_refused_and_nothing_is_written() {
         ),
         (
             &["--window", "3"][..],
-            "--window 3: the machine has 2 pole pair(s) (4 poles); nothing was written",
+            "--window 3: the machine has 2 pole pairs (4 poles); nothing was written",
             "= hint: `--window all` for the whole armature, or at most 2",
         ),
     ] {

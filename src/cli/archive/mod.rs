@@ -15,8 +15,9 @@ use std::path::{Path, PathBuf};
 use clap::{Args, Subcommand};
 
 use super::Outcome;
-use super::error::{CliError, shown};
+use super::error::{ArchiveInput, CliError, shown};
 use super::output::{print_stdout, write_atomic};
+use crate::base::number::counted;
 use crate::base::visible::visible;
 use crate::design::{Card, parse_card_bytes, parse_design, parse_design_bytes};
 use crate::features::archive::{
@@ -260,8 +261,9 @@ fn record_of(
 ) -> Result<(Record, bool), CliError> {
     let design = parse_design(&design_text, design_name)?;
     let checked = crate::check(design);
-    let job = job_fields(&checked.design.job).map_err(|m| CliError::Archive {
-        archive: PathBuf::from(design_name),
+    let job = job_fields(&checked.design.job).map_err(|m| CliError::ArchiveInput {
+        about: ArchiveInput::Design,
+        path: PathBuf::from(design_name),
         message: m.to_string(),
     })?;
     let (readings, verdict) = match readings {
@@ -311,11 +313,23 @@ fn record_of(
 /// SHA-256, by name.
 fn sheet_hashes(dir: &Path) -> Result<Vec<SheetFile>, CliError> {
     use sha2::{Digest, Sha256};
-    let list = super::output::read_set_list(dir).ok_or_else(|| CliError::Archive {
-        archive: dir.to_path_buf(),
+    let list = super::output::read_set_list(dir).ok_or_else(|| CliError::ArchiveInput {
+        about: ArchiveInput::SheetSet,
+        path: dir.to_path_buf(),
         message: format!(
-            "not a sheet set: there is no {} in it; nothing was written\n  = hint: give the folder `armsheet sheet` wrote, e.g. out/<design-stem>",
-            super::output::SET_LIST
+            "{}; nothing was written\n  = hint: give the folder `armsheet sheet` wrote, e.g. out/<design-stem>",
+            match std::fs::metadata(dir) {
+                Err(e) if e.kind() == std::io::ErrorKind::NotFound =>
+                    "there is no such folder".to_string(),
+                Ok(m) if !m.is_dir() => format!(
+                    "it is a {}, not a folder",
+                    super::output::EntryKind::of(m.file_type()).noun()
+                ),
+                _ => format!(
+                    "not a sheet set: there is no {} in it",
+                    super::output::SET_LIST
+                ),
+            }
         ),
     })?;
     let mut names: Vec<_> = list.into_iter().collect();
@@ -420,8 +434,9 @@ fn card_fits(path: &Path, card: &Card, record: &Record) -> Result<(), CliError> 
     if d.is_empty() {
         return Ok(());
     }
-    Err(CliError::Archive {
-        archive: path.to_path_buf(),
+    Err(CliError::ArchiveInput {
+        about: ArchiveInput::Card,
+        path: path.to_path_buf(),
         message: format!(
             "this data card is not of the armature the design winds: {}; nothing was written\n  = hint: give the card taken from this armature, or put the card's job id in the design's [job] id",
             d.join("; ")
@@ -560,13 +575,13 @@ fn show(a: &ShowArgs) -> Result<Outcome, CliError> {
         );
         let _ = writeln!(
             s,
-            "  wire {}{}, lead swing {}, {} brush sets, {} equalizers, {} dummies{}",
+            "  wire {}{}, lead swing {}, {}, {}, {}{}",
             m.wire.as_deref().unwrap_or("not given"),
             m.strands.map(|n| format!(" x{n}")).unwrap_or_default(),
             m.lead_swing,
-            m.brush_sets,
-            m.equalizers,
-            m.dummies,
+            counted(m.brush_sets, "brush set", "brush sets"),
+            counted(m.equalizers, "equalizer", "equalizers"),
+            counted(m.dummies, "dummy coil", "dummy coils"),
             m.rating
                 .as_deref()
                 .map(|r| format!(", rated {r}"))
@@ -793,8 +808,8 @@ fn imported(
     }
     let _ = writeln!(
         s,
-        "{} job(s) added to {}",
-        records.len(),
+        "{} added to {}",
+        counted(records.len(), "job", "jobs"),
         shown(&at.shown())
     );
     s

@@ -151,6 +151,8 @@ pub struct Location {
     pub healthy_scale: f64,
     /// Bars of readings outside tolerance.
     pub suspect_bars: Vec<u32>,
+    /// The pairs read outside tolerance (from bar, to bar), in the test's order.
+    pub suspect_pairs: Vec<(u32, u32)>,
     /// The best hypotheses, best first (at most [`KEPT`]).
     pub faults: Vec<Fault>,
     /// Hypotheses that change no reading (cannot be seen by this test), by kind.
@@ -668,6 +670,7 @@ pub fn locate(
         tolerance,
         healthy_scale: scale,
         suspect_bars: healthy.suspect_bars,
+        suspect_pairs: healthy.suspect_pairs,
         faults: ranking.faults,
         invisible: FaultKind::ALL
             .iter()
@@ -815,6 +818,7 @@ fn rank_all(problem: &Problem, ranking: &mut Ranking) {
 struct Healthy {
     scale: f64,
     suspect_bars: Vec<u32>,
+    suspect_pairs: Vec<(u32, u32)>,
     all_zero: bool,
 }
 
@@ -841,6 +845,7 @@ fn healthy_pattern(pr: &Problem, rows: &[(Reading, ReadingValue)], tolerance: f6
     let all_zero = !numeric.is_empty() && ratios.is_empty();
     let scale = ratios.get(ratios.len() / 2).copied().unwrap_or(1.0);
     let mut suspect_bars = Vec::new();
+    let mut suspect_pairs = Vec::new();
     for ((r, m), b) in rows.iter().zip(&base) {
         let ok = match (m, b) {
             (ReadingValue::Value(m), Some(b)) => {
@@ -851,6 +856,7 @@ fn healthy_pattern(pr: &Problem, rows: &[(Reading, ReadingValue)], tolerance: f6
         };
         if !ok {
             suspect_bars.extend([r.from_bar, r.to_bar]);
+            suspect_pairs.push((r.from_bar, r.to_bar));
         }
     }
     suspect_bars.sort_unstable();
@@ -858,6 +864,7 @@ fn healthy_pattern(pr: &Problem, rows: &[(Reading, ReadingValue)], tolerance: f6
     Healthy {
         scale,
         suspect_bars,
+        suspect_pairs,
         all_zero,
     }
 }

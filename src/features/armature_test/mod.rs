@@ -279,6 +279,7 @@ pub fn armature_test(
             return Err(ReadingsError {
                 line: 1,
                 column: 1,
+                hint: None,
                 message: format!(
                     "the locator works on armatures of up to {} bars (equalizer-tied bars counted once); this one has {}",
                     locator::MAX_NODES,

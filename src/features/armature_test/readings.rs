@@ -13,6 +13,8 @@
 
 use std::collections::BTreeMap;
 
+use crate::base::number::counted;
+
 /// One measured value.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub enum ReadingValue {
@@ -51,6 +53,8 @@ pub struct ReadingsError {
     pub column: usize,
     /// What is wrong, lower-case.
     pub message: String,
+    /// What to do about it, where the problem has a hint of its own (else the file format's).
+    pub hint: Option<String>,
 }
 
 /// Fewest readings the locator works from.
@@ -82,6 +86,7 @@ pub fn readings_text(bytes: &[u8]) -> Result<&str, ReadingsError> {
         ReadingsError {
             line,
             column,
+            hint: None,
             message: format!(
                 "byte 0x{:02x} (character {} of the line) is not UTF-8: save the file as UTF-8 (or plain ASCII) text",
                 bytes[e.valid_up_to()],
@@ -113,6 +118,7 @@ pub fn parse_readings(
         line,
         column,
         message,
+        hint: None,
     };
     let line_ends: Vec<usize> = text
         .bytes()
@@ -164,6 +170,8 @@ pub fn parse_readings(
         ..MeasuredReadings::default()
     };
     let mut last = h;
+    // Pairs listed with the reading left empty (the readings file `test -o` writes, unfilled).
+    let mut empty = 0usize;
     for record in records {
         let (line, record) = record?;
         last = line;
@@ -193,6 +201,7 @@ pub fn parse_readings(
             ));
         };
         let Some(value) = reading_value(field(cr)).map_err(|m| err(line, cr + 1, m))? else {
+            empty += 1;
             continue;
         };
         if out.values.insert(pair, value).is_some() {
@@ -204,16 +213,31 @@ pub fn parse_readings(
         }
     }
     if out.values.len() < MIN_READINGS {
-        return Err(err(
-            last,
-            1,
-            format!(
-                "{} reading(s): the locator needs at least {MIN_READINGS}",
-                out.values.len()
-            ),
-        ));
+        let column = header.get(cr).unwrap_or("");
+        return Err(too_few(last, column, out.values.len(), empty));
     }
     Ok(out)
+}
+
+/// Fewer than [`MIN_READINGS`] readings, `n`, in the reading column named `column`, at the
+/// file's last line `line`; with `empty` pairs listed and left empty (the file `test -o`
+/// writes, unfilled), the hint is to fill in that column.
+fn too_few(line: usize, column: &str, n: usize, empty: usize) -> ReadingsError {
+    let column = echo(column.trim_start_matches('\u{feff}').trim());
+    ReadingsError {
+        line,
+        column: 1,
+        message: format!(
+            "{} in the `{column}` column: the locator needs at least {MIN_READINGS}",
+            counted(n, "reading", "readings")
+        ),
+        hint: (empty > 0).then(|| {
+            format!(
+                "fill in the `{column}` column with the meter's reading for each pair ({} left empty); a pair not read may stay empty",
+                counted(empty, "row", "rows")
+            )
+        }),
+    }
 }
 
 /// The columns of the header: from bar, to bar and the reading, and what the readings are;

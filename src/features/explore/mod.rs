@@ -28,7 +28,7 @@
 
 use rayon::prelude::*;
 
-use crate::base::number::fmt_fixed;
+use crate::base::number::{counted, fmt_fixed};
 use crate::checks::{Checked, Severity, check};
 use crate::design::{
     Conductor, ConductorFamily, ConductorShape, Design, DesignError, DesignSpec, Direction,
@@ -772,8 +772,8 @@ pub fn explore(f: &Frame) -> Explored {
         ));
     }
     cut_short.push(format!(
-        "spans: the pole pitch S/P and {} slot(s) either side (search.span_slack)",
-        f.search.span_slack
+        "spans: the pole pitch S/P and {} either side (search.span_slack)",
+        counted(f.search.span_slack, "slot", "slots")
     ));
     cut_short.push("turns: the speed band's turns and one either side".to_string());
     cut_short.push("no equalizers, lead offset 0, dummy coils spread evenly, brush sets as the commutator gives".to_string());

@@ -13,7 +13,7 @@
 //! fixes the design's `lead_offset` (the engine's `LeadSwing` convention): the offset is the
 //! observed swing less the swing on neutral, then traced again to confirm.
 
-use crate::base::number::fmt_fixed;
+use crate::base::number::{counted, fmt_fixed, plural};
 use crate::checks::BAR_RULE;
 use crate::checks::{Checked, check};
 use crate::design::{
@@ -165,7 +165,7 @@ fn recount(card: &Card, best: Option<(bool, u32, u32)>) -> Recount {
             d.winding_type.as_str(),
             match dummies {
                 0 => "no dummy coil".to_string(),
-                n => format!("{n} dummy coil(s)"),
+                n => counted(n, "dummy coil", "dummy coils"),
             }
         );
         match readings.iter_mut().find(|(w, _)| *w == words) {
@@ -339,7 +339,8 @@ fn coil_counts(
         if n < c || i64::from(n) > bounds::MAX_COILS {
             if card.coils_per_slot.is_some() {
                 rejected.push(format!(
-                    "a {name}: {c} bars need at least {c} coils, but {u} coil(s) per slot in {s} slots is {n}"
+                    "a {name}: {c} bars need at least {c} coils, but {} per slot in {s} slots is {n}",
+                    counted(u, "coil", "coils")
                 ));
             }
             continue;
@@ -361,17 +362,27 @@ fn coil_counts(
             dead_told |= card.dead_coils.is_some();
             rejected.push(match (kind, &card.dead_coils) {
                 (k, _) if k.kind().uses_every_coil() => format!(
-                    "a {name} uses every coil: {u} coil(s) per slot in {s} slots needs {n} bars, you counted {c}"
+                    "a {name} uses every coil: {} per slot in {s} slots needs {n} bars, you counted {c}",
+                    counted(u, "coil", "coils")
                 ),
                 (_, Some(dead)) => format!(
-                    "a {name} with {u} coil(s) per slot in {s} slots leaves {} dummy coil(s), but {} dead coil(s) are listed",
-                    n - c,
-                    dead.len()
+                    "a {name} with {} per slot in {s} slots leaves {}, but {} listed",
+                    counted(u, "coil", "coils"),
+                    counted(n - c, "dummy coil", "dummy coils"),
+                    match dead.len() {
+                        1 => "1 dead coil is".to_string(),
+                        k => format!("{k} dead coils are"),
+                    }
                 ),
                 _ => format!(
-                    "a {name} with {u} coil(s) per slot in {s} slots would take {} bars ({} dummy coil(s)), you counted {c}",
+                    "a {name} with {} per slot in {s} slots would take {} bars ({}), you counted {c}",
+                    counted(u, "coil", "coils"),
                     kind.kind().default_segments(n, m, p, dir).unwrap_or(0),
-                    n - kind.kind().default_segments(n, m, p, dir).unwrap_or(n)
+                    counted(
+                        n - kind.kind().default_segments(n, m, p, dir).unwrap_or(n),
+                        "dummy coil",
+                        "dummy coils"
+                    )
                 ),
             });
         }
@@ -499,7 +510,8 @@ fn dummy_coils(card: &Card, u: u32, count: u32) -> Result<Option<Vec<u32>>, Stri
         let before = dead[..i].iter().filter(|&&s| s == slot).count() as u32;
         if before >= u {
             return Err(format!(
-                "slot {slot} is listed more often than its {u} coil(s)"
+                "slot {slot} is listed more often than its {}",
+                counted(u, "coil", "coils")
             ));
         }
         coils.push(slot * u - before);
@@ -629,18 +641,21 @@ fn explain(card: &Card, k: &Checked, yc: i64, dummies: u32, named: &Option<Vec<u
     };
     let coils = match (dummies, named) {
         (0, _) => format!(
-            "{} coil(s) a slot, {} coils, no dummy",
-            d.coils_per_slot,
+            "{} a slot, {} coils, no dummy",
+            counted(d.coils_per_slot, "coil", "coils"),
             u64::from(c)
         ),
         (n, None) => format!(
-            "{} coil(s) a slot: {} coil positions for {c} bars leaves {n} dummy coil(s), spread evenly",
-            d.coils_per_slot,
-            c + n
+            "{} a slot: {} coil positions for {c} bars leaves {}, spread evenly",
+            counted(d.coils_per_slot, "coil", "coils"),
+            c + n,
+            counted(n, "dummy coil", "dummy coils")
         ),
         (n, Some(list)) => format!(
-            "{} coil(s) a slot: {n} dummy coil(s), coil(s) {} in the slots found dead",
-            d.coils_per_slot,
+            "{} a slot: {}, {} {} in the slots found dead",
+            counted(d.coils_per_slot, "coil", "coils"),
+            counted(n, "dummy coil", "dummy coils"),
+            plural(list.len(), "coil", "coils"),
             list.iter()
                 .map(u32::to_string)
                 .collect::<Vec<_>>()

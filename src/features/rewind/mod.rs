@@ -13,7 +13,7 @@ use crate::rating::conductor::{self, OldWire, WireFamily, WireOption};
 pub mod alternatives;
 pub mod design_toml;
 
-use crate::base::number::{fmt_fixed, fmt_signed, round_sig};
+use crate::base::number::{counted, fmt_fixed, fmt_signed, round_sig};
 use crate::design::{
     ConductorShape, Design, DesignError, EqualizerChoice, Mode, Rating, WindingType, bounds,
 };
@@ -783,16 +783,17 @@ fn new_design(
     }
     if conn.dummies > 0 {
         notes.push(format!(
-            "{} dummy coil(s): wound for balance, ends cut back and taped, not connected",
-            conn.dummies
+            "{}: wound for balance, ends cut back and taped, not connected",
+            counted(conn.dummies, "dummy coil", "dummy coils")
         ));
     }
     let mut nd = d.spec();
     let u1 = (conn.segments + conn.dummies) / d.slots.max(1);
     if u1 != d.coils_per_slot {
         notes.push(format!(
-            "coils per slot {} -> {u1}: the same slot space shared by {u1} coils a slot, the span in slots kept; new coils and, with more segments, a new commutator",
-            d.coils_per_slot
+            "coils per slot {} -> {u1}: the same slot space shared by {} a slot, the span in slots kept; new coils and, with more segments, a new commutator",
+            d.coils_per_slot,
+            counted(u1, "coil", "coils")
         ));
         nd.coils_per_slot = u1;
     }
