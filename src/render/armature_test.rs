@@ -382,7 +382,7 @@ fn locator_text(out: &mut String, l: &Location, t: &ArmatureTest, refused: bool)
         }
         _ => {}
     }
-    if !l.healthy {
+    if !l.healthy && !l.faults.is_empty() {
         let _ = writeln!(out, "  most likely faults, best first:");
         for (i, f) in l.faults.iter().take(3).enumerate() {
             fault_text(out, i + 1, f);

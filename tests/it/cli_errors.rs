@@ -485,6 +485,8 @@ fn readings_all_zero_say_nothing_of_a_fitted_scale() {
         "{out}"
     );
     assert!(!out.contains("fitted scale"), "{out}");
+    // No single fault is ranked for a shorted commutator: no empty list heading either.
+    assert!(!out.contains("most likely faults"), "{out}");
 }
 
 #[test]
