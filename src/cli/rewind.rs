@@ -300,7 +300,7 @@ fn searched(d: &Design, plan: &RewindPlan, req: &RewindRequest) -> String {
         s.push_str(".\n");
         return s;
     }
-    s.push_str("; the nearest to the request, each passing check:\n");
+    s.push_str("; the nearest to the request, each passing check and clear of every rating warning (the search's sense of fit):\n");
     s.push_str(&candidates_text(passing));
     s.push_str(
         "  to write one: armsheet new --frame FRAME.toml, fill it in, then armsheet explore FRAME.toml --write N -o DESIGN.toml\n",
