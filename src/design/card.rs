@@ -34,7 +34,7 @@ use toml::de::{DeTable, DeValue};
 use super::Diagnostic;
 use super::diagnostic::Diagnostics;
 use super::model::{ConductorShape, HalfBars, Job, Rotation, bounds};
-use super::parse::{header_span, missing_table, open_document, read_all, utf8};
+use super::parse::{missing_table, open_document, read_all, tables, utf8};
 use super::reader::{At, Found, Source, TableReader, nearest};
 use super::tables::{armature, conductor, job, winding};
 use crate::base::visible::{ECHO_WIDTH, clip};
@@ -136,16 +136,8 @@ fn read_card(text: &str, file: &str, found: &Found) -> Result<Option<Card>, Diag
         ),
         check_tables,
     )?;
-    let root_table = root.get_ref();
     let empty = DeTable::default();
-    let table = |name: &'static str| -> Option<TableReader<'_, '_>> {
-        root_table.get(name).map(|v| TableReader {
-            src,
-            name,
-            table: v.get_ref().as_table().unwrap_or(&empty),
-            span: header_span(text, name).unwrap_or_else(|| v.span()),
-        })
-    };
+    let table = tables(src, root.get_ref(), &empty);
     let job = table("job").map_or_else(Job::default, |t| job::read(&t));
     let Some(obs) = table("observed") else {
         return Err(missing_table(

@@ -41,8 +41,8 @@ use super::Diagnostic;
 use super::diagnostic::Diagnostics;
 use super::limits::Limits;
 use super::model::{Commutator, Core, Job, Mode, Rating, Rotation, WindingType, bounds};
-use super::parse::{header_span, missing_table, open_document, read_all, utf8};
-use super::reader::{At, Found, Source, TableReader, nearest};
+use super::parse::{expect_table, missing_table, open_document, read_all, tables, utf8};
+use super::reader::{Found, Source, TableReader, nearest};
 use super::tables::{armature, commutator, core, job, limits, rating};
 use crate::base::visible::{ECHO_WIDTH, clip};
 
@@ -229,16 +229,8 @@ fn read_frame(text: &str, file: &str, found: &Found) -> Result<Option<Frame>, Di
         ),
         check_tables,
     )?;
-    let root_table = root.get_ref();
     let empty = DeTable::default();
-    let table = |name: &'static str| -> Option<TableReader<'_, '_>> {
-        root_table.get(name).map(|v| TableReader {
-            src,
-            name,
-            table: v.get_ref().as_table().unwrap_or(&empty),
-            span: header_span(text, name).unwrap_or_else(|| v.span()),
-        })
-    };
+    let table = tables(src, root.get_ref(), &empty);
     let missing_table = |name: &str, example: &str| missing_table(&src, name, example);
     let job = table("job").map_or_else(Job::default, |t| job::read(&t));
     let arm = table("armature")
@@ -255,21 +247,8 @@ fn read_frame(text: &str, file: &str, found: &Found) -> Result<Option<Frame>, Di
     let arm_keys = src.keep(arm.deny_unknown(ARMATURE_KEYS));
     let poles = arm.keep(armature::read_poles(&arm));
     let slots = arm.keep(read_slots(&arm));
-    let rotation = match arm.keep(arm.choice("rotation", &["cw", "ccw"])).flatten() {
-        Some(At { value: "ccw", .. }) => Some(Rotation::CounterClockwise),
-        Some(_) => Some(Rotation::Clockwise),
-        None => None,
-    };
-    let pole_arc = arm
-        .keep(arm.number(
-            "pole_arc",
-            *super::POLE_ARC_RANGE.start(),
-            false,
-            *super::POLE_ARC_RANGE.end(),
-            "the pole arc as a fraction of the pole pitch",
-        ))
-        .flatten()
-        .map(|a| a.value);
+    let rotation = armature::read_rotation(&arm);
+    let pole_arc = armature::read_pole_arc(&arm);
     // No `[winding]` in a frame: the flux and speed are read from `[rating]` alone.
     let no_winding = TableReader {
         src,
@@ -661,20 +640,7 @@ fn check_tables(src: &Source<'_>, root_table: &DeTable<'_>) -> Result<(), Diagno
                 )),
             });
         }
-        if !v.get_ref().is_table() {
-            return Err(src
-                .error(
-                    v.span(),
-                    word,
-                    format!(
-                        "expected a table [{word}], found {}",
-                        v.get_ref().type_str()
-                    ),
-                )
-                .with_hint(format!(
-                    "write `[{word}]` on a line of its own and the keys under it"
-                )));
-        }
+        expect_table(src, word, v)?;
     }
     Ok(())
 }

@@ -121,6 +121,24 @@ pub(crate) fn open_document<'s>(
     Ok((src, root))
 }
 
+/// The tables of a document [`open_document`] opened, by name: each read by a
+/// [`TableReader`] spanning its header (a value that is no table reads as `empty`; the
+/// document's table check has refused it already).
+pub(crate) fn tables<'a, 'i>(
+    src: Source<'a>,
+    root: &'a DeTable<'i>,
+    empty: &'a DeTable<'i>,
+) -> impl Fn(&'static str) -> Option<TableReader<'a, 'i>> {
+    move |name| {
+        root.get(name).map(|v| TableReader {
+            src,
+            name,
+            table: v.get_ref().as_table().unwrap_or(empty),
+            span: header_span(src.text, name).unwrap_or_else(|| v.span()),
+        })
+    }
+}
+
 /// The error for a missing table `[name]`, at the end of the file, with an `example` of its
 /// keys.
 pub(crate) fn missing_table(src: &Source<'_>, name: &str, example: &str) -> Diagnostic {
@@ -146,16 +164,8 @@ fn read_design(text: &str, file: &str, found: &Found) -> Result<Option<Design>, 
         ),
         check_tables,
     )?;
-    let root_table = root.get_ref();
     let empty = DeTable::default();
-    let table = |name: &'static str| -> Option<TableReader<'_, '_>> {
-        root_table.get(name).map(|v| TableReader {
-            src,
-            name,
-            table: v.get_ref().as_table().unwrap_or(&empty),
-            span: header_span(text, name).unwrap_or_else(|| v.span()),
-        })
-    };
+    let table = tables(src, root.get_ref(), &empty);
     let missing_table = |name: &str, example: &str| missing_table(&src, name, example);
 
     let job = table("job").map_or_else(Job::default, |t| job::read(&t));
@@ -248,22 +258,32 @@ fn check_tables(src: &Source<'_>, root_table: &DeTable<'_>) -> Result<(), Diagno
                 None => d.with_hint(format!("a design holds the tables {}", tables_list())),
             });
         }
-        if !v.get_ref().is_table() {
-            return Err(src
-                .error(
-                    v.span(),
-                    word,
-                    format!(
-                        "expected a table [{word}], found {}",
-                        v.get_ref().type_str()
-                    ),
-                )
-                .with_hint(format!(
-                    "write `[{word}]` on a line of its own and the keys under it"
-                )));
-        }
+        expect_table(src, word, v)?;
     }
     Ok(())
+}
+
+/// Refuses a top-level key `word` whose value `v` is not a table.
+pub(crate) fn expect_table(
+    src: &Source<'_>,
+    word: &str,
+    v: &toml::Spanned<toml::de::DeValue<'_>>,
+) -> Result<(), Diagnostic> {
+    if v.get_ref().is_table() {
+        return Ok(());
+    }
+    Err(src
+        .error(
+            v.span(),
+            word,
+            format!(
+                "expected a table [{word}], found {}",
+                v.get_ref().type_str()
+            ),
+        )
+        .with_hint(format!(
+            "write `[{word}]` on a line of its own and the keys under it"
+        )))
 }
 
 fn tables_list() -> String {

@@ -616,12 +616,15 @@ fn values(r: &Record, revision: u32) -> Result<Vec<Value>, StoreError> {
     Ok(row)
 }
 
-/// `INSERT INTO jobs` with one placeholder a column.
-fn insert_sql() -> String {
+/// `INSERT INTO jobs` with one placeholder a column, written once.
+static INSERT_SQL: std::sync::LazyLock<String> = std::sync::LazyLock::new(|| {
     let n = COLUMNS.split(',').count();
     let marks: Vec<String> = (1..=n).map(|i| format!("?{i}")).collect();
     format!("INSERT INTO jobs ({COLUMNS}) VALUES ({})", marks.join(", "))
-}
+});
+
+/// Where the revision stands in [`COLUMNS`] (and so in a row of [`values`]).
+const REVISION: usize = 1;
 
 impl Store {
     /// Opens (or with [`Create::Yes`] makes) the archive at `at` and brings it to [`LATEST`],
@@ -869,7 +872,7 @@ impl Store {
 
     /// Writes `r` as revision `revision`.
     fn insert(&mut self, r: &Record, revision: u32) -> Result<(), StoreError> {
-        self.execute(&insert_sql(), &values(r, revision)?)
+        self.execute(&INSERT_SQL, &values(r, revision)?)
     }
 
     /// Adds `records` in one transaction, each as its job's next revision; returns the
@@ -879,8 +882,9 @@ impl Store {
             records
                 .iter()
                 .map(|r| {
-                    // What neither backend keeps is refused before any statement runs.
-                    values(r, 0)?;
+                    // The row first: what neither backend keeps is refused before any
+                    // statement runs.
+                    let mut row = values(r, 0)?;
                     let next = s
                         .int(
                             "SELECT COALESCE(MAX(revision), 0) + 1 FROM jobs WHERE job = ?1",
@@ -890,7 +894,8 @@ impl Store {
                     let revision = u32::try_from(next).map_err(|_| {
                         StoreError::Database(format!("revision {next} is out of range"))
                     })?;
-                    s.insert(r, revision)?;
+                    row[REVISION] = Value::count(revision);
+                    s.execute(&INSERT_SQL, &row)?;
                     Ok(revision)
                 })
                 .collect()

@@ -71,21 +71,8 @@ pub(crate) fn read(arm: &TableReader<'_, '_>) -> Option<Armature> {
         "the number of commutator segments (bars)",
         "count the bars; leave the key out to let armsheet work it out",
     ));
-    let rotation = match arm.keep(arm.choice("rotation", &["cw", "ccw"])).flatten() {
-        Some(At { value: "ccw", .. }) => Some(Rotation::CounterClockwise),
-        Some(_) => Some(Rotation::Clockwise),
-        None => None,
-    };
-    let pole_arc = arm
-        .keep(arm.number(
-            "pole_arc",
-            *POLE_ARC_RANGE.start(),
-            false,
-            *POLE_ARC_RANGE.end(),
-            "the pole arc as a fraction of the pole pitch",
-        ))
-        .flatten()
-        .map(|a| a.value);
+    let rotation = read_rotation(arm);
+    let pole_arc = read_pole_arc(arm);
     let (slots, u, segments) = (slots?, u?.map_or(1, |a| a.value), segments?);
     let positions = slots.value * u;
     if positions > bounds::MAX_COILS {
@@ -116,6 +103,28 @@ pub(crate) fn read(arm: &TableReader<'_, '_>) -> Option<Armature> {
         rotation,
         pole_arc,
     })
+}
+
+/// `rotation`, when given (`cw` or `ccw`; a problem is recorded).
+pub(crate) fn read_rotation(arm: &TableReader<'_, '_>) -> Option<Rotation> {
+    match arm.keep(arm.choice("rotation", &["cw", "ccw"])).flatten() {
+        Some(At { value: "ccw", .. }) => Some(Rotation::CounterClockwise),
+        Some(_) => Some(Rotation::Clockwise),
+        None => None,
+    }
+}
+
+/// `pole_arc`, when given, as a fraction of the pole pitch (a problem is recorded).
+pub(crate) fn read_pole_arc(arm: &TableReader<'_, '_>) -> Option<f64> {
+    arm.keep(arm.number(
+        "pole_arc",
+        *POLE_ARC_RANGE.start(),
+        false,
+        *POLE_ARC_RANGE.end(),
+        "the pole arc as a fraction of the pole pitch",
+    ))
+    .flatten()
+    .map(|a| a.value)
 }
 
 /// `poles`: present, in range and even.
